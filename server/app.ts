@@ -1,0 +1,90 @@
+import express from 'express';
+import helmet from 'helmet';
+import cookieParser from 'cookie-parser';
+import { existsSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { AppDeps } from './deps';
+import { ApiRouter, type RouteSpec } from './http/api-router';
+import { authenticate, sessionCookie } from './auth/authenticate';
+import { csrfGuard } from './middleware/csrf';
+import { errorHandler, notFoundApi } from './middleware/error-handler';
+import { requestLog } from './middleware/request-log';
+import { authService } from './services/auth.service';
+import { authRoutes } from './routes/auth.routes';
+import { usersRoutes } from './routes/users.routes';
+
+const distDir = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
+
+export function createApp(deps: AppDeps) {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: false,
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'"],
+          connectSrc: ["'self'"],
+          workerSrc: ["'self'"],
+          manifestSrc: ["'self'"],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          baseUri: ["'self'"],
+          formAction: ["'self'"],
+          // No upgrade-insecure-requests: the app is served over plain HTTP on venue networks.
+        },
+      },
+      // HSTS only means something over HTTPS.
+      strictTransportSecurity: deps.env.APP_ORIGIN.startsWith('https://'),
+    }),
+  );
+  if (deps.env.LOG_REQUESTS === 'on') app.use(requestLog((line) => deps.log.info(line)));
+
+  const auth = authService(deps);
+  const cookie = sessionCookie(deps.env.APP_ORIGIN);
+
+  const health = new ApiRouter();
+  health.get('/health', 'public', (_req, res) => {
+    let db = 'ok';
+    try {
+      deps.sqlite.prepare('select 1').get();
+    } catch {
+      db = 'error';
+    }
+    res.status(db === 'ok' ? 200 : 503).json({ status: db === 'ok' ? 'ok' : 'degraded', db, version: deps.version });
+  });
+
+  const routers: ApiRouter[] = [health, authRoutes(deps, auth), usersRoutes(deps, auth)];
+
+  const api = express.Router();
+  api.use(express.json({ limit: '100kb' }));
+  api.use(cookieParser());
+  api.use(csrfGuard(deps.env.APP_ORIGIN));
+  api.use(authenticate(auth, cookie.name));
+  // No caching of API answers by browsers or proxies: they hold people's data.
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
+  for (const r of routers) api.use(r.router);
+  api.use(notFoundApi);
+  app.use('/api', api);
+
+  if (existsSync(distDir)) {
+    app.use(express.static(distDir, { index: false, maxAge: '1h' }));
+    // Single-page fallback for client routes (Express 5 syntax).
+    app.get('/{*splat}', (_req, res) => res.sendFile(resolve(distDir, 'index.html')));
+  }
+  app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
+
+  const routes: RouteSpec[] = routers.flatMap((r) => r.routes.map((s) => ({ ...s, path: `/api${s.path}` })));
+  return Object.assign(app, { routes });
+}
+export type App = ReturnType<typeof createApp>;

@@ -1,0 +1,33 @@
+import { jwtVerify, SignJWT } from 'jose';
+
+// The cookie holds a short JWT naming a session row; the row is what sign-out, disabling a user
+// and "end all sessions" revoke, so they take effect at once (OWASP ASVS 7.4.1).
+const AUDIENCE = 'stripwarden';
+const ISSUER = 'stripwarden';
+
+export async function signSessionToken(secret: Uint8Array, sessionId: string, userId: string, expiresAt: Date) {
+  return new SignJWT({ sid: sessionId })
+    .setProtectedHeader({ alg: 'HS256', typ: 'JWT' })
+    .setSubject(userId)
+    .setIssuedAt()
+    .setIssuer(ISSUER)
+    .setAudience(AUDIENCE)
+    .setExpirationTime(Math.floor(expiresAt.getTime() / 1000))
+    .sign(secret);
+}
+
+/** Null for anything not a valid, unexpired token of ours: no exceptions leak out. */
+export async function verifySessionToken(secret: Uint8Array, token: string) {
+  try {
+    const { payload } = await jwtVerify(token, secret, {
+      algorithms: ['HS256'],
+      audience: AUDIENCE,
+      issuer: ISSUER,
+      typ: 'JWT',
+    });
+    if (typeof payload.sid !== 'string' || typeof payload.sub !== 'string') return null;
+    return { sessionId: payload.sid, userId: payload.sub };
+  } catch {
+    return null;
+  }
+}

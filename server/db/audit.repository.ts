@@ -1,0 +1,39 @@
+import type { Db, Tx } from './client';
+import { auditLog } from './schema';
+import { and, desc, eq } from 'drizzle-orm';
+
+export interface AuditEntry {
+  orgId: string | null;
+  actorId: string | null;
+  action: string;
+  entityType: string;
+  entityId: string;
+  detail?: Record<string, unknown>;
+}
+
+// Called inside the same transaction as the change it records.
+export function writeAudit(db: Db | Tx, e: AuditEntry) {
+  db.insert(auditLog)
+    .values({
+      orgId: e.orgId,
+      actorId: e.actorId,
+      action: e.action,
+      entityType: e.entityType,
+      entityId: e.entityId,
+      detailJson: JSON.stringify(e.detail ?? {}),
+    })
+    .run();
+}
+
+export function listAudit(db: Db, filter: { orgId: string; entityType?: string; entityId?: string }, limit = 200) {
+  const conds = [eq(auditLog.orgId, filter.orgId)];
+  if (filter.entityType) conds.push(eq(auditLog.entityType, filter.entityType));
+  if (filter.entityId) conds.push(eq(auditLog.entityId, filter.entityId));
+  return db
+    .select()
+    .from(auditLog)
+    .where(and(...conds))
+    .orderBy(desc(auditLog.id))
+    .limit(limit)
+    .all();
+}

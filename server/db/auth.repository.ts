@@ -1,0 +1,32 @@
+import { and, eq, isNull } from 'drizzle-orm';
+import type { Db } from './client';
+import { sessions, userTokens, users } from './schema';
+
+export type UserRow = typeof users.$inferSelect;
+
+export function authRepository(db: Db) {
+  return {
+    findUserByEmail: (email: string) => db.select().from(users).where(eq(users.email, email)).get(),
+    findUserById: (id: string) => db.select().from(users).where(eq(users.id, id)).get(),
+    listUsers: (orgId: string) => db.select().from(users).where(eq(users.orgId, orgId)).orderBy(users.name).all(),
+    insertUser: (row: typeof users.$inferInsert) => db.insert(users).values(row).run(),
+    updateUser: (id: string, patch: Partial<typeof users.$inferInsert>) =>
+      db.update(users).set(patch).where(eq(users.id, id)).run(),
+
+    insertSession: (row: typeof sessions.$inferInsert) => db.insert(sessions).values(row).run(),
+    findSession: (id: string) => db.select().from(sessions).where(eq(sessions.id, id)).get(),
+    touchSession: (id: string, at: string) => db.update(sessions).set({ lastSeenAt: at }).where(eq(sessions.id, id)).run(),
+    revokeSession: (id: string, at: string) =>
+      db.update(sessions).set({ revokedAt: at }).where(and(eq(sessions.id, id), isNull(sessions.revokedAt))).run(),
+    revokeUserSessions: (userId: string, at: string) =>
+      db.update(sessions).set({ revokedAt: at }).where(and(eq(sessions.userId, userId), isNull(sessions.revokedAt))).run(),
+
+    insertToken: (row: typeof userTokens.$inferInsert) => db.insert(userTokens).values(row).run(),
+    findTokenByHash: (hash: string) => db.select().from(userTokens).where(eq(userTokens.tokenHash, hash)).get(),
+    markTokenUsed: (id: string, at: string) =>
+      db.update(userTokens).set({ usedAt: at }).where(and(eq(userTokens.id, id), isNull(userTokens.usedAt))).run(),
+    revokeOpenTokens: (userId: string, at: string) =>
+      db.update(userTokens).set({ usedAt: at }).where(and(eq(userTokens.userId, userId), isNull(userTokens.usedAt))).run(),
+  };
+}
+export type AuthRepository = ReturnType<typeof authRepository>;

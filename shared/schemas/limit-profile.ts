@@ -1,0 +1,80 @@
+import { z } from 'zod';
+import { EQUIPMENT_KINDS, TEST_KINDS } from '../domain/limits';
+
+const ohm = (field: string) =>
+  z
+    .number({ error: (issue) => (issue.input === undefined ? `${field} is required` : `${field} must be a number of ohms`) })
+    .positive({ error: `${field} must be more than 0 Ω` });
+
+export const limitRuleSchema = z
+  .strictObject({
+    id: z.string().trim().min(1, { error: 'Every rule needs an id' }).max(100),
+    equipmentKind: z.enum(EQUIPMENT_KINDS, { error: `equipmentKind must be one of: ${EQUIPMENT_KINDS.join(', ')}` }),
+    testKind: z.enum(TEST_KINDS, { error: `testKind must be one of: ${TEST_KINDS.join(', ')}` }),
+    maxOhm: ohm('maxOhm').optional(),
+    maxOhmPerMetre: ohm('maxOhmPerMetre').optional(),
+    connectorAllowanceOhm: z.number().min(0, { error: 'connectorAllowanceOhm cannot be negative' }).optional(),
+    minOhm: ohm('minOhm').optional(),
+    nearLimitFraction: z
+      .number()
+      .gt(0, { error: 'nearLimitFraction must be between 0 and 1, e.g. 0.9' })
+      .lt(1, { error: 'nearLimitFraction must be between 0 and 1, e.g. 0.9' })
+      .optional(),
+    nearMinOhm: ohm('nearMinOhm').optional(),
+    source: z.string().trim().min(1, { error: 'Every rule needs a source: a rule article, a handbook, or "House rule"' }).max(300),
+    houseRule: z.boolean(),
+    note: z.string().max(1000).optional(),
+  })
+  .superRefine((rule, ctx) => {
+    const hasMax = rule.maxOhm !== undefined || rule.maxOhmPerMetre !== undefined;
+    const hasMin = rule.minOhm !== undefined;
+    if (!hasMax && !hasMin) {
+      ctx.addIssue({ code: 'custom', path: ['maxOhm'], message: 'A rule needs a maximum (maxOhm or maxOhmPerMetre) or a minimum (minOhm)' });
+    }
+    if (hasMax && hasMin) {
+      ctx.addIssue({ code: 'custom', path: ['minOhm'], message: 'A rule is either a maximum or a minimum; split it into two rules' });
+    }
+    if (rule.testKind === 'insulation' && hasMax) {
+      ctx.addIssue({ code: 'custom', path: ['maxOhm'], message: 'An insulation rule sets a minimum (minOhm), not a maximum' });
+    }
+    if (rule.testKind !== 'insulation' && hasMin) {
+      ctx.addIssue({ code: 'custom', path: ['minOhm'], message: `A ${rule.testKind} rule sets a maximum, not a minimum` });
+    }
+    if (rule.nearMinOhm !== undefined && rule.minOhm !== undefined && rule.nearMinOhm <= rule.minOhm) {
+      ctx.addIssue({ code: 'custom', path: ['nearMinOhm'], message: 'nearMinOhm must be above minOhm' });
+    }
+    if (rule.connectorAllowanceOhm !== undefined && rule.maxOhmPerMetre === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['connectorAllowanceOhm'], message: 'connectorAllowanceOhm only applies with maxOhmPerMetre' });
+    }
+  });
+
+export const limitProfileRulesSchema = z
+  .array(limitRuleSchema)
+  .min(1, { error: 'A limit profile needs at least one rule' })
+  .superRefine((rules, ctx) => {
+    const ids = new Set<string>();
+    const targets = new Set<string>();
+    rules.forEach((rule, index) => {
+      if (ids.has(rule.id)) ctx.addIssue({ code: 'custom', path: [index, 'id'], message: `Rule id “${rule.id}” is used twice` });
+      ids.add(rule.id);
+      const target = `${rule.equipmentKind}/${rule.testKind}`;
+      if (targets.has(target)) {
+        ctx.addIssue({
+          code: 'custom',
+          path: [index, 'testKind'],
+          message: `There is already a ${rule.testKind} rule for ${rule.equipmentKind}; one rule per equipment kind and test`,
+        });
+      }
+      targets.add(target);
+    });
+  });
+
+export const limitProfileSchema = z.strictObject({
+  name: z.string().trim().min(1, { error: 'A limit profile needs a name' }).max(120),
+  version: z.number().int().positive(),
+  rules: limitProfileRulesSchema,
+  loopRequired: z.array(z.enum(EQUIPMENT_KINDS)).optional(),
+});
+
+export type LimitRuleInput = z.infer<typeof limitRuleSchema>;
+export type LimitProfileInput = z.infer<typeof limitProfileSchema>;

@@ -1,0 +1,72 @@
+import { NavLink, Outlet, useNavigate } from 'react-router';
+import type { ReactNode } from 'react';
+import { ROLE_LABELS, type Role } from '@shared/schemas/common';
+
+export interface NavItem {
+  to: string;
+  label: string;
+  roles?: readonly Role[];
+}
+
+export function AppShell({
+  user,
+  nav,
+  onSignOut,
+  extra,
+}: {
+  user: { name: string; role: Role };
+  nav: NavItem[];
+  onSignOut: () => Promise<unknown>;
+  extra?: ReactNode;
+}) {
+  const navigate = useNavigate();
+  const items = nav.filter((n) => !n.roles || n.roles.includes(user.role));
+  return (
+    <div className="min-h-screen">
+      <header className="bg-brand text-white">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
+          <NavLink to="/" className="flex min-h-touch items-center gap-2 text-lg font-semibold tracking-wide">
+            <svg aria-hidden viewBox="0 0 32 32" className="size-7">
+              <rect width="32" height="32" rx="6" fill="#f2b33d" />
+              <path d="M6 22h20M9 10l14 12M23 10 9 22" stroke="#0f3d3e" strokeWidth="2.5" strokeLinecap="round" />
+            </svg>
+            Stripwarden
+          </NavLink>
+          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+            {items.map((n) => (
+              <NavLink
+                key={n.to}
+                to={n.to}
+                end={n.to === '/'}
+                className={({ isActive }) =>
+                  `flex min-h-touch items-center rounded-md px-3 text-sm font-medium ${isActive ? 'bg-white/15' : 'hover:bg-white/10'}`
+                }
+              >
+                {n.label}
+              </NavLink>
+            ))}
+          </nav>
+          <div className="flex items-center gap-3 text-sm">
+            {extra}
+            <span>
+              {user.name} · <span className="text-white/75">{ROLE_LABELS[user.role]}</span>
+            </span>
+            <button
+              type="button"
+              className="min-h-touch rounded-md px-3 font-medium hover:bg-white/10"
+              onClick={async () => {
+                await onSignOut();
+                navigate('/sign-in');
+              }}
+            >
+              Sign out
+            </button>
+          </div>
+        </div>
+      </header>
+      <main className="mx-auto max-w-6xl px-4 py-6">
+        <Outlet />
+      </main>
+    </div>
+  );
+}

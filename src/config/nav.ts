@@ -1,0 +1,10 @@
+import type { NavItem } from '@/components/layouts/app-shell';
+import { paths } from './paths';
+
+// The main navigation; each entry names the roles that see it.
+export const navItems: NavItem[] = [
+  { to: paths.home, label: 'Home' },
+  { to: paths.faultLocator, label: 'Fault locator' },
+  { to: paths.people, label: 'People', roles: ['admin'] },
+  { to: paths.outbox, label: 'Outbox', roles: ['admin'] },
+];
