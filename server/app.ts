@@ -13,6 +13,7 @@ import { requestLog } from './middleware/request-log';
 import { authService } from './services/auth.service';
 import { authRoutes } from './routes/auth.routes';
 import { usersRoutes } from './routes/users.routes';
+import { venuesRoutes } from './routes/venues.routes';
 
 const distDir = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 
@@ -61,7 +62,12 @@ export function createApp(deps: AppDeps) {
     res.status(db === 'ok' ? 200 : 503).json({ status: db === 'ok' ? 'ok' : 'degraded', db, version: deps.version });
   });
 
-  const routers: ApiRouter[] = [health, authRoutes(deps, auth), usersRoutes(deps, auth)];
+  const routers: ApiRouter[] = [
+    health,
+    authRoutes(deps, auth),
+    usersRoutes(deps, auth),
+    venuesRoutes(deps),
+  ];
 
   const api = express.Router();
   api.use(express.json({ limit: '100kb' }));

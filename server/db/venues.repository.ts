@@ -1,0 +1,77 @@
+import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
+import type { Db, Tx } from './client';
+import { events, faults, positions, steps, strips, venueTechnicians, venues, equipment } from './schema';
+
+export type VenueRow = typeof venues.$inferSelect;
+export type EventRow = typeof events.$inferSelect;
+
+export function venuesRepository(db: Db | Tx) {
+  return {
+    findVenue: (id: string) =>
+      db
+        .select({ venue: venues, event: events })
+        .from(venues)
+        .innerJoin(events, eq(venues.eventId, events.id))
+        .where(eq(venues.id, id))
+        .get(),
+    isAssigned: (venueId: string, userId: string) =>
+      !!db
+        .select()
+        .from(venueTechnicians)
+        .where(and(eq(venueTechnicians.venueId, venueId), eq(venueTechnicians.userId, userId)))
+        .get(),
+    venuesOfOrg: (orgId: string) =>
+      db
+        .select({ venue: venues, event: events })
+        .from(venues)
+        .innerJoin(events, eq(venues.eventId, events.id))
+        .where(eq(events.orgId, orgId))
+        .orderBy(desc(events.startsOn), asc(venues.name))
+        .all(),
+    venuesAssignedTo: (userId: string) =>
+      db
+        .select({ venue: venues, event: events })
+        .from(venues)
+        .innerJoin(events, eq(venues.eventId, events.id))
+        .innerJoin(venueTechnicians, eq(venueTechnicians.venueId, venues.id))
+        .where(eq(venueTechnicians.userId, userId))
+        .orderBy(desc(events.startsOn), asc(venues.name))
+        .all(),
+    stripsOf: (venueId: string) =>
+      db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder)).all(),
+
+    /** Every active step of a venue with its strip and position, and the latest reading's verdict. */
+    stepsWithLatest: (venueId: string) =>
+      db
+        .select({
+          stripId: strips.id,
+          positionId: positions.id,
+          stepId: steps.id,
+          required: steps.required,
+          // Latest by time taken, ties broken by insertion order: corrections supersede.
+          verdict: sql<'pass' | 'near-limit' | 'fail' | null>`(select r.verdict from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`,
+        })
+        .from(steps)
+        .innerJoin(positions, eq(steps.positionId, positions.id))
+        .innerJoin(strips, eq(positions.stripId, strips.id))
+        .where(and(eq(strips.venueId, venueId), isNull(steps.removedAt)))
+        .all(),
+    openFaultsOf: (venueId: string) =>
+      db
+        .select({ id: faults.id, stripId: faults.stripId })
+        .from(faults)
+        .innerJoin(strips, eq(faults.stripId, strips.id))
+        .where(and(eq(strips.venueId, venueId), ne(faults.status, 'closed')))
+        .all(),
+    positionsOf: (stripIds: string[]) =>
+      stripIds.length === 0
+        ? []
+        : db
+            .select({ position: positions, equipment })
+            .from(positions)
+            .leftJoin(equipment, eq(positions.equipmentId, equipment.id))
+            .where(inArray(positions.stripId, stripIds))
+            .orderBy(asc(positions.sortOrder))
+            .all(),
+  };
+}

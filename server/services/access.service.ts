@@ -1,0 +1,55 @@
+// Object-level access (OWASP ASVS 8.2.2), in one place: who may read, test, plan or sign off a venue.
+import type { Db, Tx } from '../db/client';
+import { venuesRepository } from '../db/venues.repository';
+import type { AuthUser } from '../auth/types';
+import { forbidden, notFound } from '../lib/app-error';
+
+export type VenueAccessMode = 'read' | 'test' | 'plan' | 'sign-off';
+
+export function accessService(db: Db | Tx) {
+  const repo = venuesRepository(db);
+
+  function allowed(user: AuthUser, row: NonNullable<ReturnType<typeof repo.findVenue>>, mode: VenueAccessMode) {
+    const sameOrg = row.event.orgId === user.orgId;
+    if (!sameOrg) return false;
+    switch (mode) {
+      case 'read':
+        return user.role === 'technician' ? repo.isAssigned(row.venue.id, user.id) : true;
+      case 'test':
+        return user.role === 'director' || (user.role === 'technician' && repo.isAssigned(row.venue.id, user.id));
+      case 'plan':
+        return user.role === 'director';
+      case 'sign-off':
+        return user.role === 'director' && row.event.directorId === user.id;
+    }
+  }
+
+  return {
+    /**
+     * The venue and its event if the user may act on it this way. Another organisation's venue is
+     * answered as not found (no leak of its existence); one of our own that the user may not touch
+     * is 403.
+     */
+    requireVenue(user: AuthUser, venueId: string, mode: VenueAccessMode) {
+      const row = repo.findVenue(venueId);
+      if (!row || row.event.orgId !== user.orgId) throw notFound('That venue');
+      if (!allowed(user, row, mode)) {
+        const why =
+          mode === 'sign-off'
+            ? 'Only the technical director of this event can sign the venue off.'
+            : mode === 'plan'
+              ? 'Only a technical director can change the venue plan.'
+              : 'You are not assigned to this venue.';
+        throw forbidden(why);
+      }
+      return row;
+    },
+    visibleVenues(user: AuthUser) {
+      return user.role === 'technician' ? repo.venuesAssignedTo(user.id) : repo.venuesOfOrg(user.orgId);
+    },
+    canSee: (user: AuthUser, venueId: string) => {
+      const row = repo.findVenue(venueId);
+      return !!row && allowed(user, row, 'read');
+    },
+  };
+}
