@@ -7,6 +7,7 @@ import { paths } from '@/config/paths';
 
 const SignIn = lazy(() => import('./routes/auth/sign-in'));
 const SetPassword = lazy(() => import('./routes/auth/set-password'));
+const ResetPassword = lazy(() => import('./routes/auth/reset-password'));
 const Home = lazy(() => import('./routes/home/home'));
 const People = lazy(() => import('./routes/admin/people'));
 const Outbox = lazy(() => import('./routes/admin/outbox'));
@@ -16,6 +17,7 @@ const page = (node: ReactNode) => <Suspense fallback={<Loading />}>{node}</Suspe
 export const router = createBrowserRouter([
   { path: paths.signIn, element: page(<SignIn />), errorElement: <RouteErrorBoundary /> },
   { path: paths.setPassword(), element: page(<SetPassword />), errorElement: <RouteErrorBoundary /> },
+  { path: paths.resetPassword, element: page(<ResetPassword />), errorElement: <RouteErrorBoundary /> },
   {
     element: <RequireAuth />,
     errorElement: <RouteErrorBoundary />,

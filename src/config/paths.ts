@@ -2,6 +2,7 @@
 export const paths = {
   home: '/',
   signIn: '/sign-in',
+  resetPassword: '/reset-password',
   setPassword: (token = ':token') => `/set-password/${token}`,
   people: '/people',
   outbox: '/people/outbox',

@@ -193,3 +193,43 @@ describe('people (admin)', () => {
     expect(res.headers['content-type']).toMatch(/problem\+json/);
   });
 });
+
+describe('password reset', () => {
+  test('an existing address gets a one-time link by e-mail; an unknown one gets the same answer and no mail', async () => {
+    const before = t.db.select().from(capturedMail).all().length;
+    const unknown = await t.request.post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email: 'nobody@lakeshore.example' });
+    expect(t.db.select().from(capturedMail).all().length).toBe(before);
+    const known = await t.request.post('/api/auth/password-reset').set('Origin', ORIGIN).send({ email: DEMO.organiser });
+    expect([unknown.status, known.status]).toEqual([202, 202]);
+    expect(unknown.body).toEqual(known.body);
+    const mail = t.db.select().from(capturedMail).all().at(-1)!;
+    expect(mail.toAddresses).toContain(DEMO.organiser);
+    const token = /\/set-password\/([A-Za-z0-9_-]+)/.exec(mail.text)![1];
+    const session = await t.agentFor(DEMO.organiser);
+    expect((await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: 'nina-new-password' })).status).toBe(200);
+    // A new password ends the old sessions.
+    expect((await session.get('/api/auth/me')).status).toBe(401);
+    expect((await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: DEMO.organiser, password: 'nina-new-password' })).status).toBe(200);
+    const back = t.db.select().from(users).where(eq(users.email, DEMO.organiser)).get()!;
+    t.db.update(users).set({ passwordHash: await hashPassword(DEMO_PASSWORD, t.deps.scrypt) }).where(eq(users.id, back.id)).run();
+  });
+
+  test('an unknown link is 404 problem+json', async () => {
+    const res = await t.request.get('/api/auth/set-password/not-a-token');
+    expect(res.status).toBe(404);
+    expect(res.headers['content-type']).toMatch(/problem\+json/);
+  });
+});
+
+describe('POST /api/users/:id/end-sessions', () => {
+  test("an admin ends all of someone's sessions at once", async () => {
+    const admin = await t.agentFor(DEMO.admin);
+    const one = await t.agentFor(DEMO.director);
+    const two = await t.agentFor(DEMO.director);
+    const id = t.db.select().from(users).where(eq(users.email, DEMO.director)).get()!.id;
+    expect((await admin.post(`/api/users/${id}/end-sessions`)).status).toBe(204);
+    expect((await one.get('/api/auth/me')).status).toBe(401);
+    expect((await two.get('/api/auth/me')).status).toBe(401);
+    expect((await one.post(`/api/users/${id}/end-sessions`)).status).toBe(401);
+  });
+});

@@ -5,6 +5,7 @@ import { ROLE_LABELS, ROLES } from '@shared/schemas/common';
 import { useUsers } from '@/features/users/api/get-users';
 import { useInviteUser } from '@/features/users/api/invite-user';
 import { useUpdateUser } from '@/features/users/api/update-user';
+import { useEndSessions } from '@/features/users/api/end-sessions';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
@@ -15,6 +16,7 @@ export default function PeoplePage() {
   const me = useMe();
   const invite = useInviteUser();
   const update = useUpdateUser();
+  const endSessions = useEndSessions();
   const form = useForm<InviteUserInput>({
     resolver: zodResolver(inviteUserSchema),
     defaultValues: { email: '', name: '', role: 'technician' },
@@ -61,9 +63,18 @@ export default function PeoplePage() {
                     <td className="px-4 py-2">{u.disabled ? 'Disabled' : u.invited ? 'Invited, no password yet' : 'Active'}</td>
                     <td className="px-4 py-2 text-right">
                       {u.id !== me.data?.id && (
-                        <Button variant="secondary" onClick={() => update.mutate({ id: u.id, disabled: !u.disabled })}>
-                          {u.disabled ? 'Enable' : 'Disable'}
-                        </Button>
+                        <div className="flex justify-end gap-2">
+                          <Button
+                            variant="ghost"
+                            title="Signs this person out on every device at once"
+                            onClick={() => endSessions.mutate(u.id)}
+                          >
+                            Sign out everywhere
+                          </Button>
+                          <Button variant="secondary" onClick={() => update.mutate({ id: u.id, disabled: !u.disabled })}>
+                            {u.disabled ? 'Enable' : 'Disable'}
+                          </Button>
+                        </div>
                       )}
                     </td>
                   </tr>
@@ -72,6 +83,7 @@ export default function PeoplePage() {
             </table>
           )}
           {update.isError && <Notice tone="error">{update.error.message}</Notice>}
+          {endSessions.isSuccess && <Notice tone="success">Their sessions have ended.</Notice>}
         </Card>
         <Card>
           <h2 className="text-lg font-semibold">Invite someone</h2>

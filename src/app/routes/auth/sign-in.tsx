@@ -1,6 +1,6 @@
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Navigate, useNavigate, useSearchParams } from 'react-router';
+import { Link, Navigate, useNavigate, useSearchParams } from 'react-router';
 import { signInSchema, type SignInInput } from '@shared/schemas/auth';
 import { useSignIn } from '@/features/auth/api/sign-in';
 import { useMe } from '@/features/auth/api/get-me';
@@ -43,6 +43,9 @@ export default function SignInPage() {
             {form.formState.isSubmitting ? 'Signing in…' : 'Sign in'}
           </Button>
         </form>
+        <Link to="/reset-password" className="mt-3 inline-flex min-h-touch items-center text-sm font-medium text-brand underline">
+          Forgotten password?
+        </Link>
       </Card>
     </div>
   );

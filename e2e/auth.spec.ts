@@ -1,0 +1,73 @@
+import { test, expect, DEMO_USERS, DEMO_PASSWORD, apiAs } from './fixtures';
+
+const homes = [
+  ['admin', 'People and equipment'],
+  ['organiser', 'Our events and venues'],
+  ['director', 'Our events and venues'],
+  ['technician', 'My venues'],
+  ['annexTechnician', 'My venues'],
+] as const;
+
+test.describe('signing in', () => {
+  for (const [role, heading] of homes) {
+    test(`${role} signs in with the form and lands on their home`, async ({ page }) => {
+      await page.goto('/');
+      await expect(page).toHaveURL(/\/sign-in/);
+      await page.getByLabel('E-mail').fill(DEMO_USERS[role]);
+      await page.getByLabel('Password').fill(DEMO_PASSWORD);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await expect(page.getByRole('heading', { level: 1, name: heading })).toBeVisible();
+    });
+  }
+
+  test('a wrong password says so and stays on the sign-in page', async ({ page }) => {
+    await page.goto('/sign-in');
+    await page.getByLabel('E-mail').fill(DEMO_USERS.director);
+    await page.getByLabel('Password').fill('not-the-password');
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect(page.getByRole('alert')).toContainText('e-mail or password is not right');
+    await expect(page).toHaveURL(/\/sign-in/);
+  });
+});
+
+test('a technician opening the people page sees "not allowed", and the API answers 403', async ({ page, signIn }) => {
+  await signIn('technician');
+  await page.goto('/people');
+  await expect(page.getByRole('heading', { name: 'Not allowed' })).toBeVisible();
+  const res = await apiAs(page, 'GET', '/api/users');
+  expect(res.status).toBe(403);
+});
+
+test('an invitation e-mail reaches the local SMTP fake, its link sets a password, and the new person signs in', async ({ page, browser, signIn }) => {
+  await signIn('admin');
+  await page.goto('/people');
+  await page.getByLabel('Name').fill('Robin Hale');
+  await page.getByLabel('E-mail').fill('robin@lakeshore.example');
+  await page.getByLabel('Role', { exact: true }).selectOption('technician');
+  await page.getByRole('button', { name: 'Send invitation' }).click();
+  await expect(page.getByText('Invitation sent to robin@lakeshore.example')).toBeVisible();
+  await expect(page.getByRole('cell', { name: /^Robin Hale robin@/ })).toBeVisible();
+
+  await page.goto('/people/outbox');
+  await page.getByRole('button', { name: /Your Stripwarden invitation/ }).first().click();
+  const body = await page.locator('article pre').innerText();
+  expect(body).toContain('Robin Hale');
+  const link = /https?:\/\/\S+\/set-password\/\S+/.exec(body)![0];
+
+  const invitee = await browser.newPage();
+  await invitee.goto(link);
+  await expect(invitee.getByText('robin@lakeshore.example')).toBeVisible();
+  await invitee.getByLabel('New password').fill('robin-strong-password');
+  await invitee.getByRole('button', { name: 'Set password' }).click();
+  await expect(invitee.getByText('Your password is set')).toBeVisible();
+  // The link works once.
+  await invitee.goto(link);
+  await expect(invitee.getByRole('alert')).toContainText(/already been used/);
+
+  await invitee.goto('/sign-in');
+  await invitee.getByLabel('E-mail').fill('robin@lakeshore.example');
+  await invitee.getByLabel('Password').fill('robin-strong-password');
+  await invitee.getByRole('button', { name: 'Sign in' }).click();
+  await expect(invitee.getByRole('heading', { level: 1, name: 'My venues' })).toBeVisible();
+  await invitee.close();
+});
