@@ -24,7 +24,9 @@ export const DEFAULT_POSITION_TEMPLATE: readonly PositionTemplateEntry[] = [
   { name: 'Piste', equipmentKind: 'piste', pisteOnly: true },
 ];
 
-const CABLE_KINDS: readonly EquipmentKind[] = ['floor-cable', 'reel', 'body-wire', 'other'];
+// "other" items get no automatic steps: the default profile has no limit for them; a director adds
+// steps (and a profile rule) for what the item is.
+const CABLE_KINDS: readonly EquipmentKind[] = ['floor-cable', 'reel', 'body-wire'];
 
 /** Conductors A, B, C end to end, then each pair's insulation, then loops where the profile asks. */
 export function stepsForKind(kind: EquipmentKind, profile: Pick<LimitProfile, 'loopRequired'>): PlannedStep[] {

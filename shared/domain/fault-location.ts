@@ -15,10 +15,10 @@ export const SPEED_OF_LIGHT_M_PER_S = 299_792_458;
 export type FaultEstimate = {
   method: string;
   distanceM: number;
-  fromOtherEndM?: number;
+  fromOtherEndM?: number | undefined;
   uncertaintyM: number;
-  faultOhm?: number;
-  velocityFactor?: number;
+  faultOhm?: number | undefined;
+  velocityFactor?: number | undefined;
   explanation: string;
   inputs: Record<string, number>;
 };
@@ -210,10 +210,10 @@ export type TdrInput = {
   roundTripNs: number;
   velocityFactor: number;
   /** 10–90 % rise time of the incident edge, for the resolution part of the band. */
-  riseTimeNs?: number;
-  lengthM?: number;
+  riseTimeNs?: number | undefined;
+  lengthM?: number | undefined;
   /** Absolute ± on the velocity factor; default ±3 % of it (uncalibrated). */
-  velocityFactorUncertainty?: number;
+  velocityFactorUncertainty?: number | undefined;
 };
 
 /**
@@ -256,7 +256,7 @@ export function locateByTdr(input: TdrInput): FaultEstimate {
   ];
   const explanation =
     `The reflection comes back ${num(roundTripNs)} ns after the incident edge. At a velocity factor of ${num(vf, 3)} ` +
-    `the signal covers ${num(1 / delayNsPerMetre(vf), 3)} m per ns, there and back, so the fault is ${where(distanceM, uncertaintyM, lengthM, 'the instrument end')} ` +
+    `the signal travels ${num(1 / delayNsPerMetre(vf), 3)} m per ns; it went to the fault and back, so the fault is ${where(distanceM, uncertaintyM, lengthM, 'the instrument end')} ` +
     `(${parts.join('; ')}).${edgeNote}`;
 
   return withLength(
@@ -285,20 +285,21 @@ export type VelocityFactorCalibration = {
 export function calibrateVelocityFactor(input: {
   roundTripNs: number;
   lengthM: number;
-  riseTimeNs?: number;
+  riseTimeNs?: number | undefined;
 }): VelocityFactorCalibration {
   const roundTripNs = requirePositive('roundTripNs', input.roundTripNs, 'a round-trip time in ns');
   const lengthM = requirePositive('lengthM', input.lengthM, 'a length in m');
   const riseTimeNs =
     input.riseTimeNs === undefined ? undefined : requireNonNegative('riseTimeNs', input.riseTimeNs, 'a rise time in ns');
   const vf = (2 * lengthM) / (SPEED_OF_LIGHT_M_PER_S * roundTripNs * 1e-9);
-  if (vf > 1) {
+  // The 1e-9 slack only absorbs floating-point rounding at exactly VF = 1 or 0.3.
+  if (vf > 1 + 1e-9) {
     throw new FaultLocationError(
       'roundTripNs',
       `${num(roundTripNs)} ns is less than light needs to go ${m(lengthM)} and back (velocity factor ${num(vf, 3)} > 1). Check the cable length, or whether the reflection marker sits on the far-end reflection.`,
     );
   }
-  if (vf < MIN_VELOCITY_FACTOR) {
+  if (vf < MIN_VELOCITY_FACTOR - 1e-9) {
     throw new FaultLocationError(
       'roundTripNs',
       `${num(roundTripNs)} ns over ${m(lengthM)} gives a velocity factor of ${num(vf, 3)}, slower than any ordinary cable. The marker is probably on a second bounce, or the length is wrong.`,
@@ -358,14 +359,14 @@ function perMetre(
 export type LoopOneEndInput = {
   /** Reading between the two shorted conductors at the near end, far end open. */
   loopOhm: number;
-  ohmPerMetre?: number;
+  ohmPerMetre?: number | undefined;
   /** End-to-end reading of one sound conductor of the same cable. */
-  conductorOhm?: number;
-  lengthM?: number;
+  conductorOhm?: number | undefined;
+  lengthM?: number | undefined;
   /** The short's own resistance, when known; 0 assumed. */
-  faultOhm?: number;
-  meterAccuracy?: MeterAccuracy;
-  ohmPerMetreRelUncertainty?: number;
+  faultOhm?: number | undefined;
+  meterAccuracy?: MeterAccuracy | undefined;
+  ohmPerMetreRelUncertainty?: number | undefined;
 };
 
 /** R_loop = 2 r d + R_f → d = (R_loop − R_f) / (2r). */
@@ -431,10 +432,10 @@ export type LoopBothEndsInput = {
   /** Loop reading of the same pair from the far end (near end open). */
   farOhm: number;
   lengthM: number;
-  ohmPerMetre?: number;
-  conductorOhm?: number;
-  meterAccuracy?: MeterAccuracy;
-  ohmPerMetreRelUncertainty?: number;
+  ohmPerMetre?: number | undefined;
+  conductorOhm?: number | undefined;
+  meterAccuracy?: MeterAccuracy | undefined;
+  ohmPerMetreRelUncertainty?: number | undefined;
 };
 
 /**
@@ -480,7 +481,7 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput): FaultEstimate {
   const faultText =
     faultOhm < 0
       ? `The short itself is a dead short (computed ${formatOhm(faultOhm)}, which is 0 within the meter's accuracy)`
-      : `The short itself is about ${formatOhm(faultOhm)} ±${formatOhm(faultUncertaintyOhm)}`;
+      : `The short itself is about ${formatOhm(faultOhm)} ±${formatOhm(roundSignificant(faultUncertaintyOhm, 2))}`;
   return {
     method: 'loop-both-ends',
     distanceM,
@@ -500,7 +501,7 @@ export type MurrayLoopInput = {
   ratioP: number;
   /** Bridge arm on the sound conductor's side at balance. */
   ratioQ: number;
-  ratioRelUncertainty?: number;
+  ratioRelUncertainty?: number | undefined;
 };
 
 /**
@@ -542,8 +543,8 @@ export type CapacitanceInput = {
   /** A sound conductor of the same cable against the others, whole length. */
   soundNf: number;
   /** Broken conductor measured from the far end, when reachable. */
-  farFaultedNf?: number;
-  capacitanceAccuracyFraction?: number;
+  farFaultedNf?: number | undefined;
+  capacitanceAccuracyFraction?: number | undefined;
 };
 
 /** Above this the two ends' readings cannot describe a single break on this cable. */
@@ -618,7 +619,7 @@ export function locateByCapacitance(input: CapacitanceInput): FaultEstimate {
 }
 
 /** A position found by flexing the cable by hand, recorded as a located fault. */
-export function recordFlexTest(input: { distanceM: number; lengthM?: number; uncertaintyM?: number }): FaultEstimate {
+export function recordFlexTest(input: { distanceM: number; lengthM?: number | undefined; uncertaintyM?: number | undefined }): FaultEstimate {
   const distanceM = requireNonNegative('distanceM', input.distanceM, 'a distance in m');
   const lengthM = input.lengthM === undefined ? undefined : requirePositive('lengthM', input.lengthM, 'a length in m');
   const uncertaintyM =
@@ -738,9 +739,9 @@ export function ohmPerMetreFromReading(conductorOhm: number, lengthM: number): n
 
 /** Ω/m of one conductor from its size; flexible plain copper (class 5/6) unless said otherwise. */
 export function ohmPerMetreFromConductorSize(input: {
-  mm2?: number;
-  awg?: number;
-  construction?: ConductorConstruction;
+  mm2?: number | undefined;
+  awg?: number | undefined;
+  construction?: ConductorConstruction | undefined;
 }): number {
   if (input.mm2 !== undefined && input.awg !== undefined) {
     throw new FaultLocationError('mm2', 'Give the conductor size in mm² or in AWG, not both.');

@@ -250,8 +250,8 @@ export type ReadingToEvaluate = {
   conductors: string;
   valueOhm: number | null;
   overRange: boolean;
-  lengthM?: number | null;
-  temperatureC?: number | null;
+  lengthM?: number | null | undefined;
+  temperatureC?: number | null | undefined;
 };
 
 export function evaluateReading(input: ReadingToEvaluate): Verdict {

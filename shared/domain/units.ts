@@ -115,7 +115,7 @@ export function parseReading(
   const match = NUMBER_PATTERN.exec(trimmed);
   if (!match) return fail(`“${trimmed}” is not a reading; ${EXPECTED[quantity]}, ${EXAMPLES[quantity]}.`);
   const [, sign, mantissaText, exponentText, unitText] = match as unknown as [string, string, string, string | undefined, string];
-  if ((mantissaText.match(/[.,]/g) ?? []).length > 1) {
+  if (/^[.,]\d/.test(unitText)) {
     return fail(`“${trimmed}” has more than one decimal separator; ${EXAMPLES[quantity]}.`);
   }
 

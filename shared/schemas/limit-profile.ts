@@ -78,3 +78,17 @@ export const limitProfileSchema = z.strictObject({
 
 export type LimitRuleInput = z.infer<typeof limitRuleSchema>;
 export type LimitProfileInput = z.infer<typeof limitProfileSchema>;
+
+/** Copy a profile into a new lineage (version 1) under a new name. */
+export const copyProfileSchema = z.strictObject({
+  name: z.string().trim().min(1, { error: 'A limit profile needs a name' }).max(120),
+});
+
+/** Edit a profile: the server stores it as a new version of the same lineage. */
+export const updateProfileSchema = z.strictObject({
+  name: z.string().trim().min(1, { error: 'A limit profile needs a name' }).max(120).optional(),
+  rules: limitProfileRulesSchema,
+  loopRequired: z.array(z.enum(EQUIPMENT_KINDS, { error: `loopRequired lists equipment kinds: ${EQUIPMENT_KINDS.join(', ')}` })).optional(),
+  notes: z.string().trim().max(2000).nullable().optional(),
+});
+export type UpdateProfileInput = z.input<typeof updateProfileSchema>;

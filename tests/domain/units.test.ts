@@ -1,0 +1,286 @@
+import { describe, test, expect } from 'vitest';
+import fc from 'fast-check';
+import { create, all } from 'mathjs';
+import {
+  feetToMetres,
+  formatLength,
+  formatOhm,
+  metresToFeet,
+  parseReading,
+  READING_BOUNDS,
+  type ParsedReading,
+  type Quantity,
+} from '../../shared/domain/units';
+
+const math = create(all!);
+
+function valueOf(result: ParsedReading): number | null {
+  if (!result.ok) throw new Error(`expected ok, got: ${result.message}`);
+  return result.value;
+}
+
+function messageOf(result: ParsedReading): string {
+  if (result.ok) throw new Error(`expected a refusal, got ${String(result.value)}`);
+  return result.message;
+}
+
+describe('parseReading: resistance', () => {
+  // Expected values written by hand in ohms.
+  test.each<[string, number]>([
+    ['0.8', 0.8],
+    ['0,8', 0.8],
+    ['0.8 Ω', 0.8],
+    ['0.8Ω', 0.8],
+    ['0.8 Ω', 0.8], // U+2126 OHM SIGN
+    ['0.8 ohm', 0.8],
+    ['0.8 ohms', 0.8],
+    ['0.8 Ohms', 0.8],
+    ['800m', 0.8],
+    ['800 mΩ', 0.8],
+    ['800 mohm', 0.8],
+    ['1.2k', 1200],
+    ['1.2K', 1200],
+    ['1.2 kΩ', 1200],
+    ['1,2 kΩ', 1200],
+    ['22 MΩ', 22e6],
+    ['22M', 22e6],
+    ['22 Mohm', 22e6],
+    ['22 meg', 22e6],
+    ['1.5 GΩ', 1.5e9],
+    ['1.2e3', 1200],
+    ['1.2E3 Ω', 1200],
+    ['4.7e-1', 0.47],
+    ['2.5e-3 kΩ', 2.5],
+    ['.5', 0.5],
+    ['0', 0],
+    ['0.00 Ω', 0],
+    ['  2.6  ', 2.6],
+    ['+2.6', 2.6],
+    ['2 GΩ', 2e9],
+  ])('“%s” → %d Ω', (text, expected) => {
+    const result = parseReading(text, 'resistance');
+    expect(result.ok).toBe(true);
+    if (result.ok) {
+      expect(result.overRange).toBe(false);
+      expect(result.value).toBeCloseTo(expected, 12);
+    }
+  });
+
+  test('prefix case matters: m is milli, M is mega', () => {
+    expect(valueOf(parseReading('800m'))).toBe(0.8);
+    expect(valueOf(parseReading('800M'))).toBe(800e6);
+    expect(valueOf(parseReading('22 mΩ'))).toBe(0.022);
+    expect(valueOf(parseReading('22 MΩ'))).toBe(22e6);
+  });
+
+  test('a prefix gives exactly the decimal value (800m is 0.8, not 0.8000000000000002)', () => {
+    expect(valueOf(parseReading('800m'))).toBe(0.8);
+    expect(valueOf(parseReading('4.7 kΩ'))).toBe(4700);
+  });
+
+  test.each(['OL', 'ol', 'O.L.', 'o.l.', 'O.L', 'open', 'OPEN', '∞', 'inf', 'Infinity', 'over', 'Over range'])(
+    '“%s” is over range: value null, overRange true',
+    (text) => {
+      const result = parseReading(text, 'resistance');
+      expect(result).toEqual({ ok: true, value: null, overRange: true, display: 'OL' });
+    },
+  );
+
+  test.each<[string, RegExp]>([
+    ['', /enter a reading/i],
+    ['   ', /enter a reading/i],
+    ['NaN', /not a reading/i],
+    ['abc', /not a reading/i],
+    ['-0.2', /cannot be negative/i],
+    ['−0.2 Ω', /cannot be negative/i],
+    ['3 GΩ', /more than a handheld meter shows.*2 GΩ.*OL/i],
+    ['1e12', /more than a handheld meter shows/i],
+    ['22 nF', /capacitance; a resistance in Ω is expected/],
+    ['96 ns', /time; a resistance in Ω is expected/],
+    ['800ms', /time; a resistance in Ω is expected/],
+    ['5 V', /voltage; a resistance in Ω is expected/],
+    ['2 mA', /current; a resistance in Ω is expected/],
+    ['2 x', /not a unit/],
+    ['1.2.3', /not a unit|more than one decimal/],
+    ['1,2.3', /more than one decimal separator/],
+    ['1e999', /too large/],
+  ])('refuses “%s”', (text, message) => {
+    expect(messageOf(parseReading(text, 'resistance'))).toMatch(message);
+  });
+});
+
+describe('parseReading: capacitance and time', () => {
+  test.each<[string, Quantity, number]>([
+    ['470 pF', 'capacitance', 470e-12],
+    ['1.2 nF', 'capacitance', 1.2e-9],
+    ['1.2nf', 'capacitance', 1.2e-9],
+    ['2.2 µF', 'capacitance', 2.2e-6], // U+00B5 MICRO SIGN
+    ['2.2 μF', 'capacitance', 2.2e-6], // U+03BC GREEK SMALL LETTER MU
+    ['2.2 uF', 'capacitance', 2.2e-6],
+    ['22n', 'capacitance', 22e-9],
+    ['10 mF', 'capacitance', 10e-3],
+    ['96 ns', 'time', 96e-9],
+    ['1.2 µs', 'time', 1.2e-6],
+    ['1.2 μs', 'time', 1.2e-6],
+    ['1.2 us', 'time', 1.2e-6],
+    ['5 ms', 'time', 5e-3],
+    ['2 s', 'time', 2],
+    ['1.5e-7 s', 'time', 1.5e-7],
+    ['250 ps', 'time', 250e-12],
+  ])('“%s” as %s', (text, quantity, expected) => {
+    const result = parseReading(text, quantity);
+    expect(result.ok).toBe(true);
+    if (result.ok) expect(result.value! / expected).toBeCloseTo(1, 12);
+  });
+
+  test.each<[string, Quantity, RegExp]>([
+    ['OL', 'capacitance', /only a valid reading for a resistance/],
+    ['OL', 'time', /only a valid reading for a resistance/],
+    ['4.7', 'capacitance', /add the unit/i],
+    ['96', 'time', /add the unit/i],
+    ['0.5 pF', 'capacitance', /less than a handheld meter resolves.*1 pF/],
+    ['0.2 F', 'capacitance', /more than a handheld meter shows.*100 mF/],
+    ['50 ps', 'time', /less than a handheld meter resolves.*100 ps/],
+    ['20 s', 'time', /more than a handheld meter shows.*10 s/],
+    ['2.5 Ω', 'capacitance', /resistance; a capacitance in F/],
+    ['96 ns', 'capacitance', /time; a capacitance/],
+    ['22 nF', 'time', /capacitance; a time in s/],
+    ['-5 nF', 'capacitance', /cannot be negative/],
+  ])('refuses “%s” as %s', (text, quantity, message) => {
+    expect(messageOf(parseReading(text, quantity))).toMatch(message);
+  });
+
+  test('bounds are the documented ones', () => {
+    expect(READING_BOUNDS).toEqual({
+      resistance: { min: 0, max: 2e9 },
+      capacitance: { min: 1e-12, max: 0.1 },
+      time: { min: 1e-10, max: 10 },
+    });
+  });
+});
+
+describe('parseReading: test-lead offset', () => {
+  test('is subtracted from resistance readings', () => {
+    expect(valueOf(parseReading('0.8', 'resistance', { leadOffsetOhm: 0.3 }))).toBe(0.5);
+    expect(valueOf(parseReading('1.2 kΩ', 'resistance', { leadOffsetOhm: 0.2 }))).toBe(1199.8);
+  });
+
+  test('a reading equal to the offset is 0 Ω', () => {
+    expect(valueOf(parseReading('0.3', 'resistance', { leadOffsetOhm: 0.3 }))).toBe(0);
+  });
+
+  test('is not subtracted from over range', () => {
+    expect(parseReading('OL', 'resistance', { leadOffsetOhm: 0.3 })).toEqual({ ok: true, value: null, overRange: true, display: 'OL' });
+  });
+
+  test('a reading below the offset is refused with the reason', () => {
+    expect(messageOf(parseReading('0.2', 'resistance', { leadOffsetOhm: 0.3 }))).toMatch(/below the nulled test-lead resistance \(0\.3 Ω\)/);
+  });
+
+  test.each([-0.1, 10.5, Number.NaN, Number.POSITIVE_INFINITY])('an offset of %d Ω is refused', (offset) => {
+    expect(messageOf(parseReading('0.8', 'resistance', { leadOffsetOhm: offset }))).toMatch(/between 0 and 10 Ω/);
+  });
+
+  test('property: reading − offset, for any reading at or above the offset', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 1000 }), fc.integer({ min: 0, max: 1000 }), (offsetCentiOhm, extraCentiOhm) => {
+        const offset = offsetCentiOhm / 100;
+        const reading = (offsetCentiOhm + extraCentiOhm) / 100;
+        const value = valueOf(parseReading(String(reading), 'resistance', { leadOffsetOhm: offset }));
+        expect(value).toBeCloseTo(extraCentiOhm / 100, 9);
+      }),
+    );
+  });
+});
+
+describe('parseReading: properties', () => {
+  const prefixes: Array<[string, number]> = [
+    ['m', -3],
+    ['', 0],
+    ['k', 3],
+    ['M', 6],
+  ];
+  test('a number with a prefix is the number × 10^prefix, whatever the spacing and unit spelling', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 0, max: 999_999 }),
+        fc.integer({ min: 0, max: 3 }),
+        fc.constantFrom(...prefixes),
+        fc.constantFrom('', ' '),
+        fc.constantFrom('', 'Ω', 'ohm', 'ohms'),
+        (mantissa, decimals, [prefix, exponent], space, unit) => {
+          const text = (mantissa / 10 ** decimals).toFixed(decimals);
+          const expected = (mantissa / 10 ** decimals) * 10 ** exponent;
+          const result = parseReading(`${text}${space}${prefix}${unit}`, 'resistance');
+          if (expected > 2e9) return;
+          expect(result.ok).toBe(true);
+          if (result.ok) expect(result.value).toBeCloseTo(expected, 6);
+        },
+      ),
+    );
+  });
+
+  test('anything with a letter that is not a unit is refused, never silently read', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 1000, noNaN: true }), fc.constantFrom('x', 'q', 'Z', 'b', 'R'), (value, junk) => {
+        expect(parseReading(`${value}${junk}`, 'resistance').ok).toBe(false);
+      }),
+    );
+  });
+
+  test('formatOhm then parseReading gives back the value to four significant digits', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0.001, max: 1.9e9, noNaN: true }), (ohm) => {
+        const back = valueOf(parseReading(formatOhm(ohm), 'resistance'))!;
+        expect(Math.abs(back - ohm) / ohm).toBeLessThan(5e-4);
+      }),
+    );
+  });
+});
+
+describe('formatOhm', () => {
+  test.each<[number, string]>([
+    [0, '0 Ω'],
+    [0.8, '0.8 Ω'],
+    [0.05, '0.05 Ω'],
+    [2.5, '2.5 Ω'],
+    [2.6, '2.6 Ω'],
+    [999.96, '1 kΩ'],
+    [1200, '1.2 kΩ'],
+    [100e3, '100 kΩ'],
+    [22e6, '22 MΩ'],
+    [1.5e9, '1.5 GΩ'],
+    [1.23456, '1.235 Ω'],
+  ])('%d Ω → %s', (ohm, text) => {
+    expect(formatOhm(ohm)).toBe(text);
+  });
+});
+
+describe('lengths', () => {
+  test('1 ft is 0.3048 m exactly, as mathjs has it', () => {
+    expect(feetToMetres(1)).toBe(math.unit(1, 'ft').toNumber('m'));
+    expect(metresToFeet(math.unit(1, 'ft').toNumber('m'))).toBeCloseTo(1, 14);
+  });
+
+  test('property: metres ↔ feet agree with mathjs and round-trip', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0, max: 1e5, noNaN: true }), (m) => {
+        expect(metresToFeet(m)).toBeCloseTo(math.unit(m, 'm').toNumber('ft'), 6);
+        expect(feetToMetres(metresToFeet(m))).toBeCloseTo(m, 9);
+      }),
+    );
+  });
+
+  test.each<[number, 'metric' | 'imperial', string]>([
+    [7.4, 'metric', '7.4 m'],
+    [7.4239, 'metric', '7.42 m'],
+    [12, 'metric', '12 m'],
+    [20.04, 'metric', '20 m'],
+    [3863.64, 'metric', '3.864 km'],
+    [12, 'imperial', '39.4 ft'], // 12 / 0.3048 = 39.37…
+    [1, 'imperial', '3.28 ft'],
+    [0.3048, 'imperial', '1 ft'],
+  ])('%d m in %s → %s', (m, system, text) => {
+    expect(formatLength(m, system)).toBe(text);
+  });
+});
