@@ -156,9 +156,9 @@ function parseRow(
   if (i1 === -1 || i1 >= end) return false;
   let i2 = text.indexOf(delimiter, i1 + 1);
   if (i2 === -1 || i2 > end) i2 = end;
-  const t = toNumber(text.slice(start, i1), decimalComma);
+  const t = fieldNumber(text, start, i1, decimalComma);
   if (Number.isNaN(t)) return false;
-  const v = toNumber(text.slice(i1 + 1, i2), decimalComma);
+  const v = fieldNumber(text, i1 + 1, i2, decimalComma);
   if (Number.isNaN(v)) return false;
   let columns = 2;
   // Count further columns (a trailing delimiter leaves an empty one, which does not count).
@@ -173,6 +173,55 @@ function parseRow(
   out.volts = v;
   out.columns = columns;
   return true;
+}
+
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+
+/**
+ * A number read straight from the characters, without making a string per field. Exact where it
+ * answers: a mantissa below 2^53 times or divided by an exact power of ten (10^0…10^22) is one
+ * correctly rounded operation (Clinger's fast path). Anything else goes to Number().
+ */
+function fieldNumber(text: string, start: number, end: number, decimalComma: boolean): number {
+  let i = start;
+  let negative = false;
+  let c = text.charCodeAt(i);
+  if (c === 45 || c === 43) {
+    negative = c === 45;
+    c = text.charCodeAt(++i);
+  }
+  let mantissa = 0;
+  let digits = 0;
+  let scale = 0;
+  let seenPoint = false;
+  for (; i < end; c = text.charCodeAt(++i)) {
+    if (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+      if (seenPoint) scale--;
+    } else if ((c === 46 || (decimalComma && c === 44)) && !seenPoint) seenPoint = true;
+    else break;
+  }
+  if (digits === 0 || digits > 15) return toNumber(text.slice(start, end), decimalComma);
+  if (i < end && (c === 101 || c === 69)) {
+    c = text.charCodeAt(++i);
+    let expNegative = false;
+    if (c === 45 || c === 43) {
+      expNegative = c === 45;
+      c = text.charCodeAt(++i);
+    }
+    let exp = 0;
+    let expDigits = 0;
+    for (; i < end && c >= 48 && c <= 57; c = text.charCodeAt(++i)) {
+      exp = exp * 10 + (c - 48);
+      expDigits++;
+    }
+    if (expDigits === 0 || expDigits > 3) return toNumber(text.slice(start, end), decimalComma);
+    scale += expNegative ? -exp : exp;
+  }
+  if (i !== end || scale < -22 || scale > 22) return toNumber(text.slice(start, end), decimalComma);
+  const value = scale < 0 ? mantissa / POW10[-scale]! : mantissa * POW10[scale]!;
+  return negative ? -value : value;
 }
 
 function toNumber(field: string, decimalComma: boolean): number {
@@ -472,9 +521,9 @@ function robustNoise(volts: Float64Array): number {
   let k = 0;
   for (let i = 1; i < n && k < diffs.length; i += stride) diffs[k++] = volts[i]! - volts[i - 1]!;
   const used = diffs.subarray(0, k);
-  const mid = medianSorted(Float64Array.from(used).sort());
+  const mid = medianInPlace(Float64Array.from(used));
   for (let i = 0; i < k; i++) used[i] = Math.abs(used[i]! - mid);
-  return (1.4826 * medianSorted(used.sort())) / Math.SQRT2;
+  return (1.4826 * medianInPlace(used)) / Math.SQRT2;
 }
 
 function medianSorted(sorted: Float64Array): number {
@@ -487,7 +536,44 @@ function medianOf(values: Float64Array, start: number, end: number): number {
   const s = Math.max(0, start);
   const e = Math.min(values.length, end);
   if (e - s < 1) return NaN;
-  return medianSorted(values.slice(s, e).sort());
+  return medianInPlace(values.slice(s, e));
+}
+
+/** Median by quickselect (Hoare), O(n) on average: a full sort of a million samples is too slow. */
+function medianInPlace(a: Float64Array): number {
+  const n = a.length;
+  if (n === 0) return NaN;
+  const hi = selectKth(a, n >> 1);
+  if (n % 2) return hi;
+  // After selection everything left of n/2 is ≤ a[n/2]: the lower middle is their maximum.
+  let lo = -Infinity;
+  for (let i = 0; i < n >> 1; i++) if (a[i]! > lo) lo = a[i]!;
+  return (lo + hi) / 2;
+}
+
+function selectKth(a: Float64Array, k: number): number {
+  let left = 0;
+  let right = a.length - 1;
+  while (right > left) {
+    const pivot = a[(left + right) >> 1]!;
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (a[i]! < pivot) i++;
+      while (a[j]! > pivot) j--;
+      if (i <= j) {
+        const tmp = a[i]!;
+        a[i] = a[j]!;
+        a[j] = tmp;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else return a[k]!;
+  }
+  return a[k]!;
 }
 
 function meanOf(values: Float64Array, start: number, end: number): number {
@@ -503,17 +589,21 @@ function meanOf(values: Float64Array, start: number, end: number): number {
 function median5(x: Float64Array): Float64Array {
   const n = x.length;
   const out = new Float64Array(n);
-  const w = [0, 0, 0, 0, 0];
   for (let i = 0; i < n; i++) {
     if (i < 2 || i > n - 3) {
       out[i] = x[i]!;
       continue;
     }
-    for (let j = 0; j < 5; j++) w[j] = x[i - 2 + j]!;
-    w.sort((a, b) => a - b);
-    out[i] = w[2]!;
+    out[i] = median5Of(x[i - 2]!, x[i - 1]!, x[i]!, x[i + 1]!, x[i + 2]!);
   }
   return out;
+}
+
+/** Median of five without sorting: the median of e and the two "inner" values of the pairs (a,b), (c,d). */
+function median5Of(a: number, b: number, c: number, d: number, e: number): number {
+  const f = Math.max(Math.min(a, b), Math.min(c, d));
+  const g = Math.min(Math.max(a, b), Math.max(c, d));
+  return Math.max(Math.min(e, f), Math.min(Math.max(e, f), g));
 }
 
 /** Centred moving average; symmetric, so it does not shift the 50 % point of an edge. */
