@@ -3,6 +3,7 @@ import { Link } from 'react-router';
 import type { Role } from '@shared/schemas/common';
 import { Card } from '@/components/ui/card';
 import { paths } from '@/config/paths';
+import { VenueList } from '@/features/venue-status/components/venue-list';
 
 function AdminHome() {
   return (
@@ -26,11 +27,7 @@ function AdminHome() {
 }
 
 function VenuesHome() {
-  return (
-    <Card>
-      <p className="text-ink-soft">No venues yet.</p>
-    </Card>
-  );
+  return <VenueList />;
 }
 
 export const homeSections: Record<Role, ComponentType> = {

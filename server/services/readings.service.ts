@@ -1,0 +1,312 @@
+// Recording a reading: the server is the authority. It parses what was typed, judges it against the
+// venue's limit profile, stores the verdict with the profile version, opens a fault on a failure
+// and closes a repaired fault once its retest passes.
+import type { AppDeps } from '../deps';
+import type { AuthUser } from '../auth/types';
+import type { Db, Tx } from '../db/client';
+import { readingsRepository } from '../db/readings.repository';
+import { stripsRepository, latestByStep, type LimitProfileRow, type ReadingRow } from '../db/strips.repository';
+import { faultsRepository } from '../db/faults.repository';
+import { writeAudit } from '../db/audit.repository';
+import { accessService } from './access.service';
+import { reopenIfSignedOff } from './venue-lifecycle';
+import { conflict, notFound, unprocessable } from '../lib/app-error';
+import { newId, nowIso, sha256Hex } from '../lib/ids';
+import { parseReading } from '../../shared/domain/units';
+import { evaluateReading, NoRuleError, ReadingInputError, type LimitProfile, type LimitRule, type EquipmentKind } from '../../shared/domain/limits';
+import type { CreateReadingInput, ReadingDto } from '../../shared/schemas/readings';
+import type { FaultKind } from '../../shared/schemas/faults';
+
+export function toLimitProfile(row: LimitProfileRow): LimitProfile {
+  return {
+    name: row.name,
+    version: row.version,
+    rules: JSON.parse(row.rulesJson) as LimitRule[],
+    loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
+  };
+}
+
+export function presentReading(r: ReadingRow, takenByName: string | null, faultId?: string | null): ReadingDto {
+  const dto: ReadingDto = {
+    id: r.id,
+    stepId: r.stepId,
+    equipmentId: r.equipmentId,
+    valueText: r.valueText,
+    valueOhm: r.valueOhm,
+    overRange: r.overRange,
+    leadOffsetOhm: r.leadOffsetOhm,
+    temperatureC: r.temperatureC,
+    verdict: r.verdict,
+    limitOhm: r.limitOhm,
+    limitKind: r.limitKind,
+    source: r.source,
+    ruleId: r.ruleId,
+    profileId: r.profileId,
+    profileVersion: r.profileVersion,
+    explanation: r.explanation,
+    supersedesId: r.supersedesId,
+    correctionReason: r.correctionReason,
+    takenAt: r.takenAt,
+    takenBy: r.takenBy,
+    takenByName,
+  };
+  if (faultId !== undefined) dto.faultId = faultId;
+  return dto;
+}
+
+/** What tells a replay from a different request: the body, normalised, without the id. */
+function requestHash(body: CreateReadingInput): string {
+  return sha256Hex(
+    JSON.stringify({
+      stepId: body.stepId,
+      value: body.value.trim(),
+      leadOffsetOhm: body.leadOffsetOhm ?? null,
+      temperatureC: body.temperatureC ?? null,
+      supersedesId: body.supersedesId ?? null,
+      correctionReason: body.correctionReason ?? null,
+    }),
+  );
+}
+
+function faultKindFor(testKind: string, overRange: boolean): FaultKind {
+  if (testKind === 'insulation') return 'short';
+  return overRange ? 'open' : 'high-resistance';
+}
+
+export function readingsService(deps: AppDeps) {
+  const access = accessService(deps.db);
+
+  function get(user: AuthUser, id: string): ReadingDto {
+    const row = readingsRepository(deps.db).findById(id);
+    if (!row) throw notFound('That reading');
+    const ctx = stripsRepository(deps.db).stepContext(row.reading.stepId);
+    if (!ctx) throw notFound('That reading');
+    access.requireVenue(user, ctx.venue.id, 'read');
+    return presentReading(row.reading, row.takenByName, faultIdFor(deps.db, row.reading));
+  }
+
+  function faultIdFor(tx: Db | Tx, r: ReadingRow): string | null {
+    const faults = faultsRepository(tx);
+    if (r.verdict !== 'fail') return faults.ofReading(r.id)?.id ?? null;
+    return faults.ofReading(r.id)?.id ?? faults.unclosedOfStep(r.stepId)?.id ?? null;
+  }
+
+  /**
+   * Records a reading. Answers `replayed: true` with the stored reading when the same id comes
+   * again with the same body (an offline client retrying).
+   */
+  function create(user: AuthUser, body: CreateReadingInput): { replayed: boolean; reading: ReadingDto } {
+    const strips = stripsRepository(deps.db);
+    const ctx = strips.stepContext(body.stepId);
+    if (!ctx) throw notFound('That step');
+    access.requireVenue(user, ctx.venue.id, 'test');
+    const hash = requestHash(body);
+
+    return deps.db.transaction((tx) => {
+      const readings = readingsRepository(tx);
+      const existing = readings.findById(body.id);
+      if (existing) {
+        if (existing.reading.requestHash !== hash) {
+          throw unprocessable(
+            'idempotency-mismatch',
+            'A reading with this id was already recorded with different content. Make a new id for a new reading.',
+            { errors: [{ path: 'id', message: 'This id belongs to a different reading' }] },
+          );
+        }
+        return { replayed: true, reading: presentReading(existing.reading, existing.takenByName, faultIdFor(tx, existing.reading)) };
+      }
+      if (ctx.step.removedAt) {
+        throw conflict(
+          'step-removed',
+          `This step (${ctx.step.testKind} ${ctx.step.conductors} on ${ctx.position.name}, ${ctx.strip.label}) was taken off the checklist; the reading was not recorded.`,
+          { stepId: ctx.step.id },
+        );
+      }
+      if (body.supersedesId) {
+        const old = readings.findById(body.supersedesId);
+        if (!old || old.reading.stepId !== body.stepId) {
+          throw unprocessable('bad-correction', 'The reading being corrected must be an earlier reading of the same step.', {
+            errors: [{ path: 'supersedesId', message: 'Not a reading of this step' }],
+          });
+        }
+      }
+
+      const parsedValue = parseReading(body.value, 'resistance', { leadOffsetOhm: body.leadOffsetOhm ?? 0 });
+      if (!parsedValue.ok) {
+        throw unprocessable('invalid-reading', parsedValue.message, { errors: [{ path: 'value', message: parsedValue.message }] });
+      }
+      const profileRow = strips.profile(ctx.venue.profileId);
+      if (!profileRow) throw conflict('no-limit-profile', 'This venue has no limit profile; the technical director must choose one.');
+      let verdict;
+      try {
+        verdict = evaluateReading({
+          profile: toLimitProfile(profileRow),
+          equipmentKind: ctx.position.equipmentKind,
+          testKind: ctx.step.testKind,
+          conductors: ctx.step.conductors,
+          valueOhm: parsedValue.value,
+          overRange: parsedValue.overRange,
+          lengthM: ctx.equipment?.lengthM ?? null,
+          temperatureC: body.temperatureC ?? null,
+        });
+      } catch (err) {
+        if (err instanceof NoRuleError) throw unprocessable(err.code, err.message, { errors: [{ path: 'stepId', message: err.message }] });
+        if (err instanceof ReadingInputError) throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
+        throw err;
+      }
+
+      const takenAt = nowIso();
+      const row = {
+        id: body.id,
+        stepId: body.stepId,
+        equipmentId: ctx.position.equipmentId,
+        valueText: body.value,
+        valueOhm: parsedValue.value,
+        overRange: parsedValue.overRange,
+        leadOffsetOhm: body.leadOffsetOhm ?? null,
+        temperatureC: body.temperatureC ?? null,
+        verdict: verdict.verdict,
+        limitOhm: verdict.limitOhm,
+        limitKind: verdict.limitKind,
+        source: verdict.source,
+        ruleId: verdict.ruleId,
+        profileId: profileRow.id,
+        profileVersion: profileRow.version,
+        explanation: verdict.explanation,
+        supersedesId: body.supersedesId ?? null,
+        correctionReason: body.correctionReason ?? null,
+        requestHash: hash,
+        takenBy: user.id,
+        takenAt,
+      };
+      readings.insert(row);
+      writeAudit(tx, {
+        orgId: user.orgId,
+        actorId: user.id,
+        action: body.supersedesId ? 'reading.corrected' : 'reading.recorded',
+        entityType: 'reading',
+        entityId: body.id,
+        detail: {
+          stepId: body.stepId,
+          stripId: ctx.strip.id,
+          value: body.value,
+          verdict: verdict.verdict,
+          profileVersion: profileRow.version,
+          ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
+        },
+      });
+      reopenIfSignedOff(tx, {
+        venueId: ctx.venue.id,
+        orgId: user.orgId,
+        actorId: user.id,
+        reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
+      });
+
+      const faultId =
+        verdict.verdict === 'fail'
+          ? onFailure(tx, user, ctx, body.id, parsedValue.overRange, takenAt)
+          : onPass(tx, user, ctx.position.id, body, takenAt);
+      const stored = readings.findById(body.id)!;
+      return { replayed: false, reading: presentReading(stored.reading, stored.takenByName, faultId) };
+    });
+  }
+
+  /** Opens a fault unless one is already open on this step; a failed retest sends a repaired fault back to open. */
+  function onFailure(
+    tx: Tx,
+    user: AuthUser,
+    ctx: NonNullable<ReturnType<ReturnType<typeof stripsRepository>['stepContext']>>,
+    readingId: string,
+    overRange: boolean,
+    at: string,
+  ): string {
+    const faults = faultsRepository(tx);
+    const existing = faults.unclosedOfStep(ctx.step.id);
+    if (existing) {
+      if (existing.status === 'repaired') {
+        faults.update(existing.id, existing.version, { status: 'open' });
+        writeAudit(tx, {
+          orgId: user.orgId,
+          actorId: user.id,
+          action: 'fault.retest-failed',
+          entityType: 'fault',
+          entityId: existing.id,
+          detail: { readingId },
+        });
+      }
+      return existing.id;
+    }
+    const id = newId();
+    const kind = faultKindFor(ctx.step.testKind, overRange);
+    faults.insert({
+      id,
+      stripId: ctx.strip.id,
+      positionId: ctx.position.id,
+      equipmentId: ctx.position.equipmentId,
+      stepId: ctx.step.id,
+      readingId,
+      kind,
+      conductors: ctx.step.conductors,
+      status: 'open',
+      openedBy: user.id,
+      openedAt: at,
+    });
+    writeAudit(tx, {
+      orgId: user.orgId,
+      actorId: user.id,
+      action: 'fault.opened',
+      entityType: 'fault',
+      entityId: id,
+      detail: { readingId, kind, conductors: ctx.step.conductors, automatic: true },
+    });
+    return id;
+  }
+
+  /**
+   * A passing reading may finish a retest: a repaired fault closes when every active step of its
+   * position has a passing reading taken since the repair. A correction that turns the reading
+   * that opened a fault into a pass closes that fault too (it was a mistyped value).
+   */
+  function onPass(tx: Tx, user: AuthUser, positionId: string, body: CreateReadingInput, at: string): string | null {
+    const faults = faultsRepository(tx);
+    const strips = stripsRepository(tx);
+    if (body.supersedesId) {
+      const opened = faults.ofReading(body.supersedesId);
+      if (opened && opened.status === 'open') {
+        faults.update(opened.id, opened.version, { status: 'closed', closedAt: at });
+        writeAudit(tx, {
+          orgId: user.orgId,
+          actorId: user.id,
+          action: 'fault.closed',
+          entityType: 'fault',
+          entityId: opened.id,
+          detail: { why: 'the reading that opened it was corrected', readingId: body.id, reason: body.correctionReason },
+        });
+      }
+    }
+    const repaired = faults.repairedOfPosition(positionId);
+    if (repaired.length === 0) return null;
+    const steps = strips.activeStepsOf([positionId]);
+    const latest = latestByStep(strips.readingsOfSteps(steps.map((s) => s.id)));
+    for (const fault of repaired) {
+      const repairedAt = faults.latestRepairOf(fault.id)?.createdAt ?? fault.openedAt;
+      const allPass = steps.every((s) => {
+        const r = latest.get(s.id)?.reading;
+        return !!r && r.verdict !== 'fail' && r.takenAt >= repairedAt;
+      });
+      if (!allPass) continue;
+      faults.update(fault.id, fault.version, { status: 'closed', closedAt: at });
+      writeAudit(tx, {
+        orgId: user.orgId,
+        actorId: user.id,
+        action: 'fault.closed',
+        entityType: 'fault',
+        entityId: fault.id,
+        detail: { why: 'retest passed', readingId: body.id },
+      });
+    }
+    return null;
+  }
+
+  return { create, get };
+}

@@ -1,0 +1,69 @@
+// Body of POST /api/readings. The client makes the id (a UUID) so a retry is recognised.
+import { z } from 'zod';
+import { idField } from './common';
+import { LEAD_OFFSET_MAX_OHM } from '../domain/units';
+import { TEMPERATURE_RANGE_C } from '../domain/limits';
+
+export const createReadingSchema = z
+  .strictObject({
+    id: idField,
+    stepId: idField,
+    value: z
+      .string({ error: 'value is required: the reading as the meter shows it, e.g. 0.8, 22 MΩ or OL' })
+      .trim()
+      .min(1, { error: 'value is required: the reading as the meter shows it, e.g. 0.8, 22 MΩ or OL' })
+      .max(40, { error: 'value is too long for a meter reading' }),
+    leadOffsetOhm: z
+      .number({ error: 'leadOffsetOhm must be a number of ohms' })
+      .min(0, { error: 'leadOffsetOhm cannot be negative' })
+      .max(LEAD_OFFSET_MAX_OHM, { error: `leadOffsetOhm must be at most ${LEAD_OFFSET_MAX_OHM} Ω; null the leads again` })
+      .nullable()
+      .optional(),
+    temperatureC: z
+      .number({ error: 'temperatureC must be a number of °C' })
+      .min(TEMPERATURE_RANGE_C.min, { error: `temperatureC must be at least ${TEMPERATURE_RANGE_C.min} °C` })
+      .max(TEMPERATURE_RANGE_C.max, { error: `temperatureC must be at most ${TEMPERATURE_RANGE_C.max} °C` })
+      .nullable()
+      .optional(),
+    supersedesId: idField.nullable().optional(),
+    correctionReason: z.string().trim().min(3, { error: 'correctionReason needs a few words' }).max(500).nullable().optional(),
+  })
+  .superRefine((body, ctx) => {
+    const hasSupersedes = body.supersedesId != null;
+    const hasReason = body.correctionReason != null;
+    if (hasSupersedes && !hasReason) {
+      ctx.addIssue({ code: 'custom', path: ['correctionReason'], message: 'A correction needs a reason (correctionReason)' });
+    }
+    if (hasReason && !hasSupersedes) {
+      ctx.addIssue({ code: 'custom', path: ['supersedesId'], message: 'correctionReason goes with supersedesId: the reading being corrected' });
+    }
+  });
+export type CreateReadingInput = z.infer<typeof createReadingSchema>;
+
+export type VerdictName = 'pass' | 'near-limit' | 'fail';
+
+/** A stored reading as the API answers it. */
+export interface ReadingDto {
+  id: string;
+  stepId: string;
+  equipmentId: string | null;
+  valueText: string;
+  valueOhm: number | null;
+  overRange: boolean;
+  leadOffsetOhm: number | null;
+  temperatureC: number | null;
+  verdict: VerdictName;
+  limitOhm: number | null;
+  limitKind: 'max' | 'min' | null;
+  source: string;
+  ruleId: string | null;
+  profileId: string;
+  profileVersion: number;
+  explanation: string;
+  supersedesId: string | null;
+  correctionReason: string | null;
+  takenAt: string;
+  takenBy: string;
+  takenByName: string | null;
+  faultId?: string | null;
+}

@@ -1,0 +1,230 @@
+import { useState } from 'react';
+import { Link, useParams } from 'react-router';
+import { formatLength, formatOhm } from '@shared/domain/units';
+import { TEST_KIND_LABELS } from '@shared/domain/checklist';
+import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
+import { useMe } from '@/features/auth/api/get-me';
+import { useFault } from '@/features/faults/api/get-fault';
+import { useUpdateFault } from '@/features/faults/api/update-fault';
+import { CableDrawing } from '@/features/faults/components/cable-drawing';
+import { LocateForm } from '@/features/faults/components/locate-form';
+import { RepairForm } from '@/features/faults/components/repair-form';
+import { METHOD_LABELS, type LocateMethod } from '@/features/faults/utils/methods';
+import { Button } from '@/components/ui/button';
+import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
+import { StatusMark } from '@/components/ui/status-mark';
+import { paths } from '@/config/paths';
+
+const statusLook = {
+  open: { shape: 'triangle', tone: 'fail' },
+  located: { shape: 'diamond', tone: 'fail' },
+  repaired: { shape: 'half', tone: 'near' },
+  closed: { shape: 'circle', tone: 'pass' },
+} as const;
+const verdictLook = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['diamond', 'near', 'Near limit'], fail: ['triangle', 'fail', 'Fail'] } as const;
+const ACTION_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped', retired: 'Retired' } as const;
+
+/** A fault: where it is on the cable, how to locate it, the repair, and the way back to the retest. */
+export default function FaultPage() {
+  const { faultId = '' } = useParams();
+  const fault = useFault(faultId);
+  const me = useMe();
+  const update = useUpdateFault(faultId);
+  const [notes, setNotes] = useState<string | null>(null);
+  if (fault.isPending) return <Loading />;
+  if (fault.isError) return <Notice tone="error">{fault.error.message}</Notice>;
+  const f = fault.data;
+  const unit = me.data?.unitSystem ?? 'metric';
+  const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
+  const active = f.status !== 'closed';
+  const lengthM = f.equipment?.lengthM ?? f.lengthM;
+  const retest = `${paths.stripTest(f.stripId)}?position=${f.positionId}`;
+
+  const markers = f.estimates
+    .filter((e) => e.distanceFromNearM !== null)
+    .map((e) => ({ distanceM: e.distanceFromNearM as number, uncertaintyM: e.uncertaintyM, label: '' }));
+  const shown = f.combined ?? null;
+  if (shown) {
+    markers.push({
+      distanceM: shown.distanceM,
+      uncertaintyM: shown.uncertaintyM,
+      label: `${formatLength(shown.distanceM, unit)} ±${formatLength(shown.uncertaintyM, unit)} from the apparatus end`,
+      main: true,
+    } as (typeof markers)[number] & { main: boolean });
+  }
+
+  return (
+    <>
+      <PageHeader
+        title={`Fault on ${f.stripLabel} · ${f.positionName}`}
+        subtitle={
+          <>
+            {FAULT_KIND_LABELS[f.kind]} ({f.conductors.replace('-', '–')}) · {f.equipment ? `${f.equipment.assetTag}, ${lengthM !== null ? formatLength(lengthM, unit) : 'length not recorded'}` : 'no item recorded'} · opened{' '}
+            {new Date(f.openedAt).toLocaleString()} by {f.openedByName ?? 'someone'}
+          </>
+        }
+        actions={
+          <>
+            <StatusMark {...statusLook[f.status]} label={FAULT_STATUS_LABELS[f.status]} size="lg" />
+            <Link to={retest} className={`inline-flex min-h-touch items-center rounded-lg px-4 font-medium ${f.status === 'repaired' ? 'bg-brand text-white' : 'border border-line bg-card'}`}>
+              Retest on the testing screen
+            </Link>
+          </>
+        }
+      />
+      {f.status === 'repaired' && (
+        <div className="mb-4">
+          <Notice tone="caution">Repaired: retest every step of this item. The fault closes, and the strip can be clear, when they all pass.</Notice>
+        </div>
+      )}
+      {f.status === 'closed' && (
+        <div className="mb-4">
+          <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+        </div>
+      )}
+
+      <Card className="mb-4">
+        <h2 className="text-lg font-semibold">Where it is</h2>
+        {lengthM !== null ? (
+          <CableDrawing
+            lengthM={lengthM}
+            markers={markers}
+            unitSystem={unit}
+            title={shown ? `Cable of ${formatLength(lengthM, unit)} with the fault about ${formatLength(shown.distanceM, unit)} from the apparatus end` : `Cable of ${formatLength(lengthM, unit)}, fault not located yet`}
+          />
+        ) : (
+          <p className="text-sm text-ink-soft">The item’s length is not recorded, so the cable cannot be drawn to scale.</p>
+        )}
+        {shown ? (
+          <div className="mt-2 space-y-2 text-sm" data-testid="estimate">
+            <p className="flex flex-wrap items-center gap-2 text-base">
+              <strong>
+                About {formatLength(shown.distanceM, unit)} ±{formatLength(shown.uncertaintyM, unit)} from the apparatus end
+                {lengthM !== null ? ` (${formatLength(lengthM - shown.distanceM, unit)} from the far end)` : ''}
+              </strong>
+              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'triangle'} tone={shown.agree ? 'pass' : 'near'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
+            </p>
+            <p>{shown.count > 1 ? shown.explanation : f.estimates[f.estimates.length - 1]?.explanation}</p>
+          </div>
+        ) : (
+          <p className="mt-2 text-sm text-ink-soft">Not located yet. Choose a method below.</p>
+        )}
+        {f.estimates.length > 0 && (
+          <details className="mt-3 text-sm">
+            <summary className="min-h-touch cursor-pointer py-2 font-medium">Saved estimates ({f.estimates.length})</summary>
+            <ul className="divide-y divide-line">
+              {f.estimates.map((e) => (
+                <li key={e.id} className="py-2">
+                  <strong>{METHOD_LABELS[e.method as LocateMethod] ?? e.method}</strong>: {formatLength(e.distanceM, unit)} ±{formatLength(e.uncertaintyM, unit)} from the{' '}
+                  {e.fromEnd === 'near' ? 'apparatus end' : 'far end'} · {e.createdByName ?? ''}, {new Date(e.createdAt).toLocaleString()}
+                  <p className="text-ink-soft">{e.explanation}</p>
+                </li>
+              ))}
+            </ul>
+          </details>
+        )}
+      </Card>
+
+      <div className="grid gap-4 lg:grid-cols-2">
+        {canWrite && active && (
+          <Card>
+            <h2 className="mb-3 text-lg font-semibold">Locate</h2>
+            <LocateForm key={f.kind + f.conductors} fault={f} />
+          </Card>
+        )}
+        {canWrite && active && (
+          <Card>
+            <h2 className="mb-3 text-lg font-semibold">Repair</h2>
+            <RepairForm fault={f} unitSystem={unit} />
+            <p className="mt-4">
+              <Link to={retest} className="inline-flex min-h-touch items-center rounded-lg border border-brand px-4 font-medium text-brand">
+                Retest the affected steps →
+              </Link>
+            </p>
+          </Card>
+        )}
+      </div>
+
+      {f.repairs.length > 0 && (
+        <Card className="mt-4">
+          <h2 className="mb-2 text-lg font-semibold">Repairs</h2>
+          <ul className="divide-y divide-line text-sm">
+            {f.repairs.map((r) => (
+              <li key={r.id} className="py-2">
+                <strong>{ACTION_LABELS[r.action]}</strong>
+                {r.action === 'cut-out' && r.lengthBeforeM !== null && r.lengthRemovedM !== null
+                  ? `: ${formatLength(r.lengthRemovedM, unit)} removed, ${formatLength(r.lengthBeforeM, unit)} → ${formatLength(r.lengthBeforeM - r.lengthRemovedM, unit)}`
+                  : ''}
+                {r.action === 'swapped' && f.currentEquipment ? `: ${f.currentEquipment.assetTag} put in` : ''} · {r.createdByName ?? ''}, {new Date(r.createdAt).toLocaleString()}
+                {r.notes && <p className="text-ink-soft">{r.notes}</p>}
+              </li>
+            ))}
+          </ul>
+        </Card>
+      )}
+
+      <Card className="mt-4 overflow-x-auto">
+        <h2 className="mb-2 text-lg font-semibold">Readings of this item</h2>
+        <table className="w-full text-left text-sm">
+          <thead className="border-b border-line text-xs uppercase tracking-wide text-ink-soft">
+            <tr>
+              <th className="py-2 pr-3">Step</th>
+              <th className="py-2 pr-3">Latest</th>
+              <th className="py-2 pr-3">Verdict</th>
+              <th className="py-2 pr-3">Limit</th>
+              <th className="py-2">Earlier</th>
+            </tr>
+          </thead>
+          <tbody>
+            {f.steps.map((s) => {
+              const l = s.latest;
+              const v = l ? verdictLook[l.verdict] : null;
+              return (
+                <tr key={s.id} className={`border-b border-line last:border-0 ${s.id === f.stepId ? 'bg-fail-soft/50' : ''}`}>
+                  <td className="py-2 pr-3">
+                    {TEST_KIND_LABELS[s.testKind]} {s.conductors}
+                  </td>
+                  <td className="py-2 pr-3 tabular-nums">{l ? (l.overRange ? 'OL' : formatOhm(l.valueOhm ?? 0)) : '—'}</td>
+                  <td className="py-2 pr-3">{v ? <StatusMark shape={v[0]} tone={v[1]} label={v[2]} size="sm" /> : <span className="text-ink-soft">not measured</span>}</td>
+                  <td className="py-2 pr-3 tabular-nums">{l?.limitOhm != null ? `${l.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(l.limitOhm)}` : '—'}</td>
+                  <td className="py-2 text-xs text-ink-soft">
+                    {s.readings
+                      .slice(1, 4)
+                      .map((r) => (r.overRange ? 'OL' : formatOhm(r.valueOhm ?? 0)))
+                      .join(', ') || '—'}
+                  </td>
+                </tr>
+              );
+            })}
+          </tbody>
+        </table>
+      </Card>
+
+      <Card className="mt-4">
+        <h2 className="mb-2 text-lg font-semibold">Notes</h2>
+        {canWrite ? (
+          <form
+            className="flex flex-col gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              update.mutate({ version: f.version, patch: { notes: (notes ?? f.notes ?? '').trim() || null } }, { onSuccess: () => setNotes(null) });
+            }}
+          >
+            <label htmlFor="fault-notes" className="sr-only">
+              Notes on this fault
+            </label>
+            <textarea id="fault-notes" rows={3} value={notes ?? f.notes ?? ''} onChange={(e) => setNotes(e.target.value)} className="rounded-lg border border-line bg-card px-3 py-2 text-base" />
+            {update.isError && <Notice tone="error">{update.error.message}</Notice>}
+            <div>
+              <Button type="submit" variant="secondary" disabled={notes === null || update.isPending}>
+                Save notes
+              </Button>
+            </div>
+          </form>
+        ) : (
+          <p className="text-sm">{f.notes ?? 'No notes.'}</p>
+        )}
+      </Card>
+    </>
+  );
+}

@@ -1,0 +1,187 @@
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { Link, useParams, useSearchParams } from 'react-router';
+import { formatLength } from '@shared/domain/units';
+import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
+import { STRIP_STATUS_LABELS } from '@shared/domain/progress';
+import { useMe } from '@/features/auth/api/get-me';
+import { useStrip } from '@/features/testing/api/get-strip';
+import { useCreateReading } from '@/features/testing/api/create-reading';
+import { StepRow } from '@/features/testing/components/step-row';
+import { SafetyNotice } from '@/features/testing/components/safety-notice';
+import { LeadNull } from '@/features/testing/components/lead-null';
+import { readLeadOffset, safetyAcknowledged, saveLeadOffset } from '@/features/testing/utils/session';
+import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
+import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
+import { paths } from '@/config/paths';
+
+const statusTone = { 'not-started': 'idle', 'in-progress': 'brand', clear: 'pass', 'fault-open': 'fail', withdrawn: 'idle' } as const;
+const statusShape = { 'not-started': 'ring', 'in-progress': 'half', clear: 'circle', 'fault-open': 'triangle', withdrawn: 'dash' } as const;
+
+/** The testing screen: walk a strip's positions and steps with the keyboard alone. */
+export default function StripTestPage() {
+  const { stripId = '' } = useParams();
+  const [search] = useSearchParams();
+  const retestPosition = search.get('position');
+  const strip = useStrip(stripId);
+  const me = useMe();
+  const create = useCreateReading(stripId);
+  const [lead, setLead] = useState<number | null>(() => readLeadOffset());
+  const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
+  const nextStripLink = useRef<HTMLAnchorElement>(null);
+  const [ready, setReady] = useState(() => safetyAcknowledged());
+  const focusedFor = useRef<string | null>(null);
+
+  const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
+  const data = strip.data;
+  const flat = useMemo(() => (data ? data.positions.flatMap((p) => p.steps.map((s) => ({ step: s, position: p }))) : []), [data]);
+
+  const focusStep = useCallback((stepId: string | undefined) => {
+    if (!stepId) return nextStripLink.current?.focus();
+    const el = inputs.current.get(stepId);
+    el?.focus();
+    el?.scrollIntoView({ block: 'center', behavior: 'smooth' });
+  }, []);
+
+  // On arrival (after the safety notice): the first step of the retest, else the first not yet measured.
+  useEffect(() => {
+    if (!data || !ready || !canWrite || focusedFor.current === data.id + (retestPosition ?? '')) return;
+    focusedFor.current = data.id + (retestPosition ?? '');
+    const target = retestPosition
+      ? flat.find((f) => f.position.id === retestPosition)
+      : (flat.find((f) => !f.step.latest) ?? flat[0]);
+    // Wait a frame so the inputs are mounted.
+    requestAnimationFrame(() => focusStep(target?.step.id));
+  }, [data, ready, canWrite, retestPosition, flat, focusStep]);
+
+  if (strip.isPending) return <Loading />;
+  if (strip.isError) return <Notice tone="error">{strip.error.message}</Notice>;
+  if (!data) return null;
+  if (!data.profile) return <Notice tone="error">This venue has no limit profile yet; the technical director must choose one before testing.</Notice>;
+  const profile = { name: data.profile.name, version: data.profile.version, rules: data.profile.rules, loopRequired: data.profile.loopRequired };
+  const unit = me.data?.unitSystem ?? 'metric';
+  let n = 0;
+
+  return (
+    <>
+      {canWrite && <SafetyNotice onAcknowledged={() => setReady(true)} />}
+      <PageHeader
+        title={`${data.label} — testing`}
+        subtitle={
+          <>
+            <Link to={paths.venue(data.venueId)} className="underline">
+              {data.venueName}
+            </Link>
+            {data.zone ? ` · ${data.zone}` : ''} · limits: {data.profile.name} v{data.profile.version}
+          </>
+        }
+        actions={
+          <>
+            {data.previousStripId && (
+              <Link to={paths.stripTest(data.previousStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
+                ← Previous strip
+              </Link>
+            )}
+            {data.nextStripId && (
+              <Link ref={nextStripLink} to={paths.stripTest(data.nextStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
+                Next strip →
+              </Link>
+            )}
+            <Link to={paths.venueBoard(data.venueId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
+              Status board
+            </Link>
+          </>
+        }
+      />
+
+      <Card className="mb-4 grid gap-4 md:grid-cols-[auto_1fr_1fr] md:items-center">
+        <div data-testid="strip-status">
+          <StatusMark shape={statusShape[data.status]} tone={statusTone[data.status]} label={STRIP_STATUS_LABELS[data.status]} size="lg" />
+        </div>
+        <ProgressBar done={data.counts.done} total={data.counts.total} label="This strip: steps measured" />
+        <ProgressBar done={data.venueProgress.stepsDone} total={data.venueProgress.stepsTotal} label={`This venue: steps measured (${data.venueProgress.stripsClear} of ${data.venueProgress.stripCount} strips clear)`} />
+        {canWrite && (
+          <div className="md:col-span-3">
+            <LeadNull
+              valueOhm={lead}
+              onChange={(v) => {
+                saveLeadOffset(v);
+                setLead(v);
+              }}
+            />
+          </div>
+        )}
+      </Card>
+
+      {data.withdrawnReason && <Notice tone="caution">This strip is withdrawn: {data.withdrawnReason}</Notice>}
+      {retestPosition && (
+        <div className="mb-4">
+          <Notice tone="caution">
+            Retest after a repair: measure every step of the highlighted item again. The fault closes, and the strip can be clear, only when they all pass.
+          </Notice>
+        </div>
+      )}
+      {data.openFaults.length > 0 && (
+        <Card className="mb-4 border-fail/40">
+          <h2 className="text-lg font-semibold">Faults on this strip</h2>
+          <ul className="mt-2 divide-y divide-line">
+            {data.openFaults.map((f) => (
+              <li key={f.id} className="flex flex-wrap items-center gap-3 py-2">
+                <StatusMark shape="triangle" tone={f.status === 'repaired' ? 'near' : 'fail'} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
+                <span>
+                  {f.positionName}: {FAULT_KIND_LABELS[f.kind]} ({f.conductors}){f.equipment ? ` · ${f.equipment.assetTag}` : ''}
+                </span>
+                <Link to={paths.fault(f.id)} className="inline-flex min-h-touch items-center font-medium text-brand underline">
+                  {f.status === 'repaired' ? 'See the repair' : 'Locate and repair'}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </Card>
+      )}
+
+      <div className="flex flex-col gap-4">
+        {data.positions.map((position) => (
+          <section key={position.id} aria-label={position.name} className={`overflow-hidden rounded-card border border-line bg-card shadow-sm ${retestPosition === position.id ? 'ring-2 ring-brass' : ''}`}>
+            <header className="flex flex-wrap items-baseline gap-x-3 border-b border-line bg-paper px-4 py-3">
+              <h2 className="text-lg font-semibold">{position.name}</h2>
+              <span className="text-sm text-ink-soft">
+                {position.equipment
+                  ? `${position.equipment.assetTag}${position.equipment.lengthM !== null ? ` · ${formatLength(position.equipment.lengthM, unit)}` : ''}`
+                  : 'No item attached'}
+              </span>
+            </header>
+            {position.steps.length === 0 ? (
+              <p className="px-4 py-3 text-sm text-ink-soft">Nothing to measure here with a multimeter.</p>
+            ) : (
+              <ol>
+                {position.steps.map((step) => {
+                  n += 1;
+                  const at = flat.findIndex((f) => f.step.id === step.id);
+                  const fault = data.openFaults.find((f) => f.stepId === step.id);
+                  return (
+                    <StepRow
+                      key={step.id}
+                      index={n}
+                      step={step}
+                      ctx={{ profile, equipmentKind: position.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM: position.equipment?.lengthM ?? null }}
+                      leadOffsetOhm={lead}
+                      canWrite={canWrite}
+                      faultId={fault?.id ?? null}
+                      highlight={retestPosition === position.id}
+                      inputRef={(el) => {
+                        if (el) inputs.current.set(step.id, el);
+                        else inputs.current.delete(step.id);
+                      }}
+                      submit={(body) => create.mutateAsync(body)}
+                      onRecorded={() => focusStep(flat[at + 1]?.step.id)}
+                    />
+                  );
+                })}
+              </ol>
+            )}
+          </section>
+        ))}
+      </div>
+    </>
+  );
+}

@@ -1,0 +1,74 @@
+import { Link, useNavigate, useParams } from 'react-router';
+import { useMe } from '@/features/auth/api/get-me';
+import { useBoard } from '@/features/venue-status/api/get-board';
+import { StripFilters, StripGrid, useStripFilters } from '@/features/venue-status/components/strip-grid';
+import { StripPicker } from '@/features/venue-status/components/strip-picker';
+import { OpenFaultsList } from '@/features/venue-status/components/open-faults';
+import { VENUE_STATUS_LABELS } from '@/features/venue-status/utils/strip-status';
+import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
+import { ProgressBar } from '@/components/ui/status-mark';
+import { paths } from '@/config/paths';
+
+const linkClass = 'inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper';
+
+/** A venue: pick a strip by tapping it or typing its number, and reach the venue's other pages. */
+export default function VenuePage() {
+  const { venueId = '' } = useParams();
+  const navigate = useNavigate();
+  const me = useMe();
+  const board = useBoard(venueId);
+  const filters = useStripFilters(board.data?.strips ?? []);
+  if (board.isPending) return <Loading />;
+  if (board.isError) return <Notice tone="error">{board.error.message}</Notice>;
+  const { venue, counts, progress, openFaults } = board.data;
+  const role = me.data?.role;
+
+  return (
+    <>
+      <PageHeader
+        title={venue.name}
+        subtitle={`${venue.eventName} · ${VENUE_STATUS_LABELS[venue.status] ?? venue.status}`}
+        actions={
+          <nav aria-label="Venue pages" className="flex flex-wrap gap-2">
+            <Link to={paths.venueBoard(venue.id)} className={linkClass}>
+              Status board
+            </Link>
+            {role === 'director' && (
+              <Link to={paths.venuePlan(venue.id)} className={linkClass}>
+                Plan
+              </Link>
+            )}
+            {role !== 'technician' && (
+              <>
+                <Link to={paths.venueReadings(venue.id)} className={linkClass}>
+                  Readings
+                </Link>
+                <Link to={paths.venueAudit(venue.id)} className={linkClass}>
+                  Audit trail
+                </Link>
+                <Link to={paths.venueSignOff(venue.id)} className={linkClass}>
+                  Sign-off
+                </Link>
+                <Link to={paths.venueCertificates(venue.id)} className={linkClass}>
+                  Certificates
+                </Link>
+              </>
+            )}
+          </nav>
+        }
+      />
+      <Card className="mb-4 grid gap-4 md:grid-cols-2 md:items-center">
+        <ProgressBar done={progress.stepsDone} total={progress.stepsTotal} label="Steps measured in this venue" />
+        <StripPicker strips={board.data.strips} onPick={(s) => navigate(paths.stripTest(s.id))} />
+      </Card>
+      <div className="mb-4">
+        <StripFilters filters={filters} counts={counts} />
+      </div>
+      <StripGrid strips={filters.shown} linkTo={(s) => paths.stripTest(s.id)} />
+      <Card className="mt-6">
+        <h2 className="mb-2 text-lg font-semibold">Open faults</h2>
+        <OpenFaultsList faults={openFaults} unitSystem={me.data?.unitSystem ?? 'metric'} />
+      </Card>
+    </>
+  );
+}

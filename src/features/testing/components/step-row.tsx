@@ -1,0 +1,260 @@
+import { useRef, useState, type Ref } from 'react';
+import { Link } from 'react-router';
+import { TEST_KIND_LABELS } from '@shared/domain/checklist';
+import type { ReadingDto } from '@shared/schemas/readings';
+import { ApiError } from '@/lib/api-client';
+import { Button } from '@/components/ui/button';
+import { StatusMark } from '@/components/ui/status-mark';
+import { paths } from '@/config/paths';
+import type { StripStep } from '../api/get-strip';
+import { limitText, previewReading, type StepContext } from '../utils/preview';
+import { verdictLook } from '../utils/verdict-look';
+
+type Submit = (body: { id: string; stepId: string; value: string; leadOffsetOhm?: number | null; supersedesId?: string; correctionReason?: string }) => Promise<ReadingDto>;
+
+function conductorsLabel(step: StripStep) {
+  if (step.testKind === 'continuity') return `Line ${step.conductors}`;
+  if (step.testKind === 'insulation' || step.testKind === 'loop') return `Lines ${step.conductors.replace('-', '–')}`;
+  return '';
+}
+
+function time(iso: string) {
+  return new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
+}
+
+/** A retry of the same value after a network failure keeps its id, so the server sees a replay. */
+function useReadingId() {
+  const last = useRef<{ value: string; id: string; retryable: boolean } | null>(null);
+  return {
+    idFor(value: string) {
+      if (last.current && last.current.value === value && last.current.retryable) return last.current.id;
+      last.current = { value, id: crypto.randomUUID(), retryable: false };
+      return last.current.id;
+    },
+    failed(err: unknown) {
+      if (last.current) last.current.retryable = !(err instanceof ApiError) || err.status >= 500;
+    },
+    done() {
+      last.current = null;
+    },
+  };
+}
+
+export function StepRow({
+  index,
+  step,
+  ctx,
+  leadOffsetOhm,
+  canWrite,
+  faultId,
+  highlight,
+  inputRef,
+  submit,
+  onRecorded,
+}: {
+  index: number;
+  step: StripStep;
+  ctx: StepContext;
+  leadOffsetOhm: number | null;
+  canWrite: boolean;
+  faultId: string | null;
+  highlight: boolean;
+  inputRef: Ref<HTMLInputElement>;
+  submit: Submit;
+  onRecorded: (reading: ReadingDto) => void;
+}) {
+  const [value, setValue] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  const [busy, setBusy] = useState(false);
+  const [correcting, setCorrecting] = useState(false);
+  const [correction, setCorrection] = useState({ value: '', reason: '' });
+  const [openedFault, setOpenedFault] = useState<string | null>(null);
+  const ids = useReadingId();
+  const own = useRef<HTMLInputElement | null>(null);
+
+  const preview = previewReading(value, ctx, leadOffsetOhm);
+  const limit = limitText(ctx);
+  const latest = step.latest;
+  const fieldId = `reading-${step.id}`;
+  const title = [TEST_KIND_LABELS[step.testKind], conductorsLabel(step)].filter(Boolean).join(' · ');
+
+  async function record(extra: { supersedesId?: string; correctionReason?: string } = {}, typed = value) {
+    if (busy) return;
+    const p = previewReading(typed, ctx, leadOffsetOhm);
+    if (p.state === 'empty') return setError('Type the reading first, or OL for over range.');
+    if (p.state === 'invalid') return setError(p.message);
+    setBusy(true);
+    setError(null);
+    try {
+      const reading = await submit({ id: ids.idFor(typed), stepId: step.id, value: typed, leadOffsetOhm, ...extra });
+      ids.done();
+      setValue('');
+      setCorrecting(false);
+      setCorrection({ value: '', reason: '' });
+      setOpenedFault(reading.faultId ?? null);
+      onRecorded(reading);
+    } catch (err) {
+      ids.failed(err);
+      setError(err instanceof ApiError ? err.message : 'Could not reach the server; press Enter again to retry (it will not be recorded twice).');
+    } finally {
+      setBusy(false);
+    }
+  }
+
+  const append = (suffix: string) => {
+    setValue((v) => (v.replace(/\s*[kKmM]$/, '') + suffix).trimStart());
+    own.current?.focus();
+  };
+  const showFault = openedFault ?? faultId;
+
+  return (
+    <li
+      className={`grid gap-3 border-b border-line px-4 py-4 last:border-0 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.15fr)] ${highlight ? 'bg-brass-soft/60' : ''}`}
+      data-step={`${step.testKind} ${step.conductors}`}
+    >
+      <div className="min-w-0">
+        <div className="flex items-baseline gap-2">
+          <span className="text-xs font-semibold text-ink-soft tabular-nums">{index}.</span>
+          <label htmlFor={fieldId} className="text-base font-semibold">
+            {title}
+          </label>
+          {!step.required && <span className="text-xs text-ink-soft">(optional)</span>}
+        </div>
+        <p className="mt-1 text-sm text-ink">{step.instruction}</p>
+        {limit && (
+          <p className="mt-1 text-xs text-ink-soft">
+            Limit: <strong className="text-ink">{limit.text}</strong> — {limit.source}
+          </p>
+        )}
+        {step.testKind === 'insulation' && (
+          <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
+            <strong>Caution:</strong> use the multimeter’s resistance range. Never use a high-voltage insulation tester on a cable still connected to a scoring apparatus or any electronics.
+          </p>
+        )}
+        {step.testKind === 'piste-earth' && (
+          <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
+            <strong>Note:</strong> this checks the piste’s link to the apparatus earth only. The hall’s own earthing and mains installation are the business of a licensed electrician under local codes.
+          </p>
+        )}
+        {latest && (
+          <div className="mt-2 flex flex-wrap items-center gap-2 text-sm" data-testid="latest">
+            <span className="text-ink-soft">Latest:</span>
+            <strong className="tabular-nums">{latest.overRange ? 'OL' : latest.valueText}</strong>
+            <StatusMark {...verdictLook[latest.verdict]} size="sm" />
+            <span className="text-xs text-ink-soft">
+              {latest.takenByName ?? 'someone'}, {time(latest.takenAt)} · profile v{latest.profileVersion}
+              {latest.correctionReason ? ` · corrected: ${latest.correctionReason}` : ''}
+            </span>
+            {canWrite && !correcting && (
+              <button type="button" className="min-h-touch px-1 text-xs font-medium text-brand underline" onClick={() => setCorrecting(true)}>
+                Correct this reading
+              </button>
+            )}
+          </div>
+        )}
+      </div>
+
+      <div className="min-w-0">
+        {canWrite ? (
+          <form
+            className="flex flex-wrap items-center gap-2"
+            onSubmit={(e) => {
+              e.preventDefault();
+              void record();
+            }}
+          >
+            <input
+              id={fieldId}
+              ref={(el) => {
+                own.current = el;
+                if (typeof inputRef === 'function') inputRef(el);
+              }}
+              inputMode="decimal"
+              autoComplete="off"
+              enterKeyHint="next"
+              spellCheck={false}
+              placeholder={step.testKind === 'insulation' ? 'OL' : 'Ω'}
+              value={value}
+              onChange={(e) => {
+                setValue(e.target.value);
+                setError(null);
+              }}
+              aria-describedby={`${fieldId}-preview`}
+              aria-invalid={preview.state === 'invalid' || !!error ? true : undefined}
+              className="min-h-touch w-36 rounded-lg border-2 border-line bg-card px-3 text-lg font-semibold tabular-nums focus:border-brand aria-[invalid=true]:border-fail"
+            />
+            <button type="button" tabIndex={-1} className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold" onClick={() => { setValue('OL'); own.current?.focus(); }}>
+              OL
+            </button>
+            <button type="button" tabIndex={-1} className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold" onClick={() => append('k')}>
+              k
+            </button>
+            <button type="button" tabIndex={-1} className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold" onClick={() => append('M')}>
+              M
+            </button>
+            <Button type="submit" disabled={busy}>
+              {busy ? 'Saving…' : latest ? 'Record again' : 'Record'}
+            </Button>
+          </form>
+        ) : (
+          <p className="text-sm text-ink-soft">Read only: only the assigned technicians and the technical director record readings.</p>
+        )}
+        <div id={`${fieldId}-preview`} aria-live="polite" className="mt-2 text-sm">
+          {preview.state === 'judged' && (
+            <p className="flex flex-wrap items-start gap-2">
+              <StatusMark {...verdictLook[preview.verdict.verdict]} />
+              <span>
+                <strong>{preview.display}</strong> — {preview.verdict.explanation}
+              </span>
+            </p>
+          )}
+          {preview.state === 'invalid' && <p className="text-fail">{preview.message}</p>}
+          {error && (
+            <p role="alert" className="font-medium text-fail">
+              {error}
+            </p>
+          )}
+          {preview.state === 'empty' && !error && latest && latest.verdict !== 'pass' && (
+            <p className="flex flex-wrap items-start gap-2">
+              <StatusMark {...verdictLook[latest.verdict]} size="sm" />
+              <span>{latest.explanation}</span>
+            </p>
+          )}
+        </div>
+        {showFault && (
+          <p className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-fail/40 bg-fail-soft px-3 py-2 text-sm">
+            <StatusMark shape="triangle" tone="fail" label="Fault recorded" size="sm" />
+            <Link to={paths.fault(showFault)} className="inline-flex min-h-touch items-center font-semibold text-fail underline">
+              Locate and repair this fault
+            </Link>
+          </p>
+        )}
+        {correcting && latest && (
+          <form
+            className="mt-3 flex flex-wrap items-end gap-2 rounded-lg border border-line bg-paper p-3"
+            onSubmit={(e) => {
+              e.preventDefault();
+              if (correction.reason.trim().length < 3) return setError('Say briefly why the reading is corrected.');
+              void record({ supersedesId: latest.id, correctionReason: correction.reason.trim() }, correction.value);
+            }}
+          >
+            <label className="flex flex-col text-xs font-medium">
+              Corrected value
+              <input inputMode="decimal" className="min-h-touch w-32 rounded-lg border border-line bg-card px-2 text-base" value={correction.value} onChange={(e) => setCorrection((c) => ({ ...c, value: e.target.value }))} />
+            </label>
+            <label className="flex min-w-48 flex-1 flex-col text-xs font-medium">
+              Why (kept with the reading)
+              <input className="min-h-touch rounded-lg border border-line bg-card px-2 text-base" value={correction.reason} onChange={(e) => setCorrection((c) => ({ ...c, reason: e.target.value }))} />
+            </label>
+            <Button type="submit" variant="secondary">
+              Save correction
+            </Button>
+            <Button variant="ghost" onClick={() => setCorrecting(false)}>
+              Cancel
+            </Button>
+          </form>
+        )}
+      </div>
+    </li>
+  );
+}
