@@ -1,0 +1,146 @@
+// Limit profiles: copied and edited by admins and directors. An edit adds a version to the
+// lineage and never rewrites one, so every reading keeps the version it was checked with.
+import type { AppDeps } from '../deps';
+import type { AuthUser } from '../auth/types';
+import { profilesRepository, type ProfileRow } from '../db/profiles.repository';
+import { writeAudit } from '../db/audit.repository';
+import { notFound } from '../lib/app-error';
+import { newId, nowIso } from '../lib/ids';
+import { requireVersion } from '../http/etag';
+import type { EquipmentKind, LimitProfile, LimitRule } from '../../shared/domain/limits';
+import type { UpdateProfileInput } from '../../shared/schemas/limit-profile';
+
+/** A stored row as the domain's LimitProfile (what evaluateReading and stepsForKind take). */
+export function toLimitProfile(row: ProfileRow): LimitProfile {
+  return {
+    name: row.name,
+    version: row.version,
+    rules: JSON.parse(row.rulesJson) as LimitRule[],
+    loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
+  };
+}
+
+function present(row: ProfileRow) {
+  const p = toLimitProfile(row);
+  return {
+    id: row.id,
+    lineageId: row.lineageId,
+    name: row.name,
+    version: row.version,
+    rules: p.rules,
+    loopRequired: p.loopRequired ?? [],
+    notes: row.notes,
+    createdAt: row.createdAt,
+    createdBy: row.createdBy,
+  };
+}
+
+export function profilesService(deps: AppDeps) {
+  const repo = profilesRepository(deps.db);
+
+  function requireProfile(user: AuthUser, id: string) {
+    const row = repo.findById(id);
+    if (!row || row.orgId !== user.orgId) throw notFound('That limit profile');
+    return row;
+  }
+
+  return {
+    /** The latest version of every lineage, each with its older versions listed. */
+    list(user: AuthUser) {
+      const rows = repo.ofOrg(user.orgId);
+      const byLineage = new Map<string, ProfileRow[]>();
+      for (const r of rows) byLineage.set(r.lineageId, [...(byLineage.get(r.lineageId) ?? []), r]);
+      return [...byLineage.values()]
+        .map((versions) => {
+          const sorted = [...versions].sort((a, b) => b.version - a.version);
+          const latest = sorted[0];
+          const p = present(latest);
+          return {
+            ...p,
+            ruleCount: p.rules.length,
+            houseRuleCount: p.rules.filter((r) => r.houseRule).length,
+            versions: sorted.map((v) => ({ id: v.id, version: v.version, createdAt: v.createdAt })),
+          };
+        })
+        .sort((a, b) => a.name.localeCompare(b.name));
+    },
+
+    get(user: AuthUser, id: string) {
+      const row = requireProfile(user, id);
+      const versions = repo.versionsOf(row.lineageId);
+      return {
+        ...present(row),
+        latestVersion: versions[0]?.profile.version ?? row.version,
+        latestId: versions[0]?.profile.id ?? row.id,
+        versions: versions.map((v) => ({ id: v.profile.id, version: v.profile.version, createdAt: v.profile.createdAt, byName: v.byName, notes: v.profile.notes })),
+        usedBy: repo.venuesUsing(user.orgId, row.lineageId),
+      };
+    },
+
+    copy(user: AuthUser, id: string, name: string) {
+      const source = requireProfile(user, id);
+      const newRowId = newId();
+      deps.db.transaction((tx) => {
+        profilesRepository(tx).insert({
+          id: newRowId,
+          orgId: user.orgId,
+          lineageId: newId(),
+          name,
+          version: 1,
+          rulesJson: source.rulesJson,
+          loopRequiredJson: source.loopRequiredJson,
+          notes: `Copied from “${source.name}” version ${source.version}.`,
+          createdBy: user.id,
+          createdAt: nowIso(),
+        });
+        writeAudit(tx, {
+          orgId: user.orgId,
+          actorId: user.id,
+          action: 'profile.copied',
+          entityType: 'limit-profile',
+          entityId: newRowId,
+          detail: { name, fromProfileId: source.id, fromName: source.name, fromVersion: source.version },
+        });
+      });
+      return this.get(user, newRowId);
+    },
+
+    /** Stores the edit as version n+1; If-Match must name the lineage's latest version. */
+    update(user: AuthUser, id: string, ifMatch: string | undefined, input: UpdateProfileInput) {
+      const newRowId = newId();
+      deps.db.transaction((tx) => {
+        const r = profilesRepository(tx);
+        const row = r.findById(id);
+        if (!row || row.orgId !== user.orgId) throw notFound('That limit profile');
+        const latest = r.latestOf(row.lineageId)!;
+        requireVersion(
+          ifMatch,
+          latest.version,
+          (yours, current) =>
+            `Someone else changed “${latest.name}” meanwhile: you edited version ${yours ?? '?'}, the latest is version ${current}. Open version ${current}, then apply your changes again.`,
+        );
+        r.insert({
+          id: newRowId,
+          orgId: user.orgId,
+          lineageId: row.lineageId,
+          name: input.name ?? latest.name,
+          version: latest.version + 1,
+          rulesJson: JSON.stringify(input.rules),
+          loopRequiredJson: input.loopRequired ? JSON.stringify(input.loopRequired) : latest.loopRequiredJson,
+          notes: input.notes === undefined ? latest.notes : input.notes,
+          createdBy: user.id,
+          createdAt: nowIso(),
+        });
+        writeAudit(tx, {
+          orgId: user.orgId,
+          actorId: user.id,
+          action: 'profile.versioned',
+          entityType: 'limit-profile',
+          entityId: newRowId,
+          detail: { lineageId: row.lineageId, name: input.name ?? latest.name, fromVersion: latest.version, version: latest.version + 1 },
+        });
+      });
+      return this.get(user, newRowId);
+    },
+  };
+}

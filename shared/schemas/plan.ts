@@ -1,0 +1,113 @@
+import { z } from 'zod';
+import { EQUIPMENT_KINDS, TEST_KINDS, type TestKind } from '../domain/limits';
+import { idField, nameField } from './common';
+import { assetTagField } from './equipment';
+
+const isoDate = (field: string) =>
+  z
+    .string({ error: `${field} is required (YYYY-MM-DD).` })
+    .regex(/^\d{4}-\d{2}-\d{2}$/, `${field} must be a date like 2026-11-21.`)
+    .refine((s) => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), {
+      message: `${field} is not a real date.`,
+    });
+
+export const createEventSchema = z
+  .strictObject({
+    name: nameField,
+    startsOn: isoDate('startsOn'),
+    endsOn: isoDate('endsOn'),
+    organiserId: idField.nullable().optional(),
+  })
+  .refine((v) => v.endsOn >= v.startsOn, { path: ['endsOn'], message: 'The event cannot end before it starts.' });
+export type CreateEventInput = z.input<typeof createEventSchema>;
+
+export const createVenueSchema = z.strictObject({
+  name: nameField,
+  profileId: idField,
+  cloneFromVenueId: idField.nullable().optional(),
+  /** With a clone: also assign the same technicians. */
+  copyTechnicians: z.boolean().optional(),
+  /** With a clone: put the same tagged items in the same positions (default yes). */
+  copyEquipment: z.boolean().optional(),
+});
+export type CreateVenueInput = z.input<typeof createVenueSchema>;
+
+export const updateVenueSchema = z
+  .strictObject({ name: nameField.optional(), profileId: idField.optional() })
+  .refine((v) => v.name !== undefined || v.profileId !== undefined, { message: 'Nothing to change: give name or profileId.' });
+export type UpdateVenueInput = z.input<typeof updateVenueSchema>;
+
+export const positionTemplateEntrySchema = z.strictObject({
+  name: z.string().trim().min(1, 'A position needs a name.').max(60),
+  equipmentKind: z.enum(EQUIPMENT_KINDS, { error: `equipmentKind must be one of: ${EQUIPMENT_KINDS.join(', ')}` }),
+  pisteOnly: z.boolean().optional(),
+});
+
+const stripLabel = z.string().trim().min(1, 'A strip needs a label.').max(40, 'Keep strip labels under 40 characters.');
+
+export const bulkStripsSchema = z
+  .strictObject({
+    count: z.number().int('count must be a whole number.').min(1, 'Add at least 1 strip.').max(200, 'Add at most 200 strips at once.').optional(),
+    labels: z.array(stripLabel).min(1, 'Give at least one label.').max(200, 'Add at most 200 strips at once.').optional(),
+    prefix: z.string().max(30).optional(),
+    startAt: z.number().int().min(0).max(9999).optional(),
+    zone: z.string().trim().max(60).nullable().optional(),
+    conductivePiste: z.boolean().optional(),
+    template: z.array(positionTemplateEntrySchema).min(1, 'A template needs at least one position.').max(20).optional(),
+  })
+  .superRefine((v, ctx) => {
+    if ((v.count === undefined) === (v.labels === undefined)) {
+      ctx.addIssue({ code: 'custom', path: ['count'], message: 'Give either count or labels.' });
+    }
+    if (v.labels) {
+      const seen = new Set<string>();
+      v.labels.forEach((l, i) => {
+        if (seen.has(l)) ctx.addIssue({ code: 'custom', path: ['labels', i], message: `“${l}” is listed twice.` });
+        seen.add(l);
+      });
+    }
+  });
+export type BulkStripsInput = z.input<typeof bulkStripsSchema>;
+
+export const updateStripSchema = z
+  .strictObject({
+    label: stripLabel.optional(),
+    zone: z.string().trim().max(60).nullable().optional(),
+    sortOrder: z.number().int().min(0).max(100000).optional(),
+    conductivePiste: z.boolean().optional(),
+  })
+  .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change.' });
+export type UpdateStripInput = z.input<typeof updateStripSchema>;
+
+export const withdrawStripSchema = z.strictObject({
+  reason: z.string({ error: 'Give a reason for withdrawing the strip.' }).trim().min(3, 'Give a reason for withdrawing the strip.').max(500),
+});
+
+export const attachEquipmentSchema = z.strictObject({ assetTag: assetTagField.nullable() });
+
+export const venueTechniciansSchema = z.strictObject({
+  userIds: z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' }),
+});
+
+/** Which conductors a step of each test kind names. */
+export const CONDUCTORS_FOR_TEST: Record<TestKind, readonly string[]> = {
+  continuity: ['A', 'B', 'C'],
+  insulation: ['A-B', 'A-C', 'B-C'],
+  loop: ['A-B', 'A-C', 'B-C'],
+  'piste-end-to-end': ['piste'],
+  'piste-earth': ['piste-C'],
+};
+
+export const addStepSchema = z
+  .strictObject({
+    testKind: z.enum(TEST_KINDS, { error: `testKind must be one of: ${TEST_KINDS.join(', ')}` }),
+    conductors: z.string({ error: 'conductors is required, e.g. "A" or "A-B".' }).trim(),
+    required: z.boolean().optional(),
+  })
+  .superRefine((v, ctx) => {
+    const allowed = CONDUCTORS_FOR_TEST[v.testKind];
+    if (!allowed.includes(v.conductors)) {
+      ctx.addIssue({ code: 'custom', path: ['conductors'], message: `A ${v.testKind} step names one of: ${allowed.join(', ')}.` });
+    }
+  });
+export type AddStepInput = z.input<typeof addStepSchema>;

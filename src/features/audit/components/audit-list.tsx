@@ -1,0 +1,58 @@
+import type { AuditEntry } from '../api/get-venue-audit';
+
+const ACTIONS: Record<string, string> = {
+  'venue.created': 'created the venue',
+  'venue.cloned': 'created the venue as a copy',
+  'venue.updated': 'changed the venue details',
+  'venue.technicians-set': 'changed the technicians',
+  'venue.reopened': 're-opened the signed-off venue',
+  'strip.created': 'added a strip',
+  'strip.updated': 'changed a strip',
+  'strip.withdrawn': 'withdrew a strip',
+  'strip.reinstated': 'reinstated a strip',
+  'position.equipment-attached': 'attached an item',
+  'position.equipment-removed': 'took an item off',
+  'step.added': 'added a checklist step',
+  'step.dropped': 'dropped a checklist step',
+  'reading.recorded': 'recorded a reading',
+  'reading.corrected': 'corrected a reading',
+};
+
+/** A short line from the entry's detail: the fields a person recognises. */
+function summary(e: AuditEntry): string {
+  const d = e.detail;
+  const parts: string[] = [];
+  for (const k of ['label', 'strip', 'position', 'assetTag', 'testKind', 'conductors', 'value', 'reason', 'name'] as const) {
+    const v = d[k];
+    if (typeof v === 'string' && v) parts.push(v);
+  }
+  if (d.changed && typeof d.changed === 'object') {
+    for (const [field, change] of Object.entries(d.changed as Record<string, { from: unknown; to: unknown }>)) {
+      parts.push(`${field}: ${String(change.from ?? '—')} → ${String(change.to ?? '—')}`);
+    }
+  }
+  if (Array.isArray(d.added) && d.added.length) parts.push(`added ${d.added.join(', ')}`);
+  if (Array.isArray(d.removed) && d.removed.length) parts.push(`removed ${d.removed.join(', ')}`);
+  return parts.join(' · ');
+}
+
+export function AuditList({ entries }: { entries: AuditEntry[] }) {
+  if (entries.length === 0) return <p className="p-5 text-ink-soft">Nothing recorded yet.</p>;
+  return (
+    <ol className="divide-y divide-line">
+      {entries.map((e) => (
+        <li key={e.id} className="grid gap-1 px-5 py-3 sm:grid-cols-[11rem_1fr]">
+          <time dateTime={e.at} className="text-sm text-ink-soft">
+            {new Date(e.at).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
+          </time>
+          <div>
+            <p>
+              <strong>{e.actorName ?? 'The system'}</strong> {ACTIONS[e.action] ?? e.action}
+            </p>
+            {summary(e) && <p className="text-sm text-ink-soft">{summary(e)}</p>}
+          </div>
+        </li>
+      ))}
+    </ol>
+  );
+}

@@ -1,0 +1,63 @@
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { EQUIPMENT_KINDS } from '@shared/domain/limits';
+import {
+  createEquipmentSchema,
+  EQUIPMENT_KIND_LABELS,
+  EQUIPMENT_STATUS_LABELS,
+  EQUIPMENT_STATUSES,
+  type CreateEquipmentInput,
+} from '@shared/schemas/equipment';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/card';
+import { SelectField, TextField } from '@/components/ui/field';
+import { ApiError } from '@/lib/api-client';
+import { numberOrNull } from './labels';
+
+/** Register a new item. Field errors from the server (e.g. a duplicate tag) land on their field. */
+export function EquipmentCreateForm({ onCreate }: { onCreate: (v: CreateEquipmentInput) => Promise<unknown> }) {
+  const form = useForm<CreateEquipmentInput>({
+    resolver: zodResolver(createEquipmentSchema),
+    defaultValues: { assetTag: '', kind: 'floor-cable', description: '', lengthM: null, conductorMm2: null, cableType: null, status: 'in-service' },
+  });
+  const errors = form.formState.errors;
+  const root = errors.root?.message;
+  return (
+    <form
+      noValidate
+      className="flex flex-col gap-3"
+      onSubmit={form.handleSubmit(async (v) => {
+        try {
+          await onCreate(v);
+          form.reset();
+        } catch (err) {
+          if (err instanceof ApiError && err.errors.length) {
+            for (const e of err.errors) form.setError(e.path as keyof CreateEquipmentInput, { message: e.message });
+          }
+          form.setError('root', { message: err instanceof Error ? err.message : 'Could not save.' });
+        }
+      })}
+    >
+      <TextField label="Asset tag" placeholder="FC-025" autoComplete="off" {...form.register('assetTag')} error={errors.assetTag?.message} />
+      <SelectField label="Kind" {...form.register('kind')} error={errors.kind?.message}>
+        {EQUIPMENT_KINDS.map((k) => (
+          <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>
+        ))}
+      </SelectField>
+      <TextField label="Description" {...form.register('description')} error={errors.description?.message} />
+      <div className="grid grid-cols-2 gap-3">
+        <TextField label="Length (m)" inputMode="decimal" {...form.register('lengthM', { setValueAs: numberOrNull })} error={errors.lengthM?.message} />
+        <TextField label="Conductor (mm²)" inputMode="decimal" {...form.register('conductorMm2', { setValueAs: numberOrNull })} error={errors.conductorMm2?.message} />
+      </div>
+      <TextField label="Cable type" {...form.register('cableType', { setValueAs: (v) => (v ? v : null) })} error={errors.cableType?.message} />
+      <SelectField label="Status" {...form.register('status')}>
+        {EQUIPMENT_STATUSES.map((s) => (
+          <option key={s} value={s}>{EQUIPMENT_STATUS_LABELS[s]}</option>
+        ))}
+      </SelectField>
+      {root && <Notice tone="error">{root}</Notice>}
+      {form.formState.isSubmitSuccessful && !root && <Notice tone="success">Item added to the register.</Notice>}
+      <Button type="submit" disabled={form.formState.isSubmitting}>Add to register</Button>
+    </form>
+  );
+}

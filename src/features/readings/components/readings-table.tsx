@@ -1,0 +1,225 @@
+import { Fragment, useMemo, useState } from 'react';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type ColumnFiltersState,
+  type SortingState,
+} from '@tanstack/react-table';
+import { TEST_KIND_LABELS } from '@shared/domain/checklist';
+import { formatOhm } from '@shared/domain/units';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/card';
+import { SelectField, TextField } from '@/components/ui/field';
+import { StatusMark } from '@/components/ui/status-mark';
+import type { ReadingRow } from '../api/get-venue-readings';
+import type { CorrectionInput } from '../api/correct-reading';
+
+const VERDICT = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['triangle', 'near', 'Near limit'], fail: ['square', 'fail', 'Fail'] } as const;
+const col = createColumnHelper<ReadingRow>();
+const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' });
+const equals = (row: { getValue: (id: string) => unknown }, id: string, value: unknown) => value === '' || row.getValue(id) === value;
+
+function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrect: (v: CorrectionInput) => Promise<unknown>; onClose: () => void }) {
+  const [value, setValue] = useState('');
+  const [reason, setReason] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <form
+      className="flex flex-wrap items-end gap-3 bg-brass-soft px-4 py-3"
+      onSubmit={async (e) => {
+        e.preventDefault();
+        setError(null);
+        try {
+          await onCorrect({ stepId: row.stepId, value, supersedesId: row.id, correctionReason: reason });
+          onClose();
+        } catch (err) {
+          setError(err instanceof Error ? err.message : 'The correction was not saved.');
+        }
+      }}
+    >
+      <p className="w-full text-sm">
+        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}. The old reading stays in the history.
+      </p>
+      <TextField label="Correct value" name={`fix-${row.id}`} id={`fix-${row.id}`} autoFocus inputMode="decimal" value={value} onChange={(e) => setValue(e.target.value)} className="w-36" />
+      <TextField label="Reason" name={`reason-${row.id}`} id={`reason-${row.id}`} value={reason} onChange={(e) => setReason(e.target.value)} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
+      <Button type="submit" disabled={!value.trim() || reason.trim().length < 3}>Save correction</Button>
+      <Button variant="secondary" onClick={onClose}>Cancel</Button>
+      {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
+    </form>
+  );
+}
+
+export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRow[]; canCorrect: boolean; onCorrect: (v: CorrectionInput) => Promise<unknown> }) {
+  const [sorting, setSorting] = useState<SortingState>([]);
+  const [filters, setFilters] = useState<ColumnFiltersState>([]);
+  const [correcting, setCorrecting] = useState<string | null>(null);
+  const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
+
+  const columns = useMemo(
+    () => [
+      col.accessor('stripLabel', {
+        header: 'Strip',
+        filterFn: (row, id, v) => equals(row, id, v),
+        sortingFn: (a, b) => a.original.stripSort - b.original.stripSort || a.original.positionSort - b.original.positionSort || a.original.stepSort - b.original.stepSort,
+        cell: (c) => (
+          <span>
+            <span className="font-semibold whitespace-nowrap">{c.getValue()}</span>
+            <span className="block text-xs text-ink-soft">{c.row.original.positionName}</span>
+          </span>
+        ),
+      }),
+      col.accessor('assetTag', { header: 'Tag', cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{c.getValue() ?? '—'}</span> }),
+      col.accessor('testKind', {
+        header: 'Test',
+        filterFn: (row, id, v) => equals(row, id, v),
+        cell: (c) => `${TEST_KIND_LABELS[c.getValue()]} ${c.row.original.conductors}`,
+      }),
+      col.accessor('valueText', {
+        header: 'Value',
+        sortingFn: (a, b) => (a.original.valueOhm ?? Infinity) - (b.original.valueOhm ?? Infinity),
+        cell: (c) => <span className="whitespace-nowrap font-mono font-semibold" data-value>{c.getValue()}</span>,
+      }),
+      col.accessor('verdict', {
+        header: 'Verdict',
+        filterFn: (row, id, v) => equals(row, id, v),
+        cell: (c) => {
+          const [shape, tone, label] = VERDICT[c.getValue()];
+          return <StatusMark shape={shape} tone={tone} label={label} size="sm" />;
+        },
+      }),
+      col.accessor('limitOhm', {
+        header: 'Limit and source',
+        cell: (c) => (
+          <span>
+            <span className="whitespace-nowrap">{c.getValue() === null ? '—' : `${c.row.original.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(c.getValue()!)}`}</span>
+            <span className="block max-w-48 text-xs text-ink-soft">{c.row.original.source}</span>
+          </span>
+        ),
+      }),
+      col.accessor((r) => `${r.profileName ?? '?'} v${r.profileVersion}`, { id: 'profile', header: 'Profile', cell: (c) => <span className="text-xs">{c.getValue()}</span> }),
+      col.accessor((r) => r.takenByName ?? '—', { id: 'who', header: 'Who', filterFn: (row, id, v) => equals(row, id, v) }),
+      col.accessor('takenAt', {
+        header: 'When, who',
+        cell: (c) => (
+          <span className="text-xs">
+            <span className="whitespace-nowrap">{when(c.getValue())}</span>
+            <span className="block">{c.row.original.takenByName}</span>
+          </span>
+        ),
+      }),
+      col.display({
+        id: 'history',
+        header: 'Correction',
+        cell: (c) => {
+          const r = c.row.original;
+          const newer = r.supersededBy ? byId.get(r.supersededBy) : null;
+          return (
+            <div className="flex flex-col items-start gap-1 text-xs">
+              {newer && <span className="font-semibold text-near">Superseded by {newer.valueText} ({when(newer.takenAt)})</span>}
+              {r.supersedesId && (
+                <span>
+                  Corrects {byId.get(r.supersedesId)?.valueText ?? 'an earlier reading'}: “{r.correctionReason}”
+                </span>
+              )}
+              {canCorrect && !r.superseded && (
+                <Button variant="ghost" className="-ml-2 text-sm" onClick={() => setCorrecting(correcting === r.id ? null : r.id)}>
+                  Correct
+                </Button>
+              )}
+            </div>
+          );
+        },
+      }),
+    ],
+    [byId, canCorrect, correcting],
+  );
+
+  const table = useReactTable({
+    data: rows,
+    columns,
+    // Who is filtered on but shown inside the When column.
+    state: { sorting, columnFilters: filters, columnVisibility: { who: false } },
+    onSortingChange: setSorting,
+    onColumnFiltersChange: setFilters,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+  });
+  const filterValue = (id: string) => (filters.find((f) => f.id === id)?.value as string) ?? '';
+  const setFilter = (id: string, value: string) => setFilters([...filters.filter((f) => f.id !== id), ...(value ? [{ id, value }] : [])]);
+  const distinct = (pick: (r: ReadingRow) => string) => [...new Set(rows.map(pick))];
+  const strips = [...new Map(rows.map((r) => [r.stripLabel, r.stripSort])).entries()].sort((a, b) => a[1] - b[1]).map(([l]) => l);
+
+  return (
+    <div>
+      <div className="grid gap-3 border-b border-line p-4 sm:grid-cols-4">
+        <SelectField label="Strip" name="fStrip" value={filterValue('stripLabel')} onChange={(e) => setFilter('stripLabel', e.target.value)}>
+          <option value="">All strips</option>
+          {strips.map((s) => <option key={s} value={s}>{s}</option>)}
+        </SelectField>
+        <SelectField label="Verdict" name="fVerdict" value={filterValue('verdict')} onChange={(e) => setFilter('verdict', e.target.value)}>
+          <option value="">Any verdict</option>
+          {(['pass', 'near-limit', 'fail'] as const).map((v) => <option key={v} value={v}>{VERDICT[v][2]}</option>)}
+        </SelectField>
+        <SelectField label="Test" name="fTest" value={filterValue('testKind')} onChange={(e) => setFilter('testKind', e.target.value)}>
+          <option value="">Any test</option>
+          {distinct((r) => r.testKind).map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k as ReadingRow['testKind']]}</option>)}
+        </SelectField>
+        <SelectField label="Who" name="fWho" value={filterValue('who')} onChange={(e) => setFilter('who', e.target.value)}>
+          <option value="">Anyone</option>
+          {distinct((r) => r.takenByName ?? '—').map((w) => <option key={w} value={w}>{w}</option>)}
+        </SelectField>
+      </div>
+      <p className="px-4 py-2 text-sm text-ink-soft" aria-live="polite">
+        {table.getRowModel().rows.length} of {rows.length} readings · superseded readings stay listed, struck through
+      </p>
+      <div className="overflow-x-auto">
+        <table className="w-full text-left text-sm">
+          <thead className="border-y border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
+            {table.getHeaderGroups().map((g) => (
+              <tr key={g.id}>
+                {g.headers.map((h) => {
+                  const sorted = h.column.getIsSorted();
+                  return (
+                    <th key={h.id} className="px-2 py-1" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
+                      {h.column.getCanSort() ? (
+                        <button type="button" className="inline-flex min-h-touch items-center gap-1 font-semibold uppercase" onClick={h.column.getToggleSortingHandler()}>
+                          {flexRender(h.column.columnDef.header, h.getContext())}
+                          <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                        </button>
+                      ) : (
+                        flexRender(h.column.columnDef.header, h.getContext())
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <Fragment key={row.id}>
+                <tr className={`border-b border-line align-top ${row.original.superseded ? 'bg-idle-soft/60 text-ink-soft [&_[data-value]]:line-through' : ''}`}>
+                  {row.getVisibleCells().map((c) => (
+                    <td key={c.id} className="px-2 py-2">{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                  ))}
+                </tr>
+                {correcting === row.original.id && (
+                  <tr>
+                    <td colSpan={row.getVisibleCells().length}>
+                      <CorrectionForm row={row.original} onCorrect={onCorrect} onClose={() => setCorrecting(null)} />
+                    </td>
+                  </tr>
+                )}
+              </Fragment>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </div>
+  );
+}
