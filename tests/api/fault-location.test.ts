@@ -1,0 +1,209 @@
+import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import fc from 'fast-check';
+import { create, all } from 'mathjs';
+import type { Agent } from 'supertest';
+import { createTestApp, DEMO, ORIGIN, type TestApp } from '../setup/test-app';
+
+// mathjs as the independent reference for the speed of light (CODATA, exact by SI definition).
+const math = create(all);
+const C = math.speedOfLight.toNumber('m/s');
+
+let t: TestApp;
+let sam: Agent;
+beforeAll(async () => {
+  t = await createTestApp();
+  sam = await t.agentFor(DEMO.technician);
+});
+afterAll(() => t.close());
+
+const locate = (body: unknown) => sam.post('/api/fault-location').send(body as object);
+
+function expectProblem(res: { status: number; headers: Record<string, string>; body: { errors?: { path: string; message: string }[] } }, path?: string) {
+  expect(res.status).toBe(422);
+  expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+  if (path !== undefined) expect(res.body.errors?.map((e) => e.path)).toContain(path);
+}
+
+describe('POST /api/fault-location', () => {
+  test('tdr: d = VF·c·Δt/2 (Ulaby, Fundamentals of Applied Electromagnetics, TDR section), with c from mathjs', async () => {
+    const res = await locate({ method: 'tdr', roundTripNs: 100, velocityFactor: 0.66, riseTimeNs: 2, lengthM: 12 });
+    expect(res.status).toBe(200);
+    const expected = (0.66 * C * 100e-9) / 2;
+    expect(res.body.method).toBe('tdr');
+    expect(res.body.distanceM).toBeCloseTo(expected, 9);
+    expect(res.body.fromOtherEndM).toBeCloseTo(12 - expected, 9);
+    expect(res.body.velocityFactor).toBe(0.66);
+    expect(res.body.uncertaintyM).toBeGreaterThan(0);
+    expect(typeof res.body.explanation).toBe('string');
+    expect(Object.keys(res.body).sort()).toEqual(['distanceM', 'explanation', 'fromOtherEndM', 'method', 'uncertaintyM', 'velocityFactor']);
+  });
+
+  test('tdr: VF 0.70 is 4.765 ns/m one way (Wikipedia, "Velocity factor"), so 95.3 ns there and back is 10 m', async () => {
+    const res = await locate({ method: 'tdr', roundTripNs: 2 * 10 * 4.765, velocityFactor: 0.7 });
+    expect(res.status).toBe(200);
+    expect(res.body.distanceM).toBeCloseTo(10, 2);
+    expect(res.body).not.toHaveProperty('fromOtherEndM');
+  });
+
+  test('vf-calibration: VF = 2L/(c·Δt); u_p = 2.0 × 10⁸ m/s (Ulaby problem 2.18, εr = 2.25) over 10 m is 100 ns', async () => {
+    const res = await locate({ method: 'vf-calibration', roundTripNs: 100, lengthM: 10 });
+    expect(res.status).toBe(200);
+    expect(res.body.velocityFactor).toBeCloseTo(2.0e8 / C, 9);
+    expect(res.body.velocityFactor).toBeCloseTo(0.667, 3);
+    expect(res.body.distanceM).toBe(10);
+  });
+
+  test('loop-both-ends: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω (Halliday/Resnick/Walker-type textbook problem; attribution from memory, the arithmetic is exact)', async () => {
+    const res = await locate({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
+    expect(res.status).toBe(200);
+    expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
+    expect(res.body.fromOtherEndM / 1000).toBeCloseTo(10 - 3.864, 3);
+    expect(res.body.faultOhm).toBeCloseTo(25, 9);
+  });
+
+  test('loop-both-ends: the same textbook problem with r from a sound conductor reading end to end (110 Ω over 10 km)', async () => {
+    const res = await locate({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, conductorOhm: 110 });
+    expect(res.status).toBe(200);
+    expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
+    expect(res.body.faultOhm).toBeCloseTo(25, 9);
+  });
+
+  test('loop-one-end: d = (R_loop − R_f)/(2r); the textbook problem from end A with its 25 Ω fault known gives 3.864 km again', async () => {
+    const res = await locate({ method: 'loop-one-end', loopOhm: 110, faultOhm: 25, ohmPerMetre: 0.011, lengthM: 10_000 });
+    expect(res.status).toBe(200);
+    expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
+    expect(res.body.faultOhm).toBe(25);
+    expect(res.body.fromOtherEndM / 1000).toBeCloseTo(10 - 3.864, 3);
+  });
+
+  test('murray: 600 m cable, P:Q = 3:1 → x = 300 m (exam example)', async () => {
+    const res = await locate({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 });
+    expect(res.status).toBe(200);
+    expect(res.body.distanceM).toBeCloseTo(300, 9);
+    expect(res.body.fromOtherEndM).toBeCloseTo(300, 9);
+  });
+
+  test('capacitance: x = L·C_x/C_sound, one end and both ends (standard method; no worked example confirmed, so plain arithmetic)', async () => {
+    const one = await locate({ method: 'capacitance', lengthM: 12, faultedNf: 0.9, soundNf: 1.2 });
+    expect(one.status).toBe(200);
+    expect(one.body.distanceM).toBeCloseTo(9, 9);
+    const both = await locate({ method: 'capacitance', lengthM: 12, faultedNf: 0.9, soundNf: 1.2, farFaultedNf: 0.3 });
+    expect(both.status).toBe(200);
+    expect(both.body.distanceM).toBeCloseTo(9, 9);
+  });
+
+  test('when a field is missing, then 422 names it', async () => {
+    expectProblem(await locate({ method: 'murray', lengthM: 600, ratioP: 3 }), 'ratioQ');
+    expectProblem(await locate({ method: 'loop-both-ends', nearOhm: 1, farOhm: 1, lengthM: 12 }), 'ohmPerMetre');
+    expectProblem(await locate({}), 'method');
+  });
+
+  test('when the method is unknown, then 422 names method and lists the methods', async () => {
+    const res = await locate({ method: 'dowsing', lengthM: 12 });
+    expectProblem(res, 'method');
+    expect(res.body.errors[0].message).toMatch(/tdr, vf-calibration, loop-one-end, loop-both-ends, murray, capacitance/);
+  });
+
+  test('when a number is negative or zero, then 422 names it', async () => {
+    expectProblem(await locate({ method: 'murray', lengthM: 600, ratioP: -3, ratioQ: 1 }), 'ratioP');
+    expectProblem(await locate({ method: 'murray', lengthM: 0, ratioP: 3, ratioQ: 1 }), 'lengthM');
+    expectProblem(await locate({ method: 'loop-one-end', loopOhm: -0.5, ohmPerMetre: 0.01 }), 'loopOhm');
+  });
+
+  test('when a number is sent as a string, then 422 names it', async () => {
+    const res = await locate({ method: 'murray', lengthM: '600', ratioP: 3, ratioQ: 1 });
+    expectProblem(res, 'lengthM');
+    expect(res.body.errors[0].message).toMatch(/must be a number/);
+  });
+
+  test('when a field is not part of the method, then 422 says which', async () => {
+    const res = await locate({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1, colour: 'red' });
+    expectProblem(res);
+    expect(res.body.errors[0].message).toMatch(/colour/);
+  });
+
+  test('when the readings put the fault outside the cable, then 422 names the field and nothing is clamped', async () => {
+    // Murray with Q > P: x = 2 · 600 · 3/4 = 900 m on a 600 m cable.
+    const murray = await locate({ method: 'murray', lengthM: 600, ratioP: 1, ratioQ: 3 });
+    expectProblem(murray, 'ratioQ');
+    expect(murray.body.detail).toMatch(/beyond the end/);
+    // A TDR reflection from beyond a 12 m cable.
+    expectProblem(await locate({ method: 'tdr', roundTripNs: 500, velocityFactor: 0.66, lengthM: 12 }), 'roundTripNs');
+    // Both loop readings smaller than the conductors alone can be.
+    expectProblem(await locate({ method: 'loop-both-ends', nearOhm: 0.1, farOhm: 0.1, lengthM: 12, ohmPerMetre: 0.0375 }), 'farOhm');
+    // Faster than light.
+    expectProblem(await locate({ method: 'vf-calibration', roundTripNs: 10, lengthM: 12 }), 'roundTripNs');
+  });
+
+  test('when the numbers are so large that the distance overflows, then 422 rather than a null distance', async () => {
+    const res = await locate({ method: 'murray', lengthM: Number.MAX_VALUE, ratioP: 1, ratioQ: 1 });
+    expectProblem(res, '(body)');
+    expect(res.body.detail).toMatch(/too large/);
+  });
+
+  test('when the body is not JSON, then a problem, not a server error', async () => {
+    const res = await sam.post('/api/fault-location').set('Content-Type', 'application/json').send('{"method": "murray",');
+    expect(res.status).toBe(400);
+    expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+  });
+
+  test('any JSON body whatsoever is answered 200 or as problem+json, never 500', async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.oneof(fc.anything(), fc.object()), async (value) => {
+        const res = await sam
+          .post('/api/fault-location')
+          .set('Content-Type', 'application/json')
+          .send(JSON.stringify(value) ?? '');
+        expect(res.status).toBeLessThan(500);
+        if (res.status !== 200) expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  test('bodies of the right shape with extreme numbers get a finite answer or a 422, never 500', async () => {
+    const number = fc.oneof(fc.double({ noNaN: true }), fc.constantFrom(0, 1e-300, 1e300, Number.MAX_VALUE, Number.MIN_VALUE));
+    const method = fc.constantFrom('tdr', 'vf-calibration', 'loop-one-end', 'loop-both-ends', 'murray', 'capacitance');
+    const fields = fc.record(
+      {
+        roundTripNs: number,
+        velocityFactor: number,
+        lengthM: number,
+        loopOhm: number,
+        ohmPerMetre: number,
+        nearOhm: number,
+        farOhm: number,
+        ratioP: number,
+        ratioQ: number,
+        faultedNf: number,
+        soundNf: number,
+      },
+      { requiredKeys: [] },
+    );
+    await fc.assert(
+      fc.asyncProperty(method, fields, async (m, f) => {
+        const res = await locate({ method: m, ...f });
+        expect([200, 422]).toContain(res.status);
+        if (res.status === 200) {
+          for (const key of ['distanceM', 'uncertaintyM']) expect(Number.isFinite(res.body[key])).toBe(true);
+        } else {
+          expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
+          expect(res.body.errors.length).toBeGreaterThan(0);
+        }
+      }),
+      { numRuns: 200 },
+    );
+  });
+
+  test('anonymous callers get 401', async () => {
+    const res = await t.request.post('/api/fault-location').set('Origin', ORIGIN).send({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 });
+    expect(res.status).toBe(401);
+  });
+
+  test('every role may use it', async () => {
+    for (const who of [DEMO.admin, DEMO.organiser, DEMO.director, DEMO.annexTechnician]) {
+      const agent = await t.agentFor(who);
+      expect((await agent.post('/api/fault-location').send({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 })).status).toBe(200);
+    }
+  });
+});
