@@ -55,7 +55,8 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
   const data = isJson ? await res.json() : await res.text();
   if (!res.ok) {
     const p = (isJson ? data : {}) as { code?: string; detail?: string; errors?: FieldError[] };
-    if (res.status === 401 && !path.startsWith('/auth/')) onUnauthenticated?.();
+    // Only a missing session signs the user out; a wrong re-entered password (sign-off) does not.
+    if (res.status === 401 && p.code !== 'wrong-password' && !path.startsWith('/auth/')) onUnauthenticated?.();
     throw new ApiError(res.status, p.code ?? 'error', p.detail ?? `The server answered ${res.status}.`, p.errors ?? [], p as Record<string, unknown>);
   }
   return data as T;

@@ -1,0 +1,172 @@
+// Issued certificates: the organiser's list and downloads, revocation, and the public checks
+// (by number, or by the PDF file itself). Public answers only ever describe the one certificate
+// asked about.
+import type { AppDeps } from '../deps';
+import type { AuthUser } from '../auth/types';
+import { accessService } from './access.service';
+import { signOffRepository, type CertificateRow } from '../db/sign-off.repository';
+import { writeAudit } from '../db/audit.repository';
+import { conflict, forbidden, notFound } from '../lib/app-error';
+import { sha256Hex } from '../lib/ids';
+import { certificateFiles } from '../storage/certificate-files';
+import { verifyUrlFor, type CertificatePayload } from '../signing/certificate-record';
+import { currentSigningKey, publicJwks } from '../signing/signing-keys';
+import { CERTIFICATE_NUMBER_PATTERN, normaliseCertificateNumber } from '../../shared/schemas/sign-off';
+
+export function certificatesService(deps: AppDeps) {
+  const access = accessService(deps.db);
+  const repo = signOffRepository(deps.db);
+  const files = certificateFiles(deps.env.DATA_DIR);
+
+  function publicView(c: CertificateRow) {
+    const p = JSON.parse(c.payloadJson) as CertificatePayload;
+    return {
+      status: c.status,
+      number: c.number,
+      kind: c.kind,
+      event: p.event.name,
+      eventDates: { startsOn: p.event.startsOn, endsOn: p.event.endsOn },
+      venue: p.venue.name,
+      strips: p.strips.map((s) => s.label),
+      organisation: p.issuer.organisation.name,
+      issuedAt: c.issuedAt,
+      signedBy: p.signer.name,
+      signedAt: p.signedAt,
+      profile: { name: p.profile.name, version: p.profile.version },
+      items: p.items.length,
+      readings: p.readings.count,
+      supersededAt: c.supersededAt,
+      revokedAt: c.revokedAt,
+      revokedReason: c.revokedReason,
+      keyId: c.keyId,
+      jws: c.jws,
+      pdfSha256: c.pdfSha256,
+      verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
+    };
+  }
+
+  /** A certificate the user may see (same organisation, read access to its venue), else 404/403. */
+  function readable(user: AuthUser, number: string) {
+    const c = repo.certificateByNumber(normaliseCertificateNumber(number));
+    if (!c) throw notFound('That certificate');
+    const row = access.requireVenue(user, c.venueId, 'read');
+    return { c, row };
+  }
+
+  function latestSet(venueId: string) {
+    const all = repo.certificatesOfVenue(venueId);
+    const latest = all[0]?.certificate.signOffId;
+    return all.filter((x) => x.certificate.signOffId === latest);
+  }
+
+  return {
+    list(user: AuthUser, venueId: string) {
+      const row = access.requireVenue(user, venueId, 'read');
+      const canRevoke = user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id);
+      const list = repo.certificatesOfVenue(venueId).map(({ certificate: c, signOff, signerName, stripLabel }) => ({
+        number: c.number,
+        kind: c.kind,
+        stripId: c.stripId,
+        stripLabel,
+        status: c.status,
+        issuedAt: c.issuedAt,
+        signOffId: c.signOffId,
+        signedBy: signerName,
+        signedAt: signOff.signedAt,
+        supersededAt: c.supersededAt,
+        revokedAt: c.revokedAt,
+        revokedReason: c.revokedReason,
+        pdfSha256: c.pdfSha256,
+        verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
+      }));
+      // Newest sign-off first; within one, the venue certificate, then strips in venue order.
+      const order = new Map<string, number>();
+      list.forEach((c) => order.set(c.signOffId, order.get(c.signOffId) ?? order.size));
+      list.sort((a, b) => order.get(a.signOffId)! - order.get(b.signOffId)! || (a.kind === b.kind ? 0 : a.kind === 'venue' ? -1 : 1));
+      return {
+        venue: { id: row.venue.id, name: row.venue.name, status: row.venue.status },
+        event: { id: row.event.id, name: row.event.name, startsOn: row.event.startsOn, endsOn: row.event.endsOn },
+        canRevoke,
+        certificates: list,
+      };
+    },
+
+    pdf(user: AuthUser, number: string) {
+      const { c } = readable(user, number);
+      if (!c.pdfPath) throw notFound('That certificate file');
+      return { number: c.number, data: files.read(c.pdfPath) };
+    },
+
+    /** The latest sign-off's certificates of a venue, for the ZIP. */
+    zipEntries(user: AuthUser, venueId: string) {
+      const row = access.requireVenue(user, venueId, 'read');
+      const set = latestSet(venueId).filter((x) => x.certificate.pdfPath);
+      if (set.length === 0) throw notFound('A certificate of this venue');
+      const ordered = [...set].sort((a, b) => (a.certificate.kind === b.certificate.kind ? 0 : a.certificate.kind === 'venue' ? -1 : 1));
+      return {
+        venueName: row.venue.name,
+        signedAt: set[0].signOff.signedAt,
+        entries: ordered.map(({ certificate: c, stripLabel }) => ({
+          name: `${c.kind === 'venue' ? 'venue' : slug(stripLabel ?? 'strip')}-${c.number}.pdf`,
+          data: files.read(c.pdfPath!),
+          date: new Date(c.issuedAt),
+        })),
+      };
+    },
+
+    revoke(user: AuthUser, number: string, reason: string) {
+      const { c, row } = readable(user, number);
+      if (!(user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id))) {
+        throw forbidden('Only the technical director of this event or an admin can revoke its certificates.');
+      }
+      if (c.status === 'revoked') throw conflict('already-revoked', 'This certificate is already revoked.');
+      const at = new Date().toISOString();
+      deps.db.transaction((tx) => {
+        signOffRepository(tx).revoke(c.id, { at, reason, by: user.id });
+        writeAudit(tx, {
+          orgId: user.orgId,
+          actorId: user.id,
+          action: 'certificate.revoked',
+          entityType: 'certificate',
+          entityId: c.id,
+          detail: { number: c.number, reason, previousStatus: c.status },
+        });
+      });
+      return publicView(repo.certificateByNumber(c.number)!);
+    },
+
+    verify(number: string) {
+      const n = normaliseCertificateNumber(number);
+      const c = CERTIFICATE_NUMBER_PATTERN.test(n) ? repo.certificateByNumber(n) : undefined;
+      if (!c) throw notFound('A certificate with that number');
+      return publicView(c);
+    },
+
+    /** Byte for byte: the SHA-256 of the upload against the hashes of the issued files. */
+    verifyFile(data: Buffer) {
+      const sha256 = sha256Hex(data);
+      const found = repo.certificatesBySha(sha256);
+      if (found.length === 0) return { match: false as const, sha256 };
+      return { match: true as const, sha256, certificate: publicView(found[0]) };
+    },
+
+    /** Made on first start if there is no key yet, so the set is never empty. */
+    async jwks() {
+      await currentSigningKey(deps.db, deps.env);
+      return publicJwks(deps.db);
+    },
+  };
+}
+
+export function slug(text: string): string {
+  return (
+    text
+      .normalize('NFKD')
+      .replace(/[^\w\s-]/g, '')
+      .trim()
+      .toLowerCase()
+      .replace(/[\s_-]+/g, '-')
+      .slice(0, 60) || 'file'
+  );
+}
+export type CertificatesService = ReturnType<typeof certificatesService>;

@@ -1,0 +1,81 @@
+// What a certificate says, as a record: the payload that is signed (RFC 8785 canonical JSON in a
+// JWS) and the certified readings whose digest it carries. The PDF is rendered from these only.
+import { randomInt } from 'node:crypto';
+import { sha256Hex } from '../lib/ids';
+import { canonicalJson } from './signing-keys';
+
+export const CERTIFICATE_FORMAT = 'stripwarden-certificate/1';
+export const SCOPE_SENTENCE =
+  "This certificate covers the competition equipment listed and tested, not the building's electrical installation: the mains supply and the earthing of the hall are for licensed electricians under local codes.";
+
+export interface CertifiedReading {
+  readingId: string;
+  stripId: string;
+  stripLabel: string;
+  position: string;
+  equipmentKind: string;
+  assetTag: string | null;
+  testKind: string;
+  conductors: string;
+  valueText: string;
+  valueOhm: number | null;
+  overRange: boolean;
+  limitOhm: number | null;
+  limitKind: 'max' | 'min' | null;
+  verdict: 'pass' | 'near-limit' | 'fail';
+  source: string;
+  ruleId: string | null;
+  profileVersion: number;
+  takenById: string;
+  takenBy: string;
+  takenAt: string;
+}
+
+export interface CertificateItem {
+  position: string;
+  kind: string;
+  assetTag: string | null;
+}
+
+export interface CertificatePayload {
+  format: typeof CERTIFICATE_FORMAT;
+  number: string;
+  kind: 'venue' | 'strip';
+  issuer: { name: 'Stripwarden'; origin: string; organisation: { id: string; name: string } };
+  event: { id: string; name: string; startsOn: string; endsOn: string };
+  venue: { id: string; name: string };
+  strips: { id: string; label: string; zone: string | null; items: CertificateItem[]; readings: number; nearLimit: number }[];
+  exceptions: { stripId: string; label: string; reason: string; source: 'withdrawn' | 'sign-off' }[];
+  /** Asset tags of every item certified, sorted. */
+  items: string[];
+  readings: { count: number; nearLimit: number; digestAlg: 'SHA-256'; digest: string };
+  profile: { id: string; name: string; version: number; rules: { id: string; source: string; limit: string; note: string | null }[] };
+  testedBy: { id: string; name: string }[];
+  testedFrom: string;
+  testedTo: string;
+  signer: { id: string; name: string; role: 'Technical director' };
+  signedAt: string;
+  statement: string;
+  scope: string;
+  related: { venueCertificate: string | null; stripCertificates: { stripId: string; label: string; number: string }[] };
+  verifyUrl: string;
+}
+
+/** SHA-256 over the canonical JSON of the certified readings, in their certificate order. */
+export function readingsDigest(list: CertifiedReading[]): string {
+  return sha256Hex(canonicalJson(list));
+}
+
+// Crockford base32 without I, L, O, U: readable aloud, no look-alikes.
+const ALPHABET = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
+
+/**
+ * SW-<year>-XXXX-XXXX-<V|S>: 40 random bits, so a number does not tell how many certificates
+ * exist or let anyone guess the next one (verification is public).
+ */
+export function newCertificateNumber(kind: 'venue' | 'strip', year: number): string {
+  const group = () => Array.from({ length: 4 }, () => ALPHABET[randomInt(32)]).join('');
+  return `SW-${year}-${group()}-${group()}-${kind === 'venue' ? 'V' : 'S'}`;
+}
+
+export const verifyUrlFor = (origin: string, number: string) => `${origin}/verify/${number}`;
