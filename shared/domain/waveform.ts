@@ -115,14 +115,19 @@ export function parseTraceCsv(text: string, opts?: { maxSamples?: number }): Par
 }
 
 function detectDelimiter(text: string, start: number, end: number): { delimiter: Delimiter; decimalComma: boolean } {
-  const has = (c: string) => {
-    const i = text.indexOf(c, start);
-    return i !== -1 && i < end;
-  };
+  // Bounded to the line: an unbounded indexOf would scan the rest of the file for every header line.
+  const has = (c: string) => indexWithin(text, c, start, end) !== -1;
   if (has(';')) return { delimiter: ';', decimalComma: true };
   if (has('\t')) return { delimiter: '\t', decimalComma: true };
   if (has(',')) return { delimiter: ',', decimalComma: false };
   return { delimiter: 'whitespace', decimalComma: false };
+}
+
+/** indexOf that stops at `end`, so a line without the character costs its own length, not the file's. */
+function indexWithin(text: string, c: string, from: number, end: number): number {
+  const code = c.charCodeAt(0);
+  for (let i = from; i < end; i++) if (text.charCodeAt(i) === code) return i;
+  return -1;
 }
 
 function isBlank(text: string, start: number, end: number): boolean {
@@ -152,10 +157,10 @@ function parseRow(
     out.columns = fields.length;
     return true;
   }
-  const i1 = text.indexOf(delimiter, start);
-  if (i1 === -1 || i1 >= end) return false;
-  let i2 = text.indexOf(delimiter, i1 + 1);
-  if (i2 === -1 || i2 > end) i2 = end;
+  const i1 = indexWithin(text, delimiter, start, end);
+  if (i1 === -1) return false;
+  let i2 = indexWithin(text, delimiter, i1 + 1, end);
+  if (i2 === -1) i2 = end;
   const t = fieldNumber(text, start, i1, decimalComma);
   if (Number.isNaN(t)) return false;
   const v = fieldNumber(text, i1 + 1, i2, decimalComma);
@@ -163,8 +168,8 @@ function parseRow(
   let columns = 2;
   // Count further columns (a trailing delimiter leaves an empty one, which does not count).
   for (let i = i2; i < end; ) {
-    const next = text.indexOf(delimiter, i + 1);
-    const stop = next === -1 || next > end ? end : next;
+    const next = indexWithin(text, delimiter, i + 1, end);
+    const stop = next === -1 ? end : next;
     if (!isBlank(text, i + 1, stop)) columns++;
     if (columns > MAX_COLUMNS) break;
     i = stop;
@@ -524,12 +529,6 @@ function robustNoise(volts: Float64Array): number {
   const mid = medianInPlace(Float64Array.from(used));
   for (let i = 0; i < k; i++) used[i] = Math.abs(used[i]! - mid);
   return (1.4826 * medianInPlace(used)) / Math.SQRT2;
-}
-
-function medianSorted(sorted: Float64Array): number {
-  const n = sorted.length;
-  if (n === 0) return NaN;
-  return n % 2 ? sorted[(n - 1) / 2]! : (sorted[n / 2 - 1]! + sorted[n / 2]!) / 2;
 }
 
 function medianOf(values: Float64Array, start: number, end: number): number {
