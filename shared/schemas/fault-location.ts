@@ -5,12 +5,17 @@ import { z } from 'zod';
 
 const FAULT_LOCATION_METHODS = ['tdr', 'vf-calibration', 'loop-one-end', 'loop-both-ends', 'murray', 'capacitance', 'flex'] as const;
 
+// No cable, resistance, capacitance (nF) or delay (ns) in this trade comes near 10^9: bigger is a typo,
+// and would overflow the arithmetic to Infinity.
+const MAX_INPUT = 1e9;
+
 function positive(field: string, what: string) {
   return z
     .number({
       error: (issue) => (issue.input === undefined ? `${field} is required (${what})` : `${field} must be a number (${what})`),
     })
-    .positive({ error: `${field} must be greater than 0 (${what})` });
+    .positive({ error: `${field} must be greater than 0 (${what})` })
+    .max(MAX_INPUT, { error: `${field} is too large to be a real reading (${what})` });
 }
 
 function nonNegative(field: string, what: string) {
@@ -18,7 +23,8 @@ function nonNegative(field: string, what: string) {
     .number({
       error: (issue) => (issue.input === undefined ? `${field} is required (${what})` : `${field} must be a number (${what})`),
     })
-    .min(0, { error: `${field} cannot be negative (${what})` });
+    .min(0, { error: `${field} cannot be negative (${what})` })
+    .max(MAX_INPUT, { error: `${field} is too large to be a real reading (${what})` });
 }
 
 const velocityFactor = positive('velocityFactor', 'the cable’s velocity factor, e.g. 0.66').max(1, {

@@ -135,9 +135,9 @@ describe('POST /api/fault-location', () => {
     expectProblem(await locate({ method: 'vf-calibration', roundTripNs: 10, lengthM: 12 }), 'roundTripNs');
   });
 
-  test('when the numbers are so large that the distance overflows, then 422 rather than a null distance', async () => {
+  test('when a number is too large to be a real reading (it would overflow the distance), then 422 naming it', async () => {
     const res = await locate({ method: 'murray', lengthM: Number.MAX_VALUE, ratioP: 1, ratioQ: 1 });
-    expectProblem(res, '(body)');
+    expectProblem(res, 'lengthM');
     expect(res.body.detail).toMatch(/too large/);
   });
 

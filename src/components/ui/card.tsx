@@ -1,7 +1,9 @@
 import type { HTMLAttributes, ReactNode } from 'react';
 
 export function Card({ className = '', ...props }: HTMLAttributes<HTMLDivElement>) {
-  return <div className={`rounded-card border border-line bg-card p-5 shadow-sm ${className}`} {...props} />;
+  // A padding given by the caller replaces the default one (Tailwind classes do not override by order).
+  const padding = /(^|\s)p[xytrbl]?-/.test(className) ? '' : 'p-5';
+  return <div className={`rounded-card border border-line bg-card shadow-sm ${padding} ${className}`} {...props} />;
 }
 
 export function PageHeader({ title, subtitle, actions }: { title: string; subtitle?: ReactNode; actions?: ReactNode }) {
