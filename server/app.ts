@@ -14,6 +14,20 @@ import { authService } from './services/auth.service';
 import { authRoutes } from './routes/auth.routes';
 import { usersRoutes } from './routes/users.routes';
 import { venuesRoutes } from './routes/venues.routes';
+import { stripsRoutes } from './routes/strips.routes';
+import { readingsRoutes } from './routes/readings.routes';
+import { faultsRoutes } from './routes/faults.routes';
+import { boardRoutes } from './routes/board.routes';
+import { equipmentRoutes } from './routes/equipment.routes';
+import { planRoutes } from './routes/plan.routes';
+import { profilesRoutes } from './routes/profiles.routes';
+import { readingsTableRoutes } from './routes/readings-table.routes';
+import { auditRoutes } from './routes/audit.routes';
+import { attachmentsRoutes } from './routes/attachments.routes';
+import { equipmentImportRoutes } from './routes/equipment-import.routes';
+import { faultLocationRoutes } from './routes/fault-location.routes';
+import { signOffRoutes } from './routes/sign-off.routes';
+import { certificatesRoutes, wellKnownRoutes } from './routes/certificates.routes';
 
 const distDir = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 
@@ -67,10 +81,25 @@ export function createApp(deps: AppDeps) {
     authRoutes(deps, auth),
     usersRoutes(deps, auth),
     venuesRoutes(deps),
+    stripsRoutes(deps),
+    readingsRoutes(deps),
+    faultsRoutes(deps),
+    boardRoutes(deps),
+    equipmentRoutes(deps),
+    planRoutes(deps),
+    profilesRoutes(deps),
+    readingsTableRoutes(deps),
+    auditRoutes(deps),
+    attachmentsRoutes(deps),
+    equipmentImportRoutes(deps),
+    faultLocationRoutes(deps),
+    signOffRoutes(deps),
+    certificatesRoutes(deps),
   ];
 
   const api = express.Router();
-  api.use(express.json({ limit: '100kb' }));
+  // strict: false so a bare JSON value (5, "x") reaches the schema and gets its 422, not a parse error.
+  api.use(express.json({ limit: '100kb', strict: false }));
   api.use(cookieParser());
   api.use(csrfGuard(deps.env.APP_ORIGIN));
   api.use(authenticate(auth, cookie.name));
@@ -82,6 +111,8 @@ export function createApp(deps: AppDeps) {
   for (const r of routers) api.use(r.router);
   api.use(notFoundApi);
   app.use('/api', api);
+  // Public keys for outside verifiers of certificates, at the standard place (outside /api).
+  app.use(wellKnownRoutes(deps));
 
   if (existsSync(distDir)) {
     app.use(express.static(distDir, { index: false, maxAge: '1h' }));

@@ -4,24 +4,27 @@ import type { Role } from '@shared/schemas/common';
 import { Card } from '@/components/ui/card';
 import { paths } from '@/config/paths';
 import { VenueList } from '@/features/venue-status/components/venue-list';
+import { CertificatesLink } from '@/features/certificates/components/certificates-link';
+
+const ADMIN_CARDS = [
+  { title: 'People', text: 'Invite people, change roles, disable accounts, sign someone out everywhere.', to: paths.people, link: 'Open people' },
+  { title: 'Equipment register', text: 'Every cable, reel, piste and apparatus by asset tag, with its history; import from a spreadsheet.', to: paths.equipment, link: 'Open the register' },
+  { title: 'Limit profiles', text: 'The limits readings are checked against, with their sources. Edits make a new version.', to: paths.profiles, link: 'Open limit profiles' },
+  { title: 'Outbox', text: 'Messages the app has sent (kept locally when no SMTP server is configured).', to: paths.outbox, link: 'Open outbox' },
+];
 
 function AdminHome() {
   return (
     <div className="grid gap-4 sm:grid-cols-2">
-      <Card>
-        <h2 className="text-lg font-semibold">People</h2>
-        <p className="mt-1 text-sm text-ink-soft">Invite people, change roles, disable accounts.</p>
-        <Link className="mt-3 inline-flex min-h-touch items-center font-medium text-brand underline" to={paths.people}>
-          Open people
-        </Link>
-      </Card>
-      <Card>
-        <h2 className="text-lg font-semibold">Outbox</h2>
-        <p className="mt-1 text-sm text-ink-soft">Messages the app has sent (kept locally in demo and test set-ups).</p>
-        <Link className="mt-3 inline-flex min-h-touch items-center font-medium text-brand underline" to={paths.outbox}>
-          Open outbox
-        </Link>
-      </Card>
+      {ADMIN_CARDS.map((c) => (
+        <Card key={c.to}>
+          <h2 className="text-lg font-semibold">{c.title}</h2>
+          <p className="mt-1 text-sm text-ink-soft">{c.text}</p>
+          <Link className="mt-3 inline-flex min-h-touch items-center font-medium text-brand underline" to={c.to}>
+            {c.link}
+          </Link>
+        </Card>
+      ))}
     </div>
   );
 }
@@ -30,9 +33,30 @@ function VenuesHome() {
   return <VenueList />;
 }
 
+const buttonLink = 'inline-flex min-h-touch items-center rounded-lg border border-line px-4 font-medium';
+
+function DirectorHome() {
+  return (
+    <VenueList
+      actions={(v) => (
+        <>
+          <Link to={paths.venueSignOff(v.id)} className={buttonLink}>
+            {v.status === 'signed-off' ? 'Signed off' : 'Sign-off'}
+          </Link>
+          <CertificatesLink venueId={v.id} className="px-2" />
+        </>
+      )}
+    />
+  );
+}
+
+function OrganiserHome() {
+  return <VenueList actions={(v) => <CertificatesLink venueId={v.id} className="px-2" />} />;
+}
+
 export const homeSections: Record<Role, ComponentType> = {
   admin: AdminHome,
-  director: VenuesHome,
-  organiser: VenuesHome,
+  director: DirectorHome,
+  organiser: OrganiserHome,
   technician: VenuesHome,
 };

@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router';
 import { Card, Loading, Notice } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
@@ -6,7 +7,8 @@ import { useVenues } from '../api/get-venues';
 import { STRIP_STATUSES, stripStatusLook, VENUE_STATUS_LABELS } from '../utils/strip-status';
 
 /** The venues the signed-in person may see, with how far testing has got. */
-export function VenueList() {
+/** `actions` lets a page add links of other features (sign-off, certificates) to each card. */
+export function VenueList({ actions }: { actions?: (venue: { id: string; status: string }) => ReactNode } = {}) {
   const venues = useVenues();
   if (venues.isPending) return <Loading />;
   if (venues.isError) return <Notice tone="error">{venues.error.message}</Notice>;
@@ -50,6 +52,7 @@ export function VenueList() {
               <Link to={paths.venueBoard(v.id)} className="inline-flex min-h-touch items-center rounded-lg border border-line px-4 font-medium">
                 Status board
               </Link>
+              {actions?.(v)}
             </div>
           </Card>
         </li>
