@@ -11,6 +11,24 @@ const ResetPassword = lazy(() => import('./routes/auth/reset-password'));
 const Home = lazy(() => import('./routes/home/home'));
 const People = lazy(() => import('./routes/admin/people'));
 const Outbox = lazy(() => import('./routes/admin/outbox'));
+const Venue = lazy(() => import('./routes/venues/venue'));
+const VenueBoard = lazy(() => import('./routes/venues/board'));
+const StripTest = lazy(() => import('./routes/testing/strip-test'));
+const Fault = lazy(() => import('./routes/faults/fault'));
+const EquipmentRegister = lazy(() => import('./routes/equipment/register'));
+const EquipmentItem = lazy(() => import('./routes/equipment/item'));
+const EquipmentImport = lazy(() => import('./routes/equipment/import'));
+const Events = lazy(() => import('./routes/events/events'));
+const EventPage = lazy(() => import('./routes/events/event'));
+const VenuePlan = lazy(() => import('./routes/venues/plan'));
+const VenueReadings = lazy(() => import('./routes/venues/readings'));
+const VenueAudit = lazy(() => import('./routes/venues/audit'));
+const Profiles = lazy(() => import('./routes/profiles/profiles'));
+const Profile = lazy(() => import('./routes/profiles/profile'));
+const FaultLocator = lazy(() => import('./routes/tools/fault-locator'));
+const SignOff = lazy(() => import('./routes/venues/sign-off'));
+const Certificates = lazy(() => import('./routes/venues/certificates'));
+const Verify = lazy(() => import('./routes/verify/verify'));
 
 const page = (node: ReactNode) => <Suspense fallback={<Loading />}>{node}</Suspense>;
 
@@ -18,12 +36,38 @@ export const router = createBrowserRouter([
   { path: paths.signIn, element: page(<SignIn />), errorElement: <RouteErrorBoundary /> },
   { path: paths.setPassword(), element: page(<SetPassword />), errorElement: <RouteErrorBoundary /> },
   { path: paths.resetPassword, element: page(<ResetPassword />), errorElement: <RouteErrorBoundary /> },
+  // Public: anyone holding a certificate may check it, without signing in.
+  { path: paths.verifyLookup, element: page(<Verify />), errorElement: <RouteErrorBoundary /> },
+  { path: paths.verify(), element: page(<Verify />), errorElement: <RouteErrorBoundary /> },
   {
     element: <RequireAuth />,
     errorElement: <RouteErrorBoundary />,
     children: [
       { index: true, element: page(<Home />), errorElement: <RouteErrorBoundary /> },
       { path: paths.notAllowed, element: <NotAllowed /> },
+      { path: paths.venue(), element: page(<Venue />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venueBoard(), element: page(<VenueBoard />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.stripTest(), element: page(<StripTest />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.fault(), element: page(<Fault />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.equipment, element: page(<EquipmentRegister />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.equipmentItem(), element: page(<EquipmentItem />), errorElement: <RouteErrorBoundary /> },
+      {
+        element: <RequireRole roles={['admin', 'director']} />,
+        children: [{ path: paths.equipmentImport, element: page(<EquipmentImport />), errorElement: <RouteErrorBoundary /> }],
+      },
+      { path: paths.events, element: page(<Events />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.event(), element: page(<EventPage />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venuePlan(), element: page(<VenuePlan />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venueReadings(), element: page(<VenueReadings />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.profiles, element: page(<Profiles />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.profile(), element: page(<Profile />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.faultLocator, element: page(<FaultLocator />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venueSignOff(), element: page(<SignOff />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venueCertificates(), element: page(<Certificates />), errorElement: <RouteErrorBoundary /> },
+      {
+        element: <RequireRole roles={['admin', 'director', 'organiser']} />,
+        children: [{ path: paths.venueAudit(), element: page(<VenueAudit />), errorElement: <RouteErrorBoundary /> }],
+      },
       {
         element: <RequireRole roles={['admin']} />,
         children: [

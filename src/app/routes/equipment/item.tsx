@@ -13,6 +13,7 @@ import { dateTime, lengthText } from '@/features/equipment/components/labels';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
+import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 
 const VERDICT = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['triangle', 'near', 'Near limit'], fail: ['square', 'fail', 'Fail'] } as const;
 const REPAIR_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped for another item', retired: 'Retired' } as const;
@@ -88,6 +89,10 @@ export default function EquipmentItemPage() {
               <CalibrateForm defaultLengthM={item.lengthM} onCalibrate={(v) => calibrate.mutateAsync({ id: item.id, ...v })} />
             </Card>
           )}
+          <Card>
+            <h2 className="mb-3 text-lg font-semibold">Photos and files</h2>
+            <AttachmentsPanel ownerType="equipment" ownerId={item.id} canUpload={canManage} unitSystem={system} />
+          </Card>
         </div>
         <div className="flex flex-col gap-6">
           <Section title="Strips it sat on" count={placements.length}>

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { Link } from 'react-router';
 import { EQUIPMENT_KINDS } from '@shared/domain/limits';
 import { EQUIPMENT_KIND_LABELS, EQUIPMENT_STATUS_LABELS, EQUIPMENT_STATUSES } from '@shared/schemas/equipment';
 import { useMe } from '@/features/auth/api/get-me';
@@ -22,6 +23,18 @@ export default function EquipmentRegisterPage() {
       <PageHeader
         title="Equipment register"
         subtitle={canManage ? 'Every tagged item of the organisation, with its history across events.' : 'Every tagged item of the organisation (read only for your role).'}
+        actions={
+          <>
+            <a href={paths.equipmentCsv} download className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper">
+              Export CSV
+            </a>
+            {canManage && (
+              <Link to={paths.equipmentImport} className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white hover:bg-brand/90">
+                Import from a spreadsheet
+              </Link>
+            )}
+          </>
+        }
       />
       <div className={`grid gap-6 ${canManage ? 'lg:grid-cols-[2fr_1fr]' : ''}`}>
         <div className="flex flex-col gap-4">

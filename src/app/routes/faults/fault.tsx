@@ -4,7 +4,9 @@ import { formatLength, formatOhm } from '@shared/domain/units';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
 import { useMe } from '@/features/auth/api/get-me';
-import { useFault } from '@/features/faults/api/get-fault';
+import { faultQueryOptions, useFault } from '@/features/faults/api/get-fault';
+import { useQueryClient } from '@tanstack/react-query';
+import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 import { useUpdateFault } from '@/features/faults/api/update-fault';
 import { CableDrawing } from '@/features/faults/components/cable-drawing';
 import { LocateForm } from '@/features/faults/components/locate-form';
@@ -30,6 +32,7 @@ export default function FaultPage() {
   const fault = useFault(faultId);
   const me = useMe();
   const update = useUpdateFault(faultId);
+  const qc = useQueryClient();
   const [notes, setNotes] = useState<string | null>(null);
   if (fault.isPending) return <Loading />;
   if (fault.isError) return <Notice tone="error">{fault.error.message}</Notice>;
@@ -144,6 +147,19 @@ export default function FaultPage() {
           </Card>
         )}
       </div>
+
+      <Card className="mt-4">
+        <h2 className="mb-3 text-lg font-semibold">Photos, scope traces and files</h2>
+        <AttachmentsPanel
+          ownerType="fault"
+          ownerId={f.id}
+          canUpload={canWrite}
+          unitSystem={unit}
+          faultId={f.id}
+          canSaveEstimate={canWrite && active}
+          onEstimateSaved={() => void qc.invalidateQueries({ queryKey: faultQueryOptions(f.id).queryKey })}
+        />
+      </Card>
 
       {f.repairs.length > 0 && (
         <Card className="mt-4">

@@ -1,0 +1,105 @@
+// Register import from a spreadsheet: the fields a column can map to, the options sent beside the
+// file, and the answers (preview and report). Limits keep a hostile file from holding the server.
+import { z } from 'zod';
+
+export const IMPORT_LIMITS = {
+  maxBytes: 5 * 1024 * 1024,
+  maxRows: 10_000,
+  maxColumns: 64,
+} as const;
+
+export const IMPORT_FIELDS = [
+  'assetTag',
+  'kind',
+  'description',
+  'length',
+  'lengthUnit',
+  'conductorMm2',
+  'awg',
+  'cableType',
+  'velocityFactor',
+  'status',
+  'notes',
+] as const;
+export type ImportField = (typeof IMPORT_FIELDS)[number];
+
+export const IMPORT_FIELD_LABELS: Record<ImportField, string> = {
+  assetTag: 'Asset tag',
+  kind: 'Kind',
+  description: 'Description',
+  length: 'Length',
+  lengthUnit: 'Length unit (m / ft)',
+  conductorMm2: 'Conductor size (mm²)',
+  awg: 'Conductor size (AWG)',
+  cableType: 'Cable type',
+  velocityFactor: 'Velocity factor',
+  status: 'Status',
+  notes: 'Notes',
+};
+
+/** Field → column index (0-based) or null for "not imported". */
+export const importMappingSchema = z.partialRecord(
+  z.enum(IMPORT_FIELDS),
+  z.number().int().min(0).max(IMPORT_LIMITS.maxColumns - 1).nullable(),
+);
+export type ImportMapping = z.infer<typeof importMappingSchema>;
+
+export const IMPORT_MODES = ['create-only', 'create-and-update'] as const;
+export type ImportMode = (typeof IMPORT_MODES)[number];
+export const IMPORT_MODE_LABELS: Record<ImportMode, string> = {
+  'create-only': 'Add new items only',
+  'create-and-update': 'Add new items and update existing ones',
+};
+
+/** The text fields sent beside the file (multipart): the mapping as JSON, and the mode. */
+export const importOptionsSchema = z.object({
+  mapping: z
+    .string()
+    .max(4000)
+    .optional()
+    .transform((s, ctx) => {
+      if (s === undefined || s.trim() === '') return undefined;
+      try {
+        return JSON.parse(s) as unknown;
+      } catch {
+        ctx.addIssue({ code: 'custom', message: 'mapping must be JSON, e.g. {"assetTag":0,"kind":1}' });
+        return z.NEVER;
+      }
+    })
+    .pipe(importMappingSchema.optional()),
+  mode: z.enum(IMPORT_MODES, { error: `mode must be one of: ${IMPORT_MODES.join(', ')}` }).default('create-and-update'),
+});
+export type ImportOptions = z.output<typeof importOptionsSchema>;
+
+export type ImportAction = 'create' | 'update' | 'unchanged' | 'skip' | 'error';
+
+export interface ImportRowResult {
+  /** Line of the spreadsheet (1 = the header row's line when the header is on the first line). */
+  row: number;
+  assetTag: string | null;
+  action: ImportAction;
+  /** The cells as read with the mapping (normalised: upper-case tag, metres, a known kind). */
+  values: Record<string, string | number | null>;
+  changes?: Record<string, { from: unknown; to: unknown }>;
+  errors: { field: ImportField | 'row'; message: string }[];
+  message: string;
+}
+
+export interface ImportPreview {
+  fileName: string;
+  format: 'csv' | 'xlsx';
+  headerRow: number;
+  columns: { index: number; header: string; samples: string[] }[];
+  mapping: ImportMapping;
+  suggestedMapping: ImportMapping;
+  mode: ImportMode;
+  rows: ImportRowResult[];
+  summary: Record<ImportAction, number>;
+}
+
+export interface ImportReport {
+  mode: ImportMode;
+  created: { row: number; assetTag: string; id: string }[];
+  updated: { row: number; assetTag: string; id: string; changes: Record<string, { from: unknown; to: unknown }> }[];
+  skipped: { row: number; assetTag: string | null; reason: string }[];
+}
