@@ -6,9 +6,7 @@ import type { BenchResult } from './lib';
 
 const all: Record<string, () => Promise<{ run: () => Promise<BenchResult> }>> = {
   writes: () => import('./writes.bench'),
-  certificate: () => import('./certificate.bench'),
   waveform: () => import('./waveform.bench'),
-  'testing-screen': () => import('./testing-screen.bench'),
   verdicts: () => import('./verdicts.bench'),
 };
 

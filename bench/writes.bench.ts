@@ -1,0 +1,81 @@
+// Reading writes through the API (signed in once, 32 connections, a fixed count) against the raw
+// rate of durable single-row commits with better-sqlite3 on the same file system.
+import autocannon from 'autocannon';
+import Database from 'better-sqlite3';
+import { randomUUID } from 'node:crypto';
+import { join } from 'node:path';
+import { signInCookie, startServer, type BenchResult } from './lib';
+
+const PORT = 4301;
+const COUNT = 4000;
+
+function rawCommitsPerSecond(dir: string, n: number): number {
+  const db = new Database(join(dir, 'raw.db'));
+  db.pragma('journal_mode = WAL');
+  db.pragma('synchronous = FULL');
+  db.exec('create table r (id text primary key, step_id text not null, value text not null, taken_at text not null)');
+  const insert = db.prepare('insert into r values (?, ?, ?, ?)');
+  const t0 = performance.now();
+  for (let i = 0; i < n; i++) insert.run(randomUUID(), 'step', '0.45', new Date().toISOString());
+  const ms = performance.now() - t0;
+  db.close();
+  return n / (ms / 1000);
+}
+
+export async function run(): Promise<BenchResult> {
+  const server = await startServer(PORT);
+  try {
+    const cookie = await signInCookie(server.base, 'sam@lakeshore.example');
+    const headers = { Cookie: cookie, Origin: server.base, 'Content-Type': 'application/json' };
+    const venues = (await (await fetch(`${server.base}/api/venues`, { headers })).json()) as { id: string }[];
+    const strips = (await (await fetch(`${server.base}/api/venues/${venues[0].id}/strips`, { headers })).json()) as { id: string }[];
+    const steps: { id: string; value: string }[] = [];
+    for (const s of strips) {
+      const strip = (await (await fetch(`${server.base}/api/strips/${s.id}`, { headers })).json()) as {
+        positions: { steps: { id: string; testKind: string }[] }[];
+      };
+      for (const p of strip.positions)
+        for (const st of p.steps) steps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
+    }
+    let i = 0;
+    const api = await autocannon({
+      url: server.base,
+      connections: 32,
+      amount: COUNT,
+      requests: [
+        {
+          method: 'POST',
+          path: '/api/readings',
+          headers,
+          setupRequest: (req) => {
+            const step = steps[i++ % steps.length];
+            return { ...req, body: JSON.stringify({ id: randomUUID(), stepId: step.id, value: step.value }) };
+          },
+        },
+      ],
+    });
+    const raw = rawCommitsPerSecond(server.dir, 2000);
+    const writesPerSecond = api.requests.average;
+    const ratio = writesPerSecond / raw;
+    const p99 = api.latency.p99;
+    return {
+      name: 'Reading writes through the API',
+      ratio,
+      ratioMeaning: 'API writes/s ÷ raw durable single-row commits/s (better-sqlite3, WAL, synchronous=FULL)',
+      target: '≥ 0.5, p99 < 50 ms',
+      pass: ratio >= 0.5 && p99 < 50 && api.non2xx === 0 && api.errors === 0,
+      figures: {
+        requests: api.requests.total,
+        non2xx: api.non2xx,
+        errors: api.errors,
+        writesPerSecond: Math.round(writesPerSecond),
+        rawCommitsPerSecond: Math.round(raw),
+        p50Ms: api.latency.p50,
+        p99Ms: p99,
+        stepsCycled: steps.length,
+      },
+    };
+  } finally {
+    await server.stop();
+  }
+}
