@@ -112,7 +112,8 @@ export function createApp(deps: AppDeps) {
   api.use(notFoundApi);
   app.use('/api', api);
   // Public keys for outside verifiers of certificates, at the standard place (outside /api).
-  app.use(wellKnownRoutes(deps));
+  const wellKnown = wellKnownRoutes(deps);
+  app.use(wellKnown.router);
 
   if (existsSync(distDir)) {
     app.use(express.static(distDir, { index: false, maxAge: '1h' }));
@@ -121,7 +122,10 @@ export function createApp(deps: AppDeps) {
   }
   app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
 
-  const routes: RouteSpec[] = routers.flatMap((r) => r.routes.map((s) => ({ ...s, path: `/api${s.path}` })));
+  const routes: RouteSpec[] = [
+    ...routers.flatMap((r) => r.routes.map((s) => ({ ...s, path: `/api${s.path}` }))),
+    ...wellKnown.routes,
+  ];
   return Object.assign(app, { routes });
 }
 export type App = ReturnType<typeof createApp>;

@@ -1,4 +1,3 @@
-import express from 'express';
 import multer from 'multer';
 import { ZipArchive } from 'archiver';
 import type { AppDeps } from '../deps';
@@ -66,11 +65,11 @@ export function certificatesRoutes(deps: AppDeps) {
 
 /** /.well-known/jwks.json: the public keys that sign certificates (RFC 7517), for outside verifiers. */
 export function wellKnownRoutes(deps: AppDeps) {
-  const router = express.Router();
+  const api = new ApiRouter();
   const certificates = certificatesService(deps);
-  router.get('/.well-known/jwks.json', async (_req, res) => {
+  api.get('/.well-known/jwks.json', 'public', async (_req, res) => {
     res.set({ 'Cache-Control': 'public, max-age=300', 'Access-Control-Allow-Origin': '*' });
     res.type('application/jwk-set+json').send(JSON.stringify(await certificates.jwks()));
   });
-  return router;
+  return api;
 }
