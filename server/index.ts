@@ -2,6 +2,7 @@ import { loadEnv } from './config/env';
 import { buildDeps, consoleLogger } from './bootstrap';
 import { createApp } from './app';
 import { seedDemo } from './db/seed-demo';
+import { currentSigningKey } from './signing/signing-keys';
 
 // listen + graceful shutdown only; everything else is in createApp().
 let env;
@@ -17,6 +18,8 @@ if (env.SEED_DEMO === 'auto') {
   const seeded = await seedDemo(deps.db, deps.scrypt);
   if (seeded) consoleLogger.info('Empty database: the demo scenario was created.');
 }
+// The certificate signing key exists from the first start (generated into DATA_DIR if not configured).
+await currentSigningKey(deps.db, env);
 const app = createApp(deps);
 const server = app.listen(env.PORT, env.HOST, () => {
   const url = env.APP_ORIGIN;
