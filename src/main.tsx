@@ -4,6 +4,9 @@ import { RouterProvider } from 'react-router';
 import { AppProvider } from './app/provider';
 import { router } from './app/router';
 import './index.css';
+import { registerServiceWorker } from './lib/register-sw';
+
+registerServiceWorker();
 
 createRoot(document.getElementById('root')!).render(
   <StrictMode>

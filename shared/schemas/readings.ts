@@ -66,4 +66,6 @@ export interface ReadingDto {
   takenBy: string;
   takenByName: string | null;
   faultId?: string | null;
+  /** Only in the answer to POST /api/readings: this reading re-opened a signed-off venue. */
+  venueReopened?: boolean;
 }

@@ -14,6 +14,7 @@ const Outbox = lazy(() => import('./routes/admin/outbox'));
 const Venue = lazy(() => import('./routes/venues/venue'));
 const VenueBoard = lazy(() => import('./routes/venues/board'));
 const StripTest = lazy(() => import('./routes/testing/strip-test'));
+const OnThisTablet = lazy(() => import('./routes/testing/on-this-tablet'));
 const Fault = lazy(() => import('./routes/faults/fault'));
 const EquipmentRegister = lazy(() => import('./routes/equipment/register'));
 const EquipmentItem = lazy(() => import('./routes/equipment/item'));
@@ -48,6 +49,7 @@ export const router = createBrowserRouter([
       { path: paths.venue(), element: page(<Venue />), errorElement: <RouteErrorBoundary /> },
       { path: paths.venueBoard(), element: page(<VenueBoard />), errorElement: <RouteErrorBoundary /> },
       { path: paths.stripTest(), element: page(<StripTest />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.onThisTablet, element: page(<OnThisTablet />), errorElement: <RouteErrorBoundary /> },
       { path: paths.fault(), element: page(<Fault />), errorElement: <RouteErrorBoundary /> },
       { path: paths.equipment, element: page(<EquipmentRegister />), errorElement: <RouteErrorBoundary /> },
       { path: paths.equipmentItem(), element: page(<EquipmentItem />), errorElement: <RouteErrorBoundary /> },

@@ -15,6 +15,8 @@ export const paths = {
   venue: (venueId = ':venueId') => `/venues/${venueId}`,
   venueBoard: (venueId = ':venueId') => `/venues/${venueId}/board`,
   stripTest: (stripId = ':stripId') => `/strips/${stripId}/test`,
+  /** Readings on this tablet: waiting to send, or needing the technician. */
+  onThisTablet: '/on-this-tablet',
   fault: (faultId = ':faultId') => `/faults/${faultId}`,
   equipment: '/equipment',
   equipmentItem: (equipmentId = ':equipmentId') => `/equipment/${equipmentId}`,

@@ -252,6 +252,11 @@ describe('POST /api/readings — on a signed-off venue', () => {
     const strip = await stripByLabel(t, annex, 'Annex 2');
     const res = await lee.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'A').step.id, '1.3'));
     expect(res.status).toBe(201);
+    expect(res.body.venueReopened).toBe(true);
+    // The venue is testing again: the next reading re-opens nothing.
+    const next = await lee.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'B').step.id, '1.3'));
+    expect(next.status).toBe(201);
+    expect(next.body).not.toHaveProperty('venueReopened');
     expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('testing');
     expect(t.db.select().from(signOffs).where(eq(signOffs.id, signOffId)).get()!.status).toBe('superseded');
     expect(t.db.select().from(certificates).where(eq(certificates.venueId, annex)).all().map((c) => c.status)).toEqual(['superseded']);

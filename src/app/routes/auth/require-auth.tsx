@@ -1,3 +1,4 @@
+import { useEffect } from 'react';
 import { Navigate, Outlet, useLocation } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
@@ -7,16 +8,37 @@ import { ErrorView } from '@/components/errors/error-view';
 import { navItems } from '@/config/nav';
 import type { Role } from '@shared/schemas/common';
 import { UnitToggle } from '@/features/auth/components/unit-toggle';
+import { SyncIndicator } from '@/features/offline/components/sync-indicator';
+import { setOutboxUser } from '@/features/offline/stores/outbox';
 
 /** Signed-in area: anyone without a session goes to sign-in and comes back afterwards. */
 export function RequireAuth() {
   const me = useMe();
   const location = useLocation();
   const signOut = useSignOut();
+  const userId = me.data?.id ?? null;
+  // The tablet's outbox sends the signed-in person's own readings only.
+  useEffect(() => setOutboxUser(userId), [userId]);
+  if (me.isPending && me.fetchStatus === 'paused') {
+    return <ErrorView title="No network" message="This tablet is offline and nobody has signed in on it yet. Sign in once with a network; after that testing works offline." />;
+  }
   if (me.isPending) return <Loading />;
-  if (me.isError) return <ErrorView title="Cannot reach Stripwarden" message={me.error.message} />;
+  // No answer from the server is not a sign-out: the user kept on the tablet stays signed in.
+  if (me.isError && !me.data) return <ErrorView title="Cannot reach Stripwarden" message={me.error.message} />;
   if (!me.data) return <Navigate to={`/sign-in?next=${encodeURIComponent(location.pathname + location.search)}`} replace />;
-  return <AppShell user={me.data} nav={navItems} onSignOut={() => signOut.mutateAsync()} extra={<UnitToggle />} />;
+  return (
+    <AppShell
+      user={me.data}
+      nav={navItems}
+      onSignOut={() => signOut.mutateAsync()}
+      extra={
+        <>
+          <SyncIndicator />
+          <UnitToggle />
+        </>
+      }
+    />
+  );
 }
 
 export function NotAllowed() {

@@ -5,14 +5,18 @@ import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
 import { STRIP_STATUS_LABELS } from '@shared/domain/progress';
 import { useMe } from '@/features/auth/api/get-me';
 import { useStrip } from '@/features/testing/api/get-strip';
-import { useCreateReading } from '@/features/testing/api/create-reading';
-import { StepRow } from '@/features/testing/components/step-row';
+import { StepRow, stepTitle, type QueuedView } from '@/features/testing/components/step-row';
+import { useOutbox } from '@/features/offline/hooks/use-outbox';
+import { enqueueReading } from '@/features/offline/stores/outbox';
+import { newReadingId } from '@/features/offline/utils/reading-id';
+import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
 import { readLeadOffset, safetyAcknowledged, saveLeadOffset } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
+import { ApiError } from '@/lib/api-client';
 
 const statusTone = { 'not-started': 'idle', 'in-progress': 'brand', clear: 'pass', 'fault-open': 'fail', withdrawn: 'idle' } as const;
 const statusShape = { 'not-started': 'ring', 'in-progress': 'half', clear: 'circle', 'fault-open': 'triangle', withdrawn: 'dash' } as const;
@@ -24,7 +28,7 @@ export default function StripTestPage() {
   const retestPosition = search.get('position');
   const strip = useStrip(stripId);
   const me = useMe();
-  const create = useCreateReading(stripId);
+  const outbox = useOutbox();
   const [lead, setLead] = useState<number | null>(() => readLeadOffset());
   const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
   const nextStripLink = useRef<HTMLAnchorElement>(null);
@@ -34,6 +38,21 @@ export default function StripTestPage() {
   const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
   const data = strip.data;
   const flat = useMemo(() => (data ? data.positions.flatMap((p) => p.steps.map((s) => ({ step: s, position: p }))) : []), [data]);
+  // Readings of this strip typed on this tablet and not on the server yet: the newest per step.
+  const queued = useMemo(() => {
+    const byStep = new Map<string, QueuedView>();
+    for (const i of outbox.items) {
+      if (i.stripId !== stripId || i.status === 'set-aside' || i.userId !== me.data?.id) continue;
+      byStep.set(i.body.stepId, {
+        status: i.status === 'waiting' ? (outbox.syncing ? 'sending' : 'waiting') : i.status,
+        display: i.preview?.display ?? i.body.value,
+        verdict: i.preview?.verdict ?? null,
+        title: i.problem ? PROBLEM_HELP[i.problem.kind].title : undefined,
+      });
+    }
+    return byStep;
+  }, [outbox.items, outbox.syncing, stripId, me.data?.id]);
+  const waitingHere = [...queued.values()].filter((q) => q.status === 'waiting' || q.status === 'sending').length;
 
   const focusStep = useCallback((stepId: string | undefined) => {
     if (!stepId) return nextStripLink.current?.focus();
@@ -48,14 +67,23 @@ export default function StripTestPage() {
     focusedFor.current = data.id + (retestPosition ?? '');
     const target = retestPosition
       ? flat.find((f) => f.position.id === retestPosition)
-      : (flat.find((f) => !f.step.latest) ?? flat[0]);
+      : (flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0]);
     // Wait a frame so the inputs are mounted.
     requestAnimationFrame(() => focusStep(target?.step.id));
-  }, [data, ready, canWrite, retestPosition, flat, focusStep]);
+  }, [data, ready, canWrite, retestPosition, flat, focusStep, queued]);
 
+  if ((strip.isPending && strip.fetchStatus === 'paused') || (strip.isError && !strip.data && !(strip.error instanceof ApiError))) {
+    return (
+      <Notice tone="caution">
+        This strip is not on this tablet yet, and there is no network. Strips are kept on the tablet once their venue is opened online; go back to a strip that was, or wait for the network.
+      </Notice>
+    );
+  }
   if (strip.isPending) return <Loading />;
-  if (strip.isError) return <Notice tone="error">{strip.error.message}</Notice>;
+  if (strip.isError && !strip.data) return <Notice tone="error">{strip.error.message}</Notice>;
   if (!data) return null;
+  // No answer from the server: keep working on the copy kept on this tablet.
+  const stale = strip.isError || (!outbox.online && strip.isStale);
   if (!data.profile) return <Notice tone="error">This venue has no limit profile yet; the technical director must choose one before testing.</Notice>;
   const profile = { name: data.profile.name, version: data.profile.version, rules: data.profile.rules, loopRequired: data.profile.loopRequired };
   const unit = me.data?.unitSystem ?? 'metric';
@@ -112,6 +140,21 @@ export default function StripTestPage() {
         )}
       </Card>
 
+      {stale && (
+        <div className="mb-4">
+          <Notice tone="caution">
+            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of {new Date(strip.dataUpdatedAt).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}. Keep testing; readings are kept and sent later.
+          </Notice>
+        </div>
+      )}
+      {waitingHere > 0 && (
+        <div className="mb-4">
+          <Notice tone="info">
+            {waitingHere} reading{waitingHere === 1 ? '' : 's'} of this strip {waitingHere === 1 ? 'is' : 'are'} kept on this tablet, waiting to send
+            {outbox.online ? '' : ' (offline: they go when the network is back)'}. Their verdicts come from this tablet until the server confirms them.
+          </Notice>
+        </div>
+      )}
       {data.withdrawnReason && <Notice tone="caution">This strip is withdrawn: {data.withdrawnReason}</Notice>}
       {retestPosition && (
         <div className="mb-4">
@@ -168,11 +211,22 @@ export default function StripTestPage() {
                       canWrite={canWrite}
                       faultId={fault?.id ?? null}
                       highlight={retestPosition === position.id}
+                      queued={queued.get(step.id) ?? null}
                       inputRef={(el) => {
                         if (el) inputs.current.set(step.id, el);
                         else inputs.current.delete(step.id);
                       }}
-                      submit={(body) => create.mutateAsync(body)}
+                      submit={async (input, preview) => {
+                        if (!me.data) throw new Error('not signed in');
+                        await enqueueReading({
+                          body: { id: newReadingId(), ...input },
+                          userId: me.data.id,
+                          venueId: data.venueId,
+                          stripId: data.id,
+                          where: `${data.label} · ${position.name} · ${stepTitle(step)}`,
+                          preview,
+                        });
+                      }}
                       onRecorded={() => focusStep(flat[at + 1]?.step.id)}
                     />
                   );

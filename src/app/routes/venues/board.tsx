@@ -15,7 +15,7 @@ export default function BoardPage() {
   const board = useBoard(venueId);
   const filters = useStripFilters(board.data?.strips ?? []);
   if (board.isPending) return <Loading />;
-  if (board.isError) return <Notice tone="error">{board.error.message}</Notice>;
+  if (board.isError && !board.data) return <Notice tone="error">{board.error.message}</Notice>;
   const { venue, counts, progress, openFaults, generatedAt } = board.data;
   const canTest = me.data?.role === 'technician' || me.data?.role === 'director';
 

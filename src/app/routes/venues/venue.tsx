@@ -1,6 +1,7 @@
 import { Link, useNavigate, useParams } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
 import { useBoard } from '@/features/venue-status/api/get-board';
+import { usePrefetchStrips } from '@/features/testing/api/get-strip';
 import { StripFilters, StripGrid, useStripFilters } from '@/features/venue-status/components/strip-grid';
 import { StripPicker } from '@/features/venue-status/components/strip-picker';
 import { OpenFaultsList } from '@/features/venue-status/components/open-faults';
@@ -18,8 +19,11 @@ export default function VenuePage() {
   const me = useMe();
   const board = useBoard(venueId);
   const filters = useStripFilters(board.data?.strips ?? []);
+  // Those who test get every strip of the venue onto the tablet while the network is there.
+  const tests = me.data?.role === 'technician' || me.data?.role === 'director';
+  usePrefetchStrips(board.data?.strips.map((s) => s.id) ?? [], tests);
   if (board.isPending) return <Loading />;
-  if (board.isError) return <Notice tone="error">{board.error.message}</Notice>;
+  if (board.isError && !board.data) return <Notice tone="error">{board.error.message}</Notice>;
   const { venue, counts, progress, openFaults } = board.data;
   const role = me.data?.role;
 

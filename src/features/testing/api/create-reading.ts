@@ -1,26 +1,22 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { CreateReadingInput, ReadingDto } from '@shared/schemas/readings';
+import type { QueryClient } from '@tanstack/react-query';
+import type { ReadingDto } from '@shared/schemas/readings';
 import { stripQueryOptions, type StripDetail } from './get-strip';
 
-export const createReading = (body: CreateReadingInput) => api.post<ReadingDto>('/readings', body as unknown as Record<string, unknown>);
+// POST /api/readings itself is sent by the tablet's outbox (features/offline), which keeps the
+// reading on disk until the server has it. These put the server's answer where the screen shows it.
 
-/** Records a reading; the stored verdict replaces the browser's preview at once, then the strip reloads. */
-export const useCreateReading = (stripId: string) => {
-  const qc = useQueryClient();
-  const key = stripQueryOptions(stripId).queryKey;
-  return useMutation({
-    mutationFn: createReading,
-    onSuccess: (reading) => {
-      qc.setQueryData<StripDetail>(key, (old) =>
-        old && {
-          ...old,
-          positions: old.positions.map((p) => ({ ...p, steps: p.steps.map((s) => (s.id === reading.stepId ? { ...s, latest: reading } : s)) })),
-        },
-      );
-      void qc.invalidateQueries({ queryKey: key });
-      // Lists and boards elsewhere show progress from the same readings.
-      void qc.invalidateQueries({ queryKey: ['venues'] });
+/** The stored verdict replaces the browser's preview at once. */
+export function showRecordedReading(qc: QueryClient, stripId: string, reading: ReadingDto) {
+  qc.setQueryData<StripDetail>(stripQueryOptions(stripId).queryKey, (old) =>
+    old && {
+      ...old,
+      positions: old.positions.map((p) => ({ ...p, steps: p.steps.map((s) => (s.id === reading.stepId ? { ...s, latest: reading } : s)) })),
     },
-  });
-};
+  );
+}
+
+/** After a batch: the strips reload (status, faults opened), and lists and boards elsewhere too. */
+export function readingsRecorded(qc: QueryClient, stripIds: string[]) {
+  for (const id of stripIds) void qc.invalidateQueries({ queryKey: stripQueryOptions(id).queryKey });
+  void qc.invalidateQueries({ queryKey: ['venues'] });
+}

@@ -2,7 +2,6 @@ import { useRef, useState, type Ref } from 'react';
 import { Link } from 'react-router';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import type { ReadingDto } from '@shared/schemas/readings';
-import { ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
@@ -10,34 +9,42 @@ import type { StripStep } from '../api/get-strip';
 import { limitText, previewReading, type StepContext } from '../utils/preview';
 import { verdictLook } from '../utils/verdict-look';
 
-type Submit = (body: { id: string; stepId: string; value: string; leadOffsetOhm?: number | null; supersedesId?: string; correctionReason?: string }) => Promise<ReadingDto>;
+export interface ReadingInput {
+  stepId: string;
+  value: string;
+  leadOffsetOhm?: number | null;
+  supersedesId?: string;
+  correctionReason?: string;
+}
+export interface JudgedPreview {
+  verdict: ReadingDto['verdict'];
+  display: string;
+  explanation: string;
+}
+/** Keeps the reading on the tablet (the page makes its id, once) and sends it when it can. */
+type Submit = (input: ReadingInput, preview: JudgedPreview) => Promise<void>;
 
-function conductorsLabel(step: StripStep) {
+/** A reading of this step typed on this tablet that the server does not have yet (or that needs the technician). */
+export interface QueuedView {
+  status: 'waiting' | 'sending' | 'problem' | 'notice';
+  display: string;
+  verdict: ReadingDto['verdict'] | null;
+  title?: string;
+}
+
+function conductorsLabel(step: Pick<StripStep, 'testKind' | 'conductors'>) {
   if (step.testKind === 'continuity') return `Line ${step.conductors}`;
   if (step.testKind === 'insulation' || step.testKind === 'loop') return `Lines ${step.conductors.replace('-', '–')}`;
   return '';
 }
 
-function time(iso: string) {
-  return new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
+/** "Continuity · Line A", as the row's label says it. */
+export function stepTitle(step: Pick<StripStep, 'testKind' | 'conductors'>) {
+  return [TEST_KIND_LABELS[step.testKind], conductorsLabel(step)].filter(Boolean).join(' · ');
 }
 
-/** A retry of the same value after a network failure keeps its id, so the server sees a replay. */
-function useReadingId() {
-  const last = useRef<{ value: string; id: string; retryable: boolean } | null>(null);
-  return {
-    idFor(value: string) {
-      if (last.current && last.current.value === value && last.current.retryable) return last.current.id;
-      last.current = { value, id: crypto.randomUUID(), retryable: false };
-      return last.current.id;
-    },
-    failed(err: unknown) {
-      if (last.current) last.current.retryable = !(err instanceof ApiError) || err.status >= 500;
-    },
-    done() {
-      last.current = null;
-    },
-  };
+function time(iso: string) {
+  return new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
 }
 
 export function StepRow({
@@ -48,6 +55,7 @@ export function StepRow({
   canWrite,
   faultId,
   highlight,
+  queued,
   inputRef,
   submit,
   onRecorded,
@@ -59,24 +67,23 @@ export function StepRow({
   canWrite: boolean;
   faultId: string | null;
   highlight: boolean;
+  queued: QueuedView | null;
   inputRef: Ref<HTMLInputElement>;
   submit: Submit;
-  onRecorded: (reading: ReadingDto) => void;
+  onRecorded: () => void;
 }) {
   const [value, setValue] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
   const [correcting, setCorrecting] = useState(false);
   const [correction, setCorrection] = useState({ value: '', reason: '' });
-  const [openedFault, setOpenedFault] = useState<string | null>(null);
-  const ids = useReadingId();
   const own = useRef<HTMLInputElement | null>(null);
 
   const preview = previewReading(value, ctx, leadOffsetOhm);
   const limit = limitText(ctx);
   const latest = step.latest;
   const fieldId = `reading-${step.id}`;
-  const title = [TEST_KIND_LABELS[step.testKind], conductorsLabel(step)].filter(Boolean).join(' · ');
+  const title = stepTitle(step);
 
   async function record(extra: { supersedesId?: string; correctionReason?: string } = {}, typed = value) {
     if (busy) return;
@@ -86,16 +93,14 @@ export function StepRow({
     setBusy(true);
     setError(null);
     try {
-      const reading = await submit({ id: ids.idFor(typed), stepId: step.id, value: typed, leadOffsetOhm, ...extra });
-      ids.done();
+      await submit({ stepId: step.id, value: typed, leadOffsetOhm, ...extra }, { verdict: p.verdict.verdict, display: p.display, explanation: p.verdict.explanation });
       setValue('');
       setCorrecting(false);
       setCorrection({ value: '', reason: '' });
-      setOpenedFault(reading.faultId ?? null);
-      onRecorded(reading);
+      onRecorded();
     } catch (err) {
-      ids.failed(err);
-      setError(err instanceof ApiError ? err.message : 'Could not reach the server; press Enter again to retry (it will not be recorded twice).');
+      // Only the tablet's own storage can fail here: the network is the outbox's business.
+      setError(`Could not keep the reading on this tablet: ${err instanceof Error ? err.message : String(err)}. Write it down and try again.`);
     } finally {
       setBusy(false);
     }
@@ -105,7 +110,7 @@ export function StepRow({
     setValue((v) => (v.replace(/\s*[kKmM]$/, '') + suffix).trimStart());
     own.current?.focus();
   };
-  const showFault = openedFault ?? faultId;
+  const showFault = latest?.faultId ?? faultId;
 
   return (
     <li
@@ -136,6 +141,7 @@ export function StepRow({
             <strong>Note:</strong> this checks the piste’s link to the apparatus earth only. The hall’s own earthing and mains installation are the business of a licensed electrician under local codes.
           </p>
         )}
+        {queued && <QueuedLine queued={queued} />}
         {latest && (
           <div className="mt-2 flex flex-wrap items-center gap-2 text-sm" data-testid="latest">
             <span className="text-ink-soft">Latest:</span>
@@ -193,7 +199,7 @@ export function StepRow({
               M
             </button>
             <Button type="submit" disabled={busy}>
-              {busy ? 'Saving…' : latest ? 'Record again' : 'Record'}
+              {busy ? 'Keeping…' : latest || queued ? 'Record again' : 'Record'}
             </Button>
           </form>
         ) : (
@@ -256,5 +262,31 @@ export function StepRow({
         )}
       </div>
     </li>
+  );
+}
+
+function QueuedLine({ queued }: { queued: QueuedView }) {
+  if (queued.status === 'problem' || queued.status === 'notice') {
+    const notice = queued.status === 'notice';
+    return (
+      <div data-testid="queued" data-status={queued.status} className={`mt-2 flex flex-wrap items-center gap-2 rounded-md border-2 px-2 py-1 text-sm ${notice ? 'border-brass bg-brass-soft' : 'border-fail/50 bg-fail-soft'}`}>
+        <StatusMark shape="triangle" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
+        <strong className="tabular-nums">{queued.display}</strong>
+        <span>{queued.title}</span>
+        <Link to={paths.onThisTablet} className="inline-flex min-h-touch items-center font-medium text-brand underline">
+          See what to do
+        </Link>
+      </div>
+    );
+  }
+  return (
+    <div data-testid="queued" data-status={queued.status} className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-soft/50 bg-paper px-2 py-1 text-sm">
+      <StatusMark shape={queued.status === 'sending' ? 'half' : 'ring'} tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
+      <strong className="tabular-nums">{queued.display}</strong>
+      {queued.verdict && <StatusMark {...verdictLook[queued.verdict]} size="sm" />}
+      <span className="text-xs text-ink-soft">
+        verdict from this tablet; kept here until the server has it{queued.verdict === 'fail' ? ' (a fault is opened when it arrives)' : ''}
+      </span>
+    </div>
   );
 }

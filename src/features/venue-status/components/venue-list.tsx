@@ -11,7 +11,7 @@ import { STRIP_STATUSES, stripStatusLook, VENUE_STATUS_LABELS } from '../utils/s
 export function VenueList({ actions }: { actions?: (venue: { id: string; status: string }) => ReactNode } = {}) {
   const venues = useVenues();
   if (venues.isPending) return <Loading />;
-  if (venues.isError) return <Notice tone="error">{venues.error.message}</Notice>;
+  if (venues.isError && !venues.data) return <Notice tone="error">{venues.error.message}</Notice>;
   if (venues.data.length === 0) {
     return (
       <Card>

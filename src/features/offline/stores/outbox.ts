@@ -1,0 +1,286 @@
+// The tablet's outbox: readings typed on the testing screen, kept in IndexedDB until the server
+// has them. Written to disk before the screen moves on, so a reload, a crash or a closed browser
+// loses nothing; replayed in typing order when the network is there (at start, on the browser's
+// online event, and on a backoff timer). Replays are safe: the server knows a reading by its id.
+import { createStore, del, entries, set } from 'idb-keyval';
+import { sendReading, type SentReading } from '../api/send-reading';
+import {
+  addToQueue,
+  applyOutcome,
+  byTypingOrder,
+  classifyAnswer,
+  makeSeq,
+  nextDueAt,
+  planSend,
+  type QueuedReading,
+  type ReadingBody,
+} from '../utils/queue';
+import { newReadingId } from '../utils/reading-id';
+
+export interface OutboxState {
+  loaded: boolean;
+  items: QueuedReading[];
+  /** A pass is sending right now. */
+  syncing: boolean;
+  online: boolean;
+  userId: string | null;
+  /** Why the last pass stopped early, for the list page ("the server did not answer"). */
+  lastStop: 'network' | 'server' | 'busy' | 'signed-out' | null;
+}
+
+export interface OutboxHandlers {
+  /** The server has the reading: put its stored verdict where the preview was. */
+  onRecorded?: (reading: SentReading, item: QueuedReading) => void;
+  /** A pass recorded readings on these strips and venues: refresh what shows progress. */
+  onPassDone?: (touched: { stripIds: string[]; venueIds: string[] }) => void;
+}
+
+const db = typeof indexedDB === 'undefined' ? undefined : createStore('stripwarden-outbox', 'readings');
+const LOCK = 'stripwarden-outbox';
+const PERIODIC_MS = 30_000;
+
+let state: OutboxState = {
+  loaded: false,
+  items: [],
+  syncing: false,
+  online: typeof navigator === 'undefined' ? true : navigator.onLine,
+  userId: null,
+  lastStop: null,
+};
+const listeners = new Set<() => void>();
+let handlers: OutboxHandlers = {};
+let lastSeq = 0;
+let running: Promise<void> | null = null;
+let again = false;
+let timer: ReturnType<typeof setTimeout> | undefined;
+let channel: BroadcastChannel | null = null;
+let started = false;
+
+function setState(patch: Partial<OutboxState>) {
+  state = { ...state, ...patch };
+  for (const l of listeners) l();
+}
+
+export const outboxStore = {
+  subscribe(l: () => void) {
+    listeners.add(l);
+    return () => listeners.delete(l);
+  },
+  getSnapshot: () => state,
+};
+
+export function setOutboxHandlers(h: OutboxHandlers) {
+  handlers = h;
+}
+
+async function load() {
+  if (!db) return setState({ loaded: true });
+  const all = await entries<string, QueuedReading>(db);
+  const items = all.map(([, v]) => v).sort(byTypingOrder);
+  lastSeq = Math.max(lastSeq, ...items.map((i) => i.seq), 0);
+  setState({ items, loaded: true });
+}
+
+function changed() {
+  channel?.postMessage('changed');
+}
+
+async function put(item: QueuedReading) {
+  if (db) await set(item.id, item, db);
+  setState({ items: [...state.items.filter((i) => i.id !== item.id), item].sort(byTypingOrder) });
+  changed();
+}
+
+async function remove(id: string) {
+  if (db) await del(id, db);
+  setState({ items: state.items.filter((i) => i.id !== id) });
+  changed();
+}
+
+/** Asks the browser not to clear our storage under pressure (readings live there until sent). */
+function askForPersistentStorage() {
+  void navigator.storage?.persist?.().catch(() => undefined);
+}
+
+export interface NewQueuedReading {
+  body: ReadingBody;
+  userId: string;
+  venueId: string;
+  stripId: string;
+  where: string;
+  preview: QueuedReading['preview'];
+}
+
+/** Keeps a typed reading on the tablet (on disk before it resolves), then tries to send it. */
+export async function enqueueReading(r: NewQueuedReading): Promise<QueuedReading> {
+  const existing = state.items.find((i) => i.id === r.body.id);
+  if (existing) return existing;
+  const now = Date.now();
+  lastSeq = makeSeq(now, lastSeq);
+  const item: QueuedReading = {
+    id: r.body.id,
+    kind: 'reading',
+    body: r.body,
+    userId: r.userId,
+    venueId: r.venueId,
+    stripId: r.stripId,
+    where: r.where,
+    preview: r.preview,
+    createdAt: new Date(now).toISOString(),
+    seq: lastSeq,
+    status: 'waiting',
+    attempts: 0,
+    nextAttemptAt: 0,
+  };
+  if (db) await set(item.id, item, db);
+  setState({ items: addToQueue(state.items, item) });
+  changed();
+  askForPersistentStorage();
+  void flush();
+  return item;
+}
+
+function withLock(fn: () => Promise<void>): Promise<void> {
+  // One sender across the tablet's tabs; a second tab would only replay (harmless, but wasteful).
+  const locks = typeof navigator !== 'undefined' ? navigator.locks : undefined;
+  return locks ? locks.request(LOCK, fn) : fn();
+}
+
+function schedule() {
+  clearTimeout(timer);
+  if (!state.userId) return;
+  const due = nextDueAt(state.items, state.userId);
+  if (due === null) return;
+  timer = setTimeout(() => void flush(), Math.max(0, due - Date.now()) + 50);
+}
+
+async function pass(force: boolean) {
+  const userId = state.userId;
+  if (!userId) return;
+  await load(); // another tab may have sent or added some
+  const touched = { stripIds: new Set<string>(), venueIds: new Set<string>() };
+  let stop: OutboxState['lastStop'] = null;
+  let first = true;
+  for (;;) {
+    const { send } = planSend(state.items, { userId, nowMs: Date.now(), force: force && first });
+    first = false;
+    if (send.length === 0) break;
+    setState({ syncing: true });
+    let progressed = false;
+    for (const item of send) {
+      const { answer, reading } = await sendReading(item.body);
+      const outcome = classifyAnswer(answer);
+      const next = applyOutcome(item, outcome, Date.now());
+      if (next) await put(next);
+      else await remove(item.id);
+      if (outcome.kind === 'done' && reading) {
+        touched.stripIds.add(item.stripId);
+        touched.venueIds.add(item.venueId);
+        handlers.onRecorded?.(reading, item);
+      }
+      if (outcome.kind === 'retry') {
+        stop = outcome.reason;
+        break;
+      }
+      progressed = true;
+    }
+    if (stop || !progressed) break;
+  }
+  setState({ syncing: false, lastStop: stop });
+  if (touched.stripIds.size > 0) handlers.onPassDone?.({ stripIds: [...touched.stripIds], venueIds: [...touched.venueIds] });
+}
+
+/** Sends what is due, in typing order; `force` ignores the backoff (the network just came back). */
+export function flush(opts: { force?: boolean } = {}): Promise<void> {
+  if (!state.userId || !state.loaded) return Promise.resolve();
+  if (typeof navigator !== 'undefined' && !navigator.onLine) {
+    setState({ online: false });
+    return Promise.resolve();
+  }
+  if (running) {
+    again = true;
+    return running;
+  }
+  running = withLock(() => pass(opts.force ?? false))
+    .catch(() => setState({ syncing: false }))
+    .finally(() => {
+      running = null;
+      schedule();
+      if (again) {
+        again = false;
+        void flush();
+      }
+    });
+  return running;
+}
+
+/** Whose readings to send: only the signed-in person's own (a shared tablet keeps the others'). */
+export function setOutboxUser(userId: string | null) {
+  if (state.userId === userId) return;
+  setState({ userId });
+  void flush({ force: true });
+}
+
+/** Loads the outbox and listens for the network; once per page. */
+export function startOutbox() {
+  if (started || typeof window === 'undefined') return;
+  started = true;
+  window.addEventListener('online', () => {
+    setState({ online: true });
+    void flush({ force: true });
+  });
+  window.addEventListener('offline', () => setState({ online: false }));
+  if ('BroadcastChannel' in window) {
+    channel = new BroadcastChannel(LOCK);
+    channel.onmessage = () => void load();
+  }
+  setInterval(() => void flush(), PERIODIC_MS);
+  void load().then(() => flush({ force: true }));
+}
+
+// The technician's choices for a reading the server refused. None of them loses the value.
+
+/** Send it again as it is (e.g. after the director re-assigned the venue). */
+export async function tryAgain(id: string) {
+  const item = state.items.find((i) => i.id === id);
+  if (!item) return;
+  await put({ ...item, status: 'waiting', nextAttemptAt: 0, problem: undefined });
+  void flush({ force: true });
+}
+
+/** Do not send it; it stays in the list with its value, and can be sent after all. */
+export async function setAside(id: string) {
+  const item = state.items.find((i) => i.id === id);
+  if (item) await put({ ...item, status: 'set-aside' });
+}
+
+/** The notice was read: the reading is on the server, the item may go. */
+export async function acknowledge(id: string) {
+  const item = state.items.find((i) => i.id === id);
+  if (item?.status === 'notice') await remove(id);
+}
+
+/**
+ * Records the value on another step instead (its step was taken off the checklist). A new id:
+ * it is a different reading now. The new item is on disk before the old one goes.
+ */
+export async function moveToStep(id: string, to: { stepId: string; where: string; preview: QueuedReading['preview'] }) {
+  const item = state.items.find((i) => i.id === id);
+  if (!item) return;
+  const moved: QueuedReading = {
+    ...item,
+    id: newReadingId(),
+    body: { ...item.body, id: '', stepId: to.stepId, supersedesId: undefined, correctionReason: undefined },
+    where: to.where,
+    preview: to.preview,
+    movedFrom: item.where,
+    status: 'waiting',
+    attempts: 0,
+    nextAttemptAt: 0,
+    problem: undefined,
+  };
+  moved.body.id = moved.id;
+  await put(moved);
+  await remove(item.id);
+  void flush({ force: true });
+}

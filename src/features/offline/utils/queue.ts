@@ -1,0 +1,188 @@
+// The rules of the tablet's outbox, without storage or network: what to send next, how to read
+// the server's answer, and what the sync indicator says. Pure, so it is tested on its own.
+import type { VerdictName } from '@shared/schemas/readings';
+
+/**
+ * waiting: to be sent; problem: the server refused it and the technician decides;
+ * notice: recorded, with something the technician should know; set-aside: the technician chose
+ * not to send it (kept, with its value, until they send it after all).
+ */
+export type QueueStatus = 'waiting' | 'problem' | 'notice' | 'set-aside';
+
+export type ProblemKind = 'step-removed' | 'not-assigned' | 'not-found' | 'refused' | 'venue-reopened';
+
+export interface Problem {
+  kind: ProblemKind;
+  status: number;
+  code: string;
+  message: string;
+  at: string;
+}
+
+export interface ReadingBody {
+  id: string;
+  stepId: string;
+  value: string;
+  leadOffsetOhm?: number | null;
+  supersedesId?: string;
+  correctionReason?: string;
+}
+
+export interface QueuedReading {
+  /** The reading's UUID, made once when it was typed: every replay sends the same one. */
+  id: string;
+  kind: 'reading';
+  body: ReadingBody;
+  userId: string;
+  venueId: string;
+  stripId: string;
+  /** "Strip 20 · Left reel · Continuity · Line A", for lists away from the strip. */
+  where: string;
+  /** The browser's verdict from the shared engine at the time it was typed. */
+  preview: { verdict: VerdictName; display: string; explanation: string } | null;
+  createdAt: string;
+  /** Typing order; replays follow it. */
+  seq: number;
+  status: QueueStatus;
+  attempts: number;
+  /** Epoch ms before which a retry waits (backoff); 0 = at once. */
+  nextAttemptAt: number;
+  problem?: Problem;
+  /** Where the value was typed first, when the technician moved it to another step. */
+  movedFrom?: string;
+}
+
+/** What came back from one send: nothing at all, or an HTTP answer. */
+export type Answer =
+  | { kind: 'network' }
+  | { kind: 'http'; status: number; code?: string; message?: string; venueReopened?: boolean; retryAfterS?: number };
+
+export type Outcome =
+  | { kind: 'done'; venueReopened: boolean }
+  | { kind: 'retry'; reason: 'network' | 'server' | 'busy' | 'signed-out'; retryAfterMs?: number }
+  | { kind: 'problem'; problem: Omit<Problem, 'at'> };
+
+/** 2xx done; no answer, 5xx, 408, 429 and a lapsed session later; any other refusal needs the technician. */
+export function classifyAnswer(a: Answer): Outcome {
+  if (a.kind === 'network') return { kind: 'retry', reason: 'network' };
+  const { status } = a;
+  const code = a.code ?? 'error';
+  const message = a.message ?? `The server answered ${status}.`;
+  if (status >= 200 && status < 300) return { kind: 'done', venueReopened: a.venueReopened === true };
+  if (status === 401) return { kind: 'retry', reason: 'signed-out' };
+  if (status === 429 || status === 408 || status === 503) {
+    return { kind: 'retry', reason: 'busy', retryAfterMs: a.retryAfterS !== undefined ? a.retryAfterS * 1000 : undefined };
+  }
+  if (status >= 500) return { kind: 'retry', reason: 'server' };
+  if (status === 409 && code === 'step-removed') return { kind: 'problem', problem: { kind: 'step-removed', status, code, message } };
+  if (status === 403) return { kind: 'problem', problem: { kind: 'not-assigned', status, code, message } };
+  if (status === 404) return { kind: 'problem', problem: { kind: 'not-found', status, code, message } };
+  return { kind: 'problem', problem: { kind: 'refused', status, code, message } };
+}
+
+export const RETRY_BASE_MS = 2_000;
+export const RETRY_MAX_MS = 60_000;
+
+/** 2 s, 4 s, 8 s … at most a minute between tries. */
+export function retryDelayMs(attempts: number): number {
+  return Math.min(RETRY_MAX_MS, RETRY_BASE_MS * 2 ** Math.max(0, attempts - 1));
+}
+
+/**
+ * The item after an outcome, or null when it leaves the queue (recorded, nothing to tell).
+ * Nothing the technician typed leaves the queue on a refusal.
+ */
+export function applyOutcome(item: QueuedReading, outcome: Outcome, nowMs: number): QueuedReading | null {
+  const at = new Date(nowMs).toISOString();
+  switch (outcome.kind) {
+    case 'done':
+      if (!outcome.venueReopened) return null;
+      return {
+        ...item,
+        status: 'notice',
+        problem: {
+          kind: 'venue-reopened',
+          status: 201,
+          code: 'venue-reopened',
+          message: 'This venue had been signed off meanwhile; your reading is recorded and re-opened it. Tell the technical director: the venue needs a new sign-off.',
+          at,
+        },
+      };
+    case 'retry': {
+      const attempts = item.attempts + 1;
+      const wait = Math.max(retryDelayMs(attempts), outcome.retryAfterMs ?? 0);
+      return { ...item, attempts, nextAttemptAt: nowMs + wait };
+    }
+    case 'problem':
+      return { ...item, attempts: item.attempts + 1, status: 'problem', problem: { ...outcome.problem, at } };
+  }
+}
+
+export function byTypingOrder(a: QueuedReading, b: QueuedReading): number {
+  return a.seq - b.seq || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+}
+
+/** Adds an item unless one with the same id is there already (the id is made once, when typed). */
+export function addToQueue(items: QueuedReading[], item: QueuedReading): QueuedReading[] {
+  if (items.some((i) => i.id === item.id)) return items;
+  return [...items, item].sort(byTypingOrder);
+}
+
+/**
+ * What to send now, in typing order. A reading waits behind an earlier one of the same step that
+ * is not sent yet (a problem, or a retry not due): the latest reading of a step is the one that
+ * counts, so their order must hold.
+ */
+export function planSend(items: QueuedReading[], opts: { userId: string; nowMs: number; force?: boolean }): { send: QueuedReading[]; held: Set<string> } {
+  const blocked = new Set<string>();
+  const send: QueuedReading[] = [];
+  const held = new Set<string>();
+  for (const item of [...items].sort(byTypingOrder)) {
+    if (item.userId !== opts.userId) continue;
+    const step = item.body.stepId;
+    if (item.status === 'problem') {
+      blocked.add(step);
+      continue;
+    }
+    if (item.status !== 'waiting') continue;
+    if (blocked.has(step)) {
+      held.add(item.id);
+      continue;
+    }
+    if (!opts.force && item.nextAttemptAt > opts.nowMs) {
+      blocked.add(step);
+      continue;
+    }
+    send.push(item);
+  }
+  return { send, held };
+}
+
+/** When the next retry is due, or null if nothing waits on a timer. */
+export function nextDueAt(items: QueuedReading[], userId: string): number | null {
+  const due = items.filter((i) => i.userId === userId && i.status === 'waiting').map((i) => i.nextAttemptAt);
+  return due.length ? Math.min(...due) : null;
+}
+
+export type SyncState = 'up-to-date' | 'offline' | 'waiting' | 'syncing' | 'needs-you';
+
+export interface SyncSummary {
+  state: SyncState;
+  waiting: number;
+  needsYou: number;
+}
+
+/** The indicator's state: what needs the technician first, then sending, offline, waiting, up to date. */
+export function summarize(items: QueuedReading[], opts: { userId: string | null; online: boolean; syncing: boolean }): SyncSummary {
+  const mine = opts.userId ? items.filter((i) => i.userId === opts.userId) : [];
+  const waiting = mine.filter((i) => i.status === 'waiting').length;
+  const needsYou = mine.filter((i) => i.status === 'problem' || i.status === 'notice').length;
+  const state: SyncState =
+    needsYou > 0 ? 'needs-you' : opts.syncing && waiting > 0 ? 'syncing' : !opts.online ? 'offline' : waiting > 0 ? 'waiting' : 'up-to-date';
+  return { state, waiting, needsYou };
+}
+
+/** Makes a typing-order number that grows even for two readings in the same millisecond. */
+export function makeSeq(nowMs: number, last: number): number {
+  return Math.max(nowMs, last + 1);
+}

@@ -1,0 +1,173 @@
+import { describe, expect, test } from 'vitest';
+import {
+  addToQueue,
+  applyOutcome,
+  classifyAnswer,
+  makeSeq,
+  nextDueAt,
+  planSend,
+  retryDelayMs,
+  summarize,
+  type QueuedReading,
+} from '../../src/features/offline/utils/queue';
+import { shouldPersistQueryKey } from '../../src/features/offline/utils/persist-filter';
+
+const SAM = 'user-sam';
+let n = 0;
+function item(over: Partial<QueuedReading> & { step?: string } = {}): QueuedReading {
+  n += 1;
+  const id = over.id ?? `00000000-0000-4000-8000-${String(n).padStart(12, '0')}`;
+  return {
+    id,
+    kind: 'reading',
+    body: { id, stepId: over.step ?? `step-${n}`, value: '0.5' },
+    userId: SAM,
+    venueId: 'venue',
+    stripId: 'strip',
+    where: 'Strip 20 · Left reel · Continuity · Line A',
+    preview: { verdict: 'pass', display: '0.5 Ω', explanation: '' },
+    createdAt: '2026-11-21T08:00:00.000Z',
+    seq: n,
+    status: 'waiting',
+    attempts: 0,
+    nextAttemptAt: 0,
+    ...over,
+  };
+}
+
+describe('classifyAnswer', () => {
+  test('when the server answers 2xx, then the reading is done, and says whether it re-opened a signed-off venue', () => {
+    expect(classifyAnswer({ kind: 'http', status: 201 })).toEqual({ kind: 'done', venueReopened: false });
+    expect(classifyAnswer({ kind: 'http', status: 200 })).toEqual({ kind: 'done', venueReopened: false });
+    expect(classifyAnswer({ kind: 'http', status: 201, venueReopened: true })).toEqual({ kind: 'done', venueReopened: true });
+  });
+
+  test('when there is no answer, a 5xx, a 429 or a lapsed session, then it is sent again later', () => {
+    expect(classifyAnswer({ kind: 'network' })).toEqual({ kind: 'retry', reason: 'network' });
+    expect(classifyAnswer({ kind: 'http', status: 500 })).toEqual({ kind: 'retry', reason: 'server' });
+    expect(classifyAnswer({ kind: 'http', status: 502 })).toEqual({ kind: 'retry', reason: 'server' });
+    expect(classifyAnswer({ kind: 'http', status: 429, retryAfterS: 30 })).toEqual({ kind: 'retry', reason: 'busy', retryAfterMs: 30_000 });
+    expect(classifyAnswer({ kind: 'http', status: 401 })).toEqual({ kind: 'retry', reason: 'signed-out' });
+  });
+
+  test('when the server refuses it, then it is a problem for the technician, by kind', () => {
+    const kind = (status: number, code?: string) => {
+      const o = classifyAnswer({ kind: 'http', status, code, message: 'm' });
+      return o.kind === 'problem' ? o.problem.kind : o.kind;
+    };
+    expect(kind(409, 'step-removed')).toBe('step-removed');
+    expect(kind(403, 'forbidden')).toBe('not-assigned');
+    expect(kind(404, 'not-found')).toBe('not-found');
+    expect(kind(422, 'idempotency-mismatch')).toBe('refused');
+    expect(kind(422, 'invalid-reading')).toBe('refused');
+    expect(kind(409, 'no-limit-profile')).toBe('refused');
+  });
+});
+
+describe('applyOutcome', () => {
+  test('when done with nothing to tell, then the item leaves the queue', () => {
+    expect(applyOutcome(item(), { kind: 'done', venueReopened: false }, 0)).toBeNull();
+  });
+
+  test('when done on a venue signed off meanwhile, then the item stays as a notice to read', () => {
+    const next = applyOutcome(item(), { kind: 'done', venueReopened: true }, 0)!;
+    expect(next.status).toBe('notice');
+    expect(next.problem?.kind).toBe('venue-reopened');
+  });
+
+  test('when refused, then the item stays with its value and the problem, never dropped', () => {
+    const before = item({ step: 'removed' });
+    const next = applyOutcome(before, { kind: 'problem', problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'gone' } }, 0)!;
+    expect(next).toMatchObject({ id: before.id, status: 'problem', body: before.body, problem: { kind: 'step-removed', message: 'gone' } });
+  });
+
+  test('when retried, then it waits longer each time, up to a minute, and at least Retry-After', () => {
+    let it = item();
+    const waits: number[] = [];
+    for (let k = 0; k < 8; k++) {
+      it = applyOutcome(it, { kind: 'retry', reason: 'network' }, 1_000)!;
+      waits.push(it.nextAttemptAt - 1_000);
+    }
+    expect(waits).toEqual([2_000, 4_000, 8_000, 16_000, 32_000, 60_000, 60_000, 60_000]);
+    expect(it.attempts).toBe(8);
+    expect(retryDelayMs(1)).toBe(2_000);
+    const busy = applyOutcome(item(), { kind: 'retry', reason: 'busy', retryAfterMs: 45_000 }, 0)!;
+    expect(busy.nextAttemptAt).toBe(45_000);
+  });
+});
+
+describe('addToQueue', () => {
+  test('when the same id comes twice, then it is queued once, and the first copy is kept', () => {
+    const a = item({ id: 'aaaaaaaa-0000-4000-8000-000000000001' });
+    const again = { ...a, attempts: 5, body: { ...a.body, value: '9' } };
+    const q = addToQueue(addToQueue([], a), again);
+    expect(q).toHaveLength(1);
+    expect(q[0]!.body.value).toBe('0.5');
+  });
+
+  test('when readings are added out of order, then the queue keeps typing order', () => {
+    const first = item({ seq: 1 });
+    const second = item({ seq: 2 });
+    const third = item({ seq: 3 });
+    expect(addToQueue(addToQueue(addToQueue([], third), first), second).map((i) => i.seq)).toEqual([1, 2, 3]);
+  });
+
+  test('typing-order numbers grow even within one millisecond', () => {
+    const a = makeSeq(1000, 0);
+    const b = makeSeq(1000, a);
+    const c = makeSeq(999, b);
+    expect([a, b, c]).toEqual([1000, 1001, 1002]);
+  });
+});
+
+describe('planSend', () => {
+  test('sends waiting readings in typing order, only the signed-in person’s', () => {
+    const q = [item({ seq: 3 }), item({ seq: 1 }), item({ seq: 2, userId: 'someone-else' }), item({ seq: 4, status: 'set-aside' })];
+    expect(planSend(q, { userId: SAM, nowMs: 0 }).send.map((i) => i.seq)).toEqual([1, 3]);
+  });
+
+  test('a reading waits behind an earlier unsent one of the same step, so the latest stays the latest', () => {
+    const problem = item({ step: 'X', seq: 1, status: 'problem' });
+    const later = item({ step: 'X', seq: 2 });
+    const other = item({ step: 'Y', seq: 3 });
+    const plan = planSend([problem, later, other], { userId: SAM, nowMs: 0 });
+    expect(plan.send.map((i) => i.seq)).toEqual([3]);
+    expect(plan.held.has(later.id)).toBe(true);
+  });
+
+  test('a retry not yet due waits, unless forced (the network just came back)', () => {
+    const due = item({ seq: 1, nextAttemptAt: 5_000 });
+    expect(planSend([due], { userId: SAM, nowMs: 1_000 }).send).toHaveLength(0);
+    expect(planSend([due], { userId: SAM, nowMs: 5_000 }).send).toHaveLength(1);
+    expect(planSend([due], { userId: SAM, nowMs: 1_000, force: true }).send).toHaveLength(1);
+    expect(nextDueAt([due, item({ nextAttemptAt: 9_000 })], SAM)).toBe(5_000);
+    expect(nextDueAt([item({ status: 'problem' })], SAM)).toBeNull();
+  });
+});
+
+describe('summarize', () => {
+  const q = (status: QueuedReading['status'], k = 1) => Array.from({ length: k }, () => item({ status }));
+  test('the indicator says what needs the technician first, then sending, offline, waiting, up to date', () => {
+    expect(summarize([], { userId: SAM, online: true, syncing: false })).toEqual({ state: 'up-to-date', waiting: 0, needsYou: 0 });
+    expect(summarize(q('waiting', 3), { userId: SAM, online: false, syncing: false })).toEqual({ state: 'offline', waiting: 3, needsYou: 0 });
+    expect(summarize(q('waiting', 2), { userId: SAM, online: true, syncing: true }).state).toBe('syncing');
+    expect(summarize(q('waiting', 2), { userId: SAM, online: true, syncing: false }).state).toBe('waiting');
+    expect(summarize([...q('waiting', 2), ...q('problem')], { userId: SAM, online: false, syncing: false })).toEqual({ state: 'needs-you', waiting: 2, needsYou: 1 });
+    expect(summarize(q('notice'), { userId: SAM, online: true, syncing: false }).state).toBe('needs-you');
+    expect(summarize(q('set-aside'), { userId: SAM, online: true, syncing: false }).state).toBe('up-to-date');
+    expect(summarize(q('waiting'), { userId: 'someone-else', online: true, syncing: false }).state).toBe('up-to-date');
+  });
+});
+
+describe('shouldPersistQueryKey', () => {
+  test('keeps what the testing flow needs on the tablet, and nothing else', () => {
+    expect(shouldPersistQueryKey(['auth', 'me'])).toBe(true);
+    expect(shouldPersistQueryKey(['venues'])).toBe(true);
+    expect(shouldPersistQueryKey(['venues', 'v1', 'board'])).toBe(true);
+    expect(shouldPersistQueryKey(['strips', 's1'])).toBe(true);
+    expect(shouldPersistQueryKey(['venues', 'v1', 'readings'])).toBe(false);
+    expect(shouldPersistQueryKey(['venues', 'v1', 'audit'])).toBe(false);
+    expect(shouldPersistQueryKey(['faults', 'f1'])).toBe(false);
+    expect(shouldPersistQueryKey(['users'])).toBe(false);
+  });
+});
