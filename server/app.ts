@@ -2,7 +2,7 @@ import express from 'express';
 import helmet from 'helmet';
 import cookieParser from 'cookie-parser';
 import { existsSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
+import { basename, dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppDeps } from './deps';
 import { ApiRouter, type RouteSpec } from './http/api-router';
@@ -116,9 +116,20 @@ export function createApp(deps: AppDeps) {
   app.use(wellKnown.router);
 
   if (existsSync(distDir)) {
-    app.use(express.static(distDir, { index: false, maxAge: '1h' }));
+    // The service worker and the page that names the hashed assets must be asked for every time,
+    // or a tablet would keep an old version for an hour (web.dev, "Service worker lifecycle").
+    const revalidate = new Set(['index.html', 'sw.js', 'registerSW.js', 'manifest.webmanifest']);
+    app.use(
+      express.static(distDir, {
+        index: false,
+        maxAge: '1h',
+        setHeaders: (res, file) => {
+          if (revalidate.has(basename(file))) res.setHeader('Cache-Control', 'no-cache');
+        },
+      }),
+    );
     // Single-page fallback for client routes (Express 5 syntax).
-    app.get('/{*splat}', (_req, res) => res.sendFile(resolve(distDir, 'index.html')));
+    app.get('/{*splat}', (_req, res) => res.set('Cache-Control', 'no-cache').sendFile(resolve(distDir, 'index.html'), { cacheControl: false }));
   }
   app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
 
