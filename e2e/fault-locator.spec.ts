@@ -1,5 +1,5 @@
 import { test, expect } from './fixtures';
-import { synthesiseTrace, traceCsv } from '../tests/setup/noisy-tdr-trace';
+import { synthesiseTrace, traceCsv } from '../tests/setup/synthetic-trace';
 
 // The demo's A–B short on Strip 6's left floor cable (server/db/seed-demo.ts): 12 m cable,
 // 0.0375 Ω/m per conductor (0.45 Ω end to end), short of 0.3 Ω at 7.4 m from the near end,
@@ -57,4 +57,15 @@ test('a technician locates the demo short from both ends, sees it on the drawing
   await expect(page.getByTestId('trace-markers')).toContainText(/Incident edge at 300\.\d\d ns, reflection at 39\d\.\d\d ns/);
   await expect(page.getByTestId('trace-distance')).toHaveText(/^9\.\d+ m ±/); // 0.66 · c · 96 ns / 2 ≈ 9.5 m
   await expect(page.getByRole('img', { name: /incident edge at 300\.\d\d ns and the reflection at/ })).toBeVisible();
+
+  // Ten samples later by hand: Δt grows by 10 ns, the distance follows (d = VF · c · Δt / 2),
+  // and the TDR method receives the moved round trip.
+  await page.getByRole('button', { name: 'Reflection: 10 samples later' }).click();
+  await expect(roundTrip).toHaveText(`${(deltaNs + 10).toFixed(2)} ns`);
+  await expect(page.getByTestId('trace-polarity')).toContainText('short');
+  const movedM = (0.66 * 299_792_458 * (deltaNs + 10) * 1e-9) / 2;
+  await expect(page.getByTestId('trace-distance')).toHaveText(new RegExp(`^${movedM.toFixed(1).replace('.', '\\.')} m ±`));
+  await page.getByRole('button', { name: 'Use this round trip in the TDR method' }).click();
+  await expect(readings.getByRole('radio', { name: /TDR/ })).toBeChecked();
+  await expect(readings.getByLabel(/Time from incident edge to reflection/)).toHaveValue(`${(deltaNs + 10).toFixed(2)}`);
 });

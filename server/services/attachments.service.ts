@@ -26,7 +26,7 @@ import {
   type TraceAnalysisDto,
 } from '../../shared/schemas/attachments';
 import { analyseWaveform, parseTraceCsv, WaveformError } from '../../shared/domain/waveform';
-import { decimateMinMax, PLOT_MAX_POINTS } from './fault-location.service';
+import { decimateMinMax, PLOT_MAX_POINTS } from '../../shared/domain/decimate';
 
 const PREVIEW_PX = 480;
 /** Decoding limit for photos (a "pixel bomb" is refused before it fills memory). */

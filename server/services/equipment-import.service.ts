@@ -8,8 +8,9 @@ import { equipmentRepository, type EquipmentRow } from '../db/equipment.reposito
 import { writeAudit } from '../db/audit.repository';
 import { readSheet } from '../lib/spreadsheet';
 import { conflict, unprocessable } from '../lib/app-error';
-import { newId, nowIso } from '../lib/ids';
+import { nowIso } from '../lib/ids';
 import { csvCell } from './readings-table.service';
+import { insertEquipmentItem } from './equipment.service';
 import type { UploadedFile } from '../http/upload';
 import { createEquipmentSchema, updateEquipmentSchema, EQUIPMENT_KIND_LABELS, EQUIPMENT_STATUS_LABELS } from '../../shared/schemas/equipment';
 import {
@@ -264,30 +265,7 @@ export function equipmentImportService(deps: AppDeps) {
         for (const r of rows) {
           if (r.action === 'create') {
             const v = createEquipmentSchema.parse(r.values);
-            const id = newId();
-            repo.insert({
-              id,
-              orgId: user.orgId,
-              assetTag: v.assetTag,
-              kind: v.kind,
-              description: v.description ?? '',
-              lengthM: v.lengthM ?? null,
-              conductorMm2: v.conductorMm2 ?? null,
-              awg: v.awg ?? null,
-              cableType: v.cableType ?? null,
-              velocityFactor: v.velocityFactor ?? null,
-              status: v.status ?? 'in-service',
-              notes: v.notes ?? null,
-              createdAt: at,
-            });
-            writeAudit(tx, {
-              orgId: user.orgId,
-              actorId: user.id,
-              action: 'equipment.created',
-              entityType: 'equipment',
-              entityId: id,
-              detail: { assetTag: v.assetTag, kind: v.kind, via: 'import', file: file.fileName, row: r.row },
-            });
+            const id = insertEquipmentItem(tx, user, v, { createdAt: at, auditDetail: { via: 'import', file: file.fileName, row: r.row } });
             report.created.push({ row: r.row, assetTag: v.assetTag, id });
           } else if (r.action === 'update') {
             const item = repo.findByTag(user.orgId, r.assetTag!)!;

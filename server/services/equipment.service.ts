@@ -3,6 +3,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
 import { writeAudit } from '../db/audit.repository';
+import type { Tx } from '../db/client';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { requireVersion } from '../http/etag';
 import { newId, nowIso } from '../lib/ids';
@@ -19,6 +20,43 @@ const duplicateTag = (tag: string) =>
   conflict('duplicate-asset-tag', `The asset tag ${tag} is already in the register; each item needs its own tag.`, {
     errors: [{ path: 'assetTag', message: `${tag} is already used by another item.` }],
   });
+
+/**
+ * A new register item and its audit entry, inside the caller's transaction: the register form and
+ * the spreadsheet import both add items this way. Returns the new id.
+ */
+export function insertEquipmentItem(
+  tx: Tx,
+  user: AuthUser,
+  input: CreateInput,
+  opts: { createdAt?: string; auditDetail?: Record<string, unknown> } = {},
+): string {
+  const id = newId();
+  equipmentRepository(tx).insert({
+    id,
+    orgId: user.orgId,
+    assetTag: input.assetTag,
+    kind: input.kind,
+    description: input.description ?? '',
+    lengthM: input.lengthM ?? null,
+    conductorMm2: input.conductorMm2 ?? null,
+    awg: input.awg ?? null,
+    cableType: input.cableType ?? null,
+    velocityFactor: input.velocityFactor ?? null,
+    status: input.status ?? 'in-service',
+    notes: input.notes ?? null,
+    ...(opts.createdAt ? { createdAt: opts.createdAt } : {}),
+  });
+  writeAudit(tx, {
+    orgId: user.orgId,
+    actorId: user.id,
+    action: 'equipment.created',
+    entityType: 'equipment',
+    entityId: id,
+    detail: { assetTag: input.assetTag, kind: input.kind, ...opts.auditDetail },
+  });
+  return id;
+}
 
 export function equipmentService(deps: AppDeps) {
   const repo = equipmentRepository(deps.db);
@@ -38,33 +76,11 @@ export function equipmentService(deps: AppDeps) {
     list: (user: AuthUser, f: Parameters<typeof repo.list>[1]) => repo.list(user.orgId, f),
 
     create(user: AuthUser, input: CreateInput) {
-      const id = newId();
+      let id: string;
       try {
-        deps.db.transaction((tx) => {
-          const r = equipmentRepository(tx);
-          if (r.findByTag(user.orgId, input.assetTag)) throw duplicateTag(input.assetTag);
-          r.insert({
-            id,
-            orgId: user.orgId,
-            assetTag: input.assetTag,
-            kind: input.kind,
-            description: input.description ?? '',
-            lengthM: input.lengthM ?? null,
-            conductorMm2: input.conductorMm2 ?? null,
-            awg: input.awg ?? null,
-            cableType: input.cableType ?? null,
-            velocityFactor: input.velocityFactor ?? null,
-            status: input.status ?? 'in-service',
-            notes: input.notes ?? null,
-          });
-          writeAudit(tx, {
-            orgId: user.orgId,
-            actorId: user.id,
-            action: 'equipment.created',
-            entityType: 'equipment',
-            entityId: id,
-            detail: { assetTag: input.assetTag, kind: input.kind },
-          });
+        id = deps.db.transaction((tx) => {
+          if (equipmentRepository(tx).findByTag(user.orgId, input.assetTag)) throw duplicateTag(input.assetTag);
+          return insertEquipmentItem(tx, user, input);
         });
       } catch (err) {
         if (isUniqueViolation(err)) throw duplicateTag(input.assetTag);

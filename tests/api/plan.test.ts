@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { and, eq, isNull } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
+import { venueIds } from './testing-helpers';
 import { addOtherOrg, OTHER_DIRECTOR, OTHER_PASSWORD } from '../setup/other-org';
 import * as s from '../../server/db/schema';
 
@@ -20,8 +21,7 @@ beforeAll(async () => {
   t = await createTestApp();
   other = await addOtherOrg(t);
   const venues = t.db.select().from(s.venues).all();
-  hallId = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  annexId = venues.find((v) => v.name === 'Riverside Annex')!.id;
+  ({ hall: hallId, annex: annexId } = await venueIds(t));
   profileId = venues[0].profileId;
   eventId = venues[0].eventId;
 });

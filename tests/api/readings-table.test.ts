@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
+import { venueIds } from './testing-helpers';
 import { addOtherOrg } from '../setup/other-org';
 import * as s from '../../server/db/schema';
 import { csvCell, safeFileName } from '../../server/services/readings-table.service';
@@ -12,9 +13,7 @@ let annexId: string;
 beforeAll(async () => {
   t = await createTestApp();
   other = await addOtherOrg(t);
-  const venues = t.db.select().from(s.venues).all();
-  hallId = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  annexId = venues.find((v) => v.name === 'Riverside Annex')!.id;
+  ({ hall: hallId, annex: annexId } = await venueIds(t));
 });
 afterAll(() => t.close());
 

@@ -8,6 +8,7 @@ import { compactVerify, createLocalJWKSet, decodeProtectedHeader } from 'jose';
 import type supertest from 'supertest';
 import type superagent from 'superagent';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
+import { venueIds } from './testing-helpers';
 import { capturedMail, certificates, events, signOffs, users, venues } from '../../server/db/schema';
 import { hashPassword, TEST_SCRYPT } from '../../server/auth/password';
 import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
@@ -20,10 +21,7 @@ let hallId: string;
 let annexId: string;
 beforeAll(async () => {
   t = await createTestApp();
-  const marco = await t.agentFor(DEMO.director);
-  const list = (await marco.get('/api/venues')).body as { id: string; name: string }[];
-  hallId = list.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  annexId = list.find((v) => v.name === 'Riverside Annex')!.id;
+  ({ hall: hallId, annex: annexId } = await venueIds(t));
 });
 afterAll(() => t.close());
 

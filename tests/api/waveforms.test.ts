@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { create, all } from 'mathjs';
 import type { Agent } from 'supertest';
 import { createTestApp, DEMO, ORIGIN, type TestApp } from '../setup/test-app';
-import { synthesiseTrace, traceCsv } from '../setup/noisy-tdr-trace';
+import { synthesiseTrace, traceCsv } from '../setup/synthetic-trace';
 
 // mathjs as the independent reference for the speed of light.
 const math = create(all);

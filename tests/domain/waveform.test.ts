@@ -7,80 +7,17 @@ import {
   moveMarkers,
   parseTraceCsv,
   WaveformError,
-  type Trace,
 } from '../../shared/domain/waveform';
+import { synthesiseTrace } from '../setup/synthetic-trace';
 
 const math = create(all!);
 const C = math.speedOfLight.toNumber('m/s');
-
-// --- synthetic traces ------------------------------------------------------------------------
-
-/** mulberry32: small seeded PRNG so every synthetic trace is reproducible. */
-function prng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
-
-function gaussian(random: () => number): () => number {
-  return () => {
-    const u = Math.max(random(), 1e-12);
-    const v = random();
-    return Math.sqrt(-2 * Math.log(u)) * Math.cos(2 * Math.PI * v);
-  };
-}
-
-/** Logistic step, symmetric about t = 0 (50 % point); its 10–90 % rise is 2 ln 9 · τ. */
-function step(t: number, riseS: number): number {
-  const tau = riseS / (2 * Math.log(9));
-  return 1 / (1 + Math.exp(-t / tau));
-}
-
-type Synthetic = {
-  samples?: number;
-  dtS?: number;
-  incidentS?: number;
-  roundTripS: number | null;
-  rho?: number;
-  stepV?: number;
-  riseS?: number;
-  noiseV?: number;
-  slopeVPerS?: number;
-  offsetV?: number;
-  seed?: number;
-};
-
-function synthesise(o: Synthetic): Trace {
-  const n = o.samples ?? 2000;
-  const dt = o.dtS ?? 1e-9;
-  const incident = o.incidentS ?? 300e-9;
-  const stepV = o.stepV ?? 0.5;
-  const rise = o.riseS ?? 4e-9;
-  const rho = o.rho ?? 1;
-  const noise = gaussian(prng(o.seed ?? 1));
-  const timeS = new Float64Array(n);
-  const volts = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const t = i * dt;
-    let v = (o.offsetV ?? 0) + (o.slopeVPerS ?? 0) * t + stepV * step(t - incident, rise);
-    // The reflection comes back a little slower: the cable smooths the edge.
-    if (o.roundTripS !== null) v += rho * stepV * step(t - incident - o.roundTripS, rise * 1.5);
-    timeS[i] = t;
-    volts[i] = v + (o.noiseV ?? 0) * noise();
-  }
-  return { timeS, volts };
-}
 
 // --- analysis --------------------------------------------------------------------------------
 
 describe('analyseWaveform', () => {
   test('clean open: Δt, positive polarity, ρ ≈ +1', () => {
-    const a = analyseWaveform(synthesise({ roundTripS: 123.37e-9, rho: 1 }));
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: 123.37e-9, rho: 1 }));
     expect(Math.abs(a.roundTripNs! - 123.37)).toBeLessThan(1); // within one 1 ns sample
     expect(a.polarity).toBe('open');
     expect(a.reflectionCoefficient!).toBeCloseTo(1, 1);
@@ -91,7 +28,7 @@ describe('analyseWaveform', () => {
 
   test('short: negative polarity, ρ ≈ −1', () => {
     // standard transmission-line theory: a short reflects −1
-    const a = analyseWaveform(synthesise({ roundTripS: 87.6e-9, rho: -1, noiseV: 0.005, seed: 7 }));
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: 87.6e-9, rho: -1, noiseV: 0.005, seed: 7 }));
     expect(Math.abs(a.roundTripNs! - 87.6)).toBeLessThan(1);
     expect(a.polarity).toBe('short');
     expect(a.reflectionCoefficient!).toBeCloseTo(-1, 1);
@@ -100,8 +37,8 @@ describe('analyseWaveform', () => {
 
   test('Z_L = 2 Z_0 gives ρ = +1/3 and Z_0/2 gives −1/3', () => {
     // standard transmission-line theory
-    const up = analyseWaveform(synthesise({ roundTripS: 150e-9, rho: 1 / 3, noiseV: 0.002, seed: 3 }));
-    const down = analyseWaveform(synthesise({ roundTripS: 150e-9, rho: -1 / 3, noiseV: 0.002, seed: 4 }));
+    const up = analyseWaveform(synthesiseTrace({ roundTripS: 150e-9, rho: 1 / 3, noiseV: 0.002, seed: 3 }));
+    const down = analyseWaveform(synthesiseTrace({ roundTripS: 150e-9, rho: -1 / 3, noiseV: 0.002, seed: 4 }));
     expect(up.reflectionCoefficient!).toBeCloseTo(1 / 3, 1);
     expect(down.reflectionCoefficient!).toBeCloseTo(-1 / 3, 1);
     expect(Math.abs(up.roundTripNs! - 150)).toBeLessThan(1);
@@ -110,7 +47,7 @@ describe('analyseWaveform', () => {
 
   test('sloped baseline and noise: the baseline line is fitted and Δt still within one sample', () => {
     const a = analyseWaveform(
-      synthesise({ roundTripS: 211.8e-9, rho: -0.9, noiseV: 0.01, slopeVPerS: 5e4, offsetV: 0.2, seed: 11 }),
+      synthesiseTrace({ roundTripS: 211.8e-9, rho: -0.9, noiseV: 0.01, slopeVPerS: 5e4, offsetV: 0.2, seed: 11 }),
     );
     // Least-squares slope over the ~290 pre-edge samples: standard error σ / (dt · √(N³/12)).
     const standardError = 0.01 / (1e-9 * Math.sqrt(290 ** 3 / 12));
@@ -121,7 +58,7 @@ describe('analyseWaveform', () => {
   });
 
   test('heavier noise (5 % of the step) on a short still gives Δt within one sample', () => {
-    const a = analyseWaveform(synthesise({ roundTripS: 166.6e-9, rho: -1, noiseV: 0.025, slopeVPerS: -2e4, seed: 29 }));
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: 166.6e-9, rho: -1, noiseV: 0.025, slopeVPerS: -2e4, seed: 29 }));
     expect(Math.abs(a.roundTripNs! - 166.6)).toBeLessThan(1);
     expect(a.polarity).toBe('short');
   });
@@ -129,7 +66,7 @@ describe('analyseWaveform', () => {
   test('with a velocity factor, a distance from the rise time and VF (TDR formula)', () => {
     // Ulaby, Fundamentals of Applied Electromagnetics, TDR section: d = VF · c · Δt / 2
     const roundTripS = 120e-9;
-    const a = analyseWaveform(synthesise({ roundTripS, rho: -1, noiseV: 0.003, seed: 5 }), { velocityFactor: 0.66 });
+    const a = analyseWaveform(synthesiseTrace({ roundTripS, rho: -1, noiseV: 0.003, seed: 5 }), { velocityFactor: 0.66 });
     const expected = (0.66 * C * roundTripS) / 2;
     const oneSampleM = (0.66 * C * 1e-9) / 2;
     expect(Math.abs(a.distanceM! - expected)).toBeLessThan(oneSampleM);
@@ -141,14 +78,14 @@ describe('analyseWaveform', () => {
   });
 
   test('a reflection past the cable’s end is reported in the message, not turned into a distance', () => {
-    const a = analyseWaveform(synthesise({ roundTripS: 300e-9, rho: 1 }), { velocityFactor: 0.66, lengthM: 10 });
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: 300e-9, rho: 1 }), { velocityFactor: 0.66, lengthM: 10 });
     expect(a.roundTripNs).not.toBeNull();
     expect(a.estimate).toBeNull();
     expect(a.message).toMatch(/beyond the end/);
   });
 
   test('no reflection: reflection null and a message, not an exception', () => {
-    const a = analyseWaveform(synthesise({ roundTripS: null, noiseV: 0.005, seed: 2 }), { velocityFactor: 0.66 });
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: null, noiseV: 0.005, seed: 2 }), { velocityFactor: 0.66 });
     expect(a.markers.reflection).toBeNull();
     expect(a.roundTripNs).toBeNull();
     expect(a.polarity).toBeNull();
@@ -157,16 +94,16 @@ describe('analyseWaveform', () => {
   });
 
   test('a flat, noisy trace has no incident edge', () => {
-    const flat = synthesise({ roundTripS: null, stepV: 0, noiseV: 0.01, seed: 9 });
+    const flat = synthesiseTrace({ roundTripS: null, stepV: 0, noiseV: 0.01, seed: 9 });
     expect(() => analyseWaveform(flat)).toThrow(WaveformError);
   });
 
   test.each([0, 3e-9])('a trace that starts on the edge (incident at %d s) is refused', (incidentS) => {
-    expect(() => analyseWaveform(synthesise({ roundTripS: 100e-9, incidentS }))).toThrow(/baseline/);
+    expect(() => analyseWaveform(synthesiseTrace({ roundTripS: 100e-9, incidentS }))).toThrow(/baseline/);
   });
 
   test('a negative-going generator: ρ is still reflected / incident', () => {
-    const a = analyseWaveform(synthesise({ roundTripS: 140.4e-9, stepV: -0.4, rho: 1, noiseV: 0.004, seed: 21 }));
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: 140.4e-9, stepV: -0.4, rho: 1, noiseV: 0.004, seed: 21 }));
     expect(a.incidentStepV).toBeLessThan(0);
     expect(a.polarity).toBe('open');
     expect(Math.abs(a.roundTripNs! - 140.4)).toBeLessThan(1);
@@ -183,7 +120,7 @@ describe('analyseWaveform', () => {
         fc.double({ min: -5e4, max: 5e4, noNaN: true }),
         fc.double({ min: 2e-9, max: 6e-9, noNaN: true }),
         (seed, roundTripS, rho, noiseV, slopeVPerS, riseS) => {
-          const a = analyseWaveform(synthesise({ roundTripS, rho, noiseV, slopeVPerS, riseS, seed }));
+          const a = analyseWaveform(synthesiseTrace({ roundTripS, rho, noiseV, slopeVPerS, riseS, seed }));
           expect(Math.abs(a.roundTripNs! - roundTripS * 1e9)).toBeLessThan(1);
           expect(a.polarity).toBe(rho > 0 ? 'open' : 'short');
         },
@@ -193,7 +130,7 @@ describe('analyseWaveform', () => {
   });
 
   test('property: irregular time steps are honoured (interpolation uses the real times)', () => {
-    const base = synthesise({ roundTripS: 200e-9, rho: -1, samples: 1500 });
+    const base = synthesiseTrace({ roundTripS: 200e-9, rho: -1, samples: 1500 });
     const timeS = base.timeS.map((t) => t * 2);
     const a = analyseWaveform({ timeS, volts: base.volts });
     expect(Math.abs(a.roundTripNs! - 400)).toBeLessThan(2); // one sample is now 2 ns
@@ -201,7 +138,7 @@ describe('analyseWaveform', () => {
 });
 
 describe('estimateFromMarkers', () => {
-  const trace = synthesise({ roundTripS: 100e-9, rho: -1, noiseV: 0.002, seed: 13 });
+  const trace = synthesiseTrace({ roundTripS: 100e-9, rho: -1, noiseV: 0.002, seed: 13 });
 
   test('Δt between the markers, and the distance with the VF', () => {
     const e = estimateFromMarkers(trace, 300e-9, 400e-9, { velocityFactor: 0.7 });
@@ -316,7 +253,7 @@ describe('parseTraceCsv', () => {
   });
 
   test('a parsed CSV of a synthetic trace analyses like the trace itself', () => {
-    const trace = synthesise({ roundTripS: 97.3e-9, rho: -1, noiseV: 0.003, seed: 17 });
+    const trace = synthesiseTrace({ roundTripS: 97.3e-9, rho: -1, noiseV: 0.003, seed: 17 });
     const lines = ['time;volts'];
     for (let i = 0; i < trace.timeS.length; i++) {
       lines.push(`${trace.timeS[i]!.toExponential(9).replace('.', ',')};${trace.volts[i]!.toFixed(6).replace('.', ',')}`);

@@ -1,11 +1,20 @@
 import { useLayoutEffect, useRef, useState, type RefObject } from 'react';
 import { formatLength, METRES_PER_FOOT, type LengthSystem } from '@shared/domain/units';
 
-export interface CableDrawingProps {
-  /** Distance of the marked point from the near end, in metres. */
+export interface CablePoint {
+  /** From the near end, in metres. */
   distanceM: number;
   /** ± half-width of the band around it, in metres. */
   uncertaintyM: number;
+}
+
+export interface CableDrawingProps {
+  /** Distance of the marked point from the near end, in metres; without it only the cable is drawn. */
+  distanceM?: number | undefined;
+  /** ± half-width of the band around it, in metres. */
+  uncertaintyM?: number | undefined;
+  /** Further points drawn in grey under the marked one (e.g. the single readings behind it). */
+  others?: readonly CablePoint[] | undefined;
   /** Whole cable; when unknown the far end is drawn open-ended past the band. */
   lengthM?: number | undefined;
   unitSystem: LengthSystem;
@@ -34,14 +43,18 @@ export function CableDrawing({
   nearLabel = 'near end (where you measure)',
   farLabel = 'far end',
   markerLabel = 'fault',
+  others = [],
   className = '',
 }: CableDrawingProps) {
   const [ref, width] = useElementWidth<HTMLDivElement>();
   const known = lengthM !== undefined && lengthM > 0;
-  const bandLo = distanceM - uncertaintyM;
-  const bandHi = distanceM + uncertaintyM;
-  const domainMin = Math.min(0, bandLo);
-  const domainMax = known ? Math.max(lengthM, bandHi) : Math.max(bandHi * 1.25, distanceM + 1);
+  const marked = distanceM !== undefined;
+  const points = [...others, ...(marked ? [{ distanceM, uncertaintyM: uncertaintyM ?? 0 }] : [])];
+  const bandLo = Math.min(0, ...points.map((p) => p.distanceM - p.uncertaintyM));
+  const bandHi = Math.max(0, ...points.map((p) => p.distanceM + p.uncertaintyM));
+  const farthest = Math.max(0, ...points.map((p) => p.distanceM));
+  const domainMin = bandLo;
+  const domainMax = known ? Math.max(lengthM, bandHi) : Math.max(bandHi * 1.25, farthest + 1);
   const span = domainMax - domainMin || 1;
   const inner = Math.max(width - 2 * PAD_X, 10);
   const x = (m: number) => PAD_X + ((m - domainMin) / span) * inner;
@@ -54,15 +67,16 @@ export function CableDrawing({
   const ticks: number[] = [];
   for (let v = Math.ceil(domainMin / unitLength / step) * step; v <= domainMax / unitLength + 1e-9; v += step) ticks.push(v);
 
-  const fx = x(distanceM);
-  const bx0 = Math.max(x(bandLo), PAD_X);
-  const bx1 = Math.min(x(bandHi), width - PAD_X);
+  const fx = marked ? x(distanceM) : 0;
+  const bx0 = marked ? Math.max(x(distanceM - (uncertaintyM ?? 0)), PAD_X) : 0;
+  const bx1 = marked ? Math.min(x(distanceM + (uncertaintyM ?? 0)), width - PAD_X) : 0;
   const anchor = fx < 90 ? 'start' : fx > width - 90 ? 'end' : 'middle';
-  const markerText = `${markerLabel} ≈ ${formatLength(distanceM, unitSystem)}`;
-  const description =
-    `Cable ${known ? formatLength(lengthM, unitSystem) + ' long' : 'of unknown length'}: ${markerLabel} about ` +
-    `${formatLength(distanceM, unitSystem)} from the ${nearLabel}, ±${formatLength(uncertaintyM, unitSystem)}` +
-    (known ? `, ${formatLength(lengthM - distanceM, unitSystem)} from the ${farLabel}.` : '.');
+  const cable = `Cable ${known ? formatLength(lengthM, unitSystem) + ' long' : 'of unknown length'}`;
+  const description = marked
+    ? `${cable}: ${markerLabel} about ${formatLength(distanceM, unitSystem)} from the ${nearLabel}, ±${formatLength(uncertaintyM ?? 0, unitSystem)}` +
+      (known ? `, ${formatLength(lengthM - distanceM, unitSystem)} from the ${farLabel}` : '') +
+      (others.length > 0 ? `; ${others.length} further points shown in grey.` : '.')
+    : `${cable}, no ${markerLabel} marked yet.`;
 
   return (
     // inline-size containment: the drawing takes the width it is given and never widens its parent.
@@ -76,17 +90,19 @@ export function CableDrawing({
         </text>
 
         {/* The band first, so the cable and the marker sit on top of it. */}
-        <rect
-          data-testid="cable-band"
-          x={bx0}
-          y={CABLE_Y - 18}
-          width={Math.max(bx1 - bx0, 2)}
-          height={36}
-          rx={4}
-          fill="var(--color-brass-soft)"
-          stroke="var(--color-brass)"
-          strokeDasharray="4 3"
-        />
+        {marked && (
+          <rect
+            data-testid="cable-band"
+            x={bx0}
+            y={CABLE_Y - 18}
+            width={Math.max(bx1 - bx0, 2)}
+            height={36}
+            rx={4}
+            fill="var(--color-brass-soft)"
+            stroke="var(--color-brass)"
+            strokeDasharray="4 3"
+          />
+        )}
         <line
           x1={x(0)}
           x2={cableEnd}
@@ -100,19 +116,28 @@ export function CableDrawing({
         <rect x={x(0) - 6} y={CABLE_Y - 12} width={12} height={24} rx={2} fill={INK} />
         {known && <rect x={cableEnd - 6} y={CABLE_Y - 12} width={12} height={24} rx={2} fill={INK} />}
 
-        <g data-testid="fault-marker" data-distance-m={distanceM}>
-          <line x1={fx} x2={fx} y1={CABLE_Y - 26} y2={CABLE_Y + 22} stroke="var(--color-fail)" strokeWidth={2.5} />
-          {/* A cross as well as a colour, so the spot reads without colour vision. */}
-          <path
-            d={`M${fx - 7} ${CABLE_Y - 7} L${fx + 7} ${CABLE_Y + 7} M${fx + 7} ${CABLE_Y - 7} L${fx - 7} ${CABLE_Y + 7}`}
-            stroke="var(--color-fail)"
-            strokeWidth={3}
-            strokeLinecap="round"
-          />
-          <text x={fx} y={CABLE_Y - 32} fontSize={14} fontWeight={600} fill={INK} textAnchor={anchor}>
-            {markerText}
-          </text>
-        </g>
+        {others.map((p, i) => (
+          <g key={i} data-testid="cable-other-point" data-distance-m={p.distanceM}>
+            <line x1={x(p.distanceM)} x2={x(p.distanceM)} y1={CABLE_Y - 22} y2={CABLE_Y + 26} stroke={SOFT} strokeWidth={2} />
+            <circle cx={x(p.distanceM)} cy={CABLE_Y + 26} r={4} fill={SOFT} />
+          </g>
+        ))}
+
+        {marked && (
+          <g data-testid="fault-marker" data-distance-m={distanceM}>
+            <line x1={fx} x2={fx} y1={CABLE_Y - 26} y2={CABLE_Y + 22} stroke="var(--color-fail)" strokeWidth={2.5} />
+            {/* A cross as well as a colour, so the spot reads without colour vision. */}
+            <path
+              d={`M${fx - 7} ${CABLE_Y - 7} L${fx + 7} ${CABLE_Y + 7} M${fx + 7} ${CABLE_Y - 7} L${fx - 7} ${CABLE_Y + 7}`}
+              stroke="var(--color-fail)"
+              strokeWidth={3}
+              strokeLinecap="round"
+            />
+            <text x={fx} y={CABLE_Y - 32} fontSize={14} fontWeight={600} fill={INK} textAnchor={anchor}>
+              {markerLabel} ≈ {formatLength(distanceM, unitSystem)}
+            </text>
+          </g>
+        )}
 
         <g aria-hidden="true">
           <line x1={PAD_X} x2={width - PAD_X} y1={HEIGHT - 34} y2={HEIGHT - 34} stroke={SOFT} />

@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { Link, useParams } from 'react-router';
 import { formatLength, formatOhm } from '@shared/domain/units';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
@@ -7,12 +6,11 @@ import { useMe } from '@/features/auth/api/get-me';
 import { faultQueryOptions, useFault } from '@/features/faults/api/get-fault';
 import { useQueryClient } from '@tanstack/react-query';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
-import { useUpdateFault } from '@/features/faults/api/update-fault';
-import { CableDrawing } from '@/features/faults/components/cable-drawing';
+import { FaultNotes } from '@/features/faults/components/fault-notes';
 import { LocateForm } from '@/features/faults/components/locate-form';
 import { RepairForm } from '@/features/faults/components/repair-form';
 import { METHOD_LABELS, type LocateMethod } from '@/features/faults/utils/methods';
-import { Button } from '@/components/ui/button';
+import { CableDrawing } from '@/components/ui/cable-drawing';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
@@ -31,9 +29,7 @@ export default function FaultPage() {
   const { faultId = '' } = useParams();
   const fault = useFault(faultId);
   const me = useMe();
-  const update = useUpdateFault(faultId);
   const qc = useQueryClient();
-  const [notes, setNotes] = useState<string | null>(null);
   if (fault.isPending) return <Loading />;
   if (fault.isError) return <Notice tone="error">{fault.error.message}</Notice>;
   const f = fault.data;
@@ -43,18 +39,8 @@ export default function FaultPage() {
   const lengthM = f.equipment?.lengthM ?? f.lengthM;
   const retest = `${paths.stripTest(f.stripId)}?position=${f.positionId}`;
 
-  const markers = f.estimates
-    .filter((e) => e.distanceFromNearM !== null)
-    .map((e) => ({ distanceM: e.distanceFromNearM as number, uncertaintyM: e.uncertaintyM, label: '' }));
+  const single = f.estimates.flatMap((e) => (e.distanceFromNearM !== null ? [{ distanceM: e.distanceFromNearM, uncertaintyM: e.uncertaintyM }] : []));
   const shown = f.combined ?? null;
-  if (shown) {
-    markers.push({
-      distanceM: shown.distanceM,
-      uncertaintyM: shown.uncertaintyM,
-      label: `${formatLength(shown.distanceM, unit)} ±${formatLength(shown.uncertaintyM, unit)} from the apparatus end`,
-      main: true,
-    } as (typeof markers)[number] & { main: boolean });
-  }
 
   return (
     <>
@@ -89,12 +75,18 @@ export default function FaultPage() {
       <Card className="mb-4">
         <h2 className="text-lg font-semibold">Where it is</h2>
         {lengthM !== null ? (
-          <CableDrawing
-            lengthM={lengthM}
-            markers={markers}
-            unitSystem={unit}
-            title={shown ? `Cable of ${formatLength(lengthM, unit)} with the fault about ${formatLength(shown.distanceM, unit)} from the apparatus end` : `Cable of ${formatLength(lengthM, unit)}, fault not located yet`}
-          />
+          <>
+            <CableDrawing
+              lengthM={lengthM}
+              distanceM={shown?.distanceM}
+              uncertaintyM={shown?.uncertaintyM}
+              others={single.length > 1 ? single : []}
+              unitSystem={unit}
+              nearLabel="apparatus end"
+              farLabel="far end"
+            />
+            {shown && single.length > 1 && <p className="text-xs text-ink-soft">Cross and dashed band: the estimate used. Grey lines: the single estimates.</p>}
+          </>
         ) : (
           <p className="text-sm text-ink-soft">The item’s length is not recorded, so the cable cannot be drawn to scale.</p>
         )}
@@ -173,6 +165,10 @@ export default function FaultPage() {
                   : ''}
                 {r.action === 'swapped' && f.currentEquipment ? `: ${f.currentEquipment.assetTag} put in` : ''} · {r.createdByName ?? ''}, {new Date(r.createdAt).toLocaleString()}
                 {r.notes && <p className="text-ink-soft">{r.notes}</p>}
+                <div className="mt-3 rounded-lg border border-line p-3">
+                  <h3 className="mb-2 font-medium">Photos and files of this repair</h3>
+                  <AttachmentsPanel ownerType="repair" ownerId={r.id} canUpload={canWrite} unitSystem={unit} label={`Photos and files of the repair: ${ACTION_LABELS[r.action]}`} />
+                </div>
               </li>
             ))}
           </ul>
@@ -218,28 +214,7 @@ export default function FaultPage() {
 
       <Card className="mt-4">
         <h2 className="mb-2 text-lg font-semibold">Notes</h2>
-        {canWrite ? (
-          <form
-            className="flex flex-col gap-2"
-            onSubmit={(e) => {
-              e.preventDefault();
-              update.mutate({ version: f.version, patch: { notes: (notes ?? f.notes ?? '').trim() || null } }, { onSuccess: () => setNotes(null) });
-            }}
-          >
-            <label htmlFor="fault-notes" className="sr-only">
-              Notes on this fault
-            </label>
-            <textarea id="fault-notes" rows={3} value={notes ?? f.notes ?? ''} onChange={(e) => setNotes(e.target.value)} className="rounded-lg border border-line bg-card px-3 py-2 text-base" />
-            {update.isError && <Notice tone="error">{update.error.message}</Notice>}
-            <div>
-              <Button type="submit" variant="secondary" disabled={notes === null || update.isPending}>
-                Save notes
-              </Button>
-            </div>
-          </form>
-        ) : (
-          <p className="text-sm">{f.notes ?? 'No notes.'}</p>
-        )}
+        <FaultNotes fault={f} canWrite={canWrite} />
       </Card>
     </>
   );

@@ -23,6 +23,7 @@ export function AttachmentsPanel({
   faultId,
   canSaveEstimate = false,
   onEstimateSaved,
+  label = 'Photos and files',
 }: {
   ownerType: AttachmentOwnerType;
   ownerId: string;
@@ -32,6 +33,8 @@ export function AttachmentsPanel({
   faultId?: string;
   canSaveEstimate?: boolean;
   onEstimateSaved?: () => void;
+  /** Names the section for assistive technology: several panels can share a page. */
+  label?: string;
 }) {
   const list = useAttachments(ownerType, ownerId);
   const [openTrace, setOpenTrace] = useState<string | null>(null);
@@ -42,7 +45,7 @@ export function AttachmentsPanel({
   const shownTrace = openTrace ?? traces[traces.length - 1]?.id ?? null;
 
   return (
-    <section className="flex flex-col gap-4" aria-label="Photos and files">
+    <section className="flex flex-col gap-4" aria-label={label}>
       {canUpload && <UploadControl ownerType={ownerType} ownerId={ownerId} camera />}
       {list.isPending && <Loading />}
       {list.isError && <Notice tone="error">{list.error.message}</Notice>}

@@ -5,7 +5,7 @@ import { calibrationSchema, type CalibrationInput } from '@shared/schemas/equipm
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
-import { ApiError } from '@/lib/api-client';
+import { showServerErrors } from '@/lib/form-errors';
 import { numberOrNull } from './labels';
 
 /** Velocity factor from a known-good length: VF = 2L / (c · Δt). */
@@ -23,8 +23,7 @@ export function CalibrateForm({ defaultLengthM, onCalibrate }: { defaultLengthM:
           const r = await onCalibrate(v);
           setDone(r.explanation);
         } catch (err) {
-          if (err instanceof ApiError) for (const e of err.errors) form.setError(e.path as keyof CalibrationInput, { message: e.message });
-          form.setError('root', { message: err instanceof Error ? err.message : 'Could not calibrate.' });
+          showServerErrors(form.setError, err, 'Could not calibrate.');
         }
       })}
     >

@@ -4,6 +4,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
 import { ApiError } from '@/lib/api-client';
+import { fieldErrorOf } from '@/lib/form-errors';
 import type { EquipmentItem } from '../api/types';
 
 /**
@@ -29,7 +30,7 @@ export function EquipmentEditForm({
   const [error, setError] = useState<ApiError | Error | null>(null);
   const [saved, setSaved] = useState(false);
   const set = (k: keyof typeof draft) => (e: { target: { value: string } }) => setDraft({ ...draft, [k]: e.target.value });
-  const fieldError = (p: string) => (error instanceof ApiError ? error.errors.find((e) => e.path === p)?.message : undefined);
+  const fieldError = (p: string) => fieldErrorOf(error, p);
 
   return (
     <form

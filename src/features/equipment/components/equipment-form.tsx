@@ -11,7 +11,7 @@ import {
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { ApiError } from '@/lib/api-client';
+import { showServerErrors } from '@/lib/form-errors';
 import { numberOrNull } from './labels';
 
 /** Register a new item. Field errors from the server (e.g. a duplicate tag) land on their field. */
@@ -31,10 +31,7 @@ export function EquipmentCreateForm({ onCreate }: { onCreate: (v: CreateEquipmen
           await onCreate(v);
           form.reset();
         } catch (err) {
-          if (err instanceof ApiError && err.errors.length) {
-            for (const e of err.errors) form.setError(e.path as keyof CreateEquipmentInput, { message: e.message });
-          }
-          form.setError('root', { message: err instanceof Error ? err.message : 'Could not save.' });
+          showServerErrors(form.setError, err, 'Could not save.');
         }
       })}
     >

@@ -1,12 +1,13 @@
 import { useMemo, useState } from 'react';
 import { formatLength, type LengthSystem } from '@shared/domain/units';
+import { estimateFromMarkers, WaveformError, type MarkerEstimate } from '@shared/domain/waveform';
 import { WAVEFORM_MAX_BYTES } from '@shared/schemas/waveforms';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
+import { formatNs, TraceChart, type TraceMarkerTimes } from '@/components/ui/trace-chart';
 import { useAnalyseWaveform, type WaveformAnswer } from '../api/analyse-waveform';
 import { parseLength, parseVelocityFactor, pinLengthUnit } from '../utils/parse-inputs';
-import { TracePlot, type TraceMarker } from './trace-plot';
 
 export interface TdrReading {
   roundTripNs: number;
@@ -16,7 +17,8 @@ export interface TdrReading {
 
 /**
  * Upload a scope trace (CSV), see it plotted with the incident edge and the reflection marked,
- * and the round trip, polarity and (with a velocity factor) the distance.
+ * and the round trip, polarity and (with a velocity factor) the distance. The markers can be moved
+ * by hand; the numbers follow, and the round trip handed to the TDR method is the moved one.
  */
 export function WaveformSection({
   unitSystem,
@@ -102,79 +104,122 @@ export function WaveformSection({
       </form>
       {localError && <Notice tone="error">{localError}</Notice>}
       {analyse.isError && <Notice tone="error">{analyse.error.message}</Notice>}
-      {analyse.data && !analyse.isPending && <WaveformResult data={analyse.data} unitSystem={unitSystem} onUse={onUse} />}
+      {analyse.data && !analyse.isPending && (
+        <WaveformResult
+          key={analyse.submittedAt}
+          data={analyse.data}
+          unitSystem={unitSystem}
+          velocityFactor={vf?.ok ? vf.value : undefined}
+          lengthM={length?.ok ? length.value : undefined}
+          onUse={onUse}
+        />
+      )}
     </div>
   );
 }
 
-function WaveformResult({ data, unitSystem, onUse }: { data: WaveformAnswer; unitSystem: LengthSystem; onUse?: ((reading: TdrReading) => void) | undefined }) {
+function WaveformResult({
+  data,
+  unitSystem,
+  velocityFactor,
+  lengthM,
+  onUse,
+}: {
+  data: WaveformAnswer;
+  unitSystem: LengthSystem;
+  velocityFactor: number | undefined;
+  lengthM: number | undefined;
+  onUse?: ((reading: TdrReading) => void) | undefined;
+}) {
   const { incident, reflection } = data.markers;
-  const markers = useMemo<TraceMarker[]>(
-    () => [
-      { timeS: incident.timeS, label: 'incident edge' },
-      ...(reflection ? [{ timeS: reflection.timeS, label: 'reflection', dash: [6, 4] }] : []),
-    ],
-    [incident.timeS, reflection],
+  const first = data.plot.timeS[0] ?? 0;
+  const last = data.plot.timeS[data.plot.timeS.length - 1] ?? 0;
+  // Without a reflection found, the second marker waits at 60 % of the trace for the technician.
+  const automatic = useMemo<TraceMarkerTimes>(
+    () => ({ incident: incident.timeS, reflection: reflection?.timeS ?? first + (last - first) * 0.6 }),
+    [incident.timeS, reflection, first, last],
   );
-  const focusS = useMemo<[number, number] | undefined>(() => {
-    if (!reflection) return undefined;
-    const first = data.plot.timeS[0]!;
-    const last = data.plot.timeS[data.plot.timeS.length - 1]!;
-    const span = reflection.timeS - incident.timeS;
-    const margin = Math.max(span * 0.75, 30 * data.sampleIntervalNs * 1e-9);
-    return [Math.max(first, incident.timeS - margin), Math.min(last, reflection.timeS + Math.max(span, margin))];
-  }, [data, incident.timeS, reflection]);
+  const [markers, setMarkers] = useState<TraceMarkerTimes>(automatic);
+  const moved = markers.incident !== automatic.incident || markers.reflection !== automatic.reflection;
+  const trace = useMemo(() => ({ timeS: Float64Array.from(data.plot.timeS), volts: Float64Array.from(data.plot.volts) }), [data.plot]);
+  // Recomputed here with the shared engine, so a moved marker moves the estimate at once.
+  const estimate = useMemo<MarkerEstimate | { error: string }>(() => {
+    try {
+      return estimateFromMarkers(trace, markers.incident, markers.reflection, { velocityFactor, lengthM, riseTimeNs: data.riseTimeNs });
+    } catch (err) {
+      if (err instanceof WaveformError) return { error: err.message };
+      throw err;
+    }
+  }, [trace, markers, velocityFactor, lengthM, data.riseTimeNs]);
+  const ok = 'roundTripNs' in estimate ? estimate : null;
+  // Until a marker moves, the numbers are the server's, measured on every sample rather than the plotted ones.
+  const shown = moved || !ok ? ok : { ...ok, polarity: data.polarity ?? ok.polarity, reflectionCoefficient: data.reflectionCoefficient ?? ok.reflectionCoefficient };
+  const found = reflection !== null || moved;
+  const rho = found ? shown?.reflectionCoefficient : null;
   const ns = (v: number) => `${v.toFixed(2)} ns`;
   return (
     <div className="flex flex-col gap-4">
-      <TracePlot
+      {!reflection && (
+        <Notice tone="caution">No reflection was found automatically. Place the reflection marker by hand where the trace steps again.</Notice>
+      )}
+      <TraceChart
         timeS={data.plot.timeS}
         volts={data.plot.volts}
         markers={markers}
-        focusS={focusS}
-        label={`Trace of ${data.sampleCount.toLocaleString('en')} samples with the incident edge at ${ns(incident.timeS * 1e9)}${reflection ? ` and the reflection at ${ns(reflection.timeS * 1e9)}` : ', no reflection found'}.`}
+        onMarkersChange={setMarkers}
+        stepS={data.sampleIntervalNs * 1e-9}
+        initialActive={reflection ? 'incident' : 'reflection'}
+        startZoomed={reflection !== null}
+        label={`Trace of ${data.sampleCount.toLocaleString('en')} samples with the incident edge at ${formatNs(markers.incident)}${found ? ` and the reflection at ${formatNs(markers.reflection)}` : ', no reflection found'}.`}
       />
-      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-sm sm:grid-cols-3 lg:grid-cols-6">
-        <Stat label="Round trip Δt" testId="trace-round-trip" value={data.roundTripNs === null ? '—' : ns(data.roundTripNs)} />
+      <dl className="grid grid-cols-2 gap-x-6 gap-y-2 text-sm sm:grid-cols-3 lg:grid-cols-6" aria-live="polite">
+        <Stat label="Round trip Δt" testId="trace-round-trip" value={shown && found ? ns(shown.roundTripNs) : '—'} />
         <Stat
           label="Polarity"
           testId="trace-polarity"
-          value={data.polarity === null ? '—' : data.polarity === 'open' ? '▲ open (steps up)' : '▼ short (steps down)'}
+          value={!shown?.polarity || !found ? '—' : shown.polarity === 'open' ? '▲ open (steps up)' : '▼ short (steps down)'}
         />
-        <Stat
-          label="Reflection coefficient"
-          value={data.reflectionCoefficient === null ? '—' : `${data.reflectionCoefficient >= 0 ? '+' : ''}${data.reflectionCoefficient.toFixed(2)}`}
-        />
+        <Stat label="Reflection coefficient" value={rho == null ? '—' : `${rho >= 0 ? '+' : ''}${rho.toFixed(2)}`} />
         <Stat label="Rise time (10–90 %)" value={ns(data.riseTimeNs)} />
         <Stat label="Sample interval" value={ns(data.sampleIntervalNs)} />
         <Stat
           label="Distance"
           testId="trace-distance"
-          value={data.distanceM === null ? 'needs a velocity factor' : `${formatLength(data.distanceM, unitSystem)} ±${formatLength(data.uncertaintyM ?? 0, unitSystem)}`}
+          value={
+            shown?.distanceM != null && found
+              ? `${formatLength(shown.distanceM, unitSystem)} ±${formatLength(shown.uncertaintyM ?? 0, unitSystem)}`
+              : velocityFactor === undefined
+                ? 'needs a velocity factor'
+                : '—'
+          }
         />
       </dl>
       <p className="text-xs text-ink-soft" data-testid="trace-markers">
-        Incident edge at {ns(incident.timeS * 1e9)}
-        {reflection ? `, reflection at ${ns(reflection.timeS * 1e9)}` : ''} · {data.sampleCount.toLocaleString('en')} samples ·
-        drag across the plot to zoom, double-click to see the whole trace
+        Incident edge at {formatNs(markers.incident)}
+        {found ? `, reflection at ${formatNs(markers.reflection)}` : ''} · {data.sampleCount.toLocaleString('en')} samples
+        {moved ? ' · placed by hand' : ' · found automatically'}
       </p>
-      <p className="text-sm leading-relaxed">{data.message}</p>
-      {onUse && data.roundTripNs !== null && (
-        <div>
+      {'error' in estimate && <Notice tone="error">{estimate.error}</Notice>}
+      <p className="text-sm leading-relaxed">{moved || !ok ? (ok?.message ?? '') : data.message}</p>
+      <div className="flex flex-wrap gap-2">
+        <Button variant="secondary" onClick={() => setMarkers(automatic)} disabled={!moved}>
+          Back to the automatic markers
+        </Button>
+        {onUse && shown && found && shown.roundTripNs > 0 && (
           <Button
             variant="secondary"
             onClick={() =>
               onUse({
-                roundTripNs: data.roundTripNs!,
+                roundTripNs: shown.roundTripNs,
                 riseTimeNs: data.riseTimeNs,
-                velocityFactor: data.estimate?.velocityFactor,
+                velocityFactor: velocityFactor ?? data.estimate?.velocityFactor,
               })
             }
           >
             Use this round trip in the TDR method
           </Button>
-        </div>
-      )}
+        )}
+      </div>
     </div>
   );
 }

@@ -4,7 +4,7 @@ import { createEventSchema, type CreateEventInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { ApiError } from '@/lib/api-client';
+import { showServerErrors } from '@/lib/form-errors';
 import type { PlanningPeople } from '../api/types';
 
 export function EventForm({ organisers, onCreate }: { organisers: PlanningPeople['organisers']; onCreate: (v: CreateEventInput) => Promise<unknown> }) {
@@ -19,8 +19,7 @@ export function EventForm({ organisers, onCreate }: { organisers: PlanningPeople
           await onCreate(v);
           form.reset();
         } catch (err) {
-          if (err instanceof ApiError) for (const e of err.errors) form.setError(e.path as keyof CreateEventInput, { message: e.message });
-          form.setError('root', { message: err instanceof Error ? err.message : 'Could not create the event.' });
+          showServerErrors(form.setError, err, 'Could not create the event.');
         }
       })}
     >

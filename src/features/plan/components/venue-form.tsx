@@ -3,7 +3,7 @@ import type { CreateVenueInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { ApiError } from '@/lib/api-client';
+import { fieldErrorOf } from '@/lib/form-errors';
 import type { ProfileChoice } from './venue-details-form';
 
 /** A new venue of the event, empty or cloned from an earlier venue (strips, positions, items, steps; no readings). */
@@ -22,7 +22,7 @@ export function VenueForm({
   const [copyTechnicians, setCopyTechnicians] = useState(false);
   const [error, setError] = useState<unknown>(null);
   const chosenProfile = profileId || profiles[0]?.versions[0]?.id || '';
-  const fieldError = (p: string) => (error instanceof ApiError ? error.errors.find((e) => e.path === p)?.message : undefined);
+  const fieldError = (p: string) => fieldErrorOf(error, p);
   return (
     <form
       noValidate
