@@ -31,9 +31,29 @@ export function bestOf<T>(n: number, fn: () => T): { ms: number; value: T } {
   return best;
 }
 
+/** bestOf for work that returns a promise. */
+export async function bestOfAsync<T>(n: number, fn: () => Promise<T>): Promise<{ ms: number; value: T }> {
+  await fn();
+  let best: { ms: number; value: T } | null = null;
+  for (let i = 0; i < n; i++) {
+    const t0 = performance.now();
+    const value = await fn();
+    const ms = performance.now() - t0;
+    if (!best || ms < best.ms) best = { ms, value };
+  }
+  return best!;
+}
+
 export async function startServer(port: number) {
   const dir = mkdtempSync(join(tmpdir(), 'sw-bench-'));
-  const child: ChildProcess = spawn('npx', ['tsx', 'server/index.ts'], {
+  // Something already answering there would be measured instead of this code: refuse.
+  const busy = await fetch(`http://localhost:${port}/api/health`).then(
+    () => true,
+    () => false,
+  );
+  if (busy) throw new Error(`Port ${port} is already in use; stop what runs there first.`);
+  // node itself (not npx) so that the pid killed at the end is the server's.
+  const child: ChildProcess = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
     env: {
       ...process.env,
       PORT: String(port),
@@ -48,7 +68,9 @@ export async function startServer(port: number) {
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   const base = `http://localhost:${port}`;
-  for (let i = 0; i < 200; i++) {
+  let exited = false;
+  child.once('exit', () => (exited = true));
+  for (let i = 0; i < 200 && !exited; i++) {
     try {
       const res = await fetch(`${base}/api/health`);
       if (res.ok) break;
@@ -57,11 +79,13 @@ export async function startServer(port: number) {
     }
     await new Promise((r) => setTimeout(r, 250));
   }
+  if (exited) throw new Error(`The server on port ${port} did not start.`);
   return {
     base,
     dir,
     stop: () =>
       new Promise<void>((resolve) => {
+        if (exited) return resolve();
         child.once('exit', () => resolve());
         child.kill('SIGTERM');
       }),

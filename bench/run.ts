@@ -8,6 +8,8 @@ const all: Record<string, () => Promise<{ run: () => Promise<BenchResult> }>> = 
   writes: () => import('./writes.bench'),
   waveform: () => import('./waveform.bench'),
   verdicts: () => import('./verdicts.bench'),
+  certificate: () => import('./certificate.bench'),
+  'testing-screen': () => import('./testing-screen.bench'),
 };
 
 const wanted = process.argv.slice(2).length ? process.argv.slice(2) : Object.keys(all);

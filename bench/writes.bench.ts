@@ -3,14 +3,16 @@
 import autocannon from 'autocannon';
 import Database from 'better-sqlite3';
 import { randomUUID } from 'node:crypto';
+import { spawn } from 'node:child_process';
 import { join } from 'node:path';
 import { signInCookie, startServer, type BenchResult } from './lib';
 
-const PORT = 4301;
-const COUNT = 4000;
+const PORT = 4401;
+const COUNT = 6000;
+const WARM_UP = 500;
 
-function rawCommitsPerSecond(dir: string, n: number): number {
-  const db = new Database(join(dir, 'raw.db'));
+function rawCommitsPerSecond(dir: string, n: number, k: number): number {
+  const db = new Database(join(dir, `raw-${k}.db`));
   db.pragma('journal_mode = WAL');
   db.pragma('synchronous = FULL');
   db.exec('create table r (id text primary key, step_id text not null, value text not null, taken_at text not null)');
@@ -20,6 +22,30 @@ function rawCommitsPerSecond(dir: string, n: number): number {
   const ms = performance.now() - t0;
   db.close();
   return n / (ms / 1000);
+}
+
+/** The same load against bench/http-floor-server.ts: what HTTP alone costs on this machine. */
+async function httpFloorPerSecond(body: () => string): Promise<number> {
+  const port = PORT + 50;
+  const child = spawn(process.execPath, ['--import', 'tsx', 'bench/http-floor-server.ts'], { env: { ...process.env, PORT: String(port) }, stdio: 'ignore' });
+  try {
+    for (let i = 0; i < 100; i++) {
+      if (await fetch(`http://localhost:${port}/api/health`).then((r) => r.ok, () => false)) break;
+      await new Promise((r) => setTimeout(r, 100));
+    }
+    const run = (amount: number) =>
+      autocannon({
+        url: `http://localhost:${port}`,
+        connections: 32,
+        amount,
+        requests: [{ method: 'POST', path: '/api/readings', headers: { 'Content-Type': 'application/json', Cookie: 'sw_session=x' }, setupRequest: (req) => ({ ...req, body: body() }) }],
+      });
+    await run(WARM_UP);
+    const r = await run(COUNT);
+    return r.requests.total / r.duration;
+  } finally {
+    child.kill('SIGTERM');
+  }
 }
 
 export async function run(): Promise<BenchResult> {
@@ -38,10 +64,10 @@ export async function run(): Promise<BenchResult> {
         for (const st of p.steps) steps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
     }
     let i = 0;
-    const api = await autocannon({
+    const load = (amount: number) => autocannon({
       url: server.base,
       connections: 32,
-      amount: COUNT,
+      amount,
       requests: [
         {
           method: 'POST',
@@ -54,8 +80,14 @@ export async function run(): Promise<BenchResult> {
         },
       ],
     });
-    const raw = rawCommitsPerSecond(server.dir, 2000);
-    const writesPerSecond = api.requests.average;
+    await load(WARM_UP); // the server's JIT warms up on the first few hundred requests
+    const api = await load(COUNT);
+    // Median of three runs: the machine is shared, one run can be disturbed.
+    const raws = [1, 2, 3].map((k) => rawCommitsPerSecond(server.dir, 2000, k)).sort((a, b) => a - b);
+    const raw = raws[1];
+    const floor = await httpFloorPerSecond(() => JSON.stringify({ id: randomUUID(), stepId: steps[0].id, value: '0.45' }));
+    // requests.average is a mean of per-second buckets: coarse for a run of a few seconds.
+    const writesPerSecond = api.requests.total / api.duration;
     const ratio = writesPerSecond / raw;
     const p99 = api.latency.p99;
     return {
@@ -70,8 +102,13 @@ export async function run(): Promise<BenchResult> {
         errors: api.errors,
         writesPerSecond: Math.round(writesPerSecond),
         rawCommitsPerSecond: Math.round(raw),
+        // The ceiling HTTP alone puts on this machine (autocannon shares the two cores).
+        httpFloorPerSecond: Math.round(floor),
+        httpFloorRatioToRaw: +(floor / raw).toFixed(3),
+        apiShareOfHttpFloor: +(writesPerSecond / floor).toFixed(3),
         p50Ms: api.latency.p50,
         p99Ms: p99,
+        apiSeconds: +api.duration.toFixed(2),
         stepsCycled: steps.length,
       },
     };

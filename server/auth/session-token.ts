@@ -16,10 +16,21 @@ export async function signSessionToken(secret: Uint8Array, sessionId: string, us
     .sign(secret);
 }
 
+// The secret imported once as a key: jose otherwise imports the raw bytes again on every request.
+const keys = new WeakMap<Uint8Array, Promise<CryptoKey>>();
+function verifyKey(secret: Uint8Array): Promise<CryptoKey> {
+  let key = keys.get(secret);
+  if (!key) {
+    key = crypto.subtle.importKey('raw', secret as BufferSource, { name: 'HMAC', hash: 'SHA-256' }, false, ['verify']);
+    keys.set(secret, key);
+  }
+  return key;
+}
+
 /** Null for anything not a valid, unexpired token of ours: no exceptions leak out. */
 export async function verifySessionToken(secret: Uint8Array, token: string) {
   try {
-    const { payload } = await jwtVerify(token, secret, {
+    const { payload } = await jwtVerify(token, await verifyKey(secret), {
       algorithms: ['HS256'],
       audience: AUDIENCE,
       issuer: ISSUER,

@@ -1,5 +1,6 @@
 import type { Db, Tx } from './client';
 import { auditLog } from './schema';
+import { placeholdersOf, prepared } from './prepared';
 import { and, desc, eq } from 'drizzle-orm';
 
 export interface AuditEntry {
@@ -13,16 +14,16 @@ export interface AuditEntry {
 
 // Called inside the same transaction as the change it records.
 export function writeAudit(db: Db | Tx, e: AuditEntry) {
-  db.insert(auditLog)
-    .values({
-      orgId: e.orgId,
-      actorId: e.actorId,
-      action: e.action,
-      entityType: e.entityType,
-      entityId: e.entityId,
-      detailJson: JSON.stringify(e.detail ?? {}),
-    })
-    .run();
+  const row = {
+    orgId: e.orgId,
+    actorId: e.actorId,
+    action: e.action,
+    entityType: e.entityType,
+    entityId: e.entityId,
+    detailJson: JSON.stringify(e.detail ?? {}),
+  };
+  const p = placeholdersOf(row);
+  prepared(db, `audit.insert:${p.key}`, (d) => d.insert(auditLog).values(p.values).prepare()).run(row);
 }
 
 export function listAudit(db: Db, filter: { orgId: string; entityType?: string; entityId?: string }, limit = 200) {

@@ -1,20 +1,23 @@
-import { and, eq, isNull } from 'drizzle-orm';
+import { and, eq, isNull, sql } from 'drizzle-orm';
 import type { Db } from './client';
 import { sessions, userTokens, users } from './schema';
+import { prepared } from './prepared';
 
 export type UserRow = typeof users.$inferSelect;
 
 export function authRepository(db: Db) {
   return {
     findUserByEmail: (email: string) => db.select().from(users).where(eq(users.email, email)).get(),
-    findUserById: (id: string) => db.select().from(users).where(eq(users.id, id)).get(),
+    findUserById: (id: string) =>
+      prepared(db, 'auth.userById', (d) => d.select().from(users).where(eq(users.id, sql.placeholder('id'))).prepare()).get({ id }),
     listUsers: (orgId: string) => db.select().from(users).where(eq(users.orgId, orgId)).orderBy(users.name).all(),
     insertUser: (row: typeof users.$inferInsert) => db.insert(users).values(row).run(),
     updateUser: (id: string, patch: Partial<typeof users.$inferInsert>) =>
       db.update(users).set(patch).where(eq(users.id, id)).run(),
 
     insertSession: (row: typeof sessions.$inferInsert) => db.insert(sessions).values(row).run(),
-    findSession: (id: string) => db.select().from(sessions).where(eq(sessions.id, id)).get(),
+    findSession: (id: string) =>
+      prepared(db, 'auth.session', (d) => d.select().from(sessions).where(eq(sessions.id, sql.placeholder('id'))).prepare()).get({ id }),
     touchSession: (id: string, at: string) => db.update(sessions).set({ lastSeenAt: at }).where(eq(sessions.id, id)).run(),
     revokeSession: (id: string, at: string) =>
       db.update(sessions).set({ revokedAt: at }).where(and(eq(sessions.id, id), isNull(sessions.revokedAt))).run(),

@@ -1,6 +1,7 @@
-import { and, asc, desc, eq, inArray, ne } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, ne, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { equipment, faultEstimates, faults, positions, repairs, strips, users } from './schema';
+import { prepared } from './prepared';
 
 export type FaultRow = typeof faults.$inferSelect;
 export type FaultEstimateRow = typeof faultEstimates.$inferSelect;
@@ -35,19 +36,26 @@ export function faultsRepository(db: Db | Tx) {
         .all(),
     /** A fault not yet closed on this step, if any: a second failure does not open a second fault. */
     unclosedOfStep: (stepId: string) =>
-      db
-        .select()
-        .from(faults)
-        .where(and(eq(faults.stepId, stepId), ne(faults.status, 'closed')))
-        .orderBy(desc(faults.openedAt))
-        .get(),
-    ofReading: (readingId: string) => db.select().from(faults).where(eq(faults.readingId, readingId)).get(),
+      prepared(db, 'faults.unclosedOfStep', (d) =>
+        d
+          .select()
+          .from(faults)
+          .where(and(eq(faults.stepId, sql.placeholder('stepId')), ne(faults.status, 'closed')))
+          .orderBy(desc(faults.openedAt))
+          .prepare(),
+      ).get({ stepId }),
+    ofReading: (readingId: string) =>
+      prepared(db, 'faults.ofReading', (d) => d.select().from(faults).where(eq(faults.readingId, sql.placeholder('readingId'))).prepare()).get({
+        readingId,
+      }),
     repairedOfPosition: (positionId: string) =>
-      db
-        .select()
-        .from(faults)
-        .where(and(eq(faults.positionId, positionId), eq(faults.status, 'repaired')))
-        .all(),
+      prepared(db, 'faults.repairedOfPosition', (d) =>
+        d
+          .select()
+          .from(faults)
+          .where(and(eq(faults.positionId, sql.placeholder('positionId')), eq(faults.status, 'repaired')))
+          .prepare(),
+      ).all({ positionId }),
     insert: (row: typeof faults.$inferInsert) => db.insert(faults).values(row).run(),
     /** Applies a change only when the version still matches; false when someone changed it meanwhile. */
     update: (id: string, expectedVersion: number, patch: Partial<typeof faults.$inferInsert>) =>

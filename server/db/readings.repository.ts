@@ -1,6 +1,7 @@
-import { eq } from 'drizzle-orm';
+import { eq, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { readings, users } from './schema';
+import { placeholdersOf, prepared } from './prepared';
 
 export type NewReading = typeof readings.$inferInsert;
 
@@ -8,12 +9,17 @@ export type NewReading = typeof readings.$inferInsert;
 export function readingsRepository(db: Db | Tx) {
   return {
     findById: (id: string) =>
-      db
-        .select({ reading: readings, takenByName: users.name })
-        .from(readings)
-        .leftJoin(users, eq(readings.takenBy, users.id))
-        .where(eq(readings.id, id))
-        .get(),
-    insert: (row: NewReading) => db.insert(readings).values(row).run(),
+      prepared(db, 'readings.findById', (d) =>
+        d
+          .select({ reading: readings, takenByName: users.name })
+          .from(readings)
+          .leftJoin(users, eq(readings.takenBy, users.id))
+          .where(eq(readings.id, sql.placeholder('id')))
+          .prepare(),
+      ).get({ id }),
+    insert: (row: NewReading) => {
+      const p = placeholdersOf(row);
+      return prepared(db, `readings.insert:${p.key}`, (d) => d.insert(readings).values(p.values).prepare()).run(row);
+    },
   };
 }

@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, isNull, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { equipment, events, limitProfiles, positions, readings, steps, strips, users, venues } from './schema';
+import { prepared } from './prepared';
 
 export type StepRow = typeof steps.$inferSelect;
 export type PositionRow = typeof positions.$inferSelect;
@@ -24,16 +25,18 @@ export function stripsRepository(db: Db | Tx) {
 
     /** A step with everything needed to judge a reading on it. */
     stepContext: (stepId: string) =>
-      db
-        .select({ step: steps, position: positions, strip: strips, venue: venues, event: events, equipment })
-        .from(steps)
-        .innerJoin(positions, eq(steps.positionId, positions.id))
-        .innerJoin(strips, eq(positions.stripId, strips.id))
-        .innerJoin(venues, eq(strips.venueId, venues.id))
-        .innerJoin(events, eq(venues.eventId, events.id))
-        .leftJoin(equipment, eq(positions.equipmentId, equipment.id))
-        .where(eq(steps.id, stepId))
-        .get(),
+      prepared(db, 'strips.stepContext', (d) =>
+        d
+          .select({ step: steps, position: positions, strip: strips, venue: venues, event: events, equipment })
+          .from(steps)
+          .innerJoin(positions, eq(steps.positionId, positions.id))
+          .innerJoin(strips, eq(positions.stripId, strips.id))
+          .innerJoin(venues, eq(strips.venueId, venues.id))
+          .innerJoin(events, eq(venues.eventId, events.id))
+          .leftJoin(equipment, eq(positions.equipmentId, equipment.id))
+          .where(eq(steps.id, sql.placeholder('stepId')))
+          .prepare(),
+      ).get({ stepId }),
 
     positionContext: (positionId: string) =>
       db
@@ -46,7 +49,8 @@ export function stripsRepository(db: Db | Tx) {
         .where(eq(positions.id, positionId))
         .get(),
 
-    profile: (id: string) => db.select().from(limitProfiles).where(eq(limitProfiles.id, id)).get(),
+    profile: (id: string) =>
+      prepared(db, 'strips.profile', (d) => d.select().from(limitProfiles).where(eq(limitProfiles.id, sql.placeholder('id'))).prepare()).get({ id }),
 
     positionsWithEquipment: (stripId: string) =>
       db

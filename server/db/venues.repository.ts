@@ -1,6 +1,7 @@
 import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { events, faults, positions, steps, strips, venueTechnicians, venues, equipment } from './schema';
+import { prepared } from './prepared';
 
 export type VenueRow = typeof venues.$inferSelect;
 export type EventRow = typeof events.$inferSelect;
@@ -8,18 +9,25 @@ export type EventRow = typeof events.$inferSelect;
 export function venuesRepository(db: Db | Tx) {
   return {
     findVenue: (id: string) =>
-      db
-        .select({ venue: venues, event: events })
-        .from(venues)
-        .innerJoin(events, eq(venues.eventId, events.id))
-        .where(eq(venues.id, id))
-        .get(),
+      prepared(db, 'venues.findVenue', (d) =>
+        d
+          .select({ venue: venues, event: events })
+          .from(venues)
+          .innerJoin(events, eq(venues.eventId, events.id))
+          .where(eq(venues.id, sql.placeholder('id')))
+          .prepare(),
+      ).get({ id }),
     isAssigned: (venueId: string, userId: string) =>
-      !!db
-        .select()
-        .from(venueTechnicians)
-        .where(and(eq(venueTechnicians.venueId, venueId), eq(venueTechnicians.userId, userId)))
-        .get(),
+      !!prepared(db, 'venues.isAssigned', (d) =>
+        d
+          .select({ userId: venueTechnicians.userId })
+          .from(venueTechnicians)
+          .where(and(eq(venueTechnicians.venueId, sql.placeholder('venueId')), eq(venueTechnicians.userId, sql.placeholder('userId'))))
+          .prepare(),
+      ).get({ venueId, userId }),
+    /** The venue row alone, by id. */
+    venueById: (id: string) =>
+      prepared(db, 'venues.venueById', (d) => d.select().from(venues).where(eq(venues.id, sql.placeholder('id'))).prepare()).get({ id }),
     venuesOfOrg: (orgId: string) =>
       db
         .select({ venue: venues, event: events })

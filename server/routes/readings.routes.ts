@@ -10,8 +10,8 @@ export const TESTERS = ['director', 'technician'] as const;
 export function readingsRoutes(deps: AppDeps) {
   const api = new ApiRouter();
   const readings = readingsService(deps);
-  api.post('/readings', TESTERS, validate(createReadingSchema), (req, res) => {
-    const { replayed, reading } = readings.create(req.user!, req.body);
+  api.post('/readings', TESTERS, validate(createReadingSchema), async (req, res) => {
+    const { replayed, reading } = await readings.create(req.user!, req.body);
     res.status(replayed ? 200 : 201).location(`/api/readings/${reading.id}`).json(reading);
   });
   api.get('/readings/:id', STAFF, validate(idParams, 'params'), (req, res) => {

@@ -291,6 +291,8 @@ export function planService(deps: AppDeps) {
           patch.profileId = row.id;
           syncLoopSteps(tx, venueId, toLimitProfile(row), nowIso());
         }
+        // Saving the details unchanged is not an error; there is just nothing to write.
+        if (Object.keys(patch).length === 0) return;
         planRepository(tx).updateVenue(venueId, patch);
         audit(tx, user, 'venue.updated', 'venue', venueId, {
           venueId,

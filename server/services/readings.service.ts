@@ -8,6 +8,7 @@ import { readingsRepository } from '../db/readings.repository';
 import { stripsRepository, latestByStep, type LimitProfileRow, type ReadingRow } from '../db/strips.repository';
 import { faultsRepository } from '../db/faults.repository';
 import { writeAudit } from '../db/audit.repository';
+import { groupCommit } from '../db/group-commit';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
@@ -17,13 +18,26 @@ import { evaluateReading, NoRuleError, ReadingInputError, type LimitProfile, typ
 import type { CreateReadingInput, ReadingDto } from '../../shared/schemas/readings';
 import type { FaultKind } from '../../shared/schemas/faults';
 
+// Parsed profiles by id and version: every reading is judged against one, and parsing its rules
+// each time was a large share of a write. Profile rows are never rewritten (an edit adds a version);
+// the stored text is compared as well so a changed row can never be served stale.
+const parsedProfiles = new Map<string, { rulesJson: string; loopRequiredJson: string; profile: LimitProfile }>();
+
 export function toLimitProfile(row: LimitProfileRow): LimitProfile {
-  return {
+  const key = `${row.id}:${row.version}`;
+  const hit = parsedProfiles.get(key);
+  if (hit && hit.rulesJson === row.rulesJson && hit.loopRequiredJson === row.loopRequiredJson && hit.profile.name === row.name) {
+    return hit.profile;
+  }
+  const profile: LimitProfile = {
     name: row.name,
     version: row.version,
     rules: JSON.parse(row.rulesJson) as LimitRule[],
     loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
   };
+  if (parsedProfiles.size >= 500) parsedProfiles.clear();
+  parsedProfiles.set(key, { rulesJson: row.rulesJson, loopRequiredJson: row.loopRequiredJson, profile });
+  return profile;
 }
 
 export function presentReading(r: ReadingRow, takenByName: string | null, faultId?: string | null): ReadingDto {
@@ -93,16 +107,17 @@ export function readingsService(deps: AppDeps) {
 
   /**
    * Records a reading. Answers `replayed: true` with the stored reading when the same id comes
-   * again with the same body (an offline client retrying).
+   * again with the same body (an offline client retrying). Settles once the reading is durable:
+   * readings arriving together share one commit (server/db/group-commit.ts).
    */
-  function create(user: AuthUser, body: CreateReadingInput): { replayed: boolean; reading: ReadingDto } {
+  function create(user: AuthUser, body: CreateReadingInput): Promise<{ replayed: boolean; reading: ReadingDto }> {
     const strips = stripsRepository(deps.db);
     const ctx = strips.stepContext(body.stepId);
     if (!ctx) throw notFound('That step');
     access.requireVenue(user, ctx.venue.id, 'test');
     const hash = requestHash(body);
 
-    return deps.db.transaction((tx) => {
+    return groupCommit(deps.sqlite).run(() => deps.db.transaction((tx) => {
       const readings = readingsRepository(tx);
       const existing = readings.findById(body.id);
       if (existing) {
@@ -195,7 +210,7 @@ export function readingsService(deps: AppDeps) {
           ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
         },
       });
-      reopenIfSignedOff(tx, {
+      const venueReopened = reopenIfSignedOff(tx, {
         venueId: ctx.venue.id,
         orgId: user.orgId,
         actorId: user.id,
@@ -207,8 +222,11 @@ export function readingsService(deps: AppDeps) {
           ? onFailure(tx, user, ctx, body.id, parsedValue.overRange, takenAt)
           : onPass(tx, user, ctx.position.id, body, takenAt);
       const stored = readings.findById(body.id)!;
-      return { replayed: false, reading: presentReading(stored.reading, stored.takenByName, faultId) };
-    });
+      const reading = presentReading(stored.reading, stored.takenByName, faultId);
+      // Tell the tablet: a reading that waited offline may have landed on a venue signed off meanwhile.
+      if (venueReopened) reading.venueReopened = true;
+      return { replayed: false, reading };
+    }));
   }
 
   /** Opens a fault unless one is already open on this step; a failed retest sends a repaired fault back to open. */

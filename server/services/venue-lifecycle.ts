@@ -4,12 +4,13 @@ import { and, eq } from 'drizzle-orm';
 import type { Tx } from '../db/client';
 import { certificates, signOffs, venues } from '../db/schema';
 import { writeAudit } from '../db/audit.repository';
+import { venuesRepository } from '../db/venues.repository';
 
 export function reopenIfSignedOff(
   tx: Tx,
   v: { venueId: string; orgId: string; actorId: string; reason: string },
 ): boolean {
-  const venue = tx.select().from(venues).where(eq(venues.id, v.venueId)).get();
+  const venue = venuesRepository(tx).venueById(v.venueId);
   if (!venue || venue.status !== 'signed-off') return false;
   const at = new Date().toISOString();
   tx.update(venues).set({ status: 'testing', version: venue.version + 1 }).where(eq(venues.id, v.venueId)).run();

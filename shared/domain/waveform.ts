@@ -2,6 +2,7 @@
 // edge and the first reflection, and measure the round trip between their 50 % points.
 
 import { FaultLocationError, locateByTdr, type FaultEstimate } from './fault-location';
+import { indexAtOrBefore } from './decimate';
 
 export class WaveformError extends Error {
   readonly code = 'waveform-refused';
@@ -157,6 +158,18 @@ function parseRow(
     out.columns = fields.length;
     return true;
   }
+  // Fast path, the common line "number,number": each character is read once, the delimiter found
+  // where the first number stops. Anything else takes the general path below.
+  const t0 = scanNumber(text, start, end, decimalComma);
+  if (scanExact && scanStop < end && text.charCodeAt(scanStop) === delimiter.charCodeAt(0)) {
+    const v0 = scanNumber(text, scanStop + 1, end, decimalComma);
+    if (scanExact && scanStop === end) {
+      out.time = t0;
+      out.volts = v0;
+      out.columns = 2;
+      return true;
+    }
+  }
   const i1 = indexWithin(text, delimiter, start, end);
   if (i1 === -1) return false;
   let i2 = indexWithin(text, delimiter, i1 + 1, end);
@@ -188,6 +201,20 @@ const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12,
  * correctly rounded operation (Clinger's fast path). Anything else goes to Number().
  */
 function fieldNumber(text: string, start: number, end: number, decimalComma: boolean): number {
+  const value = scanNumber(text, start, end, decimalComma);
+  return scanExact && scanStop === end ? value : toNumber(text.slice(start, end), decimalComma);
+}
+
+// Where scanNumber stopped, and whether its value is exact (else the caller falls back to Number()).
+let scanStop = 0;
+let scanExact = false;
+
+/**
+ * Reads a number from `start`, stopping at the first character that cannot continue it (or at
+ * `end`); sets scanStop there and scanExact when the fast path applies (Clinger, see above).
+ */
+function scanNumber(text: string, start: number, end: number, decimalComma: boolean): number {
+  scanExact = false;
   let i = start;
   let negative = false;
   let c = text.charCodeAt(i);
@@ -207,7 +234,8 @@ function fieldNumber(text: string, start: number, end: number, decimalComma: boo
     } else if ((c === 46 || (decimalComma && c === 44)) && !seenPoint) seenPoint = true;
     else break;
   }
-  if (digits === 0 || digits > 15) return toNumber(text.slice(start, end), decimalComma);
+  scanStop = i;
+  if (digits === 0 || digits > 15) return NaN;
   if (i < end && (c === 101 || c === 69)) {
     c = text.charCodeAt(++i);
     let expNegative = false;
@@ -221,10 +249,12 @@ function fieldNumber(text: string, start: number, end: number, decimalComma: boo
       exp = exp * 10 + (c - 48);
       expDigits++;
     }
-    if (expDigits === 0 || expDigits > 3) return toNumber(text.slice(start, end), decimalComma);
+    scanStop = i;
+    if (expDigits === 0 || expDigits > 3) return NaN;
     scale += expNegative ? -exp : exp;
   }
-  if (i !== end || scale < -22 || scale > 22) return toNumber(text.slice(start, end), decimalComma);
+  if (scale < -22 || scale > 22) return NaN;
+  scanExact = true;
   const value = scale < 0 ? mantissa / POW10[-scale]! : mantissa * POW10[scale]!;
   return negative ? -value : value;
 }
@@ -289,8 +319,13 @@ export function analyseWaveform(trace: Trace, opts?: WaveformOptions): WaveformA
   const h = Math.max(4, Math.min(32, Math.round(n / 256)));
   const noiseD = noiseV * Math.sqrt(2 / h);
 
+  // Two buffers serve both passes (a million samples is 8 MB a buffer): prefix sums of the
+  // filtered trace, and the step detector's output.
+  const prefix = new Float64Array(n + 1);
+  const stepBuf = new Float64Array(n);
   // Pass 1 on the raw trace, only to find where the baseline ends.
-  const rough = stepDetector(median5(volts), h);
+  median5Prefix(volts, prefix);
+  const rough = stepFromPrefix(prefix, n, h, stepBuf);
   const roughIncident = findIncident(rough, noiseD);
   if (!roughIncident) {
     throw new WaveformError(
@@ -307,12 +342,15 @@ export function analyseWaveform(trace: Trace, opts?: WaveformOptions): WaveformA
   }
   const baseline = fitBaseline(timeS, volts, preEdge);
 
-  // Pass 2 on the trace with the baseline (and its slope) taken off.
-  const detrended = new Float64Array(n);
-  for (let i = 0; i < n; i++) detrended[i] = volts[i]! - (baseline.interceptV + baseline.slopeVPerS * timeS[i]!);
-  const filtered = median5(detrended);
-  const smooth = boxMean(filtered, 3);
-  const d = stepDetector(filtered, h);
+  // Pass 2 on the trace with the baseline (and its slope) taken off: detrend, median-5 and prefix
+  // sums in one loop; the 3-sample mean and the step detector read the prefix sums.
+  const filtered = detrendedMedian5(timeS, volts, baseline, prefix);
+  const smooth = (i: number) => {
+    const s = Math.max(0, i - 1);
+    const e = Math.min(n, i + 2);
+    return (prefix[e]! - prefix[s]!) / (e - s);
+  };
+  const d = stepFromPrefix(prefix, n, h, stepBuf);
   const incident = findIncident(d, noiseD);
   if (!incident) throw new WaveformError('No incident edge found after removing the baseline.');
   const peakD = Math.abs(d[incident.region.peak]!);
@@ -584,17 +622,58 @@ function meanOf(values: Float64Array, start: number, end: number): number {
   return sum / (e - s);
 }
 
-/** Median of 5: removes spikes and keeps edges where they are (a monotone edge is unchanged). */
-function median5(x: Float64Array): Float64Array {
+// Median of 5 removes spikes and keeps edges where they are (a monotone edge is unchanged); the
+// two samples at either end are kept as they are.
+
+/** prefix[i + 1] = Σ median5(x)[0…i], without keeping the filtered trace. */
+function median5Prefix(x: Float64Array, prefix: Float64Array): void {
   const n = x.length;
+  prefix[0] = 0;
+  prefix[1] = x[0]!;
+  prefix[2] = prefix[1]! + x[1]!;
+  for (let i = 2; i < n - 2; i++) prefix[i + 1] = prefix[i]! + median5Of(x[i - 2]!, x[i - 1]!, x[i]!, x[i + 1]!, x[i + 2]!);
+  prefix[n - 1] = prefix[n - 2]! + x[n - 2]!;
+  prefix[n] = prefix[n - 1]! + x[n - 1]!;
+}
+
+/**
+ * median5(volts − baseline) in one pass over the trace (a sliding window of five detrended values),
+ * with its prefix sums written to `prefix`.
+ */
+function detrendedMedian5(
+  timeS: Float64Array,
+  volts: Float64Array,
+  baseline: { interceptV: number; slopeVPerS: number },
+  prefix: Float64Array,
+): Float64Array {
+  const n = volts.length;
+  const { interceptV, slopeVPerS } = baseline;
   const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    if (i < 2 || i > n - 3) {
-      out[i] = x[i]!;
-      continue;
-    }
-    out[i] = median5Of(x[i - 2]!, x[i - 1]!, x[i]!, x[i + 1]!, x[i + 2]!);
+  const at = (i: number) => volts[i]! - (interceptV + slopeVPerS * timeS[i]!);
+  let w0 = at(0);
+  let w1 = at(1);
+  let w2 = at(2);
+  let w3 = at(3);
+  let w4 = at(4);
+  out[0] = w0;
+  out[1] = w1;
+  prefix[0] = 0;
+  prefix[1] = w0;
+  prefix[2] = w0 + w1;
+  for (let i = 2; i < n - 2; i++) {
+    const m = median5Of(w0, w1, w2, w3, w4);
+    out[i] = m;
+    prefix[i + 1] = prefix[i]! + m;
+    w0 = w1;
+    w1 = w2;
+    w2 = w3;
+    w3 = w4;
+    if (i + 3 < n) w4 = at(i + 3);
   }
+  out[n - 2] = w2;
+  out[n - 1] = w3;
+  prefix[n - 1] = prefix[n - 2]! + w2;
+  prefix[n] = prefix[n - 1]! + w3;
   return out;
 }
 
@@ -605,30 +684,16 @@ function median5Of(a: number, b: number, c: number, d: number, e: number): numbe
   return Math.max(Math.min(e, f), Math.min(Math.max(e, f), g));
 }
 
-/** Centred moving average; symmetric, so it does not shift the 50 % point of an edge. */
-function boxMean(x: Float64Array, width: number): Float64Array {
-  const n = x.length;
-  const half = Math.floor(width / 2);
-  const prefix = new Float64Array(n + 1);
-  for (let i = 0; i < n; i++) prefix[i + 1] = prefix[i]! + x[i]!;
-  const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    const s = Math.max(0, i - half);
-    const e = Math.min(n, i + half + 1);
-    out[i] = (prefix[e]! - prefix[s]!) / (e - s);
-  }
-  return out;
-}
-
-/** D[i] = mean(x[i+1 … i+h]) − mean(x[i−h+1 … i]): the step between samples i and i+1. */
-function stepDetector(x: Float64Array, h: number): Float64Array {
-  const n = x.length;
-  const prefix = new Float64Array(n + 1);
-  for (let i = 0; i < n; i++) prefix[i + 1] = prefix[i]! + x[i]!;
-  const d = new Float64Array(n);
+/**
+ * D[i] = mean(x[i+1 … i+h]) − mean(x[i−h+1 … i]): the step between samples i and i+1, from the
+ * prefix sums of x, written into `d` (0 where the window does not fit).
+ */
+function stepFromPrefix(prefix: Float64Array, n: number, h: number, d: Float64Array): Float64Array {
+  for (let i = 0; i < h - 1; i++) d[i] = 0;
   for (let i = h - 1; i + h < n; i++) {
     d[i] = (prefix[i + h + 1]! - prefix[i + 1]! - (prefix[i + 1]! - prefix[i + 1 - h]!)) / h;
   }
+  for (let i = Math.max(h - 1, n - h); i < n; i++) d[i] = 0;
   return d;
 }
 
@@ -666,26 +731,26 @@ function findRegionAfter(d: Float64Array, from: number, detect: number, extent: 
  * between 20 % and 80 % of the step (noise averages out over several samples), solved for the
  * midpoint; plain interpolation between two samples when the edge is too steep for a fit.
  */
-function edgeMidpoint(timeS: Float64Array, y: Float64Array, lowV: number, highV: number, region: Region): number {
+function edgeMidpoint(timeS: Float64Array, y: (i: number) => number, lowV: number, highV: number, region: Region): number {
   const mid = (lowV + highV) / 2;
   const crossing = crossingNear(timeS, y, mid, region);
   const stepV = highV - lowV;
   const inBand = (i: number) => {
-    const f = (y[i]! - lowV) / stepV;
+    const f = (y(i) - lowV) / stepV;
     return f >= 0.2 && f <= 0.8;
   };
-  const at = Math.min(y.length - 2, Math.max(0, indexAtOrBefore(timeS, crossing)));
+  const at = Math.min(timeS.length - 2, Math.max(0, indexAtOrBefore(timeS, crossing)));
   let first = at + 1;
   while (first - 1 >= Math.max(0, region.start - 1) && inBand(first - 1)) first--;
   let last = at;
-  while (last + 1 <= Math.min(y.length - 1, region.end + 1) && inBand(last + 1)) last++;
+  while (last + 1 <= Math.min(timeS.length - 1, region.end + 1) && inBand(last + 1)) last++;
   if (last - first + 1 < 3) return crossing;
   const t0 = timeS[at]!;
   let st = 0;
   let sy = 0;
   for (let i = first; i <= last; i++) {
     st += timeS[i]! - t0;
-    sy += y[i]!;
+    sy += y(i);
   }
   const count = last - first + 1;
   const tMean = st / count;
@@ -695,7 +760,7 @@ function edgeMidpoint(timeS: Float64Array, y: Float64Array, lowV: number, highV:
   for (let i = first; i <= last; i++) {
     const dt = timeS[i]! - t0 - tMean;
     stt += dt * dt;
-    sty += dt * (y[i]! - yMean);
+    sty += dt * (y(i) - yMean);
   }
   if (stt === 0 || sty === 0 || Math.sign(sty) !== Math.sign(stepV)) return crossing;
   const fitted = t0 + tMean + (mid - yMean) / (sty / stt);
@@ -704,25 +769,25 @@ function edgeMidpoint(timeS: Float64Array, y: Float64Array, lowV: number, highV:
 }
 
 /** Time where `y` crosses `level` inside the region, interpolated linearly; the crossing nearest the peak wins. */
-function crossingNear(timeS: Float64Array, y: Float64Array, level: number, region: Region): number {
+function crossingNear(timeS: Float64Array, y: (i: number) => number, level: number, region: Region): number {
   const lo = Math.max(0, region.start - 1);
-  const hi = Math.min(y.length - 2, region.end + 1);
+  const hi = Math.min(timeS.length - 2, region.end + 1);
   let best = -1;
   for (let i = lo; i <= hi; i++) {
-    const a = y[i]! - level;
-    const b = y[i + 1]! - level;
+    const a = y(i) - level;
+    const b = y(i + 1) - level;
     if ((a <= 0 && b > 0) || (a >= 0 && b < 0)) {
       if (best === -1 || Math.abs(i - region.peak) < Math.abs(best - region.peak)) best = i;
     }
   }
   if (best === -1) return timeS[region.peak]! + (timeS[region.peak + 1]! - timeS[region.peak]!) / 2;
-  const a = y[best]! - level;
-  const b = y[best + 1]! - level;
+  const a = y(best) - level;
+  const b = y(best + 1) - level;
   const fraction = a === b ? 0.5 : a / (a - b);
   return timeS[best]! + fraction * (timeS[best + 1]! - timeS[best]!);
 }
 
-function riseTime(timeS: Float64Array, y: Float64Array, stepV: number, region: Region): number {
+function riseTime(timeS: Float64Array, y: (i: number) => number, stepV: number, region: Region): number {
   const t10 = crossingNear(timeS, y, 0.1 * stepV, region);
   const t90 = crossingNear(timeS, y, 0.9 * stepV, region);
   return Math.max(0, t90 - t10);
@@ -749,16 +814,6 @@ function baselineAt(baseline: { interceptV: number; slopeVPerS: number }, timeS:
   return baseline.interceptV + baseline.slopeVPerS * timeS;
 }
 
-function indexAtOrBefore(timeS: Float64Array, t: number): number {
-  let lo = 0;
-  let hi = timeS.length - 1;
-  while (lo < hi) {
-    const mid = (lo + hi + 1) >> 1;
-    if (timeS[mid]! <= t) lo = mid;
-    else hi = mid - 1;
-  }
-  return lo;
-}
 
 function interpolate(timeS: Float64Array, volts: Float64Array, t: number): number {
   const i = indexAtOrBefore(timeS, t);

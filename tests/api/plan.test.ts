@@ -114,6 +114,16 @@ describe('GET /api/venues/:id', () => {
 });
 
 describe('plan edits with If-Match', () => {
+  test('when the venue details are saved unchanged, then 200 and nothing is written', async () => {
+    const plan = await newVenue('Unchanged hall');
+    const marco = await t.agentFor(DEMO.director);
+    const loaded = await marco.get(`/api/venues/${plan.venue.id}`);
+    const res = await marco.patch(`/api/venues/${plan.venue.id}`).set('If-Match', tag(loaded)).send({ name: 'Unchanged hall' });
+    expect(res.status).toBe(200);
+    expect(res.body.venue.name).toBe('Unchanged hall');
+    expect(t.db.select().from(s.auditLog).all().filter((a) => a.action === 'venue.updated' && a.entityId === plan.venue.id)).toHaveLength(0);
+  });
+
   test('when two sessions edit the same plan, then the second write with the old ETag gets 412 and changes nothing', async () => {
     const first = await t.agentFor(DEMO.director);
     const second = await t.agentFor(DEMO.director);
