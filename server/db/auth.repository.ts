@@ -16,8 +16,16 @@ export function authRepository(db: Db) {
       db.update(users).set(patch).where(eq(users.id, id)).run(),
 
     insertSession: (row: typeof sessions.$inferInsert) => db.insert(sessions).values(row).run(),
-    findSession: (id: string) =>
-      prepared(db, 'auth.session', (d) => d.select().from(sessions).where(eq(sessions.id, sql.placeholder('id'))).prepare()).get({ id }),
+    /** A session and its user in one query: what every signed-in request looks up. */
+    findSessionWithUser: (id: string) =>
+      prepared(db, 'auth.sessionWithUser', (d) =>
+        d
+          .select({ session: sessions, user: users })
+          .from(sessions)
+          .innerJoin(users, eq(sessions.userId, users.id))
+          .where(eq(sessions.id, sql.placeholder('id')))
+          .prepare(),
+      ).get({ id }),
     touchSession: (id: string, at: string) => db.update(sessions).set({ lastSeenAt: at }).where(eq(sessions.id, id)).run(),
     revokeSession: (id: string, at: string) =>
       db.update(sessions).set({ revokedAt: at }).where(and(eq(sessions.id, id), isNull(sessions.revokedAt))).run(),

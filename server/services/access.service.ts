@@ -24,6 +24,21 @@ export function accessService(db: Db | Tx) {
     }
   }
 
+  /** The access check on a venue and event already read (with a step, say): no second look-up. */
+  function requireLoadedVenue<R extends NonNullable<ReturnType<typeof repo.findVenue>>>(user: AuthUser, row: R | undefined, mode: VenueAccessMode): R {
+    if (!row || row.event.orgId !== user.orgId) throw notFound('That venue');
+    if (!allowed(user, row, mode)) {
+      const why =
+        mode === 'sign-off'
+          ? 'Only the technical director of this event can sign the venue off.'
+          : mode === 'plan'
+            ? 'Only a technical director can change the venue plan.'
+            : 'You are not assigned to this venue.';
+      throw forbidden(why);
+    }
+    return row;
+  }
+
   return {
     /**
      * The venue and its event if the user may act on it this way. Another organisation's venue is
@@ -31,19 +46,9 @@ export function accessService(db: Db | Tx) {
      * is 403.
      */
     requireVenue(user: AuthUser, venueId: string, mode: VenueAccessMode) {
-      const row = repo.findVenue(venueId);
-      if (!row || row.event.orgId !== user.orgId) throw notFound('That venue');
-      if (!allowed(user, row, mode)) {
-        const why =
-          mode === 'sign-off'
-            ? 'Only the technical director of this event can sign the venue off.'
-            : mode === 'plan'
-              ? 'Only a technical director can change the venue plan.'
-              : 'You are not assigned to this venue.';
-        throw forbidden(why);
-      }
-      return row;
+      return requireLoadedVenue(user, repo.findVenue(venueId), mode);
     },
+    requireLoadedVenue,
     visibleVenues(user: AuthUser) {
       return user.role === 'technician' ? repo.venuesAssignedTo(user.id) : repo.venuesOfOrg(user.orgId);
     },

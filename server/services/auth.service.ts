@@ -84,13 +84,14 @@ export function authService(deps: AppDeps) {
     async resolve(token: string): Promise<{ user: AuthUser; sessionId: string } | null> {
       const claims = await verifySessionToken(deps.sessionSecret, token);
       if (!claims) return null;
-      const session = repo.findSession(claims.sessionId);
-      if (!session || session.revokedAt || session.userId !== claims.userId) return null;
+      const found = repo.findSessionWithUser(claims.sessionId);
+      if (!found) return null;
+      const { session, user } = found;
+      if (session.revokedAt || session.userId !== claims.userId) return null;
       const now = Date.now();
       if (Date.parse(session.expiresAt) <= now) return null;
       if (Date.parse(session.lastSeenAt) + idleMs <= now) return null;
-      const user = repo.findUserById(session.userId);
-      if (!user || user.disabled) return null;
+      if (user.disabled) return null;
       if (now - Date.parse(session.lastSeenAt) > TOUCH_EVERY_MS) repo.touchSession(session.id, new Date(now).toISOString());
       return { user: toAuthUser(user), sessionId: session.id };
     },

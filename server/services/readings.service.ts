@@ -114,7 +114,8 @@ export function readingsService(deps: AppDeps) {
     const strips = stripsRepository(deps.db);
     const ctx = strips.stepContext(body.stepId);
     if (!ctx) throw notFound('That step');
-    access.requireVenue(user, ctx.venue.id, 'test');
+    // The step's context already holds its venue and event: checked without reading them again.
+    access.requireLoadedVenue(user, { venue: ctx.venue, event: ctx.event }, 'test');
     const hash = requestHash(body);
 
     return groupCommit(deps.sqlite).run(() => deps.db.transaction((tx) => {
@@ -171,7 +172,7 @@ export function readingsService(deps: AppDeps) {
       }
 
       const takenAt = nowIso();
-      const row = {
+      const row: ReadingRow = {
         id: body.id,
         stepId: body.stepId,
         equipmentId: ctx.position.equipmentId,
@@ -221,8 +222,8 @@ export function readingsService(deps: AppDeps) {
         verdict.verdict === 'fail'
           ? onFailure(tx, user, ctx, body.id, parsedValue.overRange, takenAt)
           : onPass(tx, user, ctx.position.id, body, takenAt);
-      const stored = readings.findById(body.id)!;
-      const reading = presentReading(stored.reading, stored.takenByName, faultId);
+      // Answered from the row just inserted (every column is set above), not read back.
+      const reading = presentReading(row, user.name, faultId);
       // Tell the tablet: a reading that waited offline may have landed on a venue signed off meanwhile.
       if (venueReopened) reading.venueReopened = true;
       return { replayed: false, reading };
