@@ -24,7 +24,7 @@ export function AppShell({
   return (
     <div className="min-h-screen">
       <header className="bg-brand text-white">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-2">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-4 gap-y-2 px-4 py-2">
           <NavLink to="/" className="flex min-h-touch items-center gap-2 text-lg font-semibold tracking-wide">
             <svg aria-hidden viewBox="0 0 32 32" className="size-7">
               <rect width="32" height="32" rx="6" fill="#f2b33d" />
@@ -32,24 +32,25 @@ export function AppShell({
             </svg>
             Stripwarden
           </NavLink>
-          <nav aria-label="Main" className="flex flex-1 flex-wrap gap-1">
+          <nav aria-label="Main" className="order-last -mx-1 flex w-full gap-1 overflow-x-auto md:order-none md:mx-0 md:w-auto md:flex-1 md:flex-wrap">
             {items.map((n) => (
               <NavLink
                 key={n.to}
                 to={n.to}
                 end={n.to === '/'}
                 className={({ isActive }) =>
-                  `flex min-h-touch items-center rounded-md px-3 text-sm font-medium ${isActive ? 'bg-white/15' : 'hover:bg-white/10'}`
+                  `flex min-h-touch shrink-0 items-center rounded-md px-3 text-sm font-medium whitespace-nowrap ${isActive ? 'bg-white/15' : 'hover:bg-white/10'}`
                 }
               >
                 {n.label}
               </NavLink>
             ))}
           </nav>
-          <div className="flex items-center gap-3 text-sm">
+          <div className="ml-auto flex items-center gap-3 text-sm">
             {extra}
-            <span>
-              {user.name} · <span className="text-white/75">{ROLE_LABELS[user.role]}</span>
+            <span className="hidden sm:inline" title={ROLE_LABELS[user.role]}>
+              {user.name}
+              <span className="hidden text-white/75 2xl:inline"> · {ROLE_LABELS[user.role]}</span>
             </span>
             <button
               type="button"
