@@ -6,7 +6,8 @@ import { createHash } from 'node:crypto';
 import { A4, COLOURS, createDocument, Pen, table, toBuffer, type Column, type Frame, type TextStyle } from './layout';
 import type { CertificatePayload, CertifiedReading } from '../signing/certificate-record';
 import { formatOhm } from '../../shared/domain/units';
-import { TEST_KIND_LABELS } from '../../shared/domain/checklist';
+import { stepsForKind, TEST_KIND_LABELS } from '../../shared/domain/checklist';
+import type { TestKind } from '../../shared/domain/limits';
 
 export interface CertificateDocument {
   payload: CertificatePayload;
@@ -401,18 +402,22 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.table(doc.readings, readingColumns(), { size: 7.5, headerSize: 6, padY: 2.6, zebra: true });
 }
 
-// The strip certificate shows its readings as a grid: one row per item, one column per test.
+// The strip certificate shows its readings as a grid: one row per item, one column per test, in
+// the checklist's own order (a cable with its loop, then a piste).
+const SHORT: Record<TestKind, string> = {
+  continuity: 'Cont.',
+  insulation: 'Ins.',
+  loop: 'Loop',
+  'piste-end-to-end': 'Piste end to end',
+  'piste-earth': 'Piste earth',
+};
 const GRID: { key: string; header: string }[] = [
-  { key: 'continuity|A', header: 'Cont. A' },
-  { key: 'continuity|B', header: 'Cont. B' },
-  { key: 'continuity|C', header: 'Cont. C' },
-  { key: 'insulation|A-B', header: 'Ins. A-B' },
-  { key: 'insulation|A-C', header: 'Ins. A-C' },
-  { key: 'insulation|B-C', header: 'Ins. B-C' },
-  { key: 'loop|A-B', header: 'Loop A-B' },
-  { key: 'piste-end-to-end|piste', header: 'Piste end to end' },
-  { key: 'piste-earth|piste-C', header: 'Piste earth' },
-];
+  ...stepsForKind('floor-cable', { loopRequired: ['floor-cable'] }),
+  ...stepsForKind('piste', {}),
+].map((st) => ({
+  key: `${st.testKind}|${st.conductors}`,
+  header: st.testKind.startsWith('piste') ? SHORT[st.testKind] : `${SHORT[st.testKind]} ${st.conductors}`,
+}));
 interface GridRow {
   position: string;
   assetTag: string | null;

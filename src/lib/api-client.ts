@@ -56,7 +56,8 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
   if (!res.ok) {
     const p = (isJson ? data : {}) as { code?: string; detail?: string; errors?: FieldError[] };
     // Only a missing session signs the user out; a wrong re-entered password (sign-off) does not.
-    if (res.status === 401 && p.code !== 'wrong-password' && !path.startsWith('/auth/')) onUnauthenticated?.();
+    // Only a lost session signs the user out; other 401s (a wrong password re-entered at sign-off) do not.
+    if (res.status === 401 && p.code === 'unauthenticated' && !path.startsWith('/auth/')) onUnauthenticated?.();
     throw new ApiError(res.status, p.code ?? 'error', p.detail ?? `The server answered ${res.status}.`, p.errors ?? [], p as Record<string, unknown>);
   }
   return data as T;

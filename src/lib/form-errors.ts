@@ -1,4 +1,4 @@
-import type { FieldValues, Path, UseFormSetError } from 'react-hook-form';
+import type { FieldValues, Path, UseFormReset, UseFormSetError } from 'react-hook-form';
 import { ApiError } from './api-client';
 
 /**
@@ -12,3 +12,19 @@ export function showServerErrors<T extends FieldValues>(setError: UseFormSetErro
 
 /** The server's message for one field of a refused save, for forms kept in plain state. */
 export const fieldErrorOf = (error: unknown, path: string) => (error instanceof ApiError ? error.errors.find((e) => e.path === path)?.message : undefined);
+
+/** The submit handler of a "create" form: save, then clear the form; a refusal shows on its fields. */
+export function saveThenReset<T extends FieldValues>(
+  form: { setError: UseFormSetError<T>; reset: UseFormReset<T> },
+  save: (values: T) => Promise<unknown>,
+  fallback: string,
+) {
+  return async (values: T) => {
+    try {
+      await save(values);
+      form.reset();
+    } catch (err) {
+      showServerErrors(form.setError, err, fallback);
+    }
+  };
+}

@@ -11,7 +11,7 @@ import {
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { showServerErrors } from '@/lib/form-errors';
+import { saveThenReset } from '@/lib/form-errors';
 import { numberOrNull } from './labels';
 
 /** Register a new item. Field errors from the server (e.g. a duplicate tag) land on their field. */
@@ -26,14 +26,7 @@ export function EquipmentCreateForm({ onCreate }: { onCreate: (v: CreateEquipmen
     <form
       noValidate
       className="flex flex-col gap-3"
-      onSubmit={form.handleSubmit(async (v) => {
-        try {
-          await onCreate(v);
-          form.reset();
-        } catch (err) {
-          showServerErrors(form.setError, err, 'Could not save.');
-        }
-      })}
+      onSubmit={form.handleSubmit(saveThenReset(form, onCreate, 'Could not save.'))}
     >
       <TextField label="Asset tag" placeholder="FC-025" autoComplete="off" {...form.register('assetTag')} error={errors.assetTag?.message} />
       <SelectField label="Kind" {...form.register('kind')} error={errors.kind?.message}>

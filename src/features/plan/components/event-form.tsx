@@ -4,7 +4,7 @@ import { createEventSchema, type CreateEventInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { showServerErrors } from '@/lib/form-errors';
+import { saveThenReset } from '@/lib/form-errors';
 import type { PlanningPeople } from '../api/types';
 
 export function EventForm({ organisers, onCreate }: { organisers: PlanningPeople['organisers']; onCreate: (v: CreateEventInput) => Promise<unknown> }) {
@@ -14,14 +14,7 @@ export function EventForm({ organisers, onCreate }: { organisers: PlanningPeople
     <form
       noValidate
       className="flex flex-col gap-3"
-      onSubmit={form.handleSubmit(async (v) => {
-        try {
-          await onCreate(v);
-          form.reset();
-        } catch (err) {
-          showServerErrors(form.setError, err, 'Could not create the event.');
-        }
-      })}
+      onSubmit={form.handleSubmit(saveThenReset(form, onCreate, 'Could not create the event.'))}
     >
       <TextField label="Event name" {...form.register('name')} error={errors.name?.message} />
       <div className="grid grid-cols-2 gap-3">
