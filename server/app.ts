@@ -34,6 +34,10 @@ const distDir = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 export function createApp(deps: AppDeps) {
   const app = express();
   app.disable('x-powered-by');
+  // API answers are no-store, so a body hash as ETag on each (Express's default) serves no one;
+  // version ETags for optimistic concurrency are set explicitly (server/http/etag.ts), and static
+  // files keep their own from express.static.
+  app.set('etag', false);
   app.set('trust proxy', 'loopback');
 
   app.use(

@@ -20,7 +20,11 @@ export function authRepository(db: Db) {
     findSessionWithUser: (id: string) =>
       prepared(db, 'auth.sessionWithUser', (d) =>
         d
-          .select({ session: sessions, user: users })
+          // Every signed-in request runs this: only the columns the check and req.user need.
+          .select({
+            session: { id: sessions.id, userId: sessions.userId, expiresAt: sessions.expiresAt, lastSeenAt: sessions.lastSeenAt, revokedAt: sessions.revokedAt },
+            user: { id: users.id, orgId: users.orgId, email: users.email, name: users.name, role: users.role, unitSystem: users.unitSystem, disabled: users.disabled },
+          })
           .from(sessions)
           .innerJoin(users, eq(sessions.userId, users.id))
           .where(eq(sessions.id, sql.placeholder('id')))

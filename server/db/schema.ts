@@ -246,7 +246,8 @@ export const faults = sqliteTable(
     openedAt: text('opened_at').notNull().default(now),
     closedAt: text('closed_at'),
   },
-  (t) => [index('faults_strip_idx').on(t.stripId)],
+  // Every reading looks up its step's unclosed fault and its position's repaired ones.
+  (t) => [index('faults_strip_idx').on(t.stripId), index('faults_step_idx').on(t.stepId), index('faults_position_idx').on(t.positionId)],
 );
 
 export const faultEstimates = sqliteTable('fault_estimates', {

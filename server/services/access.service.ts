@@ -6,17 +6,25 @@ import { forbidden, notFound } from '../lib/app-error';
 
 export type VenueAccessMode = 'read' | 'test' | 'plan' | 'sign-off';
 
+/** What an access decision needs of a venue and its event (a whole row, or the columns a query brought). */
+export interface VenueAccessRow {
+  venue: { id: string };
+  event: { orgId: string; directorId: string | null };
+}
+
 export function accessService(db: Db | Tx) {
   const repo = venuesRepository(db);
 
-  function allowed(user: AuthUser, row: NonNullable<ReturnType<typeof repo.findVenue>>, mode: VenueAccessMode) {
+  // `assigned`, when given, is the technician's assignment already read with the venue.
+  function allowed(user: AuthUser, row: VenueAccessRow, mode: VenueAccessMode, assigned?: boolean) {
     const sameOrg = row.event.orgId === user.orgId;
     if (!sameOrg) return false;
+    const isAssigned = () => assigned ?? repo.isAssigned(row.venue.id, user.id);
     switch (mode) {
       case 'read':
-        return user.role === 'technician' ? repo.isAssigned(row.venue.id, user.id) : true;
+        return user.role === 'technician' ? isAssigned() : true;
       case 'test':
-        return user.role === 'director' || (user.role === 'technician' && repo.isAssigned(row.venue.id, user.id));
+        return user.role === 'director' || (user.role === 'technician' && isAssigned());
       case 'plan':
         return user.role === 'director';
       case 'sign-off':
@@ -25,9 +33,9 @@ export function accessService(db: Db | Tx) {
   }
 
   /** The access check on a venue and event already read (with a step, say): no second look-up. */
-  function requireLoadedVenue<R extends NonNullable<ReturnType<typeof repo.findVenue>>>(user: AuthUser, row: R | undefined, mode: VenueAccessMode): R {
+  function requireLoadedVenue<R extends VenueAccessRow>(user: AuthUser, row: R | undefined, mode: VenueAccessMode, assigned?: boolean): R {
     if (!row || row.event.orgId !== user.orgId) throw notFound('That venue');
-    if (!allowed(user, row, mode)) {
+    if (!allowed(user, row, mode, assigned)) {
       const why =
         mode === 'sign-off'
           ? 'Only the technical director of this event can sign the venue off.'

@@ -12,7 +12,7 @@ import type { InviteUserInput, UpdateUserInput } from '../../shared/schemas/auth
 const TOKEN_TTL_HOURS = { invite: 72, reset: 2 } as const;
 const TOUCH_EVERY_MS = 60_000;
 
-export function toAuthUser(u: UserRow): AuthUser {
+export function toAuthUser(u: Pick<UserRow, 'id' | 'orgId' | 'email' | 'name' | 'role' | 'unitSystem'>): AuthUser {
   return { id: u.id, orgId: u.orgId, email: u.email, name: u.name, role: u.role, unitSystem: u.unitSystem };
 }
 

@@ -4,7 +4,7 @@
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import type { Db, Tx } from '../db/client';
-import { readingsRepository } from '../db/readings.repository';
+import { readingsRepository, type ReadingWriteContext } from '../db/readings.repository';
 import { stripsRepository, latestByStep, type LimitProfileRow, type ReadingRow } from '../db/strips.repository';
 import { faultsRepository } from '../db/faults.repository';
 import { writeAudit } from '../db/audit.repository';
@@ -37,6 +37,24 @@ export function toLimitProfile(row: LimitProfileRow): LimitProfile {
   };
   if (parsedProfiles.size >= 500) parsedProfiles.clear();
   parsedProfiles.set(key, { rulesJson: row.rulesJson, loopRequiredJson: row.loopRequiredJson, profile });
+  return profile;
+}
+
+// Limit profile rows are never rewritten (an edit adds a row with the next version, see
+// profiles.service), so a profile parsed once by id stays right; one map per database.
+const profilesById = new WeakMap<Db, Map<string, LimitProfile>>();
+
+function limitProfileById(db: Db, id: string): LimitProfile | undefined {
+  let known = profilesById.get(db);
+  if (!known) profilesById.set(db, (known = new Map()));
+  let profile = known.get(id);
+  if (!profile) {
+    const row = stripsRepository(db).profile(id);
+    if (!row) return undefined;
+    profile = toLimitProfile(row);
+    if (known.size >= 500) known.clear();
+    known.set(id, profile);
+  }
   return profile;
 }
 
@@ -108,29 +126,17 @@ export function readingsService(deps: AppDeps) {
   /**
    * Records a reading. Answers `replayed: true` with the stored reading when the same id comes
    * again with the same body (an offline client retrying). Settles once the reading is durable:
-   * readings arriving together share one commit (server/db/group-commit.ts).
+   * readings arriving together share one commit (server/db/group-commit.ts), and everything below
+   * runs inside it, so what the write reads (the venue's state, the step's faults) is current.
    */
   function create(user: AuthUser, body: CreateReadingInput): Promise<{ replayed: boolean; reading: ReadingDto }> {
-    const strips = stripsRepository(deps.db);
-    const ctx = strips.stepContext(body.stepId);
-    if (!ctx) throw notFound('That step');
-    // The step's context already holds its venue and event: checked without reading them again.
-    access.requireLoadedVenue(user, { venue: ctx.venue, event: ctx.event }, 'test');
     const hash = requestHash(body);
-
-    return groupCommit(deps.sqlite).run(() => deps.db.transaction((tx) => {
-      const readings = readingsRepository(tx);
-      const existing = readings.findById(body.id);
-      if (existing) {
-        if (existing.reading.requestHash !== hash) {
-          throw unprocessable(
-            'idempotency-mismatch',
-            'A reading with this id was already recorded with different content. Make a new id for a new reading.',
-            { errors: [{ path: 'id', message: 'This id belongs to a different reading' }] },
-          );
-        }
-        return { replayed: true, reading: presentReading(existing.reading, existing.takenByName, faultIdFor(tx, existing.reading)) };
-      }
+    return groupCommit(deps.sqlite).run(() => {
+      const db = deps.db;
+      const ctx = readingsRepository(db).writeContext(body.stepId, user.id, body.id);
+      if (!ctx) throw notFound('That step');
+      access.requireLoadedVenue(user, ctx, 'test', ctx.assigned);
+      if (ctx.existingHash !== null) return replay(body, hash, ctx.existingHash);
       if (ctx.step.removedAt) {
         throw conflict(
           'step-removed',
@@ -139,7 +145,7 @@ export function readingsService(deps: AppDeps) {
         );
       }
       if (body.supersedesId) {
-        const old = readings.findById(body.supersedesId);
+        const old = readingsRepository(db).findById(body.supersedesId);
         if (!old || old.reading.stepId !== body.stepId) {
           throw unprocessable('bad-correction', 'The reading being corrected must be an earlier reading of the same step.', {
             errors: [{ path: 'supersedesId', message: 'Not a reading of this step' }],
@@ -151,18 +157,18 @@ export function readingsService(deps: AppDeps) {
       if (!parsedValue.ok) {
         throw unprocessable('invalid-reading', parsedValue.message, { errors: [{ path: 'value', message: parsedValue.message }] });
       }
-      const profileRow = strips.profile(ctx.venue.profileId);
-      if (!profileRow) throw conflict('no-limit-profile', 'This venue has no limit profile; the technical director must choose one.');
+      const profile = limitProfileById(db, ctx.venue.profileId);
+      if (!profile) throw conflict('no-limit-profile', 'This venue has no limit profile; the technical director must choose one.');
       let verdict;
       try {
         verdict = evaluateReading({
-          profile: toLimitProfile(profileRow),
+          profile,
           equipmentKind: ctx.position.equipmentKind,
           testKind: ctx.step.testKind,
           conductors: ctx.step.conductors,
           valueOhm: parsedValue.value,
           overRange: parsedValue.overRange,
-          lengthM: ctx.equipment?.lengthM ?? null,
+          lengthM: ctx.lengthM,
           temperatureC: body.temperatureC ?? null,
         });
       } catch (err) {
@@ -186,8 +192,8 @@ export function readingsService(deps: AppDeps) {
         limitKind: verdict.limitKind,
         source: verdict.source,
         ruleId: verdict.ruleId,
-        profileId: profileRow.id,
-        profileVersion: profileRow.version,
+        profileId: ctx.venue.profileId,
+        profileVersion: profile.version,
         explanation: verdict.explanation,
         supersedesId: body.supersedesId ?? null,
         correctionReason: body.correctionReason ?? null,
@@ -195,8 +201,8 @@ export function readingsService(deps: AppDeps) {
         takenBy: user.id,
         takenAt,
       };
-      readings.insert(row);
-      writeAudit(tx, {
+      readingsRepository(db).insert(row);
+      writeAudit(db, {
         orgId: user.orgId,
         actorId: user.id,
         action: body.supersedesId ? 'reading.corrected' : 'reading.recorded',
@@ -207,40 +213,49 @@ export function readingsService(deps: AppDeps) {
           stripId: ctx.strip.id,
           value: body.value,
           verdict: verdict.verdict,
-          profileVersion: profileRow.version,
+          profileVersion: profile.version,
           ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
         },
       });
-      const venueReopened = reopenIfSignedOff(tx, {
-        venueId: ctx.venue.id,
-        orgId: user.orgId,
-        actorId: user.id,
-        reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
-      });
+      // The venue's status was read in this transaction: only a signed-off venue is touched.
+      const venueReopened =
+        ctx.venue.status === 'signed-off' &&
+        reopenIfSignedOff(db, {
+          venueId: ctx.venue.id,
+          orgId: user.orgId,
+          actorId: user.id,
+          reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
+        });
 
       const faultId =
         verdict.verdict === 'fail'
-          ? onFailure(tx, user, ctx, body.id, parsedValue.overRange, takenAt)
-          : onPass(tx, user, ctx.position.id, body, takenAt);
+          ? onFailure(db, user, ctx, body.id, parsedValue.overRange, takenAt)
+          : onPass(db, user, ctx, body, takenAt);
       // Answered from the row just inserted (every column is set above), not read back.
       const reading = presentReading(row, user.name, faultId);
       // Tell the tablet: a reading that waited offline may have landed on a venue signed off meanwhile.
       if (venueReopened) reading.venueReopened = true;
       return { replayed: false, reading };
-    }));
+    });
+  }
+
+  /** The same id again: the stored reading if the body is the same, a refusal if it is not. */
+  function replay(body: CreateReadingInput, hash: string, storedHash: string): { replayed: boolean; reading: ReadingDto } {
+    if (storedHash !== hash) {
+      throw unprocessable(
+        'idempotency-mismatch',
+        'A reading with this id was already recorded with different content. Make a new id for a new reading.',
+        { errors: [{ path: 'id', message: 'This id belongs to a different reading' }] },
+      );
+    }
+    const existing = readingsRepository(deps.db).findById(body.id)!;
+    return { replayed: true, reading: presentReading(existing.reading, existing.takenByName, faultIdFor(deps.db, existing.reading)) };
   }
 
   /** Opens a fault unless one is already open on this step; a failed retest sends a repaired fault back to open. */
-  function onFailure(
-    tx: Tx,
-    user: AuthUser,
-    ctx: NonNullable<ReturnType<ReturnType<typeof stripsRepository>['stepContext']>>,
-    readingId: string,
-    overRange: boolean,
-    at: string,
-  ): string {
+  function onFailure(tx: Db, user: AuthUser, ctx: ReadingWriteContext, readingId: string, overRange: boolean, at: string): string {
     const faults = faultsRepository(tx);
-    const existing = faults.unclosedOfStep(ctx.step.id);
+    const existing = ctx.unclosedFaultId ? faults.unclosedOfStep(ctx.step.id) : undefined;
     if (existing) {
       if (existing.status === 'repaired') {
         faults.update(existing.id, existing.version, { status: 'open' });
@@ -286,7 +301,8 @@ export function readingsService(deps: AppDeps) {
    * position has a passing reading taken since the repair. A correction that turns the reading
    * that opened a fault into a pass closes that fault too (it was a mistyped value).
    */
-  function onPass(tx: Tx, user: AuthUser, positionId: string, body: CreateReadingInput, at: string): string | null {
+  function onPass(tx: Db, user: AuthUser, ctx: ReadingWriteContext, body: CreateReadingInput, at: string): string | null {
+    const positionId = ctx.position.id;
     const faults = faultsRepository(tx);
     const strips = stripsRepository(tx);
     if (body.supersedesId) {
@@ -303,6 +319,8 @@ export function readingsService(deps: AppDeps) {
         });
       }
     }
+    // Most passes finish no retest: the context already says whether a repaired fault waits here.
+    if (!ctx.hasRepairedFault) return null;
     const repaired = faults.repairedOfPosition(positionId);
     if (repaired.length === 0) return null;
     const steps = strips.activeStepsOf([positionId]);

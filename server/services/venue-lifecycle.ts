@@ -1,13 +1,13 @@
 // A signed-off venue that changes (a reading, a repair, a swap, a plan edit) is re-opened: its
 // sign-off and certificates are marked superseded, and a new sign-off issues new ones.
 import { and, eq } from 'drizzle-orm';
-import type { Tx } from '../db/client';
+import type { Db, Tx } from '../db/client';
 import { certificates, signOffs, venues } from '../db/schema';
 import { writeAudit } from '../db/audit.repository';
 import { venuesRepository } from '../db/venues.repository';
 
 export function reopenIfSignedOff(
-  tx: Tx,
+  tx: Db | Tx,
   v: { venueId: string; orgId: string; actorId: string; reason: string },
 ): boolean {
   const venue = venuesRepository(tx).venueById(v.venueId);

@@ -1,14 +1,11 @@
+import { v4 as uuidv4 } from 'uuid';
+
 /**
- * A UUID v4 for the Idempotency-Key header. crypto.randomUUID exists only in secure contexts
- * (HTTPS or localhost); venue networks often serve plain HTTP, where getRandomValues still works.
+ * A random UUID for the Idempotency-Key header. uuid uses getRandomValues, which also works on the
+ * plain HTTP of a venue network where crypto.randomUUID does not exist.
  */
 export function newIdempotencyKey(): string {
-  if (typeof crypto.randomUUID === 'function' && window.isSecureContext) return crypto.randomUUID();
-  const b = crypto.getRandomValues(new Uint8Array(16));
-  b[6] = (b[6]! & 0x0f) | 0x40;
-  b[8] = (b[8]! & 0x3f) | 0x80;
-  const hex = Array.from(b, (x) => x.toString(16).padStart(2, '0')).join('');
-  return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-${hex.slice(12, 16)}-${hex.slice(16, 20)}-${hex.slice(20)}`;
+  return uuidv4();
 }
 
 export function formatBytes(n: number): string {

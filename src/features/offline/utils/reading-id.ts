@@ -1,12 +1,10 @@
+import { v7 as uuidv7 } from 'uuid';
+
 /**
- * The reading's UUID v4, made once when it is typed. crypto.randomUUID exists only in secure
- * contexts (HTTPS or localhost); venue networks often serve plain HTTP, where getRandomValues works.
+ * The reading's id, made once when it is typed. UUIDv7 (RFC 9562 §5.7) is time-ordered, so the
+ * server's index takes it at its end; uuid uses getRandomValues, which also works on the plain
+ * HTTP of a venue network where crypto.randomUUID does not exist.
  */
 export function newReadingId(): string {
-  if (typeof crypto.randomUUID === 'function' && globalThis.isSecureContext) return crypto.randomUUID();
-  const b = crypto.getRandomValues(new Uint8Array(16));
-  b[6] = (b[6]! & 0x0f) | 0x40;
-  b[8] = (b[8]! & 0x3f) | 0x80;
-  const hex = Array.from(b, (x) => x.toString(16).padStart(2, '0')).join('');
-  return `${hex.slice(0, 8)}-${hex.slice(8, 12)}-${hex.slice(12, 16)}-${hex.slice(16, 20)}-${hex.slice(20)}`;
+  return uuidv7();
 }

@@ -1,4 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { v7 as uuidv7 } from 'uuid';
 import { api } from '@/lib/api-client';
 import { venueReadingsQueryOptions } from './get-venue-readings';
 
@@ -9,8 +10,11 @@ export interface CorrectionInput {
   correctionReason: string;
 }
 
-/** A correction is a new reading that supersedes the old one; the old one stays in the history. */
-export const correctReading = (input: CorrectionInput) => api.post<{ id: string; verdict: string }>('/readings', { id: crypto.randomUUID(), ...input });
+/**
+ * A correction is a new reading that supersedes the old one; the old one stays in the history. Its
+ * id comes from uuid, not crypto.randomUUID, which plain-HTTP venue networks do not have.
+ */
+export const correctReading = (input: CorrectionInput) => api.post<{ id: string; verdict: string }>('/readings', { id: uuidv7(), ...input });
 
 export const useCorrectReading = (venueId: string) => {
   const qc = useQueryClient();
