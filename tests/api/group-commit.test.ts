@@ -26,7 +26,7 @@ afterEach(() => {
 });
 
 const insert = (k: string, v: number) => () => writer.prepare('insert into t values (?, ?)').run(k, v).changes;
-const seen = () => reader.prepare('select k from t order by k').pluck().all();
+const seen = () => reader.prepare('select k from t order by k').pluck().all() as string[];
 
 describe('group commit', () => {
   test('when writes arrive in one turn, then each resolves only after its row is committed for other connections', async () => {
