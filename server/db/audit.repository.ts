@@ -1,6 +1,6 @@
 import type { Db, Tx } from './client';
 import { auditLog } from './schema';
-import { placeholdersOf, prepared } from './prepared';
+import { columnsKey, placeholdersOf, prepared } from './prepared';
 import { and, desc, eq } from 'drizzle-orm';
 
 export interface AuditEntry {
@@ -22,8 +22,7 @@ export function writeAudit(db: Db | Tx, e: AuditEntry) {
     entityId: e.entityId,
     detailJson: JSON.stringify(e.detail ?? {}),
   };
-  const p = placeholdersOf(row);
-  prepared(db, `audit.insert:${p.key}`, (d) => d.insert(auditLog).values(p.values).prepare()).run(row);
+  prepared(db, `audit.insert:${columnsKey(row)}`, (d) => d.insert(auditLog).values(placeholdersOf(row)).prepare()).run(row);
 }
 
 export function listAudit(db: Db, filter: { orgId: string; entityType?: string; entityId?: string }, limit = 200) {

@@ -1,7 +1,7 @@
 import { eq, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { equipment, events, positions, readings, steps, strips, users, venues } from './schema';
-import { placeholdersOf, prepared } from './prepared';
+import { columnsKey, placeholdersOf, prepared } from './prepared';
 
 export type NewReading = typeof readings.$inferInsert;
 
@@ -49,10 +49,8 @@ export function readingsRepository(db: Db | Tx) {
           .prepare(),
       ).get({ stepId, userId, readingId }),
 
-    insert: (row: NewReading) => {
-      const p = placeholdersOf(row);
-      return prepared(db, `readings.insert:${p.key}`, (d) => d.insert(readings).values(p.values).prepare()).run(row);
-    },
+    insert: (row: NewReading) =>
+      prepared(db, `readings.insert:${columnsKey(row)}`, (d) => d.insert(readings).values(placeholdersOf(row)).prepare()).run(row),
   };
 }
 export type ReadingWriteContext = NonNullable<ReturnType<ReturnType<typeof readingsRepository>['writeContext']>>;
