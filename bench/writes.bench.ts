@@ -88,7 +88,11 @@ export async function run(): Promise<BenchResult> {
       ],
     });
     await load(WARM_UP); // the server's JIT warms up on the first few hundred requests
-    const api = await load(COUNT);
+    // Median of three runs, as for the raw rate: this machine is shared and one run can be disturbed.
+    const apis = [];
+    for (let k = 0; k < 3; k++) apis.push(await load(COUNT));
+    apis.sort((a, b) => a.requests.total / a.duration - b.requests.total / b.duration);
+    const api = apis[1];
     // Median of three runs: the machine is shared, one run can be disturbed.
     const raws = [1, 2, 3].map((k) => rawCommitsPerSecond(server.dir, 5000, k)).sort((a, b) => a - b);
     const raw = raws[1];
@@ -102,7 +106,7 @@ export async function run(): Promise<BenchResult> {
       ratio,
       ratioMeaning: 'API writes/s ÷ raw durable single-row commits/s (better-sqlite3, WAL, synchronous=FULL)',
       target: '≥ 0.5, p99 < 50 ms',
-      pass: ratio >= 0.5 && p99 < 50 && api.non2xx === 0 && api.errors === 0,
+      pass: ratio >= 0.5 && p99 < 50 && apis.every((r) => r.non2xx === 0 && r.errors === 0),
       figures: {
         requests: api.requests.total,
         non2xx: api.non2xx,
@@ -116,6 +120,8 @@ export async function run(): Promise<BenchResult> {
         p50Ms: api.latency.p50,
         p99Ms: p99,
         apiSeconds: +api.duration.toFixed(2),
+        apiRunsPerSecond: apis.map((r) => Math.round(r.requests.total / r.duration)).join(' / '),
+        non2xxAllRuns: apis.reduce((n, r) => n + r.non2xx, 0),
         stepsCycled: steps.length,
       },
     };
