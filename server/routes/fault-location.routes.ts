@@ -12,7 +12,7 @@ export function faultLocationRoutes(_deps: AppDeps) {
   const service = faultLocationService();
 
   api.post('/fault-location', 'signed-in', validate(faultLocationRequestSchema), (req, res) => {
-    res.json(service.locate(parsed(faultLocationRequestSchema, req.body)));
+    res.json(service.locate(req.user!, parsed(faultLocationRequestSchema, req.body)));
   });
 
   // The trace is the body itself (a scope's CSV export), far over the 100 kB JSON limit.
@@ -25,7 +25,7 @@ export function faultLocationRoutes(_deps: AppDeps) {
       if (typeof req.body !== 'string') {
         throw new AppError(415, 'unsupported-type', `Send the trace as the request body with Content-Type ${WAVEFORM_CONTENT_TYPES.join(', ')}.`);
       }
-      res.json(service.analyse(req.body, parsed(waveformQuerySchema, req.query)));
+      res.json(service.analyse(req.user!, req.body, parsed(waveformQuerySchema, req.query)));
     },
   );
   return api;

@@ -367,6 +367,7 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
         const a = analyseWaveform(trace, {
           velocityFactor: velocityFactor ?? undefined,
           lengthM: lengthM ?? undefined,
+          units: user.unitSystem,
         });
         out.analysis = {
           incidentTimeS: a.markers.incident.timeS,

@@ -134,7 +134,7 @@ export function equipmentService(deps: AppDeps) {
       const item = requireItem(user, id);
       let result;
       try {
-        result = calibrateVelocityFactor(input);
+        result = calibrateVelocityFactor(input, user.unitSystem);
       } catch (err) {
         if (err instanceof FaultLocationError) {
           throw unprocessable('calibration-refused', err.message, { errors: [{ path: err.field, message: err.message }] });

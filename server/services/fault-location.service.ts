@@ -3,6 +3,7 @@ import { decimateMinMax, PLOT_MAX_POINTS } from '../../shared/domain/decimate';
 import { analyseWaveform, parseTraceCsv, WaveformError, type WaveformAnalysis } from '../../shared/domain/waveform';
 import type { FaultLocationRequest } from '../../shared/schemas/fault-location';
 import type { WaveformAnswer, WaveformQuery } from '../../shared/schemas/waveforms';
+import type { AuthUser } from '../auth/types';
 import { unprocessable } from '../lib/app-error';
 
 /**
@@ -10,10 +11,11 @@ import { unprocessable } from '../lib/app-error';
  * shared/domain is the authority; this service turns its refusals into 422 with the field named.
  */
 export function faultLocationService() {
-  function locate(request: FaultLocationRequest): FaultLocationAnswer {
+  /** The explanation is worded in the asker's units (metres or feet); the numbers are always metres. */
+  function locate(user: AuthUser, request: FaultLocationRequest): FaultLocationAnswer {
     let answer: FaultLocationAnswer;
     try {
-      answer = runFaultLocation(request);
+      answer = runFaultLocation(request, user.unitSystem);
     } catch (err) {
       throw asUnprocessable(err);
     }
@@ -30,12 +32,12 @@ export function faultLocationService() {
     return answer;
   }
 
-  function analyse(csv: string, query: WaveformQuery): WaveformAnswer {
+  function analyse(user: AuthUser, csv: string, query: WaveformQuery): WaveformAnswer {
     let analysis: WaveformAnalysis;
     let parsed: ReturnType<typeof parseTraceCsv>;
     try {
       parsed = parseTraceCsv(csv);
-      analysis = analyseWaveform(parsed, { velocityFactor: query.velocityFactor, lengthM: query.lengthM });
+      analysis = analyseWaveform(parsed, { velocityFactor: query.velocityFactor, lengthM: query.lengthM, units: user.unitSystem });
     } catch (err) {
       throw asUnprocessable(err);
     }

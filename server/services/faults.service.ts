@@ -20,6 +20,7 @@ import {
   type FaultEstimate,
 } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
+import type { LengthSystem } from '../../shared/domain/units';
 import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
 
 export function presentEquipment(e: EquipmentRow | null) {
@@ -57,8 +58,11 @@ function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdB
 }
 type EstimateDto = ReturnType<typeof presentEstimate>;
 
-/** All estimates of a fault, brought to the near end and weighed together, with the disagreement flag. */
-function combine(estimates: EstimateDto[]) {
+/**
+ * All estimates of a fault, brought to the near end and weighed together, with the disagreement
+ * flag. Worked out on each read, so its explanation is in the reader's units.
+ */
+function combine(estimates: EstimateDto[], units: LengthSystem = 'metric') {
   const usable = estimates.filter((e) => e.distanceFromNearM !== null && e.uncertaintyM > 0);
   if (usable.length === 0) return null;
   const asDomain: FaultEstimate[] = usable.map((e) => ({
@@ -68,7 +72,7 @@ function combine(estimates: EstimateDto[]) {
     explanation: e.explanation,
     inputs: e.inputs,
   }));
-  const c = combineEstimates(asDomain);
+  const c = combineEstimates(asDomain, units);
   return { ...c, count: usable.length, fromEnd: 'near' as const };
 }
 
@@ -161,7 +165,7 @@ export function faultsService(deps: AppDeps) {
       lengthM,
       currentEquipment: presentEquipment(position?.equipment ?? null),
       estimates,
-      combined: combine(estimates),
+      combined: combine(estimates, user.unitSystem),
       repairs: repo.repairsOf(id).map(({ repair, createdByName }) => ({ ...repair, createdByName })),
       steps: steps.map((s) => {
         const own = readings.filter((r) => r.reading.stepId === s.id);
@@ -304,7 +308,8 @@ export function faultsService(deps: AppDeps) {
     }
     let answer;
     try {
-      answer = runFaultLocation(request);
+      // The saved explanation stays in the units of whoever saved it: it is their record.
+      answer = runFaultLocation(request, user.unitSystem);
     } catch (err) {
       if (err instanceof FaultLocationError) {
         throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });

@@ -7,7 +7,7 @@
 // accepted, because the fault is then at that end within what the readings can tell.
 
 import type { FaultLocationRequest } from '../schemas/fault-location';
-import { formatLength, formatOhm, roundSignificant } from './units';
+import { formatLength, formatOhm, METRES_PER_FOOT, roundSignificant, type LengthSystem } from './units';
 
 /** Exact, by the SI definition of the metre. */
 export const SPEED_OF_LIGHT_M_PER_S = 299_792_458;
@@ -93,23 +93,39 @@ function requireNonNegative(field: string, value: unknown, what: string): number
   return value;
 }
 
-function m(lengthM: number): string {
-  return formatLength(lengthM, 'metric');
-}
-
-function pm(uncertaintyM: number): string {
-  return `±${formatLength(uncertaintyM, 'metric')}`;
-}
-
 function num(value: number, digits = 4): string {
   return String(roundSignificant(value, digits));
 }
 
-/** "… 7.4 m from the near end (4.6 m from the far end), ±0.3 m" */
-function where(distanceM: number, uncertaintyM: number, lengthM: number | undefined, nearEnd = 'the near end'): string {
-  const far = lengthM === undefined ? '' : ` (${m(lengthM - distanceM)} from the far end)`;
-  return `about ${m(distanceM)} from ${nearEnd}${far}, ${pm(uncertaintyM)}`;
+/**
+ * How lengths are worded for the reader: metres, or feet at exactly 0.3048 m. The numbers stay
+ * in metres throughout; only the sentences change.
+ */
+function lengthWords(units: LengthSystem) {
+  const imperial = units === 'imperial';
+  const metresPerUnit = imperial ? METRES_PER_FOOT : 1;
+  const m = (lengthM: number): string => formatLength(lengthM, units);
+  const pm = (uncertaintyM: number): string => `±${formatLength(uncertaintyM, units)}`;
+  return {
+    m,
+    pm,
+    /** "about 7.4 m from the near end (4.6 m from the far end), ±0.3 m" */
+    where(distanceM: number, uncertaintyM: number, lengthM: number | undefined, nearEnd = 'the near end'): string {
+      const far = lengthM === undefined ? '' : ` (${m(lengthM - distanceM)} from the far end)`;
+      return `about ${m(distanceM)} from ${nearEnd}${far}, ${pm(uncertaintyM)}`;
+    },
+    /** A speed: "0.198 m per ns", "0.649 ft per ns". */
+    perNs: (metresPerNs: number): string => `${num(metresPerNs / metresPerUnit, 3)} ${imperial ? 'ft' : 'm'} per ns`,
+    /** Something per metre (ns, Ω) as a number per metre or per foot. */
+    perLength: (valuePerMetre: number, digits = 4): string => num(valuePerMetre * metresPerUnit, digits),
+    /** "metre" or "foot", for "ns per metre" and "Ω per metre". */
+    unitName: imperial ? 'foot' : 'metre',
+    /** "m" or "ft", for "Ω/m". */
+    unitSymbol: imperial ? 'ft' : 'm',
+  };
 }
+
+type LengthWords = ReturnType<typeof lengthWords>;
 
 /**
  * Refuses a distance outside 0…L unless it is within its own uncertainty of an end; then
@@ -121,7 +137,9 @@ function checkInsideCable(
   lengthM: number | undefined,
   field: string,
   cause: string,
+  f: LengthWords,
 ): string {
+  const { m, pm } = f;
   if (distanceM < -uncertaintyM) {
     throw new FaultLocationError(
       field,
@@ -221,7 +239,8 @@ export type TdrInput = {
  * point is found to within half the distance at which two edges would merge) and the velocity
  * factor's own uncertainty, which scales with the distance.
  */
-export function locateByTdr(input: TdrInput): FaultEstimate {
+export function locateByTdr(input: TdrInput, units: LengthSystem = 'metric'): FaultEstimate {
+  const f = lengthWords(units);
   const roundTripNs = requirePositive('roundTripNs', input.roundTripNs, 'a round-trip time in ns');
   const vf = requireVelocityFactor('velocityFactor', input.velocityFactor);
   const riseTimeNs =
@@ -247,16 +266,17 @@ export function locateByTdr(input: TdrInput): FaultEstimate {
     lengthM,
     'roundTripNs',
     'The reflection marker is probably on a reflection from beyond the far end (or a second bounce), or the velocity factor is wrong; check the markers and calibrate the velocity factor on a known-good cable.',
+    f,
   );
   const parts = [
     riseTimeNs === undefined
       ? 'rise time not given, so the band covers the velocity factor only'
-      : `${pm(timingM)} from the ${num(riseTimeNs, 3)} ns rise time (half its ${m(resolutionM)} resolution)`,
-    `${pm(vfPartM)} from the velocity factor (±${num(vfUncertainty, 2)})`,
+      : `${f.pm(timingM)} from the ${num(riseTimeNs, 3)} ns rise time (half its ${f.m(resolutionM)} resolution)`,
+    `${f.pm(vfPartM)} from the velocity factor (±${num(vfUncertainty, 2)})`,
   ];
   const explanation =
     `The reflection comes back ${num(roundTripNs)} ns after the incident edge. At a velocity factor of ${num(vf, 3)} ` +
-    `the signal travels ${num(1 / delayNsPerMetre(vf), 3)} m per ns; it went to the fault and back, so the fault is ${where(distanceM, uncertaintyM, lengthM, 'the instrument end')} ` +
+    `the signal travels ${f.perNs(1 / delayNsPerMetre(vf))}; it went to the fault and back, so the fault is ${f.where(distanceM, uncertaintyM, lengthM, 'the instrument end')} ` +
     `(${parts.join('; ')}).${edgeNote}`;
 
   return withLength(
@@ -282,11 +302,15 @@ export type VelocityFactorCalibration = {
 };
 
 /** VF = 2L / (c · Δt), on a known-good cable whose far end is open (or shorted). */
-export function calibrateVelocityFactor(input: {
-  roundTripNs: number;
-  lengthM: number;
-  riseTimeNs?: number | undefined;
-}): VelocityFactorCalibration {
+export function calibrateVelocityFactor(
+  input: {
+    roundTripNs: number;
+    lengthM: number;
+    riseTimeNs?: number | undefined;
+  },
+  units: LengthSystem = 'metric',
+): VelocityFactorCalibration {
+  const f = lengthWords(units);
   const roundTripNs = requirePositive('roundTripNs', input.roundTripNs, 'a round-trip time in ns');
   const lengthM = requirePositive('lengthM', input.lengthM, 'a length in m');
   const riseTimeNs =
@@ -296,13 +320,13 @@ export function calibrateVelocityFactor(input: {
   if (vf > 1 + 1e-9) {
     throw new FaultLocationError(
       'roundTripNs',
-      `${num(roundTripNs)} ns is less than light needs to go ${m(lengthM)} and back (velocity factor ${num(vf, 3)} > 1). Check the cable length, or whether the reflection marker sits on the far-end reflection.`,
+      `${num(roundTripNs)} ns is less than light needs to go ${f.m(lengthM)} and back (velocity factor ${num(vf, 3)} > 1). Check the cable length, or whether the reflection marker sits on the far-end reflection.`,
     );
   }
   if (vf < MIN_VELOCITY_FACTOR - 1e-9) {
     throw new FaultLocationError(
       'roundTripNs',
-      `${num(roundTripNs)} ns over ${m(lengthM)} gives a velocity factor of ${num(vf, 3)}, slower than any ordinary cable. The marker is probably on a second bounce, or the length is wrong.`,
+      `${num(roundTripNs)} ns over ${f.m(lengthM)} gives a velocity factor of ${num(vf, 3)}, slower than any ordinary cable. The marker is probably on a second bounce, or the length is wrong.`,
     );
   }
   const timingRel = riseTimeNs === undefined ? 0 : riseTimeNs / 2 / roundTripNs;
@@ -312,9 +336,9 @@ export function calibrateVelocityFactor(input: {
     velocityFactorUncertainty,
     delayNsPerMetre: delayNsPerMetre(vf),
     explanation:
-      `A known-good ${m(lengthM)} cable returns its far-end reflection after ${num(roundTripNs)} ns, so signals travel at ` +
+      `A known-good ${f.m(lengthM)} cable returns its far-end reflection after ${num(roundTripNs)} ns, so signals travel at ` +
       `${num(vf, 3)} × the speed of light in it (velocity factor ${num(vf, 3)} ±${num(velocityFactorUncertainty, 2)}, ` +
-      `${num(delayNsPerMetre(vf), 4)} ns per metre one way). Use it for cables of the same type.`,
+      `${f.perLength(delayNsPerMetre(vf), 4)} ns per ${f.unitName} one way). Use it for cables of the same type.`,
     inputs: inputsOf({ roundTripNs, lengthM, riseTimeNs }),
   };
 }
@@ -334,23 +358,24 @@ function perMetre(
   lengthM: number | undefined,
   accuracy: MeterAccuracy,
   tableRel: number,
+  f: LengthWords,
 ): PerMetreSource {
   if (ohmPerMetre !== undefined && conductorOhm !== undefined) {
     throw new FaultLocationError('ohmPerMetre', 'Give either ohmPerMetre or conductorOhm (with lengthM), not both.');
   }
   if (ohmPerMetre !== undefined) {
     const r = requirePositive('ohmPerMetre', ohmPerMetre, 'a resistance per metre in Ω/m');
-    return { ohmPerMetre: r, relUncertainty: tableRel, sentence: `${num(r)} Ω/m per conductor` };
+    return { ohmPerMetre: r, relUncertainty: tableRel, sentence: `${f.perLength(r)} Ω/${f.unitSymbol} per conductor` };
   }
   if (conductorOhm !== undefined) {
     const c = requirePositive('conductorOhm', conductorOhm, 'a conductor resistance in Ω');
     if (lengthM === undefined) {
-      throw new FaultLocationError('lengthM', 'lengthM is needed to turn the end-to-end conductor reading into Ω per metre.');
+      throw new FaultLocationError('lengthM', `lengthM is needed to turn the end-to-end conductor reading into Ω per ${f.unitName}.`);
     }
     return {
       ohmPerMetre: c / lengthM,
       relUncertainty: meterUncertaintyOhm(c, accuracy) / c,
-      sentence: `${num(c / lengthM)} Ω/m per conductor (a sound conductor reads ${formatOhm(c)} over ${m(lengthM)})`,
+      sentence: `${f.perLength(c / lengthM)} Ω/${f.unitSymbol} per conductor (a sound conductor reads ${formatOhm(c)} over ${f.m(lengthM)})`,
     };
   }
   throw new FaultLocationError('ohmPerMetre', 'Give ohmPerMetre, or conductorOhm (a sound conductor end to end) with lengthM.');
@@ -370,7 +395,8 @@ export type LoopOneEndInput = {
 };
 
 /** R_loop = 2 r d + R_f → d = (R_loop − R_f) / (2r). */
-export function locateByLoopOneEnd(input: LoopOneEndInput): FaultEstimate {
+export function locateByLoopOneEnd(input: LoopOneEndInput, units: LengthSystem = 'metric'): FaultEstimate {
+  const f = lengthWords(units);
   const accuracy = input.meterAccuracy ?? DEFAULT_METER_ACCURACY;
   const loopOhm = requireNonNegative('loopOhm', input.loopOhm, 'a loop resistance in Ω');
   const lengthM = input.lengthM === undefined ? undefined : requirePositive('lengthM', input.lengthM, 'a length in m');
@@ -381,6 +407,7 @@ export function locateByLoopOneEnd(input: LoopOneEndInput): FaultEstimate {
     lengthM,
     accuracy,
     input.ohmPerMetreRelUncertainty ?? DEFAULT_OHM_PER_METRE_REL_UNCERTAINTY,
+    f,
   );
   const rf = faultOhm ?? 0;
   if (rf > loopOhm + meterUncertaintyOhm(loopOhm, accuracy)) {
@@ -399,7 +426,8 @@ export function locateByLoopOneEnd(input: LoopOneEndInput): FaultEstimate {
     uncertaintyM,
     lengthM,
     'loopOhm',
-    `The loop reading is larger than the whole cable's loop${wholeLoop}: check that the far end is open (not bridged), that the pair is the shorted one, and the Ω per metre.`,
+    `The loop reading is larger than the whole cable's loop${wholeLoop}: check that the far end is open (not bridged), that the pair is the shorted one, and the Ω per ${f.unitName}.`,
+    f,
   );
   const faultSentence =
     faultOhm === undefined
@@ -413,7 +441,7 @@ export function locateByLoopOneEnd(input: LoopOneEndInput): FaultEstimate {
       ...(faultOhm === undefined ? {} : { faultOhm }),
       explanation:
         `The loop through the short reads ${formatOhm(loopOhm)}. At ${r.sentence}, the current goes to the short and back on two conductors, ` +
-        `so the short is ${where(distanceM, uncertaintyM, lengthM)}.${faultSentence}${edgeNote}`,
+        `so the short is ${f.where(distanceM, uncertaintyM, lengthM)}.${faultSentence}${edgeNote}`,
       inputs: inputsOf({
         loopOhm,
         ohmPerMetre: input.ohmPerMetre,
@@ -442,7 +470,8 @@ export type LoopBothEndsInput = {
  * R_A = 2 r x + R_f and R_B = 2 r (L − x) + R_f, so x = (R_A − R_B + 2 r L) / (4 r) and
  * R_f = (R_A + R_B) / 2 − r L: the fault's own resistance drops out.
  */
-export function locateByLoopBothEnds(input: LoopBothEndsInput): FaultEstimate {
+export function locateByLoopBothEnds(input: LoopBothEndsInput, units: LengthSystem = 'metric'): FaultEstimate {
+  const f = lengthWords(units);
   const accuracy = input.meterAccuracy ?? DEFAULT_METER_ACCURACY;
   const nearOhm = requireNonNegative('nearOhm', input.nearOhm, 'a loop resistance in Ω');
   const farOhm = requireNonNegative('farOhm', input.farOhm, 'a loop resistance in Ω');
@@ -453,6 +482,7 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput): FaultEstimate {
     lengthM,
     accuracy,
     input.ohmPerMetreRelUncertainty ?? DEFAULT_OHM_PER_METRE_REL_UNCERTAINTY,
+    f,
   );
   const rpm = r.ohmPerMetre;
   const distanceM = (nearOhm - farOhm + 2 * rpm * lengthM) / (4 * rpm);
@@ -468,7 +498,7 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput): FaultEstimate {
   if (faultOhm < -faultUncertaintyOhm) {
     throw new FaultLocationError(
       'farOhm',
-      `The two loop readings add up to ${formatOhm(nearOhm + farOhm)}, less than the ${formatOhm(2 * rpm * lengthM)} that the cable's own conductors must show (2 × ${num(rpm)} Ω/m × ${m(lengthM)} × 2). These readings are inconsistent: check the length, the Ω per metre, and that both readings are of the same pair with the other end open.`,
+      `The two loop readings add up to ${formatOhm(nearOhm + farOhm)}, less than the ${formatOhm(2 * rpm * lengthM)} that the cable's own conductors must show (2 × ${f.perLength(rpm)} Ω/${f.unitSymbol} × ${f.m(lengthM)}). These readings are inconsistent: check the length, the Ω per ${f.unitName}, and that both readings are of the same pair with the other end open.`,
     );
   }
   const edgeNote = checkInsideCable(
@@ -476,7 +506,8 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput): FaultEstimate {
     uncertaintyM,
     lengthM,
     'nearOhm',
-    'The near and far readings differ by more than the whole cable can explain: check that the same pair was measured from both ends and the Ω per metre.',
+    `The near and far readings differ by more than the whole cable can explain: check that the same pair was measured from both ends and the Ω per ${f.unitName}.`,
+    f,
   );
   const faultText =
     faultOhm < 0
@@ -490,7 +521,7 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput): FaultEstimate {
     faultOhm,
     explanation:
       `The shorted pair reads ${formatOhm(nearOhm)} from the near end and ${formatOhm(farOhm)} from the far end. At ${r.sentence}, ` +
-      `the short is ${where(distanceM, uncertaintyM, lengthM)}. ${faultText}; measuring from both ends removes it from the distance.${edgeNote}`,
+      `the short is ${f.where(distanceM, uncertaintyM, lengthM)}. ${faultText}; measuring from both ends removes it from the distance.${edgeNote}`,
     inputs: inputsOf({ nearOhm, farOhm, lengthM, ohmPerMetre: input.ohmPerMetre, conductorOhm: input.conductorOhm }),
   };
 }
@@ -508,7 +539,8 @@ export type MurrayLoopInput = {
  * Murray loop: faulty and sound conductors (equal) bridged at the far end, bridge at the near
  * end between them and the earth/screen fault. At balance x = 2L · Q / (P + Q).
  */
-export function locateByMurrayLoop(input: MurrayLoopInput): FaultEstimate {
+export function locateByMurrayLoop(input: MurrayLoopInput, units: LengthSystem = 'metric'): FaultEstimate {
+  const f = lengthWords(units);
   const lengthM = requirePositive('lengthM', input.lengthM, 'a length in m');
   const p = requirePositive('ratioP', input.ratioP, 'a bridge arm value');
   const q = requirePositive('ratioQ', input.ratioQ, 'a bridge arm value');
@@ -523,6 +555,7 @@ export function locateByMurrayLoop(input: MurrayLoopInput): FaultEstimate {
     lengthM,
     'ratioQ',
     'At balance P must be at least Q (the fault is on the P side). Check which arm is connected to the faulty conductor, and that the far-end bridge is in place.',
+    f,
   );
   return {
     method: 'murray',
@@ -531,7 +564,7 @@ export function locateByMurrayLoop(input: MurrayLoopInput): FaultEstimate {
     uncertaintyM,
     explanation:
       `The bridge balances at P:Q = ${num(p)}:${num(q)}. With the faulty and a sound conductor joined at the far end, the fault is ` +
-      `${where(distanceM, uncertaintyM, lengthM, 'the bridge end')} (the ratio read to ±${num(eps * 100, 2)} %).${edgeNote}`,
+      `${f.where(distanceM, uncertaintyM, lengthM, 'the bridge end')} (the ratio read to ±${num(eps * 100, 2)} %).${edgeNote}`,
     inputs: inputsOf({ lengthM, ratioP: p, ratioQ: q }),
   };
 }
@@ -554,7 +587,8 @@ const CAPACITANCE_MISMATCH_REFUSED = 0.5;
  * An open conductor's capacitance is proportional to the length still attached:
  * x = L · C_x / C_sound from one end, x = L · C1 / (C1 + C2) from both ends.
  */
-export function locateByCapacitance(input: CapacitanceInput): FaultEstimate {
+export function locateByCapacitance(input: CapacitanceInput, units: LengthSystem = 'metric'): FaultEstimate {
+  const f = lengthWords(units);
   const lengthM = requirePositive('lengthM', input.lengthM, 'a length in m');
   const c1 = requirePositive('faultedNf', input.faultedNf, 'a capacitance in nF');
   const cs = requirePositive('soundNf', input.soundNf, 'a capacitance in nF');
@@ -574,6 +608,7 @@ export function locateByCapacitance(input: CapacitanceInput): FaultEstimate {
       lengthM,
       'faultedNf',
       'The broken conductor shows more capacitance than a sound one over the whole length: check that both were measured the same way (against the same other conductors) and that the sound conductor really is sound.',
+      f,
     );
     return {
       method: 'capacitance',
@@ -581,8 +616,8 @@ export function locateByCapacitance(input: CapacitanceInput): FaultEstimate {
       fromOtherEndM: lengthM - distanceM,
       uncertaintyM,
       explanation:
-        `The broken conductor shows ${num(c1)} nF from this end against ${num(cs)} nF for a sound conductor over the whole ${m(lengthM)}, ` +
-        `so the break is ${where(distanceM, uncertaintyM, lengthM)} (capacitance readings taken to ±${num(eps * 100, 2)} %).${edgeNote}`,
+        `The broken conductor shows ${num(c1)} nF from this end against ${num(cs)} nF for a sound conductor over the whole ${f.m(lengthM)}, ` +
+        `so the break is ${f.where(distanceM, uncertaintyM, lengthM)} (capacitance readings taken to ±${num(eps * 100, 2)} %).${edgeNote}`,
       inputs: inputsOf({ lengthM, faultedNf: c1, soundNf: cs }),
     };
   }
@@ -601,7 +636,7 @@ export function locateByCapacitance(input: CapacitanceInput): FaultEstimate {
   const spreadM = (lengthM * Math.abs(mismatch)) / 2;
   const measureM = (lengthM / total ** 2) * Math.hypot(c2 * c1 * eps, c1 * c2 * eps);
   const uncertaintyM = Math.hypot(measureM, spreadM);
-  checkInsideCable(distanceM, uncertaintyM, lengthM, 'faultedNf', '');
+  checkInsideCable(distanceM, uncertaintyM, lengthM, 'faultedNf', '', f);
   const consistency =
     Math.abs(mismatch) <= 2 * eps
       ? `The two readings add up to ${num(total)} nF, consistent with the sound conductor's ${num(cs)} nF.`
@@ -613,13 +648,17 @@ export function locateByCapacitance(input: CapacitanceInput): FaultEstimate {
     uncertaintyM,
     explanation:
       `The broken conductor shows ${num(c1)} nF from the near end and ${num(c2)} nF from the far end, so the break is ` +
-      `${where(distanceM, uncertaintyM, lengthM)}. ${consistency}`,
+      `${f.where(distanceM, uncertaintyM, lengthM)}. ${consistency}`,
     inputs: inputsOf({ lengthM, faultedNf: c1, soundNf: cs, farFaultedNf: c2 }),
   };
 }
 
 /** A position found by flexing the cable by hand, recorded as a located fault. */
-export function recordFlexTest(input: { distanceM: number; lengthM?: number | undefined; uncertaintyM?: number | undefined }): FaultEstimate {
+export function recordFlexTest(
+  input: { distanceM: number; lengthM?: number | undefined; uncertaintyM?: number | undefined },
+  units: LengthSystem = 'metric',
+): FaultEstimate {
+  const f = lengthWords(units);
   const distanceM = requireNonNegative('distanceM', input.distanceM, 'a distance in m');
   const lengthM = input.lengthM === undefined ? undefined : requirePositive('lengthM', input.lengthM, 'a length in m');
   const uncertaintyM =
@@ -627,14 +666,14 @@ export function recordFlexTest(input: { distanceM: number; lengthM?: number | un
       ? DEFAULT_FLEX_TEST_UNCERTAINTY_M
       : requirePositive('uncertaintyM', input.uncertaintyM, 'an uncertainty in m');
   if (lengthM !== undefined && distanceM > lengthM) {
-    throw new FaultLocationError('distanceM', `${m(distanceM)} is beyond the end of this ${m(lengthM)} cable; measure from the named end again.`);
+    throw new FaultLocationError('distanceM', `${f.m(distanceM)} is beyond the end of this ${f.m(lengthM)} cable; measure from the named end again.`);
   }
   return withLength(
     {
       method: 'flex',
       distanceM,
       uncertaintyM,
-      explanation: `Found by flexing the cable by hand: the fault is ${where(distanceM, uncertaintyM, lengthM)}.`,
+      explanation: `Found by flexing the cable by hand: the fault is ${f.where(distanceM, uncertaintyM, lengthM)}.`,
       inputs: inputsOf({ distanceM, lengthM, uncertaintyM }),
     },
     lengthM,
@@ -658,7 +697,8 @@ export type CombinedEstimate = {
  * Birge ratio √(χ² / (n − 1)) so that it reflects the scatter, not only the claimed bands.
  * All estimates must be measured from the same end.
  */
-export function combineEstimates(estimates: FaultEstimate[]): CombinedEstimate {
+export function combineEstimates(estimates: FaultEstimate[], units: LengthSystem = 'metric'): CombinedEstimate {
+  const { m, pm, unitName } = lengthWords(units);
   if (estimates.length === 0) throw new FaultLocationError('estimates', 'There is no estimate to combine.');
   estimates.forEach((e, i) => {
     if (!Number.isFinite(e.distanceM)) throw new FaultLocationError(`estimates.${i}.distanceM`, 'Each estimate needs a distance.');
@@ -698,7 +738,7 @@ export function combineEstimates(estimates: FaultEstimate[]): CombinedEstimate {
       .join('; ');
     explanation =
       `The estimates disagree: ${pairs} do not overlap. The weighted middle is about ${m(distanceM)}, with the band widened to ${pm(uncertaintyM)} for the scatter. ` +
-      'Re-check the readings (same end, same pair, velocity factor, Ω per metre), or flex-test the cable between the estimates.';
+      `Re-check the readings (same end, same pair, velocity factor, Ω per ${unitName}), or flex-test the cable between the estimates.`;
   }
   return { distanceM, uncertaintyM, agree, disagreements, explanation };
 }
@@ -766,12 +806,13 @@ export function ohmPerMetreFromConductorSize(input: {
 // ---------------------------------------------------------------------------------------------
 // HTTP request → estimate
 
-export function runFaultLocation(request: FaultLocationRequest): FaultLocationAnswer {
+/** The engine behind POST /api/fault-location; `units` words the explanation for the reader. */
+export function runFaultLocation(request: FaultLocationRequest, units: LengthSystem = 'metric'): FaultLocationAnswer {
   switch (request.method) {
     case 'tdr':
-      return answer(locateByTdr(request));
+      return answer(locateByTdr(request, units));
     case 'vf-calibration': {
-      const calibration = calibrateVelocityFactor(request);
+      const calibration = calibrateVelocityFactor(request, units);
       // The far end of the known-good cable is where the reflection comes from.
       return {
         method: 'vf-calibration',
@@ -783,15 +824,15 @@ export function runFaultLocation(request: FaultLocationRequest): FaultLocationAn
       };
     }
     case 'loop-one-end':
-      return answer(locateByLoopOneEnd(request));
+      return answer(locateByLoopOneEnd(request, units));
     case 'loop-both-ends':
-      return answer(locateByLoopBothEnds(request));
+      return answer(locateByLoopBothEnds(request, units));
     case 'murray':
-      return answer(locateByMurrayLoop(request));
+      return answer(locateByMurrayLoop(request, units));
     case 'capacitance':
-      return answer(locateByCapacitance(request));
+      return answer(locateByCapacitance(request, units));
     case 'flex':
-      return answer(recordFlexTest(request));
+      return answer(recordFlexTest(request, units));
   }
 }
 

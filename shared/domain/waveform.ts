@@ -3,6 +3,7 @@
 
 import { FaultLocationError, locateByTdr, type FaultEstimate } from './fault-location';
 import { indexAtOrBefore } from './decimate';
+import type { LengthSystem } from './units';
 
 export class WaveformError extends Error {
   readonly code = 'waveform-refused';
@@ -305,6 +306,8 @@ export type WaveformOptions = {
   velocityFactor?: number | undefined;
   /** When given, a reflection beyond the cable is reported rather than turned into a distance. */
   lengthM?: number | undefined;
+  /** The length words of the explanation (metres by default); the numbers stay in metres. */
+  units?: LengthSystem | undefined;
 };
 
 type Region = { start: number; end: number; peak: number };
@@ -414,12 +417,15 @@ export function analyseWaveform(trace: Trace, opts?: WaveformOptions): WaveformA
   let distanceNote: string;
   if (opts?.velocityFactor !== undefined) {
     try {
-      estimate = locateByTdr({
-        roundTripNs,
-        velocityFactor: opts.velocityFactor,
-        riseTimeNs: riseTimeS * 1e9,
-        ...(opts.lengthM === undefined ? {} : { lengthM: opts.lengthM }),
-      });
+      estimate = locateByTdr(
+        {
+          roundTripNs,
+          velocityFactor: opts.velocityFactor,
+          riseTimeNs: riseTimeS * 1e9,
+          ...(opts.lengthM === undefined ? {} : { lengthM: opts.lengthM }),
+        },
+        opts.units,
+      );
       distanceNote = ` ${estimate.explanation}`;
     } catch (error) {
       if (!(error instanceof FaultLocationError)) throw error;
@@ -510,12 +516,15 @@ export function estimateFromMarkers(
   let note = ' Give the cable’s velocity factor to turn this into a distance.';
   if (opts?.velocityFactor !== undefined) {
     try {
-      estimate = locateByTdr({
-        roundTripNs,
-        velocityFactor: opts.velocityFactor,
-        ...(opts.riseTimeNs === undefined ? {} : { riseTimeNs: opts.riseTimeNs }),
-        ...(opts.lengthM === undefined ? {} : { lengthM: opts.lengthM }),
-      });
+      estimate = locateByTdr(
+        {
+          roundTripNs,
+          velocityFactor: opts.velocityFactor,
+          ...(opts.riseTimeNs === undefined ? {} : { riseTimeNs: opts.riseTimeNs }),
+          ...(opts.lengthM === undefined ? {} : { lengthM: opts.lengthM }),
+        },
+        opts.units,
+      );
       note = ` ${estimate.explanation}`;
     } catch (error) {
       if (!(error instanceof FaultLocationError)) throw error;

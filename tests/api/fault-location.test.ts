@@ -195,6 +195,23 @@ describe('POST /api/fault-location', () => {
     );
   });
 
+  test('when the user works in feet, then the explanation gives the lengths in feet and the numbers stay in metres', async () => {
+    const lee = await t.agentFor(DEMO.annexTechnician);
+    expect((await lee.put('/api/auth/preferences').send({ unitSystem: 'imperial' })).body.user.unitSystem).toBe('imperial');
+    const body = { method: 'loop-both-ends', nearOhm: 0.855, farOhm: 0.645, lengthM: 12, conductorOhm: 0.45 };
+    const inFeet = await lee.post('/api/fault-location').send(body);
+    const inMetres = await locate(body);
+    expect(inFeet.status).toBe(200);
+    expect(inFeet.body.distanceM).toBe(inMetres.body.distanceM);
+    expect(inMetres.body.explanation).toContain('about 7.4 m from the near end (4.6 m from the far end), ±0.27 m');
+    // mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811): 7.4 m is 24.28 ft, written to 0.1 ft.
+    const ft = math.unit(inMetres.body.distanceM, 'm').toNumber('ft');
+    expect(inFeet.body.explanation).toContain(`about ${ft.toFixed(1)} ft from the near end (15.1 ft from the far end), ±0.89 ft`);
+    expect(inFeet.body.explanation).toContain('Ω/ft per conductor (a sound conductor reads 0.45 Ω over 39.4 ft)');
+    expect(inFeet.body.explanation).not.toMatch(/\d\s*k?m\b|Ω\/m\b|\bmetres?\b/);
+    await lee.put('/api/auth/preferences').send({ unitSystem: 'metric' });
+  });
+
   test('anonymous callers get 401', async () => {
     const res = await t.request.post('/api/fault-location').set('Origin', ORIGIN).send({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 });
     expect(res.status).toBe(401);

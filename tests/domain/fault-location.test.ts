@@ -1,6 +1,6 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
-import { create, all } from 'mathjs';
+import { create, all, unit } from 'mathjs';
 import {
   AWG_OHM_PER_1000FT,
   bandwidthHzForRiseTime,
@@ -636,5 +636,116 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
   test('a schema-valid but physically impossible request is refused by the domain (→ 422)', () => {
     const request = faultLocationRequestSchema.parse({ method: 'murray', lengthM: 600, ratioP: 1, ratioQ: 5 });
     expect(() => runFaultLocation(request)).toThrow(FaultLocationError);
+  });
+});
+
+describe('explanations in the reader’s units', () => {
+  // mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811)
+  const toFeet = (lengthM: number) => unit(lengthM, 'm').toNumber('ft');
+  // Metre lengths as the engine writes them ("7.4 m", "3.864 km", "Ω/m", "per metre"); ns, nF and Ω do not match.
+  const METRE_WORDS = /\d\s*k?m\b|Ω\/m\b|\bmetres?\b/;
+
+  /** The distance of "about 24.3 ft from the near end", in feet, with half the step it was rounded to. */
+  function feetAfterAbout(explanation: string): { ft: number; halfStep: number } {
+    const match = /about (\d+(?:\.(\d+))?) ft from/.exec(explanation);
+    expect(match, explanation).not.toBeNull();
+    const decimals = match![2]?.length ?? 0;
+    return { ft: Number(match![1]), halfStep: 0.5 * 10 ** -decimals };
+  }
+
+  test('when the reader works in feet, then the TDR explanation gives the distance, band and speed in feet', () => {
+    const input = { roundTripNs: 100, velocityFactor: 0.66, riseTimeNs: 2, lengthM: 12 };
+    const metric = locateByTdr(input);
+    const imperial = locateByTdr(input, 'imperial');
+    // Only the words change: the numbers are the same metres.
+    expect(imperial.distanceM).toBe(metric.distanceM);
+    expect(imperial.uncertaintyM).toBe(metric.uncertaintyM);
+
+    const { ft, halfStep } = feetAfterAbout(imperial.explanation);
+    expect(Math.abs(ft - toFeet(metric.distanceM))).toBeLessThanOrEqual(halfStep);
+    expect(ft).toBe(32.5); // 9.894 m / 0.3048
+    expect(imperial.explanation).toContain('(6.91 ft from the far end), ±1.03 ft');
+    const ftPerNs = unit(0.66 * C, 'm/s').toNumber('ft/ns');
+    expect(imperial.explanation).toContain(`travels ${Number(ftPerNs.toPrecision(3))} ft per ns`);
+    expect(imperial.explanation).toContain('0.649 ft per ns');
+    expect(imperial.explanation).not.toMatch(METRE_WORDS);
+  });
+
+  test('when the reader works in feet, then the loop-from-both-ends explanation gives the distance and Ω per foot in feet', () => {
+    const input = { nearOhm: 0.855, farOhm: 0.645, lengthM: 12, conductorOhm: 0.45 };
+    const metric = locateByLoopBothEnds(input);
+    const imperial = locateByLoopBothEnds(input, 'imperial');
+    expect(imperial.distanceM).toBe(metric.distanceM);
+    expect(imperial.faultOhm).toBe(metric.faultOhm);
+
+    const { ft, halfStep } = feetAfterAbout(imperial.explanation);
+    expect(Math.abs(ft - toFeet(metric.distanceM))).toBeLessThanOrEqual(halfStep);
+    expect(ft).toBe(24.3); // 7.4 m / 0.3048
+    const ohmPerFoot = unit(0.45 / 12, 'ohm/m').toNumber('ohm/ft');
+    expect(imperial.explanation).toContain(`At ${Number(ohmPerFoot.toPrecision(4))} Ω/ft per conductor`);
+    expect(imperial.explanation).toContain('over 39.4 ft');
+    expect(imperial.explanation).toContain('(15.1 ft from the far end), ±0.89 ft');
+    expect(imperial.explanation).not.toMatch(METRE_WORDS);
+  });
+
+  test('property: when the reader works in feet, then the loop-from-both-ends distance in words is the metric one converted', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0.05, max: 0.95, noNaN: true }), fc.integer({ min: 2, max: 400 }), (fraction, lengthM) => {
+        const x = fraction * lengthM;
+        const r = 0.0375;
+        const input = { nearOhm: 2 * r * x + 0.1, farOhm: 2 * r * (lengthM - x) + 0.1, lengthM, ohmPerMetre: r };
+        const imperial = locateByLoopBothEnds(input, 'imperial');
+        const { ft, halfStep } = feetAfterAbout(imperial.explanation);
+        expect(Math.abs(ft - toFeet(locateByLoopBothEnds(input).distanceM))).toBeLessThanOrEqual(halfStep + 1e-9);
+        expect(imperial.explanation).not.toMatch(METRE_WORDS);
+      }),
+    );
+  });
+
+  test('when the reader works in feet, then refusals quote lengths in feet too', () => {
+    const tdr = refusal(() => locateByTdr({ roundTripNs: 1000, velocityFactor: 0.66, lengthM: 12 }, 'imperial'));
+    expect(tdr.field).toBe('roundTripNs');
+    expect(tdr.message).toMatch(/^These readings put the fault at 324\.6 ft, beyond the end of this 39\.4 ft cable even allowing ±9\.74 ft\./);
+    const loop = refusal(() => locateByLoopBothEnds({ nearOhm: 0.6, farOhm: 0.6, lengthM: 10, ohmPerMetre: 0.1 }, 'imperial'));
+    expect(loop.message).toContain('(2 × 0.03048 Ω/ft × 32.8 ft)');
+    expect(loop.message).toContain('the Ω per foot');
+    expect(refusal(() => recordFlexTest({ distanceM: 13, lengthM: 12 }, 'imperial')).message).toMatch(/^42\.7 ft is beyond the end of this 39\.4 ft cable/);
+    for (const error of [tdr, loop]) expect(error.message).not.toMatch(METRE_WORDS);
+  });
+
+  test('when the reader works in feet, then calibration, flex, combining and the request runner follow', () => {
+    const calibration = calibrateVelocityFactor({ roundTripNs: 100, lengthM: 10 }, 'imperial');
+    const nsPerFoot = unit(delayNsPerMetre(calibration.velocityFactor), 'ns/m').toNumber('ns/ft');
+    expect(calibration.explanation).toContain(`known-good 32.8 ft cable`);
+    expect(calibration.explanation).toContain(`${Number(nsPerFoot.toPrecision(4))} ns per foot one way`);
+    expect(calibration.delayNsPerMetre).toBe(calibrateVelocityFactor({ roundTripNs: 100, lengthM: 10 }).delayNsPerMetre);
+
+    const flex = runFaultLocation(faultLocationRequestSchema.parse({ method: 'flex', distanceM: 3, lengthM: 12 }), 'imperial');
+    expect(flex.explanation).toBe('Found by flexing the cable by hand: the fault is about 9.84 ft from the near end (29.5 ft from the far end), ±0.33 ft.');
+
+    const estimate = (method: string, distanceM: number, uncertaintyM: number): FaultEstimate => ({ method, distanceM, uncertaintyM, explanation: '', inputs: {} });
+    const combined = combineEstimates([estimate('tdr', 10, 0.1), estimate('capacitance', 12, 0.2)], 'imperial');
+    expect(combined.explanation).toContain('tdr 32.8 ft ±0.33 ft and capacitance 39.4 ft ±0.66 ft do not overlap');
+    expect(combined.explanation).toContain('Ω per foot');
+
+    for (const text of [calibration.explanation, flex.explanation, combined.explanation]) expect(text).not.toMatch(METRE_WORDS);
+  });
+
+  test('when no unit system is given, then the explanation is in metres, word for word as before', () => {
+    const tdrInput = { roundTripNs: 100, velocityFactor: 0.66, riseTimeNs: 2, lengthM: 12 };
+    expect(locateByTdr(tdrInput).explanation).toBe(locateByTdr(tdrInput, 'metric').explanation);
+    expect(locateByTdr(tdrInput).explanation).toBe(
+      'The reflection comes back 100 ns after the incident edge. At a velocity factor of 0.66 the signal travels 0.198 m per ns; ' +
+        'it went to the fault and back, so the fault is about 9.89 m from the instrument end (2.11 m from the far end), ±0.31 m ' +
+        '(±0.1 m from the 2 ns rise time (half its 0.2 m resolution); ±0.3 m from the velocity factor (±0.02)).',
+    );
+    const loopInput = { nearOhm: 0.855, farOhm: 0.645, lengthM: 12, conductorOhm: 0.45 };
+    expect(locateByLoopBothEnds(loopInput).explanation).toBe(locateByLoopBothEnds(loopInput, 'metric').explanation);
+    expect(locateByLoopBothEnds(loopInput).explanation).toBe(
+      'The shorted pair reads 0.855 Ω from the near end and 0.645 Ω from the far end. At 0.0375 Ω/m per conductor ' +
+        '(a sound conductor reads 0.45 Ω over 12 m), the short is about 7.4 m from the near end (4.6 m from the far end), ±0.27 m. ' +
+        'The short itself is about 0.3 Ω ±0.031 Ω; measuring from both ends removes it from the distance.',
+    );
+    expect(calibrateVelocityFactor({ roundTripNs: 100, lengthM: 10 }).explanation).toContain('5 ns per metre one way');
   });
 });

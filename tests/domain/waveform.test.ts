@@ -77,6 +77,19 @@ describe('analyseWaveform', () => {
     expect(a.message).toMatch(/from the instrument end/);
   });
 
+  test('when the person works in feet, then the message gives the distance in feet and the numbers stay in metres', () => {
+    const trace = synthesiseTrace({ roundTripS: 120e-9, rho: -1, noiseV: 0.003, seed: 5 });
+    const metric = analyseWaveform(trace, { velocityFactor: 0.66 });
+    const feet = analyseWaveform(trace, { velocityFactor: 0.66, units: 'imperial' });
+    expect(feet.distanceM).toBe(metric.distanceM);
+    // mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811)
+    const ft = math.unit(metric.distanceM!, 'm').toNumber('ft');
+    expect(feet.message).toContain(`about ${ft.toFixed(1)} ft from the instrument end`);
+    expect(feet.message).not.toMatch(/\d m\b/);
+    const marked = estimateFromMarkers(trace, 300e-9, 420e-9, { velocityFactor: 0.66, units: 'imperial' });
+    expect(marked.message).toMatch(/ ft from the instrument end/);
+  });
+
   test('a reflection past the cable’s end is reported in the message, not turned into a distance', () => {
     const a = analyseWaveform(synthesiseTrace({ roundTripS: 300e-9, rho: 1 }), { velocityFactor: 0.66, lengthM: 10 });
     expect(a.roundTripNs).not.toBeNull();

@@ -73,12 +73,13 @@ function TraceWorkbench({
         velocityFactor: vfValid ? vf : undefined,
         lengthM: data.lengthM ?? undefined,
         riseTimeNs: analysis?.riseTimeNs,
+        units: unitSystem,
       });
     } catch (err) {
       if (err instanceof WaveformError) return { error: err.message };
       throw err;
     }
-  }, [trace, markers, vf, vfValid, data.lengthM, analysis?.riseTimeNs]);
+  }, [trace, markers, vf, vfValid, data.lengthM, analysis?.riseTimeNs, unitSystem]);
 
   const ok = 'roundTripNs' in estimate ? estimate : null;
   const distance =

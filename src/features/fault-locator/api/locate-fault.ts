@@ -1,11 +1,21 @@
 import { useMutation } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { FaultLocationAnswer } from '@shared/domain/fault-location';
+import type { LengthSystem } from '@shared/domain/units';
 import type { FaultLocationRequest } from '@shared/schemas/fault-location';
+
+export interface LocateFaultInput {
+  request: FaultLocationRequest;
+  /**
+   * The units the server words its explanation in (the user's preference, which the page shows).
+   * Not sent: kept with the answer so that one worded in the other system is known to be stale.
+   */
+  unitSystem: LengthSystem;
+}
 
 /** The server's answer for one set of readings: the authority the browser's estimate is checked against. */
 export const locateFault = (request: FaultLocationRequest) =>
   api.post<FaultLocationAnswer>('/fault-location', request as unknown as Record<string, unknown>);
 
 // A computation, not a change: nothing to invalidate.
-export const useLocateFault = () => useMutation({ mutationFn: locateFault });
+export const useLocateFault = () => useMutation({ mutationFn: ({ request }: LocateFaultInput) => locateFault(request) });

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import type { LengthSystem } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
@@ -62,8 +62,15 @@ export function LocateForm({ unitSystem, preset }: { unitSystem: LengthSystem; p
   const fields = activeFields(state, unitSystem);
   const def = methodDef(state.method);
   const requestKey = built.request ? JSON.stringify(built.request) : null;
-  const serverKey = locate.variables ? JSON.stringify(locate.variables) : null;
-  const serverCurrent = requestKey !== null && requestKey === serverKey;
+  const serverKey = locate.variables ? JSON.stringify(locate.variables.request) : null;
+  const sameReadings = requestKey !== null && requestKey === serverKey;
+  const serverCurrent = sameReadings && locate.variables?.unitSystem === unitSystem;
+  // The server words its explanation in the user's units: after a switch, ask it again in the new ones.
+  const reask = sameReadings && !serverCurrent && locate.isSuccess ? built.request : null;
+  const { mutate } = locate;
+  useEffect(() => {
+    if (reask) mutate({ request: reask, unitSystem });
+  }, [reask, unitSystem, mutate]);
   const serverAnswer = serverCurrent && locate.isSuccess ? locate.data : null;
   const serverError = serverCurrent && locate.error ? locate.error : null;
   const serverFieldErrors: Record<string, string> = {};
@@ -87,7 +94,7 @@ export function LocateForm({ unitSystem, preset }: { unitSystem: LengthSystem; p
         onSubmit={(e) => {
           e.preventDefault();
           setShowMissing(true);
-          if (built.request) locate.mutate(built.request);
+          if (built.request) locate.mutate({ request: built.request, unitSystem });
         }}
       >
         <fieldset>
@@ -198,7 +205,6 @@ export function LocateForm({ unitSystem, preset }: { unitSystem: LengthSystem; p
               : 'Fill in the readings to see where the fault is.'}
           </p>
         )}
-        {answer && unitSystem === 'imperial' && <p className="text-xs text-ink-soft">The working above is written in metres.</p>}
       </div>
     </div>
   );

@@ -1,6 +1,6 @@
-import { useMemo, useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
 import { delayNsPerMetre, FaultLocationError, runFaultLocation, type FaultLocationAnswer } from '@shared/domain/fault-location';
-import type { LengthSystem } from '@shared/domain/units';
+import { METRES_PER_FOOT, type LengthSystem } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
@@ -34,14 +34,21 @@ export function VfCalibrationForm({ unitSystem, onUse }: { unitSystem: LengthSys
     if (!length?.ok || !time?.ok) return { request: null, answer: null, errors };
     const request = { method: 'vf-calibration' as const, lengthM: length.value, roundTripNs: time.value * 1e9 };
     try {
-      return { request, answer: runFaultLocation(request), errors };
+      return { request, answer: runFaultLocation(request, unitSystem), errors };
     } catch (err) {
       if (!(err instanceof FaultLocationError)) throw err;
       return { request, answer: null, errors: { [err.field]: err.message } };
     }
   }, [lengthText, timeText, unitSystem]);
 
-  const current = result.request !== null && JSON.stringify(check.variables) === JSON.stringify(result.request);
+  const sameReadings = result.request !== null && JSON.stringify(check.variables?.request) === JSON.stringify(result.request);
+  const current = sameReadings && check.variables?.unitSystem === unitSystem;
+  // The server words its explanation in the user's units: after a switch, ask it again in the new ones.
+  const reask = sameReadings && !current && check.isSuccess ? result.request : null;
+  const { mutate } = check;
+  useEffect(() => {
+    if (reask) mutate({ request: reask, unitSystem });
+  }, [reask, unitSystem, mutate]);
   const serverErrors: Record<string, string> = {};
   if (current && check.error instanceof ApiError) for (const e of check.error.errors) serverErrors[e.path] ??= e.message;
   const answer = (current && check.data) || result.answer;
@@ -54,7 +61,7 @@ export function VfCalibrationForm({ unitSystem, onUse }: { unitSystem: LengthSys
       className="flex flex-col gap-4"
       onSubmit={(e) => {
         e.preventDefault();
-        if (result.request) check.mutate(result.request);
+        if (result.request) check.mutate({ request: result.request, unitSystem });
       }}
     >
       <TextField
@@ -81,7 +88,11 @@ export function VfCalibrationForm({ unitSystem, onUse }: { unitSystem: LengthSys
         <div className="rounded-lg bg-brand-soft p-4" aria-live="polite">
           <p className="text-lg">
             Velocity factor <strong data-testid="vf-result">{Number(vf.toPrecision(3))}</strong>
-            <span className="ml-2 text-sm text-ink-soft">{Number(delayNsPerMetre(vf).toPrecision(4))} ns per metre one way</span>
+            <span className="ml-2 text-sm text-ink-soft">
+              {unitSystem === 'imperial'
+                ? `${Number((delayNsPerMetre(vf) * METRES_PER_FOOT).toPrecision(4))} ns per foot one way`
+                : `${Number(delayNsPerMetre(vf).toPrecision(4))} ns per metre one way`}
+            </span>
           </p>
           <p className="mt-2 text-sm">{answer.explanation}</p>
           <p className="mt-1 text-xs text-ink-soft">{current && check.data ? '✓ Checked by the server' : 'Worked out as you type'}</p>

@@ -145,12 +145,12 @@ function WaveformResult({
   // Recomputed here with the shared engine, so a moved marker moves the estimate at once.
   const estimate = useMemo<MarkerEstimate | { error: string }>(() => {
     try {
-      return estimateFromMarkers(trace, markers.incident, markers.reflection, { velocityFactor, lengthM, riseTimeNs: data.riseTimeNs });
+      return estimateFromMarkers(trace, markers.incident, markers.reflection, { velocityFactor, lengthM, riseTimeNs: data.riseTimeNs, units: unitSystem });
     } catch (err) {
       if (err instanceof WaveformError) return { error: err.message };
       throw err;
     }
-  }, [trace, markers, velocityFactor, lengthM, data.riseTimeNs]);
+  }, [trace, markers, velocityFactor, lengthM, data.riseTimeNs, unitSystem]);
   const ok = 'roundTripNs' in estimate ? estimate : null;
   // Until a marker moves, the numbers are the server's, measured on every sample rather than the plotted ones.
   const shown = moved || !ok ? ok : { ...ok, polarity: data.polarity ?? ok.polarity, reflectionCoefficient: data.reflectionCoefficient ?? ok.reflectionCoefficient };

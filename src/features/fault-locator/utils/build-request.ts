@@ -183,7 +183,7 @@ export interface Built {
   /** Field key → how the text was read, e.g. "855 mΩ". */
   readAs: Record<string, string>;
   missing: string[];
-  /** The same engine as the server's, run here; null until the request is complete and valid. */
+  /** The same engine as the server's, run here and worded in the user's units; null until the request is complete and valid. */
   answer: FaultLocationAnswer | null;
 }
 
@@ -237,7 +237,7 @@ export function buildRequest(state: LocatorState, system: LengthSystem): Built {
     return { request: null, errors, readAs, missing, answer: null };
   }
   try {
-    return { request: checked.data, errors, readAs, missing, answer: runFaultLocation(checked.data) };
+    return { request: checked.data, errors, readAs, missing, answer: runFaultLocation(checked.data, system) };
   } catch (err) {
     if (!(err instanceof FaultLocationError)) throw err;
     errors[err.field] = err.message;
