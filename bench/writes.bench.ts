@@ -82,7 +82,8 @@ export async function run(): Promise<BenchResult> {
           headers,
           setupRequest: (req) => {
             const step = steps[i++ % steps.length];
-            return { ...req, body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value }) };
+            // As the tablet sends it: its own id and the time it was typed.
+            return { ...req, body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString() }) };
           },
         },
       ],

@@ -18,6 +18,8 @@ interface TableRow {
   id: string;
   stripLabel: string;
   stepId: string;
+  takenAt: string;
+  receivedAt: string | null;
 }
 
 const indicator = (page: Page) => page.getByTestId('sync-indicator');
@@ -106,6 +108,7 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   });
 
   // The network is back: the queue goes out in order.
+  const backOnline = new Date().toISOString();
   await context.setOffline(false);
   await expect(indicator(page)).toHaveAttribute('data-state', 'needs-you', { timeout: 30_000 });
   await expect(indicator(page)).toHaveText('1 needs you');
@@ -119,6 +122,11 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   expect(new Set(strip20.map((r) => r.id)).size).toBe(27);
   expect(new Set(strip20.map((r) => r.stepId)).size).toBe(27);
   expect(strip20.some((r) => r.stepId === removedStepId)).toBe(false);
+  // Each counts at the time it was typed, not when the network came back to send it.
+  for (const r of strip20) {
+    expect(r.takenAt < backOnline, `${r.takenAt} taken before ${backOnline}`).toBe(true);
+    expect(r.receivedAt! >= backOnline, `${r.receivedAt} received after ${backOnline}`).toBe(true);
+  }
   await expect(page.getByTestId('strip-status')).toContainText('Clear');
 
   // The reading of the removed step is a problem with what to do, its value kept.

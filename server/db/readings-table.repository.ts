@@ -38,6 +38,7 @@ export function readingsTableRepository(db: Db | Tx) {
           takenBy: readings.takenBy,
           takenByName: users.name,
           takenAt: readings.takenAt,
+          receivedAt: readings.receivedAt,
           supersedesId: readings.supersedesId,
           correctionReason: readings.correctionReason,
           supersededBy: sql<string | null>`(select r2.id from readings r2 where r2.supersedes_id = ${readings.id} order by r2.taken_at desc, r2.rowid desc limit 1)`,

@@ -224,6 +224,9 @@ export const readings = sqliteTable(
     requestHash: text('request_hash').notNull(),
     takenBy: text('taken_by').notNull().references(() => users.id),
     takenAt: text('taken_at').notNull().default(now),
+    // When the server got it (a reading typed offline arrives later than it was taken). Null on
+    // rows from before this column: they were stamped on arrival, so taken_at is that time.
+    receivedAt: text('received_at'),
   },
   (t) => [index('readings_step_idx').on(t.stepId, t.takenAt)],
 );

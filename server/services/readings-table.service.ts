@@ -21,6 +21,7 @@ const CSV_COLUMNS = [
   ['Profile version', 'profileVersion'],
   ['Taken by', 'takenByName'],
   ['Taken at (UTC)', 'takenAt'],
+  ['Received at (UTC)', 'receivedAt'],
   ['Corrects reading', 'supersedesId'],
   ['Correction reason', 'correctionReason'],
   ['Superseded by', 'supersededBy'],

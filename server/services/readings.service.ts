@@ -14,6 +14,7 @@ import { reopenIfSignedOff } from './venue-lifecycle';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
 import { parseReading } from '../../shared/domain/units';
+import { decideTakenAt } from '../../shared/domain/reading-time';
 import { evaluateReading, NoRuleError, ReadingInputError, type LimitProfile, type LimitRule, type EquipmentKind } from '../../shared/domain/limits';
 import type { CreateReadingInput, ReadingDto } from '../../shared/schemas/readings';
 import type { FaultKind } from '../../shared/schemas/faults';
@@ -79,6 +80,7 @@ export function presentReading(r: ReadingRow, takenByName: string | null, faultI
     supersedesId: r.supersedesId,
     correctionReason: r.correctionReason,
     takenAt: r.takenAt,
+    receivedAt: r.receivedAt,
     takenBy: r.takenBy,
     takenByName,
   };
@@ -86,7 +88,10 @@ export function presentReading(r: ReadingRow, takenByName: string | null, faultI
   return dto;
 }
 
-/** What tells a replay from a different request: the body, normalised, without the id. */
+/**
+ * What tells a replay from a different request: the body, normalised, without the id. The
+ * tablet's takenAt is left out: the queue resends the same body, and the stamp is not the reading.
+ */
 function requestHash(body: CreateReadingInput): string {
   return sha256Hex(
     JSON.stringify({
@@ -177,7 +182,9 @@ export function readingsService(deps: AppDeps) {
         throw err;
       }
 
-      const takenAt = nowIso();
+      const receivedAt = nowIso();
+      const time = decideTakenAt(body.takenAt, receivedAt);
+      const takenAt = time.takenAt;
       const row: ReadingRow = {
         id: body.id,
         stepId: body.stepId,
@@ -200,6 +207,7 @@ export function readingsService(deps: AppDeps) {
         requestHash: hash,
         takenBy: user.id,
         takenAt,
+        receivedAt,
       };
       readingsRepository(db).insert(row);
       writeAudit(db, {
@@ -215,6 +223,9 @@ export function readingsService(deps: AppDeps) {
           verdict: verdict.verdict,
           profileVersion: profile.version,
           ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
+          // The tablet's own time is kept here even when it was not believed (nothing typed is lost).
+          ...(time.source === 'tablet' && takenAt !== receivedAt ? { takenAt, receivedAt } : {}),
+          ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
         },
       });
       // The venue's status was read in this transaction: only a signed-off venue is touched.

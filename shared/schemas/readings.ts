@@ -25,6 +25,12 @@ export const createReadingSchema = z
       .max(TEMPERATURE_RANGE_C.max, { error: `temperatureC must be at most ${TEMPERATURE_RANGE_C.max} °C` })
       .nullable()
       .optional(),
+    // When the technician typed it (the tablet's clock, ISO 8601): a reading sent later from the
+    // offline queue still counts at that time, within limits (shared/domain/reading-time.ts).
+    takenAt: z.iso
+      .datetime({ offset: true, error: 'takenAt must be a date and time in ISO 8601, e.g. 2026-11-14T07:05:00Z' })
+      .nullable()
+      .optional(),
     supersedesId: idField.nullable().optional(),
     correctionReason: z.string().trim().min(3, { error: 'correctionReason needs a few words' }).max(500).nullable().optional(),
   })
@@ -62,7 +68,10 @@ export interface ReadingDto {
   explanation: string;
   supersedesId: string | null;
   correctionReason: string | null;
+  /** When it counts: the tablet's time when typed (within limits), else when it arrived. */
   takenAt: string;
+  /** When the server received it; null on readings stored before this was kept. */
+  receivedAt: string | null;
   takenBy: string;
   takenByName: string | null;
   faultId?: string | null;

@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
 import { certificates, faults, readings, signingKeys, signOffs, steps, users, venues } from '../../server/db/schema';
-import { newReading, stepOf, stripByLabel, venueIds, type StripDto } from './testing-helpers';
+import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds, type StripDto } from './testing-helpers';
 
 let t: TestApp;
 let hall: string;
@@ -287,5 +287,93 @@ describe('GET /api/readings/:id', () => {
     const made = await sam.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'B').step.id, '1.25'));
     const rows = t.sqlite.prepare("select action from audit_log where entity_type = 'reading' and entity_id = ?").all(made.body.id);
     expect(rows).toEqual([{ action: 'reading.recorded' }]);
+  });
+});
+
+describe('POST /api/readings: the time a reading counts at', () => {
+  const minutesAgo = (n: number) => new Date(Date.now() - n * 60_000).toISOString();
+
+  test('when a reading typed offline arrives 30 minutes late, then it counts at the time it was typed and a reading taken after it stays the latest', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const strip = await stripByLabel(t, hall, 'Strip 24');
+    const { step } = stepOf(strip, 'Right reel', 'continuity', 'A');
+    const online = await sam.post('/api/readings').send(newReading(step.id, '0.7'));
+    expect(online.status).toBe(201);
+    const typedAt = minutesAgo(30);
+    const late = await sam.post('/api/readings').send(newReading(step.id, '0.9', { takenAt: typedAt }));
+    expect(late.status).toBe(201);
+    expect(late.body.takenAt).toBe(typedAt);
+    expect(Date.parse(late.body.receivedAt) - Date.parse(typedAt)).toBeGreaterThanOrEqual(30 * 60_000 - 1000);
+    const after = await stripByLabel(t, hall, 'Strip 24');
+    expect(stepOf(after, 'Right reel', 'continuity', 'A').step.latest!.id).toBe(online.body.id);
+    // The same reading sent again (the queue retrying) is a replay, stamp and all.
+    const again = await sam.post('/api/readings').send({ id: late.body.id, stepId: step.id, value: '0.9', takenAt: typedAt });
+    expect(again.status).toBe(200);
+    expect(again.body.takenAt).toBe(typedAt);
+  });
+
+  test('when the tablet sends a time with an offset, then it is stored in UTC like the server’s own times', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const strip = await stripByLabel(t, hall, 'Strip 24');
+    const { step } = stepOf(strip, 'Right reel', 'continuity', 'B');
+    const utc = new Date(Date.now() - 10 * 60_000);
+    utc.setUTCMilliseconds(0);
+    // The same instant written as local time two hours east of UTC (ISO 8601 offset form).
+    const east = new Date(utc.getTime() + 2 * 3_600_000).toISOString().replace('.000Z', '+02:00');
+    const res = await sam.post('/api/readings').send(newReading(step.id, '0.8', { takenAt: east }));
+    expect(res.status).toBe(201);
+    expect(res.body.takenAt).toBe(utc.toISOString());
+  });
+
+  test('when the tablet’s clock is an hour ahead or a month behind, then the arrival time is used and the tablet’s time is kept in the audit trail', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const strip = await stripByLabel(t, hall, 'Strip 24');
+    const { step } = stepOf(strip, 'Right reel', 'continuity', 'C');
+    for (const [claimed, why] of [
+      [new Date(Date.now() + 3_600_000).toISOString(), 'ahead'],
+      [minutesAgo(30 * 24 * 60), 'too-old'],
+    ] as const) {
+      const before = Date.now();
+      const res = await sam.post('/api/readings').send(newReading(step.id, '0.8', { takenAt: claimed }));
+      expect(res.status).toBe(201);
+      expect(res.body.takenAt).toBe(res.body.receivedAt);
+      expect(Date.parse(res.body.takenAt)).toBeGreaterThanOrEqual(before - 1000);
+      const audit = t.sqlite.prepare("select detail_json from audit_log where entity_type = 'reading' and entity_id = ?").pluck().get(res.body.id) as string;
+      expect(JSON.parse(audit)).toMatchObject({ tabletTakenAt: claimed, tabletClock: why });
+    }
+  });
+
+  test('when takenAt is not a date and time, then it answers 422 on takenAt and stores nothing', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const strip = await stripByLabel(t, hall, 'Strip 24');
+    const { step } = stepOf(strip, 'Right reel', 'continuity', 'A');
+    const body = newReading(step.id, '0.8', { takenAt: 'this morning' });
+    const res = await sam.post('/api/readings').send(body);
+    expect(res.status).toBe(422);
+    expect(res.body.errors.map((e: { path: string }) => e.path)).toEqual(['takenAt']);
+    expect(countReadings(body.id)).toBe(0);
+  });
+
+  test('when a passing reading typed before a repair is sent after it, then it is not the retest: the fault closes only on readings taken after the repair', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const strip = await stripByLabel(t, hall, 'Strip 24');
+    const position = strip.positions.find((p) => p.name === 'Left floor cable')!;
+    const first = position.steps.find((s) => s.testKind === 'continuity')!;
+    const failed = await sam.post('/api/readings').send(newReading(first.id, '4.0', { takenAt: minutesAgo(20) }));
+    expect(failed.body.verdict).toBe('fail');
+    const faultId = failed.body.faultId as string;
+    expect((await sam.post(`/api/faults/${faultId}/repairs`).send({ action: 'connector-remade' })).status).toBe(201);
+    const statusOf = () => t.db.select().from(faults).where(eq(faults.id, faultId)).get()!.status;
+
+    // Every step passes, but one of the passes was typed (offline) before the repair.
+    for (const s of position.steps) {
+      const extra = s.id === first.id ? { takenAt: minutesAgo(10) } : {};
+      const r = await sam.post('/api/readings').send(newReading(s.id, GOOD_VALUE[s.testKind]!, extra));
+      expect(r.body.verdict).not.toBe('fail');
+    }
+    expect(statusOf()).toBe('repaired');
+    // Measured again after the repair: now the retest is complete.
+    await sam.post('/api/readings').send(newReading(first.id, GOOD_VALUE[first.testKind]!));
+    expect(statusOf()).toBe('closed');
   });
 });

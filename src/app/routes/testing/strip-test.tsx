@@ -219,7 +219,7 @@ export default function StripTestPage() {
                       submit={async (input, preview) => {
                         if (!me.data) throw new Error('not signed in');
                         await enqueueReading({
-                          body: { id: newReadingId(), ...input },
+                          body: { id: newReadingId(), takenAt: new Date().toISOString(), ...input },
                           userId: me.data.id,
                           venueId: data.venueId,
                           stripId: data.id,

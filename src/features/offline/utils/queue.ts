@@ -24,6 +24,8 @@ export interface ReadingBody {
   stepId: string;
   value: string;
   leadOffsetOhm?: number | null;
+  /** When it was typed (the tablet's clock): a reading sent later still counts at that time. */
+  takenAt?: string;
   supersedesId?: string;
   correctionReason?: string;
 }

@@ -27,6 +27,8 @@ export interface ReadingRow {
   profileVersion: number;
   takenByName: string | null;
   takenAt: string;
+  /** When the server got it; later than takenAt for a reading typed offline. */
+  receivedAt: string | null;
   supersedesId: string | null;
   supersededBy: string | null;
   superseded: boolean;

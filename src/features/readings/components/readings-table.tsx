@@ -21,6 +21,8 @@ import type { CorrectionInput } from '../api/correct-reading';
 const VERDICT = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['triangle', 'near', 'Near limit'], fail: ['square', 'fail', 'Fail'] } as const;
 const col = createColumnHelper<ReadingRow>();
 const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' });
+/** A reading typed offline reached the server a while after it was taken: say when. */
+const sentLater = (r: ReadingRow) => r.receivedAt !== null && Date.parse(r.receivedAt) - Date.parse(r.takenAt) >= 60_000;
 const equals = (row: { getValue: (id: string) => unknown }, id: string, value: unknown) => value === '' || row.getValue(id) === value;
 
 function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrect: (v: CorrectionInput) => Promise<unknown>; onClose: () => void }) {
@@ -107,6 +109,7 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
         cell: (c) => (
           <span className="text-xs">
             <span className="whitespace-nowrap">{when(c.getValue())}</span>
+            {sentLater(c.row.original) && <span className="block whitespace-nowrap text-ink-soft">sent {when(c.row.original.receivedAt!)}</span>}
             <span className="block">{c.row.original.takenByName}</span>
           </span>
         ),
