@@ -107,7 +107,9 @@ export function createApp(deps: AppDeps) {
   // strict: false so a bare JSON value (5, "x") reaches the schema and gets its 422, not a parse error.
   api.use(express.json({ limit: '100kb', strict: false }));
   api.use(cookieParser());
-  api.use(csrfGuard(deps.env.APP_ORIGIN));
+  // Checking a certificate file stores nothing and is public: outside tools (a script, curl) may
+  // send it without our Origin header.
+  api.use(csrfGuard(deps.env.APP_ORIGIN, new Set(['/verify/file'])));
   api.use(authenticate(auth, cookie.name));
   // No caching of API answers by browsers or proxies: they hold people's data.
   api.use((_req, res, next) => {

@@ -5,9 +5,11 @@ const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 // CSRF defence by the standard headers (OWASP ASVS 3.5): Sec-Fetch-Site where sent, else Origin,
 // else Referer, must be our own origin. A state-changing request with none of them is refused.
-export function csrfGuard(appOrigin: string): RequestHandler {
+// `readOnly` lists POST paths (inside the API router) that change nothing and are for anyone, so a
+// request from elsewhere cannot do harm with the visitor's cookie: they need no origin check.
+export function csrfGuard(appOrigin: string, readOnly: ReadonlySet<string> = new Set()): RequestHandler {
   return (req, _res, next) => {
-    if (SAFE.has(req.method)) return next();
+    if (SAFE.has(req.method) || readOnly.has(req.path)) return next();
     const site = req.get('sec-fetch-site');
     if (site && site !== 'same-origin' && site !== 'none') {
       return next(forbidden('This request came from another site and was refused.'));

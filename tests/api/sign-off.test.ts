@@ -342,6 +342,17 @@ describe('public verification', () => {
     expect(bad.body.certificate).toBeUndefined();
   });
 
+  test('when an outside tool checks a PDF without an Origin header, then it gets its answer; other writes without one are still refused', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const strip = issued.find((c) => c.kind === 'strip')!;
+    const pdf = (await download(marco, `/api/certificates/${strip.number}/pdf`)).body as Buffer;
+    const plain = await t.request.post('/api/verify/file').attach('file', pdf, 'cert.pdf');
+    expect(plain.status).toBe(200);
+    expect(plain.body).toMatchObject({ match: true, certificate: { number: strip.number } });
+    const signIn = await t.request.post('/api/auth/sign-in').send({ email: 'marco@lakeshore.example', password: 'demo-strip-2026' });
+    expect(signIn.status).toBe(403);
+  });
+
   test('POST /api/verify/file refuses a file that is not a PDF with 415, and a missing file with 422', async () => {
     const res = await t.request.post('/api/verify/file').set('Origin', 'http://localhost:3999').attach('file', Buffer.from('GIF89a not a pdf'), 'x.pdf');
     expect(res.status).toBe(415);
