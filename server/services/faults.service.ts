@@ -20,7 +20,7 @@ import {
   type FaultEstimate,
 } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
-import type { LengthSystem } from '../../shared/domain/units';
+import { formatLength, type LengthSystem } from '../../shared/domain/units';
 import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
 
 export function presentEquipment(e: EquipmentRow | null) {
@@ -372,8 +372,10 @@ export function faultsService(deps: AppDeps) {
           });
         }
         if (body.lengthRemovedM! >= before) {
-          throw unprocessable('cut-too-long', `${body.lengthRemovedM} m is not less than the ${before} m of ${item!.assetTag}; retire the item instead.`, {
-            errors: [{ path: 'lengthRemovedM', message: `Must be less than the item's ${before} m` }],
+          // Worded in the person's units: the form shows this under the field they typed in.
+          const [cut, whole] = [formatLength(body.lengthRemovedM!, user.unitSystem), formatLength(before, user.unitSystem)];
+          throw unprocessable('cut-too-long', `${cut} is not less than the ${whole} of ${item!.assetTag}; retire the item instead.`, {
+            errors: [{ path: 'lengthRemovedM', message: `Must be less than the item's ${whole}` }],
           });
         }
         lengthBeforeM = before;

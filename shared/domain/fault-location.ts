@@ -116,12 +116,18 @@ function lengthWords(units: LengthSystem) {
     },
     /** A speed: "0.198 m per ns", "0.649 ft per ns". */
     perNs: (metresPerNs: number): string => `${num(metresPerNs / metresPerUnit, 3)} ${imperial ? 'ft' : 'm'} per ns`,
-    /** Something per metre (ns, Ω) as a number per metre or per foot. */
+    /** Something per metre (a delay in ns) as a number per metre or per foot. */
     perLength: (valuePerMetre: number, digits = 4): string => num(valuePerMetre * metresPerUnit, digits),
-    /** "metre" or "foot", for "ns per metre" and "Ω per metre". */
+    /** "metre" or "foot", for "ns per metre". */
     unitName: imperial ? 'foot' : 'metre',
-    /** "m" or "ft", for "Ω/m". */
-    unitSymbol: imperial ? 'ft' : 'm',
+    /**
+     * A conductor's resistance per length: "0.0375 Ω/m", or per 1000 ft in feet ("11.43 Ω/1000 ft"),
+     * as the forms take it and as wire tables give it (per foot is a tiny number).
+     */
+    ohmPerLength: (ohmPerMetre: number): string =>
+      imperial ? `${num(ohmPerMetre * metresPerUnit * 1000)} Ω/1000 ft` : `${num(ohmPerMetre)} Ω/m`,
+    /** "Ω per metre" or "Ω per 1000 ft", for advice sentences. */
+    ohmPerWords: imperial ? 'Ω per 1000 ft' : 'Ω per metre',
   };
 }
 
@@ -365,17 +371,17 @@ function perMetre(
   }
   if (ohmPerMetre !== undefined) {
     const r = requirePositive('ohmPerMetre', ohmPerMetre, 'a resistance per metre in Ω/m');
-    return { ohmPerMetre: r, relUncertainty: tableRel, sentence: `${f.perLength(r)} Ω/${f.unitSymbol} per conductor` };
+    return { ohmPerMetre: r, relUncertainty: tableRel, sentence: `${f.ohmPerLength(r)} per conductor` };
   }
   if (conductorOhm !== undefined) {
     const c = requirePositive('conductorOhm', conductorOhm, 'a conductor resistance in Ω');
     if (lengthM === undefined) {
-      throw new FaultLocationError('lengthM', `lengthM is needed to turn the end-to-end conductor reading into Ω per ${f.unitName}.`);
+      throw new FaultLocationError('lengthM', `lengthM is needed to turn the end-to-end conductor reading into ${f.ohmPerWords}.`);
     }
     return {
       ohmPerMetre: c / lengthM,
       relUncertainty: meterUncertaintyOhm(c, accuracy) / c,
-      sentence: `${f.perLength(c / lengthM)} Ω/${f.unitSymbol} per conductor (a sound conductor reads ${formatOhm(c)} over ${f.m(lengthM)})`,
+      sentence: `${f.ohmPerLength(c / lengthM)} per conductor (a sound conductor reads ${formatOhm(c)} over ${f.m(lengthM)})`,
     };
   }
   throw new FaultLocationError('ohmPerMetre', 'Give ohmPerMetre, or conductorOhm (a sound conductor end to end) with lengthM.');
@@ -426,7 +432,7 @@ export function locateByLoopOneEnd(input: LoopOneEndInput, units: LengthSystem =
     uncertaintyM,
     lengthM,
     'loopOhm',
-    `The loop reading is larger than the whole cable's loop${wholeLoop}: check that the far end is open (not bridged), that the pair is the shorted one, and the Ω per ${f.unitName}.`,
+    `The loop reading is larger than the whole cable's loop${wholeLoop}: check that the far end is open (not bridged), that the pair is the shorted one, and the ${f.ohmPerWords}.`,
     f,
   );
   const faultSentence =
@@ -498,7 +504,7 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput, units: LengthSyst
   if (faultOhm < -faultUncertaintyOhm) {
     throw new FaultLocationError(
       'farOhm',
-      `The two loop readings add up to ${formatOhm(nearOhm + farOhm)}, less than the ${formatOhm(2 * rpm * lengthM)} that the cable's own conductors must show (2 × ${f.perLength(rpm)} Ω/${f.unitSymbol} × ${f.m(lengthM)}). These readings are inconsistent: check the length, the Ω per ${f.unitName}, and that both readings are of the same pair with the other end open.`,
+      `The two loop readings add up to ${formatOhm(nearOhm + farOhm)}, less than the ${formatOhm(2 * rpm * lengthM)} that the cable's own conductors must show (2 × ${f.ohmPerLength(rpm)} × ${f.m(lengthM)}). These readings are inconsistent: check the length, the ${f.ohmPerWords}, and that both readings are of the same pair with the other end open.`,
     );
   }
   const edgeNote = checkInsideCable(
@@ -506,7 +512,7 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput, units: LengthSyst
     uncertaintyM,
     lengthM,
     'nearOhm',
-    `The near and far readings differ by more than the whole cable can explain: check that the same pair was measured from both ends and the Ω per ${f.unitName}.`,
+    `The near and far readings differ by more than the whole cable can explain: check that the same pair was measured from both ends and the ${f.ohmPerWords}.`,
     f,
   );
   const faultText =
@@ -698,7 +704,7 @@ export type CombinedEstimate = {
  * All estimates must be measured from the same end.
  */
 export function combineEstimates(estimates: FaultEstimate[], units: LengthSystem = 'metric'): CombinedEstimate {
-  const { m, pm, unitName } = lengthWords(units);
+  const { m, pm, ohmPerWords } = lengthWords(units);
   if (estimates.length === 0) throw new FaultLocationError('estimates', 'There is no estimate to combine.');
   estimates.forEach((e, i) => {
     if (!Number.isFinite(e.distanceM)) throw new FaultLocationError(`estimates.${i}.distanceM`, 'Each estimate needs a distance.');
@@ -738,7 +744,7 @@ export function combineEstimates(estimates: FaultEstimate[], units: LengthSystem
       .join('; ');
     explanation =
       `The estimates disagree: ${pairs} do not overlap. The weighted middle is about ${m(distanceM)}, with the band widened to ${pm(uncertaintyM)} for the scatter. ` +
-      `Re-check the readings (same end, same pair, velocity factor, Ω per ${unitName}), or flex-test the cable between the estimates.`;
+      `Re-check the readings (same end, same pair, velocity factor, ${ohmPerWords}), or flex-test the cable between the estimates.`;
   }
   return { distanceM, uncertaintyM, agree, disagreements, explanation };
 }

@@ -279,3 +279,54 @@ function trimFixed(value: number, decimals: number): string {
   const text = String(Number(value.toFixed(decimals)));
   return text === '-0' ? '0' : text;
 }
+
+/** What a length field is labelled with and typed in: `m` or `ft`. */
+export function lengthUnitSymbol(system: LengthSystem): 'm' | 'ft' {
+  return system === 'imperial' ? 'ft' : 'm';
+}
+
+/** The word for the unit in a sentence: "in metres", "in feet". */
+export function lengthUnitWord(system: LengthSystem): 'metres' | 'feet' {
+  return system === 'imperial' ? 'feet' : 'metres';
+}
+
+// Rounded to 12 significant digits, as readings are, so 3 ft is 0.9144 m, not 0.9144000000000001.
+/** A length typed in the user's unit → metres. */
+export function lengthToMetres(value: number, system: LengthSystem): number {
+  return roundSignificant(system === 'imperial' ? feetToMetres(value) : value, 12);
+}
+
+/** Metres → a number in the user's unit (feet unrounded; round for display). */
+export function metresToLength(lengthM: number, system: LengthSystem): number {
+  return system === 'imperial' ? metresToFeet(lengthM) : lengthM;
+}
+
+/** How a resistance per length is typed: per metre, km, foot or 1000 ft of one conductor. */
+export type PerLengthUnit = 'Ω/m' | 'Ω/km' | 'Ω/ft' | 'Ω/1000 ft';
+
+const METRES_PER_LENGTH_UNIT: Record<PerLengthUnit, number> = {
+  'Ω/m': 1,
+  'Ω/km': 1000,
+  'Ω/ft': METRES_PER_FOOT,
+  'Ω/1000 ft': 1000 * METRES_PER_FOOT,
+};
+
+/** 11.43 Ω/1000 ft → 0.0375 Ω/m. */
+export function toOhmPerMetre(value: number, unit: PerLengthUnit): number {
+  return roundSignificant(value / METRES_PER_LENGTH_UNIT[unit], 12);
+}
+
+/** 0.0375 Ω/m → 11.43 Ω/1000 ft (unrounded; round for display). */
+export function fromOhmPerMetre(ohmPerMetre: number, unit: PerLengthUnit): number {
+  return ohmPerMetre * METRES_PER_LENGTH_UNIT[unit];
+}
+
+const DECIMAL = /^[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?$/;
+
+/** A plain number as typed in a form field: `12`, `1.5`, `0,8` (comma decimal), `.5`; null otherwise. */
+export function parseDecimal(text: string): number | null {
+  const trimmed = text.trim();
+  if (!DECIMAL.test(trimmed)) return null;
+  const value = Number(trimmed.replace(',', '.'));
+  return Number.isFinite(value) ? value : null;
+}

@@ -207,7 +207,7 @@ describe('POST /api/fault-location', () => {
     // mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811): 7.4 m is 24.28 ft, written to 0.1 ft.
     const ft = math.unit(inMetres.body.distanceM, 'm').toNumber('ft');
     expect(inFeet.body.explanation).toContain(`about ${ft.toFixed(1)} ft from the near end (15.1 ft from the far end), ±0.89 ft`);
-    expect(inFeet.body.explanation).toContain('Ω/ft per conductor (a sound conductor reads 0.45 Ω over 39.4 ft)');
+    expect(inFeet.body.explanation).toContain('Ω/1000 ft per conductor (a sound conductor reads 0.45 Ω over 39.4 ft)');
     expect(inFeet.body.explanation).not.toMatch(/\d\s*k?m\b|Ω\/m\b|\bmetres?\b/);
     await lee.put('/api/auth/preferences').send({ unitSystem: 'metric' });
   });

@@ -214,6 +214,28 @@ describe('POST /api/faults', () => {
 });
 
 describe('POST /api/faults/:id/repairs and the retest', () => {
+  test('a too-long cut-out is refused in the person’s units: 39.4 ft for a feet user (12 m / 0.3048 = 39.37 ft), 12 m otherwise', async () => {
+    const f = await faultOn('Strip 6');
+    const sam = await t.agentFor(DEMO.technician);
+    const metric = await sam.post(`/api/faults/${f.id}/repairs`).send({ action: 'cut-out', lengthRemovedM: 12.2 });
+    expect(metric.status).toBe(422);
+    expect(metric.body.errors).toEqual([{ path: 'lengthRemovedM', message: "Must be less than the item's 12 m" }]);
+    expect(metric.body.detail).toContain('12.2 m is not less than the 12 m of');
+
+    expect((await sam.put('/api/auth/preferences').send({ unitSystem: 'imperial' })).status).toBe(200);
+    try {
+      const feet = await sam.post(`/api/faults/${f.id}/repairs`).send({ action: 'cut-out', lengthRemovedM: 12.2 });
+      expect(feet.status).toBe(422);
+      expect(feet.body.errors).toEqual([{ path: 'lengthRemovedM', message: "Must be less than the item's 39.4 ft" }]);
+      // 12.2 m / 0.3048 = 40.03 ft
+      expect(feet.body.detail).toContain('40 ft is not less than the 39.4 ft of');
+    } finally {
+      await sam.put('/api/auth/preferences').send({ unitSystem: 'metric' });
+    }
+    // Nothing was recorded: the item keeps its 12 m.
+    expect(t.db.select().from(equipment).where(eq(equipment.id, f.equipment!.id)).get()!.lengthM).toBe(12);
+  });
+
   test('a cut-out needs a length shorter than the item; 1.5 m cut from the 12 m cable leaves 10.5 m', async () => {
     const f = await faultOn('Strip 6');
     const sam = await t.agentFor(DEMO.technician);

@@ -671,7 +671,7 @@ describe('explanations in the reader’s units', () => {
     expect(imperial.explanation).not.toMatch(METRE_WORDS);
   });
 
-  test('when the reader works in feet, then the loop-from-both-ends explanation gives the distance and Ω per foot in feet', () => {
+  test('when the reader works in feet, then the loop-from-both-ends explanation gives the distance in feet and Ω per 1000 ft', () => {
     const input = { nearOhm: 0.855, farOhm: 0.645, lengthM: 12, conductorOhm: 0.45 };
     const metric = locateByLoopBothEnds(input);
     const imperial = locateByLoopBothEnds(input, 'imperial');
@@ -681,8 +681,9 @@ describe('explanations in the reader’s units', () => {
     const { ft, halfStep } = feetAfterAbout(imperial.explanation);
     expect(Math.abs(ft - toFeet(metric.distanceM))).toBeLessThanOrEqual(halfStep);
     expect(ft).toBe(24.3); // 7.4 m / 0.3048
-    const ohmPerFoot = unit(0.45 / 12, 'ohm/m').toNumber('ohm/ft');
-    expect(imperial.explanation).toContain(`At ${Number(ohmPerFoot.toPrecision(4))} Ω/ft per conductor`);
+    // Per 1000 ft, as wire tables give it: mathjs unit conversion.
+    const ohmPer1000Ft = unit(0.45 / 12, 'ohm/m').toNumber('ohm/ft') * 1000;
+    expect(imperial.explanation).toContain(`At ${Number(ohmPer1000Ft.toPrecision(4))} Ω/1000 ft per conductor`);
     expect(imperial.explanation).toContain('over 39.4 ft');
     expect(imperial.explanation).toContain('(15.1 ft from the far end), ±0.89 ft');
     expect(imperial.explanation).not.toMatch(METRE_WORDS);
@@ -707,8 +708,9 @@ describe('explanations in the reader’s units', () => {
     expect(tdr.field).toBe('roundTripNs');
     expect(tdr.message).toMatch(/^These readings put the fault at 324\.6 ft, beyond the end of this 39\.4 ft cable even allowing ±9\.74 ft\./);
     const loop = refusal(() => locateByLoopBothEnds({ nearOhm: 0.6, farOhm: 0.6, lengthM: 10, ohmPerMetre: 0.1 }, 'imperial'));
-    expect(loop.message).toContain('(2 × 0.03048 Ω/ft × 32.8 ft)');
-    expect(loop.message).toContain('the Ω per foot');
+    // 0.1 Ω/m = 30.48 Ω/1000 ft (1 ft = 0.3048 m)
+    expect(loop.message).toContain('(2 × 30.48 Ω/1000 ft × 32.8 ft)');
+    expect(loop.message).toContain('the Ω per 1000 ft');
     expect(refusal(() => recordFlexTest({ distanceM: 13, lengthM: 12 }, 'imperial')).message).toMatch(/^42\.7 ft is beyond the end of this 39\.4 ft cable/);
     for (const error of [tdr, loop]) expect(error.message).not.toMatch(METRE_WORDS);
   });
@@ -726,7 +728,7 @@ describe('explanations in the reader’s units', () => {
     const estimate = (method: string, distanceM: number, uncertaintyM: number): FaultEstimate => ({ method, distanceM, uncertaintyM, explanation: '', inputs: {} });
     const combined = combineEstimates([estimate('tdr', 10, 0.1), estimate('capacitance', 12, 0.2)], 'imperial');
     expect(combined.explanation).toContain('tdr 32.8 ft ±0.33 ft and capacitance 39.4 ft ±0.66 ft do not overlap');
-    expect(combined.explanation).toContain('Ω per foot');
+    expect(combined.explanation).toContain('Ω per 1000 ft');
 
     for (const text of [calibration.explanation, flex.explanation, combined.explanation]) expect(text).not.toMatch(METRE_WORDS);
   });

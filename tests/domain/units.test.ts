@@ -1,14 +1,22 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
-import { create, all } from 'mathjs';
+import { create, all, unit, type Unit } from 'mathjs';
 import {
   feetToMetres,
   formatLength,
   formatOhm,
+  fromOhmPerMetre,
+  lengthToMetres,
+  lengthUnitSymbol,
+  lengthUnitWord,
   metresToFeet,
+  metresToLength,
+  parseDecimal,
   parseReading,
   READING_BOUNDS,
+  toOhmPerMetre,
   type ParsedReading,
+  type PerLengthUnit,
   type Quantity,
 } from '../../shared/domain/units';
 
@@ -282,5 +290,84 @@ describe('lengths', () => {
     [0.3048, 'imperial', '1 ft'],
   ])('%d m in %s → %s', (m, system, text) => {
     expect(formatLength(m, system)).toBe(text);
+  });
+});
+
+// mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811).
+describe('lengths typed in the user\'s unit', () => {
+  test('units and words: m / metres, ft / feet', () => {
+    expect([lengthUnitSymbol('metric'), lengthUnitWord('metric')]).toEqual(['m', 'metres']);
+    expect([lengthUnitSymbol('imperial'), lengthUnitWord('imperial')]).toEqual(['ft', 'feet']);
+  });
+
+  test('a cut-out of 5 ft is 1.524 m exactly (as mathjs has it), and 3 ft is 0.9144 m without float noise', () => {
+    expect(lengthToMetres(5, 'imperial')).toBe(unit(5, 'ft').toNumber('m'));
+    expect(lengthToMetres(5, 'imperial')).toBe(1.524);
+    expect(lengthToMetres(3, 'imperial')).toBe(0.9144); // 3 * 0.3048 is 0.9144000000000001 in floating point
+    expect(lengthToMetres(1.5, 'metric')).toBe(1.5);
+  });
+
+  test('metres → the user\'s unit: 12 m is 39.37 ft', () => {
+    expect(metresToLength(12, 'imperial')).toBeCloseTo(unit(12, 'm').toNumber('ft'), 12);
+    expect(metresToLength(12, 'imperial')).toBeCloseTo(39.3700787, 6);
+    expect(metresToLength(12, 'metric')).toBe(12);
+  });
+
+  test('property: typed length → metres → typed length round-trips in both systems, and agrees with mathjs', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 0.001, max: 1e5, noNaN: true }), (typed) => {
+        expect(lengthToMetres(typed, 'imperial')).toBeCloseTo(unit(typed, 'ft').toNumber('m'), 6);
+        expect(metresToLength(lengthToMetres(typed, 'imperial'), 'imperial') / typed).toBeCloseTo(1, 10);
+        expect(metresToLength(lengthToMetres(typed, 'metric'), 'metric') / typed).toBeCloseTo(1, 10);
+      }),
+    );
+  });
+});
+
+// mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811).
+describe('resistance per length', () => {
+  const perMetreOf = (value: number, per: string) => (unit(value, 'ohm').divide(unit(per)) as Unit).toNumber('ohm/m');
+
+  test.each<[PerLengthUnit, string]>([
+    ['Ω/m', '1 m'],
+    ['Ω/km', '1 km'],
+    ['Ω/ft', '1 ft'],
+    ['Ω/1000 ft', '1000 ft'],
+  ])('%s → Ω/m and back agrees with mathjs', (perUnit, per) => {
+    expect(toOhmPerMetre(11.43, perUnit)).toBeCloseTo(perMetreOf(11.43, per), 12);
+    expect(fromOhmPerMetre(0.0375, perUnit)).toBeCloseTo((unit(0.0375, 'ohm/m').multiply(unit(per)) as Unit).toNumber('ohm'), 12);
+  });
+
+  test('0.0375 Ω/m of one conductor is 11.43 Ω per 1000 ft, and 11.43 Ω per 1000 ft is 0.0375 Ω/m', () => {
+    expect(fromOhmPerMetre(0.0375, 'Ω/1000 ft')).toBeCloseTo(11.43, 12);
+    expect(toOhmPerMetre(11.43, 'Ω/1000 ft')).toBe(0.0375);
+  });
+
+  test('property: to and from Ω/m round-trip', () => {
+    const units: PerLengthUnit[] = ['Ω/m', 'Ω/km', 'Ω/ft', 'Ω/1000 ft'];
+    fc.assert(
+      fc.property(fc.double({ min: 1e-6, max: 1e3, noNaN: true }), fc.constantFrom(...units), (perMetre, perUnit) => {
+        expect(toOhmPerMetre(fromOhmPerMetre(perMetre, perUnit), perUnit) / perMetre).toBeCloseTo(1, 10);
+      }),
+    );
+  });
+});
+
+describe('parseDecimal', () => {
+  test.each<[string, number | null]>([
+    ['12', 12],
+    [' 1.5 ', 1.5],
+    ['0,8', 0.8],
+    ['.5', 0.5],
+    ['5.', 5],
+    ['1e3', 1000],
+    ['-2', -2],
+    ['', null],
+    ['5 ft', null],
+    ['1.2.3', null],
+    ['abc', null],
+    ['1,000.5', null],
+  ])('“%s” → %s', (text, expected) => {
+    expect(parseDecimal(text)).toBe(expected);
   });
 });

@@ -124,7 +124,7 @@ export default function FaultPage() {
         {canWrite && active && (
           <Card>
             <h2 className="mb-3 text-lg font-semibold">Locate</h2>
-            <LocateForm key={f.kind + f.conductors} fault={f} />
+            <LocateForm key={f.kind + f.conductors} fault={f} unitSystem={unit} />
           </Card>
         )}
         {canWrite && active && (

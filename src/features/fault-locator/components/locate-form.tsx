@@ -1,5 +1,5 @@
 import { useEffect, useMemo, useState } from 'react';
-import type { LengthSystem } from '@shared/domain/units';
+import { fromOhmPerMetre, type LengthSystem } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
@@ -12,6 +12,7 @@ import {
   METHODS,
   methodDef,
   parseField,
+  perLengthUnit,
   perMetreField,
   type FieldDef,
   type LocatorMethod,
@@ -267,7 +268,7 @@ function convertLengths(texts: Record<string, string>, from: LengthSystem, to: L
   if (perLength !== undefined && BARE.test(perLength)) {
     const parsed = parseField(perMetreField('value', from), perLength, from);
     if (parsed.ok) {
-      const perUnit = parsed.value * (to === 'imperial' ? 304.8 : 1000);
+      const perUnit = fromOhmPerMetre(parsed.value, perLengthUnit(to));
       out.ohmPerMetre = String(Number(perUnit.toPrecision(4)));
     }
   }

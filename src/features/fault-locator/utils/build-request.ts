@@ -3,7 +3,7 @@
 
 import { FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation, type FaultLocationAnswer } from '@shared/domain/fault-location';
 import { faultLocationRequestSchema, type FaultLocationRequest } from '@shared/schemas/fault-location';
-import { feetToMetres, type LengthSystem } from '@shared/domain/units';
+import { toOhmPerMetre, type LengthSystem, type PerLengthUnit } from '@shared/domain/units';
 import { parseLength, parsePositiveNumber, parseQuantity, parseVelocityFactor, type Parsed } from './parse-inputs';
 
 export type LocatorMethod = Exclude<FaultLocationRequest['method'], 'flex' | 'vf-calibration'>;
@@ -102,6 +102,11 @@ export function methodDef(method: LocatorMethod): MethodDef {
   return METHODS.find((m) => m.method === method)!;
 }
 
+/** A resistance per length is typed per km, or per 1000 ft (per metre or foot would be tiny numbers). */
+export function perLengthUnit(system: LengthSystem): PerLengthUnit {
+  return system === 'imperial' ? 'Ω/1000 ft' : 'Ω/km';
+}
+
 export function perMetreField(source: PerMetreSource, system: LengthSystem): FieldDef {
   if (source === 'reading') {
     return {
@@ -163,7 +168,7 @@ export function parseField(def: FieldDef, text: string, system: LengthSystem): P
       const parsed = parseQuantity(text, 'resistance', 'Ω');
       if (!parsed.ok) return parsed;
       if (parsed.value <= 0) return { ok: false, message: 'Must be more than 0 Ω.' };
-      const perMetre = parsed.value / (system === 'imperial' ? feetToMetres(1000) : 1000);
+      const perMetre = toOhmPerMetre(parsed.value, perLengthUnit(system));
       return { ok: true, value: perMetre, display: `${Number(perMetre.toPrecision(4))} Ω/m` };
     }
   }

@@ -2,32 +2,49 @@ import { useState } from 'react';
 import { ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
-import { roundSignificant } from '@shared/domain/units';
+import { lengthUnitWord, parseDecimal, type LengthSystem } from '@shared/domain/units';
 import type { FaultDetail } from '../api/get-fault';
 import { useAddEstimate } from '../api/add-estimate';
-import { METHOD_FIELDS, METHOD_HINTS, METHOD_LABELS, methodsFor, type LocateMethod } from '../utils/methods';
+import { fieldLabel, METHOD_FIELDS, METHOD_HINTS, METHOD_LABELS, methodsFor, type LocateMethod } from '../utils/methods';
+import { fromSiValues, siOf, switchUnits, typeText, unitOf, type Dimension, type UnitTexts } from '../utils/unit-texts';
 
-function prefillValues(method: LocateMethod, fault: FaultDetail): Record<string, string> {
-  const out: Record<string, string> = {};
-  for (const f of METHOD_FIELDS[method]) {
-    const v = f.prefill ? fault.prefill[f.prefill] : null;
-    if (v !== null && v !== undefined) out[f.name] = String(roundSignificant(v, 4));
-  }
-  return out;
+function dimensionsOf(method: LocateMethod): Record<string, Dimension | undefined> {
+  return Object.fromEntries(METHOD_FIELDS[method].map((f) => [f.name, f.dimension]));
 }
 
-/** Takes the readings of one method, sends them, and shows the refusal on the field it concerns. */
-export function LocateForm({ fault }: { fault: FaultDetail }) {
+function prefillValues(method: LocateMethod, fault: FaultDetail, system: LengthSystem): UnitTexts {
+  const si: Record<string, number> = {};
+  for (const f of METHOD_FIELDS[method]) {
+    const v = f.prefill ? fault.prefill[f.prefill] : null;
+    if (v !== null && v !== undefined) si[f.name] = v;
+  }
+  return fromSiValues(si, dimensionsOf(method), system);
+}
+
+/**
+ * Takes the readings of one method, sends them, and shows the refusal on the field it concerns.
+ * Lengths are typed in the user's unit (m or ft), resistance per length per metre or per 1000 ft;
+ * the body is in metres and Ω per metre.
+ */
+export function LocateForm({ fault, unitSystem }: { fault: FaultDetail; unitSystem: LengthSystem }) {
   const methods = methodsFor(fault.kind, fault.conductors);
   const [method, setMethod] = useState<LocateMethod>(methods[0]!);
-  const [values, setValues] = useState<Record<string, string>>(() => prefillValues(methods[0]!, fault));
+  const [values, setValues] = useState<UnitTexts>(() => prefillValues(methods[0]!, fault, unitSystem));
+  const [seenSystem, setSeenSystem] = useState(unitSystem);
   const [fromEnd, setFromEnd] = useState<'near' | 'far'>('near');
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const add = useAddEstimate(fault.id);
 
+  // Adjusting state while rendering when the person switches m ↔ ft: what is typed is converted.
+  if (seenSystem !== unitSystem) {
+    setSeenSystem(unitSystem);
+    setValues((v) => switchUnits(v, dimensionsOf(method), seenSystem, unitSystem));
+    setFieldErrors({});
+  }
+
   const pick = (m: LocateMethod) => {
     setMethod(m);
-    setValues(prefillValues(m, fault));
+    setValues(prefillValues(m, fault, unitSystem));
     setFieldErrors({});
     add.reset();
   };
@@ -41,13 +58,15 @@ export function LocateForm({ fault }: { fault: FaultDetail }) {
         const body: Record<string, number | string> = { method, fromEnd };
         const errors: Record<string, string> = {};
         for (const f of METHOD_FIELDS[method]) {
-          const raw = (values[f.name] ?? '').trim().replace(',', '.');
-          if (raw === '') {
+          if ((values.texts[f.name] ?? '').trim() === '') {
             if (f.required) errors[f.name] = 'Needed for this method.';
             continue;
           }
-          const n = Number(raw);
-          if (!Number.isFinite(n)) errors[f.name] = 'Type a number.';
+          const n = f.dimension ? siOf(values, f.name, f.dimension, unitSystem) : parseDecimal(values.texts[f.name] ?? '');
+          if (n === null) errors[f.name] = typeANumber(f.dimension, unitSystem);
+          // The API's own refusals name its fields in metres; these say it without a unit.
+          else if (f.dimension && n < 0) errors[f.name] = 'Cannot be negative.';
+          else if (f.dimension && n === 0 && f.name !== 'distanceM') errors[f.name] = 'Must be more than 0.';
           else body[f.name] = n;
         }
         setFieldErrors(errors);
@@ -76,8 +95,7 @@ export function LocateForm({ fault }: { fault: FaultDetail }) {
         {METHOD_FIELDS[method].map((f) => (
           <div key={f.name} className="flex flex-col gap-1">
             <label htmlFor={`loc-${f.name}`} className="text-sm font-medium">
-              {f.label}
-              {f.unit ? ` (${f.unit})` : ''}
+              {fieldLabel(f, unitSystem)}
               {!f.required && <span className="font-normal text-ink-soft"> — optional</span>}
             </label>
             <input
@@ -85,8 +103,8 @@ export function LocateForm({ fault }: { fault: FaultDetail }) {
               name={f.name}
               inputMode="decimal"
               autoComplete="off"
-              value={values[f.name] ?? ''}
-              onChange={(e) => setValues((v) => ({ ...v, [f.name]: e.target.value }))}
+              value={values.texts[f.name] ?? ''}
+              onChange={(e) => setValues((v) => typeText(v, f.name, e.target.value))}
               aria-invalid={fieldErrors[f.name] ? true : undefined}
               aria-describedby={fieldErrors[f.name] ? `loc-${f.name}-error` : undefined}
               className="min-h-touch rounded-lg border border-line bg-card px-3 text-base tabular-nums aria-[invalid=true]:border-fail"
@@ -120,4 +138,10 @@ export function LocateForm({ fault }: { fault: FaultDetail }) {
       </div>
     </form>
   );
+}
+
+function typeANumber(dimension: Dimension | undefined, system: LengthSystem): string {
+  if (dimension === 'length') return `Type a number, in ${lengthUnitWord(system)}.`;
+  if (dimension === 'per-length') return `Type a number, in ${unitOf('per-length', system)}.`;
+  return 'Type a number.';
 }

@@ -1,11 +1,12 @@
 import { useState } from 'react';
-import { formatLength, type LengthSystem } from '@shared/domain/units';
-import type { RepairAction } from '@shared/schemas/faults';
+import { formatLength, lengthUnitSymbol, lengthUnitWord, type LengthSystem } from '@shared/domain/units';
+import type { CreateRepairInput, RepairAction } from '@shared/schemas/faults';
 import { ApiError } from '@/lib/api-client';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import type { FaultDetail } from '../api/get-fault';
 import { useAddRepair } from '../api/add-repair';
+import { siOf, switchUnits, typeText, type UnitTexts } from '../utils/unit-texts';
 
 const ACTIONS: { value: RepairAction; label: string; hint: string }[] = [
   { value: 'cut-out', label: 'Cut out a section', hint: 'The damaged length is cut away and the cable re-joined; its recorded length shrinks.' },
@@ -14,16 +15,30 @@ const ACTIONS: { value: RepairAction; label: string; hint: string }[] = [
   { value: 'retired', label: 'Retire the item', hint: 'The item is taken out of service for good and the position is left empty.' },
 ];
 
+const NO_LENGTH: UnitTexts = { texts: {}, exact: {} };
+const REMOVED = 'lengthRemovedM';
+
+/** The cut-out length is typed in the user's unit (m or ft) and sent in metres. */
 export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSystem: LengthSystem }) {
   const [action, setAction] = useState<RepairAction>('cut-out');
-  const [removed, setRemoved] = useState('');
+  const [removed, setRemoved] = useState<UnitTexts>(NO_LENGTH);
+  const [seenSystem, setSeenSystem] = useState(unitSystem);
   const [tag, setTag] = useState('');
   const [notes, setNotes] = useState('');
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const repair = useAddRepair(fault.id);
+
+  // Adjusting state while rendering when the person switches m ↔ ft: the typed length is converted.
+  if (seenSystem !== unitSystem) {
+    setSeenSystem(unitSystem);
+    setRemoved((r) => switchUnits(r, { [REMOVED]: 'length' }, seenSystem, unitSystem));
+    setFieldErrors({});
+  }
+
   const lengthM = fault.equipment?.lengthM ?? null;
-  const removedM = Number(removed.replace(',', '.'));
-  const newLength = lengthM !== null && removed.trim() !== '' && Number.isFinite(removedM) && removedM > 0 ? lengthM - removedM : null;
+  const removedText = (removed.texts[REMOVED] ?? '').trim();
+  const removedM = siOf(removed, REMOVED, 'length', unitSystem);
+  const newLength = lengthM !== null && removedM !== null && removedM > 0 ? lengthM - removedM : null;
 
   return (
     <form
@@ -32,17 +47,21 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
       onSubmit={async (e) => {
         e.preventDefault();
         setFieldErrors({});
-        const body =
-          action === 'cut-out'
-            ? { action, lengthRemovedM: removedM, ...(notes.trim() ? { notes: notes.trim() } : {}) }
-            : action === 'swapped'
-              ? { action, replacementAssetTag: tag.trim(), ...(notes.trim() ? { notes: notes.trim() } : {}) }
-              : { action, ...(notes.trim() ? { notes: notes.trim() } : {}) };
-        if (action === 'cut-out' && !(removedM > 0)) return setFieldErrors({ lengthRemovedM: 'How much was cut away, in metres.' });
-        if (action === 'swapped' && !tag.trim()) return setFieldErrors({ replacementAssetTag: 'The asset tag of the item put in.' });
+        const extra = notes.trim() ? { notes: notes.trim() } : {};
+        let body: CreateRepairInput;
+        if (action === 'cut-out') {
+          const cut = checkCutOut(removedText, removedM, lengthM, unitSystem);
+          if (!cut.ok) return setFieldErrors({ lengthRemovedM: cut.message });
+          body = { action, lengthRemovedM: cut.removedM, ...extra };
+        } else if (action === 'swapped') {
+          if (!tag.trim()) return setFieldErrors({ replacementAssetTag: 'The asset tag of the item put in.' });
+          body = { action, replacementAssetTag: tag.trim(), ...extra };
+        } else {
+          body = { action, ...extra };
+        }
         try {
           await repair.mutateAsync(body);
-          setRemoved('');
+          setRemoved(NO_LENGTH);
           setTag('');
           setNotes('');
         } catch (err) {
@@ -67,9 +86,9 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
       {action === 'cut-out' && (
         <div className="flex flex-col gap-1">
           <label htmlFor="rep-length" className="text-sm font-medium">
-            Length removed (m)
+            Length removed ({lengthUnitSymbol(unitSystem)})
           </label>
-          <input id="rep-length" inputMode="decimal" value={removed} onChange={(e) => setRemoved(e.target.value)} aria-invalid={fieldErrors.lengthRemovedM ? true : undefined} className="min-h-touch w-40 rounded-lg border border-line bg-card px-3 text-base aria-[invalid=true]:border-fail" />
+          <input id="rep-length" inputMode="decimal" autoComplete="off" value={removed.texts[REMOVED] ?? ''} onChange={(e) => setRemoved((r) => typeText(r, REMOVED, e.target.value))} aria-invalid={fieldErrors.lengthRemovedM ? true : undefined} className="min-h-touch w-40 rounded-lg border border-line bg-card px-3 text-base aria-[invalid=true]:border-fail" />
           {lengthM !== null && (
             <p className="text-sm" data-testid="new-length">
               {formatLength(lengthM, unitSystem)} now
@@ -103,4 +122,21 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
       </div>
     </form>
   );
+}
+
+/** The typed cut-out in metres, or what is wrong with it worded in the person's units. */
+function checkCutOut(
+  text: string,
+  removedM: number | null,
+  lengthM: number | null,
+  system: LengthSystem,
+): { ok: true; removedM: number } | { ok: false; message: string } {
+  const word = lengthUnitWord(system);
+  if (text === '') return { ok: false, message: `How much was cut away, in ${word}.` };
+  if (removedM === null) return { ok: false, message: `Type a number, in ${word}.` };
+  if (!(removedM > 0)) return { ok: false, message: `How much was cut away, in ${word}: more than 0.` };
+  if (lengthM !== null && removedM >= lengthM) {
+    return { ok: false, message: `Must be less than the item’s ${formatLength(lengthM, system)}; retire the item instead.` };
+  }
+  return { ok: true, removedM };
 }

@@ -1,14 +1,27 @@
 // Which fault-location methods fit a fault, and what each one asks for.
 import type { FaultKind } from '@shared/schemas/faults';
+import type { LengthSystem } from '@shared/domain/units';
+import { unitOf, type Dimension } from './unit-texts';
 
 export type LocateMethod = 'loop-both-ends' | 'loop-one-end' | 'tdr' | 'murray' | 'capacitance' | 'flex';
 
 export interface MethodField {
   name: string;
   label: string;
+  /** A fixed unit (Ω, ns, nF); lengths and resistances per length follow the user's units instead. */
   unit: string;
+  dimension?: Dimension;
   required: boolean;
   prefill?: 'lengthM' | 'ohmPerMetre' | 'velocityFactor';
+}
+
+/** `Cable length (ft)`, `Resistance of one line per 1000 ft (Ω/1000 ft)`, `Loop reading … (Ω)`. */
+export function fieldLabel(field: MethodField, system: LengthSystem): string {
+  if (field.dimension === 'per-length') {
+    return `${field.label} per ${system === 'imperial' ? '1000 ft' : 'metre'} (${unitOf('per-length', system)})`;
+  }
+  const unit = field.dimension ? unitOf(field.dimension, system) : field.unit;
+  return unit ? `${field.label} (${unit})` : field.label;
 }
 
 export const METHOD_LABELS: Record<LocateMethod, string> = {
@@ -30,8 +43,8 @@ export const METHOD_HINTS: Record<LocateMethod, string> = {
   flex: 'Flex the cable slowly along its length with the meter on the failing line; note where the reading jumps.',
 };
 
-const length: MethodField = { name: 'lengthM', label: 'Cable length', unit: 'm', required: true, prefill: 'lengthM' };
-const perMetre: MethodField = { name: 'ohmPerMetre', label: 'Resistance of one line per metre', unit: 'Ω/m', required: true, prefill: 'ohmPerMetre' };
+const length: MethodField = { name: 'lengthM', label: 'Cable length', unit: '', dimension: 'length', required: true, prefill: 'lengthM' };
+const perMetre: MethodField = { name: 'ohmPerMetre', label: 'Resistance of one line', unit: '', dimension: 'per-length', required: true, prefill: 'ohmPerMetre' };
 
 export const METHOD_FIELDS: Record<LocateMethod, MethodField[]> = {
   'loop-both-ends': [
@@ -64,8 +77,8 @@ export const METHOD_FIELDS: Record<LocateMethod, MethodField[]> = {
     length,
   ],
   flex: [
-    { name: 'distanceM', label: 'Where the reading jumped, from the named end', unit: 'm', required: true },
-    { name: 'uncertaintyM', label: 'How precisely (±)', unit: 'm', required: false },
+    { name: 'distanceM', label: 'Where the reading jumped, from the named end', unit: '', dimension: 'length', required: true },
+    { name: 'uncertaintyM', label: 'How precisely (±)', unit: '', dimension: 'length', required: false },
     { ...length, required: false },
   ],
 };
