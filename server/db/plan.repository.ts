@@ -1,6 +1,6 @@
-import { and, asc, desc, eq, inArray, isNull, max, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, exists, inArray, isNull, max, or, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
-import { equipment, events, positions, steps, strips, users, venueTechnicians, venues } from './schema';
+import { equipment, events, faults, positionAssignments, positions, readings, steps, strips, users, venueTechnicians, venues } from './schema';
 
 export type StripRow = typeof strips.$inferSelect;
 export type PositionRow = typeof positions.$inferSelect;
@@ -78,6 +78,51 @@ export function planRepository(db: Db | Tx) {
     findPosition: (id: string) =>
       db.select({ position: positions, strip: strips }).from(positions).innerJoin(strips, eq(positions.stripId, strips.id)).where(eq(positions.id, id)).get(),
     insertPosition: (row: typeof positions.$inferInsert) => db.insert(positions).values(row).run(),
+    maxPositionSort: (stripId: string) =>
+      db.select({ m: max(positions.sortOrder) }).from(positions).where(eq(positions.stripId, stripId)).get()?.m ?? 0,
+    /** Positions of the venue with a reading on any of their steps or a fault recorded against them. */
+    testedPositionsOfVenue(venueId: string) {
+      const tested = or(
+        exists(db.select({ x: sql`1` }).from(steps).innerJoin(readings, eq(readings.stepId, steps.id)).where(eq(steps.positionId, positions.id))),
+        exists(db.select({ x: sql`1` }).from(faults).where(eq(faults.positionId, positions.id))),
+      );
+      return new Set(
+        db
+          .select({ id: positions.id })
+          .from(positions)
+          .innerJoin(strips, eq(positions.stripId, strips.id))
+          .where(and(eq(strips.venueId, venueId), tested))
+          .all()
+          .map((r) => r.id),
+      );
+    },
+    /** What a technician recorded against one position: readings on its steps, and faults on it or its steps. */
+    recordsOfPosition(positionId: string) {
+      const stepIds = db.select({ id: steps.id }).from(steps).where(eq(steps.positionId, positionId));
+      const readingCount = db.select({ n: sql<number>`count(*)` }).from(readings).where(inArray(readings.stepId, stepIds)).get()?.n ?? 0;
+      const faultCount =
+        db
+          .select({ n: sql<number>`count(*)` })
+          .from(faults)
+          .where(or(eq(faults.positionId, positionId), inArray(faults.stepId, stepIds)))
+          .get()?.n ?? 0;
+      return { readings: readingCount, faults: faultCount };
+    },
+    /** Which items sat in the position and when (its own rows of the placement history). */
+    assignmentsOfPosition: (positionId: string) =>
+      db
+        .select({ assetTag: equipment.assetTag, assignedAt: positionAssignments.assignedAt, removedAt: positionAssignments.removedAt })
+        .from(positionAssignments)
+        .innerJoin(equipment, eq(positionAssignments.equipmentId, equipment.id))
+        .where(eq(positionAssignments.positionId, positionId))
+        .orderBy(asc(positionAssignments.assignedAt))
+        .all(),
+    /** Deletes a position with its steps and placement rows; only for a position nothing was recorded against. */
+    deletePosition(positionId: string) {
+      db.delete(steps).where(eq(steps.positionId, positionId)).run();
+      db.delete(positionAssignments).where(eq(positionAssignments.positionId, positionId)).run();
+      db.delete(positions).where(eq(positions.id, positionId)).run();
+    },
 
     // --- steps ---
     stepsOfVenue: (venueId: string) =>
@@ -90,6 +135,7 @@ export function planRepository(db: Db | Tx) {
         .orderBy(asc(steps.sortOrder))
         .all()
         .map((r) => r.step),
+    stepsOfPosition: (positionId: string) => db.select().from(steps).where(eq(steps.positionId, positionId)).orderBy(asc(steps.sortOrder)).all(),
     activeStepsOf: (positionId: string) =>
       db.select().from(steps).where(and(eq(steps.positionId, positionId), isNull(steps.removedAt))).orderBy(asc(steps.sortOrder)).all(),
     maxStepSort: (positionId: string) => db.select({ m: max(steps.sortOrder) }).from(steps).where(eq(steps.positionId, positionId)).get()?.m ?? 0,

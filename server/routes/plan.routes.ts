@@ -5,6 +5,7 @@ import { validate } from '../middleware/validate';
 import { ifMatchOf, setVersionTag } from '../http/etag';
 import { idParams } from '../../shared/schemas/params';
 import {
+  addPositionSchema,
   addStepSchema,
   attachEquipmentSchema,
   bulkStripsSchema,
@@ -69,6 +70,12 @@ export function planRoutes(deps: AppDeps) {
     send(res, plan.reinstateStrip(req.user!, String(req.params.id), ifMatchOf(req)));
   });
 
+  api.post('/strips/:id/positions', PLANNERS, id, validate(addPositionSchema), (req, res) => {
+    send(res, plan.addPosition(req.user!, String(req.params.id), ifMatchOf(req), req.body), 201);
+  });
+  api.delete('/positions/:id', PLANNERS, id, (req, res) => {
+    send(res, plan.removePosition(req.user!, String(req.params.id), ifMatchOf(req)));
+  });
   api.put('/positions/:id/equipment', PLANNERS, id, validate(attachEquipmentSchema), (req, res) => {
     send(res, plan.attachEquipment(req.user!, String(req.params.id), ifMatchOf(req), req.body.assetTag));
   });

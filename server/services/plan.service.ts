@@ -18,6 +18,7 @@ import { DEFAULT_POSITION_TEMPLATE, stepsForKind, type PositionTemplateEntry } f
 import { findRule, type EquipmentKind, type LimitProfile } from '../../shared/domain/limits';
 import { EQUIPMENT_KIND_LABELS } from '../../shared/schemas/equipment';
 import type {
+  AddPositionValues,
   AddStepInput,
   BulkStripsInput,
   CreateEventInput,
@@ -55,6 +56,36 @@ export function planService(deps: AppDeps) {
   }
 
   /**
+   * The register item a position may take, by asset tag: of the user's organisation, of the
+   * position's kind, not retired, and not in another position of the venue. `here` says it already
+   * sits in this very position. Shared by attaching to a position and adding one with an item.
+   */
+  function attachableItem(
+    tx: Tx,
+    user: AuthUser,
+    target: { positionId: string | null; name: string; equipmentKind: EquipmentKind; venueId: string },
+    assetTag: string,
+  ) {
+    const eq = equipmentRepository(tx);
+    const item = eq.findByTag(user.orgId, assetTag);
+    const bad = (message: string) => unprocessable('cannot-attach', message, { errors: [{ path: 'assetTag', message }] });
+    if (!item) throw bad(`There is no item with the asset tag ${assetTag} in the register.`);
+    if (item.kind !== target.equipmentKind) {
+      throw bad(
+        `${assetTag} is a ${EQUIPMENT_KIND_LABELS[item.kind].toLowerCase()}, but ${target.name} takes a ${EQUIPMENT_KIND_LABELS[target.equipmentKind].toLowerCase()}.`,
+      );
+    }
+    if (item.status === 'retired') throw bad(`${assetTag} is retired and cannot go back on a strip.`);
+    const elsewhere = eq.positionInVenue(item.id, target.venueId);
+    if (elsewhere && elsewhere.positionId !== target.positionId) {
+      throw conflict('item-in-use', `${assetTag} is already on ${elsewhere.stripLabel} (${elsewhere.positionName}) in this venue; take it off there first.`, {
+        errors: [{ path: 'assetTag', message: `Already on ${elsewhere.stripLabel}, ${elsewhere.positionName}.` }],
+      });
+    }
+    return { item, here: !!elsewhere };
+  }
+
+  /**
    * One plan edit: object-level access, the If-Match check, the change, the version bump and the
    * re-opening of a signed-off venue, in one transaction. Answers the new plan.
    */
@@ -76,6 +107,7 @@ export function planService(deps: AppDeps) {
     const stepsByPosition = new Map<string, ReturnType<typeof repo.stepsOfVenue>>();
     for (const s of repo.stepsOfVenue(venueId)) stepsByPosition.set(s.positionId, [...(stepsByPosition.get(s.positionId) ?? []), s]);
     const positionsByStrip = new Map<string, unknown[]>();
+    const tested = repo.testedPositionsOfVenue(venueId);
     for (const { position, equipment } of repo.positionsOfVenue(venueId)) {
       const list = positionsByStrip.get(position.stripId) ?? [];
       list.push({
@@ -83,6 +115,8 @@ export function planService(deps: AppDeps) {
         name: position.name,
         equipmentKind: position.equipmentKind,
         sortOrder: position.sortOrder,
+        // A reading or a fault was recorded against it, so it stays in the plan (steps can be dropped).
+        tested: tested.has(position.id),
         equipment: equipment
           ? { id: equipment.id, assetTag: equipment.assetTag, kind: equipment.kind, lengthM: equipment.lengthM, status: equipment.status, description: equipment.description }
           : null,
@@ -395,22 +429,9 @@ export function planService(deps: AppDeps) {
         const before = position.equipmentId ? eq.findById(position.equipmentId) : null;
         let item = null;
         if (assetTag !== null) {
-          item = eq.findByTag(user.orgId, assetTag);
-          const bad = (message: string) => unprocessable('cannot-attach', message, { errors: [{ path: 'assetTag', message }] });
-          if (!item) throw bad(`There is no item with the asset tag ${assetTag} in the register.`);
-          if (item.kind !== position.equipmentKind) {
-            throw bad(
-              `${assetTag} is a ${EQUIPMENT_KIND_LABELS[item.kind].toLowerCase()}, but ${position.name} takes a ${EQUIPMENT_KIND_LABELS[position.equipmentKind].toLowerCase()}.`,
-            );
-          }
-          if (item.status === 'retired') throw bad(`${assetTag} is retired and cannot go back on a strip.`);
-          const elsewhere = eq.positionInVenue(item.id, strip.venueId);
-          if (elsewhere && elsewhere.positionId !== positionId) {
-            throw conflict('item-in-use', `${assetTag} is already on ${elsewhere.stripLabel} (${elsewhere.positionName}) in this venue; take it off there first.`, {
-              errors: [{ path: 'assetTag', message: `Already on ${elsewhere.stripLabel}, ${elsewhere.positionName}.` }],
-            });
-          }
-          if (elsewhere) return; // already there: nothing changes, but the version still moves on
+          const found = attachableItem(tx, user, { positionId, name: position.name, equipmentKind: position.equipmentKind, venueId: strip.venueId }, assetTag);
+          if (found.here) return; // already there: nothing changes, but the version still moves on
+          item = found.item;
         } else if (!position.equipmentId) {
           return;
         }
@@ -421,6 +442,77 @@ export function planService(deps: AppDeps) {
           position: position.name,
           assetTag: item?.assetTag ?? null,
           previousAssetTag: before?.assetTag ?? null,
+        });
+      });
+    },
+
+    /** A position added to one strip by hand: it goes last, gets its kind's steps and, with a tag, its item. */
+    addPosition(user: AuthUser, stripId: string, ifMatch: string | undefined, input: AddPositionValues) {
+      const strip = requireStripOfPlan(user, stripId);
+      return edit(user, strip.venueId, ifMatch, `${strip.label} position ${input.name} added`, (tx, { venue }) => {
+        if (strip.withdrawnAt) {
+          throw conflict('strip-withdrawn', `${strip.label} is withdrawn (${strip.withdrawnReason}); reinstate it before adding positions to it.`);
+        }
+        const r = planRepository(tx);
+        const name = input.name.trim();
+        const taken = r.positionsOfStrip(stripId).find((p) => p.name.trim().toLowerCase() === name.toLowerCase());
+        if (taken) {
+          throw conflict('duplicate-position-name', `${strip.label} already has a position called ${taken.name}.`, {
+            errors: [{ path: 'name', message: `${taken.name} is already on ${strip.label}; choose another name.` }],
+          });
+        }
+        const assetTag = input.assetTag ?? null;
+        const item = assetTag ? attachableItem(tx, user, { positionId: null, name, equipmentKind: input.equipmentKind, venueId: strip.venueId }, assetTag).item : null;
+        const profile = profileOf(tx, venue.profileId);
+        const positionId = addPosition(tx, stripId, { name, equipmentKind: input.equipmentKind }, r.maxPositionSort(stripId) + 1, profile);
+        if (item) equipmentRepository(tx).assignToPosition(positionId, item.id, user.id, nowIso());
+        audit(tx, user, 'position.added', 'position', positionId, {
+          venueId: strip.venueId,
+          strip: strip.label,
+          position: name,
+          equipmentKind: input.equipmentKind,
+          assetTag: item?.assetTag ?? null,
+          steps: r.activeStepsOf(positionId).map((s) => `${s.testKind} ${s.conductors}`),
+        });
+      });
+    },
+
+    /**
+     * Takes a position off a strip, with its steps, only while nothing was recorded against it:
+     * readings and faults are kept, so a tested position stays and its steps are dropped instead.
+     */
+    removePosition(user: AuthUser, positionId: string, ifMatch: string | undefined) {
+      const found = repo.findPosition(positionId);
+      if (!found) throw notFound('That position');
+      const { position, strip } = found;
+      return edit(user, strip.venueId, ifMatch, `${strip.label} position ${position.name} removed`, (tx) => {
+        const r = planRepository(tx);
+        const records = r.recordsOfPosition(positionId);
+        if (records.readings > 0 || records.faults > 0) {
+          const what = [
+            records.readings > 0 ? `${records.readings} reading${records.readings === 1 ? '' : 's'}` : null,
+            records.faults > 0 ? `${records.faults} fault record${records.faults === 1 ? '' : 's'}` : null,
+          ]
+            .filter(Boolean)
+            .join(' and ');
+          throw conflict(
+            'position-has-readings',
+            `${position.name} on ${strip.label} has ${what}, which are kept, so the position cannot be removed. Take its steps off the checklist instead: they will no longer be asked for, and what was recorded stays on file.`,
+            { readings: records.readings, faults: records.faults },
+          );
+        }
+        const steps = r.stepsOfPosition(positionId);
+        const placements = r.assignmentsOfPosition(positionId);
+        r.deletePosition(positionId);
+        // The placement rows go with the position; the audit keeps which items sat there and when.
+        audit(tx, user, 'position.removed', 'position', positionId, {
+          venueId: strip.venueId,
+          strip: strip.label,
+          position: position.name,
+          equipmentKind: position.equipmentKind,
+          assetTag: placements.find((p) => !p.removedAt)?.assetTag ?? null,
+          placements,
+          steps: steps.map((s) => `${s.testKind} ${s.conductors}${s.removedAt ? ' (dropped)' : ''}`),
         });
       });
     },

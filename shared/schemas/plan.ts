@@ -37,9 +37,16 @@ export const updateVenueSchema = z
   .refine((v) => v.name !== undefined || v.profileId !== undefined, { message: 'Nothing to change: give name or profileId.' });
 export type UpdateVenueInput = z.input<typeof updateVenueSchema>;
 
+const positionName = z
+  .string({ error: 'A position needs a name.' })
+  .trim()
+  .min(1, 'A position needs a name.')
+  .max(60, 'Keep position names under 60 characters.');
+const positionKind = z.enum(EQUIPMENT_KINDS, { error: `equipmentKind must be one of: ${EQUIPMENT_KINDS.join(', ')}` });
+
 export const positionTemplateEntrySchema = z.strictObject({
-  name: z.string().trim().min(1, 'A position needs a name.').max(60),
-  equipmentKind: z.enum(EQUIPMENT_KINDS, { error: `equipmentKind must be one of: ${EQUIPMENT_KINDS.join(', ')}` }),
+  name: positionName,
+  equipmentKind: positionKind,
   pisteOnly: z.boolean().optional(),
 });
 
@@ -84,6 +91,15 @@ export const withdrawStripSchema = z.strictObject({
 });
 
 export const attachEquipmentSchema = z.strictObject({ assetTag: assetTagField.nullable() });
+
+/** One position added to one strip by hand; with an asset tag the item is attached at once. */
+export const addPositionSchema = z.strictObject({
+  name: positionName,
+  equipmentKind: positionKind,
+  assetTag: assetTagField.nullable().optional(),
+});
+export type AddPositionInput = z.input<typeof addPositionSchema>;
+export type AddPositionValues = z.output<typeof addPositionSchema>;
 
 export const venueTechniciansSchema = z.strictObject({
   userIds: z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' }),

@@ -1,9 +1,11 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { and, eq, isNull } from 'drizzle-orm';
-import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
+import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
 import { venueIds } from './testing-helpers';
 import { addOtherOrg, OTHER_DIRECTOR, OTHER_PASSWORD } from '../setup/other-org';
 import * as s from '../../server/db/schema';
+import { stepsForKind } from '../../shared/domain/checklist';
+import { DEFAULT_LIMIT_PROFILE } from '../../shared/domain/limits';
 
 let t: TestApp;
 let other: Awaited<ReturnType<typeof addOtherOrg>>;
@@ -13,7 +15,7 @@ let profileId: string;
 let eventId: string;
 
 type Step = { id: string; testKind: string; conductors: string; removedAt: string | null; addedByDirector: boolean };
-type Position = { id: string; name: string; equipmentKind: string; equipment: { assetTag: string } | null; steps: Step[] };
+type Position = { id: string; name: string; equipmentKind: string; sortOrder: number; tested: boolean; equipment: { assetTag: string } | null; steps: Step[] };
 type Strip = { id: string; label: string; zone: string | null; withdrawnReason: string | null; conductivePiste: boolean; positions: Position[] };
 type Plan = { venue: { id: string; name: string; version: number; status: string }; strips: Strip[]; technicians: { id: string; name: string }[]; profile: { id: string; version: number } };
 
@@ -433,5 +435,239 @@ describe('changing the venue’s limit profile', () => {
     expect(floorSteps(plan.body)).not.toContain('loop');
     const remaining = t.db.select().from(s.steps).where(and(eq(s.steps.testKind, 'loop'), isNull(s.steps.removedAt))).all();
     expect(remaining.length).toBeGreaterThan(0); // other venues keep theirs
+  });
+});
+
+describe('POST /api/strips/:id/positions', () => {
+  /** A fresh venue with two plain strips (five template positions each), and its ETag. */
+  async function twoStrips(name: string) {
+    const marco = await t.agentFor(DEMO.director);
+    const venue = await newVenue(name);
+    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 2 });
+    expect(res.status).toBe(201);
+    return { marco, res, plan: res.body as Plan };
+  }
+  const stripOf = (plan: Plan, id: string) => plan.strips.find((x) => x.id === id)!;
+
+  test('when a director adds a spare reel, then it goes last with the reel’s steps, the version moves on and it is audited', async () => {
+    const { marco, res, plan } = await twoStrips('Position Hall');
+    const strip = plan.strips[0];
+    const added = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: '  Spare reel ', equipmentKind: 'reel' });
+    expect(added.status).toBe(201);
+    const after = added.body as Plan;
+    expect(after.venue.version).toBe(plan.venue.version + 1);
+    expect(tag(added)).toBe(`"${after.venue.version}"`);
+    const positions = stripOf(after, strip.id).positions;
+    expect(positions).toHaveLength(strip.positions.length + 1);
+    const spare = positions.at(-1)!;
+    expect(spare).toMatchObject({ name: 'Spare reel', equipmentKind: 'reel', equipment: null, tested: false });
+    expect(spare.sortOrder).toBeGreaterThan(Math.max(...strip.positions.map((p) => p.sortOrder)));
+    const expected = stepsForKind('reel', DEFAULT_LIMIT_PROFILE).map((x) => `${x.testKind} ${x.conductors}`);
+    expect(expected.length).toBeGreaterThan(0);
+    expect(spare.steps.map((x) => `${x.testKind} ${x.conductors}`)).toEqual(expected);
+    expect(spare.steps.every((x) => x.removedAt === null)).toBe(true);
+    // The other strip is untouched.
+    expect(stripOf(after, plan.strips[1].id).positions).toHaveLength(plan.strips[1].positions.length);
+    // The technician's strip view asks for the new steps too.
+    const view = (await marco.get(`/api/strips/${strip.id}`)).body as { positions: { name: string; steps: unknown[] }[] };
+    expect(view.positions.find((p) => p.name === 'Spare reel')?.steps).toHaveLength(expected.length);
+    const audit = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.action, 'position.added'), eq(s.auditLog.entityId, spare.id))).all();
+    expect(audit).toHaveLength(1);
+    expect(JSON.parse(audit[0].detailJson)).toMatchObject({ venueId: plan.venue.id, position: 'Spare reel', equipmentKind: 'reel', assetTag: null });
+  });
+
+  test('when the name is already on the strip (other case, spaces), then 409 naming the field, and nothing is added', async () => {
+    const { marco, res, plan } = await twoStrips('Duplicate Position Hall');
+    const strip = plan.strips[0];
+    const dup = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: ' left REEL ', equipmentKind: 'reel' });
+    expect(dup.status).toBe(409);
+    expect(dup.body.code).toBe('duplicate-position-name');
+    expect(dup.body.errors[0].path).toBe('name');
+    expect(dup.body.detail).toContain('Left reel');
+    // The same name on another strip is fine.
+    const other = await marco.post(`/api/strips/${plan.strips[1].id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    expect(other.status).toBe(201);
+    const now = (await marco.get(`/api/venues/${plan.venue.id}`)).body as Plan;
+    expect(stripOf(now, strip.id).positions).toHaveLength(strip.positions.length);
+  });
+
+  test('when the kind is not one we know or the name is empty, then 422 names the fields', async () => {
+    const { marco, res, plan } = await twoStrips('Bad Kind Hall');
+    const bad = await marco.post(`/api/strips/${plan.strips[0].id}/positions`).set('If-Match', tag(res)).send({ name: '', equipmentKind: 'lamp' });
+    expect(bad.status).toBe(422);
+    expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(expect.arrayContaining(['name', 'equipmentKind']));
+    expect(tag(await marco.get(`/api/venues/${plan.venue.id}`))).toBe(tag(res));
+  });
+
+  test('without If-Match it is 428, with an old one 412, and nothing is added', async () => {
+    const { marco, res, plan } = await twoStrips('Tag Hall');
+    const strip = plan.strips[0];
+    const missing = await marco.post(`/api/strips/${strip.id}/positions`).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    expect(missing.status).toBe(428);
+    const moved = await marco.patch(`/api/strips/${strip.id}`).set('If-Match', tag(res)).send({ zone: 'Gallery' });
+    expect(moved.status).toBe(200);
+    const stale = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    expect(stale.status).toBe(412);
+    expect(stale.body).toMatchObject({ currentVersion: moved.body.venue.version, yourVersion: plan.venue.version });
+    const now = (await marco.get(`/api/venues/${plan.venue.id}`)).body as Plan;
+    expect(stripOf(now, strip.id).positions.map((p) => p.name)).not.toContain('Spare reel');
+  });
+
+  test('a technician or an organiser gets 403, another organisation’s director 404, an unknown strip 404', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const plan = await marco.get(`/api/venues/${hallId}`);
+    const strip = (plan.body as Plan).strips[0];
+    const body = { name: 'Spare reel', equipmentKind: 'reel' };
+    for (const who of [DEMO.technician, DEMO.organiser]) {
+      const agent = await t.agentFor(who);
+      expect((await agent.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(plan)).send(body)).status).toBe(403);
+    }
+    const hilltop = await t.agentFor(OTHER_DIRECTOR, OTHER_PASSWORD);
+    expect((await hilltop.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(plan)).send(body)).status).toBe(404);
+    expect((await marco.post(`/api/strips/${other.stripId}/positions`).set('If-Match', '"1"').send(body)).status).toBe(404);
+    expect((await marco.post(`/api/strips/${crypto.randomUUID()}/positions`).set('If-Match', tag(plan)).send(body)).status).toBe(404);
+    const now = await marco.get(`/api/venues/${hallId}`);
+    expect(tag(now)).toBe(tag(plan));
+    expect((now.body as Plan).strips[0].positions.map((p) => p.name)).not.toContain('Spare reel');
+  });
+
+  test('with an asset tag the item is attached as by PUT …/equipment; a wrong kind is 422, an item on another strip 409, and nothing is added', async () => {
+    const { marco, res, plan } = await twoStrips('Tagged Position Hall');
+    const strip = plan.strips[0];
+    const created = await marco.post('/api/equipment').send({ assetTag: 'RL-900', kind: 'reel', lengthM: 20 });
+    expect(created.status).toBe(201);
+    const kind = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'FC-001' });
+    expect(kind.status).toBe(422);
+    expect(kind.body.errors[0].path).toBe('assetTag');
+    expect(kind.body.detail).toMatch(/FC-001 is a floor cable, but Spare reel takes a reel/);
+    // RL-001 sits on Strip 1 of the Sports Hall; the item in use is judged per venue, so use ours.
+    await marco.put(`/api/positions/${strip.positions.find((p) => p.name === 'Left reel')!.id}/equipment`).set('If-Match', tag(res)).send({ assetTag: 'RL-900' }).expect(200);
+    const afterAttach = await marco.get(`/api/venues/${plan.venue.id}`);
+    const busy = await marco.post(`/api/strips/${plan.strips[1].id}/positions`).set('If-Match', tag(afterAttach)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'rl-900' });
+    expect(busy.status).toBe(409);
+    expect(busy.body.code).toBe('item-in-use');
+    expect(busy.body.errors[0].path).toBe('assetTag');
+    expect(tag(await marco.get(`/api/venues/${plan.venue.id}`))).toBe(tag(afterAttach));
+    // Take it off the left reel, then add the spare with it.
+    const off = await marco.put(`/api/positions/${strip.positions.find((p) => p.name === 'Left reel')!.id}/equipment`).set('If-Match', tag(afterAttach)).send({ assetTag: null });
+    const added = await marco.post(`/api/strips/${plan.strips[1].id}/positions`).set('If-Match', tag(off)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'rl-900' });
+    expect(added.status).toBe(201);
+    const spare = stripOf(added.body as Plan, plan.strips[1].id).positions.find((p) => p.name === 'Spare reel')!;
+    expect(spare.equipment?.assetTag).toBe('RL-900');
+    const placement = t.db.select().from(s.positionAssignments).where(eq(s.positionAssignments.positionId, spare.id)).all();
+    expect(placement).toEqual([expect.objectContaining({ equipmentId: created.body.id, removedAt: null })]);
+    const item = (await marco.get(`/api/equipment/${created.body.id}`)).body;
+    expect(item.placements[0]).toMatchObject({ stripLabel: plan.strips[1].label, removedAt: null });
+  });
+
+  test('on a withdrawn strip it is 409', async () => {
+    const { marco, res, plan } = await twoStrips('Withdrawn Position Hall');
+    const strip = plan.strips[0];
+    const withdrawn = await marco.post(`/api/strips/${strip.id}/withdraw`).set('If-Match', tag(res)).send({ reason: 'Not used this event' });
+    const refused = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(withdrawn)).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    expect(refused.status).toBe(409);
+    expect(refused.body.code).toBe('strip-withdrawn');
+    expect(tag(await marco.get(`/api/venues/${plan.venue.id}`))).toBe(tag(withdrawn));
+  });
+});
+
+describe('DELETE /api/positions/:id', () => {
+  test('when a position was never tested, then it goes with its steps and its item’s placement, and it is audited', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const venue = await newVenue('Removal Hall');
+    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 1 });
+    await marco.post('/api/equipment').send({ assetTag: 'RL-901', kind: 'reel', lengthM: 20 }).expect(201);
+    const added = await marco.post(`/api/strips/${res.body.strips[0].id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'RL-901' });
+    expect(added.status).toBe(201);
+    const spare = (added.body as Plan).strips[0].positions.find((p) => p.name === 'Spare reel')!;
+    expect(t.db.select().from(s.steps).where(eq(s.steps.positionId, spare.id)).all().length).toBeGreaterThan(0);
+
+    const removed = await marco.delete(`/api/positions/${spare.id}`).set('If-Match', tag(added));
+    expect(removed.status).toBe(200);
+    expect(removed.body.venue.version).toBe(added.body.venue.version + 1);
+    expect(tag(removed)).toBe(`"${removed.body.venue.version}"`);
+    expect((removed.body as Plan).strips[0].positions.map((p) => p.name)).not.toContain('Spare reel');
+    expect(t.db.select().from(s.steps).where(eq(s.steps.positionId, spare.id)).all()).toEqual([]);
+    expect(t.db.select().from(s.positions).where(eq(s.positions.id, spare.id)).all()).toEqual([]);
+    expect(t.db.select().from(s.positionAssignments).where(eq(s.positionAssignments.positionId, spare.id)).all()).toEqual([]);
+    const audit = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.action, 'position.removed'), eq(s.auditLog.entityId, spare.id))).all();
+    expect(audit).toHaveLength(1);
+    expect(JSON.parse(audit[0].detailJson)).toMatchObject({ position: 'Spare reel', assetTag: 'RL-901', placements: [expect.objectContaining({ assetTag: 'RL-901' })] });
+    // The item is free again, and the position is gone for good.
+    const again = await marco.post(`/api/strips/${res.body.strips[0].id}/positions`).set('If-Match', tag(removed)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'RL-901' });
+    expect(again.status).toBe(201);
+    expect((await marco.delete(`/api/positions/${spare.id}`).set('If-Match', tag(again))).status).toBe(404);
+  });
+
+  test('when a position has readings, then 409 position-has-readings, and nothing changes', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const plan = await marco.get(`/api/venues/${hallId}`);
+    const position = (plan.body as Plan).strips.find((x) => x.label === 'Strip 4')!.positions.find((p) => p.name === 'Right reel')!;
+    expect(position.tested).toBe(true);
+    const readingsBefore = t.db.select().from(s.readings).innerJoin(s.steps, eq(s.readings.stepId, s.steps.id)).where(eq(s.steps.positionId, position.id)).all().length;
+    expect(readingsBefore).toBeGreaterThan(0);
+    const refused = await marco.delete(`/api/positions/${position.id}`).set('If-Match', tag(plan));
+    expect(refused.status).toBe(409);
+    expect(refused.body.code).toBe('position-has-readings');
+    expect(refused.body.detail).toMatch(/kept/);
+    expect(refused.body.detail).toMatch(/Take its steps off the checklist/);
+    const now = await marco.get(`/api/venues/${hallId}`);
+    expect(tag(now)).toBe(tag(plan));
+    const still = (now.body as Plan).strips.find((x) => x.label === 'Strip 4')!.positions.find((p) => p.id === position.id)!;
+    expect(still.steps).toEqual(position.steps);
+    expect(t.db.select().from(s.readings).innerJoin(s.steps, eq(s.readings.stepId, s.steps.id)).where(eq(s.steps.positionId, position.id)).all()).toHaveLength(readingsBefore);
+    expect(t.db.select().from(s.auditLog).where(and(eq(s.auditLog.action, 'position.removed'), eq(s.auditLog.entityId, position.id))).all()).toEqual([]);
+  });
+
+  test('when a fault was recorded against an untested position, then it is refused the same way', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const venue = await newVenue('Fault Removal Hall');
+    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 1 });
+    const cable = (res.body as Plan).strips[0].positions.find((p) => p.name === 'Left floor cable')!;
+    expect(cable.tested).toBe(false);
+    await marco.post('/api/faults').send({ positionId: cable.id, kind: 'intermittent', conductors: 'B' }).expect(201);
+    const plan = await marco.get(`/api/venues/${venue.venue.id}`);
+    expect((plan.body as Plan).strips[0].positions.find((p) => p.id === cable.id)!.tested).toBe(true);
+    const refused = await marco.delete(`/api/positions/${cable.id}`).set('If-Match', tag(plan));
+    expect(refused.status).toBe(409);
+    expect(refused.body.code).toBe('position-has-readings');
+    expect(t.db.select().from(s.positions).where(eq(s.positions.id, cable.id)).all()).toHaveLength(1);
+  });
+
+  test('without If-Match 428, with an old one 412; a technician 403, another organisation’s director 404', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const venue = await newVenue('Guarded Removal Hall');
+    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 1 });
+    const reel = (res.body as Plan).strips[0].positions.find((p) => p.name === 'Right reel')!;
+    expect((await marco.delete(`/api/positions/${reel.id}`)).status).toBe(428);
+    expect((await marco.delete(`/api/positions/${reel.id}`).set('If-Match', `"${venue.venue.version}"`)).status).toBe(412);
+    const sam = await t.agentFor(DEMO.technician);
+    expect((await sam.delete(`/api/positions/${reel.id}`).set('If-Match', tag(res))).status).toBe(403);
+    const hilltop = await t.agentFor(OTHER_DIRECTOR, OTHER_PASSWORD);
+    expect((await hilltop.delete(`/api/positions/${reel.id}`).set('If-Match', tag(res))).status).toBe(404);
+    expect((await marco.delete(`/api/positions/${other.positionId}`).set('If-Match', '"1"')).status).toBe(404);
+    const now = await marco.get(`/api/venues/${venue.venue.id}`);
+    expect(tag(now)).toBe(tag(res));
+    expect((now.body as Plan).strips[0].positions.map((p) => p.id)).toContain(reel.id);
+  });
+});
+
+describe('adding a position to a signed-off venue', () => {
+  test('re-opens it: the sign-off and its certificates are superseded and the venue is back to testing', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const signed = await marco.post(`/api/venues/${annexId}/sign-off`).send({ password: DEMO_PASSWORD });
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201);
+    const plan = await marco.get(`/api/venues/${annexId}`);
+    expect(plan.body.venue.status).toBe('signed-off');
+    const strip = (plan.body as Plan).strips[0];
+    const res = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(plan)).send({ name: 'Second apparatus', equipmentKind: 'apparatus' });
+    expect(res.status).toBe(201);
+    expect(res.body.venue.status).toBe('testing');
+    expect(t.db.select().from(s.signOffs).where(eq(s.signOffs.venueId, annexId)).all().map((x) => x.status)).toEqual(['superseded']);
+    const certs = t.db.select().from(s.certificates).where(eq(s.certificates.venueId, annexId)).all();
+    expect(certs.length).toBeGreaterThan(0);
+    expect(certs.every((c) => c.status === 'superseded')).toBe(true);
+    const reopened = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.entityId, annexId), eq(s.auditLog.action, 'venue.reopened'))).all();
+    expect(JSON.parse(reopened.at(-1)!.detailJson).reason).toContain('Second apparatus');
   });
 });

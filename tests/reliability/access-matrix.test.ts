@@ -33,6 +33,8 @@ interface Ctx {
   spareStripId: string;
   spareStepId: string;
   sparePositionId: string;
+  /** An untested position added to the spare strip in the setup, for DELETE /api/positions/:id. */
+  removablePositionId: string;
   faultId: string;
   readingId: string;
   repairId: string;
@@ -145,6 +147,8 @@ function rows(): Row[] {
     { route: 'PATCH /api/strips/:id', path: (c) => `/api/strips/${c.spareStripId}`, headers: planTag, body: () => ({ zone: 'Row C' }), expect: PLAN_VENUE(200) },
     { route: 'POST /api/strips/:id/withdraw', path: (c) => `/api/strips/${c.spareStripId}/withdraw`, headers: planTag, body: () => ({ reason: 'Leaking roof above it' }), expect: PLAN_VENUE(200) },
     { route: 'POST /api/strips/:id/reinstate', path: (c) => `/api/strips/${c.spareStripId}/reinstate`, headers: planTag, expect: PLAN_VENUE(200) },
+    { route: 'POST /api/strips/:id/positions', path: (c) => `/api/strips/${c.spareStripId}/positions`, headers: planTag, body: (_c, a) => ({ name: `Spare reel ${a}`, equipmentKind: 'reel' }), expect: PLAN_VENUE(201) },
+    { route: 'DELETE /api/positions/:id', path: (c) => `/api/positions/${c.removablePositionId}`, headers: planTag, expect: PLAN_VENUE(200) },
     { route: 'PUT /api/positions/:id/equipment', path: (c) => `/api/positions/${c.sparePositionId}/equipment`, headers: planTag, body: () => ({ assetTag: null }), expect: PLAN_VENUE(200) },
     { route: 'POST /api/positions/:id/steps', path: (c) => `/api/positions/${c.sparePositionId}/steps`, headers: planTag, body: () => ({ testKind: 'loop', conductors: 'A-C' }), expect: PLAN_VENUE(201) },
     { route: 'DELETE /api/steps/:id', path: (c) => `/api/steps/${c.spareStepId}`, headers: planTag, expect: PLAN_VENUE(200) },
@@ -254,6 +258,11 @@ beforeAll(async () => {
     mail = (await agents.admin.get('/api/mail')).body as { id: string }[];
     if (mail.length === 0) await new Promise((r) => setTimeout(r, 50));
   }
+  const hallTag = (await marco.get(`/api/venues/${hall}`)).headers.etag as string;
+  const removable = await marco.post(`/api/strips/${spare.id}/positions`).set('If-Match', hallTag).send({ name: 'Removable reel', equipmentKind: 'reel' }).expect(201);
+  const removablePosition = (removable.body.strips as { id: string; positions: { id: string; name: string }[] }[])
+    .find((x) => x.id === spare.id)!
+    .positions.find((p) => p.name === 'Removable reel')!;
   const sam_ = t.db.select().from(s.users).where(eq(s.users.email, DEMO.technician)).get()!;
   ctx = {
     hall,
@@ -265,6 +274,7 @@ beforeAll(async () => {
     spareStripId: spare.id,
     spareStepId: spareCable.steps[spareCable.steps.length - 1].id,
     sparePositionId: spare.positions.find((p) => p.name === 'Right reel')!.id,
+    removablePositionId: removablePosition.id,
     faultId: openFault.id,
     readingId: reading.body.id,
     repairId: repair.body.repair?.id ?? repair.body.id,

@@ -12,6 +12,8 @@ import { useAttachEquipment } from '@/features/plan/api/attach-equipment';
 import { useSetTechnicians } from '@/features/plan/api/set-technicians';
 import { useAddStep } from '@/features/plan/api/add-step';
 import { useDropStep } from '@/features/plan/api/drop-step';
+import { useAddPosition } from '@/features/plan/api/add-position';
+import { useRemovePosition } from '@/features/plan/api/remove-position';
 import { EditProblem } from '@/features/plan/components/conflict-notice';
 import { VenueDetailsForm } from '@/features/plan/components/venue-details-form';
 import { TechniciansForm } from '@/features/plan/components/technicians-form';
@@ -44,6 +46,8 @@ export default function VenuePlanPage() {
   const setTechs = useSetTechnicians(venueId);
   const addStep = useAddStep(venueId);
   const dropStep = useDropStep(venueId);
+  const addPosition = useAddPosition(venueId);
+  const removePosition = useRemovePosition(venueId);
 
   if (plan.isPending) return <Loading />;
   if (plan.isError) return <Notice tone="error">{plan.error.message}</Notice>;
@@ -73,6 +77,11 @@ export default function VenuePlanPage() {
         attach: (positionId, assetTag) => run(assetTag ? `${assetTag} attached` : 'Item taken off', () => attach.mutateAsync({ positionId, assetTag, version })),
         addStep: (positionId, step) => run('Step added', () => addStep.mutateAsync({ positionId, step, version })),
         dropStep: (stepId) => run('Step dropped', () => dropStep.mutateAsync({ stepId, version })),
+        addPosition: (position) => run(`${position.name.trim()} added to ${strip.label}`, () => addPosition.mutateAsync({ stripId: strip.id, position, version })),
+        removePosition: (positionId) => {
+          const name = strip.positions.find((x) => x.id === positionId)?.name ?? 'Position';
+          return run(`${name} removed from ${strip.label}`, () => removePosition.mutateAsync({ positionId, version }));
+        },
       }
     : null;
   const [shape, tone, label] = STATUS[p.venue.status];
@@ -168,7 +177,7 @@ export default function VenuePlanPage() {
                     {strip.label}
                     {strip.zone && <span className="ml-2 text-base font-normal text-ink-soft">{strip.zone}</span>}
                   </h2>
-                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} />
+                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} loopRequired={p.profile.loopRequired} />
                 </Card>
               )}
             </>

@@ -14,6 +14,8 @@ export interface PlanPosition {
   name: string;
   equipmentKind: EquipmentKind;
   sortOrder: number;
+  /** A reading or a fault was recorded against it: it stays in the plan (its steps can be dropped). */
+  tested: boolean;
   equipment: { id: string; assetTag: string; kind: EquipmentKind; lengthM: number | null; status: string; description: string } | null;
   steps: PlanStep[];
 }

@@ -1,7 +1,7 @@
 import { useState } from 'react';
-import { TEST_KIND_LABELS } from '@shared/domain/checklist';
-import { TEST_KINDS, type TestKind } from '@shared/domain/limits';
-import { CONDUCTORS_FOR_TEST, type AddStepInput, type UpdateStripInput } from '@shared/schemas/plan';
+import { stepsForKind, TEST_KIND_LABELS } from '@shared/domain/checklist';
+import { EQUIPMENT_KINDS, TEST_KINDS, type EquipmentKind, type TestKind } from '@shared/domain/limits';
+import { addPositionSchema, CONDUCTORS_FOR_TEST, type AddPositionInput, type AddStepInput, type UpdateStripInput } from '@shared/schemas/plan';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
@@ -15,6 +15,8 @@ export interface StripEditorActions {
   attach: (positionId: string, assetTag: string | null) => Promise<boolean>;
   addStep: (positionId: string, step: AddStepInput) => Promise<boolean>;
   dropStep: (stepId: string) => Promise<boolean>;
+  addPosition: (position: AddPositionInput) => Promise<boolean>;
+  removePosition: (positionId: string) => Promise<boolean>;
 }
 
 function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: boolean; actions: StripEditorActions }) {
@@ -128,6 +130,109 @@ function AddStep({ position, onAdd }: { position: PlanPosition; onAdd: StripEdit
   );
 }
 
+/** One more position on this strip; it gets the test steps of its kind, and the item when a tag is given. */
+function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopRequired: readonly EquipmentKind[]; onAdd: StripEditorActions['addPosition'] }) {
+  const empty = { name: '', equipmentKind: EQUIPMENT_KINDS[0] as EquipmentKind, assetTag: '' };
+  const [draft, setDraft] = useState(empty);
+  const [errors, setErrors] = useState<Record<string, string>>({});
+  const planned = stepsForKind(draft.equipmentKind, { loopRequired: [...loopRequired] });
+  const fieldId = (f: string) => `new-position-${f}-${strip.id}`;
+  // A field's complaint goes as soon as the person edits that field.
+  const edit = (patch: Partial<typeof draft>) => {
+    setDraft({ ...draft, ...patch });
+    setErrors(Object.fromEntries(Object.entries(errors).filter(([k]) => !(k in patch))));
+  };
+  return (
+    <form
+      className="flex flex-col gap-3"
+      aria-label={`Add a position to ${strip.label}`}
+      onSubmit={async (e) => {
+        e.preventDefault();
+        const body = { name: draft.name, equipmentKind: draft.equipmentKind, ...(draft.assetTag.trim() ? { assetTag: draft.assetTag } : {}) };
+        const checked = addPositionSchema.safeParse(body);
+        const taken = strip.positions.find((p) => p.name.trim().toLowerCase() === draft.name.trim().toLowerCase());
+        const found: Record<string, string> = {};
+        if (!checked.success) for (const issue of checked.error.issues) found[String(issue.path[0])] ??= issue.message;
+        if (taken && !found.name) found.name = `${taken.name} is already on ${strip.label}.`;
+        setErrors(found);
+        if (Object.keys(found).length > 0) return;
+        // What was typed stays in the form when the save is refused (a 412 among others).
+        if (await onAdd(body)) setDraft(empty);
+      }}
+    >
+      <div className="grid items-start gap-3 sm:grid-cols-[1fr_12rem_10rem]">
+        <TextField
+          label="Name"
+          name={fieldId('name')}
+          id={fieldId('name')}
+          placeholder="e.g. Spare reel"
+          autoComplete="off"
+          value={draft.name}
+          error={errors.name}
+          onChange={(e) => edit({ name: e.target.value })}
+        />
+        <SelectField
+          label="Takes a"
+          name={fieldId('kind')}
+          id={fieldId('kind')}
+          value={draft.equipmentKind}
+          onChange={(e) => edit({ equipmentKind: e.target.value as EquipmentKind })}
+        >
+          {EQUIPMENT_KINDS.map((k) => (
+            <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>
+          ))}
+        </SelectField>
+        <TextField
+          label="Asset tag (optional)"
+          name={fieldId('tag')}
+          id={fieldId('tag')}
+          placeholder="none"
+          autoComplete="off"
+          value={draft.assetTag}
+          error={errors.assetTag}
+          onChange={(e) => edit({ assetTag: e.target.value.toUpperCase() })}
+        />
+      </div>
+      <p className="text-xs text-ink-soft">
+        {planned.length > 0
+          ? `It gets ${planned.length} test steps: ${planned.map((x) => `${TEST_KIND_LABELS[x.testKind].toLowerCase()} ${x.conductors}`).join(', ')}.`
+          : 'This kind gets no test steps of its own; add the steps it needs once it is on the strip.'}{' '}
+        A position can be taken off again as long as nothing has been measured on it.
+      </p>
+      <div>
+        <Button type="submit" variant="secondary">Add position</Button>
+      </div>
+    </form>
+  );
+}
+
+/** Take an untested position off the strip, after a second tap that says what goes with it. */
+function RemovePosition({ position, onRemove }: { position: PlanPosition; onRemove: StripEditorActions['removePosition'] }) {
+  const [asking, setAsking] = useState(false);
+  const steps = position.steps.filter((s) => !s.removedAt).length;
+  if (!asking) {
+    return (
+      <Button variant="secondary" onClick={() => setAsking(true)} aria-label={`Remove ${position.name} from the strip`}>
+        Remove position
+      </Button>
+    );
+  }
+  return (
+    <div role="group" aria-label={`Remove ${position.name}?`} className="flex w-full flex-wrap items-center gap-2 rounded-lg border border-fail bg-fail-soft px-3 py-2">
+      <span className="flex-1 text-sm">
+        Take {position.name} off this strip{steps > 0 ? ` with its ${steps} test steps` : ''}
+        {position.equipment ? `; ${position.equipment.assetTag} comes off with it and stays in the register` : ''}?
+      </span>
+      <Button variant="danger" onClick={async () => setAsking(!(await onRemove(position.id)))}>
+        Yes, remove
+      </Button>
+      <Button variant="secondary" onClick={() => setAsking(false)}>
+        Keep it
+      </Button>
+    </div>
+  );
+}
+
 function PositionCard({ position, readOnly, actions }: { position: PlanPosition; readOnly: boolean; actions: StripEditorActions }) {
   const [typed, setTag] = useState<string | null>(null);
   const tag = typed ?? position.equipment?.assetTag ?? '';
@@ -164,6 +269,7 @@ function PositionCard({ position, readOnly, actions }: { position: PlanPosition;
             </Button>
           )}
         </form>
+        {!readOnly && !position.tested && <RemovePosition position={position} onRemove={actions.removePosition} />}
       </div>
       {position.equipment && (
         <p className="mt-1 text-xs text-ink-soft">
@@ -200,8 +306,19 @@ function PositionCard({ position, readOnly, actions }: { position: PlanPosition;
   );
 }
 
-/** Everything about one strip. Keyed by strip id and plan version by the caller so forms refresh. */
-export function StripEditor({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: boolean; actions: StripEditorActions }) {
+/** Everything about one strip. Keyed by strip id by the caller so forms start afresh per strip. */
+export function StripEditor({
+  strip,
+  readOnly,
+  actions,
+  loopRequired = [],
+}: {
+  strip: PlanStrip;
+  readOnly: boolean;
+  actions: StripEditorActions;
+  /** The venue profile's kinds that get a loop step, to say which steps a new position gets. */
+  loopRequired?: readonly EquipmentKind[];
+}) {
   return (
     <div className="flex flex-col gap-4">
       <StripDetails strip={strip} readOnly={readOnly} actions={actions} />
@@ -211,6 +328,14 @@ export function StripEditor({ strip, readOnly, actions }: { strip: PlanStrip; re
           <PositionCard key={p.id} position={p} readOnly={readOnly} actions={actions} />
         ))}
       </ul>
+      {!readOnly && !strip.withdrawnAt && (
+        <details className="rounded-lg border border-dashed border-line p-4">
+          <summary className="inline-flex min-h-touch cursor-pointer items-center font-medium text-brand">Add a position to {strip.label}…</summary>
+          <div className="mt-2">
+            <AddPosition strip={strip} loopRequired={loopRequired} onAdd={actions.addPosition} />
+          </div>
+        </details>
+      )}
     </div>
   );
 }
