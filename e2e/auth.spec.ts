@@ -20,6 +20,20 @@ test.describe('signing in', () => {
     });
   }
 
+  test('a reload right after signing in keeps the person signed in', async ({ page }) => {
+    await page.goto('/');
+    await expect(page).toHaveURL(/\/sign-in/);
+    await page.getByLabel('E-mail').fill(DEMO_USERS.technician);
+    await page.getByLabel('Password').fill(DEMO_PASSWORD);
+    const signedIn = page.waitForResponse((r) => r.url().endsWith('/api/auth/sign-in') && r.ok());
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await signedIn;
+    // At once, before the tablet's saved copy (written at most once a second) has caught up.
+    await page.reload();
+    await expect(page.getByRole('heading', { level: 1, name: 'My venues' })).toBeVisible();
+    await expect(page).not.toHaveURL(/\/sign-in/);
+  });
+
   test('a wrong password says so and stays on the sign-in page', async ({ page }) => {
     await page.goto('/sign-in');
     await page.getByLabel('E-mail').fill(DEMO_USERS.director);

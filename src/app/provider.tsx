@@ -4,7 +4,7 @@ import { PersistQueryClientProvider, type PersistQueryClientOptions } from '@tan
 import { queryClient } from '@/lib/query-client';
 import { setUnauthenticatedHandler } from '@/lib/api-client';
 import { meQueryOptions } from '@/features/auth/api/get-me';
-import { OFFLINE_MAX_AGE_MS, PERSISTED_KEY_PREFIXES, shouldPersistQueryKey } from '@/features/offline/utils/persist-filter';
+import { OFFLINE_MAX_AGE_MS, PERSISTED_KEY_PREFIXES, shouldPersistQuery } from '@/features/offline/utils/persist-filter';
 import { queryPersister } from '@/features/offline/utils/query-persister';
 import { setOutboxHandlers, startOutbox } from '@/features/offline/stores/outbox';
 import { readingsRecorded, showRecordedReading } from '@/features/testing/api/create-reading';
@@ -21,7 +21,7 @@ const persistOptions: Omit<PersistQueryClientOptions, 'queryClient'> = {
   persister: queryPersister,
   maxAge: OFFLINE_MAX_AGE_MS,
   buster: __APP_VERSION__,
-  dehydrateOptions: { shouldDehydrateQuery: (q) => q.state.status === 'success' && shouldPersistQueryKey(q.queryKey) },
+  dehydrateOptions: { shouldDehydrateQuery: (q) => q.state.status === 'success' && shouldPersistQuery(q.queryKey, q.state.data) },
 };
 
 // Readings typed on the testing screen go through the tablet's outbox; its answers land in the cache.

@@ -10,7 +10,7 @@ import {
   summarize,
   type QueuedReading,
 } from '../../src/features/offline/utils/queue';
-import { shouldPersistQueryKey } from '../../src/features/offline/utils/persist-filter';
+import { shouldPersistQuery, shouldPersistQueryKey } from '../../src/features/offline/utils/persist-filter';
 
 const SAM = 'user-sam';
 let n = 0;
@@ -169,5 +169,14 @@ describe('shouldPersistQueryKey', () => {
     expect(shouldPersistQueryKey(['venues', 'v1', 'audit'])).toBe(false);
     expect(shouldPersistQueryKey(['faults', 'f1'])).toBe(false);
     expect(shouldPersistQueryKey(['users'])).toBe(false);
+  });
+});
+
+describe('shouldPersistQuery', () => {
+  test('when nobody is signed in, then that answer is not kept on the tablet; a signed-in person is', () => {
+    expect(shouldPersistQuery(['auth', 'me'], null)).toBe(false);
+    expect(shouldPersistQuery(['auth', 'me'], { id: 'u1', name: 'Sam Reyes' })).toBe(true);
+    expect(shouldPersistQuery(['strips', 's1'], { id: 's1' })).toBe(true);
+    expect(shouldPersistQuery(['faults', 'f1'], { id: 'f1' })).toBe(false);
   });
 });

@@ -12,3 +12,14 @@ export function shouldPersistQueryKey(key: readonly unknown[]): boolean {
   if (key[0] === 'strips') return key.length === 2;
   return false;
 }
+
+/**
+ * Whether a successful answer is written to the tablet. "Nobody is signed in" is not kept: the
+ * saved copy is written at most once a second, so a reload right after signing in would otherwise
+ * bring back the signed-out answer from before and send the person to sign in again.
+ */
+export function shouldPersistQuery(key: readonly unknown[], data: unknown): boolean {
+  if (!shouldPersistQueryKey(key)) return false;
+  if (key[0] === 'auth') return data != null;
+  return true;
+}
