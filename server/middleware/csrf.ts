@@ -5,6 +5,10 @@ const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 
 // CSRF defence by the standard headers (OWASP ASVS 3.5): Sec-Fetch-Site where sent, else Origin,
 // else Referer, must be our own origin. A state-changing request with none of them is refused.
+// "Our own" is APP_ORIGIN, or the address the request itself was sent to (its Host; OWASP CSRF
+// cheat sheet, "Identifying the target origin"): a tablet that opened the app at the hall's
+// network address can write even when APP_ORIGIN still says localhost. A page elsewhere cannot
+// pass: its Origin names its own site, and the browser sends our cookie only to our address.
 // `readOnly` lists POST paths (inside the API router) that change nothing and are for anyone, so a
 // request from elsewhere cannot do harm with the visitor's cookie: they need no origin check.
 export function csrfGuard(appOrigin: string, readOnly: ReadonlySet<string> = new Set()): RequestHandler {
@@ -14,9 +18,10 @@ export function csrfGuard(appOrigin: string, readOnly: ReadonlySet<string> = new
     if (site && site !== 'same-origin' && site !== 'none') {
       return next(forbidden('This request came from another site and was refused.'));
     }
+    const ours = (o: string) => o === appOrigin || o === `${req.protocol}://${req.get('host') ?? ''}`;
     const origin = req.get('origin');
     if (origin && origin !== 'null') {
-      return origin === appOrigin ? next() : next(forbidden('This request came from another origin and was refused.'));
+      return ours(origin) ? next() : next(forbidden('This request came from another origin and was refused.'));
     }
     const referer = req.get('referer');
     if (referer) {
@@ -26,7 +31,7 @@ export function csrfGuard(appOrigin: string, readOnly: ReadonlySet<string> = new
       } catch {
         /* unparsable: refused below */
       }
-      return refOrigin === appOrigin ? next() : next(forbidden('This request came from another origin and was refused.'));
+      return ours(refOrigin) ? next() : next(forbidden('This request came from another origin and was refused.'));
     }
     if (site === 'same-origin') return next();
     return next(forbidden('This request has no Origin or Referer header and was refused (cross-site request protection).'));

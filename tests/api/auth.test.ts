@@ -94,6 +94,17 @@ describe('POST /api/auth/sign-in', () => {
     expect([none.status, foreign.status, crossSite.status]).toEqual([403, 403, 403]);
     expect(byReferer.status).toBe(200);
   });
+
+  test('when a tablet opened the app at the hall network’s address, then its writes from that same address are accepted, and a page elsewhere is still refused', async () => {
+    // What a browser sends for a page loaded from http://192.168.1.20:3000 (RFC 6454: the Origin is the page's scheme, host and port).
+    const hall = 'http://192.168.1.20:3000';
+    const sameAddress = await t.request.post('/api/auth/sign-in').set('Host', '192.168.1.20:3000').set('Origin', hall).send({ email: DEMO.director, password: DEMO_PASSWORD });
+    expect(sameAddress.status).toBe(200);
+    const byReferer = await t.request.post('/api/auth/sign-in').set('Host', '192.168.1.20:3000').set('Referer', `${hall}/sign-in`).send({ email: DEMO.director, password: DEMO_PASSWORD });
+    expect(byReferer.status).toBe(200);
+    const otherPage = await t.request.post('/api/auth/sign-in').set('Host', '192.168.1.20:3000').set('Origin', 'http://192.168.1.99:8080').send({ email: DEMO.director, password: DEMO_PASSWORD });
+    expect(otherPage.status).toBe(403);
+  });
 });
 
 describe('sessions', () => {
