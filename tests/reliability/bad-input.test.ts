@@ -97,6 +97,7 @@ function validBody(route: string): Record<string, unknown> | null {
     'PUT /api/venues/:id/technicians': { userIds: [] },
     'PATCH /api/strips/:id': { zone: 'Row B' },
     'POST /api/strips/:id/withdraw': { reason: 'Fuzz reason' },
+    'POST /api/strips/:id/positions': { name: 'Fuzz reel', equipmentKind: 'reel' },
     'PUT /api/positions/:id/equipment': { assetTag: null },
     'POST /api/positions/:id/steps': { testKind: 'loop', conductors: 'A-B' },
     'POST /api/profiles/:id/copy': { name: 'Fuzz rules' },
