@@ -37,7 +37,25 @@ export function presentEquipment(e: EquipmentRow | null) {
   };
 }
 
-function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdByName?: string | null) {
+/**
+ * The saved estimate's explanation in the reader's units. The stored text stays as it was saved;
+ * it is worded again from the saved inputs only when the engine still gives exactly the saved
+ * figures from them (otherwise the saved words are the record, and are shown as they are).
+ */
+function explanationFor(row: FaultEstimateRow, saved: string, units: LengthSystem): string {
+  const request = faultLocationRequestSchema.safeParse({ ...(JSON.parse(row.inputsJson) as object), method: row.method });
+  if (!request.success || request.data.method === 'vf-calibration') return saved;
+  try {
+    const again = runFaultLocation(request.data, units);
+    const same = Math.abs(again.distanceM - row.distanceM) <= 1e-9 && Math.abs(again.uncertaintyM - row.uncertaintyM) <= 1e-9;
+    return same ? again.explanation : saved;
+  } catch (err) {
+    if (err instanceof FaultLocationError) return saved;
+    throw err;
+  }
+}
+
+function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdByName: string | null | undefined, units: LengthSystem) {
   const result = JSON.parse(row.resultJson) as { explanation?: string; fromOtherEndM?: number; faultOhm?: number; velocityFactor?: number };
   return {
     id: row.id,
@@ -49,7 +67,7 @@ function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdB
     /** From the near (apparatus) end, whichever end it was measured from, when the length is known. */
     distanceFromNearM: row.fromEnd === 'far' ? (lengthM !== null ? lengthM - row.distanceM : null) : row.distanceM,
     faultOhm: result.faultOhm ?? null,
-    explanation: result.explanation ?? '',
+    explanation: explanationFor(row, result.explanation ?? '', units),
     inputs: JSON.parse(row.inputsJson) as Record<string, number>,
     createdAt: row.createdAt,
     createdBy: row.createdBy,
@@ -94,13 +112,13 @@ function summaryEstimate(estimates: EstimateDto[]) {
   };
 }
 
-export function presentFaultList(db: Db | Tx, rows: FaultListRow[]) {
+export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units: LengthSystem = 'metric') {
   const estimates = faultsRepository(db).estimatesOf(rows.map((r) => r.fault.id));
   const byFault = new Map<string, EstimateDto[]>();
   for (const e of estimates) {
     const row = rows.find((r) => r.fault.id === e.estimate.faultId);
     const list = byFault.get(e.estimate.faultId) ?? [];
-    list.push(presentEstimate(e.estimate, row?.equipment?.lengthM ?? null, e.createdByName));
+    list.push(presentEstimate(e.estimate, row?.equipment?.lengthM ?? null, e.createdByName, units));
     byFault.set(e.estimate.faultId, list);
   }
   return rows.map((r) => ({
@@ -154,9 +172,9 @@ export function faultsService(deps: AppDeps) {
     const row = load(user, id, 'read');
     const repo = faultsRepository(deps.db);
     const strips = stripsRepository(deps.db);
-    const [listItem] = presentFaultList(deps.db, [row]);
+    const [listItem] = presentFaultList(deps.db, [row], user.unitSystem);
     const lengthM = row.equipment?.lengthM ?? null;
-    const estimates = repo.estimatesOf([id]).map((e) => presentEstimate(e.estimate, lengthM, e.createdByName));
+    const estimates = repo.estimatesOf([id]).map((e) => presentEstimate(e.estimate, lengthM, e.createdByName, user.unitSystem));
     const steps = strips.activeStepsOf([row.fault.positionId]);
     const readings = strips.readingsOfSteps(steps.map((s) => s.id));
     const position = strips.positionContext(row.fault.positionId);
@@ -308,7 +326,7 @@ export function faultsService(deps: AppDeps) {
     }
     let answer;
     try {
-      // The saved explanation stays in the units of whoever saved it: it is their record.
+      // Saved in the saver's units; readers see it worded in theirs (explanationFor).
       answer = runFaultLocation(request, user.unitSystem);
     } catch (err) {
       if (err instanceof FaultLocationError) {

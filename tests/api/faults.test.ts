@@ -2,7 +2,8 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
-import { equipment, faults, organisations, positions, venues } from '../../server/db/schema';
+import { equipment, faultEstimates, faults, organisations, positions, venues } from '../../server/db/schema';
+import { unit } from 'mathjs';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from './testing-helpers';
 
 let t: TestApp;
@@ -348,5 +349,31 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
       expect((await agent.post(`/api/faults/${closed.id}/repairs`).send({ action: 'connector-remade' })).status).toBe(403);
     }
     expect((await sam.post(`/api/faults/${closed.id}/repairs`).send({ action: 'glue' })).status).toBe(422);
+  });
+});
+
+describe('GET /api/faults/:id in the reader’s units', () => {
+  test('when someone who works in feet opens a fault, then a saved estimate is worded in feet; the saved record is unchanged', async () => {
+    // The demo's saved loop estimate on Strip 6 (saved in metres), whatever the other tests did to the fault since.
+    const f = { id: t.db.select().from(faultEstimates).where(eq(faultEstimates.createdAt, '2026-11-21T07:48:00.000Z')).get()!.faultId };
+    const marco = await t.agentFor(DEMO.director);
+    const stored = () => t.db.select().from(faultEstimates).where(eq(faultEstimates.faultId, f.id)).all().map((e) => e.resultJson);
+    const before = stored();
+    const metric = (await marco.get(`/api/faults/${f.id}`)).body;
+    const first = metric.estimates[0];
+    expect(first.explanation).toMatch(/ m from the near end/);
+    try {
+      await marco.put('/api/auth/preferences').send({ unitSystem: 'imperial' });
+      const feet = (await marco.get(`/api/faults/${f.id}`)).body;
+      const same = feet.estimates.find((e: { id: string }) => e.id === first.id);
+      // mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811): the same distance, worded in feet.
+      const ft = unit(first.distanceM, 'm').toNumber('ft');
+      expect(same.explanation).toContain(`about ${ft.toFixed(1)} ft from the near end`);
+      expect(same.explanation).not.toMatch(/\d m\b/);
+      expect(same.distanceM).toBe(first.distanceM);
+    } finally {
+      await marco.put('/api/auth/preferences').send({ unitSystem: 'metric' });
+    }
+    expect(stored()).toEqual(before);
   });
 });
