@@ -55,7 +55,8 @@ function explanationFor(row: FaultEstimateRow, saved: string, units: LengthSyste
   }
 }
 
-function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdByName: string | null | undefined, units: LengthSystem) {
+// `units` undefined keeps the saved words: lists (the board every few seconds) do not show them.
+function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdByName: string | null | undefined, units?: LengthSystem) {
   const result = JSON.parse(row.resultJson) as { explanation?: string; fromOtherEndM?: number; faultOhm?: number; velocityFactor?: number };
   return {
     id: row.id,
@@ -67,7 +68,7 @@ function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdB
     /** From the near (apparatus) end, whichever end it was measured from, when the length is known. */
     distanceFromNearM: row.fromEnd === 'far' ? (lengthM !== null ? lengthM - row.distanceM : null) : row.distanceM,
     faultOhm: result.faultOhm ?? null,
-    explanation: explanationFor(row, result.explanation ?? '', units),
+    explanation: units ? explanationFor(row, result.explanation ?? '', units) : (result.explanation ?? ''),
     inputs: JSON.parse(row.inputsJson) as Record<string, number>,
     createdAt: row.createdAt,
     createdBy: row.createdBy,
@@ -112,7 +113,7 @@ function summaryEstimate(estimates: EstimateDto[]) {
   };
 }
 
-export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units: LengthSystem = 'metric') {
+export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units?: LengthSystem) {
   const estimates = faultsRepository(db).estimatesOf(rows.map((r) => r.fault.id));
   const byFault = new Map<string, EstimateDto[]>();
   for (const e of estimates) {
