@@ -69,6 +69,30 @@ describe('POST /api/faults/:id/attachments', () => {
     expect(Math.max(meta.width!, meta.height!)).toBe(480);
   });
 
+  test('when a tablet sends a HEIC photo, then it is kept as sent and its preview is a JPEG of the same picture', async () => {
+    // A 64×48 orange picture encoded by heif-enc (Debian package libheif-examples, libheif 1.15):
+    // a real HEVC-coded HEIF file, as iPads save photos.
+    const heic = readFileSync(join(import.meta.dirname, '../fixtures/photo-64x48.heic'));
+    const sam = await t.agentFor(DEMO.technician);
+    const res = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', heic, { filename: 'IMG_0042.HEIC', contentType: 'image/heic' });
+    expect(res.status).toBe(201);
+    expect(res.body).toMatchObject({ kind: 'photo', contentType: 'image/heic', size: heic.length });
+    const row = t.db.select().from(attachments).where(eq(attachments.id, res.body.id)).get()!;
+    expect(readFileSync(join(dir(), row.storedName)).equals(heic)).toBe(true);
+
+    const preview = await sam.get(`/api/attachments/${res.body.id}/preview`).buffer(true).parse(binary);
+    expect(preview.status).toBe(200);
+    expect(preview.headers['content-type']).toBe('image/jpeg');
+    const meta = await sharp(preview.body as Buffer).metadata();
+    expect(meta.format).toBe('jpeg');
+    expect(meta.width! / meta.height!).toBeCloseTo(64 / 48, 2);
+    // The picture itself came through: its middle is still orange (lossy both ways, so roughly).
+    const { data } = await sharp(preview.body as Buffer).extract({ left: Math.floor(meta.width! / 2), top: Math.floor(meta.height! / 2), width: 1, height: 1 }).raw().toBuffer({ resolveWithObject: true });
+    expect(Math.abs(data[0]! - 200)).toBeLessThan(20);
+    expect(Math.abs(data[1]! - 120)).toBeLessThan(20);
+    expect(Math.abs(data[2]! - 40)).toBeLessThan(25);
+  });
+
   test('when the file is served, then the same bytes with nosniff, the stored type and a safe Content-Disposition (OWASP ASVS 5.4.1, RFC 6266)', async () => {
     const sam = await t.agentFor(DEMO.technician);
     const up = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', png, { filename: 'Kabel "links" – Übersicht.png' });
