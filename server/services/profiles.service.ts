@@ -1,6 +1,7 @@
 // Limit profiles: copied and edited by admins and directors. An edit adds a version to the
 // lineage and never rewrites one, so every reading keeps the version it was checked with.
 import type { AppDeps } from '../deps';
+import type { Db } from '../db/client';
 import type { AuthUser } from '../auth/types';
 import { profilesRepository, type ProfileRow } from '../db/profiles.repository';
 import { writeAudit } from '../db/audit.repository';
@@ -18,6 +19,26 @@ export function toLimitProfile(row: ProfileRow): LimitProfile {
     rules: JSON.parse(row.rulesJson) as LimitRule[],
     loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
   };
+}
+
+// Limit profile rows are never rewritten (an edit adds a row with the next version, below), so a
+// profile parsed once by id stays right: every reading is judged against one, and parsing its
+// rules each time was a large share of a write. One map per database.
+const parsedById = new WeakMap<object, Map<string, LimitProfile>>();
+
+/** The profile with this row id, parsed once; undefined when there is no such row. */
+export function limitProfileById(db: Db, id: string): LimitProfile | undefined {
+  let known = parsedById.get(db);
+  if (!known) parsedById.set(db, (known = new Map()));
+  let profile = known.get(id);
+  if (!profile) {
+    const row = profilesRepository(db).findById(id);
+    if (!row) return undefined;
+    profile = toLimitProfile(row);
+    if (known.size >= 500) known.clear();
+    known.set(id, profile);
+  }
+  return profile;
 }
 
 function present(row: ProfileRow) {

@@ -5,59 +5,20 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import type { Db, Tx } from '../db/client';
 import { readingsRepository, type ReadingWriteContext } from '../db/readings.repository';
-import { stripsRepository, latestByStep, type LimitProfileRow, type ReadingRow } from '../db/strips.repository';
+import { stripsRepository, latestByStep, type ReadingRow } from '../db/strips.repository';
 import { faultsRepository } from '../db/faults.repository';
 import { writeAudit } from '../db/audit.repository';
 import { groupCommit } from '../db/group-commit';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
+import { limitProfileById } from './profiles.service';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
 import { parseReading } from '../../shared/domain/units';
 import { decideTakenAt } from '../../shared/domain/reading-time';
-import { evaluateReading, NoRuleError, ReadingInputError, type LimitProfile, type LimitRule, type EquipmentKind } from '../../shared/domain/limits';
+import { evaluateReading, NoRuleError, ReadingInputError } from '../../shared/domain/limits';
 import type { CreateReadingInput, ReadingDto } from '../../shared/schemas/readings';
 import type { FaultKind } from '../../shared/schemas/faults';
-
-// Parsed profiles by id and version: every reading is judged against one, and parsing its rules
-// each time was a large share of a write. Profile rows are never rewritten (an edit adds a version);
-// the stored text is compared as well so a changed row can never be served stale.
-const parsedProfiles = new Map<string, { rulesJson: string; loopRequiredJson: string; profile: LimitProfile }>();
-
-export function toLimitProfile(row: LimitProfileRow): LimitProfile {
-  const key = `${row.id}:${row.version}`;
-  const hit = parsedProfiles.get(key);
-  if (hit && hit.rulesJson === row.rulesJson && hit.loopRequiredJson === row.loopRequiredJson && hit.profile.name === row.name) {
-    return hit.profile;
-  }
-  const profile: LimitProfile = {
-    name: row.name,
-    version: row.version,
-    rules: JSON.parse(row.rulesJson) as LimitRule[],
-    loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
-  };
-  if (parsedProfiles.size >= 500) parsedProfiles.clear();
-  parsedProfiles.set(key, { rulesJson: row.rulesJson, loopRequiredJson: row.loopRequiredJson, profile });
-  return profile;
-}
-
-// Limit profile rows are never rewritten (an edit adds a row with the next version, see
-// profiles.service), so a profile parsed once by id stays right; one map per database.
-const profilesById = new WeakMap<Db, Map<string, LimitProfile>>();
-
-function limitProfileById(db: Db, id: string): LimitProfile | undefined {
-  let known = profilesById.get(db);
-  if (!known) profilesById.set(db, (known = new Map()));
-  let profile = known.get(id);
-  if (!profile) {
-    const row = stripsRepository(db).profile(id);
-    if (!row) return undefined;
-    profile = toLimitProfile(row);
-    if (known.size >= 500) known.clear();
-    known.set(id, profile);
-  }
-  return profile;
-}
 
 export function presentReading(r: ReadingRow, takenByName: string | null, faultId?: string | null): ReadingDto {
   const dto: ReadingDto = {

@@ -6,7 +6,8 @@ import { stripsRepository, latestByStep } from '../db/strips.repository';
 import { faultsRepository } from '../db/faults.repository';
 import { accessService } from './access.service';
 import { venuesService } from './venues.service';
-import { presentReading, toLimitProfile } from './readings.service';
+import { presentReading } from './readings.service';
+import { limitProfileById } from './profiles.service';
 import { presentEquipment, presentFaultList } from './faults.service';
 import { notFound } from '../lib/app-error';
 import { stripStatus, stepCounts } from '../../shared/domain/progress';
@@ -26,7 +27,7 @@ export function stripsService(deps: AppDeps) {
     const steps = repo.activeStepsOf(positionRows.map((p) => p.position.id));
     const latest = latestByStep(repo.readingsOfSteps(steps.map((s) => s.id)));
     const openFaults = presentFaultList(deps.db, faultsRepository(deps.db).unclosedOfStrip(strip.id));
-    const profileRow = repo.profile(venue.profileId);
+    const profile = limitProfileById(deps.db, venue.profileId);
 
     const positions = positionRows.map(({ position, equipment }) => ({
       id: position.id,
@@ -64,8 +65,8 @@ export function stripsService(deps: AppDeps) {
       venueId: venue.id,
       venueName: venue.name,
       venueStatus: venue.status,
-      profile: profileRow
-        ? { id: profileRow.id, name: profileRow.name, version: profileRow.version, ...pick(toLimitProfile(profileRow)) }
+      profile: profile
+        ? { id: venue.profileId, name: profile.name, version: profile.version, rules: profile.rules, loopRequired: profile.loopRequired ?? [] }
         : null,
       counts,
       venueProgress: {
@@ -84,4 +85,3 @@ export function stripsService(deps: AppDeps) {
   return { get };
 }
 
-const pick = (p: ReturnType<typeof toLimitProfile>) => ({ rules: p.rules, loopRequired: p.loopRequired ?? [] });
