@@ -155,3 +155,25 @@ async function readXlsx(bytes: Buffer, limits: SheetLimits): Promise<Sheet> {
   }
   return { format: 'xlsx', rows, rowNumbers };
 }
+
+/**
+ * One CSV cell (RFC 4180 quoting). A cell that a spreadsheet would run as a formula (starting with
+ * = + - @, tab or carriage return) gets a leading apostrophe (OWASP "CSV Injection").
+ */
+export function csvCell(value: unknown): string {
+  if (value === null || value === undefined) return '';
+  let s = typeof value === 'boolean' ? (value ? 'yes' : 'no') : String(value);
+  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
+  return /[",\r\n]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s;
+}
+
+/** A file name that is safe in a Content-Disposition header and on any file system. */
+export function safeFileName(name: string): string {
+  const base = name
+    .normalize('NFKD')
+    .replace(/[^\x20-\x7e]/g, '')
+    .replace(/[^A-Za-z0-9._-]+/g, '-')
+    .replace(/^[-.]+|[-.]+$/g, '')
+    .slice(0, 80);
+  return base || 'venue';
+}

@@ -3,6 +3,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { readingsTableRepository } from '../db/readings-table.repository';
 import { accessService } from './access.service';
+import { csvCell, safeFileName } from '../lib/spreadsheet';
 
 const CSV_COLUMNS = [
   ['Strip', 'stripLabel'],
@@ -27,28 +28,6 @@ const CSV_COLUMNS = [
   ['Superseded by', 'supersededBy'],
   ['Reading id', 'id'],
 ] as const;
-
-/**
- * One CSV cell (RFC 4180 quoting). A cell that a spreadsheet would run as a formula (starting with
- * = + - @, tab or carriage return) gets a leading apostrophe (OWASP "CSV Injection").
- */
-export function csvCell(value: unknown): string {
-  if (value === null || value === undefined) return '';
-  let s = typeof value === 'boolean' ? (value ? 'yes' : 'no') : String(value);
-  if (/^[=+\-@\t\r]/.test(s)) s = `'${s}`;
-  return /[",\r\n]/.test(s) || s !== s.trim() ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
-/** A file name that is safe in a Content-Disposition header and on any file system. */
-export function safeFileName(name: string): string {
-  const base = name
-    .normalize('NFKD')
-    .replace(/[^\x20-\x7e]/g, '')
-    .replace(/[^A-Za-z0-9._-]+/g, '-')
-    .replace(/^[-.]+|[-.]+$/g, '')
-    .slice(0, 80);
-  return base || 'venue';
-}
 
 export function readingsTableService(deps: AppDeps) {
   const repo = readingsTableRepository(deps.db);

@@ -4,7 +4,7 @@ import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
 import { venueIds } from './testing-helpers';
 import { addOtherOrg } from '../setup/other-org';
 import * as s from '../../server/db/schema';
-import { csvCell, safeFileName } from '../../server/services/readings-table.service';
+import { csvCell, safeFileName } from '../../server/lib/spreadsheet';
 
 let t: TestApp;
 let other: Awaited<ReturnType<typeof addOtherOrg>>;
