@@ -2,7 +2,7 @@ import { and, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { auditLog, users } from './schema';
 
-// Reading the audit log back, with who did it. Writing stays in audit.repository.ts (writeAudit).
+// Reading the audit log back, with who did it. Writing stays in audit.repository.ts (recordAudit).
 export function auditTrailRepository(db: Db | Tx) {
   const select = (where: SQL | undefined, limit: number) =>
     db

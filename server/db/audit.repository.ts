@@ -13,7 +13,7 @@ export interface AuditEntry {
 }
 
 // Called inside the same transaction as the change it records.
-export function writeAudit(db: Db | Tx, e: AuditEntry) {
+function writeAudit(db: Db | Tx, e: AuditEntry) {
   const row = {
     orgId: e.orgId,
     actorId: e.actorId,
@@ -23,6 +23,17 @@ export function writeAudit(db: Db | Tx, e: AuditEntry) {
     detailJson: JSON.stringify(e.detail ?? {}),
   };
   prepared(db, `audit.insert:${columnsKey(row)}`, (d) => d.insert(auditLog).values(placeholdersOf(row)).prepare()).run(row);
+}
+
+/** Who made a change: a signed-in person (an AuthUser fits), or the organisation and id of one. */
+export interface AuditActor {
+  orgId: string | null;
+  id: string | null;
+}
+
+/** The one way services record what a person did, in the transaction of the change itself. */
+export function recordAudit(db: Db | Tx, actor: AuditActor, action: string, entityType: string, entityId: string, detail?: Record<string, unknown>) {
+  writeAudit(db, { orgId: actor.orgId, actorId: actor.id, action, entityType, entityId, detail });
 }
 
 export function listAudit(db: Db, filter: { orgId: string; entityType?: string; entityId?: string }, limit = 200) {

@@ -9,7 +9,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { attachmentsRepository, type AttachmentRow } from '../db/attachments.repository';
 import type { EquipmentRow } from '../db/equipment.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { attachmentStore, type AttachmentStore } from '../storage/attachment-store';
 import { accessService } from './access.service';
 import { AppError, conflict, forbidden, notFound, unprocessable } from '../lib/app-error';
@@ -291,14 +291,7 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
               createdAt: nowIso(),
             };
             r.insert(row);
-            writeAudit(tx, {
-              orgId: owner.orgId,
-              actorId: user.id,
-              action: 'attachment.added',
-              entityType: ownerType,
-              entityId: ownerId,
-              detail: { attachmentId: id, kind: known.kind, contentType, size: row.size, sha256, originalName },
-            });
+            recordAudit(tx, { orgId: owner.orgId, id: user.id }, 'attachment.added', ownerType, ownerId, { attachmentId: id, kind: known.kind, contentType, size: row.size, sha256, originalName });
             return { raced: false, answer: remember(tx, { status: 201, body: created(row) }) };
           });
           if (answer.raced) {

@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import type { AppDeps } from '../deps';
 import { authRepository, type UserRow } from '../db/auth.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { hashPassword, verifyPassword } from '../auth/password';
 import { signSessionToken, verifySessionToken } from '../auth/session-token';
 import type { AuthUser } from '../auth/types';
@@ -111,7 +111,7 @@ export function authService(deps: AppDeps) {
       const id = newId();
       deps.db.transaction((tx) => {
         authRepository(tx).insertUser({ id, orgId: actor.orgId, email: input.email, name: input.name, role: input.role });
-        writeAudit(tx, { orgId: actor.orgId, actorId: actor.id, action: 'user.invited', entityType: 'user', entityId: id, detail: { role: input.role } });
+        recordAudit(tx, actor, 'user.invited', 'user', id, { role: input.role });
       });
       const user = repo.findUserById(id)!;
       await sendLink(user, 'invite', actor.name);
@@ -129,7 +129,7 @@ export function authService(deps: AppDeps) {
         r.updateUser(userId, patch);
         // Disabling a user or changing their role ends their sessions (OWASP ASVS 7.4.2).
         if (patch.disabled || (patch.role && patch.role !== user.role)) r.revokeUserSessions(userId, nowIso());
-        writeAudit(tx, { orgId: actor.orgId, actorId: actor.id, action: 'user.updated', entityType: 'user', entityId: userId, detail: patch });
+        recordAudit(tx, actor, 'user.updated', 'user', userId, patch);
       });
       const updated = repo.findUserById(userId)!;
       return { ...publicUser(updated), disabled: updated.disabled, invited: !updated.passwordHash };
@@ -140,7 +140,7 @@ export function authService(deps: AppDeps) {
       if (!user || user.orgId !== actor.orgId) throw notFound('That person');
       deps.db.transaction((tx) => {
         authRepository(tx).revokeUserSessions(userId, nowIso());
-        writeAudit(tx, { orgId: actor.orgId, actorId: actor.id, action: 'user.sessions-ended', entityType: 'user', entityId: userId });
+        recordAudit(tx, actor, 'user.sessions-ended', 'user', userId);
       });
     },
 
@@ -170,7 +170,7 @@ export function authService(deps: AppDeps) {
         if (used.changes !== 1) throw new AppError(410, 'link-used', 'This link has already been used. Ask for a new one.');
         r.updateUser(user.id, { passwordHash: hash });
         r.revokeUserSessions(user.id, nowIso());
-        writeAudit(tx, { orgId: user.orgId, actorId: user.id, action: `user.password-set`, entityType: 'user', entityId: user.id, detail: { via: row.purpose } });
+        recordAudit(tx, user, `user.password-set`, 'user', user.id, { via: row.purpose });
       });
       return publicUser(user);
     },

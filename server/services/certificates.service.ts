@@ -5,7 +5,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { accessService } from './access.service';
 import { signOffRepository, type CertificateRow } from '../db/sign-off.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { conflict, forbidden, notFound } from '../lib/app-error';
 import { sha256Hex } from '../lib/ids';
 import { certificateFiles } from '../storage/certificate-files';
@@ -123,14 +123,7 @@ export function certificatesService(deps: AppDeps) {
       const at = new Date().toISOString();
       deps.db.transaction((tx) => {
         signOffRepository(tx).revoke(c.id, { at, reason, by: user.id });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'certificate.revoked',
-          entityType: 'certificate',
-          entityId: c.id,
-          detail: { number: c.number, reason, previousStatus: c.status },
-        });
+        recordAudit(tx, user, 'certificate.revoked', 'certificate', c.id, { number: c.number, reason, previousStatus: c.status });
       });
       return publicView(repo.certificateByNumber(c.number)!);
     },

@@ -5,7 +5,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import type { Db, Tx } from '../db/client';
 import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { csvCell, readSheet } from '../lib/spreadsheet';
 import { conflict, unprocessable } from '../lib/app-error';
 import { nowIso } from '../lib/ids';
@@ -270,14 +270,7 @@ export function equipmentImportService(deps: AppDeps) {
             const item = repo.findByTag(user.orgId, r.assetTag!)!;
             const patch = Object.fromEntries(Object.entries(r.changes!).map(([k, c]) => [k, c.to]));
             if (!repo.updateIfVersion(item.id, item.version, patch)) throw new Error(`version moved under the import for ${item.assetTag}`);
-            writeAudit(tx, {
-              orgId: user.orgId,
-              actorId: user.id,
-              action: 'equipment.updated',
-              entityType: 'equipment',
-              entityId: item.id,
-              detail: { assetTag: item.assetTag, changed: r.changes, via: 'import', file: file.fileName, row: r.row },
-            });
+            recordAudit(tx, user, 'equipment.updated', 'equipment', item.id, { assetTag: item.assetTag, changed: r.changes, via: 'import', file: file.fileName, row: r.row });
             report.updated.push({ row: r.row, assetTag: item.assetTag, id: item.id, changes: r.changes! });
           } else {
             const reason = r.action === 'error' ? r.errors.map((e) => e.message).join(' ') : r.message;
@@ -287,14 +280,7 @@ export function equipmentImportService(deps: AppDeps) {
         if (rows.every((r) => r.action === 'error')) {
           throw unprocessable('nothing-to-import', 'No row of the file can be imported; fix the rows marked in the preview.', { report });
         }
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'equipment.imported',
-          entityType: 'equipment-register',
-          entityId: user.orgId,
-          detail: { file: file.fileName, mode: options.mode, created: report.created.length, updated: report.updated.length, skipped: report.skipped.length },
-        });
+        recordAudit(tx, user, 'equipment.imported', 'equipment-register', user.orgId, { file: file.fileName, mode: options.mode, created: report.created.length, updated: report.updated.length, skipped: report.skipped.length });
         });
       } catch (err) {
         // A constraint that fails while writing (e.g. the same tag added meanwhile) undoes the whole import.

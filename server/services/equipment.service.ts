@@ -2,7 +2,7 @@
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import type { Tx } from '../db/client';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { requireVersion } from '../http/etag';
@@ -47,14 +47,7 @@ export function insertEquipmentItem(
     notes: input.notes ?? null,
     ...(opts.createdAt ? { createdAt: opts.createdAt } : {}),
   });
-  writeAudit(tx, {
-    orgId: user.orgId,
-    actorId: user.id,
-    action: 'equipment.created',
-    entityType: 'equipment',
-    entityId: id,
-    detail: { assetTag: input.assetTag, kind: input.kind, ...opts.auditDetail },
-  });
+  recordAudit(tx, user, 'equipment.created', 'equipment', id, { assetTag: input.assetTag, kind: input.kind, ...opts.auditDetail });
   return id;
 }
 
@@ -114,14 +107,7 @@ export function equipmentService(deps: AppDeps) {
           const changed = Object.fromEntries(
             Object.entries(patch).map(([k, v]) => [k, { from: item[k as keyof EquipmentRow], to: v }]),
           );
-          writeAudit(tx, {
-            orgId: user.orgId,
-            actorId: user.id,
-            action: 'equipment.updated',
-            entityType: 'equipment',
-            entityId: id,
-            detail: { assetTag: patch.assetTag ?? item.assetTag, changed },
-          });
+          recordAudit(tx, user, 'equipment.updated', 'equipment', id, { assetTag: patch.assetTag ?? item.assetTag, changed });
         });
       } catch (err) {
         if (isUniqueViolation(err)) throw duplicateTag(patch.assetTag ?? '');
@@ -154,14 +140,7 @@ export function equipmentService(deps: AppDeps) {
           createdAt: nowIso(),
         });
         r.update(id, { velocityFactor: result.velocityFactor, version: item.version + 1 });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'equipment.calibrated',
-          entityType: 'equipment',
-          entityId: id,
-          detail: { assetTag: item.assetTag, ...input, velocityFactor: result.velocityFactor, previous: item.velocityFactor },
-        });
+        recordAudit(tx, user, 'equipment.calibrated', 'equipment', id, { assetTag: item.assetTag, ...input, velocityFactor: result.velocityFactor, previous: item.velocityFactor });
       });
       return { id: calibrationId, ...result, item: repo.findById(id)! };
     },

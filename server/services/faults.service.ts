@@ -6,7 +6,7 @@ import type { Db, Tx } from '../db/client';
 import { faultsRepository, type FaultEstimateRow, type FaultListRow } from '../db/faults.repository';
 import { stripsRepository } from '../db/strips.repository';
 import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
 import { presentReading } from './readings.service';
@@ -273,14 +273,7 @@ export function faultsService(deps: AppDeps) {
         openedBy: user.id,
         openedAt: nowIso(),
       });
-      writeAudit(tx, {
-        orgId: user.orgId,
-        actorId: user.id,
-        action: 'fault.opened',
-        entityType: 'fault',
-        entityId: id,
-        detail: { kind: body.kind, conductors: body.conductors, automatic: false },
-      });
+      recordAudit(tx, user, 'fault.opened', 'fault', id, { kind: body.kind, conductors: body.conductors, automatic: false });
     });
     return detail(user, id);
   }
@@ -299,14 +292,7 @@ export function faultsService(deps: AppDeps) {
       if (!faultsRepository(tx).update(id, row.fault.version, patch)) {
         throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and make your change again.');
       }
-      writeAudit(tx, {
-        orgId: user.orgId,
-        actorId: user.id,
-        action: 'fault.updated',
-        entityType: 'fault',
-        entityId: id,
-        detail: { before: { notes: row.fault.notes, kind: row.fault.kind, status: row.fault.status }, after: body },
-      });
+      recordAudit(tx, user, 'fault.updated', 'fault', id, { before: { notes: row.fault.notes, kind: row.fault.kind, status: row.fault.status }, after: body });
     });
     return detail(user, id);
   }
@@ -352,14 +338,7 @@ export function faultsService(deps: AppDeps) {
       });
       const status = row.fault.status === 'open' ? 'located' : row.fault.status;
       repo.update(id, row.fault.version, { status });
-      writeAudit(tx, {
-        orgId: user.orgId,
-        actorId: user.id,
-        action: 'fault.estimated',
-        entityType: 'fault',
-        entityId: id,
-        detail: { estimateId, method: request.method, fromEnd, distanceM: answer.distanceM, uncertaintyM: answer.uncertaintyM },
-      });
+      recordAudit(tx, user, 'fault.estimated', 'fault', id, { estimateId, method: request.method, fromEnd, distanceM: answer.distanceM, uncertaintyM: answer.uncertaintyM });
     });
     const fault = detail(user, id);
     return { estimate: fault.estimates.find((e) => e.id === estimateId)!, combined: fault.combined, fault };
@@ -434,23 +413,9 @@ export function faultsService(deps: AppDeps) {
         createdAt: at,
       });
       faults.update(id, row.fault.version, { status: 'repaired' });
-      writeAudit(tx, {
-        orgId: user.orgId,
-        actorId: user.id,
-        action: 'fault.repaired',
-        entityType: 'fault',
-        entityId: id,
-        detail: { repairId, action: body.action, equipmentId: item?.id ?? null, lengthBeforeM, lengthRemovedM: body.lengthRemovedM ?? null, replacementId },
-      });
+      recordAudit(tx, user, 'fault.repaired', 'fault', id, { repairId, action: body.action, equipmentId: item?.id ?? null, lengthBeforeM, lengthRemovedM: body.lengthRemovedM ?? null, replacementId });
       if (item && body.action !== 'connector-remade') {
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: `equipment.${body.action}`,
-          entityType: 'equipment',
-          entityId: item.id,
-          detail: { faultId: id, repairId },
-        });
+        recordAudit(tx, user, `equipment.${body.action}`, 'equipment', item.id, { faultId: id, repairId });
       }
       reopenIfSignedOff(tx, {
         venueId: position.venue.id,

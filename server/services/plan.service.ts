@@ -7,7 +7,7 @@ import type { Tx } from '../db/client';
 import { planRepository } from '../db/plan.repository';
 import { profilesRepository } from '../db/profiles.repository';
 import { equipmentRepository } from '../db/equipment.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
 import { toLimitProfile } from './profiles.service';
@@ -35,10 +35,6 @@ const staleMessage = (yours: number | null, current: number) =>
 export function planService(deps: AppDeps) {
   const access = accessService(deps.db);
   const repo = planRepository(deps.db);
-
-  function audit(tx: Tx, user: AuthUser, action: string, entityType: string, entityId: string, detail: Record<string, unknown>) {
-    writeAudit(tx, { orgId: user.orgId, actorId: user.id, action, entityType, entityId, detail });
-  }
 
   function profileOf(tx: Tx, profileId: string): LimitProfile {
     return toLimitProfile(profilesRepository(tx).findById(profileId)!);
@@ -235,7 +231,7 @@ export function planService(deps: AppDeps) {
           directorId: user.id,
           organiserId: input.organiserId ?? null,
         });
-        audit(tx, user, 'event.created', 'event', id, { name: input.name, startsOn: input.startsOn, endsOn: input.endsOn });
+        recordAudit(tx, user, 'event.created', 'event', id, { name: input.name, startsOn: input.startsOn, endsOn: input.endsOn });
       });
       return this.getEvent(user, id);
     },
@@ -305,7 +301,7 @@ export function planService(deps: AppDeps) {
           // The checklist follows the new venue's profile (loop steps where it asks for them).
           syncLoopSteps(tx, venueId, toLimitProfile(profileRow), at);
         }
-        audit(tx, user, source ? 'venue.cloned' : 'venue.created', 'venue', venueId, {
+        recordAudit(tx, user, source ? 'venue.cloned' : 'venue.created', 'venue', venueId, {
           name: input.name,
           eventId,
           profileId: profileRow.id,
@@ -328,7 +324,7 @@ export function planService(deps: AppDeps) {
         // Saving the details unchanged is not an error; there is just nothing to write.
         if (Object.keys(patch).length === 0) return;
         planRepository(tx).updateVenue(venueId, patch);
-        audit(tx, user, 'venue.updated', 'venue', venueId, {
+        recordAudit(tx, user, 'venue.updated', 'venue', venueId, {
           venueId,
           changed: Object.fromEntries(Object.entries(patch).map(([k, v]) => [k, { from: venue[k as keyof typeof venue], to: v }])),
         });
@@ -358,7 +354,7 @@ export function planService(deps: AppDeps) {
           template
             .filter((p) => !p.pisteOnly || input.conductivePiste)
             .forEach((p, i) => addPosition(tx, stripId, p, i + 1, profile));
-          audit(tx, user, 'strip.created', 'strip', stripId, { venueId, label, zone: input.zone ?? null, conductivePiste: !!input.conductivePiste });
+          recordAudit(tx, user, 'strip.created', 'strip', stripId, { venueId, label, zone: input.zone ?? null, conductivePiste: !!input.conductivePiste });
         }
       });
     },
@@ -393,7 +389,7 @@ export function planService(deps: AppDeps) {
             for (const p of pistes) for (const s of r.activeStepsOf(p.id)) r.removeStep(s.id, at);
           }
         }
-        audit(tx, user, 'strip.updated', 'strip', stripId, {
+        recordAudit(tx, user, 'strip.updated', 'strip', stripId, {
           venueId: strip.venueId,
           label: input.label ?? strip.label,
           changed: Object.fromEntries(Object.entries(patch).map(([k, v]) => [k, { from: strip[k as keyof typeof strip], to: v }])),
@@ -406,7 +402,7 @@ export function planService(deps: AppDeps) {
       return edit(user, strip.venueId, ifMatch, `strip ${strip.label} withdrawn`, (tx) => {
         if (strip.withdrawnAt) throw conflict('already-withdrawn', `${strip.label} is already withdrawn (${strip.withdrawnReason}).`);
         planRepository(tx).updateStrip(stripId, { withdrawnReason: reason, withdrawnAt: nowIso() });
-        audit(tx, user, 'strip.withdrawn', 'strip', stripId, { venueId: strip.venueId, label: strip.label, reason });
+        recordAudit(tx, user, 'strip.withdrawn', 'strip', stripId, { venueId: strip.venueId, label: strip.label, reason });
       });
     },
 
@@ -415,7 +411,7 @@ export function planService(deps: AppDeps) {
       return edit(user, strip.venueId, ifMatch, `strip ${strip.label} reinstated`, (tx) => {
         if (!strip.withdrawnAt) throw conflict('not-withdrawn', `${strip.label} is not withdrawn.`);
         planRepository(tx).updateStrip(stripId, { withdrawnReason: null, withdrawnAt: null });
-        audit(tx, user, 'strip.reinstated', 'strip', stripId, { venueId: strip.venueId, label: strip.label, previousReason: strip.withdrawnReason });
+        recordAudit(tx, user, 'strip.reinstated', 'strip', stripId, { venueId: strip.venueId, label: strip.label, previousReason: strip.withdrawnReason });
       });
     },
 
@@ -436,7 +432,7 @@ export function planService(deps: AppDeps) {
           return;
         }
         eq.assignToPosition(positionId, item?.id ?? null, user.id, nowIso());
-        audit(tx, user, item ? 'position.equipment-attached' : 'position.equipment-removed', 'position', positionId, {
+        recordAudit(tx, user, item ? 'position.equipment-attached' : 'position.equipment-removed', 'position', positionId, {
           venueId: strip.venueId,
           strip: strip.label,
           position: position.name,
@@ -466,7 +462,7 @@ export function planService(deps: AppDeps) {
         const profile = profileOf(tx, venue.profileId);
         const positionId = addPosition(tx, stripId, { name, equipmentKind: input.equipmentKind }, r.maxPositionSort(stripId) + 1, profile);
         if (item) equipmentRepository(tx).assignToPosition(positionId, item.id, user.id, nowIso());
-        audit(tx, user, 'position.added', 'position', positionId, {
+        recordAudit(tx, user, 'position.added', 'position', positionId, {
           venueId: strip.venueId,
           strip: strip.label,
           position: name,
@@ -505,7 +501,7 @@ export function planService(deps: AppDeps) {
         const placements = r.assignmentsOfPosition(positionId);
         r.deletePosition(positionId);
         // The placement rows go with the position; the audit keeps which items sat there and when.
-        audit(tx, user, 'position.removed', 'position', positionId, {
+        recordAudit(tx, user, 'position.removed', 'position', positionId, {
           venueId: strip.venueId,
           strip: strip.label,
           position: position.name,
@@ -532,7 +528,7 @@ export function planService(deps: AppDeps) {
         }
         const before = r.techniciansOf(venueId);
         r.setTechnicians(venueId, userIds);
-        audit(tx, user, 'venue.technicians-set', 'venue', venueId, {
+        recordAudit(tx, user, 'venue.technicians-set', 'venue', venueId, {
           venueId,
           added: people.filter((p) => !before.some((b) => b.id === p.id)).map((p) => p.name),
           removed: before.filter((b) => !userIds.includes(b.id)).map((b) => b.name),
@@ -567,7 +563,7 @@ export function planService(deps: AppDeps) {
           required: input.required ?? true,
           addedByDirector: true,
         });
-        audit(tx, user, 'step.added', 'step', stepId, {
+        recordAudit(tx, user, 'step.added', 'step', stepId, {
           venueId: strip.venueId,
           strip: strip.label,
           position: position.name,
@@ -586,7 +582,7 @@ export function planService(deps: AppDeps) {
       return edit(user, strip.venueId, ifMatch, `${strip.label} ${position.name} step dropped`, (tx) => {
         if (step.removedAt) throw conflict('already-dropped', 'That step was already dropped from the checklist.');
         planRepository(tx).removeStep(stepId, nowIso());
-        audit(tx, user, 'step.dropped', 'step', stepId, {
+        recordAudit(tx, user, 'step.dropped', 'step', stepId, {
           venueId: strip.venueId,
           strip: strip.label,
           position: position.name,

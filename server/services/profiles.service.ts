@@ -4,7 +4,7 @@ import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import type { AuthUser } from '../auth/types';
 import { profilesRepository, type ProfileRow } from '../db/profiles.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { notFound } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
 import { requireVersion } from '../http/etag';
@@ -114,14 +114,7 @@ export function profilesService(deps: AppDeps) {
           createdBy: user.id,
           createdAt: nowIso(),
         });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'profile.copied',
-          entityType: 'limit-profile',
-          entityId: newRowId,
-          detail: { name, fromProfileId: source.id, fromName: source.name, fromVersion: source.version },
-        });
+        recordAudit(tx, user, 'profile.copied', 'limit-profile', newRowId, { name, fromProfileId: source.id, fromName: source.name, fromVersion: source.version });
       });
       return this.get(user, newRowId);
     },
@@ -152,14 +145,7 @@ export function profilesService(deps: AppDeps) {
           createdBy: user.id,
           createdAt: nowIso(),
         });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'profile.versioned',
-          entityType: 'limit-profile',
-          entityId: newRowId,
-          detail: { lineageId: row.lineageId, name: input.name ?? latest.name, fromVersion: latest.version, version: latest.version + 1 },
-        });
+        recordAudit(tx, user, 'profile.versioned', 'limit-profile', newRowId, { lineageId: row.lineageId, name: input.name ?? latest.name, fromVersion: latest.version, version: latest.version + 1 });
       });
       return this.get(user, newRowId);
     },

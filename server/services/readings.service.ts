@@ -7,7 +7,7 @@ import type { Db, Tx } from '../db/client';
 import { readingsRepository, type ReadingWriteContext } from '../db/readings.repository';
 import { stripsRepository, latestByStep, type ReadingRow } from '../db/strips.repository';
 import { faultsRepository } from '../db/faults.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { groupCommit } from '../db/group-commit';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
@@ -171,13 +171,7 @@ export function readingsService(deps: AppDeps) {
         receivedAt,
       };
       readingsRepository(db).insert(row);
-      writeAudit(db, {
-        orgId: user.orgId,
-        actorId: user.id,
-        action: body.supersedesId ? 'reading.corrected' : 'reading.recorded',
-        entityType: 'reading',
-        entityId: body.id,
-        detail: {
+      recordAudit(db, user, body.supersedesId ? 'reading.corrected' : 'reading.recorded', 'reading', body.id, {
           stepId: body.stepId,
           stripId: ctx.strip.id,
           value: body.value,
@@ -187,8 +181,7 @@ export function readingsService(deps: AppDeps) {
           // The tablet's own time is kept here even when it was not believed (nothing typed is lost).
           ...(time.source === 'tablet' && takenAt !== receivedAt ? { takenAt, receivedAt } : {}),
           ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
-        },
-      });
+        });
       // The venue's status was read in this transaction: only a signed-off venue is touched.
       const venueReopened =
         ctx.venue.status === 'signed-off' &&
@@ -231,14 +224,7 @@ export function readingsService(deps: AppDeps) {
     if (existing) {
       if (existing.status === 'repaired') {
         faults.update(existing.id, existing.version, { status: 'open' });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'fault.retest-failed',
-          entityType: 'fault',
-          entityId: existing.id,
-          detail: { readingId },
-        });
+        recordAudit(tx, user, 'fault.retest-failed', 'fault', existing.id, { readingId });
       }
       return existing.id;
     }
@@ -257,14 +243,7 @@ export function readingsService(deps: AppDeps) {
       openedBy: user.id,
       openedAt: at,
     });
-    writeAudit(tx, {
-      orgId: user.orgId,
-      actorId: user.id,
-      action: 'fault.opened',
-      entityType: 'fault',
-      entityId: id,
-      detail: { readingId, kind, conductors: ctx.step.conductors, automatic: true },
-    });
+    recordAudit(tx, user, 'fault.opened', 'fault', id, { readingId, kind, conductors: ctx.step.conductors, automatic: true });
     return id;
   }
 
@@ -281,14 +260,7 @@ export function readingsService(deps: AppDeps) {
       const opened = faults.ofReading(body.supersedesId);
       if (opened && opened.status === 'open') {
         faults.update(opened.id, opened.version, { status: 'closed', closedAt: at });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'fault.closed',
-          entityType: 'fault',
-          entityId: opened.id,
-          detail: { why: 'the reading that opened it was corrected', readingId: body.id, reason: body.correctionReason },
-        });
+        recordAudit(tx, user, 'fault.closed', 'fault', opened.id, { why: 'the reading that opened it was corrected', readingId: body.id, reason: body.correctionReason });
       }
     }
     // Most passes finish no retest: the context already says whether a repaired fault waits here.
@@ -305,14 +277,7 @@ export function readingsService(deps: AppDeps) {
       });
       if (!allPass) continue;
       faults.update(fault.id, fault.version, { status: 'closed', closedAt: at });
-      writeAudit(tx, {
-        orgId: user.orgId,
-        actorId: user.id,
-        action: 'fault.closed',
-        entityType: 'fault',
-        entityId: fault.id,
-        detail: { why: 'retest passed', readingId: body.id },
-      });
+      recordAudit(tx, user, 'fault.closed', 'fault', fault.id, { why: 'retest passed', readingId: body.id });
     }
     return null;
   }

@@ -8,7 +8,7 @@ import { verifyPassword } from '../auth/password';
 import { accessService } from './access.service';
 import { venuesRepository } from '../db/venues.repository';
 import { signOffRepository } from '../db/sign-off.repository';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { AppError, conflict, unprocessable } from '../lib/app-error';
 import { newId } from '../lib/ids';
 import { currentSigningKey, signCertificatePayload } from '../signing/signing-keys';
@@ -364,14 +364,7 @@ export function signOffService(deps: AppDeps) {
           if (txRepo.markVenueSignedOff(venueId, row.venue.version) !== 1) {
             throw conflict('changed-meanwhile', 'The venue changed while the certificates were being made. Check it and sign again.');
           }
-          writeAudit(tx, {
-            orgId: user.orgId,
-            actorId: user.id,
-            action: 'venue.signed-off',
-            entityType: 'venue',
-            entityId: venueId,
-            detail: { signOffId, certificates: issued.map((c) => c.payload.number), exceptions: readiness.exceptions.length, readingsDigest: digest },
-          });
+          recordAudit(tx, user, 'venue.signed-off', 'venue', venueId, { signOffId, certificates: issued.map((c) => c.payload.number), exceptions: readiness.exceptions.length, readingsDigest: digest });
         });
       } catch (err) {
         for (const f of written) files.remove(f);

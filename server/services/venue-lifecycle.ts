@@ -3,7 +3,7 @@
 import { and, eq } from 'drizzle-orm';
 import type { Db, Tx } from '../db/client';
 import { certificates, signOffs, venues } from '../db/schema';
-import { writeAudit } from '../db/audit.repository';
+import { recordAudit } from '../db/audit.repository';
 import { venuesRepository } from '../db/venues.repository';
 
 export function reopenIfSignedOff(
@@ -22,13 +22,6 @@ export function reopenIfSignedOff(
     .set({ status: 'superseded', supersededAt: at })
     .where(and(eq(certificates.venueId, v.venueId), eq(certificates.status, 'valid')))
     .run();
-  writeAudit(tx, {
-    orgId: v.orgId,
-    actorId: v.actorId,
-    action: 'venue.reopened',
-    entityType: 'venue',
-    entityId: v.venueId,
-    detail: { reason: v.reason },
-  });
+  recordAudit(tx, { orgId: v.orgId, id: v.actorId }, 'venue.reopened', 'venue', v.venueId, { reason: v.reason });
   return true;
 }
