@@ -1,5 +1,5 @@
 import type { CookieOptions, RequestHandler } from 'express';
-import type { AuthService } from '../services/auth.service';
+import type { SessionResolver } from './types';
 
 export function sessionCookie(appOrigin: string) {
   const secure = appOrigin.startsWith('https://');
@@ -11,11 +11,11 @@ export function sessionCookie(appOrigin: string) {
 
 // Sets req.user when the cookie names a live session; anything else leaves it unset, and the
 // route's access policy decides (401 where a user is needed).
-export function authenticate(auth: AuthService, cookieName: string): RequestHandler {
+export function authenticate(sessions: SessionResolver, cookieName: string): RequestHandler {
   return async (req, _res, next) => {
     const token = req.cookies?.[cookieName];
     if (typeof token === 'string' && token.length > 0 && token.length < 4096) {
-      const found = await auth.resolve(token);
+      const found = await sessions.resolve(token);
       if (found) {
         req.user = found.user;
         req.sessionId = found.sessionId;

@@ -10,6 +10,11 @@ export interface AuthUser {
   unitSystem: 'metric' | 'imperial';
 }
 
+/** What authenticate() needs: a session cookie's token to its live session (the auth service does it). */
+export interface SessionResolver {
+  resolve(token: string): Promise<{ user: AuthUser; sessionId: string } | null>;
+}
+
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
   namespace Express {

@@ -5,7 +5,8 @@ import { validate } from '../middleware/validate';
 import { sendProblem } from '../middleware/error-handler';
 import { unauthorized } from '../lib/app-error';
 import { sessionCookie } from '../auth/authenticate';
-import { publicUser, type AuthService } from '../services/auth.service';
+import type { AuthService } from '../services/auth.service';
+import { publicUser } from '../presenters/users';
 import { preferencesSchema, requestResetSchema, setPasswordSchema, signInSchema, type SignInInput } from '../../shared/schemas/auth';
 
 export function authRoutes(deps: AppDeps, auth: AuthService) {

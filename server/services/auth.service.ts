@@ -8,17 +8,10 @@ import type { AuthUser } from '../auth/types';
 import { AppError, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
 import type { InviteUserInput, UpdateUserInput } from '../../shared/schemas/auth';
+import { publicUser, toAuthUser } from '../presenters/users';
 
 const TOKEN_TTL_HOURS = { invite: 72, reset: 2 } as const;
 const TOUCH_EVERY_MS = 60_000;
-
-export function toAuthUser(u: Pick<UserRow, 'id' | 'orgId' | 'email' | 'name' | 'role' | 'unitSystem'>): AuthUser {
-  return { id: u.id, orgId: u.orgId, email: u.email, name: u.name, role: u.role, unitSystem: u.unitSystem };
-}
-
-export function publicUser(u: AuthUser | UserRow) {
-  return { id: u.id, email: u.email, name: u.name, role: u.role, unitSystem: u.unitSystem };
-}
 
 export function authService(deps: AppDeps) {
   const repo = authRepository(deps.db);

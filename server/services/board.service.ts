@@ -3,7 +3,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { accessService } from './access.service';
 import { venuesService } from './venues.service';
-import { presentFaultList } from './faults.service';
+import { presentFaultList } from '../presenters/faults';
 import { faultsRepository } from '../db/faults.repository';
 import type { StripStatus } from '../../shared/domain/progress';
 

@@ -2,148 +2,20 @@
 import { z } from 'zod';
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
-import type { Db, Tx } from '../db/client';
-import { faultsRepository, type FaultEstimateRow, type FaultListRow } from '../db/faults.repository';
+import { faultsRepository, type FaultListRow } from '../db/faults.repository';
 import { stripsRepository } from '../db/strips.repository';
-import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
+import { equipmentRepository } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
-import { presentReading } from './readings.service';
 import { conflict, notFound, preconditionFailed, unprocessable, AppError } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
-import {
-  combineEstimates,
-  FaultLocationError,
-  ohmPerMetreFromConductorSize,
-  runFaultLocation,
-  type FaultEstimate,
-} from '../../shared/domain/fault-location';
+import { FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
-import { formatLength, type LengthSystem } from '../../shared/domain/units';
+import { formatLength } from '../../shared/domain/units';
 import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
-
-export function presentEquipment(e: EquipmentRow | null) {
-  if (!e) return null;
-  return {
-    id: e.id,
-    assetTag: e.assetTag,
-    kind: e.kind,
-    description: e.description,
-    lengthM: e.lengthM,
-    velocityFactor: e.velocityFactor,
-    conductorMm2: e.conductorMm2,
-    status: e.status,
-  };
-}
-
-/**
- * The saved estimate's explanation in the reader's units. The stored text stays as it was saved;
- * it is worded again from the saved inputs only when the engine still gives exactly the saved
- * figures from them (otherwise the saved words are the record, and are shown as they are).
- */
-function explanationFor(row: FaultEstimateRow, saved: string, units: LengthSystem): string {
-  const request = faultLocationRequestSchema.safeParse({ ...(JSON.parse(row.inputsJson) as object), method: row.method });
-  if (!request.success || request.data.method === 'vf-calibration') return saved;
-  try {
-    const again = runFaultLocation(request.data, units);
-    const same = Math.abs(again.distanceM - row.distanceM) <= 1e-9 && Math.abs(again.uncertaintyM - row.uncertaintyM) <= 1e-9;
-    return same ? again.explanation : saved;
-  } catch (err) {
-    if (err instanceof FaultLocationError) return saved;
-    throw err;
-  }
-}
-
-// `units` undefined keeps the saved words: lists (the board every few seconds) do not show them.
-function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdByName: string | null | undefined, units?: LengthSystem) {
-  const result = JSON.parse(row.resultJson) as { explanation?: string; fromOtherEndM?: number; faultOhm?: number; velocityFactor?: number };
-  return {
-    id: row.id,
-    method: row.method,
-    fromEnd: row.fromEnd as 'near' | 'far',
-    distanceM: row.distanceM,
-    fromOtherEndM: result.fromOtherEndM ?? (lengthM !== null ? lengthM - row.distanceM : null),
-    uncertaintyM: row.uncertaintyM,
-    /** From the near (apparatus) end, whichever end it was measured from, when the length is known. */
-    distanceFromNearM: row.fromEnd === 'far' ? (lengthM !== null ? lengthM - row.distanceM : null) : row.distanceM,
-    faultOhm: result.faultOhm ?? null,
-    explanation: units ? explanationFor(row, result.explanation ?? '', units) : (result.explanation ?? ''),
-    inputs: JSON.parse(row.inputsJson) as Record<string, number>,
-    createdAt: row.createdAt,
-    createdBy: row.createdBy,
-    createdByName: createdByName ?? null,
-  };
-}
-type EstimateDto = ReturnType<typeof presentEstimate>;
-
-/**
- * All estimates of a fault, brought to the near end and weighed together, with the disagreement
- * flag. Worked out on each read, so its explanation is in the reader's units.
- */
-function combine(estimates: EstimateDto[], units: LengthSystem = 'metric') {
-  const usable = estimates.filter((e) => e.distanceFromNearM !== null && e.uncertaintyM > 0);
-  if (usable.length === 0) return null;
-  const asDomain: FaultEstimate[] = usable.map((e) => ({
-    method: e.method,
-    distanceM: e.distanceFromNearM as number,
-    uncertaintyM: e.uncertaintyM,
-    explanation: e.explanation,
-    inputs: e.inputs,
-  }));
-  const c = combineEstimates(asDomain, units);
-  return { ...c, count: usable.length, fromEnd: 'near' as const };
-}
-
-/** The one estimate shown in lists: the combination when there are several, else the latest. */
-function summaryEstimate(estimates: EstimateDto[]) {
-  if (estimates.length === 0) return null;
-  const combined = estimates.length > 1 ? combine(estimates) : null;
-  if (combined) {
-    return { method: 'combined', distanceM: combined.distanceM, uncertaintyM: combined.uncertaintyM, fromEnd: 'near' as const, count: combined.count, agree: combined.agree };
-  }
-  const last = estimates[estimates.length - 1]!;
-  return {
-    method: last.method,
-    distanceM: last.distanceFromNearM ?? last.distanceM,
-    uncertaintyM: last.uncertaintyM,
-    fromEnd: last.distanceFromNearM !== null ? ('near' as const) : last.fromEnd,
-    count: 1,
-    agree: true,
-  };
-}
-
-export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units?: LengthSystem) {
-  const estimates = faultsRepository(db).estimatesOf(rows.map((r) => r.fault.id));
-  const byFault = new Map<string, EstimateDto[]>();
-  for (const e of estimates) {
-    const row = rows.find((r) => r.fault.id === e.estimate.faultId);
-    const list = byFault.get(e.estimate.faultId) ?? [];
-    list.push(presentEstimate(e.estimate, row?.equipment?.lengthM ?? null, e.createdByName, units));
-    byFault.set(e.estimate.faultId, list);
-  }
-  return rows.map((r) => ({
-    id: r.fault.id,
-    venueId: r.venueId,
-    stripId: r.fault.stripId,
-    stripLabel: r.stripLabel,
-    positionId: r.fault.positionId,
-    positionName: r.positionName,
-    stepId: r.fault.stepId,
-    readingId: r.fault.readingId,
-    equipment: presentEquipment(r.equipment),
-    kind: r.fault.kind,
-    conductors: r.fault.conductors,
-    status: r.fault.status,
-    notes: r.fault.notes,
-    version: r.fault.version,
-    estimate: summaryEstimate(byFault.get(r.fault.id) ?? []),
-    openedAt: r.fault.openedAt,
-    openedBy: r.fault.openedBy,
-    openedByName: r.openedByName,
-    closedAt: r.fault.closedAt,
-  }));
-}
+import { combine, presentEquipment, presentEstimate, presentFaultList } from '../presenters/faults';
+import { presentReading } from '../presenters/readings';
 
 export const faultEtag = (version: number) => `"${version}"`;
 

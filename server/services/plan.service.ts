@@ -10,7 +10,7 @@ import { equipmentRepository } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
-import { toLimitProfile } from './profiles.service';
+import { toLimitProfile } from '../presenters/profiles';
 import { conflict, forbidden, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
 import { requireVersion } from '../http/etag';

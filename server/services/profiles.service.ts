@@ -8,18 +8,9 @@ import { recordAudit } from '../db/audit.repository';
 import { notFound } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
 import { requireVersion } from '../http/etag';
-import type { EquipmentKind, LimitProfile, LimitRule } from '../../shared/domain/limits';
+import type { LimitProfile } from '../../shared/domain/limits';
 import type { UpdateProfileInput } from '../../shared/schemas/limit-profile';
-
-/** A stored row as the domain's LimitProfile (what evaluateReading and stepsForKind take). */
-export function toLimitProfile(row: ProfileRow): LimitProfile {
-  return {
-    name: row.name,
-    version: row.version,
-    rules: JSON.parse(row.rulesJson) as LimitRule[],
-    loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
-  };
-}
+import { presentProfile, toLimitProfile } from '../presenters/profiles';
 
 // Limit profile rows are never rewritten (an edit adds a row with the next version, below), so a
 // profile parsed once by id stays right: every reading is judged against one, and parsing its
@@ -41,21 +32,6 @@ export function limitProfileById(db: Db, id: string): LimitProfile | undefined {
   return profile;
 }
 
-function present(row: ProfileRow) {
-  const p = toLimitProfile(row);
-  return {
-    id: row.id,
-    lineageId: row.lineageId,
-    name: row.name,
-    version: row.version,
-    rules: p.rules,
-    loopRequired: p.loopRequired ?? [],
-    notes: row.notes,
-    createdAt: row.createdAt,
-    createdBy: row.createdBy,
-  };
-}
-
 export function profilesService(deps: AppDeps) {
   const repo = profilesRepository(deps.db);
 
@@ -75,7 +51,7 @@ export function profilesService(deps: AppDeps) {
         .map((versions) => {
           const sorted = [...versions].sort((a, b) => b.version - a.version);
           const latest = sorted[0];
-          const p = present(latest);
+          const p = presentProfile(latest);
           return {
             ...p,
             ruleCount: p.rules.length,
@@ -90,7 +66,7 @@ export function profilesService(deps: AppDeps) {
       const row = requireProfile(user, id);
       const versions = repo.versionsOf(row.lineageId);
       return {
-        ...present(row),
+        ...presentProfile(row),
         latestVersion: versions[0]?.profile.version ?? row.version,
         latestId: versions[0]?.profile.id ?? row.id,
         versions: versions.map((v) => ({ id: v.profile.id, version: v.profile.version, createdAt: v.profile.createdAt, byName: v.byName, notes: v.profile.notes })),

@@ -19,35 +19,7 @@ import { decideTakenAt } from '../../shared/domain/reading-time';
 import { evaluateReading, NoRuleError, ReadingInputError } from '../../shared/domain/limits';
 import type { CreateReadingInput, ReadingDto } from '../../shared/schemas/readings';
 import type { FaultKind } from '../../shared/schemas/faults';
-
-export function presentReading(r: ReadingRow, takenByName: string | null, faultId?: string | null): ReadingDto {
-  const dto: ReadingDto = {
-    id: r.id,
-    stepId: r.stepId,
-    equipmentId: r.equipmentId,
-    valueText: r.valueText,
-    valueOhm: r.valueOhm,
-    overRange: r.overRange,
-    leadOffsetOhm: r.leadOffsetOhm,
-    temperatureC: r.temperatureC,
-    verdict: r.verdict,
-    limitOhm: r.limitOhm,
-    limitKind: r.limitKind,
-    source: r.source,
-    ruleId: r.ruleId,
-    profileId: r.profileId,
-    profileVersion: r.profileVersion,
-    explanation: r.explanation,
-    supersedesId: r.supersedesId,
-    correctionReason: r.correctionReason,
-    takenAt: r.takenAt,
-    receivedAt: r.receivedAt,
-    takenBy: r.takenBy,
-    takenByName,
-  };
-  if (faultId !== undefined) dto.faultId = faultId;
-  return dto;
-}
+import { presentReading } from '../presenters/readings';
 
 /**
  * What tells a replay from a different request: the body, normalised, without the id. The
