@@ -11,7 +11,7 @@ import { sha256Hex } from '../lib/ids';
 import { certificateFiles } from '../storage/certificate-files';
 import { verifyUrlFor, type CertificatePayload } from '../signing/certificate-record';
 import { currentSigningKey, publicJwks } from '../signing/signing-keys';
-import { CERTIFICATE_NUMBER_PATTERN, normaliseCertificateNumber } from '../../shared/schemas/sign-off';
+import { isCertificateNumber, normaliseCertificateNumber } from '../../shared/domain/certificate-number';
 
 export function certificatesService(deps: AppDeps) {
   const access = accessService(deps.db);
@@ -130,7 +130,7 @@ export function certificatesService(deps: AppDeps) {
 
     verify(number: string) {
       const n = normaliseCertificateNumber(number);
-      const c = CERTIFICATE_NUMBER_PATTERN.test(n) ? repo.certificateByNumber(n) : undefined;
+      const c = isCertificateNumber(n) ? repo.certificateByNumber(n) : undefined;
       if (!c) throw notFound('A certificate with that number');
       return publicView(c);
     },

@@ -3,6 +3,7 @@
 import { randomInt } from 'node:crypto';
 import { sha256Hex } from '../lib/ids';
 import { canonicalJson } from './signing-keys';
+import { makeCertificateNumber, type CertificateKind } from '../../shared/domain/certificate-number';
 
 export const CERTIFICATE_FORMAT = 'stripwarden-certificate/1';
 export const SCOPE_SENTENCE =
@@ -66,16 +67,7 @@ export function readingsDigest(list: CertifiedReading[]): string {
   return sha256Hex(canonicalJson(list));
 }
 
-// Crockford base32 without I, L, O, U: readable aloud, no look-alikes.
-const ALPHABET = '0123456789ABCDEFGHJKMNPQRSTVWXYZ';
-
-/**
- * SW-<year>-XXXX-XXXX-<V|S>: 40 random bits, so a number does not tell how many certificates
- * exist or let anyone guess the next one (verification is public).
- */
-export function newCertificateNumber(kind: 'venue' | 'strip', year: number): string {
-  const group = () => Array.from({ length: 4 }, () => ALPHABET[randomInt(32)]).join('');
-  return `SW-${year}-${group()}-${group()}-${kind === 'venue' ? 'V' : 'S'}`;
-}
+/** A new certificate number with 40 bits from the CSPRNG (shared/domain/certificate-number.ts). */
+export const newCertificateNumber = (kind: CertificateKind, year: number): string => makeCertificateNumber(kind, year, () => randomInt(32));
 
 export const verifyUrlFor = (origin: string, number: string) => `${origin}/verify/${number}`;

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { idField } from './common';
+import { CERTIFICATE_NUMBER_EXAMPLE, CERTIFICATE_NUMBER_PATTERN, normaliseCertificateNumber } from '../domain/certificate-number';
 
 export const signOffExceptionSchema = z.object({
   stripId: idField,
@@ -34,22 +35,10 @@ export const revokeCertificateSchema = z
   .strict();
 export type RevokeCertificateInput = z.infer<typeof revokeCertificateSchema>;
 
-// Crockford base32 (no I, L, O, U): SW-<year>-XXXX-XXXX-<V|S>.
-export const CERTIFICATE_NUMBER_PATTERN = /^SW-\d{4}-[0-9A-HJKMNP-TV-Z]{4}-[0-9A-HJKMNP-TV-Z]{4}-[VS]$/;
-
-/** What people type or a QR reader hands over, made canonical: case, spaces, look-alike letters. */
-export function normaliseCertificateNumber(input: string): string {
-  const upper = input.trim().toUpperCase().replace(/\s+/g, '');
-  const m = /^SW-(\d{4})-([0-9A-Z]{4})-([0-9A-Z]{4})-([VS])$/.exec(upper);
-  if (!m) return upper;
-  const fix = (s: string) => s.replace(/O/g, '0').replace(/[IL]/g, '1');
-  return `SW-${m[1]}-${fix(m[2])}-${fix(m[3])}-${m[4]}`;
-}
-
 export const certificateNumberField = z
   .string()
   .max(40)
   .transform(normaliseCertificateNumber)
-  .pipe(z.string().regex(CERTIFICATE_NUMBER_PATTERN, 'That is not a certificate number (SW-2026-XXXX-XXXX-V).'));
+  .pipe(z.string().regex(CERTIFICATE_NUMBER_PATTERN, `That is not a certificate number (${CERTIFICATE_NUMBER_EXAMPLE}).`));
 
 export const certificateNumberParams = z.object({ number: certificateNumberField });

@@ -8,6 +8,7 @@ import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Card, Loading, Notice } from '@/components/ui/card';
 import { paths } from '@/config/paths';
+import { CERTIFICATE_NUMBER_EXAMPLE, normaliseCertificateNumber } from '@shared/domain/certificate-number';
 
 function PublicFrame({ children }: { children: ReactNode }) {
   return (
@@ -35,7 +36,7 @@ function NumberForm({ initial = '' }: { initial?: string }) {
       className="flex flex-wrap items-end gap-3"
       onSubmit={(e) => {
         e.preventDefault();
-        const n = value.trim().toUpperCase();
+        const n = normaliseCertificateNumber(value);
         if (n) navigate(paths.verify(encodeURIComponent(n)));
       }}
     >
@@ -43,7 +44,7 @@ function NumberForm({ initial = '' }: { initial?: string }) {
         className="min-w-72 flex-1"
         label="Certificate number"
         name="number"
-        placeholder="SW-2026-XXXX-XXXX-V"
+        placeholder={CERTIFICATE_NUMBER_EXAMPLE}
         value={value}
         onChange={(e) => setValue(e.target.value)}
         autoCapitalize="characters"
