@@ -1,8 +1,7 @@
-import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
+import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { Db, Tx } from './client';
 import {
-  certificates,
   equipment,
   faults,
   limitProfiles,
@@ -16,7 +15,6 @@ import {
   venues,
 } from './schema';
 
-export type CertificateRow = typeof certificates.$inferSelect;
 export type SignOffRow = typeof signOffs.$inferSelect;
 
 const readingEquipment = alias(equipment, 'reading_equipment');
@@ -86,29 +84,6 @@ export function signOffRepository(db: Db | Tx) {
       ids.length === 0 ? [] : db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(inArray(users.id, ids)).all(),
 
     insertSignOff: (row: typeof signOffs.$inferInsert) => db.insert(signOffs).values(row).run(),
-    insertCertificate: (row: typeof certificates.$inferInsert) => db.insert(certificates).values(row).run(),
-    numberTaken: (number: string) => !!db.select({ id: certificates.id }).from(certificates).where(eq(certificates.number, number)).get(),
-
-    certificatesOfVenue: (venueId: string) =>
-      db
-        .select({ certificate: certificates, signOff: signOffs, signerName: users.name, stripLabel: strips.label })
-        .from(certificates)
-        .innerJoin(signOffs, eq(certificates.signOffId, signOffs.id))
-        .innerJoin(users, eq(signOffs.signedBy, users.id))
-        .leftJoin(strips, eq(certificates.stripId, strips.id))
-        .where(eq(certificates.venueId, venueId))
-        .orderBy(desc(certificates.issuedAt), asc(certificates.kind), asc(strips.sortOrder))
-        .all(),
-    certificateByNumber: (number: string) =>
-      db.select().from(certificates).where(eq(certificates.number, number)).get(),
-    certificatesBySha: (sha256: string) =>
-      db.select().from(certificates).where(eq(certificates.pdfSha256, sha256)).all(),
-    revoke: (id: string, v: { at: string; reason: string; by: string }) =>
-      db
-        .update(certificates)
-        .set({ status: 'revoked', revokedAt: v.at, revokedReason: v.reason, revokedBy: v.by })
-        .where(eq(certificates.id, id))
-        .run(),
     /** The venue freezes: signed off, and its version moves on so stale plan edits are refused. */
     markVenueSignedOff: (venueId: string, fromVersion: number) =>
       db

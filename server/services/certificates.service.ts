@@ -4,7 +4,7 @@
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { accessService } from './access.service';
-import { signOffRepository, type CertificateRow } from '../db/sign-off.repository';
+import { certificatesRepository, type CertificateRow } from '../db/certificates.repository';
 import { recordAudit } from '../db/audit.repository';
 import { conflict, forbidden, notFound } from '../lib/app-error';
 import { sha256Hex } from '../lib/ids';
@@ -15,7 +15,7 @@ import { isCertificateNumber, normaliseCertificateNumber } from '../../shared/do
 
 export function certificatesService(deps: AppDeps) {
   const access = accessService(deps.db);
-  const repo = signOffRepository(deps.db);
+  const repo = certificatesRepository(deps.db);
   const files = certificateFiles(deps.env.DATA_DIR);
 
   function publicView(c: CertificateRow) {
@@ -47,14 +47,14 @@ export function certificatesService(deps: AppDeps) {
 
   /** A certificate the user may see (same organisation, read access to its venue), else 404/403. */
   function readable(user: AuthUser, number: string) {
-    const c = repo.certificateByNumber(normaliseCertificateNumber(number));
+    const c = repo.byNumber(normaliseCertificateNumber(number));
     if (!c) throw notFound('That certificate');
     const row = access.requireVenue(user, c.venueId, 'read');
     return { c, row };
   }
 
   function latestSet(venueId: string) {
-    const all = repo.certificatesOfVenue(venueId);
+    const all = repo.ofVenue(venueId);
     const latest = all[0]?.certificate.signOffId;
     return all.filter((x) => x.certificate.signOffId === latest);
   }
@@ -63,7 +63,7 @@ export function certificatesService(deps: AppDeps) {
     list(user: AuthUser, venueId: string) {
       const row = access.requireVenue(user, venueId, 'read');
       const canRevoke = user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id);
-      const list = repo.certificatesOfVenue(venueId).map(({ certificate: c, signOff, signerName, stripLabel }) => ({
+      const list = repo.ofVenue(venueId).map(({ certificate: c, signOff, signerName, stripLabel }) => ({
         number: c.number,
         kind: c.kind,
         stripId: c.stripId,
@@ -122,15 +122,15 @@ export function certificatesService(deps: AppDeps) {
       if (c.status === 'revoked') throw conflict('already-revoked', 'This certificate is already revoked.');
       const at = new Date().toISOString();
       deps.db.transaction((tx) => {
-        signOffRepository(tx).revoke(c.id, { at, reason, by: user.id });
+        certificatesRepository(tx).revoke(c.id, { at, reason, by: user.id });
         recordAudit(tx, user, 'certificate.revoked', 'certificate', c.id, { number: c.number, reason, previousStatus: c.status });
       });
-      return publicView(repo.certificateByNumber(c.number)!);
+      return publicView(repo.byNumber(c.number)!);
     },
 
     verify(number: string) {
       const n = normaliseCertificateNumber(number);
-      const c = isCertificateNumber(n) ? repo.certificateByNumber(n) : undefined;
+      const c = isCertificateNumber(n) ? repo.byNumber(n) : undefined;
       if (!c) throw notFound('A certificate with that number');
       return publicView(c);
     },
@@ -138,7 +138,7 @@ export function certificatesService(deps: AppDeps) {
     /** Byte for byte: the SHA-256 of the upload against the hashes of the issued files. */
     verifyFile(data: Buffer) {
       const sha256 = sha256Hex(data);
-      const found = repo.certificatesBySha(sha256);
+      const found = repo.bySha(sha256);
       if (found.length === 0) return { match: false as const, sha256 };
       return { match: true as const, sha256, certificate: publicView(found[0]) };
     },

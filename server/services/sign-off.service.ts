@@ -8,6 +8,7 @@ import { verifyPassword } from '../auth/password';
 import { accessService } from './access.service';
 import { venuesRepository } from '../db/venues.repository';
 import { signOffRepository } from '../db/sign-off.repository';
+import { certificatesRepository } from '../db/certificates.repository';
 import { recordAudit } from '../db/audit.repository';
 import { AppError, conflict, unprocessable } from '../lib/app-error';
 import { newId } from '../lib/ids';
@@ -227,7 +228,7 @@ export function signOffService(deps: AppDeps) {
       const fresh = (kind: 'venue' | 'strip', taken: Set<string>) => {
         for (;;) {
           const n = newCertificateNumber(kind, year);
-          if (!taken.has(n) && !repo.numberTaken(n)) {
+          if (!taken.has(n) && !certificatesRepository(deps.db).numberTaken(n)) {
             taken.add(n);
             return n;
           }
@@ -346,7 +347,7 @@ export function signOffService(deps: AppDeps) {
             readingsDigest: digest,
           });
           for (const c of issued) {
-            txRepo.insertCertificate({
+            certificatesRepository(tx).insert({
               id: newId(),
               number: c.payload.number,
               signOffId,

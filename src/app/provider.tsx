@@ -7,7 +7,7 @@ import { meQueryOptions } from '@/features/auth/api/get-me';
 import { OFFLINE_MAX_AGE_MS, PERSISTED_KEY_PREFIXES, shouldPersistQuery } from '@/features/offline/utils/persist-filter';
 import { queryPersister } from '@/features/offline/utils/query-persister';
 import { setOutboxHandlers, startOutbox } from '@/features/offline/stores/outbox';
-import { readingsRecorded, showRecordedReading } from '@/features/testing/api/create-reading';
+import { readingsRecorded, showRecordedReading } from '@/features/testing/api/show-recorded-reading';
 
 // A 401 anywhere means the session ended: forget who we were, and the guard sends us to sign-in.
 setUnauthenticatedHandler(() => queryClient.setQueryData(meQueryOptions().queryKey, null));

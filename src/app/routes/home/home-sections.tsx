@@ -3,7 +3,7 @@ import { Link } from 'react-router';
 import type { Role } from '@shared/schemas/common';
 import { Card } from '@/components/ui/card';
 import { paths } from '@/config/paths';
-import { VenueList } from '@/features/venue-status/components/venue-list';
+import { VenueList } from '@/features/board/components/venue-list';
 import { CertificatesLink } from '@/features/certificates/components/certificates-link';
 
 const ADMIN_CARDS = [

@@ -1,9 +1,9 @@
 import { Link, useParams } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
-import { BOARD_REFRESH_MS, useBoard } from '@/features/venue-status/api/get-board';
-import { StripFilters, StripGrid, useStripFilters } from '@/features/venue-status/components/strip-grid';
-import { OpenFaultsList } from '@/features/venue-status/components/open-faults';
-import { STRIP_STATUSES, stripStatusLook, VENUE_STATUS_LABELS } from '@/features/venue-status/utils/strip-status';
+import { BOARD_REFRESH_MS, useBoard } from '@/features/board/api/get-board';
+import { StripFilters, StripGrid, useStripFilters } from '@/features/board/components/strip-grid';
+import { OpenFaultsList } from '@/features/board/components/open-faults';
+import { STRIP_STATUSES, stripStatusLook, VENUE_STATUS_LABELS } from '@/features/board/utils/strip-status';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { MarkIcon, ProgressBar } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';

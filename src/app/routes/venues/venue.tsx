@@ -1,11 +1,11 @@
 import { Link, useNavigate, useParams } from 'react-router';
 import { useMe } from '@/features/auth/api/get-me';
-import { useBoard } from '@/features/venue-status/api/get-board';
+import { useBoard } from '@/features/board/api/get-board';
 import { usePrefetchStrips } from '@/features/testing/api/get-strip';
-import { StripFilters, StripGrid, useStripFilters } from '@/features/venue-status/components/strip-grid';
-import { StripPicker } from '@/features/venue-status/components/strip-picker';
-import { OpenFaultsList } from '@/features/venue-status/components/open-faults';
-import { VENUE_STATUS_LABELS } from '@/features/venue-status/utils/strip-status';
+import { StripFilters, StripGrid, useStripFilters } from '@/features/board/components/strip-grid';
+import { StripPicker } from '@/features/board/components/strip-picker';
+import { OpenFaultsList } from '@/features/board/components/open-faults';
+import { VENUE_STATUS_LABELS } from '@/features/board/utils/strip-status';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';

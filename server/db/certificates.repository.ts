@@ -1,0 +1,34 @@
+// Issued certificates: written by the sign-off, listed, looked up by number or by file hash, revoked.
+import { asc, desc, eq } from 'drizzle-orm';
+import type { Db, Tx } from './client';
+import { certificates, signOffs, strips, users } from './schema';
+
+export type CertificateRow = typeof certificates.$inferSelect;
+
+export function certificatesRepository(db: Db | Tx) {
+  return {
+    insert: (row: typeof certificates.$inferInsert) => db.insert(certificates).values(row).run(),
+    numberTaken: (number: string) => !!db.select({ id: certificates.id }).from(certificates).where(eq(certificates.number, number)).get(),
+
+    ofVenue: (venueId: string) =>
+      db
+        .select({ certificate: certificates, signOff: signOffs, signerName: users.name, stripLabel: strips.label })
+        .from(certificates)
+        .innerJoin(signOffs, eq(certificates.signOffId, signOffs.id))
+        .innerJoin(users, eq(signOffs.signedBy, users.id))
+        .leftJoin(strips, eq(certificates.stripId, strips.id))
+        .where(eq(certificates.venueId, venueId))
+        .orderBy(desc(certificates.issuedAt), asc(certificates.kind), asc(strips.sortOrder))
+        .all(),
+    byNumber: (number: string) =>
+      db.select().from(certificates).where(eq(certificates.number, number)).get(),
+    bySha: (sha256: string) =>
+      db.select().from(certificates).where(eq(certificates.pdfSha256, sha256)).all(),
+    revoke: (id: string, v: { at: string; reason: string; by: string }) =>
+      db
+        .update(certificates)
+        .set({ status: 'revoked', revokedAt: v.at, revokedReason: v.reason, revokedBy: v.by })
+        .where(eq(certificates.id, id))
+        .run(),
+  };
+}
