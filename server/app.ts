@@ -5,7 +5,9 @@ import { existsSync } from 'node:fs';
 import { basename, dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppDeps } from './deps';
-import { ApiRouter, type RouteSpec } from './http/api-router';
+import { apiRouter, type ApiRouter, type RouteSpec } from './http/api-router';
+import { healthContracts } from '../shared/contracts/health';
+import { fullPath } from '../shared/contracts/contract';
 import { authenticate, sessionCookie } from './auth/authenticate';
 import { csrfGuard } from './middleware/csrf';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
@@ -69,15 +71,16 @@ export function createApp(deps: AppDeps) {
   const auth = authService(deps);
   const cookie = sessionCookie(deps.env.APP_ORIGIN);
 
-  const health = new ApiRouter();
-  health.get('/health', 'public', (_req, res) => {
-    let db = 'ok';
+  const health = apiRouter(deps);
+  health.route(healthContracts.get, ({ res }) => {
+    let db: 'ok' | 'error' = 'ok';
     try {
       deps.sqlite.prepare('select 1').get();
     } catch {
       db = 'error';
     }
-    res.status(db === 'ok' ? 200 : 503).json({ status: db === 'ok' ? 'ok' : 'degraded', db, version: deps.version });
+    res.status(db === 'ok' ? 200 : 503);
+    return { status: db === 'ok' ? ('ok' as const) : ('degraded' as const), db, version: deps.version };
   });
 
   // Express tries routers in this order: readings come first because a venue's morning is
@@ -142,8 +145,7 @@ export function createApp(deps: AppDeps) {
   app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
 
   const routes: RouteSpec[] = [
-    ...routers.flatMap((r) => r.routes.map((s) => ({ ...s, path: `/api${s.path}` }))),
-    ...wellKnown.routes,
+    ...[...routers, wellKnown].flatMap((r) => r.routes.map((s) => ({ ...s, path: fullPath(s.contract) }))),
   ];
   return Object.assign(app, { routes });
 }

@@ -20,11 +20,15 @@ const envSchema = z
     SIGNING_KEY_PATH: z.string().optional(),
     SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
     LOG_REQUESTS: z.enum(['on', 'off']).default('on'),
+    // Every API answer checked against its contract (shared/contracts): on in tests, npm run dev and
+    // the end-to-end run; off by default, so a venue's server does no extra work per request.
+    CHECK_RESPONSES: z.enum(['on', 'off']).optional(),
   })
   .transform((e) => ({
     ...e,
     APP_ORIGIN: (e.APP_ORIGIN ?? `http://localhost:${e.PORT}`).replace(/\/$/, ''),
     DATA_DIR: e.DATA_DIR ?? dirnameOf(e.DATABASE_PATH),
+    CHECK_RESPONSES: e.CHECK_RESPONSES ?? (e.NODE_ENV === 'test' ? ('on' as const) : ('off' as const)),
   }));
 
 function dirnameOf(path: string): string {

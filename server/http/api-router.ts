@@ -1,16 +1,30 @@
-import express, { type RequestHandler } from 'express';
-import type { Role } from '../auth/types';
-import { forbidden, unauthorized } from '../lib/app-error';
+import express, { type Request, type RequestHandler, type Response } from 'express';
+import type { ZodType } from 'zod';
+import type { AuthUser } from '../auth/types';
+import { AppError, forbidden, unauthorized } from '../lib/app-error';
+import {
+  fullPath,
+  type Access,
+  type AnswerIn,
+  type BodyOut,
+  type Contract,
+  type MultipartBody,
+  type ParamsOut,
+  type QueryOut,
+  type TextBody,
+} from '../../shared/contracts/contract';
 
-// Every route declares who may call it. There is no way to add a route without an access policy,
-// and the list of declared routes is kept so tests can enumerate them (deny by default).
-export type Access = 'public' | 'signed-in' | readonly Role[];
-type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+export type { Access };
+export { STAFF } from '../../shared/contracts/contract';
 
+// Every route is registered from its contract (shared/contracts): there is no way to add a route
+// without an access policy, and the list of declared routes is kept so tests can enumerate them
+// (deny by default) and check that every contract has its route.
 export interface RouteSpec {
-  method: Uppercase<Method>;
+  method: Contract['method'];
   path: string;
   access: Access;
+  contract: Contract;
 }
 
 export function requireAccess(access: Access): RequestHandler {
@@ -22,20 +36,116 @@ export function requireAccess(access: Access): RequestHandler {
   };
 }
 
+/** What a handler gets: the caller, and params, query and body parsed by the contract's schemas. */
+export interface RouteInput<C extends Contract> {
+  user: C['access'] extends 'public' ? AuthUser | undefined : AuthUser;
+  params: ParamsOut<C>;
+  query: QueryOut<C>;
+  body: BodyOut<C>;
+  req: Request;
+  /** For headers (ETag, Location) and, among the declared ones, another success status. */
+  res: Response;
+}
+export type Handler<C extends Contract> = (input: RouteInput<C>) => AnswerIn<C> | Promise<AnswerIn<C>>;
+
+export interface RouteOptions {
+  /** Run after params and query are parsed, before the body is: a rate limit, an access check, an upload. */
+  before?: RequestHandler[];
+}
+
+export interface RouterOptions {
+  /** Check every answer against its schema (tests and development): a mismatch is a 500 and a log line. */
+  checkAnswers: boolean;
+  /** Where a mismatch goes once a file has already started to be sent (it cannot become a 500 then). */
+  log: (msg: string, err: unknown) => void;
+}
+
+/** A JSON body absent from the request is parsed as {} so the schema names the missing fields. */
+function parseBody(c: Contract, req: Request): unknown {
+  const spec = c.body;
+  if (spec === undefined) return undefined;
+  if (isMultipart(spec)) return spec.fields ? spec.fields.parse(req.body ?? {}) : undefined;
+  if (isText(spec)) {
+    if (typeof req.body !== 'string') {
+      throw new AppError(415, 'unsupported-type', `Send ${spec.what} as the request body with Content-Type ${spec.contentTypes.join(', ')}.`);
+    }
+    return req.body;
+  }
+  return spec.parse(req.body === undefined ? {} : req.body);
+}
+
+const isMultipart = (b: Contract['body']): b is MultipartBody => typeof b === 'object' && b !== null && 'kind' in b && b.kind === 'multipart';
+const isText = (b: Contract['body']): b is TextBody => typeof b === 'object' && b !== null && 'kind' in b && b.kind === 'text';
+
+/** Params and query replaced by their parsed values; a ZodError is answered 422 by the error handler. */
+function parseUrl(c: Contract): RequestHandler {
+  return (req, _res, next) => {
+    if (c.params) (req as { params: unknown }).params = c.params.parse(req.params);
+    // Express 5 makes req.query a getter: the parsed value is put in its place.
+    if (c.query) Object.defineProperty(req, 'query', { value: c.query.parse(req.query), writable: true });
+    next();
+  };
+}
+
+function answerMismatch(c: Contract, detail: string): Error {
+  return new Error(`The answer of ${c.method} ${fullPath(c)} does not match its contract: ${detail}`);
+}
+
+function checkAnswer(c: Contract, res: Response, body: unknown, log: RouterOptions['log']) {
+  const a = c.answer;
+  if (a.kind === 'json') {
+    if (!a.status.includes(res.statusCode)) throw answerMismatch(c, `status ${res.statusCode}, declared ${a.status.join(', ')}`);
+    const result = (a.schema as ZodType).safeParse(body);
+    if (!result.success) {
+      throw answerMismatch(c, result.error.issues.map((i) => `${i.path.join('.') || '(answer)'}: ${i.message}`).join('; '));
+    }
+  } else if (a.kind === 'file') {
+    const type = String(res.get('Content-Type') ?? '');
+    if (a.contentTypes.some((t) => type.startsWith(t))) return;
+    const err = answerMismatch(c, `Content-Type ${type || 'none'}, declared ${a.contentTypes.join(', ')}`);
+    if (!res.headersSent) throw err;
+    log('answer mismatch', err);
+  }
+}
+
+/** The router of one area, checking answers when CHECK_RESPONSES is on (tests, npm run dev, e2e). */
+export const apiRouter = (deps: { env: { CHECK_RESPONSES: 'on' | 'off' }; log: { error(msg: string, err?: unknown): void } }) =>
+  new ApiRouter({ checkAnswers: deps.env.CHECK_RESPONSES === 'on', log: (msg, err) => deps.log.error(msg, err) });
+
 export class ApiRouter {
   readonly router = express.Router();
   readonly routes: RouteSpec[] = [];
+  constructor(private readonly opts: RouterOptions) {}
 
-  private add(method: Method, path: string, access: Access, handlers: RequestHandler[]) {
-    this.routes.push({ method: method.toUpperCase() as Uppercase<Method>, path, access });
-    this.router[method](path, requireAccess(access), ...handlers);
+  route<const C extends Contract>(c: C, handler: Handler<C>, opts: RouteOptions = {}): this {
+    const chain: RequestHandler[] = [requireAccess(c.access)];
+    if (c.params || c.query) chain.push(parseUrl(c));
+    chain.push(...(opts.before ?? []));
+    if (c.body && isText(c.body)) chain.push(express.text({ type: [...c.body.contentTypes], limit: c.body.maxBytes }));
+    chain.push(this.finish(c, handler as Handler<Contract>));
+    this.routes.push({ method: c.method, path: c.path, access: c.access, contract: c });
+    this.router[c.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](c.path, ...chain);
     return this;
   }
-  get = (path: string, access: Access, ...h: RequestHandler[]) => this.add('get', path, access, h);
-  post = (path: string, access: Access, ...h: RequestHandler[]) => this.add('post', path, access, h);
-  put = (path: string, access: Access, ...h: RequestHandler[]) => this.add('put', path, access, h);
-  patch = (path: string, access: Access, ...h: RequestHandler[]) => this.add('patch', path, access, h);
-  delete = (path: string, access: Access, ...h: RequestHandler[]) => this.add('delete', path, access, h);
-}
 
-export const STAFF: readonly Role[] = ['admin', 'organiser', 'director', 'technician'];
+  /** Parses the body, calls the handler and sends its answer (a file route has sent its own). */
+  private finish(c: Contract, handler: Handler<Contract>): RequestHandler {
+    const check = this.opts.checkAnswers && !c.hot;
+    const log = this.opts.log;
+    const a = c.answer;
+    const send = (res: Response, body: unknown) => {
+      if (check) checkAnswer(c, res, body, log);
+      if (a.kind === 'json') res.json(body);
+      else if (a.kind === 'empty') res.status(204).end();
+    };
+    return (req, res) => {
+      const body = parseBody(c, req);
+      if (a.kind === 'json') res.status(a.status[0]);
+      const input = { user: req.user, params: req.params, query: req.query, body, req, res } as unknown as RouteInput<Contract>;
+      const out = handler(input);
+      // Only a handler that is async waits: the others answer in the same turn, as before contracts.
+      if (out instanceof Promise) return out.then((value) => send(res, value));
+      send(res, out);
+    };
+  }
+}

@@ -1,19 +1,12 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter } from '../http/api-router';
-import { validate } from '../middleware/validate';
-import { idParams } from '../../shared/schemas/params';
-import { auditQuerySchema } from '../../shared/schemas/audit';
+import { apiRouter } from '../http/api-router';
+import { auditContracts as c } from '../../shared/contracts/audit';
 import { auditService } from '../services/audit.service';
 
 export function auditRoutes(deps: AppDeps) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const audit = auditService(deps);
-
-  api.get('/audit', ['admin', 'director'], validate(auditQuerySchema, 'query'), (req, res) => {
-    res.json(audit.list(req.user!, req.query as { entityType?: string; entityId?: string }));
-  });
-  api.get('/venues/:id/audit', ['admin', 'director', 'organiser'], validate(idParams, 'params'), (req, res) => {
-    res.json(audit.ofVenue(req.user!, String(req.params.id)));
-  });
+  api.route(c.list, ({ user, query }) => audit.list(user, query));
+  api.route(c.ofVenue, ({ user, params }) => audit.ofVenue(user, params.id));
   return api;
 }

@@ -1,40 +1,33 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter, STAFF } from '../http/api-router';
-import { validate } from '../middleware/validate';
+import { apiRouter } from '../http/api-router';
 import { ifMatchOf, setVersionTag } from '../http/etag';
-import { idParams } from '../../shared/schemas/params';
-import { calibrationSchema, createEquipmentSchema, equipmentQuerySchema, updateEquipmentSchema } from '../../shared/schemas/equipment';
+import { equipmentContracts as c } from '../../shared/contracts/equipment';
 import { equipmentService } from '../services/equipment.service';
 
-const MANAGE = ['admin', 'director'] as const;
-
+// Technicians and organisers read the register; admins and directors keep it.
 export function equipmentRoutes(deps: AppDeps) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const equipment = equipmentService(deps);
-
-  // Technicians and organisers read the register; admins and directors keep it.
-  api.get('/equipment', STAFF, validate(equipmentQuerySchema, 'query'), (req, res) => {
-    res.json(equipment.list(req.user!, req.query as never));
-  });
-  api.post('/equipment', MANAGE, validate(createEquipmentSchema), (req, res) => {
-    const item = equipment.create(req.user!, req.body);
+  api.route(c.list, ({ user, query }) => equipment.list(user, query));
+  api.route(c.create, ({ user, body, res }) => {
+    const item = equipment.create(user, body);
     setVersionTag(res, item.version);
-    res.status(201).json(item);
+    return item;
   });
-  api.get('/equipment/:id', STAFF, validate(idParams, 'params'), (req, res) => {
-    const detail = equipment.detail(req.user!, String(req.params.id));
+  api.route(c.get, ({ user, params, res }) => {
+    const detail = equipment.detail(user, params.id);
     setVersionTag(res, detail.item.version);
-    res.json(detail);
+    return detail;
   });
-  api.patch('/equipment/:id', MANAGE, validate(idParams, 'params'), validate(updateEquipmentSchema), (req, res) => {
-    const item = equipment.update(req.user!, String(req.params.id), ifMatchOf(req), req.body);
+  api.route(c.update, ({ user, params, body, req, res }) => {
+    const item = equipment.update(user, params.id, ifMatchOf(req), body);
     setVersionTag(res, item.version);
-    res.json(item);
+    return item;
   });
-  api.post('/equipment/:id/calibrations', MANAGE, validate(idParams, 'params'), validate(calibrationSchema), (req, res) => {
-    const result = equipment.calibrate(req.user!, String(req.params.id), req.body);
+  api.route(c.calibrate, ({ user, params, body, res }) => {
+    const result = equipment.calibrate(user, params.id, body);
     setVersionTag(res, result.item.version);
-    res.status(201).json(result);
+    return result;
   });
   return api;
 }

@@ -1,39 +1,36 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter, STAFF } from '../http/api-router';
-import { validate } from '../middleware/validate';
-import { idParams } from '../../shared/schemas/params';
-import { createFaultSchema, createRepairSchema, updateFaultSchema } from '../../shared/schemas/faults';
+import { apiRouter } from '../http/api-router';
+import { faultsContracts as c } from '../../shared/contracts/faults';
 import { faultEtag, faultsService } from '../services/faults.service';
-import { TESTERS } from './readings.routes';
 
 export function faultsRoutes(deps: AppDeps) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const faults = faultsService(deps);
-
-  api.get('/venues/:id/faults', STAFF, validate(idParams, 'params'), (req, res) => {
-    res.json(faults.list(req.user!, String(req.params.id)));
+  api.route(c.ofVenue, ({ user, params }) => faults.list(user, params.id));
+  api.route(c.get, ({ user, params, res }) => {
+    const fault = faults.detail(user, params.id);
+    res.set('ETag', faultEtag(fault.version));
+    return fault;
   });
-  api.get('/faults/:id', STAFF, validate(idParams, 'params'), (req, res) => {
-    const fault = faults.detail(req.user!, String(req.params.id));
-    res.set('ETag', faultEtag(fault.version)).json(fault);
+  api.route(c.create, ({ user, body, res }) => {
+    const fault = faults.create(user, body);
+    res.set('ETag', faultEtag(fault.version)).location(`/api/faults/${fault.id}`);
+    return fault;
   });
-  api.post('/faults', TESTERS, validate(createFaultSchema), (req, res) => {
-    const fault = faults.create(req.user!, req.body);
-    res.status(201).set('ETag', faultEtag(fault.version)).location(`/api/faults/${fault.id}`).json(fault);
+  api.route(c.update, ({ user, params, body, req, res }) => {
+    const fault = faults.update(user, params.id, req.get('If-Match'), body);
+    res.set('ETag', faultEtag(fault.version));
+    return fault;
   });
-  api.patch('/faults/:id', TESTERS, validate(idParams, 'params'), validate(updateFaultSchema), (req, res) => {
-    const fault = faults.update(req.user!, String(req.params.id), req.get('If-Match'), req.body);
-    res.set('ETag', faultEtag(fault.version)).json(fault);
+  api.route(c.addEstimate, ({ user, params, body, res }) => {
+    const out = faults.addEstimate(user, params.id, body);
+    res.set('ETag', faultEtag(out.fault.version));
+    return out;
   });
-  // The body is one fault-location request (see shared/schemas/fault-location.ts) plus fromEnd;
-  // the service validates it, filling the item's length when it is left out.
-  api.post('/faults/:id/estimates', TESTERS, validate(idParams, 'params'), (req, res) => {
-    const out = faults.addEstimate(req.user!, String(req.params.id), req.body);
-    res.status(201).set('ETag', faultEtag(out.fault.version)).json(out);
-  });
-  api.post('/faults/:id/repairs', TESTERS, validate(idParams, 'params'), validate(createRepairSchema), (req, res) => {
-    const out = faults.addRepair(req.user!, String(req.params.id), req.body);
-    res.status(201).set('ETag', faultEtag(out.fault.version)).json(out);
+  api.route(c.addRepair, ({ user, params, body, res }) => {
+    const out = faults.addRepair(user, params.id, body);
+    res.set('ETag', faultEtag(out.fault.version));
+    return out;
   });
   return api;
 }

@@ -1,18 +1,14 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter, STAFF } from '../http/api-router';
-import { validate } from '../middleware/validate';
-import { idParams } from '../../shared/schemas/params';
+import { apiRouter } from '../http/api-router';
+import { readingsTableContracts as c } from '../../shared/contracts/readings-table';
 import { readingsTableService } from '../services/readings-table.service';
 
 export function readingsTableRoutes(deps: AppDeps) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const table = readingsTableService(deps);
-
-  api.get('/venues/:id/readings', STAFF, validate(idParams, 'params'), (req, res) => {
-    res.json(table.list(req.user!, String(req.params.id)));
-  });
-  api.get('/venues/:id/readings.csv', STAFF, validate(idParams, 'params'), (req, res) => {
-    const { fileName, body } = table.csv(req.user!, String(req.params.id));
+  api.route(c.list, ({ user, params }) => table.list(user, params.id));
+  api.route(c.csv, ({ user, params, res }) => {
+    const { fileName, body } = table.csv(user, params.id);
     res.set('Content-Type', 'text/csv; charset=utf-8');
     res.set('Content-Disposition', `attachment; filename="${fileName}"`);
     res.send(body);

@@ -1,14 +1,11 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter, STAFF } from '../http/api-router';
-import { validate } from '../middleware/validate';
-import { idParams } from '../../shared/schemas/params';
+import { apiRouter } from '../http/api-router';
+import { stripsContracts as c } from '../../shared/contracts/strips';
 import { stripsService } from '../services/strips.service';
 
 export function stripsRoutes(deps: AppDeps) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const strips = stripsService(deps);
-  api.get('/strips/:id', STAFF, validate(idParams, 'params'), (req, res) => {
-    res.json(strips.get(req.user!, String(req.params.id)));
-  });
+  api.route(c.get, ({ user, params }) => strips.get(user, params.id));
   return api;
 }

@@ -1,35 +1,18 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter } from '../http/api-router';
-import { validate } from '../middleware/validate';
+import { apiRouter } from '../http/api-router';
 import type { AuthService } from '../services/auth.service';
-import { inviteUserSchema, updateUserSchema } from '../../shared/schemas/auth';
-import { idParams } from '../../shared/schemas/params';
 import { mailService } from '../services/mail.service';
+import { usersContracts as c } from '../../shared/contracts/users';
+import { mailContracts as m } from '../../shared/contracts/mail';
 
 export function usersRoutes(deps: AppDeps, auth: AuthService) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const mail = mailService(deps);
-
-  api.get('/users', ['admin'], (req, res) => {
-    res.json(auth.listUsers(req.user!.orgId));
-  });
-  api.post('/users', ['admin'], validate(inviteUserSchema), async (req, res) => {
-    res.status(201).json(await auth.invite(req.user!, req.body));
-  });
-  api.patch('/users/:id', ['admin'], validate(idParams, 'params'), validate(updateUserSchema), (req, res) => {
-    res.json(auth.updateUser(req.user!, String(req.params.id), req.body));
-  });
-  api.post('/users/:id/end-sessions', ['admin'], validate(idParams, 'params'), (req, res) => {
-    auth.endSessions(req.user!, String(req.params.id));
-    res.status(204).end();
-  });
-
-  api.get('/mail', ['admin'], (_req, res) => {
-    res.json(mail.list());
-  });
-  api.get('/mail/:id', ['admin'], (req, res) => {
-    res.json(mail.get(Number(req.params.id)));
-  });
-
+  api.route(c.list, ({ user }) => auth.listUsers(user.orgId));
+  api.route(c.invite, ({ user, body }) => auth.invite(user, body));
+  api.route(c.update, ({ user, params, body }) => auth.updateUser(user, params.id, body));
+  api.route(c.endSessions, ({ user, params }) => auth.endSessions(user, params.id));
+  api.route(m.list, () => mail.list());
+  api.route(m.get, ({ params }) => mail.get(Number(params.id)));
   return api;
 }

@@ -1,18 +1,12 @@
 import type { AppDeps } from '../deps';
-import { ApiRouter, STAFF } from '../http/api-router';
-import { validate } from '../middleware/validate';
-import { idParams } from '../../shared/schemas/params';
+import { apiRouter } from '../http/api-router';
+import { venuesContracts as c } from '../../shared/contracts/venues';
 import { venuesService } from '../services/venues.service';
 
 export function venuesRoutes(deps: AppDeps) {
-  const api = new ApiRouter();
+  const api = apiRouter(deps);
   const venues = venuesService(deps);
-
-  api.get('/venues', STAFF, (req, res) => {
-    res.json(venues.list(req.user!));
-  });
-  api.get('/venues/:id/strips', STAFF, validate(idParams, 'params'), (req, res) => {
-    res.json(venues.strips(req.user!, String(req.params.id)));
-  });
+  api.route(c.list, ({ user }) => venues.list(user));
+  api.route(c.strips, ({ user, params }) => venues.strips(user, params.id));
   return api;
 }

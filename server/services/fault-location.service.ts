@@ -2,7 +2,8 @@ import { FaultLocationError, runFaultLocation, type FaultLocationAnswer } from '
 import { decimateMinMax, PLOT_MAX_POINTS } from '../../shared/domain/decimate';
 import { analyseWaveform, parseTraceCsv, WaveformError, type WaveformAnalysis } from '../../shared/domain/waveform';
 import type { FaultLocationRequest } from '../../shared/schemas/fault-location';
-import type { WaveformAnswer, WaveformQuery } from '../../shared/schemas/waveforms';
+import type { WaveformQuery } from '../../shared/schemas/waveforms';
+import type { WaveformAnswer } from '../../shared/contracts/fault-location';
 import type { AuthUser } from '../auth/types';
 import { unprocessable } from '../lib/app-error';
 

@@ -138,10 +138,13 @@ export function currentSigningKey(db: Db, env: Pick<Env, 'SIGNING_KEY_PATH' | 'D
 }
 
 /** The published JWK Set: every key that ever signed, with what it is for. */
+/** An Ed25519 public key as stored (RFC 8037: kty OKP, crv Ed25519, x). */
+type StoredPublicJwk = JWK & { kty: string; crv: string; x: string };
+
 export function publicJwks(db: Db) {
   return {
     keys: signingKeysRepository(db)
       .all()
-      .map((k) => ({ ...(JSON.parse(k.publicJwkJson) as JWK), kid: k.kid, alg: 'EdDSA', use: 'sig' })),
+      .map((k) => ({ ...(JSON.parse(k.publicJwkJson) as StoredPublicJwk), kid: k.kid, alg: 'EdDSA' as const, use: 'sig' as const })),
   };
 }

@@ -40,49 +40,55 @@ export function extensionOf(name: string): string {
 
 export const idempotencyKeyHeader = z.uuid({ error: 'Idempotency-Key must be a UUID.' });
 
-export interface AttachmentCreated {
-  id: string;
-  kind: AttachmentKind;
-  contentType: string;
-  size: number;
-  sha256: string;
-}
+export const attachmentCreatedSchema = z.strictObject({
+  id: z.string(),
+  kind: z.enum(ATTACHMENT_KINDS),
+  contentType: z.string(),
+  size: z.number().int(),
+  sha256: z.string(),
+});
+export type AttachmentCreated = z.infer<typeof attachmentCreatedSchema>;
 
-export interface AttachmentDto extends AttachmentCreated {
-  ownerType: AttachmentOwnerType;
-  ownerId: string;
-  originalName: string;
-  hasPreview: boolean;
-  createdAt: string;
-  createdBy: string;
-  createdByName: string | null;
-  url: string;
-  previewUrl: string | null;
-  analysisUrl: string | null;
-}
+export const attachmentDtoSchema = z.strictObject({
+  ...attachmentCreatedSchema.shape,
+  ownerType: z.enum(ATTACHMENT_OWNER_TYPES),
+  ownerId: z.string(),
+  originalName: z.string(),
+  hasPreview: z.boolean(),
+  createdAt: z.string(),
+  createdBy: z.string(),
+  createdByName: z.string().nullable(),
+  url: z.string(),
+  previewUrl: z.string().nullable(),
+  analysisUrl: z.string().nullable(),
+});
+export type AttachmentDto = z.infer<typeof attachmentDtoSchema>;
 
-export interface TraceAnalysisDto {
-  attachmentId: string;
-  originalName: string;
-  sampleCount: number;
-  skippedLines: number;
-  velocityFactor: number | null;
-  velocityFactorSource: string | null;
-  lengthM: number | null;
+export const traceAnalysisDtoSchema = z.strictObject({
+  attachmentId: z.string(),
+  originalName: z.string(),
+  sampleCount: z.number().int(),
+  skippedLines: z.number().int(),
+  velocityFactor: z.number().nullable(),
+  velocityFactorSource: z.string().nullable(),
+  lengthM: z.number().nullable(),
   /** Downsampled for the plot (min/max per bucket), seconds and volts. */
-  points: { timeS: number[]; volts: number[] };
+  points: z.strictObject({ timeS: z.array(z.number()), volts: z.array(z.number()) }),
   /** The automatic analysis, or null when the engine could not find the edges (see problem). */
-  analysis: {
-    incidentTimeS: number;
-    reflectionTimeS: number | null;
-    roundTripNs: number | null;
-    polarity: 'open' | 'short' | null;
-    reflectionCoefficient: number | null;
-    riseTimeNs: number;
-    sampleIntervalNs: number;
-    distanceM: number | null;
-    uncertaintyM: number | null;
-    message: string;
-  } | null;
-  problem: string | null;
-}
+  analysis: z
+    .strictObject({
+      incidentTimeS: z.number(),
+      reflectionTimeS: z.number().nullable(),
+      roundTripNs: z.number().nullable(),
+      polarity: z.enum(['open', 'short']).nullable(),
+      reflectionCoefficient: z.number().nullable(),
+      riseTimeNs: z.number(),
+      sampleIntervalNs: z.number(),
+      distanceM: z.number().nullable(),
+      uncertaintyM: z.number().nullable(),
+      message: z.string(),
+    })
+    .nullable(),
+  problem: z.string().nullable(),
+});
+export type TraceAnalysisDto = z.infer<typeof traceAnalysisDtoSchema>;

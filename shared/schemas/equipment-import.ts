@@ -71,35 +71,41 @@ export const importOptionsSchema = z.object({
 });
 export type ImportOptions = z.output<typeof importOptionsSchema>;
 
-export type ImportAction = 'create' | 'update' | 'unchanged' | 'skip' | 'error';
+export const IMPORT_ACTIONS = ['create', 'update', 'unchanged', 'skip', 'error'] as const;
+export type ImportAction = (typeof IMPORT_ACTIONS)[number];
 
-export interface ImportRowResult {
+const change = z.strictObject({ from: z.unknown(), to: z.unknown() });
+
+export const importRowResultSchema = z.strictObject({
   /** Line of the spreadsheet (1 = the header row's line when the header is on the first line). */
-  row: number;
-  assetTag: string | null;
-  action: ImportAction;
+  row: z.number().int(),
+  assetTag: z.string().nullable(),
+  action: z.enum(IMPORT_ACTIONS),
   /** The cells as read with the mapping (normalised: upper-case tag, metres, a known kind). */
-  values: Record<string, string | number | null>;
-  changes?: Record<string, { from: unknown; to: unknown }>;
-  errors: { field: ImportField | 'row'; message: string }[];
-  message: string;
-}
+  values: z.record(z.string(), z.union([z.string(), z.number(), z.null()])),
+  changes: z.record(z.string(), change).optional(),
+  errors: z.array(z.strictObject({ field: z.enum([...IMPORT_FIELDS, 'row']), message: z.string() })),
+  message: z.string(),
+});
+export type ImportRowResult = z.infer<typeof importRowResultSchema>;
 
-export interface ImportPreview {
-  fileName: string;
-  format: 'csv' | 'xlsx';
-  headerRow: number;
-  columns: { index: number; header: string; samples: string[] }[];
-  mapping: ImportMapping;
-  suggestedMapping: ImportMapping;
-  mode: ImportMode;
-  rows: ImportRowResult[];
-  summary: Record<ImportAction, number>;
-}
+export const importPreviewSchema = z.strictObject({
+  fileName: z.string(),
+  format: z.enum(['csv', 'xlsx']),
+  headerRow: z.number().int(),
+  columns: z.array(z.strictObject({ index: z.number().int(), header: z.string(), samples: z.array(z.string()) })),
+  mapping: importMappingSchema,
+  suggestedMapping: importMappingSchema,
+  mode: z.enum(IMPORT_MODES),
+  rows: z.array(importRowResultSchema),
+  summary: z.strictObject({ create: z.number().int(), update: z.number().int(), unchanged: z.number().int(), skip: z.number().int(), error: z.number().int() }),
+});
+export type ImportPreview = z.infer<typeof importPreviewSchema>;
 
-export interface ImportReport {
-  mode: ImportMode;
-  created: { row: number; assetTag: string; id: string }[];
-  updated: { row: number; assetTag: string; id: string; changes: Record<string, { from: unknown; to: unknown }> }[];
-  skipped: { row: number; assetTag: string | null; reason: string }[];
-}
+export const importReportSchema = z.strictObject({
+  mode: z.enum(IMPORT_MODES),
+  created: z.array(z.strictObject({ row: z.number().int(), assetTag: z.string(), id: z.string() })),
+  updated: z.array(z.strictObject({ row: z.number().int(), assetTag: z.string(), id: z.string(), changes: z.record(z.string(), change) })),
+  skipped: z.array(z.strictObject({ row: z.number().int(), assetTag: z.string().nullable(), reason: z.string() })),
+});
+export type ImportReport = z.infer<typeof importReportSchema>;

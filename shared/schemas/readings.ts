@@ -46,35 +46,37 @@ export const createReadingSchema = z
   });
 export type CreateReadingInput = z.infer<typeof createReadingSchema>;
 
-export type VerdictName = 'pass' | 'near-limit' | 'fail';
+export const VERDICTS = ['pass', 'near-limit', 'fail'] as const;
+export type VerdictName = (typeof VERDICTS)[number];
 
 /** A stored reading as the API answers it. */
-export interface ReadingDto {
-  id: string;
-  stepId: string;
-  equipmentId: string | null;
-  valueText: string;
-  valueOhm: number | null;
-  overRange: boolean;
-  leadOffsetOhm: number | null;
-  temperatureC: number | null;
-  verdict: VerdictName;
-  limitOhm: number | null;
-  limitKind: 'max' | 'min' | null;
-  source: string;
-  ruleId: string | null;
-  profileId: string;
-  profileVersion: number;
-  explanation: string;
-  supersedesId: string | null;
-  correctionReason: string | null;
+export const readingDtoSchema = z.strictObject({
+  id: z.string(),
+  stepId: z.string(),
+  equipmentId: z.string().nullable(),
+  valueText: z.string(),
+  valueOhm: z.number().nullable(),
+  overRange: z.boolean(),
+  leadOffsetOhm: z.number().nullable(),
+  temperatureC: z.number().nullable(),
+  verdict: z.enum(VERDICTS),
+  limitOhm: z.number().nullable(),
+  limitKind: z.enum(['max', 'min']).nullable(),
+  source: z.string(),
+  ruleId: z.string().nullable(),
+  profileId: z.string(),
+  profileVersion: z.number().int(),
+  explanation: z.string(),
+  supersedesId: z.string().nullable(),
+  correctionReason: z.string().nullable(),
   /** When it counts: the tablet's time when typed (within limits), else when it arrived. */
-  takenAt: string;
+  takenAt: z.string(),
   /** When the server received it; null on readings stored before this was kept. */
-  receivedAt: string | null;
-  takenBy: string;
-  takenByName: string | null;
-  faultId?: string | null;
+  receivedAt: z.string().nullable(),
+  takenBy: z.string(),
+  takenByName: z.string().nullable(),
+  faultId: z.string().nullable().optional(),
   /** Only in the answer to POST /api/readings: this reading re-opened a signed-off venue. */
-  venueReopened?: boolean;
-}
+  venueReopened: z.boolean().optional(),
+});
+export type ReadingDto = z.infer<typeof readingDtoSchema>;

@@ -1,8 +1,7 @@
-// Query of POST /api/waveforms/analyse (the body is the CSV trace itself).
+// Query of POST /api/waveforms/analyse (the body is the CSV trace itself; the answer is in
+// shared/contracts/fault-location.ts).
 
 import { z } from 'zod';
-import type { FaultLocationAnswer } from '../domain/fault-location';
-import type { WaveformAnalysis } from '../domain/waveform';
 
 function optionalNumber(field: string, what: string) {
   return z.coerce
@@ -26,12 +25,3 @@ export type WaveformQuery = z.infer<typeof waveformQuerySchema>;
 /** Largest CSV accepted: 2 million samples of a verbose export fit comfortably. */
 export const WAVEFORM_MAX_BYTES = 64 * 1024 * 1024;
 export const WAVEFORM_CONTENT_TYPES = ['text/csv', 'text/plain', 'application/octet-stream'] as const;
-
-/** The answer: the engine's analysis, the estimate without its echo of inputs, and a plot-sized trace. */
-export type WaveformAnswer = Omit<WaveformAnalysis, 'estimate'> & {
-  estimate: FaultLocationAnswer | null;
-  sampleCount: number;
-  skippedLines: number;
-  /** Min/max-decimated copy of the trace for plotting; the analysis used every sample. */
-  plot: { timeS: number[]; volts: number[] };
-};

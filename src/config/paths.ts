@@ -1,4 +1,7 @@
 // Every client route path in one place.
+import { fullPath } from '@shared/contracts/contract';
+import { equipmentImportContracts } from '@shared/contracts/equipment-import';
+
 export const paths = {
   home: '/',
   signIn: '/sign-in',
@@ -22,7 +25,7 @@ export const paths = {
   equipmentItem: (equipmentId = ':equipmentId') => `/equipment/${equipmentId}`,
   equipmentImport: '/equipment/import',
   /** A download from the API, not a client route. */
-  equipmentCsv: '/api/equipment.csv',
+  equipmentCsv: fullPath(equipmentImportContracts.csv),
   events: '/events',
   event: (eventId = ':eventId') => `/events/${eventId}`,
   venuePlan: (venueId = ':venueId') => `/venues/${venueId}/plan`,

@@ -1,4 +1,7 @@
-// One fetch wrapper: JSON in and out, problem+json turned into ApiError, cookies sent.
+// One fetch wrapper: JSON in and out, problem+json turned into ApiError, cookies sent. Fetchers are
+// built from the route's contract (shared/contracts): the path, the body and the answer's type.
+import type { AnswerOf, BodyIn, Contract, ParamsIn, QueryIn } from '@shared/contracts/contract';
+
 export interface FieldError {
   path: string;
   message: string;
@@ -17,7 +20,7 @@ export class ApiError extends Error {
   }
 }
 
-type Json = Record<string, unknown> | unknown[] | string | number | boolean | null;
+type Json = object | string | number | boolean | null;
 
 export interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
@@ -32,7 +35,22 @@ export function setUnauthenticatedHandler(fn: () => void) {
   onUnauthenticated = fn;
 }
 
-export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Promise<T> {
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** The ApiError for a refusal: the problem+json body's code, sentence and field errors when there is one. */
+export function problemError(status: number, data: unknown): ApiError {
+  const p = isRecord(data) ? data : {};
+  const errors = Array.isArray(p.errors) ? p.errors.filter((e): e is FieldError => isRecord(e) && typeof e.path === 'string' && typeof e.message === 'string') : [];
+  return new ApiError(
+    status,
+    typeof p.code === 'string' ? p.code : 'error',
+    typeof p.detail === 'string' ? p.detail : `The server answered ${status}.`,
+    errors,
+    p,
+  );
+}
+
+export async function apiRequest(path: string, opts: RequestOptions = {}): Promise<unknown> {
   const headers: Record<string, string> = { Accept: 'application/json', ...opts.headers };
   let body: BodyInit | undefined;
   if (opts.body instanceof FormData || opts.body instanceof Blob) body = opts.body;
@@ -50,25 +68,67 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
     credentials: 'same-origin',
     signal: opts.signal,
   });
-  if (res.status === 204) return undefined as T;
+  if (res.status === 204) return undefined;
   const isJson = (res.headers.get('content-type') ?? '').includes('json');
-  const data = isJson ? await res.json() : await res.text();
+  const data: unknown = isJson ? await res.json() : await res.text();
   if (!res.ok) {
-    const p = (isJson ? data : {}) as { code?: string; detail?: string; errors?: FieldError[] };
-    // Only a missing session signs the user out; a wrong re-entered password (sign-off) does not.
+    const error = problemError(res.status, isJson ? data : {});
     // Only a lost session signs the user out; other 401s (a wrong password re-entered at sign-off) do not.
-    if (res.status === 401 && p.code === 'unauthenticated' && !path.startsWith('/auth/')) onUnauthenticated?.();
-    throw new ApiError(res.status, p.code ?? 'error', p.detail ?? `The server answered ${res.status}.`, p.errors ?? [], p as Record<string, unknown>);
+    if (res.status === 401 && error.code === 'unauthenticated' && !path.startsWith('/auth/')) onUnauthenticated?.();
+    throw error;
   }
-  return data as T;
+  return data;
 }
 
-export const api = {
-  get: <T>(path: string, signal?: AbortSignal) => apiRequest<T>(path, { signal }),
-  post: <T>(path: string, body?: Json, headers?: Record<string, string>) =>
-    apiRequest<T>(path, { method: 'POST', body: body ?? {}, headers }),
-  put: <T>(path: string, body: Json, headers?: Record<string, string>) => apiRequest<T>(path, { method: 'PUT', body, headers }),
-  patch: <T>(path: string, body: Json, headers?: Record<string, string>) =>
-    apiRequest<T>(path, { method: 'PATCH', body, headers }),
-  delete: <T>(path: string, headers?: Record<string, string>) => apiRequest<T>(path, { method: 'DELETE', headers }),
-};
+// ---------- fetchers from contracts ----------
+
+/** Answers are parsed with the contract's schema in development and tests; the production build trusts the server. */
+const CHECK_ANSWERS = import.meta.env.DEV;
+
+/** The answer of a route, typed by its contract (and, in development and tests, parsed by its schema). */
+export function answerOf<C extends Contract>(c: C, data: unknown): AnswerOf<C> {
+  if (CHECK_ANSWERS && c.answer.kind === 'json') c.answer.schema.parse(data);
+  return data as AnswerOf<C>;
+}
+
+type Query = Record<string, string | number | boolean | null | undefined>;
+
+/** The path of a route under /api, params filled in (encoded) and the query's set values appended. */
+export function pathOf<C extends Contract>(c: C, params?: ParamsIn<C>, query?: QueryIn<C>): string {
+  const values: Record<string, unknown> = isRecord(params) ? params : {};
+  const path = c.path.replace(/:(\w+)/g, (_m, name: string) => {
+    if (values[name] === undefined || values[name] === null) throw new Error(`${c.method} ${c.path} needs the path parameter ${name}.`);
+    return encodeURIComponent(String(values[name]));
+  });
+  const set = Object.entries((query ?? {}) as Query).filter(
+    (e): e is [string, string | number | boolean] => e[1] !== undefined && e[1] !== null && e[1] !== '',
+  );
+  return set.length > 0 ? `${path}?${new URLSearchParams(set.map(([k, v]) => [k, String(v)]))}` : path;
+}
+
+/** The address of a route for a plain link (CSV, PDF, ZIP downloads): the browser sends the cookie. */
+export const urlOf = <C extends Contract>(c: C, params?: ParamsIn<C>, query?: QueryIn<C>) =>
+  c.mount === 'root' ? pathOf(c, params, query) : `/api${pathOf(c, params, query)}`;
+
+type NeedsParams<C extends Contract> = C['path'] extends `${string}:${string}` ? true : false;
+export type CallInput<C extends Contract> = (NeedsParams<C> extends true ? { params: ParamsIn<C> } : { params?: undefined }) &
+  (QueryIn<C> extends undefined ? { query?: undefined } : { query?: QueryIn<C> }) &
+  (BodyIn<C> extends undefined ? { body?: undefined } : { body: BodyIn<C> }) & {
+    headers?: Record<string, string>;
+    signal?: AbortSignal;
+  };
+type Args<C extends Contract> = NeedsParams<C> extends true ? [CallInput<C>] : BodyIn<C> extends undefined ? [CallInput<C>?] : [CallInput<C>];
+
+/** Calls the route of a contract. */
+export async function call<C extends Contract>(c: C, ...[input]: Args<C>): Promise<AnswerOf<C>> {
+  const { params, query, body, headers, signal } = (input ?? {}) as CallInput<Contract>;
+  const opts: RequestOptions = { method: c.method, headers, signal };
+  if (body !== undefined) {
+    opts.body = body as RequestOptions['body'];
+    if (typeof body === 'string' && typeof c.body === 'object' && 'kind' in c.body && c.body.kind === 'text') opts.contentType = c.body.contentTypes[0];
+  } else if (c.method !== 'GET' && c.method !== 'DELETE') {
+    // A write without a body of its own sends {} (JSON), as it always has.
+    opts.body = {};
+  }
+  return answerOf(c, await apiRequest(pathOf(c, params as ParamsIn<C>, query as QueryIn<C>), opts));
+}

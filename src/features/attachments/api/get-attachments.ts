@@ -1,12 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { AttachmentDto, AttachmentOwnerType } from '@shared/schemas/attachments';
+import { call } from '@/lib/api-client';
+import { attachmentsContracts } from '@shared/contracts/attachments';
+import type { AttachmentOwnerType } from '@shared/schemas/attachments';
 
-const segment: Record<AttachmentOwnerType, string> = { fault: 'faults', repair: 'repairs', equipment: 'equipment' };
-
-export const attachmentsPath = (ownerType: AttachmentOwnerType, ownerId: string) => `/${segment[ownerType]}/${ownerId}/attachments`;
-
-export const getAttachments = (ownerType: AttachmentOwnerType, ownerId: string) => api.get<AttachmentDto[]>(attachmentsPath(ownerType, ownerId));
+export const getAttachments = (ownerType: AttachmentOwnerType, ownerId: string) => call(attachmentsContracts[ownerType].list, { params: { id: ownerId } });
 
 export const attachmentsQueryOptions = (ownerType: AttachmentOwnerType, ownerId: string) =>
   queryOptions({ queryKey: ['attachments', ownerType, ownerId], queryFn: () => getAttachments(ownerType, ownerId) });

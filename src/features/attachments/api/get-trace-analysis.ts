@@ -1,8 +1,8 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { TraceAnalysisDto } from '@shared/schemas/attachments';
+import { call } from '@/lib/api-client';
+import { attachmentsContracts } from '@shared/contracts/attachments';
 
-export const getTraceAnalysis = (attachmentId: string) => api.get<TraceAnalysisDto>(`/attachments/${attachmentId}/analysis`);
+export const getTraceAnalysis = (attachmentId: string) => call(attachmentsContracts.analysis, { params: { id: attachmentId } });
 
 export const traceAnalysisQueryOptions = (attachmentId: string) =>
   queryOptions({ queryKey: ['attachments', 'analysis', attachmentId], queryFn: () => getTraceAnalysis(attachmentId), staleTime: Infinity });

@@ -1,5 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { faultsContracts } from '@shared/contracts/faults';
 
 export interface TraceEstimateBody {
   method: 'tdr';
@@ -11,7 +12,7 @@ export interface TraceEstimateBody {
 
 /** The estimate goes to the fault's estimates (POST /api/faults/:id/estimates), like any other method. */
 export const saveTraceEstimate = ({ faultId, body }: { faultId: string; body: TraceEstimateBody }) =>
-  api.post<unknown>(`/faults/${faultId}/estimates`, { ...body });
+  call(faultsContracts.addEstimate, { params: { id: faultId }, body });
 
 /** The fault's own query lives in the faults feature: the page passes `onSaved` to refresh it. */
 export const useSaveTraceEstimate = (faultId: string, onSaved?: () => void) =>

@@ -1,8 +1,9 @@
 import { useCallback, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
-import { ApiError, type FieldError } from '@/lib/api-client';
+import { answerOf, ApiError, problemError, urlOf } from '@/lib/api-client';
+import { attachmentsContracts } from '@shared/contracts/attachments';
 import { ATTACHMENT_EXTENSIONS, ATTACHMENT_MAX_BYTES, extensionOf, type AttachmentCreated, type AttachmentOwnerType } from '@shared/schemas/attachments';
-import { attachmentsPath, attachmentsQueryOptions } from './get-attachments';
+import { attachmentsQueryOptions } from './get-attachments';
 import { formatBytes, newIdempotencyKey } from '../utils/idempotency-key';
 
 export type UploadProgress = { loaded: number; total: number };
@@ -12,15 +13,17 @@ export type UploadProgress = { loaded: number; total: number };
  * the request, so a retry after a dropped connection gets the stored answer instead of a duplicate.
  */
 export function uploadAttachment(
-  path: string,
+  ownerType: AttachmentOwnerType,
+  ownerId: string,
   file: File,
   idempotencyKey: string,
   onProgress: (p: UploadProgress) => void,
   signal?: AbortSignal,
 ): Promise<{ status: number; body: AttachmentCreated }> {
+  const contract = attachmentsContracts[ownerType].upload;
   return new Promise((resolve, reject) => {
     const xhr = new XMLHttpRequest();
-    xhr.open('POST', `/api${path}`);
+    xhr.open(contract.method, urlOf(contract, { id: ownerId }));
     xhr.withCredentials = true;
     xhr.setRequestHeader('Accept', 'application/json');
     xhr.setRequestHeader('Idempotency-Key', idempotencyKey);
@@ -28,22 +31,18 @@ export function uploadAttachment(
     xhr.onerror = () => reject(new ApiError(0, 'network', 'The connection dropped during the upload. Try again: the same upload is recognised, not stored twice.'));
     xhr.onabort = () => reject(new ApiError(0, 'aborted', 'The upload was stopped.'));
     xhr.onload = () => {
-      let body: Record<string, unknown> = {};
+      let body: unknown = {};
       try {
-        body = JSON.parse(xhr.responseText) as Record<string, unknown>;
+        body = JSON.parse(xhr.responseText);
       } catch {
         /* not JSON: handled below */
       }
-      if (xhr.status >= 200 && xhr.status < 300) return resolve({ status: xhr.status, body: body as unknown as AttachmentCreated });
-      reject(
-        new ApiError(
-          xhr.status,
-          String(body.code ?? 'error'),
-          String(body.detail ?? `The server answered ${xhr.status}.`),
-          (body.errors as FieldError[] | undefined) ?? [],
-          body,
-        ),
-      );
+      if (xhr.status < 200 || xhr.status >= 300) return reject(problemError(xhr.status, body));
+      try {
+        resolve({ status: xhr.status, body: answerOf(contract, body) });
+      } catch (err) {
+        reject(err);
+      }
     };
     signal?.addEventListener('abort', () => xhr.abort());
     const form = new FormData();
@@ -69,7 +68,7 @@ export function useUploadAttachment(ownerType: AttachmentOwnerType, ownerId: str
       pending.current = { file, key };
       setState({ phase: 'sending', file, progress: { loaded: 0, total: file.size } });
       try {
-        const res = await uploadAttachment(attachmentsPath(ownerType, ownerId), file, key, (progress) =>
+        const res = await uploadAttachment(ownerType, ownerId, file, key, (progress) =>
           setState({ phase: 'sending', file, progress }),
         );
         pending.current = null;

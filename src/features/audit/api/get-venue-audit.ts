@@ -1,17 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { auditContracts, type AuditEntry } from '@shared/contracts/audit';
 
-export interface AuditEntry {
-  id: number;
-  at: string;
-  action: string;
-  entityType: string;
-  entityId: string;
-  actorId: string | null;
-  actorName: string | null;
-  detail: Record<string, unknown>;
-}
+export type { AuditEntry };
 
-export const getVenueAudit = (venueId: string) => api.get<AuditEntry[]>(`/venues/${venueId}/audit`);
+export const getVenueAudit = (venueId: string) => call(auditContracts.ofVenue, { params: { id: venueId } });
 export const venueAuditQueryOptions = (venueId: string) => queryOptions({ queryKey: ['venues', venueId, 'audit'], queryFn: () => getVenueAudit(venueId) });
 export const useVenueAudit = (venueId: string) => useQuery(venueAuditQueryOptions(venueId));

@@ -1,10 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, ApiError } from '@/lib/api-client';
+import { ApiError, call } from '@/lib/api-client';
+import { authContracts } from '@shared/contracts/auth';
 import type { PublicUser } from '@shared/schemas/auth';
 
 export const getMe = async (): Promise<PublicUser | null> => {
   try {
-    const res = await api.get<{ user: PublicUser }>('/auth/me');
+    const res = await call(authContracts.me);
     return res.user;
   } catch (err) {
     if (err instanceof ApiError && err.status === 401) return null;

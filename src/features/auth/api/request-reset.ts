@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { authContracts } from '@shared/contracts/auth';
 
-export const requestReset = (input: { email: string }) => api.post<{ detail: string }>('/auth/password-reset', input);
+export const requestReset = (input: { email: string }) => call(authContracts.requestReset, { body: input });
 
 export const useRequestReset = () => useMutation({ mutationFn: requestReset });

@@ -1,9 +1,10 @@
 import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { PublicUser, SetPasswordInput } from '@shared/schemas/auth';
+import { call } from '@/lib/api-client';
+import { authContracts } from '@shared/contracts/auth';
+import type { SetPasswordInput } from '@shared/schemas/auth';
 
 export const getLinkInfo = (token: string) =>
-  api.get<{ email: string; name: string; purpose: 'invite' | 'reset' }>(`/auth/set-password/${encodeURIComponent(token)}`);
+  call(authContracts.linkInfo, { params: { token } });
 
 export const linkInfoQueryOptions = (token: string) =>
   queryOptions({ queryKey: ['auth', 'link', token], queryFn: () => getLinkInfo(token), retry: false });
@@ -11,6 +12,6 @@ export const linkInfoQueryOptions = (token: string) =>
 export const useLinkInfo = (token: string) => useQuery(linkInfoQueryOptions(token));
 
 export const setPassword = ({ token, ...input }: SetPasswordInput & { token: string }) =>
-  api.post<{ user: PublicUser }>(`/auth/set-password/${encodeURIComponent(token)}`, input);
+  call(authContracts.setPassword, { params: { token }, body: input });
 
 export const useSetPassword = () => useMutation({ mutationFn: setPassword });

@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { PublicUser, SignInInput } from '@shared/schemas/auth';
+import { call } from '@/lib/api-client';
+import { authContracts } from '@shared/contracts/auth';
+import type { SignInInput } from '@shared/schemas/auth';
 import { meQueryOptions } from './get-me';
 
-export const signIn = (input: SignInInput) => api.post<{ user: PublicUser }>('/auth/sign-in', input);
+export const signIn = (input: SignInInput) => call(authContracts.signIn, { body: input });
 
 export const useSignIn = () => {
   const qc = useQueryClient();

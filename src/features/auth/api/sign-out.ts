@@ -1,8 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { authContracts } from '@shared/contracts/auth';
 import { meQueryOptions } from './get-me';
 
-export const signOut = () => api.post<void>('/auth/sign-out');
+export const signOut = () => call(authContracts.signOut);
 
 export const useSignOut = () => {
   const qc = useQueryClient();

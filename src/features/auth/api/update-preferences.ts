@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { PublicUser } from '@shared/schemas/auth';
+import { call } from '@/lib/api-client';
+import { authContracts } from '@shared/contracts/auth';
 import { meQueryOptions } from './get-me';
 
 export const updatePreferences = (input: { unitSystem: 'metric' | 'imperial' }) =>
-  api.put<{ user: PublicUser }>('/auth/preferences', input);
+  call(authContracts.preferences, { body: input });
 
 export const useUpdatePreferences = () => {
   const qc = useQueryClient();

@@ -1,35 +1,13 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api, ApiError } from '@/lib/api-client';
-import type { CertificateStatus } from './get-certificates';
+import { ApiError, call } from '@/lib/api-client';
+import { certificatesContracts, type Verification } from '@shared/contracts/certificates';
 
-export interface Verification {
-  status: CertificateStatus;
-  number: string;
-  kind: 'venue' | 'strip';
-  event: string;
-  eventDates: { startsOn: string; endsOn: string };
-  venue: string;
-  strips: string[];
-  organisation: string;
-  issuedAt: string;
-  signedBy: string;
-  signedAt: string;
-  profile: { name: string; version: number };
-  items: number;
-  readings: number;
-  supersededAt: string | null;
-  revokedAt: string | null;
-  revokedReason: string | null;
-  keyId: string;
-  jws: string;
-  pdfSha256: string | null;
-  verifyUrl: string;
-}
+export type { Verification };
 
 /** Null when no certificate has that number. */
 export const getVerification = async (number: string): Promise<Verification | null> => {
   try {
-    return await api.get<Verification>(`/verify/${encodeURIComponent(number)}`);
+    return await call(certificatesContracts.verify, { params: { number } });
   } catch (err) {
     if (err instanceof ApiError && err.status === 404) return null;
     throw err;

@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { certificatesContracts } from '@shared/contracts/certificates';
 import type { RevokeCertificateInput } from '@shared/schemas/sign-off';
 import { certificatesQueryOptions } from './get-certificates';
-import type { Verification } from './get-verification';
 
 export const revokeCertificate = (number: string, input: RevokeCertificateInput) =>
-  api.post<Verification>(`/certificates/${encodeURIComponent(number)}/revoke`, input);
+  call(certificatesContracts.revoke, { params: { number }, body: input });
 
 export const useRevokeCertificate = (venueId: string) => {
   const qc = useQueryClient();

@@ -1,12 +1,12 @@
 import { useMutation } from '@tanstack/react-query';
-import { apiRequest } from '@/lib/api-client';
-import type { Verification } from './get-verification';
+import { call } from '@/lib/api-client';
+import { certificatesContracts, type FileCheck } from '@shared/contracts/certificates';
 
-export type FileCheck = { match: false; sha256: string } | { match: true; sha256: string; certificate: Verification };
+export type { FileCheck };
 
 export const verifyFile = (file: File) => {
   const body = new FormData();
   body.append('file', file);
-  return apiRequest<FileCheck>('/verify/file', { method: 'POST', body });
+  return call(certificatesContracts.verifyFile, { body });
 };
 export const useVerifyFile = () => useMutation({ mutationFn: verifyFile });

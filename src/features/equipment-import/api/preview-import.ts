@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
-import { apiRequest } from '@/lib/api-client';
-import type { ImportMapping, ImportMode, ImportPreview } from '@shared/schemas/equipment-import';
+import { call } from '@/lib/api-client';
+import { equipmentImportContracts } from '@shared/contracts/equipment-import';
+import type { ImportMapping, ImportMode } from '@shared/schemas/equipment-import';
 
 export interface ImportRequest {
   file: File;
@@ -18,7 +19,6 @@ export function importForm({ file, mapping, mode }: ImportRequest): FormData {
 }
 
 /** Nothing is written: the rows as they would be imported, with their errors. */
-export const previewImport = (req: ImportRequest) =>
-  apiRequest<ImportPreview>('/equipment/import/preview', { method: 'POST', body: importForm(req) });
+export const previewImport = (req: ImportRequest) => call(equipmentImportContracts.preview, { body: importForm(req) });
 
 export const usePreviewImport = () => useMutation({ mutationFn: previewImport });

@@ -1,17 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { equipmentContracts } from '@shared/contracts/equipment';
 import type { CalibrationInput } from '@shared/schemas/equipment';
 import { equipmentItemQueryOptions } from './get-equipment-item';
 
-export interface CalibrationResult {
-  id: string;
-  velocityFactor: number;
-  velocityFactorUncertainty: number;
-  explanation: string;
-}
-
 export const calibrateEquipment = ({ id, ...input }: CalibrationInput & { id: string }) =>
-  api.post<CalibrationResult>(`/equipment/${id}/calibrations`, input);
+  call(equipmentContracts.calibrate, { params: { id }, body: input });
 
 export const useCalibrateEquipment = (id: string) => {
   const qc = useQueryClient();

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { equipmentContracts } from '@shared/contracts/equipment';
 import type { CreateEquipmentInput } from '@shared/schemas/equipment';
 import { equipmentListQueryOptions } from './get-equipment-list';
-import type { EquipmentItem } from './types';
 
-export const createEquipment = (input: CreateEquipmentInput) => api.post<EquipmentItem>('/equipment', input as Record<string, unknown>);
+export const createEquipment = (input: CreateEquipmentInput) => call(equipmentContracts.create, { body: input });
 
 export const useCreateEquipment = () => {
   const qc = useQueryClient();

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { EquipmentDetail } from './types';
+import { call } from '@/lib/api-client';
+import { equipmentContracts } from '@shared/contracts/equipment';
 
-export const getEquipmentItem = (id: string) => api.get<EquipmentDetail>(`/equipment/${id}`);
+export const getEquipmentItem = (id: string) => call(equipmentContracts.get, { params: { id } });
 export const equipmentItemQueryOptions = (id: string) => queryOptions({ queryKey: ['equipment', 'item', id], queryFn: () => getEquipmentItem(id) });
 export const useEquipmentItem = (id: string) => useQuery(equipmentItemQueryOptions(id));

@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import { apiRequest } from '@/lib/api-client';
-import type { WaveformAnswer } from '@shared/schemas/waveforms';
+import { call } from '@/lib/api-client';
+import { faultLocationContracts, type WaveformAnswer } from '@shared/contracts/fault-location';
 
 export type { WaveformAnswer };
 
@@ -10,13 +10,8 @@ export interface AnalyseWaveformInput {
   lengthM?: number | undefined;
 }
 
-export const analyseWaveform = ({ file, velocityFactor, lengthM }: AnalyseWaveformInput) => {
-  const query = new URLSearchParams();
-  if (velocityFactor !== undefined) query.set('velocityFactor', String(velocityFactor));
-  if (lengthM !== undefined) query.set('lengthM', String(lengthM));
-  const qs = query.size > 0 ? `?${query}` : '';
+export const analyseWaveform = ({ file, velocityFactor, lengthM }: AnalyseWaveformInput) =>
   // Re-typed as text/csv: browsers label .csv files inconsistently (Windows says vnd.ms-excel).
-  return apiRequest<WaveformAnswer>(`/waveforms/analyse${qs}`, { method: 'POST', body: new Blob([file], { type: 'text/csv' }) });
-};
+  call(faultLocationContracts.analyse, { query: { velocityFactor, lengthM }, body: new Blob([file], { type: 'text/csv' }) });
 
 export const useAnalyseWaveform = () => useMutation({ mutationFn: analyseWaveform });

@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { FaultLocationAnswer } from '@shared/domain/fault-location';
+import { call } from '@/lib/api-client';
+import { faultLocationContracts } from '@shared/contracts/fault-location';
 import type { LengthSystem } from '@shared/domain/units';
 import type { FaultLocationRequest } from '@shared/schemas/fault-location';
 
@@ -15,7 +15,7 @@ export interface LocateFaultInput {
 
 /** The server's answer for one set of readings: the authority the browser's estimate is checked against. */
 export const locateFault = (request: FaultLocationRequest) =>
-  api.post<FaultLocationAnswer>('/fault-location', request as unknown as Record<string, unknown>);
+  call(faultLocationContracts.locate, { body: request });
 
 // A computation, not a change: nothing to invalidate.
 export const useLocateFault = () => useMutation({ mutationFn: ({ request }: LocateFaultInput) => locateFault(request) });

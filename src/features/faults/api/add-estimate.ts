@@ -1,16 +1,13 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import { faultQueryOptions, type CombinedDto, type FaultDetail, type FaultEstimateDto } from './get-fault';
+import { call } from '@/lib/api-client';
+import { faultsContracts } from '@shared/contracts/faults';
+import { faultQueryOptions } from './get-fault';
 
+/** One fault-location request plus fromEnd, as the locate form builds it (the server checks it). */
 export type EstimateBody = Record<string, number | string>;
-export interface EstimateAnswer {
-  estimate: FaultEstimateDto;
-  combined: CombinedDto | null;
-  fault: FaultDetail;
-}
 
 export const addEstimate = ({ faultId, body }: { faultId: string; body: EstimateBody }) =>
-  api.post<EstimateAnswer>(`/faults/${faultId}/estimates`, body);
+  call(faultsContracts.addEstimate, { params: { id: faultId }, body });
 
 export const useAddEstimate = (faultId: string) => {
   const qc = useQueryClient();

@@ -1,10 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { faultsContracts } from '@shared/contracts/faults';
 import type { CreateRepairInput } from '@shared/schemas/faults';
-import { faultQueryOptions, type FaultDetail } from './get-fault';
+import { faultQueryOptions } from './get-fault';
 
 export const addRepair = ({ faultId, body }: { faultId: string; body: CreateRepairInput }) =>
-  api.post<{ repair: FaultDetail['repairs'][number]; fault: FaultDetail }>(`/faults/${faultId}/repairs`, body as unknown as Record<string, unknown>);
+  call(faultsContracts.addRepair, { params: { id: faultId }, body });
 
 export const useAddRepair = (faultId: string) => {
   const qc = useQueryClient();

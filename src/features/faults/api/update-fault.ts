@@ -1,11 +1,12 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { faultsContracts } from '@shared/contracts/faults';
 import type { UpdateFaultInput } from '@shared/schemas/faults';
-import { faultQueryOptions, type FaultDetail } from './get-fault';
+import { faultQueryOptions } from './get-fault';
 
 /** Sends the version the page loaded as If-Match; a 412 means someone changed the fault meanwhile. */
 export const updateFault = ({ faultId, version, patch }: { faultId: string; version: number; patch: UpdateFaultInput }) =>
-  api.patch<FaultDetail>(`/faults/${faultId}`, patch as unknown as Record<string, unknown>, { 'If-Match': `"${version}"` });
+  call(faultsContracts.update, { params: { id: faultId }, body: patch, headers: { 'If-Match': `"${version}"` } });
 
 export const useUpdateFault = (faultId: string) => {
   const qc = useQueryClient();

@@ -1,14 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { mailContracts, type MailSummary } from '@shared/contracts/mail';
 
-export interface MailSummary {
-  id: number;
-  fromAddress: string;
-  toAddresses: string;
-  subject: string;
-  receivedAt: string;
-}
+export type { MailSummary };
 
-export const getMessages = () => api.get<MailSummary[]>('/mail');
+export const getMessages = () => call(mailContracts.list);
 export const messagesQueryOptions = () => queryOptions({ queryKey: ['mail'], queryFn: getMessages, refetchInterval: 5000 });
 export const useMessages = () => useQuery(messagesQueryOptions());

@@ -1,8 +1,10 @@
-import { api, ApiError } from '@/lib/api-client';
+import { ApiError, call } from '@/lib/api-client';
+import { readingsContracts } from '@shared/contracts/readings';
 import type { ReadingDto } from '@shared/schemas/readings';
 import type { Answer, ReadingBody } from '../utils/queue';
 
-export type SentReading = ReadingDto & { venueReopened?: boolean };
+/** The stored reading; venueReopened when it re-opened a signed-off venue. */
+export type SentReading = ReadingDto;
 
 /**
  * POST /api/readings for a queued reading. Never throws: the answer (or its absence) is handed to
@@ -11,7 +13,7 @@ export type SentReading = ReadingDto & { venueReopened?: boolean };
  */
 export async function sendReading(body: ReadingBody): Promise<{ answer: Answer; reading?: SentReading }> {
   try {
-    const reading = await api.post<SentReading>('/readings', body as unknown as Record<string, unknown>);
+    const reading = await call(readingsContracts.record, { body });
     return { answer: { kind: 'http', status: 200, venueReopened: reading.venueReopened === true }, reading };
   } catch (err) {
     if (err instanceof ApiError) return { answer: { kind: 'http', status: err.status, code: err.code, message: err.message } };

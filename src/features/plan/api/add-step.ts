@@ -1,9 +1,9 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import type { AddStepInput } from '@shared/schemas/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 type Vars = { positionId: string; step: AddStepInput };
 export const addStep = ({ positionId, step, version }: Vars & { version: number }) =>
-  api.post<VenuePlan>(`/positions/${positionId}/steps`, step as Record<string, unknown>, ifMatch(version));
+  call(planContracts.addStep, { params: { id: positionId }, body: step, headers: ifMatch(version) });
 export const useAddStep = (venueId: string) => usePlanEdit<Vars>(venueId, addStep);

@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import type { CreateEventInput } from '@shared/schemas/plan';
 import { eventsQueryOptions } from './get-events';
-import type { EventDetail } from './types';
 
-export const createEvent = (input: CreateEventInput) => api.post<EventDetail>('/events', input as Record<string, unknown>);
+export const createEvent = (input: CreateEventInput) => call(planContracts.createEvent, { body: input });
 
 export const useCreateEvent = () => {
   const qc = useQueryClient();

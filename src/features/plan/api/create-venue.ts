@@ -1,11 +1,11 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import type { CreateVenueInput } from '@shared/schemas/plan';
 import { eventsQueryOptions } from './get-events';
-import type { VenuePlan } from './types';
 
 export const createVenue = ({ eventId, ...input }: CreateVenueInput & { eventId: string }) =>
-  api.post<VenuePlan>(`/events/${eventId}/venues`, input as Record<string, unknown>);
+  call(planContracts.createVenue, { params: { id: eventId }, body: input });
 
 export const useCreateVenue = () => {
   const qc = useQueryClient();

@@ -1,7 +1,7 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 type Vars = { stepId: string };
-export const dropStep = ({ stepId, version }: Vars & { version: number }) => api.delete<VenuePlan>(`/steps/${stepId}`, ifMatch(version));
+export const dropStep = ({ stepId, version }: Vars & { version: number }) => call(planContracts.dropStep, { params: { id: stepId }, headers: ifMatch(version) });
 export const useDropStep = (venueId: string) => usePlanEdit<Vars>(venueId, dropStep);

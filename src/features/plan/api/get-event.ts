@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { EventDetail } from './types';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 
-export const getEvent = (id: string) => api.get<EventDetail>(`/events/${id}`);
+export const getEvent = (id: string) => call(planContracts.getEvent, { params: { id } });
 export const eventQueryOptions = (id: string) => queryOptions({ queryKey: ['events', id], queryFn: () => getEvent(id) });
 export const useEvent = (id: string) => useQuery(eventQueryOptions(id));

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { EventSummary } from './types';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 
-export const getEvents = () => api.get<EventSummary[]>('/events');
+export const getEvents = () => call(planContracts.listEvents);
 export const eventsQueryOptions = () => queryOptions({ queryKey: ['events'], queryFn: getEvents });
 export const useEvents = () => useQuery(eventsQueryOptions());

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { PlanningPeople } from './types';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 
-export const getPlanningPeople = () => api.get<PlanningPeople>('/planning/people');
+export const getPlanningPeople = () => call(planContracts.people);
 export const planningPeopleQueryOptions = () => queryOptions({ queryKey: ['planning', 'people'], queryFn: getPlanningPeople, staleTime: 60_000 });
 export const usePlanningPeople = (enabled = true) => useQuery({ ...planningPeopleQueryOptions(), enabled });

@@ -1,8 +1,8 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 type Vars = { stripId: string };
 export const reinstateStrip = ({ stripId, version }: Vars & { version: number }) =>
-  api.post<VenuePlan>(`/strips/${stripId}/reinstate`, {}, ifMatch(version));
+  call(planContracts.reinstateStrip, { params: { id: stripId }, headers: ifMatch(version) });
 export const useReinstateStrip = (venueId: string) => usePlanEdit<Vars>(venueId, reinstateStrip);

@@ -1,8 +1,8 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 type Vars = { positionId: string };
 export const removePosition = ({ positionId, version }: Vars & { version: number }) =>
-  api.delete<VenuePlan>(`/positions/${positionId}`, ifMatch(version));
+  call(planContracts.removePosition, { params: { id: positionId }, headers: ifMatch(version) });
 export const useRemovePosition = (venueId: string) => usePlanEdit<Vars>(venueId, removePosition);

@@ -1,8 +1,8 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 type Vars = { userIds: string[] };
 export const setTechnicians = (venueId: string, { userIds, version }: Vars & { version: number }) =>
-  api.put<VenuePlan>(`/venues/${venueId}/technicians`, { userIds }, ifMatch(version));
+  call(planContracts.setTechnicians, { params: { id: venueId }, body: { userIds }, headers: ifMatch(version) });
 export const useSetTechnicians = (venueId: string) => usePlanEdit<Vars>(venueId, (v) => setTechnicians(venueId, v));

@@ -1,8 +1,8 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import type { UpdateVenueInput } from '@shared/schemas/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 export const updateVenue = (venueId: string, { version, ...patch }: UpdateVenueInput & { version: number }) =>
-  api.patch<VenuePlan>(`/venues/${venueId}`, patch as Record<string, unknown>, ifMatch(version));
+  call(planContracts.updateVenue, { params: { id: venueId }, body: patch, headers: ifMatch(version) });
 export const useUpdateVenue = (venueId: string) => usePlanEdit<UpdateVenueInput>(venueId, (v) => updateVenue(venueId, v));

@@ -1,8 +1,8 @@
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { planContracts } from '@shared/contracts/plan';
 import { ifMatch, usePlanEdit } from './plan-edit';
-import type { VenuePlan } from './types';
 
 type Vars = { stripId: string; reason: string };
 export const withdrawStrip = ({ stripId, reason, version }: Vars & { version: number }) =>
-  api.post<VenuePlan>(`/strips/${stripId}/withdraw`, { reason }, ifMatch(version));
+  call(planContracts.withdrawStrip, { params: { id: stripId }, body: { reason }, headers: ifMatch(version) });
 export const useWithdrawStrip = (venueId: string) => usePlanEdit<Vars>(venueId, withdrawStrip);

@@ -1,9 +1,9 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { profilesContracts } from '@shared/contracts/profiles';
 import { profilesQueryOptions } from './get-profiles';
-import type { ProfileDetail } from './types';
 
-export const copyProfile = ({ id, name }: { id: string; name: string }) => api.post<ProfileDetail>(`/profiles/${id}/copy`, { name });
+export const copyProfile = ({ id, name }: { id: string; name: string }) => call(profilesContracts.copy, { params: { id }, body: { name } });
 
 export const useCopyProfile = () => {
   const qc = useQueryClient();

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { ProfileDetail } from './types';
+import { call } from '@/lib/api-client';
+import { profilesContracts } from '@shared/contracts/profiles';
 
-export const getProfile = (id: string) => api.get<ProfileDetail>(`/profiles/${id}`);
+export const getProfile = (id: string) => call(profilesContracts.get, { params: { id } });
 export const profileQueryOptions = (id: string) => queryOptions({ queryKey: ['profiles', id], queryFn: () => getProfile(id) });
 export const useProfile = (id: string) => useQuery(profileQueryOptions(id));

@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { ProfileSummary } from './types';
+import { call } from '@/lib/api-client';
+import { profilesContracts } from '@shared/contracts/profiles';
 
-export const getProfiles = () => api.get<ProfileSummary[]>('/profiles');
+export const getProfiles = () => call(profilesContracts.list);
 export const profilesQueryOptions = () => queryOptions({ queryKey: ['profiles'], queryFn: getProfiles });
 export const useProfiles = () => useQuery(profilesQueryOptions());

@@ -1,21 +1,3 @@
-import type { EquipmentKind, LimitRule } from '@shared/domain/limits';
+import type { ProfileDetail, ProfileSummary } from '@shared/contracts/profiles';
 
-export interface ProfileSummary {
-  id: string;
-  lineageId: string;
-  name: string;
-  version: number;
-  rules: LimitRule[];
-  loopRequired: EquipmentKind[];
-  notes: string | null;
-  createdAt: string;
-  ruleCount: number;
-  houseRuleCount: number;
-  versions: { id: string; version: number; createdAt: string }[];
-}
-export interface ProfileDetail extends Omit<ProfileSummary, 'ruleCount' | 'houseRuleCount' | 'versions'> {
-  latestVersion: number;
-  latestId: string;
-  versions: { id: string; version: number; createdAt: string; byName: string | null; notes: string | null }[];
-  usedBy: { venueId: string; venueName: string; eventName: string; profileId: string; version: number }[];
-}
+export type { ProfileDetail, ProfileSummary };

@@ -1,6 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { v7 as uuidv7 } from 'uuid';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { readingsContracts } from '@shared/contracts/readings';
 import { venueReadingsQueryOptions } from './get-venue-readings';
 
 export interface CorrectionInput {
@@ -14,7 +15,7 @@ export interface CorrectionInput {
  * A correction is a new reading that supersedes the old one; the old one stays in the history. Its
  * id comes from uuid, not crypto.randomUUID, which plain-HTTP venue networks do not have.
  */
-export const correctReading = (input: CorrectionInput) => api.post<{ id: string; verdict: string }>('/readings', { id: uuidv7(), ...input });
+export const correctReading = (input: CorrectionInput) => call(readingsContracts.record, { body: { id: uuidv7(), ...input } });
 
 export const useCorrectReading = (venueId: string) => {
   const qc = useQueryClient();

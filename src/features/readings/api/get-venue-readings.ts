@@ -1,42 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { TestKind } from '@shared/domain/limits';
+import { call, urlOf } from '@/lib/api-client';
+import { readingsTableContracts, type ReadingRow } from '@shared/contracts/readings-table';
 
-export interface ReadingRow {
-  id: string;
-  stripId: string;
-  stripLabel: string;
-  stripSort: number;
-  positionId: string;
-  positionName: string;
-  positionSort: number;
-  assetTag: string | null;
-  stepId: string;
-  testKind: TestKind;
-  conductors: string;
-  stepSort: number;
-  valueText: string;
-  valueOhm: number | null;
-  overRange: boolean;
-  verdict: 'pass' | 'near-limit' | 'fail';
-  limitOhm: number | null;
-  limitKind: 'max' | 'min' | null;
-  source: string;
-  explanation: string;
-  profileName: string | null;
-  profileVersion: number;
-  takenByName: string | null;
-  takenAt: string;
-  /** When the server got it; later than takenAt for a reading typed offline. */
-  receivedAt: string | null;
-  supersedesId: string | null;
-  supersededBy: string | null;
-  superseded: boolean;
-  correctionReason: string | null;
-}
+export type { ReadingRow };
 
-export const getVenueReadings = (venueId: string) => api.get<ReadingRow[]>(`/venues/${venueId}/readings`);
+export const getVenueReadings = (venueId: string) => call(readingsTableContracts.list, { params: { id: venueId } });
 export const venueReadingsQueryOptions = (venueId: string) =>
   queryOptions({ queryKey: ['venues', venueId, 'readings'], queryFn: () => getVenueReadings(venueId) });
 export const useVenueReadings = (venueId: string) => useQuery(venueReadingsQueryOptions(venueId));
-export const venueReadingsCsvUrl = (venueId: string) => `/api/venues/${venueId}/readings.csv`;
+export const venueReadingsCsvUrl = (venueId: string) => urlOf(readingsTableContracts.csv, { id: venueId });

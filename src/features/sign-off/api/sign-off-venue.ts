@@ -1,24 +1,14 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { signOffContracts, type SignOffResult } from '@shared/contracts/sign-off';
 import type { SignOffInput } from '@shared/schemas/sign-off';
 import { readinessQueryOptions } from './get-readiness';
 
-export interface IssuedCertificate {
-  number: string;
-  kind: 'venue' | 'strip';
-  stripId?: string;
-  status: 'valid';
-  pdfSha256: string;
-  verifyUrl: string;
-}
-export interface SignOffResult {
-  signOffId: string;
-  signedAt: string;
-  certificates: IssuedCertificate[];
-}
+export type { SignOffResult };
+export type IssuedCertificate = SignOffResult['certificates'][number];
 
 export const signOffVenue = (venueId: string, input: SignOffInput) =>
-  api.post<SignOffResult>(`/venues/${venueId}/sign-off`, input as unknown as Record<string, unknown>);
+  call(signOffContracts.signOff, { params: { id: venueId }, body: input });
 
 export const useSignOffVenue = (venueId: string) => {
   const qc = useQueryClient();

@@ -1,59 +1,14 @@
 import { useEffect } from 'react';
 import { queryOptions, useQuery, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { EquipmentKind, LimitRule, TestKind } from '@shared/domain/limits';
-import type { StripStatus } from '@shared/domain/progress';
-import type { ReadingDto } from '@shared/schemas/readings';
-import type { FaultKind, FaultStatus } from '@shared/schemas/faults';
+import { call } from '@/lib/api-client';
+import { stripsContracts, type StripDetail } from '@shared/contracts/strips';
 
-export interface StripStep {
-  id: string;
-  testKind: TestKind;
-  conductors: string;
-  required: boolean;
-  instruction: string;
-  latest: ReadingDto | null;
-}
+export type { StripDetail };
+export type StripPosition = StripDetail['positions'][number];
+export type StripStep = StripPosition['steps'][number];
+export type StripFault = StripDetail['openFaults'][number];
 
-export interface StripPosition {
-  id: string;
-  name: string;
-  equipmentKind: EquipmentKind;
-  equipment: { id: string; assetTag: string; kind: EquipmentKind; lengthM: number | null; velocityFactor: number | null; conductorMm2: number | null; status: string } | null;
-  steps: StripStep[];
-}
-
-export interface StripFault {
-  id: string;
-  positionId: string;
-  positionName: string;
-  stepId: string | null;
-  kind: FaultKind;
-  conductors: string;
-  status: FaultStatus;
-  equipment: { assetTag: string } | null;
-}
-
-export interface StripDetail {
-  id: string;
-  label: string;
-  status: StripStatus;
-  zone: string | null;
-  conductivePiste: boolean;
-  withdrawnReason: string | null;
-  venueId: string;
-  venueName: string;
-  venueStatus: string;
-  profile: { id: string; name: string; version: number; rules: LimitRule[]; loopRequired: EquipmentKind[] } | null;
-  counts: { total: number; done: number; passed: number; nearLimit: number; failed: number };
-  venueProgress: { stepsDone: number; stepsTotal: number; stripsClear: number; stripCount: number };
-  previousStripId: string | null;
-  nextStripId: string | null;
-  positions: StripPosition[];
-  openFaults: StripFault[];
-}
-
-export const getStrip = (stripId: string) => api.get<StripDetail>(`/strips/${stripId}`);
+export const getStrip = (stripId: string) => call(stripsContracts.get, { params: { id: stripId } });
 export const stripQueryOptions = (stripId: string) => queryOptions({ queryKey: ['strips', stripId], queryFn: () => getStrip(stripId) });
 export const useStrip = (stripId: string) => useQuery(stripQueryOptions(stripId));
 

@@ -1,6 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { usersContracts } from '@shared/contracts/users';
 
-export const endSessions = (id: string) => api.post<void>(`/users/${id}/end-sessions`);
+export const endSessions = (id: string) => call(usersContracts.endSessions, { params: { id } });
 
 export const useEndSessions = () => useMutation({ mutationFn: endSessions });

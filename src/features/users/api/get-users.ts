@@ -1,16 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
-import type { Role } from '@shared/schemas/common';
+import { call } from '@/lib/api-client';
+import { usersContracts, type Person } from '@shared/contracts/users';
 
-export interface Person {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  disabled: boolean;
-  invited: boolean;
-}
+export type { Person };
 
-export const getUsers = () => api.get<Person[]>('/users');
+export const getUsers = () => call(usersContracts.list);
 export const usersQueryOptions = () => queryOptions({ queryKey: ['users'], queryFn: getUsers });
 export const useUsers = () => useQuery(usersQueryOptions());

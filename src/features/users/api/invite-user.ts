@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { usersContracts } from '@shared/contracts/users';
 import type { InviteUserInput } from '@shared/schemas/auth';
-import { usersQueryOptions, type Person } from './get-users';
+import { usersQueryOptions } from './get-users';
 
-export const inviteUser = (input: InviteUserInput) => api.post<Person>('/users', input);
+export const inviteUser = (input: InviteUserInput) => call(usersContracts.invite, { body: input });
 
 export const useInviteUser = () => {
   const qc = useQueryClient();

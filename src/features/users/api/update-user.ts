@@ -1,9 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
-import { api } from '@/lib/api-client';
+import { call } from '@/lib/api-client';
+import { usersContracts } from '@shared/contracts/users';
 import type { UpdateUserInput } from '@shared/schemas/auth';
-import { usersQueryOptions, type Person } from './get-users';
+import { usersQueryOptions } from './get-users';
 
-export const updateUser = ({ id, ...patch }: UpdateUserInput & { id: string }) => api.patch<Person>(`/users/${id}`, patch);
+export const updateUser = ({ id, ...patch }: UpdateUserInput & { id: string }) => call(usersContracts.update, { params: { id }, body: patch });
 
 export const useUpdateUser = () => {
   const qc = useQueryClient();
