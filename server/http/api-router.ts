@@ -3,6 +3,7 @@ import type { ZodType } from 'zod';
 import type { AuthUser } from '../auth/types';
 import { AppError, forbidden, unauthorized } from '../lib/app-error';
 import {
+  bodyKindOf,
   fullPath,
   type Access,
   type AnswerIn,
@@ -62,20 +63,22 @@ export interface RouterOptions {
 
 /** A JSON body absent from the request is parsed as {} so the schema names the missing fields. */
 function parseBody(c: Contract, req: Request): unknown {
-  const spec = c.body;
-  if (spec === undefined) return undefined;
-  if (isMultipart(spec)) return spec.fields ? spec.fields.parse(req.body ?? {}) : undefined;
-  if (isText(spec)) {
+  const kind = bodyKindOf(c);
+  if (kind === 'none') return undefined;
+  if (kind === 'multipart') {
+    const { fields } = c.body as MultipartBody;
+    return fields ? fields.parse(req.body ?? {}) : undefined;
+  }
+  if (kind === 'text') {
+    const spec = c.body as TextBody;
     if (typeof req.body !== 'string') {
       throw new AppError(415, 'unsupported-type', `Send ${spec.what} as the request body with Content-Type ${spec.contentTypes.join(', ')}.`);
     }
     return req.body;
   }
-  return spec.parse(req.body === undefined ? {} : req.body);
+  return (c.body as ZodType).parse(req.body === undefined ? {} : req.body);
 }
 
-const isMultipart = (b: Contract['body']): b is MultipartBody => typeof b === 'object' && b !== null && 'kind' in b && b.kind === 'multipart';
-const isText = (b: Contract['body']): b is TextBody => typeof b === 'object' && b !== null && 'kind' in b && b.kind === 'text';
 
 /** Params and query replaced by their parsed values; a ZodError is answered 422 by the error handler. */
 function parseUrl(c: Contract): RequestHandler {
@@ -121,7 +124,10 @@ export class ApiRouter {
     const chain: RequestHandler[] = [requireAccess(c.access)];
     if (c.params || c.query) chain.push(parseUrl(c));
     chain.push(...(opts.before ?? []));
-    if (c.body && isText(c.body)) chain.push(express.text({ type: [...c.body.contentTypes], limit: c.body.maxBytes }));
+    if (bodyKindOf(c) === 'text') {
+      const text = c.body as TextBody;
+      chain.push(express.text({ type: [...text.contentTypes], limit: text.maxBytes }));
+    }
     chain.push(this.finish(c, handler as Handler<Contract>));
     this.routes.push({ method: c.method, path: c.path, access: c.access, contract: c });
     this.router[c.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](c.path, ...chain);

@@ -84,6 +84,14 @@ export const textBody = (contentTypes: readonly string[], maxBytes: number, what
   what,
 });
 
+/** How a route takes its body: JSON (a zod schema), a multipart form, text, or none. */
+export function bodyKindOf(c: Contract): 'json' | 'multipart' | 'text' | 'none' {
+  const b = c.body;
+  if (b === undefined) return 'none';
+  if (typeof b === 'object' && 'kind' in b && (b.kind === 'multipart' || b.kind === 'text')) return b.kind;
+  return 'json';
+}
+
 /** The full path of a route as Express and app.routes list it. */
 export const fullPath = (c: Contract) => (c.mount === 'root' ? c.path : `/api${c.path}`);
 

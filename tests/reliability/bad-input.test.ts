@@ -23,6 +23,7 @@ import {
 } from '../../shared/domain/register-import';
 import { DEFAULT_LIMIT_PROFILE } from '../../shared/domain/limits';
 import type { RouteSpec } from '../../server/http/api-router';
+import { bodyKindOf } from '../../shared/contracts/contract';
 
 /** The routes createApp() declares (Express's own typing of app.routes would hide their type). */
 const routesOf = (app: TestApp): RouteSpec[] => (app.app as unknown as { routes: RouteSpec[] }).routes;
@@ -30,16 +31,8 @@ const routesOf = (app: TestApp): RouteSpec[] => (app.app as unknown as { routes:
 type Agent = ReturnType<typeof supertest.agent>;
 const RUNS = 25;
 
-/** Routes whose body is not JSON (files, a trace as text): fuzzed elsewhere or not by body. */
-const NOT_JSON = new Set([
-  'POST /api/faults/:id/attachments',
-  'POST /api/repairs/:id/attachments',
-  'POST /api/equipment/:id/attachments',
-  'POST /api/equipment/import/preview',
-  'POST /api/equipment/import',
-  'POST /api/waveforms/analyse',
-  'POST /api/verify/file',
-]);
+/** Routes whose body is not JSON (files, a trace as text), from their contracts: fuzzed elsewhere or not by body. */
+const notJson = (r: RouteSpec) => ['multipart', 'text'].includes(bodyKindOf(r.contract));
 
 let t: TestApp;
 let params: Record<string, string>;
@@ -140,14 +133,14 @@ async function expectProblemOrSuccess(route: string, res: supertest.Response, se
 }
 
 describe('bad input to every JSON route', () => {
-  test('every POST, PUT and PATCH route is either fuzzed as JSON or listed as taking another kind of body', () => {
-    const writes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE').map((r) => `${r.method} ${r.path}`);
-    const unknown = writes.filter((r) => !NOT_JSON.has(r) && r !== 'POST /api/auth/sign-out' && r !== 'POST /api/users/:id/end-sessions' && r !== 'POST /api/strips/:id/reinstate' && validBody(r) === null);
-    expect(unknown, `New write routes: give them a valid body in validBody() (tests/reliability/bad-input.test.ts) or list them in NOT_JSON:\n  ${unknown.join('\n  ')}`).toEqual([]);
+  test('every POST, PUT and PATCH route with a JSON body (by its contract) has a valid body to mutate', () => {
+    const writes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE' && !notJson(r) && bodyKindOf(r.contract) !== 'none');
+    const unknown = writes.map((r) => `${r.method} ${r.path}`).filter((r) => validBody(r) === null);
+    expect(unknown, `New write routes with a JSON body: give them a valid body in validBody() (tests/reliability/bad-input.test.ts):\n  ${unknown.join('\n  ')}`).toEqual([]);
   });
 
   test('arbitrary JSON, malformed text and near-valid bodies never give a 500, and every refusal is problem+json', { timeout: 120_000 }, async () => {
-    const routes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE' && !NOT_JSON.has(`${r.method} ${r.path}`));
+    const routes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE' && !notJson(r));
     for (const r of routes) {
       const route = `${r.method} ${r.path}`;
       // Sign-out would end the session the fuzzing uses: it is sent without one.
