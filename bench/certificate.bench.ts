@@ -9,7 +9,7 @@ import { canonicalJson } from '../server/signing/signing-keys';
 import { DEFAULT_LIMIT_PROFILE, evaluateReading } from '../shared/domain/limits';
 import { DEFAULT_POSITION_TEMPLATE, stepsForKind } from '../shared/domain/checklist';
 import { parseReading } from '../shared/domain/units';
-import { ruleLimitText } from '../server/services/sign-off.service';
+import { ruleLimitText } from '../server/services/sign-off-render';
 import { bestOfAsync, type BenchResult } from './lib';
 
 const STRIPS = 120;

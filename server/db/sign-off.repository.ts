@@ -95,3 +95,4 @@ export function signOffRepository(db: Db | Tx) {
       db.select().from(signOffs).where(and(eq(signOffs.venueId, venueId), eq(signOffs.status, 'active'))).get(),
   };
 }
+export type SignOffRepository = ReturnType<typeof signOffRepository>;

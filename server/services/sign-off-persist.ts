@@ -1,0 +1,88 @@
+// Sign-off, step three: the rendered certificates kept. The files first, then one transaction that
+// checks nothing changed while signing (same readings, same venue version) and records the
+// sign-off, its certificates and the frozen venue; any failure removes the files again.
+import type { AppDeps } from '../deps';
+import type { AuthUser } from '../auth/types';
+import { signOffRepository } from '../db/sign-off.repository';
+import { certificatesRepository } from '../db/certificates.repository';
+import { recordAudit } from '../db/audit.repository';
+import { conflict } from '../lib/app-error';
+import { newId } from '../lib/ids';
+import { readingsDigest } from '../signing/certificate-record';
+import { certificateFiles } from '../storage/certificate-files';
+import { certifiedReadings, readinessOf } from './sign-off-readiness';
+import type { IssuedCertificate } from './sign-off-render';
+import type { ExceptionInput, VenueReadiness } from '../../shared/domain/readiness';
+
+export interface SignOffRecord {
+  user: AuthUser;
+  venueId: string;
+  venueVersion: number;
+  signedAt: string;
+  statement: string;
+  exceptions: ExceptionInput[];
+  readiness: VenueReadiness;
+  digest: string;
+  keyId: string;
+  issued: IssuedCertificate[];
+}
+
+/** Writes the PDFs and records the sign-off; answers its id. */
+export function persistSignOff(deps: AppDeps, s: SignOffRecord): string {
+  const files = certificateFiles(deps.env.DATA_DIR);
+  const written: string[] = [];
+  const signOffId = newId();
+  try {
+    for (const c of s.issued) {
+      const name = files.nameFor(c.payload.number);
+      files.write(name, c.pdf);
+      written.push(name);
+    }
+    deps.db.transaction((tx) => {
+      const repo = signOffRepository(tx);
+      // Nothing may have changed while we signed: same venue version, same readings.
+      const again = readinessOf(tx, s.venueId, s.exceptions);
+      if (!again.readiness.ready || readingsDigest(certifiedReadings(again.snap, again.readiness)) !== s.digest) {
+        throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
+      }
+      repo.insertSignOff({
+        id: signOffId,
+        venueId: s.venueId,
+        signedBy: s.user.id,
+        signedAt: s.signedAt,
+        statement: s.statement,
+        exceptionsJson: JSON.stringify(s.readiness.exceptions),
+        readingsDigest: s.digest,
+      });
+      for (const c of s.issued) {
+        certificatesRepository(tx).insert({
+          id: newId(),
+          number: c.payload.number,
+          signOffId,
+          venueId: s.venueId,
+          stripId: c.stripId,
+          kind: c.payload.kind,
+          payloadJson: c.canonical,
+          jws: c.jws,
+          keyId: s.keyId,
+          pdfSha256: c.sha256,
+          pdfPath: files.nameFor(c.payload.number),
+          issuedAt: s.signedAt,
+        });
+      }
+      if (repo.markVenueSignedOff(s.venueId, s.venueVersion) !== 1) {
+        throw conflict('changed-meanwhile', 'The venue changed while the certificates were being made. Check it and sign again.');
+      }
+      recordAudit(tx, s.user, 'venue.signed-off', 'venue', s.venueId, {
+        signOffId,
+        certificates: s.issued.map((c) => c.payload.number),
+        exceptions: s.readiness.exceptions.length,
+        readingsDigest: s.digest,
+      });
+    });
+  } catch (err) {
+    for (const f of written) files.remove(f);
+    throw err;
+  }
+  return signOffId;
+}

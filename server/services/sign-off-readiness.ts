@@ -1,0 +1,127 @@
+// Sign-off, step one: whether the venue is ready, from what the database says now. The same
+// snapshot is taken again inside the sign-off's transaction, so nothing changed while signing.
+import type { Db, Tx } from '../db/client';
+import { venuesRepository } from '../db/venues.repository';
+import { signOffRepository } from '../db/sign-off.repository';
+import { conflict, unprocessable } from '../lib/app-error';
+import type { CertifiedReading } from '../signing/certificate-record';
+import {
+  describeIssue,
+  venueReadiness,
+  type ExceptionInput,
+  type ReadinessStripInput,
+  type VenueReadiness,
+} from '../../shared/domain/readiness';
+
+/** What the database says now: readiness input, and the readings that would be certified. */
+export function snapshot(db: Db | Tx, venueId: string) {
+  const repo = signOffRepository(db);
+  const stripRows = venuesRepository(db).stripsOf(venueId);
+  const stepRows = repo.stepsWithLatestReading(venueId);
+  const faultRows = repo.openFaultsOf(venueId);
+  const inputs: ReadinessStripInput[] = stripRows.map((s) => ({
+    stripId: s.id,
+    label: s.label,
+    withdrawn: !!s.withdrawnAt,
+    withdrawnReason: s.withdrawnReason,
+    steps: stepRows
+      .filter((r) => r.stripId === s.id)
+      .map((r) => ({
+        stepId: r.stepId,
+        positionId: r.positionId,
+        positionName: r.positionName,
+        equipmentId: r.positionEquipmentId,
+        assetTag: r.positionAssetTag,
+        testKind: r.testKind,
+        conductors: r.conductors,
+        required: r.required,
+        latest: r.reading
+          ? {
+              readingId: r.reading.id,
+              verdict: r.reading.verdict,
+              valueText: r.reading.valueText,
+              valueOhm: r.reading.valueOhm,
+              overRange: r.reading.overRange,
+              limitOhm: r.reading.limitOhm,
+              limitKind: r.reading.limitKind,
+              source: r.reading.source,
+              equipmentId: r.reading.equipmentId,
+              takenAt: r.reading.takenAt,
+              takenByName: r.takenByName ?? '',
+            }
+          : null,
+      })),
+    openFaults: faultRows
+      .filter((f) => f.stripId === s.id)
+      .map((f) => ({ faultId: f.faultId, positionName: f.positionName, kind: f.kind, conductors: f.conductors, status: f.status })),
+  }));
+  return { stripRows, stepRows, inputs };
+}
+
+export function certifiedReadings(snap: ReturnType<typeof snapshot>, readiness: VenueReadiness): CertifiedReading[] {
+  const ready = new Set(readiness.strips.filter((s) => s.state === 'ready').map((s) => s.stripId));
+  const labels = new Map(snap.stripRows.map((s) => [s.id, s.label]));
+  return snap.stepRows
+    .filter((r) => ready.has(r.stripId) && r.required && r.reading)
+    .map((r) => {
+      const reading = r.reading!;
+      return {
+        readingId: reading.id,
+        stripId: r.stripId,
+        stripLabel: labels.get(r.stripId) ?? '',
+        position: r.positionName,
+        equipmentKind: r.equipmentKind,
+        assetTag: r.readingAssetTag ?? r.positionAssetTag,
+        testKind: r.testKind,
+        conductors: r.conductors,
+        valueText: reading.valueText,
+        valueOhm: reading.valueOhm,
+        overRange: reading.overRange,
+        limitOhm: reading.limitOhm,
+        limitKind: reading.limitKind,
+        verdict: reading.verdict,
+        source: reading.source,
+        ruleId: reading.ruleId,
+        profileVersion: reading.profileVersion,
+        takenById: reading.takenBy,
+        takenBy: r.takenByName ?? '',
+        takenAt: reading.takenAt,
+      };
+    });
+}
+
+function issuesProblem(readiness: VenueReadiness) {
+  return {
+    issues: describedIssues(readiness),
+    strips: readiness.strips
+      .filter((s) => s.state !== 'ready' && s.state !== 'withdrawn' && s.state !== 'exception')
+      .map((s) => ({ stripId: s.stripId, label: s.label, state: s.state, missing: s.missing, failing: s.failing, openFaults: s.openFaults })),
+  };
+}
+
+export type Snapshot = ReturnType<typeof snapshot>;
+
+/** The snapshot and its readiness, with the strips left out at sign-off. */
+export function readinessOf(db: Db | Tx, venueId: string, exceptions: ExceptionInput[] = []) {
+  const snap = snapshot(db, venueId);
+  return { snap, readiness: venueReadiness(snap.inputs, exceptions) };
+}
+
+/** The readiness answer's issues, each with its sentence. */
+export const describedIssues = (readiness: VenueReadiness) => readiness.issues.map((i) => ({ ...i, message: describeIssue(i) }));
+
+/** Ready to sign with these exceptions, else 422 (an exception names no strip of the venue) or 409 (not ready). */
+export function requireReady(db: Db, venueId: string, exceptions: ExceptionInput[]) {
+  const { snap, readiness } = readinessOf(db, venueId, exceptions);
+  const known = new Set(snap.stripRows.map((s) => s.id));
+  const unknown = exceptions.filter((e) => !known.has(e.stripId));
+  if (unknown.length > 0) {
+    throw unprocessable('unknown-strip', 'An exception names a strip that is not in this venue.', {
+      errors: unknown.map((e) => ({ path: `exceptions.${exceptions.indexOf(e)}.stripId`, message: 'Not a strip of this venue.' })),
+    });
+  }
+  if (!readiness.ready) {
+    throw conflict('not-ready', 'The venue is not ready to sign off: some readings are missing or failing.', issuesProblem(readiness));
+  }
+  return { snap, readiness };
+}

@@ -1,0 +1,175 @@
+// Sign-off, step two: the certificates in memory. A number for the venue and for each ready strip,
+// the payload of each, signed (Ed25519 JWS) and rendered to PDF; nothing is written yet.
+import type { Db } from '../db/client';
+import type { AuthUser } from '../auth/types';
+import type { VenueCtx } from './plan-edit';
+import { certificatesRepository } from '../db/certificates.repository';
+import type { SignOffRepository } from '../db/sign-off.repository';
+import { sha256Hex } from '../lib/ids';
+import { signCertificatePayload, type SigningKey } from '../signing/signing-keys';
+import {
+  CERTIFICATE_FORMAT,
+  SCOPE_SENTENCE,
+  newCertificateNumber,
+  readingsDigest,
+  verifyUrlFor,
+  type CertificatePayload,
+  type CertifiedReading,
+} from '../signing/certificate-record';
+import { renderCertificatePdf } from '../pdf/certificate-pdf';
+import type { Snapshot } from './sign-off-readiness';
+import type { LimitRule } from '../../shared/domain/limits';
+import type { VenueReadiness } from '../../shared/domain/readiness';
+import { formatOhm } from '../../shared/domain/units';
+import type { CertificateKind } from '../../shared/domain/certificate-number';
+
+export const DEFAULT_STATEMENT =
+  'I have reviewed the readings listed in this certificate and sign the venue off for competition.';
+
+/** The limit of a rule in words, for the certificate's list of limits and sources. */
+export function ruleLimitText(r: LimitRule): string {
+  const parts: string[] = [];
+  if (r.maxOhm !== undefined) parts.push(`max ${formatOhm(r.maxOhm)}`);
+  if (r.maxOhmPerMetre !== undefined)
+    parts.push(`max ${formatOhm(r.maxOhmPerMetre)}/m${r.connectorAllowanceOhm ? ` + ${formatOhm(r.connectorAllowanceOhm)}` : ''}`);
+  if (r.minOhm !== undefined) parts.push(`min ${formatOhm(r.minOhm)}`);
+  if (r.nearLimitFraction !== undefined) parts.push(`near limit above ${Math.round(r.nearLimitFraction * 100)} %`);
+  if (r.nearMinOhm !== undefined) parts.push(`near limit below ${formatOhm(r.nearMinOhm)}`);
+  return parts.join(', ') || 'no value';
+}
+
+/** Who signs what, and when: everything a payload names besides its readings. */
+export interface SigningContext {
+  row: VenueCtx;
+  signer: AuthUser & { displayName: string };
+  organisation: { id: string; name: string };
+  profile: NonNullable<ReturnType<SignOffRepository['profile']>>;
+  signedAt: string;
+  statement: string;
+  origin: string;
+}
+
+export interface Draft {
+  payload: CertificatePayload;
+  readings: CertifiedReading[];
+  stripId: string | null;
+}
+
+export interface IssuedCertificate extends Draft {
+  canonical: string;
+  jws: string;
+  pdf: Buffer;
+  sha256: string;
+}
+
+/** A number for the venue and for each ready strip, none of them given out before. */
+function allocateNumbers(db: Db, year: number, readiness: VenueReadiness) {
+  const taken = new Set<string>();
+  const fresh = (kind: CertificateKind) => {
+    for (;;) {
+      const n = newCertificateNumber(kind, year);
+      if (!taken.has(n) && !certificatesRepository(db).numberTaken(n)) {
+        taken.add(n);
+        return n;
+      }
+    }
+  };
+  const venueNumber = fresh('venue');
+  const stripNumbers = readiness.strips.filter((s) => s.state === 'ready').map((s) => ({ stripId: s.stripId, label: s.label, number: fresh('strip') }));
+  return { venueNumber, stripNumbers };
+}
+
+type PayloadBase = Omit<CertificatePayload, 'number' | 'kind' | 'exceptions' | 'related' | 'verifyUrl'>;
+
+/** What a certificate says about its readings: strips, items, testers, the digest, the profile. */
+function payloadBase(ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<string, string | null>): PayloadBase {
+  const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
+  const times = list.map((r) => r.takenAt).sort();
+  const strips = [...new Set(list.map((r) => r.stripId))].map((stripId) => {
+    const own = list.filter((r) => r.stripId === stripId);
+    const items = new Map<string, { position: string; kind: string; assetTag: string | null }>();
+    for (const r of own) items.set(`${r.position}|${r.assetTag}`, { position: r.position, kind: r.equipmentKind, assetTag: r.assetTag });
+    return {
+      id: stripId,
+      label: own[0].stripLabel,
+      zone: zoneOf.get(stripId) ?? null,
+      items: [...items.values()],
+      readings: own.length,
+      nearLimit: own.filter((r) => r.verdict === 'near-limit').length,
+    };
+  });
+  const { row, profile } = ctx;
+  const rules = JSON.parse(profile.rulesJson) as LimitRule[];
+  return {
+    format: CERTIFICATE_FORMAT,
+    issuer: { name: 'Stripwarden' as const, origin: ctx.origin, organisation: ctx.organisation },
+    event: { id: row.event.id, name: row.event.name, startsOn: row.event.startsOn, endsOn: row.event.endsOn },
+    venue: { id: row.venue.id, name: row.venue.name },
+    strips,
+    items: [...new Set(list.map((r) => r.assetTag).filter((t): t is string => !!t))].sort(),
+    readings: {
+      count: list.length,
+      nearLimit: list.filter((r) => r.verdict === 'near-limit').length,
+      digestAlg: 'SHA-256' as const,
+      digest: readingsDigest(list),
+    },
+    profile: {
+      id: profile.id,
+      name: profile.name,
+      version: profile.version,
+      rules: rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
+    },
+    testedBy: [...testers].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
+    testedFrom: times[0],
+    testedTo: times[times.length - 1],
+    signer: { id: ctx.signer.id, name: ctx.signer.displayName, role: 'Technical director' as const },
+    signedAt: ctx.signedAt,
+    statement: ctx.statement,
+    scope: SCOPE_SENTENCE,
+  };
+}
+
+/** The venue certificate (every certified reading, the exceptions) and one per ready strip. */
+export function draftCertificates(db: Db, ctx: SigningContext, snap: Snapshot, readiness: VenueReadiness, readings: CertifiedReading[]): Draft[] {
+  const { venueNumber, stripNumbers } = allocateNumbers(db, new Date(ctx.signedAt).getUTCFullYear(), readiness);
+  const zoneOf = new Map(snap.stripRows.map((s) => [s.id, s.zone]));
+  const venue: Draft = {
+    payload: {
+      ...payloadBase(ctx, readings, zoneOf),
+      number: venueNumber,
+      kind: 'venue',
+      exceptions: readiness.exceptions,
+      related: { venueCertificate: null, stripCertificates: stripNumbers },
+      verifyUrl: verifyUrlFor(ctx.origin, venueNumber),
+    },
+    readings,
+    stripId: null,
+  };
+  const strips = stripNumbers.map((s): Draft => {
+    const own = readings.filter((r) => r.stripId === s.stripId);
+    return {
+      payload: {
+        ...payloadBase(ctx, own, zoneOf),
+        number: s.number,
+        kind: 'strip',
+        exceptions: [],
+        related: { venueCertificate: venueNumber, stripCertificates: [] },
+        verifyUrl: verifyUrlFor(ctx.origin, s.number),
+      },
+      readings: own,
+      stripId: s.stripId,
+    };
+  });
+  return [venue, ...strips];
+}
+
+/** Each draft signed and rendered to PDF, in memory. */
+export async function renderCertificates(key: SigningKey, drafts: Draft[]): Promise<IssuedCertificate[]> {
+  const issued: IssuedCertificate[] = [];
+  for (const d of drafts) {
+    const { canonical, jws } = await signCertificatePayload(key, d.payload);
+    const pdf = await renderCertificatePdf({ payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+    issued.push({ ...d, canonical, jws, pdf, sha256: sha256Hex(pdf) });
+  }
+  return issued;
+}
