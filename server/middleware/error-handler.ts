@@ -27,9 +27,11 @@ function titleFor(status: number): string {
       412: 'Changed meanwhile',
       413: 'Too large',
       415: 'Unsupported type',
+      421: 'Misdirected request',
       422: 'Invalid input',
       428: 'Precondition required',
       429: 'Too many requests',
+      503: 'Busy',
     }[status] ?? (status >= 500 ? 'Server error' : 'Error')
   );
 }
@@ -52,7 +54,10 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
       const summary = errors.map((e) => `${e.path}: ${e.message}`).join('; ');
       return sendProblem(res, 422, 'invalid-input', `Some fields are not right — ${summary}`, { errors });
     }
-    if (err instanceof AppError) return sendProblem(res, err.status, err.code, err.message, err.extra);
+    if (err instanceof AppError) {
+      if (typeof err.extra.retryAfterSeconds === 'number') res.set('Retry-After', String(err.extra.retryAfterSeconds));
+      return sendProblem(res, err.status, err.code, err.message, err.extra);
+    }
     // body-parser and multer errors carry a status and a type.
     const e = err as { status?: number; type?: string; code?: string; message?: string };
     if (e.type === 'entity.parse.failed')
