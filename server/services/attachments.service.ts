@@ -25,8 +25,6 @@ import {
   type AttachmentOwnerType,
   type TraceAnalysisDto,
 } from '../../shared/schemas/attachments';
-import { analyseWaveform, parseTraceCsv, WaveformError } from '../../shared/domain/waveform';
-import { decimateMinMax, PLOT_MAX_POINTS } from '../../shared/domain/decimate';
 
 const PREVIEW_PX = 480;
 /** Decoding limit for photos (a "pixel bomb" is refused before it fills memory). */
@@ -167,12 +165,8 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
       } catch {
         throw unsupported('content-mismatch', 'The trace is not UTF-8 text; export it again as CSV.');
       }
-      try {
-        parseTraceCsv(text);
-      } catch (err) {
-        if (err instanceof WaveformError) throw unprocessable('trace-unreadable', `This CSV is not a trace: ${err.message}`);
-        throw err;
-      }
+      // Parsed on a worker thread: a trace may be 64 MB of text.
+      await deps.workers.run('checkTrace', { text });
       return 'text/csv';
     }
     if (!detected) {
@@ -340,55 +334,34 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
       };
     },
 
-    /** The trace through the waveform engine with the owner's item's velocity factor, and points for the plot. */
-    analysis(user: AuthUser, id: string): TraceAnalysisDto {
+    /** The trace through the waveform engine (on a worker thread) with the owner's item's velocity factor, and points for the plot. */
+    async analysis(user: AuthUser, id: string): Promise<TraceAnalysisDto> {
       const found = repo.findById(id);
       if (!found) throw notFound('That attachment');
       const row = found.attachment;
       const owner = requireOwner(user, row.ownerType, row.ownerId, 'read');
       if (row.kind !== 'trace') throw unprocessable('not-a-trace', 'Only a trace (CSV) attachment can be analysed.');
-      const trace = parseTraceCsv(store.read(row.storedName).toString('utf8'));
       const item = owner.equipment;
       const velocityFactor = item?.velocityFactor ?? null;
       const lengthM = item?.lengthM ?? null;
-      const out: TraceAnalysisDto = {
+      const result = await deps.workers.run('storedTraceAnalysis', {
+        text: store.read(row.storedName).toString('utf8'),
+        velocityFactor,
+        lengthM,
+        units: user.unitSystem,
+      });
+      return {
         attachmentId: row.id,
         originalName: row.originalName,
-        sampleCount: trace.timeS.length,
-        skippedLines: trace.skippedLines,
+        sampleCount: result.sampleCount,
+        skippedLines: result.skippedLines,
         velocityFactor,
         velocityFactorSource: item && velocityFactor !== null ? `${item.assetTag} in the register` : null,
         lengthM,
-        points: { timeS: [], volts: [] },
-        analysis: null,
-        problem: null,
+        points: result.points,
+        analysis: result.analysis,
+        problem: result.problem,
       };
-      try {
-        const a = analyseWaveform(trace, {
-          velocityFactor: velocityFactor ?? undefined,
-          lengthM: lengthM ?? undefined,
-          units: user.unitSystem,
-        });
-        out.analysis = {
-          incidentTimeS: a.markers.incident.timeS,
-          reflectionTimeS: a.markers.reflection?.timeS ?? null,
-          roundTripNs: a.roundTripNs,
-          polarity: a.polarity,
-          reflectionCoefficient: a.reflectionCoefficient,
-          riseTimeNs: a.riseTimeNs,
-          sampleIntervalNs: a.sampleIntervalNs,
-          distanceM: a.distanceM,
-          uncertaintyM: a.uncertaintyM,
-          message: a.message,
-        };
-      } catch (err) {
-        if (!(err instanceof WaveformError)) throw err;
-        out.problem = err.message;
-      }
-      // The plot keeps the samples around the automatic markers, so they sit on the drawn edges.
-      const keep = out.analysis ? [out.analysis.incidentTimeS, ...(out.analysis.reflectionTimeS === null ? [] : [out.analysis.reflectionTimeS])] : [];
-      out.points = decimateMinMax(trace.timeS, trace.volts, PLOT_MAX_POINTS, keep);
-      return out;
     },
   };
 }

@@ -21,7 +21,6 @@ import {
   type CertificatePayload,
   type CertifiedReading,
 } from '../signing/certificate-record';
-import { renderCertificatePdf } from '../pdf/certificate-pdf';
 import { certificateFiles } from '../storage/certificate-files';
 import { sha256Hex } from '../lib/ids';
 import {
@@ -147,6 +146,7 @@ export function signOffService(deps: AppDeps) {
   }
 
   async function notify(v: {
+    orgId: string;
     venueId: string;
     venueName: string;
     eventName: string;
@@ -167,7 +167,7 @@ export function signOffService(deps: AppDeps) {
         `Anyone can check a certificate, without signing in, on its verification page:\n\n${list}\n\n` +
         `The certificates cover the competition equipment tested, not the building's electrical installation.\n`;
       try {
-        await deps.mailer.send({ to: person.email, subject: `Signed off: ${v.venueName}, ${v.eventName}`, text });
+        await deps.mailer.send({ orgId: v.orgId, to: person.email, subject: `Signed off: ${v.venueName}, ${v.eventName}`, text });
       } catch (err) {
         // The sign-off stands; the certificates page has everything the e-mail links to.
         deps.log.error(`sign-off e-mail to ${person.email} failed`, err);
@@ -318,7 +318,9 @@ export function signOffService(deps: AppDeps) {
       const issued: ((typeof drafts)[number] & { canonical: string; jws: string; pdf: Buffer; sha256: string; fileName: string })[] = [];
       for (const d of drafts) {
         const { canonical, jws } = await signCertificatePayload(key, d.payload);
-        const pdf = await renderCertificatePdf({ payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+        // Rendered on a worker thread: a 120-strip venue's annex is seconds of CPU.
+        const rendered = await deps.workers.run('renderCertificatePdf', { payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+        const pdf = Buffer.from(rendered.buffer, rendered.byteOffset, rendered.byteLength);
         issued.push({ ...d, canonical, jws, pdf, sha256: sha256Hex(pdf), fileName: files.nameFor(d.payload.number) });
       }
       const written: string[] = [];
@@ -379,6 +381,7 @@ export function signOffService(deps: AppDeps) {
       }
 
       await notify({
+        orgId: row.event.orgId,
         venueId,
         venueName: row.venue.name,
         eventName: row.event.name,
