@@ -21,7 +21,7 @@ export interface AccountThrottleOptions {
 export const ACCOUNT_THROTTLE: AccountThrottleOptions = { freeFailures: 5, windowMs: 15 * 60_000, maxDelayMs: 60_000, maxEntries: 50_000 };
 
 export function accountThrottle(opts: AccountThrottleOptions) {
-  const now = opts.now ?? Date.now;
+  const now = opts.now ?? (() => Date.now());
   const entries = new Map<string, { failures: number; lastAt: number }>();
 
   function current(key: string) {

@@ -49,6 +49,11 @@ export function privateKeyFromText(text: string, what = 'The signing key'): KeyO
     } catch {
       throw new Error(`${what} is a JWK that does not read as a private key (expected kty "OKP", crv "Ed25519" and valid "x" and "d").`);
     }
+    // Node derives the public key from "d" alone: a "x" that does not match means the file is damaged.
+    const x = (jwk as { x?: unknown }).x;
+    if (key.asymmetricKeyType === 'ed25519' && x !== undefined && publicJwkOf(key).x !== x) {
+      throw new Error(`${what} is damaged: its public part ("x") does not belong to its private part ("d").`);
+    }
   }
   if (key.asymmetricKeyType !== 'ed25519') {
     throw new Error(`${what} must be an Ed25519 private key, not ${key.asymmetricKeyType ?? 'unknown'}.`);

@@ -29,7 +29,9 @@ export function createWorkerPool(opts: WorkerPoolOptions) {
     filename: new URL('./worker-entry.mjs', import.meta.url).href,
     minThreads: 0,
     maxThreads: opts.threads,
-    maxQueue: opts.queue,
+    // The bound is kept below (inFlight); piscina's own queue also holds jobs waiting for a thread
+    // that is still starting, so it gets room for all of them.
+    maxQueue: opts.threads + opts.queue,
     idleTimeout: opts.idleTimeoutMs ?? 5 * 60_000,
     // Not the parent's flags: the entry file registers what the thread needs (see worker-entry.mjs).
     execArgv: [],
