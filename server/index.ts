@@ -38,7 +38,7 @@ const server = app.listen(env.PORT, env.HOST, () => {
   const url = env.APP_ORIGIN;
   console.log(`
   Stripwarden is running at ${url}
-  E-mail: ${fakeSmtpPort ? `local fake SMTP on 127.0.0.1:${fakeSmtpPort} (messages under People › Outbox)` : 'SMTP_URL'}
+  E-mail: ${fakeSmtpPort ? `local fake SMTP on 127.0.0.1:${fakeSmtpPort} (messages under People › Outbox; one-time links are printed here)` : 'SMTP_URL'}
 
   Demo sign-ins (password demo-strip-2026, demo only):
     ada@lakeshore.example    admin
