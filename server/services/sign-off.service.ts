@@ -34,6 +34,8 @@ import type { LimitRule } from '../../shared/domain/limits';
 import { formatOhm } from '../../shared/domain/units';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
 
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
 export const DEFAULT_STATEMENT =
   'I have reviewed the readings listed in this certificate and sign the venue off for competition.';
 
@@ -213,6 +215,9 @@ export function signOffService(deps: AppDeps) {
         throw conflict('not-ready', 'The venue is not ready to sign off: some readings are missing or failing.', issuesProblem(readiness));
       }
 
+      // The event loop gets a turn between the long synchronous steps of a large venue, so
+      // readings arriving meanwhile wait for one step, not for all of them.
+      await yieldToEventLoop();
       const readings = certifiedReadings(snap, readiness);
       const digest = readingsDigest(readings);
       const profile = repo.profile(row.venue.profileId)!;
@@ -327,9 +332,10 @@ export function signOffService(deps: AppDeps) {
       const signOffId = newId();
       try {
         for (const c of issued) {
-          files.write(c.fileName, c.pdf);
+          await files.writeAsync(c.fileName, c.pdf);
           written.push(c.fileName);
         }
+        await yieldToEventLoop();
         deps.db.transaction((tx) => {
           const txRepo = signOffRepository(tx);
           // Nothing may have changed while we signed: same venue version, same readings.

@@ -1,6 +1,7 @@
 // Issued certificate PDFs, kept as files in the data folder under names the server makes
 // (the certificate number), never a name from a request (OWASP ASVS 5.3.2).
 import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { PRIVATE_FILE_MODE, privateDir, tightenFilesIn } from './private-files';
 
@@ -23,6 +24,11 @@ export function certificateFiles(dataDir: string) {
     write(name: string, data: Buffer) {
       privateDir(dir);
       writeFileSync(pathOf(name), data, { flag: 'wx', mode: PRIVATE_FILE_MODE });
+    },
+    /** The same, without holding the event loop while a large venue's files are written. */
+    async writeAsync(name: string, data: Buffer) {
+      privateDir(dir);
+      await writeFile(pathOf(name), data, { flag: 'wx', mode: PRIVATE_FILE_MODE });
     },
     read: (name: string) => readFileSync(pathOf(name)),
     remove: (name: string) => rmSync(pathOf(name), { force: true }),
