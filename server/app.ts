@@ -17,7 +17,7 @@ import { authRoutes } from './routes/auth.routes';
 import { usersRoutes } from './routes/users.routes';
 import { venuesRoutes } from './routes/venues.routes';
 import { stripsRoutes } from './routes/strips.routes';
-import { readingsRoutes } from './routes/readings.routes';
+import { READINGS_BATCH_BODY_LIMIT, readingsRoutes } from './routes/readings.routes';
 import { faultsRoutes } from './routes/faults.routes';
 import { boardRoutes } from './routes/board.routes';
 import { equipmentRoutes } from './routes/equipment.routes';
@@ -115,6 +115,8 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
 
   const api = express.Router();
   // strict: false so a bare JSON value (5, "x") reaches the schema and gets its 422, not a parse error.
+  // A batch of readings has a larger allowance; the general parser then leaves its parsed body alone.
+  api.use('/readings/batch', express.json({ limit: READINGS_BATCH_BODY_LIMIT, strict: false }));
   api.use(express.json({ limit: '100kb', strict: false }));
   api.use(cookieParser());
   // Checking a certificate file stores nothing and is public: outside tools (a script, curl) may
