@@ -11,6 +11,7 @@ import { attachmentsRepository, type AttachmentRow } from '../db/attachments.rep
 import type { EquipmentRow } from '../db/equipment.repository';
 import { writeAudit } from '../db/audit.repository';
 import { attachmentStore, type AttachmentStore } from '../storage/attachment-store';
+import { ownBytes } from '../workers/pool';
 import { PhotoMetadataError, removeIdentifyingMetadata } from '../storage/photo-metadata';
 import { accessService } from './access.service';
 import { AppError, conflict, forbidden, notFound, unprocessable } from '../lib/app-error';
@@ -160,14 +161,9 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
         throw unsupported('content-mismatch', `The file is named .${ext} but its content is ${detected.mime}; a trace is a text (CSV) file.`);
       }
       if (bytes.includes(0)) throw unsupported('content-mismatch', 'The file is named as a CSV trace but holds binary data (NUL bytes).');
-      let text: string;
-      try {
-        text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-      } catch {
-        throw unsupported('content-mismatch', 'The trace is not UTF-8 text; export it again as CSV.');
-      }
-      // Parsed on a worker thread: a trace may be 64 MB of text.
-      await deps.workers.run('checkTrace', { text });
+      // Decoded and parsed on a worker thread (a trace may be 64 MB), from a copy: the bytes are stored next.
+      const copy = new Uint8Array(bytes);
+      await deps.workers.run('checkTrace', { bytes: copy }, [copy.buffer]);
       return 'text/csv';
     }
     if (!detected) {
@@ -360,12 +356,13 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
       const item = owner.equipment;
       const velocityFactor = item?.velocityFactor ?? null;
       const lengthM = item?.lengthM ?? null;
+      const bytes = ownBytes(await store.readAsync(row.storedName));
       const result = await deps.workers.run('storedTraceAnalysis', {
-        text: store.read(row.storedName).toString('utf8'),
+        bytes,
         velocityFactor,
         lengthM,
         units: user.unitSystem,
-      });
+      }, [bytes.buffer]);
       return {
         attachmentId: row.id,
         originalName: row.originalName,

@@ -3,7 +3,7 @@ import type { FaultLocationRequest } from '../../shared/schemas/fault-location';
 import type { WaveformAnswer, WaveformQuery } from '../../shared/schemas/waveforms';
 import type { AuthUser } from '../auth/types';
 import { unprocessable } from '../lib/app-error';
-import type { WorkerPool } from '../workers/pool';
+import { ownBytes, type WorkerPool } from '../workers/pool';
 
 /**
  * Pure computation, no database: any signed-in user may ask where a fault is. The engine in
@@ -32,8 +32,9 @@ export function faultLocationService(workers: WorkerPool) {
   }
 
   /** The trace is parsed and analysed on a worker thread (server/workers/jobs.ts): it may be 2 million samples. */
-  function analyse(user: AuthUser, csv: string, query: WaveformQuery): Promise<WaveformAnswer> {
-    return workers.run('waveformAnswer', { csv, query, units: user.unitSystem });
+  function analyse(user: AuthUser, body: Buffer, charset: string | undefined, query: WaveformQuery): Promise<WaveformAnswer> {
+    const bytes = ownBytes(body);
+    return workers.run('waveformAnswer', { bytes, charset, query, units: user.unitSystem }, [bytes.buffer]);
   }
 
   return { locate, analyse };

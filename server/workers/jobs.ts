@@ -8,7 +8,7 @@ import { analyseWaveform, parseTraceCsv, WaveformError, type WaveformAnalysis } 
 import type { LengthSystem } from '../../shared/domain/units';
 import type { WaveformAnswer, WaveformQuery } from '../../shared/schemas/waveforms';
 import type { TraceAnalysisDto } from '../../shared/schemas/attachments';
-import { unprocessable } from '../lib/app-error';
+import { AppError, unprocessable } from '../lib/app-error';
 import type { Sheet, SheetLimits } from '../lib/spreadsheet';
 import type { CertificateDocument } from '../pdf/certificate-pdf';
 
@@ -25,6 +25,17 @@ function asUnprocessable(err: unknown): unknown {
 function withoutInputs(estimate: NonNullable<WaveformAnalysis['estimate']>): FaultLocationAnswer {
   const { inputs: _inputs, ...answer } = estimate;
   return answer;
+}
+
+/** Text of an uploaded trace in the charset its request named (UTF-8 when none); 415 for one we cannot read. */
+function decodeTrace(bytes: Uint8Array, charset: string | undefined): string {
+  let decoder: TextDecoder;
+  try {
+    decoder = new TextDecoder(charset ?? 'utf-8');
+  } catch {
+    throw new AppError(415, 'unsupported-encoding', `The charset "${String(charset).slice(0, 40)}" is not supported; send the trace as UTF-8.`);
+  }
+  return decoder.decode(bytes);
 }
 
 /** POST /api/waveforms/analyse: the engine's analysis of a CSV trace, worded in the asker's units. */
@@ -49,8 +60,14 @@ export function waveformAnswer(csv: string, query: WaveformQuery, units: LengthS
   };
 }
 
-/** An uploaded CSV must parse as a trace; else 422. */
-export function checkTrace(text: string): { sampleCount: number } {
+/** An uploaded CSV must be UTF-8 text (else 415) and parse as a trace (else 422). */
+export function checkTrace(bytes: Uint8Array): { sampleCount: number } {
+  let text: string;
+  try {
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new AppError(415, 'content-mismatch', 'The trace is not UTF-8 text; export it again as CSV.');
+  }
   try {
     return { sampleCount: parseTraceCsv(text).timeS.length };
   } catch (err) {
@@ -91,9 +108,11 @@ export function storedTraceAnalysis(text: string, opts: { velocityFactor: number
 
 /** Every job a worker runs, by name: its input and what it answers. */
 export const jobs = {
-  waveformAnswer: (a: { csv: string; query: WaveformQuery; units: LengthSystem }) => waveformAnswer(a.csv, a.query, a.units),
-  checkTrace: (a: { text: string }) => checkTrace(a.text),
-  storedTraceAnalysis: (a: { text: string; velocityFactor: number | null; lengthM: number | null; units: LengthSystem }) => storedTraceAnalysis(a.text, a),
+  waveformAnswer: (a: { bytes: Uint8Array; charset: string | undefined; query: WaveformQuery; units: LengthSystem }) =>
+    waveformAnswer(decodeTrace(a.bytes, a.charset), a.query, a.units),
+  checkTrace: (a: { bytes: Uint8Array }) => checkTrace(a.bytes),
+  storedTraceAnalysis: (a: { bytes: Uint8Array; velocityFactor: number | null; lengthM: number | null; units: LengthSystem }) =>
+    storedTraceAnalysis(new TextDecoder('utf-8').decode(a.bytes), a),
   // The workbook reader and the PDF renderer are large: loaded by a worker when it first needs them.
   readSheet: async (a: { bytes: Uint8Array; fileName: string; limits: SheetLimits }): Promise<Sheet> => {
     const { readSheet } = await import('../lib/spreadsheet');

@@ -24,6 +24,15 @@ export const defaultWorkerPoolOptions = (): WorkerPoolOptions => ({
 
 const BUSY_RETRY_SECONDS = 5;
 
+/**
+ * The bytes in an ArrayBuffer of their own, so it can be moved to a worker: a Buffer may be a view
+ * into a larger shared pool (then it is copied once, which is still cheaper than cloning a string).
+ */
+export function ownBytes(b: Uint8Array): Uint8Array<ArrayBuffer> {
+  if (b.byteOffset === 0 && b.byteLength === b.buffer.byteLength && b.buffer instanceof ArrayBuffer) return b as Uint8Array<ArrayBuffer>;
+  return new Uint8Array(b);
+}
+
 export function createWorkerPool(opts: WorkerPoolOptions) {
   const piscina = new Piscina({
     filename: new URL('./worker-entry.mjs', import.meta.url).href,
@@ -41,7 +50,7 @@ export function createWorkerPool(opts: WorkerPoolOptions) {
 
   return {
     /** Runs a job of jobs.ts on a worker; rethrows the AppError it threw; 503 when the pool is full. */
-    async run<N extends JobName>(job: N, input: Parameters<Jobs[N]>[0]): Promise<Awaited<ReturnType<Jobs[N]>>> {
+    async run<N extends JobName>(job: N, input: Parameters<Jobs[N]>[0], transfer: ArrayBuffer[] = []): Promise<Awaited<ReturnType<Jobs[N]>>> {
       if (inFlight >= limit) {
         throw new AppError(
           503,
@@ -52,7 +61,8 @@ export function createWorkerPool(opts: WorkerPoolOptions) {
       }
       inFlight++;
       try {
-        const out = (await piscina.run({ job, input })) as WorkerOutcome;
+        // Transferred buffers are moved to the worker (no copy); they are unusable here afterwards.
+        const out = (await piscina.run({ job, input }, transfer.length ? { transferList: transfer } : undefined)) as WorkerOutcome;
         if (!out.ok) throw new AppError(out.appError.status, out.appError.code, out.appError.message, out.appError.extra);
         return out.value as Awaited<ReturnType<Jobs[N]>>;
       } finally {
