@@ -1,9 +1,11 @@
 // The tablet's outbox: readings typed on the testing screen, kept in IndexedDB until the server
 // has them. Written to disk before the screen moves on, so a reload, a crash or a closed browser
-// loses nothing; replayed in typing order when the network is there (at start, on the browser's
-// online event, and on a backoff timer). Replays are safe: the server knows a reading by its id.
+// loses nothing; replayed in typing order when the network is there (at start, when the
+// server can be reached again, and on a backoff timer). Replays are safe: the server knows a
+// reading by its id.
 import { createStore, del, entries, set } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
+import { connectionStore, serverAnswered, serverDidNotAnswer, startConnectionWatch } from './connection';
 import {
   addToQueue,
   applyOutcome,
@@ -22,6 +24,7 @@ export interface OutboxState {
   items: QueuedReading[];
   /** A pass is sending right now. */
   syncing: boolean;
+  /** The server can be reached (./connection.ts: its answers decide, not navigator.onLine alone). */
   online: boolean;
   userId: string | null;
   /** Why the last pass stopped early, for the list page ("the server did not answer"). */
@@ -43,7 +46,7 @@ let state: OutboxState = {
   loaded: false,
   items: [],
   syncing: false,
-  online: typeof navigator === 'undefined' ? true : navigator.onLine,
+  online: connectionStore.getSnapshot(),
   userId: null,
   lastStop: null,
 };
@@ -169,6 +172,8 @@ async function pass(force: boolean) {
     let progressed = false;
     for (const item of send) {
       const { answer, reading } = await sendReading(item.body);
+      if (answer.kind === 'network') serverDidNotAnswer();
+      else serverAnswered();
       const outcome = classifyAnswer(answer);
       const next = applyOutcome(item, outcome, Date.now());
       if (next) await put(next);
@@ -192,11 +197,8 @@ async function pass(force: boolean) {
 
 /** Sends what is due, in typing order; `force` ignores the backoff (the network just came back). */
 export function flush(opts: { force?: boolean } = {}): Promise<void> {
-  if (!state.userId || !state.loaded) return Promise.resolve();
-  if (typeof navigator !== 'undefined' && !navigator.onLine) {
-    setState({ online: false });
-    return Promise.resolve();
-  }
+  // Offline, nothing is tried: the connection check says when the server is back.
+  if (!state.userId || !state.loaded || !state.online) return Promise.resolve();
   if (running) {
     again = true;
     return running;
@@ -225,11 +227,14 @@ export function setOutboxUser(userId: string | null) {
 export function startOutbox() {
   if (started || typeof window === 'undefined') return;
   started = true;
-  window.addEventListener('online', () => {
-    setState({ online: true });
-    void flush({ force: true });
+  setState({ online: connectionStore.getSnapshot() });
+  connectionStore.subscribe(() => {
+    const online = connectionStore.getSnapshot();
+    if (online === state.online) return;
+    setState({ online });
+    if (online) void flush({ force: true });
   });
-  window.addEventListener('offline', () => setState({ online: false }));
+  startConnectionWatch();
   if ('BroadcastChannel' in window) {
     channel = new BroadcastChannel(LOCK);
     channel.onmessage = () => void load();
