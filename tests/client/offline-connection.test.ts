@@ -156,12 +156,18 @@ describe('the browser\'s own network events', () => {
     await typeReading(outbox);
     expect(indicator(outbox)).toBe('offline');
 
+    // The browser's word is enough to try sending, not to say online.
+    const seen = new Set<SyncState>();
+    outbox.outboxStore.subscribe(() => seen.add(indicator(outbox)));
     nav.onLine = true;
     win.dispatchEvent(new Event('online'));
     expect(indicator(outbox)).toBe('offline');
+    await until(outbox, () => server.requests.includes('POST /api/readings') && !outbox.outboxStore.getSnapshot().syncing);
     await answersSettled();
-    expect(server.requests).toEqual(['GET /api/health']);
     expect(indicator(outbox)).toBe('offline');
+    expect([...seen].filter((s) => s !== 'offline' && s !== 'syncing')).toEqual([]);
+    expect(server.requests).toContain('GET /api/health');
+    expect(outbox.outboxStore.getSnapshot().items.map((i) => i.status)).toEqual(['waiting']);
 
     server.up = true;
     win.dispatchEvent(new Event('online'));
