@@ -125,6 +125,7 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await expect(page.getByTestId('queued')).toHaveCount(28);
   await expect(page.getByTestId('queued').filter({ hasText: 'Pass' })).toHaveCount(28);
   await expect(indicator(page)).toHaveText('Offline · 28 readings waiting');
+  await page.screenshot({ path: test.info().outputPath('offline-after-reload.png'), fullPage: true });
   // Walking to the next strip works offline too.
   await page.goto(nextStripId);
   await expect(page.getByRole('heading', { name: 'Strip 21 — testing' })).toBeVisible();
