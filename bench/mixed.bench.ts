@@ -51,7 +51,11 @@ async function fetchOnce(url: string, init: RequestInit): Promise<Response> {
 function client(base: string, cookie: string) {
   const headers = { Cookie: cookie, Origin: base, 'Content-Type': 'application/json' };
   const call = async (method: string, path: string, body?: unknown, extra: Record<string, string> = {}) => {
-    const res = await fetchOnce(`${base}${path}`, { method, headers: { ...headers, ...extra }, body: body === undefined ? undefined : JSON.stringify(body) });
+    const res = await fetchOnce(`${base}${path}`, {
+      method,
+      headers: { ...headers, ...extra },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
     const text = await res.text();
     return { status: res.status, etag: res.headers.get('etag') ?? '', body: (text ? JSON.parse(text) : null) as Json & Json[] };
   };
@@ -65,15 +69,22 @@ async function readyVenue(base: string, marco: ReturnType<typeof client>) {
   const venue = await marco.call('POST', `/api/events/${events[0]!.id}/venues`, { name: 'Bench Arena', profileId: profiles[0]!.id });
   if (venue.status !== 201) throw new Error(`venue: ${venue.status} ${JSON.stringify(venue.body)}`);
   const venueId = (venue.body.venue as { id: string }).id;
-  const bulk = await marco.call('POST', `/api/venues/${venueId}/strips/bulk`, { count: STRIPS, prefix: 'Strip ', startAt: 1 }, { 'If-Match': venue.etag });
+  const bulk = await marco.call(
+    'POST',
+    `/api/venues/${venueId}/strips/bulk`,
+    { count: STRIPS, prefix: 'Strip ', startAt: 1 },
+    { 'If-Match': venue.etag },
+  );
   if (bulk.status !== 201) throw new Error(`strips: ${bulk.status} ${JSON.stringify(bulk.body)}`);
   const strips = bulk.body.strips as { positions: { steps: { id: string; testKind: string }[] }[] }[];
   const steps = strips.flatMap((s) => s.positions.flatMap((p) => p.steps));
   // The director records them (as a technician would), 32 at a time.
   for (let i = 0; i < steps.length; i += 32) {
-    const batch = steps.slice(i, i + 32).map((st) =>
-      marco.call('POST', '/api/readings', { id: uuidv7(), stepId: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' }),
-    );
+    const batch = steps
+      .slice(i, i + 32)
+      .map((st) =>
+        marco.call('POST', '/api/readings', { id: uuidv7(), stepId: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' }),
+      );
     for (const r of await Promise.all(batch)) if (r.status !== 201) throw new Error(`reading: ${r.status} ${JSON.stringify(r.body)}`);
   }
   return { venueId, steps };
@@ -91,8 +102,11 @@ export async function run(): Promise<BenchResult> {
     const hallStrips = (await sam.call('GET', `/api/venues/${hall.id}/strips`)).body as unknown as { id: string }[];
     const hallSteps: { id: string; value: string }[] = [];
     for (const s of hallStrips) {
-      const strip = (await sam.call('GET', `/api/strips/${s.id}`)).body as unknown as { positions: { steps: { id: string; testKind: string }[] }[] };
-      for (const p of strip.positions) for (const st of p.steps) hallSteps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
+      const strip = (await sam.call('GET', `/api/strips/${s.id}`)).body as unknown as {
+        positions: { steps: { id: string; testKind: string }[] }[];
+      };
+      for (const p of strip.positions)
+        for (const st of p.steps) hallSteps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
     }
     let next = 0;
     const readings = (seconds: number) =>
@@ -109,7 +123,10 @@ export async function run(): Promise<BenchResult> {
             headers: sam.headers,
             setupRequest: (req) => {
               const step = hallSteps[next++ % hallSteps.length]!;
-              return { ...req, body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString() }) };
+              return {
+                ...req,
+                body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString() }),
+              };
             },
           },
         ],
@@ -120,7 +137,11 @@ export async function run(): Promise<BenchResult> {
     const jobs = { analyses: 0, signOffs: 0, analysisMs: [] as number[], signOffMs: [] as number[], refused: 0 };
     const analyse = async () => {
       const t0 = performance.now();
-      const res = await fetchOnce(`${server.base}/api/waveforms/analyse?velocityFactor=0.66`, { method: 'POST', headers: { ...sam.headers, 'Content-Type': 'text/csv' }, body: csv });
+      const res = await fetchOnce(`${server.base}/api/waveforms/analyse?velocityFactor=0.66`, {
+        method: 'POST',
+        headers: { ...sam.headers, 'Content-Type': 'text/csv' },
+        body: csv,
+      });
       await res.arrayBuffer();
       if (res.status === 503) jobs.refused++;
       else if (res.status !== 200) throw new Error(`analysis: ${res.status}`);
@@ -138,7 +159,11 @@ export async function run(): Promise<BenchResult> {
       }
       // A new reading re-opens the venue for the next round.
       const st = arena.steps[0]!;
-      const again = await marco.call('POST', '/api/readings', { id: uuidv7(), stepId: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
+      const again = await marco.call('POST', '/api/readings', {
+        id: uuidv7(),
+        stepId: st.id,
+        value: st.testKind === 'insulation' ? 'OL' : '0.45',
+      });
       if (again.status !== 201) throw new Error(`re-open: ${again.status}`);
     };
 

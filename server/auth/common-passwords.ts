@@ -6,8 +6,7 @@
 import { AppError } from '../lib/app-error';
 
 let common: Promise<Set<string>> | null = null;
-const commonList = () =>
-  (common ??= import('@zxcvbn-ts/language-common').then((m) => new Set(m.dictionary['passwords-common'])));
+const commonList = () => (common ??= import('@zxcvbn-ts/language-common').then((m) => new Set(m.dictionary['passwords-common'])));
 
 /** The words a password of this product must not be, besides the list: its name and the person's own. */
 function contextWords(person: { email: string; name: string }): string[] {

@@ -16,6 +16,7 @@ export function failedPasswordLimiter(limit: number, what: string) {
     keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
     skipSuccessfulRequests: true,
     requestWasSuccessful: (_req, res) => res.statusCode !== 401,
-    handler: (_req, res) => sendProblem(res, 429, 'too-many-attempts', `Too many failed ${what} from this address. Wait a few minutes and try again.`),
+    handler: (_req, res) =>
+      sendProblem(res, 429, 'too-many-attempts', `Too many failed ${what} from this address. Wait a few minutes and try again.`),
   });
 }

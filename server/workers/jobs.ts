@@ -33,7 +33,11 @@ function decodeTrace(bytes: Uint8Array, charset: string | undefined): string {
   try {
     decoder = new TextDecoder(charset ?? 'utf-8');
   } catch {
-    throw new AppError(415, 'unsupported-encoding', `The charset "${String(charset).slice(0, 40)}" is not supported; send the trace as UTF-8.`);
+    throw new AppError(
+      415,
+      'unsupported-encoding',
+      `The charset "${String(charset).slice(0, 40)}" is not supported; send the trace as UTF-8.`,
+    );
   }
   return decoder.decode(bytes);
 }
@@ -79,11 +83,24 @@ export function checkTrace(bytes: Uint8Array): { sampleCount: number } {
 export type StoredTraceAnalysis = Pick<TraceAnalysisDto, 'sampleCount' | 'skippedLines' | 'points' | 'analysis' | 'problem'>;
 
 /** A stored trace with its item's velocity factor and length: the analysis, or why there is none, and the plot. */
-export function storedTraceAnalysis(text: string, opts: { velocityFactor: number | null; lengthM: number | null; units: LengthSystem }): StoredTraceAnalysis {
+export function storedTraceAnalysis(
+  text: string,
+  opts: { velocityFactor: number | null; lengthM: number | null; units: LengthSystem },
+): StoredTraceAnalysis {
   const trace = parseTraceCsv(text);
-  const out: StoredTraceAnalysis = { sampleCount: trace.timeS.length, skippedLines: trace.skippedLines, points: { timeS: [], volts: [] }, analysis: null, problem: null };
+  const out: StoredTraceAnalysis = {
+    sampleCount: trace.timeS.length,
+    skippedLines: trace.skippedLines,
+    points: { timeS: [], volts: [] },
+    analysis: null,
+    problem: null,
+  };
   try {
-    const a = analyseWaveform(trace, { velocityFactor: opts.velocityFactor ?? undefined, lengthM: opts.lengthM ?? undefined, units: opts.units });
+    const a = analyseWaveform(trace, {
+      velocityFactor: opts.velocityFactor ?? undefined,
+      lengthM: opts.lengthM ?? undefined,
+      units: opts.units,
+    });
     out.analysis = {
       incidentTimeS: a.markers.incident.timeS,
       reflectionTimeS: a.markers.reflection?.timeS ?? null,
@@ -101,7 +118,9 @@ export function storedTraceAnalysis(text: string, opts: { velocityFactor: number
     out.problem = err.message;
   }
   // The plot keeps the samples around the automatic markers, so they sit on the drawn edges.
-  const keep = out.analysis ? [out.analysis.incidentTimeS, ...(out.analysis.reflectionTimeS === null ? [] : [out.analysis.reflectionTimeS])] : [];
+  const keep = out.analysis
+    ? [out.analysis.incidentTimeS, ...(out.analysis.reflectionTimeS === null ? [] : [out.analysis.reflectionTimeS])]
+    : [];
   out.points = decimateMinMax(trace.timeS, trace.volts, PLOT_MAX_POINTS, keep);
   return out;
 }

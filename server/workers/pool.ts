@@ -50,7 +50,11 @@ export function createWorkerPool(opts: WorkerPoolOptions) {
 
   return {
     /** Runs a job of jobs.ts on a worker; rethrows the AppError it threw; 503 when the pool is full. */
-    async run<N extends JobName>(job: N, input: Parameters<Jobs[N]>[0], transfer: ArrayBuffer[] = []): Promise<Awaited<ReturnType<Jobs[N]>>> {
+    async run<N extends JobName>(
+      job: N,
+      input: Parameters<Jobs[N]>[0],
+      transfer: ArrayBuffer[] = [],
+    ): Promise<Awaited<ReturnType<Jobs[N]>>> {
       if (inFlight >= limit) {
         throw new AppError(
           503,

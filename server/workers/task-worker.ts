@@ -5,8 +5,7 @@ import { AppError } from '../lib/app-error';
 import { jobs, type JobName } from './jobs';
 
 export type WorkerOutcome =
-  | { ok: true; value: unknown }
-  | { ok: false; appError: { status: number; code: string; message: string; extra: AppError['extra'] } };
+  { ok: true; value: unknown } | { ok: false; appError: { status: number; code: string; message: string; extra: AppError['extra'] } };
 
 export default async function runJob(task: { job: JobName; input: unknown }): Promise<WorkerOutcome> {
   const job = jobs[task.job] as (input: unknown) => unknown;
@@ -14,7 +13,8 @@ export default async function runJob(task: { job: JobName; input: unknown }): Pr
   try {
     return { ok: true, value: await job(task.input) };
   } catch (err) {
-    if (err instanceof AppError) return { ok: false, appError: { status: err.status, code: err.code, message: err.message, extra: err.extra } };
+    if (err instanceof AppError)
+      return { ok: false, appError: { status: err.status, code: err.code, message: err.message, extra: err.extra } };
     throw err;
   }
 }

@@ -74,7 +74,14 @@ describe('the outbox', () => {
     const orgId = t.db.select().from(users).where(eq(users.email, DEMO.admin)).get()!.orgId;
     const old = t.db
       .insert(capturedMail)
-      .values({ orgId, fromAddress: 'x', toAddresses: DEMO.organiser, subject: 'Reset your Stripwarden password', text: `Here: ${ORIGIN}/set-password/abcDEF123_-xyz\n`, raw: '' })
+      .values({
+        orgId,
+        fromAddress: 'x',
+        toAddresses: DEMO.organiser,
+        subject: 'Reset your Stripwarden password',
+        text: `Here: ${ORIGIN}/set-password/abcDEF123_-xyz\n`,
+        raw: '',
+      })
       .returning()
       .get();
     const ada = await t.agentFor(DEMO.admin);
@@ -177,7 +184,7 @@ describe('password guessing', () => {
     expect(wait).toBeLessThanOrEqual(60);
     expect(slowed.headers['content-type']).toMatch(/^application\/problem\+json/);
     vi.setSystemTime(Date.now() + wait * 1000);
-    const after = await from("192.0.2.51").signIn(DEMO.organiser, DEMO_PASSWORD);
+    const after = await from('192.0.2.51').signIn(DEMO.organiser, DEMO_PASSWORD);
     expect(after.status, JSON.stringify(after.body)).toBe(200);
     // The success cleared the count: a typo afterwards is an ordinary 401.
     expect((await from('192.0.2.52').signIn(DEMO.organiser, 'typo-password')).status).toBe(401);
@@ -188,7 +195,8 @@ describe('password guessing', () => {
     const { annex } = await venueIds(t);
     const marco = supertest.agent(t.app).set('Origin', ORIGIN).set('X-Forwarded-For', '203.0.113.99');
     expect((await marco.post('/api/auth/sign-in').send({ email: DEMO.director, password: DEMO_PASSWORD })).status).toBe(200);
-    for (let i = 0; i < 3; i++) expect((await marco.post(`/api/venues/${annex}/sign-off`).send({ password: 'not-my-password' })).status).toBe(401);
+    for (let i = 0; i < 3; i++)
+      expect((await marco.post(`/api/venues/${annex}/sign-off`).send({ password: 'not-my-password' })).status).toBe(401);
     const stopped = await marco.post(`/api/venues/${annex}/sign-off`).send({ password: DEMO_PASSWORD });
     expect(stopped.status).toBe(429);
     expect(Number(stopped.headers['retry-after'])).toBeGreaterThan(0);
@@ -202,7 +210,14 @@ describe('password guessing', () => {
     const marco = supertest.agent(t.app).set('Origin', ORIGIN);
     const as = (address: string) => marco.set('X-Forwarded-For', address);
     expect((await as('192.0.2.100').post('/api/auth/sign-in').send({ email: DEMO.director, password: DEMO_PASSWORD })).status).toBe(200);
-    for (let i = 0; i < 5; i++) expect((await as(`192.0.2.${110 + i}`).post(`/api/venues/${annex}/sign-off`).send({ password: 'not-my-password' })).status).toBe(401);
+    for (let i = 0; i < 5; i++)
+      expect(
+        (
+          await as(`192.0.2.${110 + i}`)
+            .post(`/api/venues/${annex}/sign-off`)
+            .send({ password: 'not-my-password' })
+        ).status,
+      ).toBe(401);
     const slowed = await as('192.0.2.120').post(`/api/venues/${annex}/sign-off`).send({ password: 'not-my-password' });
     expect(slowed.status).toBe(429);
     expect(Number(slowed.headers['retry-after'])).toBeGreaterThanOrEqual(1);
@@ -234,7 +249,10 @@ describe('choosing a password', () => {
     }
     // The person's own e-mail or name, and the product's name, count as common here (ASVS 6.2.11).
     for (const context of ['robin@lakeshore.example', 'RobinHale', 'stripwarden']) {
-      expect((await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: context })).status, context).toBe(422);
+      expect(
+        (await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: context })).status,
+        context,
+      ).toBe(422);
     }
     // The link still works: nothing was set.
     expect((await t.request.get(`/api/auth/set-password/${token}`)).status).toBe(200);
@@ -244,7 +262,10 @@ describe('choosing a password', () => {
     const token = await inviteLink('jo@lakeshore.example');
     const res = await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: DEMO_PASSWORD });
     expect(res.status).toBe(200);
-    expect((await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: 'jo@lakeshore.example', password: DEMO_PASSWORD })).status).toBe(200);
+    expect(
+      (await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: 'jo@lakeshore.example', password: DEMO_PASSWORD }))
+        .status,
+    ).toBe(200);
   });
 });
 
@@ -277,7 +298,16 @@ describe('the Host header', () => {
   });
 
   test('IP literals, localhost, the host of APP_ORIGIN and ALLOWED_HOSTS are served', async () => {
-    for (const host of ['192.168.1.20:3000', '10.0.0.5', '[::1]:3999', '[fe80::1]', 'localhost', 'LOCALHOST:3999', 'hall.lakeshore.example', 'Tablets.Example.org:8080']) {
+    for (const host of [
+      '192.168.1.20:3000',
+      '10.0.0.5',
+      '[::1]:3999',
+      '[fe80::1]',
+      'localhost',
+      'LOCALHOST:3999',
+      'hall.lakeshore.example',
+      'Tablets.Example.org:8080',
+    ]) {
       const res = await t.request.get('/api/health').set('Host', host);
       expect(res.status, host).toBe(200);
     }

@@ -52,48 +52,54 @@ describe('permissions of what the server writes', () => {
     process.umask(umask);
   });
 
-  test('a new data folder, the database with -wal and -shm, the secret, the key, certificates and attachments are owner-only', { timeout: 60_000 }, async () => {
-    const root = freshDir();
-    const dataDir = join(root, 'data');
-    const env = loadEnv({
-      DATABASE_PATH: join(dataDir, 'sw.db'),
-      APP_ORIGIN: 'http://localhost:3999',
-      PASSWORD_HASH_COST: 'test',
-      SMTP_FAKE_PORT: '0',
-      LOG_REQUESTS: 'off',
-    });
-    const { deps, close } = await buildDeps(env, quiet);
-    try {
-      await seedDemo(deps.db, deps.scrypt);
-      await currentSigningKey(deps.db, env);
-      const app = createApp(deps);
-      const origin = 'http://localhost:3999';
-      const marco = supertest.agent(app).set('Origin', origin);
-      expect((await marco.post('/api/auth/sign-in').send({ email: DEMO.director, password: DEMO_PASSWORD })).status).toBe(200);
-      const venues = (await marco.get('/api/venues')).body as { id: string; name: string }[];
-      const annex = venues.find((v) => v.name === 'Riverside Annex')!.id;
-      expect((await marco.post(`/api/venues/${annex}/sign-off`).send({ password: DEMO_PASSWORD })).status).toBe(201);
-      const item = ((await marco.get('/api/equipment')).body as { id: string }[])[0]!;
-      const trace = traceCsv(synthesiseTrace({ roundTripS: 80e-9 }));
-      expect((await marco.post(`/api/equipment/${item.id}/attachments`).attach('file', Buffer.from(trace), 'trace.csv')).status).toBe(201);
+  test(
+    'a new data folder, the database with -wal and -shm, the secret, the key, certificates and attachments are owner-only',
+    { timeout: 60_000 },
+    async () => {
+      const root = freshDir();
+      const dataDir = join(root, 'data');
+      const env = loadEnv({
+        DATABASE_PATH: join(dataDir, 'sw.db'),
+        APP_ORIGIN: 'http://localhost:3999',
+        PASSWORD_HASH_COST: 'test',
+        SMTP_FAKE_PORT: '0',
+        LOG_REQUESTS: 'off',
+      });
+      const { deps, close } = await buildDeps(env, quiet);
+      try {
+        await seedDemo(deps.db, deps.scrypt);
+        await currentSigningKey(deps.db, env);
+        const app = createApp(deps);
+        const origin = 'http://localhost:3999';
+        const marco = supertest.agent(app).set('Origin', origin);
+        expect((await marco.post('/api/auth/sign-in').send({ email: DEMO.director, password: DEMO_PASSWORD })).status).toBe(200);
+        const venues = (await marco.get('/api/venues')).body as { id: string; name: string }[];
+        const annex = venues.find((v) => v.name === 'Riverside Annex')!.id;
+        expect((await marco.post(`/api/venues/${annex}/sign-off`).send({ password: DEMO_PASSWORD })).status).toBe(201);
+        const item = ((await marco.get('/api/equipment')).body as { id: string }[])[0]!;
+        const trace = traceCsv(synthesiseTrace({ roundTripS: 80e-9 }));
+        expect((await marco.post(`/api/equipment/${item.id}/attachments`).attach('file', Buffer.from(trace), 'trace.csv')).status).toBe(
+          201,
+        );
 
-      const files = [
-        join(dataDir, 'sw.db'),
-        join(dataDir, 'sw.db-wal'),
-        join(dataDir, 'sw.db-shm'),
-        join(dataDir, 'session-secret'),
-        join(dataDir, 'signing-key.jwk'),
-        ...readdirSync(join(dataDir, 'certificates')).map((f) => join(dataDir, 'certificates', f)),
-        ...readdirSync(join(dataDir, 'attachments')).map((f) => join(dataDir, 'attachments', f)),
-      ];
-      expect(readdirSync(join(dataDir, 'certificates')).length).toBeGreaterThan(1);
-      expect(readdirSync(join(dataDir, 'attachments')).length).toBe(1);
-      for (const f of files) expect(octal(mode(f)), f).toBe('0600');
-      for (const d of [dataDir, join(dataDir, 'certificates'), join(dataDir, 'attachments')]) expect(octal(mode(d)), d).toBe('0700');
-    } finally {
-      await close();
-    }
-  });
+        const files = [
+          join(dataDir, 'sw.db'),
+          join(dataDir, 'sw.db-wal'),
+          join(dataDir, 'sw.db-shm'),
+          join(dataDir, 'session-secret'),
+          join(dataDir, 'signing-key.jwk'),
+          ...readdirSync(join(dataDir, 'certificates')).map((f) => join(dataDir, 'certificates', f)),
+          ...readdirSync(join(dataDir, 'attachments')).map((f) => join(dataDir, 'attachments', f)),
+        ];
+        expect(readdirSync(join(dataDir, 'certificates')).length).toBeGreaterThan(1);
+        expect(readdirSync(join(dataDir, 'attachments')).length).toBe(1);
+        for (const f of files) expect(octal(mode(f)), f).toBe('0600');
+        for (const d of [dataDir, join(dataDir, 'certificates'), join(dataDir, 'attachments')]) expect(octal(mode(d)), d).toBe('0700');
+      } finally {
+        await close();
+      }
+    },
+  );
 
   test('files and folders of ours left readable by an older version are tightened at start', () => {
     const dir = freshDir();
@@ -149,29 +155,33 @@ describe('a damaged key or secret file', () => {
     }
   });
 
-  test('the server started with a damaged key stops with one sentence naming the file, and never prints the key', { timeout: 60_000 }, async () => {
-    const path = join(dir, 'damaged.jwk');
-    writeFileSync(path, DAMAGED_KEYS['quotes lost'], { mode: 0o600 });
-    const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-      env: {
-        ...process.env,
-        PORT: '4414',
-        HOST: '127.0.0.1',
-        DATABASE_PATH: join(dir, 'start.db'),
-        SIGNING_KEY_PATH: path,
-        SEED_DEMO: 'never',
-        SMTP_FAKE_PORT: '0',
-        PASSWORD_HASH_COST: 'test',
-        LOG_REQUESTS: 'off',
-      },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    let output = '';
-    child.stdout!.on('data', (c: Buffer) => (output += c.toString()));
-    child.stderr!.on('data', (c: Buffer) => (output += c.toString()));
-    const code = await new Promise<number | null>((r) => child.once('exit', (c) => r(c)));
-    expect(code).toBe(1);
-    expect(output).toContain(`Stripwarden could not start: The signing key file ${path}`);
-    expect(leaksD(output), output).toBe(false);
-  });
+  test(
+    'the server started with a damaged key stops with one sentence naming the file, and never prints the key',
+    { timeout: 60_000 },
+    async () => {
+      const path = join(dir, 'damaged.jwk');
+      writeFileSync(path, DAMAGED_KEYS['quotes lost'], { mode: 0o600 });
+      const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+        env: {
+          ...process.env,
+          PORT: '4414',
+          HOST: '127.0.0.1',
+          DATABASE_PATH: join(dir, 'start.db'),
+          SIGNING_KEY_PATH: path,
+          SEED_DEMO: 'never',
+          SMTP_FAKE_PORT: '0',
+          PASSWORD_HASH_COST: 'test',
+          LOG_REQUESTS: 'off',
+        },
+        stdio: ['ignore', 'pipe', 'pipe'],
+      });
+      let output = '';
+      child.stdout!.on('data', (c: Buffer) => (output += c.toString()));
+      child.stderr!.on('data', (c: Buffer) => (output += c.toString()));
+      const code = await new Promise<number | null>((r) => child.once('exit', (c) => r(c)));
+      expect(code).toBe(1);
+      expect(output).toContain(`Stripwarden could not start: The signing key file ${path}`);
+      expect(leaksD(output), output).toBe(false);
+    },
+  );
 });

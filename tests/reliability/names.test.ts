@@ -64,9 +64,14 @@ describe('every name stored through the API is clean', () => {
       .send({ count: 1, prefix: spoofed('Piste '), startAt: 7 });
     expect(counted.status).toBe(201);
     const strip = strips.body.strips[0] as { id: string };
-    const position = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', counted.headers.etag).send({ name: spoofed('Spare reel'), equipmentKind: 'reel' });
+    const position = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', counted.headers.etag)
+      .send({ name: spoofed('Spare reel'), equipmentKind: 'reel' });
     expect(position.status).toBe(201);
-    const item = await ada.post('/api/equipment').send({ assetTag: 'RL-777', kind: 'reel', description: spoofed('Grey reel'), cableType: spoofed('3-core') });
+    const item = await ada
+      .post('/api/equipment')
+      .send({ assetTag: 'RL-777', kind: 'reel', description: spoofed('Grey reel'), cableType: spoofed('3-core') });
     expect(item.status).toBe(201);
     const person = await ada.post('/api/users').send({ email: 'kai@lakeshore.example', name: spoofed('Kai Moreno'), role: 'technician' });
     expect(person.status).toBe(201);
@@ -77,15 +82,31 @@ describe('every name stored through the API is clean', () => {
     const stored = {
       event: t.db.select().from(s.events).where(eq(s.events.id, event.body.id)).get()!.name,
       venue: t.db.select().from(s.venues).where(eq(s.venues.id, venue.body.venue.id)).get()!.name,
-      strips: t.db.select().from(s.strips).where(eq(s.strips.venueId, venue.body.venue.id)).all().map((x) => [x.label, x.zone]),
-      position: t.db.select().from(s.positions).where(eq(s.positions.stripId, strip.id)).all().map((p) => p.name),
+      strips: t.db
+        .select()
+        .from(s.strips)
+        .where(eq(s.strips.venueId, venue.body.venue.id))
+        .all()
+        .map((x) => [x.label, x.zone]),
+      position: t.db
+        .select()
+        .from(s.positions)
+        .where(eq(s.positions.stripId, strip.id))
+        .all()
+        .map((p) => p.name),
       item: t.db.select().from(s.equipment).where(eq(s.equipment.assetTag, 'RL-777')).get()!,
       person: t.db.select().from(s.users).where(eq(s.users.email, 'kai@lakeshore.example')).get()!.name,
       profile: t.db.select().from(s.limitProfiles).where(eq(s.limitProfiles.name, 'Club nights')).all().length,
     };
     expect(stored.event).toBe('Winter Open');
     expect(stored.venue).toBe('North Gym');
-    expect(stored.strips).toEqual(expect.arrayContaining([['Strip 6', 'Row A'], ['Final', 'Row A'], ['Piste 7', null]]));
+    expect(stored.strips).toEqual(
+      expect.arrayContaining([
+        ['Strip 6', 'Row A'],
+        ['Final', 'Row A'],
+        ['Piste 7', null],
+      ]),
+    );
     expect(stored.position).toContain('Spare reel');
     expect([stored.item.description, stored.item.cableType]).toEqual(['Grey reel', '3-core']);
     expect(stored.person).toBe('Kai Moreno');
@@ -98,7 +119,10 @@ describe('every name stored through the API is clean', () => {
     const ada = await t.agentFor(DEMO.admin);
     const plan = await marco.get(`/api/venues/${hall}`);
     const strip = (plan.body.strips as { id: string; label: string }[]).find((x) => x.label === 'Strip 24')!;
-    const renamed = await marco.patch(`/api/strips/${strip.id}`).set('If-Match', plan.headers.etag).send({ label: spoofed('Strip 24b') });
+    const renamed = await marco
+      .patch(`/api/strips/${strip.id}`)
+      .set('If-Match', plan.headers.etag)
+      .send({ label: spoofed('Strip 24b') });
     expect(renamed.status).toBe(200);
     expect(t.db.select().from(s.strips).where(eq(s.strips.id, strip.id)).get()!.label).toBe('Strip 24b');
     const lee = t.db.select().from(s.users).where(eq(s.users.email, DEMO.annexTechnician)).get()!;

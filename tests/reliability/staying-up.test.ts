@@ -27,7 +27,11 @@ describe('the environment', () => {
   });
 
   test('ALLOWED_HOSTS takes host names separated by commas or spaces, and refuses a URL', () => {
-    expect(loadEnv({ ALLOWED_HOSTS: 'Hall.Example.org, tablets.local  10.0.0.9' }).ALLOWED_HOSTS).toEqual(['hall.example.org', 'tablets.local', '10.0.0.9']);
+    expect(loadEnv({ ALLOWED_HOSTS: 'Hall.Example.org, tablets.local  10.0.0.9' }).ALLOWED_HOSTS).toEqual([
+      'hall.example.org',
+      'tablets.local',
+      '10.0.0.9',
+    ]);
     expect(loadEnv({}).ALLOWED_HOSTS).toEqual([]);
     expect(() => loadEnv({ ALLOWED_HOSTS: 'https://hall.example.org' })).toThrow(/ALLOWED_HOSTS/);
   });
@@ -70,52 +74,81 @@ describe('large jobs run off the request thread', () => {
   beforeAll(async () => {
     // One worker and no queue: the second large job at once is refused.
     t = await createTestApp({ workers: { threads: 1, queue: 0 } });
-    bigTrace = traceCsv(synthesiseTrace({ samples: 1_000_000, dtS: 0.1e-9, incidentS: 2000e-9, roundTripS: 1234.5e-9, rho: -1, riseS: 20e-9, noiseV: 0.01, seed: 5 }));
+    bigTrace = traceCsv(
+      synthesiseTrace({
+        samples: 1_000_000,
+        dtS: 0.1e-9,
+        incidentS: 2000e-9,
+        roundTripS: 1234.5e-9,
+        rho: -1,
+        riseS: 20e-9,
+        noiseV: 0.01,
+        seed: 5,
+      }),
+    );
   });
   afterAll(() => t.close());
 
-  test('while a million-sample trace is analysed, health and a reading are answered, before the analysis is', { timeout: 60_000 }, async () => {
-    const tech = await t.agentFor(DEMO.technician);
-    const { hall } = await venueIds(t);
-    const strip = await stripByLabel(t, hall, 'Strip 14');
-    const done: string[] = [];
-    const analysis = tech
-      .post('/api/waveforms/analyse?velocityFactor=0.7')
-      .set('Content-Type', 'text/csv')
-      .send(bigTrace)
-      .then((res) => {
-        done.push('analysis');
-        return res;
-      });
-    await inFlight(t, 1);
-    const health = await t.request.get('/api/health');
-    done.push('health');
-    const reading = await tech.post('/api/readings').send({ id: randomUUID(), stepId: strip.positions[1].steps[0].id, value: '0.4' });
-    done.push('reading');
-    expect(health.status).toBe(200);
-    expect(reading.status).toBe(201);
-    const res = await analysis;
-    expect(res.status).toBe(200);
-    expect(res.body.sampleCount).toBe(1_000_000);
-    expect(done).toEqual(['health', 'reading', 'analysis']);
-  });
+  test(
+    'while a million-sample trace is analysed, health and a reading are answered, before the analysis is',
+    { timeout: 60_000 },
+    async () => {
+      const tech = await t.agentFor(DEMO.technician);
+      const { hall } = await venueIds(t);
+      const strip = await stripByLabel(t, hall, 'Strip 14');
+      const done: string[] = [];
+      const analysis = tech
+        .post('/api/waveforms/analyse?velocityFactor=0.7')
+        .set('Content-Type', 'text/csv')
+        .send(bigTrace)
+        .then((res) => {
+          done.push('analysis');
+          return res;
+        });
+      await inFlight(t, 1);
+      const health = await t.request.get('/api/health');
+      done.push('health');
+      const reading = await tech.post('/api/readings').send({ id: randomUUID(), stepId: strip.positions[1].steps[0].id, value: '0.4' });
+      done.push('reading');
+      expect(health.status).toBe(200);
+      expect(reading.status).toBe(201);
+      const res = await analysis;
+      expect(res.status).toBe(200);
+      expect(res.body.sampleCount).toBe(1_000_000);
+      expect(done).toEqual(['health', 'reading', 'analysis']);
+    },
+  );
 
-  test('when the pool is full, the next large job is answered 503 with Retry-After at once, and the running one completes', { timeout: 60_000 }, async () => {
-    const tech = await t.agentFor(DEMO.technician);
-    // .then() sends it now (a supertest request goes out when it is awaited or .then is called).
-    const first = tech.post('/api/waveforms/analyse').set('Content-Type', 'text/csv').send(bigTrace).then((r) => r);
-    await inFlight(t, 1);
-    const second = await tech.post('/api/waveforms/analyse').set('Content-Type', 'text/csv').send(traceCsv(synthesiseTrace({ roundTripS: 80e-9 })));
-    expect(second.status).toBe(503);
-    expect(Number(second.headers['retry-after'])).toBeGreaterThan(0);
-    expect(second.headers['content-type']).toMatch(/^application\/problem\+json/);
-    expect(second.body.code).toBe('busy');
-    expect((await first).status).toBe(200);
-    // Room again: the small trace is analysed now.
-    await inFlight(t, 0);
-    const again = await tech.post('/api/waveforms/analyse').set('Content-Type', 'text/csv').send(traceCsv(synthesiseTrace({ roundTripS: 80e-9 })));
-    expect(again.status).toBe(200);
-  });
+  test(
+    'when the pool is full, the next large job is answered 503 with Retry-After at once, and the running one completes',
+    { timeout: 60_000 },
+    async () => {
+      const tech = await t.agentFor(DEMO.technician);
+      // .then() sends it now (a supertest request goes out when it is awaited or .then is called).
+      const first = tech
+        .post('/api/waveforms/analyse')
+        .set('Content-Type', 'text/csv')
+        .send(bigTrace)
+        .then((r) => r);
+      await inFlight(t, 1);
+      const second = await tech
+        .post('/api/waveforms/analyse')
+        .set('Content-Type', 'text/csv')
+        .send(traceCsv(synthesiseTrace({ roundTripS: 80e-9 })));
+      expect(second.status).toBe(503);
+      expect(Number(second.headers['retry-after'])).toBeGreaterThan(0);
+      expect(second.headers['content-type']).toMatch(/^application\/problem\+json/);
+      expect(second.body.code).toBe('busy');
+      expect((await first).status).toBe(200);
+      // Room again: the small trace is analysed now.
+      await inFlight(t, 0);
+      const again = await tech
+        .post('/api/waveforms/analyse')
+        .set('Content-Type', 'text/csv')
+        .send(traceCsv(synthesiseTrace({ roundTripS: 80e-9 })));
+      expect(again.status).toBe(200);
+    },
+  );
 
   test('a refusal inside a worker reaches the caller as the same 422 problem it always was', async () => {
     const tech = await t.agentFor(DEMO.technician);
@@ -140,7 +173,10 @@ async function workbookWithCell(cellBytes: number): Promise<Buffer> {
     `<?xml version="1.0" encoding="UTF-8"?><Types xmlns="${ns}/package/2006/content-types"><Default Extension="rels" ContentType="application/vnd.openxmlformats-package.relationships+xml"/><Default Extension="xml" ContentType="application/xml"/><Override PartName="/xl/workbook.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sheet.main+xml"/><Override PartName="/xl/worksheets/sheet1.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.worksheet+xml"/><Override PartName="/xl/sharedStrings.xml" ContentType="application/vnd.openxmlformats-officedocument.spreadsheetml.sharedStrings+xml"/></Types>`,
     { name: '[Content_Types].xml' },
   );
-  zip.append(`<?xml version="1.0" encoding="UTF-8"?><Relationships xmlns="${ns}/package/2006/relationships"><Relationship Id="rId1" Type="${ns}/officeDocument/2006/relationships/officeDocument" Target="xl/workbook.xml"/></Relationships>`, { name: '_rels/.rels' });
+  zip.append(
+    `<?xml version="1.0" encoding="UTF-8"?><Relationships xmlns="${ns}/package/2006/relationships"><Relationship Id="rId1" Type="${ns}/officeDocument/2006/relationships/officeDocument" Target="xl/workbook.xml"/></Relationships>`,
+    { name: '_rels/.rels' },
+  );
   zip.append(
     `<?xml version="1.0" encoding="UTF-8"?><workbook xmlns="${ns}/spreadsheetml/2006/main" xmlns:r="${ns}/officeDocument/2006/relationships"><sheets><sheet name="Register" sheetId="1" r:id="rId1"/></sheets></workbook>`,
     { name: 'xl/workbook.xml' },
@@ -153,9 +189,12 @@ async function workbookWithCell(cellBytes: number): Promise<Buffer> {
     `<?xml version="1.0" encoding="UTF-8"?><worksheet xmlns="${ns}/spreadsheetml/2006/main"><sheetData><row r="1"><c r="A1" t="inlineStr"><is><t>Asset tag</t></is></c><c r="B1" t="inlineStr"><is><t>Kind</t></is></c></row><row r="2"><c r="A2" t="inlineStr"><is><t>FC-900</t></is></c><c r="B2" t="s"><v>0</v></c></row></sheetData></worksheet>`,
     { name: 'xl/worksheets/sheet1.xml' },
   );
-  zip.append(`<?xml version="1.0" encoding="UTF-8"?><sst xmlns="${ns}/spreadsheetml/2006/main" count="1" uniqueCount="1"><si><t>${'A'.repeat(cellBytes)}</t></si></sst>`, {
-    name: 'xl/sharedStrings.xml',
-  });
+  zip.append(
+    `<?xml version="1.0" encoding="UTF-8"?><sst xmlns="${ns}/spreadsheetml/2006/main" count="1" uniqueCount="1"><si><t>${'A'.repeat(cellBytes)}</t></si></sst>`,
+    {
+      name: 'xl/sharedStrings.xml',
+    },
+  );
   await zip.finalize();
   await finished;
   return Buffer.concat(chunks);
@@ -173,18 +212,22 @@ describe('spreadsheet imports are bounded by what they unpack to', () => {
     return ada.post(`/api/equipment/${route}`).set('Origin', ORIGIN).attach('file', bytes, 'register.xlsx');
   };
 
-  test('when a small workbook unpacks to 64 MB (one huge cell), then 413 problem+json and nothing is written', { timeout: 60_000 }, async () => {
-    const bomb = await workbookWithCell(64 * 2 ** 20);
-    expect(bomb.length).toBeLessThan(200 * 1024);
-    const before = t.db.select().from(equipment).all().length;
-    for (const route of ['import/preview', 'import'] as const) {
-      const res = await send(bomb, route);
-      expect(res.status, route).toBe(413);
-      expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
-      expect(res.body.code).toBe('workbook-too-large');
-    }
-    expect(t.db.select().from(equipment).all().length).toBe(before);
-  });
+  test(
+    'when a small workbook unpacks to 64 MB (one huge cell), then 413 problem+json and nothing is written',
+    { timeout: 60_000 },
+    async () => {
+      const bomb = await workbookWithCell(64 * 2 ** 20);
+      expect(bomb.length).toBeLessThan(200 * 1024);
+      const before = t.db.select().from(equipment).all().length;
+      for (const route of ['import/preview', 'import'] as const) {
+        const res = await send(bomb, route);
+        expect(res.status, route).toBe(413);
+        expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
+        expect(res.body.code).toBe('workbook-too-large');
+      }
+      expect(t.db.select().from(equipment).all().length).toBe(before);
+    },
+  );
 
   test('the same workbook with an ordinary cell is read', async () => {
     const res = await send(await workbookWithCell(10), 'import/preview');
