@@ -358,15 +358,29 @@ export const auditLog = sqliteTable(
 );
 
 // What the local fake SMTP server received (demo, dev and tests).
-export const capturedMail = sqliteTable('captured_mail', {
-  id: integer('id').primaryKey({ autoIncrement: true }),
-  fromAddress: text('from_address').notNull(),
-  toAddresses: text('to_addresses').notNull(),
-  subject: text('subject').notNull(),
-  text: text('text').notNull().default(''),
-  html: text('html'),
-  raw: text('raw').notNull(),
-  receivedAt: text('received_at').notNull().default(now),
+// What the local fake SMTP server received. One-time links (set a password, reset, invitation) are
+// never stored: text and html hold them withheld, and `raw` is then only the message's headers.
+// Each message belongs to the organisation that sent it; rows without one are shown to nobody.
+export const capturedMail = sqliteTable(
+  'captured_mail',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    orgId: text('org_id').references(() => organisations.id),
+    fromAddress: text('from_address').notNull(),
+    toAddresses: text('to_addresses').notNull(),
+    subject: text('subject').notNull(),
+    text: text('text').notNull().default(''),
+    html: text('html'),
+    raw: text('raw').notNull(),
+    receivedAt: text('received_at').notNull().default(now),
+  },
+  (t) => [index('captured_mail_org_idx').on(t.orgId, t.id)],
+);
+
+// One row, rewritten by GET /api/health: proof that a write can still commit.
+export const healthProbe = sqliteTable('health_probe', {
+  id: integer('id').primaryKey(),
+  checkedAt: text('checked_at').notNull(),
 });
 
 // Replays of offline writes: the stored answer for an Idempotency-Key.

@@ -49,9 +49,14 @@ export interface RouteInput<C extends Contract> {
 }
 export type Handler<C extends Contract> = (input: RouteInput<C>) => AnswerIn<C> | Promise<AnswerIn<C>>;
 
+/** Middleware of one route, in the order they run around the contract's parsing. */
 export interface RouteOptions {
-  /** Run after params and query are parsed, before the body is: a rate limit, an access check, an upload. */
+  /** Right after the access check: limits that count attempts whatever their input. */
+  first?: RequestHandler[];
+  /** After params and query are parsed, before the body is: an object-level check, an upload. */
   before?: RequestHandler[];
+  /** After the body is parsed (req.body is the parsed value): a throttle keyed on it. */
+  after?: RequestHandler[];
 }
 
 export interface RouterOptions {
@@ -71,7 +76,7 @@ function parseBody(c: Contract, req: Request): unknown {
   }
   if (kind === 'text') {
     const spec = c.body as TextBody;
-    if (typeof req.body !== 'string') {
+    if (!Buffer.isBuffer(req.body)) {
       throw new AppError(415, 'unsupported-type', `Send ${spec.what} as the request body with Content-Type ${spec.contentTypes.join(', ')}.`);
     }
     return req.body;
@@ -121,21 +126,29 @@ export class ApiRouter {
   constructor(private readonly opts: RouterOptions) {}
 
   route<const C extends Contract>(c: C, handler: Handler<C>, opts: RouteOptions = {}): this {
-    const chain: RequestHandler[] = [requireAccess(c.access)];
+    const chain: RequestHandler[] = [requireAccess(c.access), ...(opts.first ?? [])];
     if (c.params || c.query) chain.push(parseUrl(c));
     chain.push(...(opts.before ?? []));
     if (bodyKindOf(c) === 'text') {
       const text = c.body as TextBody;
-      chain.push(express.text({ type: [...text.contentTypes], limit: text.maxBytes }));
+      chain.push(express.raw({ type: [...text.contentTypes], limit: text.maxBytes }));
     }
-    chain.push(this.finish(c, handler as Handler<Contract>));
+    const parsedFirst = (opts.after ?? []).length > 0;
+    if (parsedFirst) {
+      chain.push((req, _res, next) => {
+        req.body = parseBody(c, req);
+        next();
+      });
+      chain.push(...opts.after!);
+    }
+    chain.push(this.finish(c, handler as Handler<Contract>, parsedFirst));
     this.routes.push({ method: c.method, path: c.path, access: c.access, contract: c });
     this.router[c.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](c.path, ...chain);
     return this;
   }
 
   /** Parses the body, calls the handler and sends its answer (a file route has sent its own). */
-  private finish(c: Contract, handler: Handler<Contract>): RequestHandler {
+  private finish(c: Contract, handler: Handler<Contract>, parsedFirst: boolean): RequestHandler {
     const check = this.opts.checkAnswers && !c.hot;
     const log = this.opts.log;
     const a = c.answer;
@@ -145,7 +158,7 @@ export class ApiRouter {
       else if (a.kind === 'empty') res.status(204).end();
     };
     return (req, res) => {
-      const body = parseBody(c, req);
+      const body = parsedFirst ? req.body : parseBody(c, req);
       if (a.kind === 'json') res.status(a.status[0]);
       const input = { user: req.user, params: req.params, query: req.query, body, req, res } as unknown as RouteInput<Contract>;
       const out = handler(input);

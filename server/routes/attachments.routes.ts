@@ -56,6 +56,6 @@ export function attachmentsRoutes(deps: AppDeps) {
 
   api.route(c.original, sendStored('original'));
   api.route(c.preview, sendStored('preview'));
-  api.route(c.analysis, ({ user, params }) => attachments.analysis(user, params.id));
+  api.route(c.analysis, async ({ user, params }) => attachments.analysis(user, params.id));
   return api;
 }

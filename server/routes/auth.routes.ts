@@ -2,23 +2,33 @@ import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { AppDeps } from '../deps';
 import { apiRouter } from '../http/api-router';
 import { sendProblem } from '../middleware/error-handler';
+import { ACCOUNT_THROTTLE, accountThrottle, throttleAccount } from '../auth/throttle';
+import { failedPasswordLimiter } from '../auth/failed-password-limiter';
 import { unauthorized } from '../lib/app-error';
 import { sessionCookie } from '../auth/authenticate';
 import type { AuthService } from '../services/auth.service';
 import { publicUser } from '../presenters/users';
 import { authContracts as c } from '../../shared/contracts/auth';
+import type { SignInInput } from '../../shared/schemas/auth';
 
 export function authRoutes(deps: AppDeps, auth: AuthService) {
   const api = apiRouter(deps);
   const cookie = sessionCookie(deps.env.APP_ORIGIN);
-  const signInLimiter = rateLimit({
+
+  // Per address: failed sign-ins (401) from one address, whatever e-mails they name; successes
+  // are not counted (express-rate-limit counts a request, then takes it back when it succeeded).
+  const signInLimiter = failedPasswordLimiter(deps.env.SIGNIN_RATE_LIMIT, 'sign-in attempts');
+  // Per account, across addresses: slows, never locks (server/auth/throttle.ts).
+  const accounts = accountThrottle(ACCOUNT_THROTTLE);
+  const perAccount = throttleAccount(accounts, (req) => `sign-in:${(req.body as SignInInput).email}`);
+  // Reset requests send mail: limited per address over all of them (they all answer alike).
+  const resetLimiter = rateLimit({
     windowMs: 15 * 60_000,
     limit: deps.env.SIGNIN_RATE_LIMIT,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').trim().toLowerCase()}`,
-    handler: (_req, res) =>
-      sendProblem(res, 429, 'too-many-attempts', 'Too many sign-in attempts. Wait a few minutes and try again.'),
+    keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
+    handler: (_req, res) => sendProblem(res, 429, 'too-many-attempts', 'Too many reset requests from this address. Wait a few minutes and try again.'),
   });
 
   api.route(
@@ -29,7 +39,7 @@ export function authRoutes(deps: AppDeps, auth: AuthService) {
       res.cookie(cookie.name, result.token, { ...cookie.options, expires: result.expiresAt });
       return { user: publicUser(result.user) };
     },
-    { before: [signInLimiter] },
+    { first: [signInLimiter], after: [perAccount] },
   );
   api.route(c.me, ({ user }) => ({ user: publicUser(user) }));
   api.route(c.signOut, ({ req, res }) => {
@@ -39,11 +49,15 @@ export function authRoutes(deps: AppDeps, auth: AuthService) {
   api.route(c.preferences, ({ user, body }) => ({ user: auth.setPreferences(user.id, body.unitSystem) }));
   api.route(
     c.requestReset,
-    async ({ body }) => {
-      await auth.requestReset(body.email);
+    ({ body }) => {
+      // Answer first, then look the address up and send: otherwise the time to answer tells whether
+      // the address has an account (sending took ~100 ms, an unknown address ~3 ms).
+      setImmediate(() => {
+        auth.requestReset(body.email).catch((err) => deps.log.error('password reset: the e-mail could not be sent', err));
+      });
       return { detail: 'If that address has an account, a link is on its way.' };
     },
-    { before: [signInLimiter] },
+    { first: [resetLimiter] },
   );
   api.route(c.linkInfo, ({ params }) => {
     const { user, row } = auth.checkToken(params.token);

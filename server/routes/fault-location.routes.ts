@@ -5,8 +5,11 @@ import { faultLocationService } from '../services/fault-location.service';
 
 export function faultLocationRoutes(deps: AppDeps) {
   const api = apiRouter(deps);
-  const service = faultLocationService();
+  const service = faultLocationService(deps.workers);
   api.route(c.locate, ({ user, body }) => service.locate(user, body));
-  api.route(c.analyse, ({ user, body, query }) => service.analyse(user, body, query));
+  api.route(c.analyse, async ({ user, body, query, req }) => {
+    const charset = /;\s*charset="?([^";\s]+)"?/i.exec(req.get('content-type') ?? '')?.[1];
+    return service.analyse(user, Buffer.from(body.buffer, body.byteOffset, body.byteLength), charset, query);
+  });
   return api;
 }

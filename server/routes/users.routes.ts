@@ -12,7 +12,8 @@ export function usersRoutes(deps: AppDeps, auth: AuthService) {
   api.route(c.invite, ({ user, body }) => auth.invite(user, body));
   api.route(c.update, ({ user, params, body }) => auth.updateUser(user, params.id, body));
   api.route(c.endSessions, ({ user, params }) => auth.endSessions(user, params.id));
-  api.route(m.list, () => mail.list());
-  api.route(m.get, ({ params }) => mail.get(Number(params.id)));
+  // The outbox of the admin's own organisation only.
+  api.route(m.list, ({ user }) => mail.list(user.orgId));
+  api.route(m.get, ({ user, params }) => mail.get(user.orgId, Number(params.id)));
   return api;
 }

@@ -27,17 +27,20 @@ export interface SignOffRecord {
   issued: IssuedCertificate[];
 }
 
+export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
+
 /** Writes the PDFs and records the sign-off; answers its id. */
-export function persistSignOff(deps: AppDeps, s: SignOffRecord): string {
+export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<string> {
   const files = certificateFiles(deps.env.DATA_DIR);
   const written: string[] = [];
   const signOffId = newId();
   try {
     for (const c of s.issued) {
       const name = files.nameFor(c.payload.number);
-      files.write(name, c.pdf);
+      await files.writeAsync(name, c.pdf);
       written.push(name);
     }
+    await yieldToEventLoop();
     deps.db.transaction((tx) => {
       const repo = signOffRepository(tx);
       // Nothing may have changed while we signed: same venue version, same readings.

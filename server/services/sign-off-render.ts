@@ -1,5 +1,6 @@
 // Sign-off, step two: the certificates in memory. A number for the venue and for each ready strip,
 // the payload of each, signed (Ed25519 JWS) and rendered to PDF; nothing is written yet.
+import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import type { AuthUser } from '../auth/types';
 import type { VenueCtx } from './plan-edit';
@@ -16,7 +17,6 @@ import {
   type CertificatePayload,
   type CertifiedReading,
 } from '../signing/certificate-record';
-import { renderCertificatePdf } from '../pdf/certificate-pdf';
 import type { Snapshot } from './sign-off-readiness';
 import type { LimitRule } from '../../shared/domain/limits';
 import type { VenueReadiness } from '../../shared/domain/readiness';
@@ -164,11 +164,13 @@ export function draftCertificates(db: Db, ctx: SigningContext, snap: Snapshot, r
 }
 
 /** Each draft signed and rendered to PDF, in memory. */
-export async function renderCertificates(key: SigningKey, drafts: Draft[]): Promise<IssuedCertificate[]> {
+export async function renderCertificates(workers: AppDeps['workers'], key: SigningKey, drafts: Draft[]): Promise<IssuedCertificate[]> {
   const issued: IssuedCertificate[] = [];
   for (const d of drafts) {
     const { canonical, jws } = await signCertificatePayload(key, d.payload);
-    const pdf = await renderCertificatePdf({ payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+    // Rendered on a worker thread: a 120-strip venue's annex is seconds of CPU.
+    const rendered = await workers.run('renderCertificatePdf', { payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+    const pdf = Buffer.from(rendered.buffer, rendered.byteOffset, rendered.byteLength);
     issued.push({ ...d, canonical, jws, pdf, sha256: sha256Hex(pdf) });
   }
   return issued;

@@ -12,7 +12,7 @@ import { currentSigningKey } from '../signing/signing-keys';
 import { readingsDigest, verifyUrlFor } from '../signing/certificate-record';
 import { certifiedReadings, describedIssues, readinessOf, requireReady } from './sign-off-readiness';
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
-import { persistSignOff } from './sign-off-persist';
+import { persistSignOff, yieldToEventLoop } from './sign-off-persist';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
 
 /** The signed-off e-mail to the organiser and the director: the certificates page and each check link. */
@@ -32,7 +32,7 @@ async function notify(deps: AppDeps, ctx: SigningContext, issued: IssuedCertific
       `Anyone can check a certificate, without signing in, on its verification page:\n\n${list}\n\n` +
       `The certificates cover the competition equipment tested, not the building's electrical installation.\n`;
     try {
-      await deps.mailer.send({ to: person.email, subject: `Signed off: ${row.venue.name}, ${row.event.name}`, text });
+      await deps.mailer.send({ orgId: row.event.orgId, to: person.email, subject: `Signed off: ${row.venue.name}, ${row.event.name}`, text });
     } catch (err) {
       // The sign-off stands; the certificates page has everything the e-mail links to.
       deps.log.error(`sign-off e-mail to ${person.email} failed`, err);
@@ -53,6 +53,9 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
   }
   const exceptions = input.exceptions ?? [];
   const { snap, readiness } = requireReady(deps.db, venueId, exceptions);
+  // The event loop gets a turn between the long synchronous steps of a large venue, so
+  // readings arriving meanwhile wait for one step, not for all of them.
+  await yieldToEventLoop();
 
   const readings = certifiedReadings(snap, readiness);
   const key = await currentSigningKey(deps.db, deps.env);
@@ -67,9 +70,9 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     origin: deps.env.APP_ORIGIN,
   };
   // Sign and render everything first; only then write, so a failure leaves nothing behind.
-  const issued = await renderCertificates(key, draftCertificates(deps.db, ctx, snap, readiness, readings));
+  const issued = await renderCertificates(deps.workers, key, draftCertificates(deps.db, ctx, snap, readiness, readings));
   const digest = readingsDigest(readings);
-  const signOffId = persistSignOff(deps, {
+  const signOffId = await persistSignOff(deps, {
     user,
     venueId,
     venueVersion: row.venue.version,

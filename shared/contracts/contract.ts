@@ -20,7 +20,10 @@ export interface MultipartBody<F extends z.ZodType | undefined = z.ZodType | und
   readonly kind: 'multipart';
   readonly fields: F;
 }
-/** A text body (a trace as CSV), up to maxBytes; `what` names it in the refusal of another type. */
+/**
+ * A text body (a trace as CSV), up to maxBytes; `what` names it in the refusal of another type.
+ * The server keeps it as bytes (it goes to a worker thread whole and is decoded there).
+ */
 export interface TextBody {
   readonly kind: 'text';
   readonly contentTypes: readonly string[];
@@ -124,14 +127,14 @@ export type BodyIn<C extends Contract> = C extends { body: infer B }
         ? z.input<B>
         : undefined
   : undefined;
-/** What the handler gets: the JSON schema's output, the parsed text fields of a form, or the text. */
+/** What the handler gets: the JSON schema's output, the parsed text fields of a form, or the text's bytes. */
 export type BodyOut<C extends Contract> = C extends { body: infer B }
   ? B extends MultipartBody<infer F>
     ? F extends z.ZodType
       ? z.output<F>
       : undefined
     : B extends TextBody
-      ? string
+      ? Uint8Array
       : B extends z.ZodType
         ? z.output<B>
         : undefined

@@ -1,6 +1,7 @@
+import { z } from 'zod';
 import { contract, json, STAFF, TESTERS } from './contract';
 import { idParams } from '../schemas/params';
-import { createReadingSchema, readingDtoSchema } from '../schemas/readings';
+import { createReadingSchema, readingBatchResultSchema, readingDtoSchema, readingsBatchSchema } from '../schemas/readings';
 
 export const readingsContracts = {
   /** 201 the first time, 200 with the stored reading when the same id and body come again. */
@@ -11,6 +12,17 @@ export const readingsContracts = {
     body: createReadingSchema,
     answer: json(readingDtoSchema, 201, 200),
     hot: true,
+  }),
+  /**
+   * Up to 200 readings in one commit, each answered with the status and body it would have had on
+   * its own (each is checked against createReadingSchema alone, so the list takes any items).
+   */
+  batch: contract({
+    method: 'POST',
+    path: '/readings/batch',
+    access: TESTERS,
+    body: readingsBatchSchema,
+    answer: json(z.strictObject({ results: z.array(readingBatchResultSchema) })),
   }),
   get: contract({ method: 'GET', path: '/readings/:id', access: STAFF, params: idParams, answer: json(readingDtoSchema) }),
 };

@@ -49,6 +49,20 @@ export type CreateReadingInput = z.infer<typeof createReadingSchema>;
 export const VERDICTS = ['pass', 'near-limit', 'fail'] as const;
 export type VerdictName = (typeof VERDICTS)[number];
 
+/** Readings per POST /api/readings/batch: a tablet's hour offline is a few hundred, sent in turns. */
+export const READINGS_BATCH_MAX = 200;
+
+/**
+ * Body of POST /api/readings/batch. Each reading is checked against createReadingSchema on its own,
+ * so one bad reading is refused alone (its result says why) and the others are recorded.
+ */
+export const readingsBatchSchema = z.strictObject({
+  readings: z
+    .array(z.unknown(), { error: 'readings must be a list of readings, each the body of POST /api/readings' })
+    .min(1, { error: 'readings needs at least one reading' })
+    .max(READINGS_BATCH_MAX, { error: `Send at most ${READINGS_BATCH_MAX} readings at once` }),
+});
+
 /** A stored reading as the API answers it. */
 export const readingDtoSchema = z.strictObject({
   id: z.string(),
@@ -80,3 +94,24 @@ export const readingDtoSchema = z.strictObject({
   venueReopened: z.boolean().optional(),
 });
 export type ReadingDto = z.infer<typeof readingDtoSchema>;
+
+/** The problem+json body a refused reading would have had on its own. */
+export const problemBodySchema = z.looseObject({
+  type: z.string(),
+  title: z.string(),
+  status: z.number().int(),
+  code: z.string(),
+  detail: z.string(),
+  errors: z.array(z.strictObject({ path: z.string(), message: z.string() })).optional(),
+});
+export type ProblemBody = z.infer<typeof problemBodySchema>;
+
+/** One reading's outcome in a batch, in the order sent: the status and body it would have had alone. */
+export const readingBatchResultSchema = z.strictObject({
+  /** The reading's id as sent (null when it had none that could be read). */
+  id: z.string().nullable(),
+  status: z.number().int(),
+  reading: readingDtoSchema.optional(),
+  problem: problemBodySchema.optional(),
+});
+export type ReadingBatchResult = z.infer<typeof readingBatchResultSchema>;

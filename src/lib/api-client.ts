@@ -35,6 +35,12 @@ export function setUnauthenticatedHandler(fn: () => void) {
   onUnauthenticated = fn;
 }
 
+let onReach: ((answered: boolean) => void) | null = null;
+/** Told after each request whether the server answered at all (the tablet's online state). */
+export function setReachabilityObserver(fn: (answered: boolean) => void) {
+  onReach = fn;
+}
+
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
 /** The ApiError for a refusal: the problem+json body's code, sentence and field errors when there is one. */
@@ -61,13 +67,21 @@ export async function apiRequest(path: string, opts: RequestOptions = {}): Promi
     body = JSON.stringify(opts.body);
     headers['Content-Type'] = 'application/json';
   }
-  const res = await fetch(`/api${path}`, {
-    method: opts.method ?? (body ? 'POST' : 'GET'),
-    headers,
-    body,
-    credentials: 'same-origin',
-    signal: opts.signal,
-  });
+  let res: Response;
+  try {
+    res = await fetch(`/api${path}`, {
+      method: opts.method ?? (body ? 'POST' : 'GET'),
+      headers,
+      body,
+      credentials: 'same-origin',
+      signal: opts.signal,
+    });
+  } catch (err) {
+    // A request we cancelled says nothing about the network.
+    if (!opts.signal?.aborted) onReach?.(false);
+    throw err;
+  }
+  onReach?.(true);
   if (res.status === 204) return undefined;
   const isJson = (res.headers.get('content-type') ?? '').includes('json');
   const data: unknown = isJson ? await res.json() : await res.text();
