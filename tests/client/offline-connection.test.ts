@@ -5,6 +5,7 @@
 // answer, and finds out by itself when it answers again.
 import { afterEach, beforeEach, describe, expect, test, vi } from 'vitest';
 import { summarize, type SyncState } from '../../src/features/offline/utils/queue';
+import type { ReadingDto } from '../../shared/schemas/readings';
 
 type Outbox = typeof import('../../src/features/offline/stores/outbox');
 
@@ -12,6 +13,35 @@ interface FakeServer {
   up: boolean;
   readings: { id: string; stepId: string; value: string }[];
   requests: string[];
+}
+
+/** A stored reading as POST /api/readings answers it (shared/contracts/readings.ts). */
+function storedReading(body: FakeServer['readings'][number]): ReadingDto {
+  return {
+    id: body.id,
+    stepId: body.stepId,
+    equipmentId: null,
+    valueText: body.value,
+    valueOhm: Number(body.value),
+    overRange: false,
+    leadOffsetOhm: null,
+    temperatureC: null,
+    verdict: 'pass',
+    limitOhm: 2.5,
+    limitKind: 'max',
+    source: 'House rule',
+    ruleId: null,
+    profileId: 'profile',
+    profileVersion: 1,
+    explanation: '',
+    supersedesId: null,
+    correctionReason: null,
+    takenAt: new Date().toISOString(),
+    receivedAt: new Date().toISOString(),
+    takenBy: 'user-sam',
+    takenByName: 'Sam',
+    faultId: null,
+  };
 }
 
 /** A browser page (window events, navigator.onLine, fetch) in front of a server that may be away. */
@@ -30,7 +60,8 @@ function fakeBrowser(opts: { onLine: boolean }) {
       if (url === '/api/readings' && init?.method === 'POST') {
         const body = JSON.parse(String(init.body)) as FakeServer['readings'][number];
         server.readings.push(body);
-        return Response.json({ ...body, verdict: 'pass' }, { status: 201 });
+        // The answer as the real server gives it: the client checks answers against the contract in tests.
+        return Response.json(storedReading(body), { status: 201 });
       }
       return Response.json({ title: 'Not found' }, { status: 404 });
     }),
