@@ -6,9 +6,8 @@ import { existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppDeps } from './deps';
-import { apiRouter, type ApiRouter, type RouteSpec } from './http/api-router';
+import type { ApiRouter, RouteSpec } from './http/api-router';
 import { serveClient } from './http/static-files';
-import { healthContracts } from '../shared/contracts/health';
 import { fullPath } from '../shared/contracts/contract';
 import { authenticate, sessionCookie } from './auth/authenticate';
 import { csrfGuard } from './middleware/csrf';
@@ -16,8 +15,8 @@ import { hostCheck } from './middleware/host-check';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { requestLog } from './middleware/request-log';
 import { authService } from './services/auth.service';
-import { healthRepository } from './db/health.repository';
 import { authRoutes } from './routes/auth.routes';
+import { healthRoutes } from './routes/health.routes';
 import { usersRoutes } from './routes/users.routes';
 import { venuesRoutes } from './routes/venues.routes';
 import { stripsRoutes } from './routes/strips.routes';
@@ -40,6 +39,32 @@ const builtClient = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 /** Answers smaller than this go as they are: compressing them costs more time than it saves. */
 export const COMPRESS_MIN_BYTES = 1024;
 
+/** Security headers: our own resources only, no framing; helmet's defaults are not used. */
+function securityHeaders(appOrigin: string) {
+  return helmet({
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'"],
+        styleSrc: ["'self'"],
+        imgSrc: ["'self'", 'data:', 'blob:'],
+        fontSrc: ["'self'"],
+        connectSrc: ["'self'"],
+        workerSrc: ["'self'"],
+        manifestSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        frameAncestors: ["'none'"],
+        baseUri: ["'self'"],
+        formAction: ["'self'"],
+        // No upgrade-insecure-requests: the app is served over plain HTTP on venue networks.
+      },
+    },
+    // HSTS only means something over HTTPS.
+    strictTransportSecurity: appOrigin.startsWith('https://'),
+  });
+}
+
 /** `distDir`: the built client to serve (tests give a folder of their own). */
 export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   const distDir = opts.distDir ?? builtClient;
@@ -52,30 +77,7 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   app.set('trust proxy', 'loopback');
   app.use(hostCheck(deps.env.APP_ORIGIN, deps.env.ALLOWED_HOSTS));
 
-  app.use(
-    helmet({
-      contentSecurityPolicy: {
-        useDefaults: false,
-        directives: {
-          defaultSrc: ["'self'"],
-          scriptSrc: ["'self'"],
-          styleSrc: ["'self'"],
-          imgSrc: ["'self'", 'data:', 'blob:'],
-          fontSrc: ["'self'"],
-          connectSrc: ["'self'"],
-          workerSrc: ["'self'"],
-          manifestSrc: ["'self'"],
-          objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
-          baseUri: ["'self'"],
-          formAction: ["'self'"],
-          // No upgrade-insecure-requests: the app is served over plain HTTP on venue networks.
-        },
-      },
-      // HSTS only means something over HTTPS.
-      strictTransportSecurity: deps.env.APP_ORIGIN.startsWith('https://'),
-    }),
-  );
+  app.use(securityHeaders(deps.env.APP_ORIGIN));
   if (deps.env.LOG_REQUESTS === 'on') app.use(requestLog((line) => deps.log.info(line)));
   // gzip or brotli, as the browser asks, for answers from 1 KB (lists, strips, batches of readings);
   // a file the build compressed already is sent as it is (the middleware leaves encoded answers alone).
@@ -84,26 +86,11 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   const auth = authService(deps);
   const cookie = sessionCookie(deps.env.APP_ORIGIN);
 
-  const health = apiRouter(deps);
-  const healthRepo = healthRepository(deps.sqlite);
-  // Healthy means a write can commit, not only that the file opens: readings must be storable.
-  health.route(healthContracts.get, ({ res }) => {
-    let db: 'ok' | 'error' = 'ok';
-    try {
-      healthRepo.probeWrite(new Date().toISOString());
-    } catch (err) {
-      db = 'error';
-      deps.log.error('health check: the database cannot commit a write', err);
-    }
-    res.status(db === 'ok' ? 200 : 503);
-    return { status: db === 'ok' ? ('ok' as const) : ('degraded' as const), db, version: deps.version };
-  });
-
   // Express tries routers in this order: readings come first because a venue's morning is
   // thousands of them (each router passed costs every request a little).
   const routers: ApiRouter[] = [
     readingsRoutes(deps),
-    health,
+    healthRoutes(deps),
     authRoutes(deps, auth),
     usersRoutes(deps, auth),
     venuesRoutes(deps),
@@ -154,9 +141,7 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   }
   app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
 
-  const routes: RouteSpec[] = [
-    ...[...routers, wellKnown].flatMap((r) => r.routes.map((s) => ({ ...s, path: fullPath(s.contract) }))),
-  ];
+  const routes: RouteSpec[] = [...[...routers, wellKnown].flatMap((r) => r.routes.map((s) => ({ ...s, path: fullPath(s.contract) })))];
   return Object.assign(app, { routes });
 }
 export type App = ReturnType<typeof createApp>;
