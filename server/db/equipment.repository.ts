@@ -17,8 +17,8 @@ import {
 
 export type EquipmentRow = typeof equipment.$inferSelect;
 
-// Shared by the register, the venue plan and repairs (swaps and cut-outs).
-export function equipmentRepository(db: Db | Tx) {
+/** The register itself: items by id or tag, the list, edits and calibrations. */
+function registerQueries(db: Db | Tx) {
   return {
     findById: (id: string) => db.select().from(equipment).where(eq(equipment.id, id)).get(),
     findByTag: (orgId: string, assetTag: string) =>
@@ -59,6 +59,12 @@ export function equipmentRepository(db: Db | Tx) {
         .where(eq(velocityCalibrations.equipmentId, equipmentId))
         .orderBy(desc(velocityCalibrations.createdAt))
         .all(),
+  };
+}
+
+/** What happened to an item across events: readings, faults, repairs, placements. */
+function historyQueries(db: Db | Tx) {
+  return {
     readingsOf: (equipmentId: string) =>
       db
         .select({
@@ -123,6 +129,12 @@ export function equipmentRepository(db: Db | Tx) {
         .where(eq(positionAssignments.equipmentId, equipmentId))
         .orderBy(desc(positionAssignments.assignedAt))
         .all(),
+  };
+}
+
+/** Where an item sits in a venue, and putting one in a position. */
+function placementQueries(db: Db | Tx) {
+  return {
     /** The position of the venue the item currently sits in, if any (one item, one place per venue). */
     positionInVenue: (equipmentId: string, venueId: string) =>
       db
@@ -146,4 +158,9 @@ export function equipmentRepository(db: Db | Tx) {
       }
     },
   };
+}
+
+// Shared by the register, the venue plan and repairs (swaps and cut-outs).
+export function equipmentRepository(db: Db | Tx) {
+  return { ...registerQueries(db), ...historyQueries(db), ...placementQueries(db) };
 }

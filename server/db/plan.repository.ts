@@ -7,7 +7,8 @@ export type PositionRow = typeof positions.$inferSelect;
 export type StepRow = typeof steps.$inferSelect;
 
 // Events, venues and their plan: strips, positions, steps and technicians.
-export function planRepository(db: Db | Tx) {
+/** Events, venues and the people of a plan. */
+function eventsAndPeople(db: Db | Tx) {
   return {
     // --- events ---
     eventsOfOrg: (orgId: string) => db.select().from(events).where(eq(events.orgId, orgId)).orderBy(desc(events.startsOn), asc(events.name)).all(),
@@ -53,7 +54,12 @@ export function planRepository(db: Db | Tx) {
       db.delete(venueTechnicians).where(eq(venueTechnicians.venueId, venueId)).run();
       if (userIds.length) db.insert(venueTechnicians).values(userIds.map((userId) => ({ venueId, userId }))).run();
     },
+  };
+}
 
+/** Strips of a venue. */
+function stripQueries(db: Db | Tx) {
+  return {
     // --- strips ---
     stripsOf: (venueId: string) => db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder), asc(strips.label)).all(),
     findStrip: (id: string) => db.select().from(strips).where(eq(strips.id, id)).get(),
@@ -63,7 +69,12 @@ export function planRepository(db: Db | Tx) {
       db.select({ m: max(strips.sortOrder) }).from(strips).where(eq(strips.venueId, venueId)).get()?.m ?? 0,
     insertStrip: (row: typeof strips.$inferInsert) => db.insert(strips).values(row).run(),
     updateStrip: (id: string, patch: Partial<typeof strips.$inferInsert>) => db.update(strips).set(patch).where(eq(strips.id, id)).run(),
+  };
+}
 
+/** Positions of strips, with what was recorded against them. */
+function positionQueries(db: Db | Tx) {
+  return {
     // --- positions ---
     positionsOfVenue: (venueId: string) =>
       db
@@ -123,7 +134,12 @@ export function planRepository(db: Db | Tx) {
       db.delete(positionAssignments).where(eq(positionAssignments.positionId, positionId)).run();
       db.delete(positions).where(eq(positions.id, positionId)).run();
     },
+  };
+}
 
+/** Checklist steps of positions. */
+function stepQueries(db: Db | Tx) {
+  return {
     // --- steps ---
     stepsOfVenue: (venueId: string) =>
       db
@@ -150,4 +166,8 @@ export function planRepository(db: Db | Tx) {
     insertStep: (row: typeof steps.$inferInsert) => db.insert(steps).values(row).run(),
     removeStep: (id: string, at: string) => db.update(steps).set({ removedAt: at }).where(eq(steps.id, id)).run(),
   };
+}
+
+export function planRepository(db: Db | Tx) {
+  return { ...eventsAndPeople(db), ...stripQueries(db), ...positionQueries(db), ...stepQueries(db) };
 }
