@@ -8,8 +8,8 @@ import { hashPassword, type ScryptParams } from '../auth/password';
 import { newId, sha256Hex } from '../lib/ids';
 import { DEFAULT_LIMIT_PROFILE, evaluateReading, type EquipmentKind } from '../../shared/domain/limits';
 import { parseReading } from '../../shared/domain/units';
-import { DEFAULT_POSITION_TEMPLATE, stepsForKind } from '../../shared/domain/checklist';
 import { locateByLoopBothEnds } from '../../shared/domain/fault-location';
+import { FLOOR_CABLE_M, itemMaker, makeVenue, REEL_M, type SeedPosition } from './seed-demo-plan';
 
 export const DEMO_ORG_NAME = 'Lakeshore Fencing League';
 export const DEMO_PASSWORD = 'demo-strip-2026';
@@ -22,8 +22,6 @@ const PEOPLE = [
   { key: 'lee', name: 'Lee Varga', role: 'technician' },
 ] as const;
 
-const FLOOR_CABLE_M = 12;
-const REEL_M = 20;
 // Typical values for the demo only (invented): Ω per conductor per metre.
 const FLOOR_OHM_PER_M = 0.0375;
 const REEL_OHM_PER_M = 0.06;
@@ -47,7 +45,8 @@ export async function seedDemo(db: Db, scrypt: ScryptParams): Promise<boolean> {
   return true;
 }
 
-function build(tx: Tx, passwordHash: string) {
+/** The organisation, its people, the shipped limit profile and the event. */
+function seedOrganisation(tx: Tx, passwordHash: string) {
   const orgId = newId();
   tx.insert(t.organisations).values({ id: orgId, name: DEMO_ORG_NAME }).run();
   const user: Record<string, string> = {};
@@ -86,26 +85,12 @@ function build(tx: Tx, passwordHash: string) {
     })
     .run();
 
-  let tagNo = { APP: 0, FC: 0, RL: 0, PST: 0 };
-  const nextTag = (kind: EquipmentKind) => {
-    const prefix = kind === 'apparatus' ? 'APP' : kind === 'floor-cable' ? 'FC' : kind === 'reel' ? 'RL' : 'PST';
-    tagNo = { ...tagNo, [prefix]: tagNo[prefix as keyof typeof tagNo] + 1 };
-    return `${prefix}-${String(tagNo[prefix as keyof typeof tagNo]).padStart(3, '0')}`;
-  };
-  const makeItem = (kind: EquipmentKind) => {
-    const id = newId();
-    const spec =
-      kind === 'floor-cable'
-        ? { lengthM: FLOOR_CABLE_M, conductorMm2: 0.75, cableType: '3-core PVC floor cable', velocityFactor: 0.6, description: '12 m floor cable, 3 × 0.75 mm²' }
-        : kind === 'reel'
-          ? { lengthM: REEL_M, conductorMm2: 0.5, cableType: 'Reel wire', description: '20 m spring reel' }
-          : kind === 'piste'
-            ? { lengthM: 14, description: 'Conductive metal piste, 14 m' }
-            : { description: 'Scoring apparatus, three weapons' };
-    tx.insert(t.equipment).values({ id, orgId, assetTag: nextTag(kind), kind, ...spec }).run();
-    return id;
-  };
+  return { orgId, user, profileId, eventId };
+}
 
+function build(tx: Tx, passwordHash: string) {
+  const { orgId, user, profileId, eventId } = seedOrganisation(tx, passwordHash);
+  const makeItem = itemMaker(tx, orgId);
   const hall = makeVenue(tx, {
     eventId,
     profileId,
@@ -127,6 +112,17 @@ function build(tx: Tx, passwordHash: string) {
     makeItem,
   });
 
+  recordDemoReadings(tx, { hall, annex, profileId, sam: user.sam, lee: user.lee });
+  tx.update(t.venues).set({ status: 'testing' }).where(eq(t.venues.id, hall.id)).run();
+  tx.update(t.venues).set({ status: 'testing' }).where(eq(t.venues.id, annex.id)).run();
+}
+
+/** Sports Hall strips 1–10 tested (with the failures the faults come from), strip 11 half done; the annex all done. */
+function recordDemoReadings(
+  tx: Tx,
+  v: { hall: ReturnType<typeof makeVenue>; annex: ReturnType<typeof makeVenue>; profileId: string; sam: string; lee: string },
+) {
+  const { hall, annex, profileId } = v;
   // Sports Hall: strips 1–10 tested, strip 11 half done, the rest not started.
   const hallPlan: Plan = {
     'Strip 2|Left floor cable|continuity|A': '2.31', // near limit (over 90 % of 2.5 Ω)
@@ -170,60 +166,8 @@ function build(tx: Tx, passwordHash: string) {
       });
     });
   };
-  record(hall, (i) => i < 10, hallPlan, user.sam, 10);
-  record(annex, () => true, {}, user.lee);
-  tx.update(t.venues).set({ status: 'testing' }).where(eq(t.venues.id, hall.id)).run();
-  tx.update(t.venues).set({ status: 'testing' }).where(eq(t.venues.id, annex.id)).run();
-}
-
-interface SeedPosition {
-  id: string;
-  name: string;
-  kind: EquipmentKind;
-  equipmentId: string;
-  lengthM: number | null;
-  steps: { id: string; testKind: (typeof t.steps.$inferSelect)['testKind']; conductors: string }[];
-}
-
-function makeVenue(
-  tx: Tx,
-  v: {
-    eventId: string;
-    profileId: string;
-    name: string;
-    technician: string;
-    strips: { label: string; zone: string; conductive: boolean }[];
-    makeItem: (kind: EquipmentKind) => string;
-  },
-) {
-  const venueId = newId();
-  tx.insert(t.venues).values({ id: venueId, eventId: v.eventId, name: v.name, profileId: v.profileId }).run();
-  tx.insert(t.venueTechnicians).values({ venueId, userId: v.technician }).run();
-  const strips = v.strips.map((s, si) => {
-    const stripId = newId();
-    tx.insert(t.strips)
-      .values({ id: stripId, venueId, label: s.label, sortOrder: si + 1, zone: s.zone, conductivePiste: s.conductive })
-      .run();
-    const positions: SeedPosition[] = DEFAULT_POSITION_TEMPLATE.filter((p) => !p.pisteOnly || s.conductive).map(
-      (p, pi) => {
-        const positionId = newId();
-        const equipmentId = v.makeItem(p.equipmentKind);
-        tx.insert(t.positions)
-          .values({ id: positionId, stripId, name: p.name, equipmentKind: p.equipmentKind, equipmentId, sortOrder: pi + 1 })
-          .run();
-        tx.insert(t.positionAssignments).values({ id: newId(), positionId, equipmentId, assignedAt: '2026-11-20T16:00:00.000Z' }).run();
-        const steps = stepsForKind(p.equipmentKind, DEFAULT_LIMIT_PROFILE).map((st, k) => {
-          const id = newId();
-          tx.insert(t.steps).values({ id, positionId, testKind: st.testKind, conductors: st.conductors, sortOrder: k + 1 }).run();
-          return { id, ...st };
-        });
-        const lengthM = p.equipmentKind === 'floor-cable' ? FLOOR_CABLE_M : p.equipmentKind === 'reel' ? REEL_M : p.equipmentKind === 'piste' ? 14 : null;
-        return { id: positionId, name: p.name, kind: p.equipmentKind, equipmentId, lengthM, steps };
-      },
-    );
-    return { id: stripId, label: s.label, positions };
-  });
-  return { id: venueId, strips };
+  record(hall, (i) => i < 10, hallPlan, v.sam, 10);
+  record(annex, () => true, {}, v.lee);
 }
 
 function typicalValue(kind: EquipmentKind, testKind: string, i: number): string {
@@ -307,8 +251,7 @@ function openFault(
     far: number;
   },
 ) {
-  const kind =
-    f.step.testKind === 'insulation' ? 'short' : f.typed === 'OL' ? 'open' : 'high-resistance';
+  const kind = f.step.testKind === 'insulation' ? 'short' : f.typed === 'OL' ? 'open' : 'high-resistance';
   const faultId = newId();
   const located = kind === 'short';
   tx.insert(t.faults)
@@ -327,7 +270,12 @@ function openFault(
     })
     .run();
   if (!located) return;
-  const inputs = { nearOhm: Number(f.near.toFixed(3)), farOhm: Number(f.far.toFixed(3)), lengthM: FLOOR_CABLE_M, ohmPerMetre: FLOOR_OHM_PER_M };
+  const inputs = {
+    nearOhm: Number(f.near.toFixed(3)),
+    farOhm: Number(f.far.toFixed(3)),
+    lengthM: FLOOR_CABLE_M,
+    ohmPerMetre: FLOOR_OHM_PER_M,
+  };
   const estimate = locateByLoopBothEnds(inputs);
   tx.insert(t.faultEstimates)
     .values({
