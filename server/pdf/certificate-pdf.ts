@@ -1,13 +1,22 @@
 // The certificates as PDF: a venue certificate (summary, then an annex with every reading) and a
 // one-page certificate per strip. Rendered only from the signed record and the certified readings,
 // with the signing time as the document date, so the same record always gives the same bytes.
-import QRCode from 'qrcode';
-import { createHash } from 'node:crypto';
-import { A4, COLOURS, createDocument, Pen, table, toBuffer, type Column, type Frame, type TextStyle } from './layout';
+import { COLOURS, createDocument, toBuffer, type Column } from './layout';
 import type { CertificatePayload, CertifiedReading } from '../signing/certificate-record';
 import { formatOhm } from '../../shared/domain/units';
-import { stepsForKind, TEST_KIND_LABELS } from '../../shared/domain/checklist';
+import { stepsForKind } from '../../shared/domain/checklist';
 import type { TestKind } from '../../shared/domain/limits';
+import {
+  formatDateRange,
+  formatUtc,
+  limitText,
+  ruleLabel,
+  testLabel,
+  timeUtc,
+  verdictLabel,
+  verdictMark,
+  Writer,
+} from './certificate-writer';
 
 export interface CertificateDocument {
   payload: CertificatePayload;
@@ -15,263 +24,6 @@ export interface CertificateDocument {
   keyId: string;
   /** Venue: all certified readings; strip: that strip's. */
   readings: CertifiedReading[];
-}
-
-const MARGIN_X = 56;
-type Orientation = 'portrait' | 'landscape';
-const frameFor = (o: Orientation): Frame => {
-  const [w, h] = o === 'portrait' ? [A4.width, A4.height] : [A4.height, A4.width];
-  return { left: MARGIN_X, right: w - MARGIN_X, top: 78, bottom: h - 62 };
-};
-
-const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
-const pad = (n: number) => String(n).padStart(2, '0');
-/** UTC, spelled out, so the document reads the same wherever it is rendered. */
-export function formatUtc(iso: string): string {
-  const d = new Date(iso);
-  return `${d.getUTCDate()} ${MONTHS[d.getUTCMonth()].slice(0, 3)} ${d.getUTCFullYear()}, ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())} UTC`;
-}
-const timeUtc = (iso: string) => {
-  const d = new Date(iso);
-  return `${pad(d.getUTCDate())}/${pad(d.getUTCMonth() + 1)} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}`;
-};
-export function formatDateRange(startsOn: string, endsOn: string): string {
-  const [a, b] = [new Date(`${startsOn}T00:00:00Z`), new Date(`${endsOn}T00:00:00Z`)];
-  const month = (d: Date) => MONTHS[d.getUTCMonth()];
-  if (startsOn === endsOn) return `${a.getUTCDate()} ${month(a)} ${a.getUTCFullYear()}`;
-  if (a.getUTCFullYear() === b.getUTCFullYear() && a.getUTCMonth() === b.getUTCMonth())
-    return `${a.getUTCDate()}–${b.getUTCDate()} ${month(b)} ${b.getUTCFullYear()}`;
-  return `${a.getUTCDate()} ${month(a)} ${a.getUTCFullYear()} – ${b.getUTCDate()} ${month(b)} ${b.getUTCFullYear()}`;
-}
-
-const limitText = (r: CertifiedReading) =>
-  r.limitOhm === null ? '—' : `${r.limitKind === 'min' ? 'min' : 'max'} ${formatOhm(r.limitOhm)}`;
-const testLabel = (kind: string) => TEST_KIND_LABELS[kind as keyof typeof TEST_KIND_LABELS] ?? kind;
-const verdictLabel = (v: CertifiedReading['verdict']) => (v === 'pass' ? 'Pass' : v === 'near-limit' ? 'Near limit' : 'Fail');
-const ruleLabel = (id: string) => {
-  const [kind, test] = id.split('.');
-  const k = kind.replace(/-/g, ' ');
-  return `${k.charAt(0).toUpperCase()}${k.slice(1)}, ${testLabel(test === 'end-to-end' ? 'piste-end-to-end' : test === 'earth' ? 'piste-earth' : test).toLowerCase()}`;
-};
-const fingerprint = (jws: string) =>
-  createHash('sha256').update(jws).digest('hex').toUpperCase().match(/.{4}/g)!.join(' ');
-
-/** A small shape beside the word: a tick for pass, a triangle for near limit, a cross for fail. */
-function verdictMark(pen: Pen, verdict: CertifiedReading['verdict'], x: number, y: number, size: number) {
-  const s = size * 0.78;
-  const doc = pen.doc.save();
-  if (verdict === 'pass') {
-    doc.moveTo(x, y + s * 0.55).lineTo(x + s * 0.38, y + s * 0.92).lineTo(x + s, y + s * 0.12)
-      .lineWidth(1.1).strokeColor(COLOURS.pass).stroke();
-  } else if (verdict === 'near-limit') {
-    doc.moveTo(x + s / 2, y + s * 0.05).lineTo(x + s, y + s * 0.95).lineTo(x, y + s * 0.95).closePath().fill(COLOURS.near);
-  } else {
-    doc.moveTo(x, y).lineTo(x + s, y + s).moveTo(x + s, y).lineTo(x, y + s).lineWidth(1.1).strokeColor(COLOURS.fail).stroke();
-  }
-  doc.restore();
-  return s;
-}
-
-function drawQr(pen: Pen, text: string, x: number, y: number, size: number) {
-  const qr = QRCode.create(text, { errorCorrectionLevel: 'M' });
-  const n = qr.modules.size;
-  const quiet = 2;
-  const cell = size / (n + 2 * quiet);
-  const doc = pen.doc.save();
-  doc.rect(x, y, size, size).fill('#ffffff');
-  for (let r = 0; r < n; r++)
-    for (let c = 0; c < n; c++)
-      if (qr.modules.get(r, c)) doc.rect(x + (c + quiet) * cell, y + (r + quiet) * cell, cell + 0.02, cell + 0.02);
-  doc.fill(COLOURS.ink);
-  doc.restore();
-}
-
-class Writer {
-  readonly pen: Pen;
-  private orientation: Orientation = 'portrait';
-  frame = frameFor('portrait');
-  y = this.frame.top;
-  get width() {
-    return this.frame.right - this.frame.left;
-  }
-  constructor(
-    readonly doc: PDFKit.PDFDocument,
-    readonly p: CertificatePayload,
-    private readonly runningTitle: string,
-  ) {
-    this.pen = new Pen(doc);
-  }
-
-  newPage(orientation: Orientation = this.orientation) {
-    this.orientation = orientation;
-    this.frame = frameFor(orientation);
-    this.doc.addPage({ size: 'A4', layout: orientation, margin: 0 });
-    this.header();
-    this.y = this.frame.top;
-    return this.y;
-  }
-
-  /** A new page when less than `h` is left. */
-  need(h: number) {
-    if (this.y + h > this.frame.bottom) this.newPage();
-  }
-
-  private header() {
-    const { pen, frame: FRAME, width: WIDTH } = this;
-    const y = 34;
-    pen.doc.save().roundedRect(FRAME.left, y, 14, 14, 2.5).fill(COLOURS.brand).restore();
-    pen.doc
-      .save()
-      .moveTo(FRAME.left + 2.6, y + 10.2).lineTo(FRAME.left + 11.4, y + 10.2)
-      .moveTo(FRAME.left + 4, y + 4).lineTo(FRAME.left + 10, y + 10.2)
-      .moveTo(FRAME.left + 10, y + 4).lineTo(FRAME.left + 4, y + 10.2)
-      .lineWidth(1.1).lineCap('round').strokeColor('#ffffff').stroke().restore();
-    pen.line('STRIPWARDEN', FRAME.left + 21, y + 2.6, { size: 8, weight: 600, color: COLOURS.brand, tracking: 1.6 });
-    pen.line(this.runningTitle, FRAME.left, y + 2.6, { size: 7.5, color: COLOURS.soft }, { width: WIDTH, align: 'right' });
-    pen.rule(FRAME.left, FRAME.right, y + 22, COLOURS.line, 0.5);
-  }
-
-  footers() {
-    const range = this.doc.bufferedPageRange();
-    for (let i = 0; i < range.count; i++) {
-      this.doc.switchToPage(range.start + i);
-      const FRAME = { left: MARGIN_X, right: this.doc.page.width - MARGIN_X };
-      const WIDTH = FRAME.right - FRAME.left;
-      const y = this.doc.page.height - 46;
-      this.pen.rule(FRAME.left, FRAME.right, y, COLOURS.line, 0.5);
-      const style: TextStyle = { size: 7, color: COLOURS.soft };
-      this.pen.line(`Certificate ${this.p.number} · verify at ${this.p.verifyUrl}`, FRAME.left, y + 8, style, { width: WIDTH - 80 });
-      this.pen.line(`Page ${i + 1} of ${range.count}`, FRAME.left, y + 8, style, { width: WIDTH, align: 'right' });
-    }
-  }
-
-  eyebrow(text: string) {
-    const { frame: FRAME } = this;
-    this.pen.line(text.toUpperCase(), FRAME.left, this.y, { size: 7.5, weight: 600, color: COLOURS.brand, tracking: 1.1 });
-    this.y += 14;
-  }
-
-  title(text: string, subtitle: string) {
-    const { frame: FRAME, width: WIDTH } = this;
-    const numberW = 150;
-    const lines = this.pen.wrap(text, WIDTH - numberW - 12, { size: 24, weight: 600 });
-    lines.forEach((l, i) => this.pen.line(l, FRAME.left, this.y + i * 29, { size: 24, weight: 600 }));
-    // The number, top right, where a reader looks for it.
-    const nx = FRAME.right - numberW;
-    this.pen.line('CERTIFICATE NO.', nx, this.y - 12, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.8 }, { width: numberW, align: 'right' });
-    this.pen.line(this.p.number, nx, this.y - 1, { size: 11.5, weight: 600, color: COLOURS.brand }, { width: numberW, align: 'right' });
-    this.y += lines.length * 29 + 2;
-    this.y += this.pen.paragraph(subtitle, FRAME.left, this.y, WIDTH, { size: 10.5, color: COLOURS.soft });
-    this.y += 10;
-  }
-
-  text(text: string, style: TextStyle = { size: 9.5 }, gap = 10) {
-    const { frame: FRAME, width: WIDTH } = this;
-    const h = this.pen.wrap(text, WIDTH, style).length * style.size * 1.4;
-    this.need(h);
-    this.y += this.pen.paragraph(text, FRAME.left, this.y, WIDTH, style) + gap;
-  }
-
-  section(title: string, minBelow = 60) {
-    const { frame: FRAME } = this;
-    this.need(26 + minBelow);
-    this.y += 6;
-    this.pen.line(title, FRAME.left, this.y, { size: 10.5, weight: 600, color: COLOURS.ink });
-    this.y += 16;
-    this.pen.rule(FRAME.left, FRAME.right, this.y, COLOURS.line, 0.5);
-    this.y += 7;
-  }
-
-  /** Label over value, in a grid of `cols` columns. */
-  facts(items: [string, string][], cols = 3) {
-    const { frame: FRAME, width: WIDTH } = this;
-    const gap = 14;
-    const w = (WIDTH - gap * (cols - 1)) / cols;
-    for (let i = 0; i < items.length; i += cols) {
-      const row = items.slice(i, i + cols);
-      const valueStyle: TextStyle = { size: 9, weight: 500 };
-      const heights = row.map(([, v]) => this.pen.wrap(v, w, valueStyle).length * 9 * 1.35);
-      const h = 10 + Math.max(...heights) + 6;
-      this.need(h);
-      row.forEach(([label, value], k) => {
-        const x = FRAME.left + k * (w + gap);
-        this.pen.line(label.toUpperCase(), x, this.y, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.7 });
-        this.pen.paragraph(value, x, this.y + 10, w, valueStyle, 1.35);
-      });
-      this.y += h;
-    }
-  }
-
-  /** Two columns of label and text pairs, compact: the strip certificate's limits. */
-  ruleList(items: [string, string][]) {
-    const { frame: FRAME, width: WIDTH } = this;
-    const gap = 18;
-    const w = (WIDTH - gap) / 2;
-    const label: TextStyle = { size: 7, weight: 600 };
-    const text: TextStyle = { size: 6.8, color: COLOURS.soft };
-    for (let i = 0; i < items.length; i += 2) {
-      const pair = items.slice(i, i + 2);
-      const h = Math.max(...pair.map(([, t]) => this.pen.wrap(t, w, text).length)) * 6.8 * 1.3 + 9 + 5;
-      this.need(h);
-      pair.forEach(([l, t], k) => {
-        const x = FRAME.left + k * (w + gap);
-        this.pen.line(l, x, this.y, label, { width: w });
-        this.pen.paragraph(t, x, this.y + 9, w, text, 1.3);
-      });
-      this.y += h;
-    }
-    this.y += 4;
-  }
-
-  table<R>(rows: R[], columns: Column<R>[], opts?: Parameters<typeof table>[6]) {
-    this.need(40);
-    this.y = table(this.pen, rows, columns, this.y, this.frame, () => this.newPage(), opts) + 10;
-  }
-
-  scope() {
-    const { frame: FRAME, width: WIDTH } = this;
-    const style: TextStyle = { size: 8.5, color: COLOURS.ink };
-    const lines = this.pen.wrap(this.p.scope, WIDTH - 28, style);
-    const h = 14 + 12 + lines.length * 8.5 * 1.4 + 8;
-    this.need(h + 6);
-    this.pen.box(FRAME.left, this.y, WIDTH, h, COLOURS.brandSoft);
-    this.pen.box(FRAME.left, this.y, 2.5, h, COLOURS.brand);
-    this.pen.line('SCOPE', FRAME.left + 14, this.y + 9, { size: 6.5, weight: 600, color: COLOURS.brand, tracking: 0.8 });
-    this.pen.paragraph(this.p.scope, FRAME.left + 14, this.y + 21, WIDTH - 28, style);
-    this.y += h + 12;
-  }
-
-  signature(jws: string, keyId: string) {
-    const { frame: FRAME, width: WIDTH } = this;
-    const qr = 86;
-    const h = qr + 24;
-    this.need(h);
-    const top = this.y;
-    const left = FRAME.left;
-    const textW = WIDTH - qr - 12;
-    this.pen.line('SIGNED ELECTRONICALLY', left, top, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.8 });
-    this.pen.line(this.p.signer.name, left, top + 11, { size: 13, weight: 600 });
-    this.pen.line(`${this.p.signer.role}, ${formatUtc(this.p.signedAt)}`, left, top + 29, { size: 9, color: COLOURS.soft });
-    const mono: TextStyle = { size: 7, color: COLOURS.soft };
-    let y = top + 48;
-    const rows: [string, string][] = [
-      ['Signature', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
-      ['Key id', keyId],
-      ['JWS SHA-256', fingerprint(jws)],
-      ['Full signature', `${this.p.issuer.origin}/api/verify/${this.p.number}`],
-      ['Public keys', `${this.p.issuer.origin}/.well-known/jwks.json`],
-    ];
-    for (const [label, value] of rows) {
-      this.pen.line(label, left, y, { size: 7, weight: 600, color: COLOURS.ink });
-      const lines = this.pen.wrap(value, textW - 62, mono);
-      lines.forEach((l, i) => this.pen.line(l, left + 62, y + i * 9.4, mono));
-      y += lines.length * 9.4 + 1.5;
-    }
-    const qx = FRAME.right - qr;
-    drawQr(this.pen, this.p.verifyUrl, qx, top - 2, qr);
-    this.pen.line('Scan to check this certificate', qx - 20, top + qr + 2, { size: 6.5, color: COLOURS.soft }, { width: qr + 20, align: 'right' });
-    this.y = Math.max(y, top + qr + 14) + 6;
-  }
 }
 
 const shortSource = (source: string) =>
@@ -440,25 +192,23 @@ function readingGrid(readings: CertifiedReading[]) {
   const columns: Column<GridRow>[] = [
     { header: 'Position', width: 70, value: (row) => row.position, style: () => ({ weight: 500 }) },
     { header: 'Asset tag', width: 44, value: (row) => row.assetTag ?? '—', nowrap: true },
-    ...used.map(
-      (g): Column<GridRow> => ({
-        header: g.header,
-        width: 40,
-        nowrap: true,
-        value: (row) => {
-          const r = row.cells.get(g.key);
-          return r ? valueText(r) : '';
-        },
-        style: (row) => {
-          const r = row.cells.get(g.key);
-          return r && r.verdict !== 'pass' ? { color: verdictColour(r.verdict), weight: 600 } : {};
-        },
-        mark: (row, pen, x, y, size) => {
-          const r = row.cells.get(g.key);
-          return r ? verdictMark(pen, r.verdict, x, y, size) : 0;
-        },
-      }),
-    ),
+    ...used.map((g): Column<GridRow> => ({
+      header: g.header,
+      width: 40,
+      nowrap: true,
+      value: (row) => {
+        const r = row.cells.get(g.key);
+        return r ? valueText(r) : '';
+      },
+      style: (row) => {
+        const r = row.cells.get(g.key);
+        return r && r.verdict !== 'pass' ? { color: verdictColour(r.verdict), weight: 600 } : {};
+      },
+      mark: (row, pen, x, y, size) => {
+        const r = row.cells.get(g.key);
+        return r ? verdictMark(pen, r.verdict, x, y, size) : 0;
+      },
+    })),
   ];
   if (list.some((row) => row.other.length > 0))
     columns.push({
@@ -480,13 +230,16 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
     { size: 9.5 },
     10,
   );
-  w.facts([
-    ['Venue', `${p.venue.name}${strip.zone ? `, ${strip.zone}` : ''}`],
-    ['Items by asset tag', strip.items.map((i) => i.assetTag ?? i.position).join(', ')],
-    ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
-    ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),
-    ['Venue certificate', p.related.venueCertificate ?? '—'],
-  ], 4);
+  w.facts(
+    [
+      ['Venue', `${p.venue.name}${strip.zone ? `, ${strip.zone}` : ''}`],
+      ['Items by asset tag', strip.items.map((i) => i.assetTag ?? i.position).join(', ')],
+      ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
+      ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),
+      ['Venue certificate', p.related.venueCertificate ?? '—'],
+    ],
+    4,
+  );
   w.section('Readings', 40);
   const grid = readingGrid(doc.readings);
   w.table(grid.rows, grid.columns, { size: 7.5, headerSize: 6, padY: 3.4 });
