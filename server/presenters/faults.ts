@@ -2,8 +2,9 @@
 // where the engine still agrees), their combination, and the one estimate a list shows.
 import type { Db, Tx } from '../db/client';
 import { faultsRepository, type FaultEstimateRow, type FaultListRow } from '../db/faults.repository';
+import type { stripsRepository } from '../db/strips.repository';
 import type { EquipmentRow } from '../db/equipment.repository';
-import { combineEstimates, FaultLocationError, runFaultLocation, type FaultEstimate } from '../../shared/domain/fault-location';
+import { combineEstimates, FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation, type FaultEstimate } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
 import type { LengthSystem } from '../../shared/domain/units';
 
@@ -127,4 +128,52 @@ export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units?: Leng
     openedByName: r.openedByName,
     closedAt: r.fault.closedAt,
   }));
+}
+
+/**
+ * What the locating forms can start from: the length, and Ω per metre from the cable's own
+ * continuity reading of a sound conductor (one not involved in the fault), else from its size.
+ */
+export function prefillFor(
+  row: FaultListRow,
+  steps: ReturnType<ReturnType<typeof stripsRepository>['activeStepsOf']>,
+  readings: ReturnType<ReturnType<typeof stripsRepository>['readingsOfSteps']>,
+) {
+  const lengthM = row.equipment?.lengthM ?? null;
+  const involved = new Set(row.fault.conductors.split('-'));
+  const out: {
+    lengthM: number | null;
+    velocityFactor: number | null;
+    soundConductor: string | null;
+    conductorOhm: number | null;
+    ohmPerMetre: number | null;
+    ohmPerMetreSource: string | null;
+  } = {
+    lengthM,
+    velocityFactor: row.equipment?.velocityFactor ?? null,
+    soundConductor: null,
+    conductorOhm: null,
+    ohmPerMetre: null,
+    ohmPerMetreSource: null,
+  };
+  for (const s of steps) {
+    if (s.testKind !== 'continuity' || involved.has(s.conductors)) continue;
+    const latest = readings.find((r) => r.reading.stepId === s.id)?.reading;
+    if (latest && latest.verdict !== 'fail' && latest.valueOhm !== null && latest.valueOhm > 0) {
+      out.soundConductor = s.conductors;
+      out.conductorOhm = latest.valueOhm;
+      if (lengthM) out.ohmPerMetre = latest.valueOhm / lengthM;
+      out.ohmPerMetreSource = `line ${s.conductors} of this cable, end to end, read ${latest.valueOhm} Ω`;
+      return out;
+    }
+  }
+  if (row.equipment?.conductorMm2) {
+    try {
+      out.ohmPerMetre = ohmPerMetreFromConductorSize({ mm2: row.equipment.conductorMm2 });
+      out.ohmPerMetreSource = `IEC 60228 maximum for ${row.equipment.conductorMm2} mm² flexible copper`;
+    } catch {
+      // A size with no table value: the form asks for Ω per metre.
+    }
+  }
+  return out;
 }

@@ -12,143 +12,153 @@ import { certificateFiles } from '../storage/certificate-files';
 import { verifyUrlFor, type CertificatePayload } from '../signing/certificate-record';
 import { currentSigningKey, publicJwks } from '../signing/signing-keys';
 import { isCertificateNumber, normaliseCertificateNumber } from '../../shared/domain/certificate-number';
+import { bindScope } from './bind';
 
-export function certificatesService(deps: AppDeps) {
+function scopeOf(deps: AppDeps) {
   const access = accessService(deps.db);
   const repo = certificatesRepository(deps.db);
   const files = certificateFiles(deps.env.DATA_DIR);
+  return { deps, access, repo, files };
+}
+type Scope = ReturnType<typeof scopeOf>;
 
-  function publicView(c: CertificateRow) {
-    const p = JSON.parse(c.payloadJson) as CertificatePayload;
-    return {
-      status: c.status,
-      number: c.number,
-      kind: c.kind,
-      event: p.event.name,
-      eventDates: { startsOn: p.event.startsOn, endsOn: p.event.endsOn },
-      venue: p.venue.name,
-      strips: p.strips.map((s) => s.label),
-      organisation: p.issuer.organisation.name,
-      issuedAt: c.issuedAt,
-      signedBy: p.signer.name,
-      signedAt: p.signedAt,
-      profile: { name: p.profile.name, version: p.profile.version },
-      items: p.items.length,
-      readings: p.readings.count,
-      supersededAt: c.supersededAt,
-      revokedAt: c.revokedAt,
-      revokedReason: c.revokedReason,
-      keyId: c.keyId,
-      jws: c.jws,
-      pdfSha256: c.pdfSha256,
-      verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
-    };
-  }
-
-  /** A certificate the user may see (same organisation, read access to its venue), else 404/403. */
-  function readable(user: AuthUser, number: string) {
-    const c = repo.byNumber(normaliseCertificateNumber(number));
-    if (!c) throw notFound('That certificate');
-    const row = access.requireVenue(user, c.venueId, 'read');
-    return { c, row };
-  }
-
-  function latestSet(venueId: string) {
-    const all = repo.ofVenue(venueId);
-    const latest = all[0]?.certificate.signOffId;
-    return all.filter((x) => x.certificate.signOffId === latest);
-  }
-
+function publicView({ deps }: Scope, c: CertificateRow) {
+  const p = JSON.parse(c.payloadJson) as CertificatePayload;
   return {
-    list(user: AuthUser, venueId: string) {
-      const row = access.requireVenue(user, venueId, 'read');
-      const canRevoke = user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id);
-      const list = repo.ofVenue(venueId).map(({ certificate: c, signOff, signerName, stripLabel }) => ({
-        number: c.number,
-        kind: c.kind,
-        stripId: c.stripId,
-        stripLabel,
-        status: c.status,
-        issuedAt: c.issuedAt,
-        signOffId: c.signOffId,
-        signedBy: signerName,
-        signedAt: signOff.signedAt,
-        supersededAt: c.supersededAt,
-        revokedAt: c.revokedAt,
-        revokedReason: c.revokedReason,
-        pdfSha256: c.pdfSha256,
-        verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
-      }));
-      // Newest sign-off first; within one, the venue certificate, then strips in venue order.
-      const order = new Map<string, number>();
-      list.forEach((c) => order.set(c.signOffId, order.get(c.signOffId) ?? order.size));
-      list.sort((a, b) => order.get(a.signOffId)! - order.get(b.signOffId)! || (a.kind === b.kind ? 0 : a.kind === 'venue' ? -1 : 1));
-      return {
-        venue: { id: row.venue.id, name: row.venue.name, status: row.venue.status },
-        event: { id: row.event.id, name: row.event.name, startsOn: row.event.startsOn, endsOn: row.event.endsOn },
-        canRevoke,
-        certificates: list,
-      };
-    },
-
-    pdf(user: AuthUser, number: string) {
-      const { c } = readable(user, number);
-      if (!c.pdfPath) throw notFound('That certificate file');
-      return { number: c.number, data: files.read(c.pdfPath) };
-    },
-
-    /** The latest sign-off's certificates of a venue, for the ZIP. */
-    zipEntries(user: AuthUser, venueId: string) {
-      const row = access.requireVenue(user, venueId, 'read');
-      const set = latestSet(venueId).filter((x) => x.certificate.pdfPath);
-      if (set.length === 0) throw notFound('A certificate of this venue');
-      const ordered = [...set].sort((a, b) => (a.certificate.kind === b.certificate.kind ? 0 : a.certificate.kind === 'venue' ? -1 : 1));
-      return {
-        venueName: row.venue.name,
-        signedAt: set[0].signOff.signedAt,
-        entries: ordered.map(({ certificate: c, stripLabel }) => ({
-          name: `${c.kind === 'venue' ? 'venue' : slug(stripLabel ?? 'strip')}-${c.number}.pdf`,
-          data: files.read(c.pdfPath!),
-          date: new Date(c.issuedAt),
-        })),
-      };
-    },
-
-    revoke(user: AuthUser, number: string, reason: string) {
-      const { c, row } = readable(user, number);
-      if (!(user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id))) {
-        throw forbidden('Only the technical director of this event or an admin can revoke its certificates.');
-      }
-      if (c.status === 'revoked') throw conflict('already-revoked', 'This certificate is already revoked.');
-      const at = new Date().toISOString();
-      deps.db.transaction((tx) => {
-        certificatesRepository(tx).revoke(c.id, { at, reason, by: user.id });
-        recordAudit(tx, user, 'certificate.revoked', 'certificate', c.id, { number: c.number, reason, previousStatus: c.status });
-      });
-      return publicView(repo.byNumber(c.number)!);
-    },
-
-    verify(number: string) {
-      const n = normaliseCertificateNumber(number);
-      const c = isCertificateNumber(n) ? repo.byNumber(n) : undefined;
-      if (!c) throw notFound('A certificate with that number');
-      return publicView(c);
-    },
-
-    /** Byte for byte: the SHA-256 of the upload against the hashes of the issued files. */
-    verifyFile(data: Buffer) {
-      const sha256 = sha256Hex(data);
-      const found = repo.bySha(sha256);
-      if (found.length === 0) return { match: false as const, sha256 };
-      return { match: true as const, sha256, certificate: publicView(found[0]) };
-    },
-
-    /** Made on first start if there is no key yet, so the set is never empty. */
-    async jwks() {
-      await currentSigningKey(deps.db, deps.env);
-      return publicJwks(deps.db);
-    },
+    status: c.status,
+    number: c.number,
+    kind: c.kind,
+    event: p.event.name,
+    eventDates: { startsOn: p.event.startsOn, endsOn: p.event.endsOn },
+    venue: p.venue.name,
+    strips: p.strips.map((s) => s.label),
+    organisation: p.issuer.organisation.name,
+    issuedAt: c.issuedAt,
+    signedBy: p.signer.name,
+    signedAt: p.signedAt,
+    profile: { name: p.profile.name, version: p.profile.version },
+    items: p.items.length,
+    readings: p.readings.count,
+    supersededAt: c.supersededAt,
+    revokedAt: c.revokedAt,
+    revokedReason: c.revokedReason,
+    keyId: c.keyId,
+    jws: c.jws,
+    pdfSha256: c.pdfSha256,
+    verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
   };
+}
+
+/** A certificate the user may see (same organisation, read access to its venue), else 404/403. */
+function readable({ access, repo }: Scope, user: AuthUser, number: string) {
+  const c = repo.byNumber(normaliseCertificateNumber(number));
+  if (!c) throw notFound('That certificate');
+  const row = access.requireVenue(user, c.venueId, 'read');
+  return { c, row };
+}
+
+function latestSet({ repo }: Scope, venueId: string) {
+  const all = repo.ofVenue(venueId);
+  const latest = all[0]?.certificate.signOffId;
+  return all.filter((x) => x.certificate.signOffId === latest);
+}
+
+function list({ deps, access, repo }: Scope, user: AuthUser, venueId: string) {
+  const row = access.requireVenue(user, venueId, 'read');
+  const canRevoke = user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id);
+  const list = repo.ofVenue(venueId).map(({ certificate: c, signOff, signerName, stripLabel }) => ({
+    number: c.number,
+    kind: c.kind,
+    stripId: c.stripId,
+    stripLabel,
+    status: c.status,
+    issuedAt: c.issuedAt,
+    signOffId: c.signOffId,
+    signedBy: signerName,
+    signedAt: signOff.signedAt,
+    supersededAt: c.supersededAt,
+    revokedAt: c.revokedAt,
+    revokedReason: c.revokedReason,
+    pdfSha256: c.pdfSha256,
+    verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
+  }));
+  // Newest sign-off first; within one, the venue certificate, then strips in venue order.
+  const order = new Map<string, number>();
+  list.forEach((c) => order.set(c.signOffId, order.get(c.signOffId) ?? order.size));
+  list.sort((a, b) => order.get(a.signOffId)! - order.get(b.signOffId)! || (a.kind === b.kind ? 0 : a.kind === 'venue' ? -1 : 1));
+  return {
+    venue: { id: row.venue.id, name: row.venue.name, status: row.venue.status },
+    event: { id: row.event.id, name: row.event.name, startsOn: row.event.startsOn, endsOn: row.event.endsOn },
+    canRevoke,
+    certificates: list,
+  };
+}
+
+function pdf(scope: Scope, user: AuthUser, number: string) {
+  const { files } = scope;
+  const { c } = readable(scope, user, number);
+  if (!c.pdfPath) throw notFound('That certificate file');
+  return { number: c.number, data: files.read(c.pdfPath) };
+}
+
+/** The latest sign-off's certificates of a venue, for the ZIP. */
+function zipEntries(scope: Scope, user: AuthUser, venueId: string) {
+  const { access, files } = scope;
+  const row = access.requireVenue(user, venueId, 'read');
+  const set = latestSet(scope, venueId).filter((x) => x.certificate.pdfPath);
+  if (set.length === 0) throw notFound('A certificate of this venue');
+  const ordered = [...set].sort((a, b) => (a.certificate.kind === b.certificate.kind ? 0 : a.certificate.kind === 'venue' ? -1 : 1));
+  return {
+    venueName: row.venue.name,
+    signedAt: set[0].signOff.signedAt,
+    entries: ordered.map(({ certificate: c, stripLabel }) => ({
+      name: `${c.kind === 'venue' ? 'venue' : slug(stripLabel ?? 'strip')}-${c.number}.pdf`,
+      data: files.read(c.pdfPath!),
+      date: new Date(c.issuedAt),
+    })),
+  };
+}
+
+function revoke(scope: Scope, user: AuthUser, number: string, reason: string) {
+  const { deps, repo } = scope;
+  const { c, row } = readable(scope, user, number);
+  if (!(user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id))) {
+    throw forbidden('Only the technical director of this event or an admin can revoke its certificates.');
+  }
+  if (c.status === 'revoked') throw conflict('already-revoked', 'This certificate is already revoked.');
+  const at = new Date().toISOString();
+  deps.db.transaction((tx) => {
+    certificatesRepository(tx).revoke(c.id, { at, reason, by: user.id });
+    recordAudit(tx, user, 'certificate.revoked', 'certificate', c.id, { number: c.number, reason, previousStatus: c.status });
+  });
+  return publicView(scope, repo.byNumber(c.number)!);
+}
+
+function verify(scope: Scope, number: string) {
+  const { repo } = scope;
+  const n = normaliseCertificateNumber(number);
+  const c = isCertificateNumber(n) ? repo.byNumber(n) : undefined;
+  if (!c) throw notFound('A certificate with that number');
+  return publicView(scope, c);
+}
+
+/** Byte for byte: the SHA-256 of the upload against the hashes of the issued files. */
+function verifyFile(scope: Scope, data: Buffer) {
+  const { repo } = scope;
+  const sha256 = sha256Hex(data);
+  const found = repo.bySha(sha256);
+  if (found.length === 0) return { match: false as const, sha256 };
+  return { match: true as const, sha256, certificate: publicView(scope, found[0]) };
+}
+
+/** Made on first start if there is no key yet, so the set is never empty. */
+async function jwks({ deps }: Scope) {
+  await currentSigningKey(deps.db, deps.env);
+  return publicJwks(deps.db);
+}
+
+export function certificatesService(deps: AppDeps) {
+  return bindScope(scopeOf(deps), { list, pdf, zipEntries, revoke, verify, verifyFile, jwks });
 }
 
 export function slug(text: string): string {

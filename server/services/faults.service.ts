@@ -2,26 +2,34 @@
 import { z } from 'zod';
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
-import { faultsRepository, type FaultListRow } from '../db/faults.repository';
+import { faultsRepository } from '../db/faults.repository';
 import { stripsRepository } from '../db/strips.repository';
-import { equipmentRepository } from '../db/equipment.repository';
+import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
+import type { Tx } from '../db/client';
 import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
 import { conflict, notFound, preconditionFailed, unprocessable, AppError } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
-import { FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation } from '../../shared/domain/fault-location';
+import { FaultLocationError, runFaultLocation } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
 import { formatLength } from '../../shared/domain/units';
 import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
-import { combine, presentEquipment, presentEstimate, presentFaultList } from '../presenters/faults';
+import { combine, prefillFor, presentEquipment, presentEstimate, presentFaultList } from '../presenters/faults';
 import { presentReading } from '../presenters/readings';
+import { bindScope } from './bind';
+
+type PositionContext = NonNullable<ReturnType<ReturnType<typeof stripsRepository>['positionContext']>>;
 
 export const faultEtag = (version: number) => `"${version}"`;
 
 function checkIfMatch(ifMatch: string | undefined, version: number) {
   if (!ifMatch) {
-    throw new AppError(428, 'if-match-required', 'Send If-Match with the ETag of the fault you loaded, so a change made meanwhile is not overwritten.');
+    throw new AppError(
+      428,
+      'if-match-required',
+      'Send If-Match with the ETag of the fault you loaded, so a change made meanwhile is not overwritten.',
+    );
   }
   const tags = ifMatch.split(',').map((t) => t.trim().replace(/^W\//, ''));
   if (!tags.includes('*') && !tags.includes(faultEtag(version))) {
@@ -31,274 +39,267 @@ function checkIfMatch(ifMatch: string | undefined, version: number) {
   }
 }
 
-export function faultsService(deps: AppDeps) {
+function scopeOf(deps: AppDeps) {
   const access = accessService(deps.db);
+  return { deps, access };
+}
+type Scope = ReturnType<typeof scopeOf>;
 
-  function load(user: AuthUser, id: string, mode: 'read' | 'test') {
-    const row = faultsRepository(deps.db).findById(id);
-    if (!row) throw notFound('That fault');
-    access.requireVenue(user, row.venueId, mode);
-    return row;
-  }
+function load({ deps, access }: Scope, user: AuthUser, id: string, mode: 'read' | 'test') {
+  const row = faultsRepository(deps.db).findById(id);
+  if (!row) throw notFound('That fault');
+  access.requireVenue(user, row.venueId, mode);
+  return row;
+}
 
-  function detail(user: AuthUser, id: string) {
-    const row = load(user, id, 'read');
-    const repo = faultsRepository(deps.db);
-    const strips = stripsRepository(deps.db);
-    const [listItem] = presentFaultList(deps.db, [row], user.unitSystem);
-    const lengthM = row.equipment?.lengthM ?? null;
-    const estimates = repo.estimatesOf([id]).map((e) => presentEstimate(e.estimate, lengthM, e.createdByName, user.unitSystem));
-    const steps = strips.activeStepsOf([row.fault.positionId]);
-    const readings = strips.readingsOfSteps(steps.map((s) => s.id));
-    const position = strips.positionContext(row.fault.positionId);
-    return {
-      ...listItem!,
-      lengthM,
-      currentEquipment: presentEquipment(position?.equipment ?? null),
-      estimates,
-      combined: combine(estimates, user.unitSystem),
-      repairs: repo.repairsOf(id).map(({ repair, createdByName }) => ({ ...repair, createdByName })),
-      steps: steps.map((s) => {
-        const own = readings.filter((r) => r.reading.stepId === s.id);
-        return {
-          id: s.id,
-          testKind: s.testKind,
-          conductors: s.conductors,
-          required: s.required,
-          latest: own[0] ? presentReading(own[0].reading, own[0].takenByName) : null,
-          readings: own.map((r) => presentReading(r.reading, r.takenByName)),
-        };
-      }),
-      prefill: prefillFor(row, steps, readings),
-    };
-  }
+function detail(scope: Scope, user: AuthUser, id: string) {
+  const { deps } = scope;
+  const row = load(scope, user, id, 'read');
+  const repo = faultsRepository(deps.db);
+  const strips = stripsRepository(deps.db);
+  const [listItem] = presentFaultList(deps.db, [row], user.unitSystem);
+  const lengthM = row.equipment?.lengthM ?? null;
+  const estimates = repo.estimatesOf([id]).map((e) => presentEstimate(e.estimate, lengthM, e.createdByName, user.unitSystem));
+  const steps = strips.activeStepsOf([row.fault.positionId]);
+  const readings = strips.readingsOfSteps(steps.map((s) => s.id));
+  const position = strips.positionContext(row.fault.positionId);
+  return {
+    ...listItem!,
+    lengthM,
+    currentEquipment: presentEquipment(position?.equipment ?? null),
+    estimates,
+    combined: combine(estimates, user.unitSystem),
+    repairs: repo.repairsOf(id).map(({ repair, createdByName }) => ({ ...repair, createdByName })),
+    steps: steps.map((s) => {
+      const own = readings.filter((r) => r.reading.stepId === s.id);
+      return {
+        id: s.id,
+        testKind: s.testKind,
+        conductors: s.conductors,
+        required: s.required,
+        latest: own[0] ? presentReading(own[0].reading, own[0].takenByName) : null,
+        readings: own.map((r) => presentReading(r.reading, r.takenByName)),
+      };
+    }),
+    prefill: prefillFor(row, steps, readings),
+  };
+}
 
-  /**
-   * What the locating forms can start from: the length, and Ω per metre from the cable's own
-   * continuity reading of a sound conductor (one not involved in the fault), else from its size.
-   */
-  function prefillFor(
-    row: FaultListRow,
-    steps: ReturnType<ReturnType<typeof stripsRepository>['activeStepsOf']>,
-    readings: ReturnType<ReturnType<typeof stripsRepository>['readingsOfSteps']>,
-  ) {
-    const lengthM = row.equipment?.lengthM ?? null;
-    const involved = new Set(row.fault.conductors.split('-'));
-    const out: {
-      lengthM: number | null;
-      velocityFactor: number | null;
-      soundConductor: string | null;
-      conductorOhm: number | null;
-      ohmPerMetre: number | null;
-      ohmPerMetreSource: string | null;
-    } = { lengthM, velocityFactor: row.equipment?.velocityFactor ?? null, soundConductor: null, conductorOhm: null, ohmPerMetre: null, ohmPerMetreSource: null };
-    for (const s of steps) {
-      if (s.testKind !== 'continuity' || involved.has(s.conductors)) continue;
-      const latest = readings.find((r) => r.reading.stepId === s.id)?.reading;
-      if (latest && latest.verdict !== 'fail' && latest.valueOhm !== null && latest.valueOhm > 0) {
-        out.soundConductor = s.conductors;
-        out.conductorOhm = latest.valueOhm;
-        if (lengthM) out.ohmPerMetre = latest.valueOhm / lengthM;
-        out.ohmPerMetreSource = `line ${s.conductors} of this cable, end to end, read ${latest.valueOhm} Ω`;
-        return out;
-      }
-    }
-    if (row.equipment?.conductorMm2) {
-      try {
-        out.ohmPerMetre = ohmPerMetreFromConductorSize({ mm2: row.equipment.conductorMm2 });
-        out.ohmPerMetreSource = `IEC 60228 maximum for ${row.equipment.conductorMm2} mm² flexible copper`;
-      } catch {
-        // A size with no table value: the form asks for Ω per metre.
-      }
-    }
-    return out;
-  }
 
-  function list(user: AuthUser, venueId: string) {
-    access.requireVenue(user, venueId, 'read');
-    return presentFaultList(deps.db, faultsRepository(deps.db).ofVenue(venueId));
-  }
+function list({ deps, access }: Scope, user: AuthUser, venueId: string) {
+  access.requireVenue(user, venueId, 'read');
+  return presentFaultList(deps.db, faultsRepository(deps.db).ofVenue(venueId));
+}
 
-  function create(user: AuthUser, body: CreateFaultInput) {
-    const strips = stripsRepository(deps.db);
-    const ctx = strips.positionContext(body.positionId);
-    if (!ctx) throw notFound('That position');
-    access.requireVenue(user, ctx.venue.id, 'test');
-    if (body.stepId) {
-      const step = strips.stepContext(body.stepId);
-      if (!step || step.position.id !== body.positionId) {
-        throw unprocessable('bad-step', 'The step must belong to the position.', { errors: [{ path: 'stepId', message: 'Not a step of this position' }] });
-      }
-    }
-    const id = newId();
-    deps.db.transaction((tx) => {
-      faultsRepository(tx).insert({
-        id,
-        stripId: ctx.strip.id,
-        positionId: ctx.position.id,
-        equipmentId: ctx.position.equipmentId,
-        stepId: body.stepId ?? null,
-        kind: body.kind,
-        conductors: body.conductors,
-        notes: body.notes ?? null,
-        status: 'open',
-        openedBy: user.id,
-        openedAt: nowIso(),
+function create(scope: Scope, user: AuthUser, body: CreateFaultInput) {
+  const { deps, access } = scope;
+  const strips = stripsRepository(deps.db);
+  const ctx = strips.positionContext(body.positionId);
+  if (!ctx) throw notFound('That position');
+  access.requireVenue(user, ctx.venue.id, 'test');
+  if (body.stepId) {
+    const step = strips.stepContext(body.stepId);
+    if (!step || step.position.id !== body.positionId) {
+      throw unprocessable('bad-step', 'The step must belong to the position.', {
+        errors: [{ path: 'stepId', message: 'Not a step of this position' }],
       });
-      recordAudit(tx, user, 'fault.opened', 'fault', id, { kind: body.kind, conductors: body.conductors, automatic: false });
+    }
+  }
+  const id = newId();
+  deps.db.transaction((tx) => {
+    faultsRepository(tx).insert({
+      id,
+      stripId: ctx.strip.id,
+      positionId: ctx.position.id,
+      equipmentId: ctx.position.equipmentId,
+      stepId: body.stepId ?? null,
+      kind: body.kind,
+      conductors: body.conductors,
+      notes: body.notes ?? null,
+      status: 'open',
+      openedBy: user.id,
+      openedAt: nowIso(),
     });
-    return detail(user, id);
-  }
+    recordAudit(tx, user, 'fault.opened', 'fault', id, { kind: body.kind, conductors: body.conductors, automatic: false });
+  });
+  return detail(scope, user, id);
+}
 
-  function update(user: AuthUser, id: string, ifMatch: string | undefined, body: UpdateFaultInput) {
-    const row = load(user, id, 'test');
-    checkIfMatch(ifMatch, row.fault.version);
-    deps.db.transaction((tx) => {
-      const patch: Parameters<ReturnType<typeof faultsRepository>['update']>[2] = {};
-      if (body.notes !== undefined) patch.notes = body.notes;
-      if (body.kind !== undefined) patch.kind = body.kind;
-      if (body.status !== undefined) {
-        patch.status = body.status;
-        patch.closedAt = body.status === 'closed' ? nowIso() : null;
-      }
-      if (!faultsRepository(tx).update(id, row.fault.version, patch)) {
-        throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and make your change again.');
-      }
-      recordAudit(tx, user, 'fault.updated', 'fault', id, { before: { notes: row.fault.notes, kind: row.fault.kind, status: row.fault.status }, after: body });
-    });
-    return detail(user, id);
-  }
-
-  function addEstimate(user: AuthUser, id: string, raw: unknown) {
-    const row = load(user, id, 'test');
-    if (row.fault.status === 'closed') throw conflict('fault-closed', 'This fault is closed; open a new one to locate another.');
-    const { fromEnd: fromEndRaw, ...rest } = (raw && typeof raw === 'object' ? raw : {}) as Record<string, unknown>;
-    const fromEnd = fromEndRaw === undefined ? 'near' : z.object({ fromEnd: fromEndSchema }).parse({ fromEnd: fromEndRaw }).fromEnd;
-    const lengthM = row.equipment?.lengthM ?? null;
-    // What is known about the item fills what the reading form left out.
-    if (rest.lengthM === undefined && lengthM !== null && rest.method !== 'vf-calibration') rest.lengthM = lengthM;
-    const request = faultLocationRequestSchema.parse(rest);
-    if (request.method === 'vf-calibration') {
-      throw unprocessable('not-a-location', 'Velocity-factor calibration is done on a good cable, not on a fault.', {
-        errors: [{ path: 'method', message: 'Use tdr, loop-one-end, loop-both-ends, murray, capacitance or flex' }],
-      });
+function update(scope: Scope, user: AuthUser, id: string, ifMatch: string | undefined, body: UpdateFaultInput) {
+  const { deps } = scope;
+  const row = load(scope, user, id, 'test');
+  checkIfMatch(ifMatch, row.fault.version);
+  deps.db.transaction((tx) => {
+    const patch: Parameters<ReturnType<typeof faultsRepository>['update']>[2] = {};
+    if (body.notes !== undefined) patch.notes = body.notes;
+    if (body.kind !== undefined) patch.kind = body.kind;
+    if (body.status !== undefined) {
+      patch.status = body.status;
+      patch.closedAt = body.status === 'closed' ? nowIso() : null;
     }
-    let answer;
-    try {
-      // Saved in the saver's units; readers see it worded in theirs (explanationFor).
-      answer = runFaultLocation(request, user.unitSystem);
-    } catch (err) {
-      if (err instanceof FaultLocationError) {
-        throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
-      }
-      throw err;
+    if (!faultsRepository(tx).update(id, row.fault.version, patch)) {
+      throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and make your change again.');
     }
-    const estimateId = newId();
-    deps.db.transaction((tx) => {
-      const repo = faultsRepository(tx);
-      repo.insertEstimate({
-        id: estimateId,
-        faultId: id,
-        method: request.method,
-        fromEnd,
-        inputsJson: JSON.stringify(request),
-        distanceM: answer.distanceM,
-        uncertaintyM: answer.uncertaintyM,
-        resultJson: JSON.stringify(answer),
-        createdBy: user.id,
-        createdAt: nowIso(),
-      });
-      const status = row.fault.status === 'open' ? 'located' : row.fault.status;
-      repo.update(id, row.fault.version, { status });
-      recordAudit(tx, user, 'fault.estimated', 'fault', id, { estimateId, method: request.method, fromEnd, distanceM: answer.distanceM, uncertaintyM: answer.uncertaintyM });
+    recordAudit(tx, user, 'fault.updated', 'fault', id, {
+      before: { notes: row.fault.notes, kind: row.fault.kind, status: row.fault.status },
+      after: body,
     });
-    const fault = detail(user, id);
-    return { estimate: fault.estimates.find((e) => e.id === estimateId)!, combined: fault.combined, fault };
-  }
+  });
+  return detail(scope, user, id);
+}
 
-  function addRepair(user: AuthUser, id: string, body: CreateRepairInput) {
-    const row = load(user, id, 'test');
-    if (row.fault.status === 'closed') throw conflict('fault-closed', 'This fault is closed; a repair goes on an open fault.');
-    const strips = stripsRepository(deps.db);
-    const position = strips.positionContext(row.fault.positionId)!;
-    const item = row.equipment ?? position.equipment;
-    const at = nowIso();
-    const repairId = newId();
-
-    deps.db.transaction((tx) => {
-      const equipment = equipmentRepository(tx);
-      const faults = faultsRepository(tx);
-      let lengthBeforeM: number | null = null;
-      let replacementId: string | null = null;
-
-      if ((body.action === 'cut-out' || body.action === 'retired' || body.action === 'swapped') && !item) {
-        throw unprocessable('no-item', 'No register item is recorded for this fault, so there is nothing to repair here.');
-      }
-      if (body.action === 'cut-out') {
-        const before = item!.lengthM;
-        if (before === null) {
-          throw unprocessable('no-length', `The length of ${item!.assetTag} is not recorded; record it in the equipment register first.`, {
-            errors: [{ path: 'lengthRemovedM', message: 'The item has no recorded length' }],
-          });
-        }
-        if (body.lengthRemovedM! >= before) {
-          // Worded in the person's units: the form shows this under the field they typed in.
-          const [cut, whole] = [formatLength(body.lengthRemovedM!, user.unitSystem), formatLength(before, user.unitSystem)];
-          throw unprocessable('cut-too-long', `${cut} is not less than the ${whole} of ${item!.assetTag}; retire the item instead.`, {
-            errors: [{ path: 'lengthRemovedM', message: `Must be less than the item's ${whole}` }],
-          });
-        }
-        lengthBeforeM = before;
-        // Millimetre resolution: 12 − 1.5 stays 10.5, not 10.499999999999998.
-        const after = Math.round((before - body.lengthRemovedM!) * 1000) / 1000;
-        equipment.update(item!.id, { lengthM: after, version: item!.version + 1 });
-      }
-      if (body.action === 'swapped') {
-        const replacement = equipment.findByTag(user.orgId, body.replacementAssetTag!);
-        const refuse = (message: string) =>
-          unprocessable('bad-replacement', message, { errors: [{ path: 'replacementAssetTag', message }] });
-        if (!replacement) throw refuse(`No item with asset tag ${body.replacementAssetTag} in the register.`);
-        if (replacement.id === item!.id) throw refuse('The replacement is the same item.');
-        if (replacement.kind !== item!.kind) throw refuse(`${replacement.assetTag} is a ${replacement.kind}, not a ${item!.kind}.`);
-        if (replacement.status !== 'in-service') throw refuse(`${replacement.assetTag} is not in service (${replacement.status}).`);
-        const holder = faults.stripHoldingItem(position.venue.id, replacement.id);
-        if (holder) throw refuse(`${replacement.assetTag} is already on ${holder.stripLabel} of this venue.`);
-        replacementId = replacement.id;
-        equipment.assignToPosition(position.position.id, replacement.id, user.id, at);
-        equipment.update(item!.id, { status: 'under-repair', version: item!.version + 1 });
-      }
-      if (body.action === 'retired') {
-        equipment.update(item!.id, { status: 'retired', version: item!.version + 1 });
-        equipment.assignToPosition(position.position.id, null, user.id, at);
-      }
-
-      faults.insertRepair({
-        id: repairId,
-        faultId: id,
-        equipmentId: item?.id ?? null,
-        action: body.action,
-        lengthRemovedM: body.lengthRemovedM ?? null,
-        lengthBeforeM,
-        replacementEquipmentId: replacementId,
-        notes: body.notes ?? null,
-        createdBy: user.id,
-        createdAt: at,
-      });
-      faults.update(id, row.fault.version, { status: 'repaired' });
-      recordAudit(tx, user, 'fault.repaired', 'fault', id, { repairId, action: body.action, equipmentId: item?.id ?? null, lengthBeforeM, lengthRemovedM: body.lengthRemovedM ?? null, replacementId });
-      if (item && body.action !== 'connector-remade') {
-        recordAudit(tx, user, `equipment.${body.action}`, 'equipment', item.id, { faultId: id, repairId });
-      }
-      reopenIfSignedOff(tx, {
-        venueId: position.venue.id,
-        orgId: user.orgId,
-        actorId: user.id,
-        reason: `Repair (${body.action}) on ${position.strip.label}, ${position.position.name}`,
-      });
+function addEstimate(scope: Scope, user: AuthUser, id: string, raw: unknown) {
+  const { deps } = scope;
+  const row = load(scope, user, id, 'test');
+  if (row.fault.status === 'closed') throw conflict('fault-closed', 'This fault is closed; open a new one to locate another.');
+  const { fromEnd: fromEndRaw, ...rest } = (raw && typeof raw === 'object' ? raw : {}) as Record<string, unknown>;
+  const fromEnd = fromEndRaw === undefined ? 'near' : z.object({ fromEnd: fromEndSchema }).parse({ fromEnd: fromEndRaw }).fromEnd;
+  const lengthM = row.equipment?.lengthM ?? null;
+  // What is known about the item fills what the reading form left out.
+  if (rest.lengthM === undefined && lengthM !== null && rest.method !== 'vf-calibration') rest.lengthM = lengthM;
+  const request = faultLocationRequestSchema.parse(rest);
+  if (request.method === 'vf-calibration') {
+    throw unprocessable('not-a-location', 'Velocity-factor calibration is done on a good cable, not on a fault.', {
+      errors: [{ path: 'method', message: 'Use tdr, loop-one-end, loop-both-ends, murray, capacitance or flex' }],
     });
-    const fault = detail(user, id);
-    return { repair: fault.repairs.find((r) => r.id === repairId)!, fault };
   }
+  let answer;
+  try {
+    // Saved in the saver's units; readers see it worded in theirs (explanationFor).
+    answer = runFaultLocation(request, user.unitSystem);
+  } catch (err) {
+    if (err instanceof FaultLocationError) {
+      throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
+    }
+    throw err;
+  }
+  const estimateId = newId();
+  deps.db.transaction((tx) => {
+    const repo = faultsRepository(tx);
+    repo.insertEstimate({
+      id: estimateId,
+      faultId: id,
+      method: request.method,
+      fromEnd,
+      inputsJson: JSON.stringify(request),
+      distanceM: answer.distanceM,
+      uncertaintyM: answer.uncertaintyM,
+      resultJson: JSON.stringify(answer),
+      createdBy: user.id,
+      createdAt: nowIso(),
+    });
+    const status = row.fault.status === 'open' ? 'located' : row.fault.status;
+    repo.update(id, row.fault.version, { status });
+    recordAudit(tx, user, 'fault.estimated', 'fault', id, {
+      estimateId,
+      method: request.method,
+      fromEnd,
+      distanceM: answer.distanceM,
+      uncertaintyM: answer.uncertaintyM,
+    });
+  });
+  const fault = detail(scope, user, id);
+  return { estimate: fault.estimates.find((e) => e.id === estimateId)!, combined: fault.combined, fault };
+}
 
-  return { list, detail, create, update, addEstimate, addRepair };
+/** A section cut out of the item: its length goes down by what was removed (mm resolution). Answers the length before. */
+function cutOut(tx: Tx, user: AuthUser, item: EquipmentRow, lengthRemovedM: number): number {
+  const before = item.lengthM;
+  if (before === null) {
+    throw unprocessable('no-length', `The length of ${item.assetTag} is not recorded; record it in the equipment register first.`, {
+      errors: [{ path: 'lengthRemovedM', message: 'The item has no recorded length' }],
+    });
+  }
+  if (lengthRemovedM >= before) {
+    // Worded in the person's units: the form shows this under the field they typed in.
+    const [cut, whole] = [formatLength(lengthRemovedM, user.unitSystem), formatLength(before, user.unitSystem)];
+    throw unprocessable('cut-too-long', `${cut} is not less than the ${whole} of ${item.assetTag}; retire the item instead.`, {
+      errors: [{ path: 'lengthRemovedM', message: `Must be less than the item's ${whole}` }],
+    });
+  }
+  // Millimetre resolution: 12 − 1.5 stays 10.5, not 10.499999999999998.
+  const after = Math.round((before - lengthRemovedM) * 1000) / 1000;
+  equipmentRepository(tx).update(item.id, { lengthM: after, version: item.version + 1 });
+  return before;
+}
+
+/** Another item of the same kind, in service and on no other strip of the venue, goes in the position. Answers its id. */
+function swapIn(tx: Tx, user: AuthUser, position: PositionContext, item: EquipmentRow, replacementAssetTag: string, at: string): string {
+  const equipment = equipmentRepository(tx);
+  const replacement = equipment.findByTag(user.orgId, replacementAssetTag);
+  const refuse = (message: string) => unprocessable('bad-replacement', message, { errors: [{ path: 'replacementAssetTag', message }] });
+  if (!replacement) throw refuse(`No item with asset tag ${replacementAssetTag} in the register.`);
+  if (replacement.id === item.id) throw refuse('The replacement is the same item.');
+  if (replacement.kind !== item.kind) throw refuse(`${replacement.assetTag} is a ${replacement.kind}, not a ${item.kind}.`);
+  if (replacement.status !== 'in-service') throw refuse(`${replacement.assetTag} is not in service (${replacement.status}).`);
+  const holder = faultsRepository(tx).stripHoldingItem(position.venue.id, replacement.id);
+  if (holder) throw refuse(`${replacement.assetTag} is already on ${holder.stripLabel} of this venue.`);
+  equipment.assignToPosition(position.position.id, replacement.id, user.id, at);
+  equipment.update(item.id, { status: 'under-repair', version: item.version + 1 });
+  return replacement.id;
+}
+
+function addRepair(scope: Scope, user: AuthUser, id: string, body: CreateRepairInput) {
+  const { deps } = scope;
+  const row = load(scope, user, id, 'test');
+  if (row.fault.status === 'closed') throw conflict('fault-closed', 'This fault is closed; a repair goes on an open fault.');
+  const strips = stripsRepository(deps.db);
+  const position = strips.positionContext(row.fault.positionId)!;
+  const item = row.equipment ?? position.equipment;
+  const at = nowIso();
+  const repairId = newId();
+
+  deps.db.transaction((tx) => {
+    const equipment = equipmentRepository(tx);
+    const faults = faultsRepository(tx);
+    let lengthBeforeM: number | null = null;
+    let replacementId: string | null = null;
+
+    if ((body.action === 'cut-out' || body.action === 'retired' || body.action === 'swapped') && !item) {
+      throw unprocessable('no-item', 'No register item is recorded for this fault, so there is nothing to repair here.');
+    }
+    if (body.action === 'cut-out') lengthBeforeM = cutOut(tx, user, item!, body.lengthRemovedM!);
+    if (body.action === 'swapped') replacementId = swapIn(tx, user, position, item!, body.replacementAssetTag!, at);
+    if (body.action === 'retired') {
+      equipment.update(item!.id, { status: 'retired', version: item!.version + 1 });
+      equipment.assignToPosition(position.position.id, null, user.id, at);
+    }
+
+    faults.insertRepair({
+      id: repairId,
+      faultId: id,
+      equipmentId: item?.id ?? null,
+      action: body.action,
+      lengthRemovedM: body.lengthRemovedM ?? null,
+      lengthBeforeM,
+      replacementEquipmentId: replacementId,
+      notes: body.notes ?? null,
+      createdBy: user.id,
+      createdAt: at,
+    });
+    faults.update(id, row.fault.version, { status: 'repaired' });
+    recordAudit(tx, user, 'fault.repaired', 'fault', id, {
+      repairId,
+      action: body.action,
+      equipmentId: item?.id ?? null,
+      lengthBeforeM,
+      lengthRemovedM: body.lengthRemovedM ?? null,
+      replacementId,
+    });
+    if (item && body.action !== 'connector-remade') {
+      recordAudit(tx, user, `equipment.${body.action}`, 'equipment', item.id, { faultId: id, repairId });
+    }
+    reopenIfSignedOff(tx, {
+      venueId: position.venue.id,
+      orgId: user.orgId,
+      actorId: user.id,
+      reason: `Repair (${body.action}) on ${position.strip.label}, ${position.position.name}`,
+    });
+  });
+  const fault = detail(scope, user, id);
+  return { repair: fault.repairs.find((r) => r.id === repairId)!, fault };
+}
+
+export function faultsService(deps: AppDeps) {
+  return bindScope(scopeOf(deps), { list, detail, create, update, addEstimate, addRepair });
 }

@@ -11,6 +11,7 @@ import { requireVersion } from '../http/etag';
 import type { LimitProfile } from '../../shared/domain/limits';
 import type { UpdateProfileInput } from '../../shared/schemas/limit-profile';
 import { presentProfile, toLimitProfile } from '../presenters/profiles';
+import { bindScope } from './bind';
 
 // Limit profile rows are never rewritten (an edit adds a row with the next version, below), so a
 // profile parsed once by id stays right: every reading is judged against one, and parsing its
@@ -32,98 +33,99 @@ export function limitProfileById(db: Db, id: string): LimitProfile | undefined {
   return profile;
 }
 
-export function profilesService(deps: AppDeps) {
-  const repo = profilesRepository(deps.db);
+type Scope = { deps: AppDeps; repo: ReturnType<typeof profilesRepository> };
 
-  function requireProfile(user: AuthUser, id: string) {
-    const row = repo.findById(id);
-    if (!row || row.orgId !== user.orgId) throw notFound('That limit profile');
-    return row;
-  }
+function requireProfile({ repo }: Scope, user: AuthUser, id: string) {
+  const row = repo.findById(id);
+  if (!row || row.orgId !== user.orgId) throw notFound('That limit profile');
+  return row;
+}
 
-  return {
-    /** The latest version of every lineage, each with its older versions listed. */
-    list(user: AuthUser) {
-      const rows = repo.ofOrg(user.orgId);
-      const byLineage = new Map<string, ProfileRow[]>();
-      for (const r of rows) byLineage.set(r.lineageId, [...(byLineage.get(r.lineageId) ?? []), r]);
-      return [...byLineage.values()]
-        .map((versions) => {
-          const sorted = [...versions].sort((a, b) => b.version - a.version);
-          const latest = sorted[0];
-          const p = presentProfile(latest);
-          return {
-            ...p,
-            ruleCount: p.rules.length,
-            houseRuleCount: p.rules.filter((r) => r.houseRule).length,
-            versions: sorted.map((v) => ({ id: v.id, version: v.version, createdAt: v.createdAt })),
-          };
-        })
-        .sort((a, b) => a.name.localeCompare(b.name));
-    },
-
-    get(user: AuthUser, id: string) {
-      const row = requireProfile(user, id);
-      const versions = repo.versionsOf(row.lineageId);
+/** The latest version of every lineage, each with its older versions listed. */
+function list({ repo }: Scope, user: AuthUser) {
+  const rows = repo.ofOrg(user.orgId);
+  const byLineage = new Map<string, ProfileRow[]>();
+  for (const r of rows) byLineage.set(r.lineageId, [...(byLineage.get(r.lineageId) ?? []), r]);
+  return [...byLineage.values()]
+    .map((versions) => {
+      const sorted = [...versions].sort((a, b) => b.version - a.version);
+      const latest = sorted[0];
+      const p = presentProfile(latest);
       return {
-        ...presentProfile(row),
-        latestVersion: versions[0]?.profile.version ?? row.version,
-        latestId: versions[0]?.profile.id ?? row.id,
-        versions: versions.map((v) => ({ id: v.profile.id, version: v.profile.version, createdAt: v.profile.createdAt, byName: v.byName, notes: v.profile.notes })),
-        usedBy: repo.venuesUsing(user.orgId, row.lineageId),
+        ...p,
+        ruleCount: p.rules.length,
+        houseRuleCount: p.rules.filter((r) => r.houseRule).length,
+        versions: sorted.map((v) => ({ id: v.id, version: v.version, createdAt: v.createdAt })),
       };
-    },
+    })
+    .sort((a, b) => a.name.localeCompare(b.name));
+}
 
-    copy(user: AuthUser, id: string, name: string) {
-      const source = requireProfile(user, id);
-      const newRowId = newId();
-      deps.db.transaction((tx) => {
-        profilesRepository(tx).insert({
-          id: newRowId,
-          orgId: user.orgId,
-          lineageId: newId(),
-          name,
-          version: 1,
-          rulesJson: source.rulesJson,
-          loopRequiredJson: source.loopRequiredJson,
-          notes: `Copied from “${source.name}” version ${source.version}.`,
-          createdBy: user.id,
-          createdAt: nowIso(),
-        });
-        recordAudit(tx, user, 'profile.copied', 'limit-profile', newRowId, { name, fromProfileId: source.id, fromName: source.name, fromVersion: source.version });
-      });
-      return this.get(user, newRowId);
-    },
-
-    /** Stores the edit as version n+1; If-Match must name the lineage's latest version. */
-    update(user: AuthUser, id: string, ifMatch: string | undefined, input: UpdateProfileInput) {
-      const newRowId = newId();
-      deps.db.transaction((tx) => {
-        const r = profilesRepository(tx);
-        const row = r.findById(id);
-        if (!row || row.orgId !== user.orgId) throw notFound('That limit profile');
-        const latest = r.latestOf(row.lineageId)!;
-        requireVersion(
-          ifMatch,
-          latest.version,
-          (yours, current) =>
-            `Someone else changed “${latest.name}” meanwhile: you edited version ${yours ?? '?'}, the latest is version ${current}. Open version ${current}, then apply your changes again.`,
-        );
-        r.insert({
-          id: newRowId,
-          orgId: user.orgId,
-          lineageId: row.lineageId,
-          name: input.name ?? latest.name,
-          version: latest.version + 1,
-          rulesJson: JSON.stringify(input.rules),
-          loopRequiredJson: input.loopRequired ? JSON.stringify(input.loopRequired) : latest.loopRequiredJson,
-          notes: input.notes === undefined ? latest.notes : input.notes,
-          createdBy: user.id,
-          createdAt: nowIso(),
-        });
-        recordAudit(tx, user, 'profile.versioned', 'limit-profile', newRowId, { lineageId: row.lineageId, name: input.name ?? latest.name, fromVersion: latest.version, version: latest.version + 1 });
-      });
-      return this.get(user, newRowId);
-    },
+function get(scope: Scope, user: AuthUser, id: string) {
+  const { repo } = scope;
+  const row = requireProfile(scope, user, id);
+  const versions = repo.versionsOf(row.lineageId);
+  return {
+    ...presentProfile(row),
+    latestVersion: versions[0]?.profile.version ?? row.version,
+    latestId: versions[0]?.profile.id ?? row.id,
+    versions: versions.map((v) => ({ id: v.profile.id, version: v.profile.version, createdAt: v.profile.createdAt, byName: v.byName, notes: v.profile.notes })),
+    usedBy: repo.venuesUsing(user.orgId, row.lineageId),
   };
+}
+
+function copy(scope: Scope, user: AuthUser, id: string, name: string) {
+  const source = requireProfile(scope, user, id);
+  const newRowId = newId();
+  scope.deps.db.transaction((tx) => {
+    profilesRepository(tx).insert({
+      id: newRowId,
+      orgId: user.orgId,
+      lineageId: newId(),
+      name,
+      version: 1,
+      rulesJson: source.rulesJson,
+      loopRequiredJson: source.loopRequiredJson,
+      notes: `Copied from “${source.name}” version ${source.version}.`,
+      createdBy: user.id,
+      createdAt: nowIso(),
+    });
+    recordAudit(tx, user, 'profile.copied', 'limit-profile', newRowId, { name, fromProfileId: source.id, fromName: source.name, fromVersion: source.version });
+  });
+  return get(scope, user, newRowId);
+}
+
+/** Stores the edit as version n+1; If-Match must name the lineage's latest version. */
+function update(scope: Scope, user: AuthUser, id: string, ifMatch: string | undefined, input: UpdateProfileInput) {
+  const newRowId = newId();
+  scope.deps.db.transaction((tx) => {
+    const r = profilesRepository(tx);
+    const row = r.findById(id);
+    if (!row || row.orgId !== user.orgId) throw notFound('That limit profile');
+    const latest = r.latestOf(row.lineageId)!;
+    requireVersion(
+      ifMatch,
+      latest.version,
+      (yours, current) =>
+        `Someone else changed “${latest.name}” meanwhile: you edited version ${yours ?? '?'}, the latest is version ${current}. Open version ${current}, then apply your changes again.`,
+    );
+    r.insert({
+      id: newRowId,
+      orgId: user.orgId,
+      lineageId: row.lineageId,
+      name: input.name ?? latest.name,
+      version: latest.version + 1,
+      rulesJson: JSON.stringify(input.rules),
+      loopRequiredJson: input.loopRequired ? JSON.stringify(input.loopRequired) : latest.loopRequiredJson,
+      notes: input.notes === undefined ? latest.notes : input.notes,
+      createdBy: user.id,
+      createdAt: nowIso(),
+    });
+    recordAudit(tx, user, 'profile.versioned', 'limit-profile', newRowId, { lineageId: row.lineageId, name: input.name ?? latest.name, fromVersion: latest.version, version: latest.version + 1 });
+  });
+  return get(scope, user, newRowId);
+}
+
+export function profilesService(deps: AppDeps) {
+  return bindScope({ deps, repo: profilesRepository(deps.db) }, { list, get, copy, update });
 }
