@@ -48,230 +48,270 @@ export interface CreatedReading {
   reading: ReadingDto;
 }
 
-export function readingsService(deps: AppDeps) {
-  const access = accessService(deps.db);
+interface Scope {
+  deps: AppDeps;
+  access: ReturnType<typeof accessService>;
+}
 
-  function get(user: AuthUser, id: string): ReadingDto {
-    const row = readingsRepository(deps.db).findById(id);
-    if (!row) throw notFound('That reading');
-    const ctx = stripsRepository(deps.db).stepContext(row.reading.stepId);
-    if (!ctx) throw notFound('That reading');
-    access.requireVenue(user, ctx.venue.id, 'read');
-    return presentReading(row.reading, row.takenByName, faultIdFor(deps.db, row.reading));
+function faultIdFor(tx: Db | Tx, r: ReadingRow): string | null {
+  const faults = faultsRepository(tx);
+  if (r.verdict !== 'fail') return faults.ofReading(r.id)?.id ?? null;
+  return faults.ofReading(r.id)?.id ?? faults.unclosedOfStep(r.stepId)?.id ?? null;
+}
+
+function get({ deps, access }: Scope, user: AuthUser, id: string): ReadingDto {
+  const row = readingsRepository(deps.db).findById(id);
+  if (!row) throw notFound('That reading');
+  const ctx = stripsRepository(deps.db).stepContext(row.reading.stepId);
+  if (!ctx) throw notFound('That reading');
+  access.requireVenue(user, ctx.venue.id, 'read');
+  return presentReading(row.reading, row.takenByName, faultIdFor(deps.db, row.reading));
+}
+
+/** The same id again: the stored reading if the body is the same, a refusal if it is not. */
+function replay(db: Db, body: CreateReadingInput, hash: string, storedHash: string): CreatedReading {
+  if (storedHash !== hash) {
+    throw unprocessable(
+      'idempotency-mismatch',
+      'A reading with this id was already recorded with different content. Make a new id for a new reading.',
+      { errors: [{ path: 'id', message: 'This id belongs to a different reading' }] },
+    );
   }
+  const existing = readingsRepository(db).findById(body.id)!;
+  return { replayed: true, reading: presentReading(existing.reading, existing.takenByName, faultIdFor(db, existing.reading)) };
+}
 
-  function faultIdFor(tx: Db | Tx, r: ReadingRow): string | null {
-    const faults = faultsRepository(tx);
-    if (r.verdict !== 'fail') return faults.ofReading(r.id)?.id ?? null;
-    return faults.ofReading(r.id)?.id ?? faults.unclosedOfStep(r.stepId)?.id ?? null;
+/** A step taken off the checklist takes no reading (409); a correction names an earlier reading of the same step (422). */
+function refuseUnwritable(db: Db, ctx: ReadingWriteContext, body: CreateReadingInput) {
+  if (ctx.step.removedAt) {
+    throw conflict(
+      'step-removed',
+      `This step (${ctx.step.testKind} ${ctx.step.conductors} on ${ctx.position.name}, ${ctx.strip.label}) was taken off the checklist; the reading was not recorded.`,
+      { stepId: ctx.step.id },
+    );
   }
-
-  /**
-   * Records a reading. Answers `replayed: true` with the stored reading when the same id comes
-   * again with the same body (an offline client retrying). Settles once the reading is durable:
-   * readings arriving together share one commit (server/db/group-commit.ts), and everything below
-   * runs inside it, so what the write reads (the venue's state, the step's faults) is current.
-   * `queue`: a batch of the group commit when the reading came in one (createBatch).
-   */
-  function create(user: AuthUser, body: CreateReadingInput, queue: WriteQueue = groupCommit(deps.sqlite)): Promise<CreatedReading> {
-    const hash = requestHash(body);
-    return queue.run(() => {
-      const db = deps.db;
-      const ctx = readingsRepository(db).writeContext(body.stepId, user.id, body.id);
-      if (!ctx) throw notFound('That step');
-      access.requireLoadedVenue(user, ctx, 'test', ctx.assigned);
-      if (ctx.existingHash !== null) return replay(body, hash, ctx.existingHash);
-      if (ctx.step.removedAt) {
-        throw conflict(
-          'step-removed',
-          `This step (${ctx.step.testKind} ${ctx.step.conductors} on ${ctx.position.name}, ${ctx.strip.label}) was taken off the checklist; the reading was not recorded.`,
-          { stepId: ctx.step.id },
-        );
-      }
-      if (body.supersedesId) {
-        const old = readingsRepository(db).findById(body.supersedesId);
-        if (!old || old.reading.stepId !== body.stepId) {
-          throw unprocessable('bad-correction', 'The reading being corrected must be an earlier reading of the same step.', {
-            errors: [{ path: 'supersedesId', message: 'Not a reading of this step' }],
-          });
-        }
-      }
-
-      const parsedValue = parseReading(body.value, 'resistance', { leadOffsetOhm: body.leadOffsetOhm ?? 0 });
-      if (!parsedValue.ok) {
-        throw unprocessable('invalid-reading', parsedValue.message, { errors: [{ path: 'value', message: parsedValue.message }] });
-      }
-      const profile = limitProfileById(db, ctx.venue.profileId);
-      if (!profile) throw conflict('no-limit-profile', 'This venue has no limit profile; the technical director must choose one.');
-      let verdict;
-      try {
-        verdict = evaluateReading({
-          profile,
-          equipmentKind: ctx.position.equipmentKind,
-          testKind: ctx.step.testKind,
-          conductors: ctx.step.conductors,
-          valueOhm: parsedValue.value,
-          overRange: parsedValue.overRange,
-          lengthM: ctx.lengthM,
-          temperatureC: body.temperatureC ?? null,
-        });
-      } catch (err) {
-        if (err instanceof NoRuleError) throw unprocessable(err.code, err.message, { errors: [{ path: 'stepId', message: err.message }] });
-        if (err instanceof ReadingInputError) throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
-        throw err;
-      }
-
-      const receivedAt = nowIso();
-      const time = decideTakenAt(body.takenAt, receivedAt);
-      const takenAt = time.takenAt;
-      const row: ReadingRow = {
-        id: body.id,
-        stepId: body.stepId,
-        equipmentId: ctx.position.equipmentId,
-        valueText: body.value,
-        valueOhm: parsedValue.value,
-        overRange: parsedValue.overRange,
-        leadOffsetOhm: body.leadOffsetOhm ?? null,
-        temperatureC: body.temperatureC ?? null,
-        verdict: verdict.verdict,
-        limitOhm: verdict.limitOhm,
-        limitKind: verdict.limitKind,
-        source: verdict.source,
-        ruleId: verdict.ruleId,
-        profileId: ctx.venue.profileId,
-        profileVersion: profile.version,
-        explanation: verdict.explanation,
-        supersedesId: body.supersedesId ?? null,
-        correctionReason: body.correctionReason ?? null,
-        requestHash: hash,
-        takenBy: user.id,
-        takenAt,
-        receivedAt,
-      };
-      readingsRepository(db).insert(row);
-      recordAudit(db, user, body.supersedesId ? 'reading.corrected' : 'reading.recorded', 'reading', body.id, {
-          stepId: body.stepId,
-          stripId: ctx.strip.id,
-          value: body.value,
-          verdict: verdict.verdict,
-          profileVersion: profile.version,
-          ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
-          // The tablet's own time is kept here even when it was not believed (nothing typed is lost).
-          ...(time.source === 'tablet' && takenAt !== receivedAt ? { takenAt, receivedAt } : {}),
-          ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
-        });
-      // The venue's status was read in this transaction: only a signed-off venue is touched.
-      const venueReopened =
-        ctx.venue.status === 'signed-off' &&
-        reopenIfSignedOff(db, {
-          venueId: ctx.venue.id,
-          orgId: user.orgId,
-          actorId: user.id,
-          reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
-        });
-
-      const faultId =
-        verdict.verdict === 'fail'
-          ? onFailure(db, user, ctx, body.id, parsedValue.overRange, takenAt)
-          : onPass(db, user, ctx, body, takenAt);
-      // Answered from the row just inserted (every column is set above), not read back.
-      const reading = presentReading(row, user.name, faultId);
-      // Tell the tablet: a reading that waited offline may have landed on a venue signed off meanwhile.
-      if (venueReopened) reading.venueReopened = true;
-      return { replayed: false, reading };
-    });
-  }
-
-  /**
-   * Readings sent together (a tablet's queue after time offline): each goes through create() and
-   * so is judged and stored exactly as if it came alone, in the order given, and all of them share
-   * one COMMIT. Settles once that commit has returned, with each reading's own outcome; rejects
-   * when the commit failed (then none of them is stored).
-   */
-  async function createBatch(user: AuthUser, bodies: CreateReadingInput[]): Promise<PromiseSettledResult<CreatedReading>[]> {
-    const batch = groupCommit(deps.sqlite).batch();
-    const outcomes = Promise.allSettled(bodies.map((body) => create(user, body, batch)));
-    await batch.submit();
-    return outcomes;
-  }
-
-  /** The same id again: the stored reading if the body is the same, a refusal if it is not. */
-  function replay(body: CreateReadingInput, hash: string, storedHash: string): { replayed: boolean; reading: ReadingDto } {
-    if (storedHash !== hash) {
-      throw unprocessable(
-        'idempotency-mismatch',
-        'A reading with this id was already recorded with different content. Make a new id for a new reading.',
-        { errors: [{ path: 'id', message: 'This id belongs to a different reading' }] },
-      );
-    }
-    const existing = readingsRepository(deps.db).findById(body.id)!;
-    return { replayed: true, reading: presentReading(existing.reading, existing.takenByName, faultIdFor(deps.db, existing.reading)) };
-  }
-
-  /** Opens a fault unless one is already open on this step; a failed retest sends a repaired fault back to open. */
-  function onFailure(tx: Db, user: AuthUser, ctx: ReadingWriteContext, readingId: string, overRange: boolean, at: string): string {
-    const faults = faultsRepository(tx);
-    const existing = ctx.unclosedFaultId ? faults.unclosedOfStep(ctx.step.id) : undefined;
-    if (existing) {
-      if (existing.status === 'repaired') {
-        faults.update(existing.id, existing.version, { status: 'open' });
-        recordAudit(tx, user, 'fault.retest-failed', 'fault', existing.id, { readingId });
-      }
-      return existing.id;
-    }
-    const id = newId();
-    const kind = faultKindFor(ctx.step.testKind, overRange);
-    faults.insert({
-      id,
-      stripId: ctx.strip.id,
-      positionId: ctx.position.id,
-      equipmentId: ctx.position.equipmentId,
-      stepId: ctx.step.id,
-      readingId,
-      kind,
-      conductors: ctx.step.conductors,
-      status: 'open',
-      openedBy: user.id,
-      openedAt: at,
-    });
-    recordAudit(tx, user, 'fault.opened', 'fault', id, { readingId, kind, conductors: ctx.step.conductors, automatic: true });
-    return id;
-  }
-
-  /**
-   * A passing reading may finish a retest: a repaired fault closes when every active step of its
-   * position has a passing reading taken since the repair. A correction that turns the reading
-   * that opened a fault into a pass closes that fault too (it was a mistyped value).
-   */
-  function onPass(tx: Db, user: AuthUser, ctx: ReadingWriteContext, body: CreateReadingInput, at: string): string | null {
-    const positionId = ctx.position.id;
-    const faults = faultsRepository(tx);
-    const strips = stripsRepository(tx);
-    if (body.supersedesId) {
-      const opened = faults.ofReading(body.supersedesId);
-      if (opened && opened.status === 'open') {
-        faults.update(opened.id, opened.version, { status: 'closed', closedAt: at });
-        recordAudit(tx, user, 'fault.closed', 'fault', opened.id, { why: 'the reading that opened it was corrected', readingId: body.id, reason: body.correctionReason });
-      }
-    }
-    // Most passes finish no retest: the context already says whether a repaired fault waits here.
-    if (!ctx.hasRepairedFault) return null;
-    const repaired = faults.repairedOfPosition(positionId);
-    if (repaired.length === 0) return null;
-    const steps = strips.activeStepsOf([positionId]);
-    const latest = latestByStep(strips.readingsOfSteps(steps.map((s) => s.id)));
-    for (const fault of repaired) {
-      const repairedAt = faults.latestRepairOf(fault.id)?.createdAt ?? fault.openedAt;
-      const allPass = steps.every((s) => {
-        const r = latest.get(s.id)?.reading;
-        return !!r && r.verdict !== 'fail' && r.takenAt >= repairedAt;
+  if (body.supersedesId) {
+    const old = readingsRepository(db).findById(body.supersedesId);
+    if (!old || old.reading.stepId !== body.stepId) {
+      throw unprocessable('bad-correction', 'The reading being corrected must be an earlier reading of the same step.', {
+        errors: [{ path: 'supersedesId', message: 'Not a reading of this step' }],
       });
-      if (!allPass) continue;
-      faults.update(fault.id, fault.version, { status: 'closed', closedAt: at });
-      recordAudit(tx, user, 'fault.closed', 'fault', fault.id, { why: 'retest passed', readingId: body.id });
     }
-    return null;
   }
+}
 
-  return { create, createBatch, get };
+/** What was typed, parsed, and its verdict against the venue's limit profile; refusals are 422 / 409. */
+function judge(db: Db, ctx: ReadingWriteContext, body: CreateReadingInput) {
+  const parsedValue = parseReading(body.value, 'resistance', { leadOffsetOhm: body.leadOffsetOhm ?? 0 });
+  if (!parsedValue.ok) {
+    throw unprocessable('invalid-reading', parsedValue.message, { errors: [{ path: 'value', message: parsedValue.message }] });
+  }
+  const profile = limitProfileById(db, ctx.venue.profileId);
+  if (!profile) throw conflict('no-limit-profile', 'This venue has no limit profile; the technical director must choose one.');
+  try {
+    const verdict = evaluateReading({
+      profile,
+      equipmentKind: ctx.position.equipmentKind,
+      testKind: ctx.step.testKind,
+      conductors: ctx.step.conductors,
+      valueOhm: parsedValue.value,
+      overRange: parsedValue.overRange,
+      lengthM: ctx.lengthM,
+      temperatureC: body.temperatureC ?? null,
+    });
+    return { parsedValue, profile, verdict };
+  } catch (err) {
+    if (err instanceof NoRuleError) throw unprocessable(err.code, err.message, { errors: [{ path: 'stepId', message: err.message }] });
+    if (err instanceof ReadingInputError)
+      throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
+    throw err;
+  }
+}
+
+/** The reading row, written with its audit entry; takenAt as the tablet stamped it, within limits. */
+function storeReading(
+  db: Db,
+  user: AuthUser,
+  ctx: ReadingWriteContext,
+  body: CreateReadingInput,
+  hash: string,
+  judged: ReturnType<typeof judge>,
+) {
+  const { parsedValue, profile, verdict } = judged;
+  const receivedAt = nowIso();
+  const time = decideTakenAt(body.takenAt, receivedAt);
+  const takenAt = time.takenAt;
+  const row: ReadingRow = {
+    id: body.id,
+    stepId: body.stepId,
+    equipmentId: ctx.position.equipmentId,
+    valueText: body.value,
+    valueOhm: parsedValue.value,
+    overRange: parsedValue.overRange,
+    leadOffsetOhm: body.leadOffsetOhm ?? null,
+    temperatureC: body.temperatureC ?? null,
+    verdict: verdict.verdict,
+    limitOhm: verdict.limitOhm,
+    limitKind: verdict.limitKind,
+    source: verdict.source,
+    ruleId: verdict.ruleId,
+    profileId: ctx.venue.profileId,
+    profileVersion: profile.version,
+    explanation: verdict.explanation,
+    supersedesId: body.supersedesId ?? null,
+    correctionReason: body.correctionReason ?? null,
+    requestHash: hash,
+    takenBy: user.id,
+    takenAt,
+    receivedAt,
+  };
+  readingsRepository(db).insert(row);
+  recordAudit(db, user, body.supersedesId ? 'reading.corrected' : 'reading.recorded', 'reading', body.id, {
+    stepId: body.stepId,
+    stripId: ctx.strip.id,
+    value: body.value,
+    verdict: verdict.verdict,
+    profileVersion: profile.version,
+    ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
+    // The tablet's own time is kept here even when it was not believed (nothing typed is lost).
+    ...(time.source === 'tablet' && takenAt !== receivedAt ? { takenAt, receivedAt } : {}),
+    ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
+  });
+  return row;
+}
+
+/**
+ * Records a reading. Answers `replayed: true` with the stored reading when the same id comes
+ * again with the same body (an offline client retrying). Settles once the reading is durable:
+ * readings arriving together share one commit (server/db/group-commit.ts), and everything below
+ * runs inside it, so what the write reads (the venue's state, the step's faults) is current.
+ * `queue`: a batch of the group commit when the reading came in one (createBatch).
+ */
+function create(
+  { deps, access }: Scope,
+  user: AuthUser,
+  body: CreateReadingInput,
+  queue: WriteQueue = groupCommit(deps.sqlite),
+): Promise<CreatedReading> {
+  const hash = requestHash(body);
+  return queue.run(() => {
+    const db = deps.db;
+    const ctx = readingsRepository(db).writeContext(body.stepId, user.id, body.id);
+    if (!ctx) throw notFound('That step');
+    access.requireLoadedVenue(user, ctx, 'test', ctx.assigned);
+    if (ctx.existingHash !== null) return replay(db, body, hash, ctx.existingHash);
+    refuseUnwritable(db, ctx, body);
+    const judged = judge(db, ctx, body);
+    const row = storeReading(db, user, ctx, body, hash, judged);
+    // The venue's status was read in this transaction: only a signed-off venue is touched.
+    const venueReopened =
+      ctx.venue.status === 'signed-off' &&
+      reopenIfSignedOff(db, {
+        venueId: ctx.venue.id,
+        orgId: user.orgId,
+        actorId: user.id,
+        reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
+      });
+    const faultId =
+      judged.verdict.verdict === 'fail'
+        ? onFailure(db, user, ctx, body.id, judged.parsedValue.overRange, row.takenAt)
+        : onPass(db, user, ctx, body, row.takenAt);
+    // Answered from the row just inserted (every column is set above), not read back.
+    const reading = presentReading(row, user.name, faultId);
+    // Tell the tablet: a reading that waited offline may have landed on a venue signed off meanwhile.
+    if (venueReopened) reading.venueReopened = true;
+    return { replayed: false, reading };
+  });
+}
+
+/**
+ * Readings sent together (a tablet's queue after time offline): each goes through create() and
+ * so is judged and stored exactly as if it came alone, in the order given, and all of them share
+ * one COMMIT. Settles once that commit has returned, with each reading's own outcome; rejects
+ * when the commit failed (then none of them is stored).
+ */
+async function createBatch(scope: Scope, user: AuthUser, bodies: CreateReadingInput[]): Promise<PromiseSettledResult<CreatedReading>[]> {
+  const batch = groupCommit(scope.deps.sqlite).batch();
+  const outcomes = Promise.allSettled(bodies.map((body) => create(scope, user, body, batch)));
+  await batch.submit();
+  return outcomes;
+}
+
+/** Opens a fault unless one is already open on this step; a failed retest sends a repaired fault back to open. */
+function onFailure(tx: Db, user: AuthUser, ctx: ReadingWriteContext, readingId: string, overRange: boolean, at: string): string {
+  const faults = faultsRepository(tx);
+  const existing = ctx.unclosedFaultId ? faults.unclosedOfStep(ctx.step.id) : undefined;
+  if (existing) {
+    if (existing.status === 'repaired') {
+      faults.update(existing.id, existing.version, { status: 'open' });
+      recordAudit(tx, user, 'fault.retest-failed', 'fault', existing.id, { readingId });
+    }
+    return existing.id;
+  }
+  const id = newId();
+  const kind = faultKindFor(ctx.step.testKind, overRange);
+  faults.insert({
+    id,
+    stripId: ctx.strip.id,
+    positionId: ctx.position.id,
+    equipmentId: ctx.position.equipmentId,
+    stepId: ctx.step.id,
+    readingId,
+    kind,
+    conductors: ctx.step.conductors,
+    status: 'open',
+    openedBy: user.id,
+    openedAt: at,
+  });
+  recordAudit(tx, user, 'fault.opened', 'fault', id, { readingId, kind, conductors: ctx.step.conductors, automatic: true });
+  return id;
+}
+
+/**
+ * A passing reading may finish a retest: a repaired fault closes when every active step of its
+ * position has a passing reading taken since the repair. A correction that turns the reading
+ * that opened a fault into a pass closes that fault too (it was a mistyped value).
+ */
+function onPass(tx: Db, user: AuthUser, ctx: ReadingWriteContext, body: CreateReadingInput, at: string): string | null {
+  const positionId = ctx.position.id;
+  const faults = faultsRepository(tx);
+  const strips = stripsRepository(tx);
+  if (body.supersedesId) {
+    const opened = faults.ofReading(body.supersedesId);
+    if (opened && opened.status === 'open') {
+      faults.update(opened.id, opened.version, { status: 'closed', closedAt: at });
+      recordAudit(tx, user, 'fault.closed', 'fault', opened.id, {
+        why: 'the reading that opened it was corrected',
+        readingId: body.id,
+        reason: body.correctionReason,
+      });
+    }
+  }
+  // Most passes finish no retest: the context already says whether a repaired fault waits here.
+  if (!ctx.hasRepairedFault) return null;
+  const repaired = faults.repairedOfPosition(positionId);
+  if (repaired.length === 0) return null;
+  const steps = strips.activeStepsOf([positionId]);
+  const latest = latestByStep(strips.readingsOfSteps(steps.map((s) => s.id)));
+  for (const fault of repaired) {
+    const repairedAt = faults.latestRepairOf(fault.id)?.createdAt ?? fault.openedAt;
+    const allPass = steps.every((s) => {
+      const r = latest.get(s.id)?.reading;
+      return !!r && r.verdict !== 'fail' && r.takenAt >= repairedAt;
+    });
+    if (!allPass) continue;
+    faults.update(fault.id, fault.version, { status: 'closed', closedAt: at });
+    recordAudit(tx, user, 'fault.closed', 'fault', fault.id, { why: 'retest passed', readingId: body.id });
+  }
+  return null;
+}
+
+export function readingsService(deps: AppDeps) {
+  const scope: Scope = { deps, access: accessService(deps.db) };
+  // Written out rather than bound generically: the reading write is the hot path.
+  return {
+    create: (user: AuthUser, body: CreateReadingInput, queue?: WriteQueue) => create(scope, user, body, queue),
+    createBatch: (user: AuthUser, bodies: CreateReadingInput[]) => createBatch(scope, user, bodies),
+    get: (user: AuthUser, id: string) => get(scope, user, id),
+  };
 }
