@@ -43,10 +43,10 @@ describe('lint: import boundaries', { timeout: 120_000 }, () => {
       [
         "import { EventForm } from './event-form';",
         "import { Button } from '@/components/ui/button';",
-        "import { api } from '@/lib/api-client';",
+        "import { call } from '@/lib/api-client';",
         "import { paths } from '@/config/paths';",
         "import { createEventSchema } from '@shared/schemas/plan';",
-        'export const probe = [EventForm, Button, api, paths, createEventSchema];',
+        'export const probe = [EventForm, Button, call, paths, createEventSchema];',
         '',
       ].join('\n'),
     );
