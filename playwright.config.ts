@@ -58,6 +58,8 @@ export default defineConfig({
           SMTP_FAKE_PORT: '0',
           SIGNIN_RATE_LIMIT: '1000',
           LOG_REQUESTS: 'off',
+          // Every answer checked against its contract while the specs run (a mismatch is a 500).
+          CHECK_RESPONSES: 'on',
         },
       },
 });
