@@ -20,10 +20,8 @@ export function certificatesRepository(db: Db | Tx) {
         .where(eq(certificates.venueId, venueId))
         .orderBy(desc(certificates.issuedAt), asc(certificates.kind), asc(strips.sortOrder))
         .all(),
-    byNumber: (number: string) =>
-      db.select().from(certificates).where(eq(certificates.number, number)).get(),
-    bySha: (sha256: string) =>
-      db.select().from(certificates).where(eq(certificates.pdfSha256, sha256)).all(),
+    byNumber: (number: string) => db.select().from(certificates).where(eq(certificates.number, number)).get(),
+    bySha: (sha256: string) => db.select().from(certificates).where(eq(certificates.pdfSha256, sha256)).all(),
     revoke: (id: string, v: { at: string; reason: string; by: string }) =>
       db
         .update(certificates)

@@ -22,12 +22,19 @@ function registerQueries(db: Db | Tx) {
   return {
     findById: (id: string) => db.select().from(equipment).where(eq(equipment.id, id)).get(),
     findByTag: (orgId: string, assetTag: string) =>
-      db.select().from(equipment).where(and(eq(equipment.orgId, orgId), eq(equipment.assetTag, assetTag))).get(),
+      db
+        .select()
+        .from(equipment)
+        .where(and(eq(equipment.orgId, orgId), eq(equipment.assetTag, assetTag)))
+        .get(),
     update: (id: string, patch: Partial<typeof equipment.$inferInsert>) =>
       db.update(equipment).set(patch).where(eq(equipment.id, id)).run(),
 
     // --- the register (list, create, versioned edit, calibrations, history) ---
-    list(orgId: string, f: { kind?: EquipmentRow['kind'] | undefined; status?: EquipmentRow['status'] | undefined; q?: string | undefined }) {
+    list(
+      orgId: string,
+      f: { kind?: EquipmentRow['kind'] | undefined; status?: EquipmentRow['status'] | undefined; q?: string | undefined },
+    ) {
       const conds = [eq(equipment.orgId, orgId)];
       if (f.kind) conds.push(eq(equipment.kind, f.kind));
       if (f.status) conds.push(eq(equipment.status, f.status));
@@ -37,7 +44,12 @@ function registerQueries(db: Db | Tx) {
           sql`(${equipment.assetTag} like ${like} escape '\\' or ${equipment.description} like ${like} escape '\\' or coalesce(${equipment.cableType}, '') like ${like} escape '\\')`,
         );
       }
-      return db.select().from(equipment).where(and(...conds)).orderBy(asc(equipment.assetTag)).all();
+      return db
+        .select()
+        .from(equipment)
+        .where(and(...conds))
+        .orderBy(asc(equipment.assetTag))
+        .all();
     },
     insert: (row: typeof equipment.$inferInsert) => db.insert(equipment).values(row).run(),
     /** Writes only if the row is still at the version the caller saw; returns whether it did. */
@@ -91,7 +103,14 @@ function historyQueries(db: Db | Tx) {
         .all(),
     faultsOf: (equipmentId: string) =>
       db
-        .select({ fault: faults, positionName: positions.name, stripLabel: strips.label, venueId: venues.id, venueName: venues.name, eventName: events.name })
+        .select({
+          fault: faults,
+          positionName: positions.name,
+          stripLabel: strips.label,
+          venueId: venues.id,
+          venueName: venues.name,
+          eventName: events.name,
+        })
         .from(faults)
         .innerJoin(positions, eq(faults.positionId, positions.id))
         .innerJoin(strips, eq(faults.stripId, strips.id))
@@ -152,9 +171,7 @@ function placementQueries(db: Db | Tx) {
         .run();
       db.update(positions).set({ equipmentId }).where(eq(positions.id, positionId)).run();
       if (equipmentId) {
-        db.insert(positionAssignments)
-          .values({ id: crypto.randomUUID(), positionId, equipmentId, assignedAt: at, assignedBy: by })
-          .run();
+        db.insert(positionAssignments).values({ id: crypto.randomUUID(), positionId, equipmentId, assignedAt: at, assignedBy: by }).run();
       }
     },
   };

@@ -1,6 +1,18 @@
 import { and, asc, desc, eq, exists, inArray, isNull, max, or, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
-import { equipment, events, faults, positionAssignments, positions, readings, steps, strips, users, venueTechnicians, venues } from './schema';
+import {
+  equipment,
+  events,
+  faults,
+  positionAssignments,
+  positions,
+  readings,
+  steps,
+  strips,
+  users,
+  venueTechnicians,
+  venues,
+} from './schema';
 
 export type StripRow = typeof strips.$inferSelect;
 export type PositionRow = typeof positions.$inferSelect;
@@ -11,7 +23,8 @@ export type StepRow = typeof steps.$inferSelect;
 function eventsAndPeople(db: Db | Tx) {
   return {
     // --- events ---
-    eventsOfOrg: (orgId: string) => db.select().from(events).where(eq(events.orgId, orgId)).orderBy(desc(events.startsOn), asc(events.name)).all(),
+    eventsOfOrg: (orgId: string) =>
+      db.select().from(events).where(eq(events.orgId, orgId)).orderBy(desc(events.startsOn), asc(events.name)).all(),
     eventsWithVenueOf: (userId: string) =>
       db
         .selectDistinct({ event: events })
@@ -29,7 +42,12 @@ function eventsAndPeople(db: Db | Tx) {
     // --- venues ---
     insertVenue: (row: typeof venues.$inferInsert) => db.insert(venues).values(row).run(),
     updateVenue: (id: string, patch: Partial<typeof venues.$inferInsert>) => db.update(venues).set(patch).where(eq(venues.id, id)).run(),
-    bumpVersion: (id: string) => db.update(venues).set({ version: sql`${venues.version} + 1` }).where(eq(venues.id, id)).run(),
+    bumpVersion: (id: string) =>
+      db
+        .update(venues)
+        .set({ version: sql`${venues.version} + 1` })
+        .where(eq(venues.id, id))
+        .run(),
     versionOf: (id: string) => db.select({ version: venues.version }).from(venues).where(eq(venues.id, id)).get()?.version ?? 0,
 
     // --- people ---
@@ -52,7 +70,10 @@ function eventsAndPeople(db: Db | Tx) {
         .all(),
     setTechnicians(venueId: string, userIds: string[]) {
       db.delete(venueTechnicians).where(eq(venueTechnicians.venueId, venueId)).run();
-      if (userIds.length) db.insert(venueTechnicians).values(userIds.map((userId) => ({ venueId, userId }))).run();
+      if (userIds.length)
+        db.insert(venueTechnicians)
+          .values(userIds.map((userId) => ({ venueId, userId })))
+          .run();
     },
   };
 }
@@ -61,18 +82,27 @@ function eventsAndPeople(db: Db | Tx) {
 function stripQueries(db: Db | Tx) {
   return {
     // --- strips ---
-    stripsOf: (venueId: string) => db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder), asc(strips.label)).all(),
+    stripsOf: (venueId: string) =>
+      db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder), asc(strips.label)).all(),
     findStrip: (id: string) => db.select().from(strips).where(eq(strips.id, id)).get(),
     stripByLabel: (venueId: string, label: string) =>
-      db.select().from(strips).where(and(eq(strips.venueId, venueId), eq(strips.label, label))).get(),
+      db
+        .select()
+        .from(strips)
+        .where(and(eq(strips.venueId, venueId), eq(strips.label, label)))
+        .get(),
     maxStripSort: (venueId: string) =>
-      db.select({ m: max(strips.sortOrder) }).from(strips).where(eq(strips.venueId, venueId)).get()?.m ?? 0,
+      db
+        .select({ m: max(strips.sortOrder) })
+        .from(strips)
+        .where(eq(strips.venueId, venueId))
+        .get()?.m ?? 0,
     insertStrip: (row: typeof strips.$inferInsert) => db.insert(strips).values(row).run(),
     updateStrip: (id: string, patch: Partial<typeof strips.$inferInsert>) => db.update(strips).set(patch).where(eq(strips.id, id)).run(),
   };
 }
 
-/** Positions of strips, with what was recorded against them. */
+/** Positions of strips. */
 function positionQueries(db: Db | Tx) {
   return {
     // --- positions ---
@@ -85,17 +115,44 @@ function positionQueries(db: Db | Tx) {
         .where(eq(strips.venueId, venueId))
         .orderBy(asc(positions.sortOrder))
         .all(),
-    positionsOfStrip: (stripId: string) => db.select().from(positions).where(eq(positions.stripId, stripId)).orderBy(asc(positions.sortOrder)).all(),
+    positionsOfStrip: (stripId: string) =>
+      db.select().from(positions).where(eq(positions.stripId, stripId)).orderBy(asc(positions.sortOrder)).all(),
     findPosition: (id: string) =>
-      db.select({ position: positions, strip: strips }).from(positions).innerJoin(strips, eq(positions.stripId, strips.id)).where(eq(positions.id, id)).get(),
+      db
+        .select({ position: positions, strip: strips })
+        .from(positions)
+        .innerJoin(strips, eq(positions.stripId, strips.id))
+        .where(eq(positions.id, id))
+        .get(),
     insertPosition: (row: typeof positions.$inferInsert) => db.insert(positions).values(row).run(),
     maxPositionSort: (stripId: string) =>
-      db.select({ m: max(positions.sortOrder) }).from(positions).where(eq(positions.stripId, stripId)).get()?.m ?? 0,
+      db
+        .select({ m: max(positions.sortOrder) })
+        .from(positions)
+        .where(eq(positions.stripId, stripId))
+        .get()?.m ?? 0,
     /** Positions of the venue with a reading on any of their steps or a fault recorded against them. */
+  };
+}
+
+/** What was recorded against positions, and taking an untested one away. */
+function positionRecordQueries(db: Db | Tx) {
+  return {
     testedPositionsOfVenue(venueId: string) {
       const tested = or(
-        exists(db.select({ x: sql`1` }).from(steps).innerJoin(readings, eq(readings.stepId, steps.id)).where(eq(steps.positionId, positions.id))),
-        exists(db.select({ x: sql`1` }).from(faults).where(eq(faults.positionId, positions.id))),
+        exists(
+          db
+            .select({ x: sql`1` })
+            .from(steps)
+            .innerJoin(readings, eq(readings.stepId, steps.id))
+            .where(eq(steps.positionId, positions.id)),
+        ),
+        exists(
+          db
+            .select({ x: sql`1` })
+            .from(faults)
+            .where(eq(faults.positionId, positions.id)),
+        ),
       );
       return new Set(
         db
@@ -110,7 +167,12 @@ function positionQueries(db: Db | Tx) {
     /** What a technician recorded against one position: readings on its steps, and faults on it or its steps. */
     recordsOfPosition(positionId: string) {
       const stepIds = db.select({ id: steps.id }).from(steps).where(eq(steps.positionId, positionId));
-      const readingCount = db.select({ n: sql<number>`count(*)` }).from(readings).where(inArray(readings.stepId, stepIds)).get()?.n ?? 0;
+      const readingCount =
+        db
+          .select({ n: sql<number>`count(*)` })
+          .from(readings)
+          .where(inArray(readings.stepId, stepIds))
+          .get()?.n ?? 0;
       const faultCount =
         db
           .select({ n: sql<number>`count(*)` })
@@ -151,10 +213,21 @@ function stepQueries(db: Db | Tx) {
         .orderBy(asc(steps.sortOrder))
         .all()
         .map((r) => r.step),
-    stepsOfPosition: (positionId: string) => db.select().from(steps).where(eq(steps.positionId, positionId)).orderBy(asc(steps.sortOrder)).all(),
+    stepsOfPosition: (positionId: string) =>
+      db.select().from(steps).where(eq(steps.positionId, positionId)).orderBy(asc(steps.sortOrder)).all(),
     activeStepsOf: (positionId: string) =>
-      db.select().from(steps).where(and(eq(steps.positionId, positionId), isNull(steps.removedAt))).orderBy(asc(steps.sortOrder)).all(),
-    maxStepSort: (positionId: string) => db.select({ m: max(steps.sortOrder) }).from(steps).where(eq(steps.positionId, positionId)).get()?.m ?? 0,
+      db
+        .select()
+        .from(steps)
+        .where(and(eq(steps.positionId, positionId), isNull(steps.removedAt)))
+        .orderBy(asc(steps.sortOrder))
+        .all(),
+    maxStepSort: (positionId: string) =>
+      db
+        .select({ m: max(steps.sortOrder) })
+        .from(steps)
+        .where(eq(steps.positionId, positionId))
+        .get()?.m ?? 0,
     findStep: (id: string) =>
       db
         .select({ step: steps, position: positions, strip: strips })
@@ -169,5 +242,5 @@ function stepQueries(db: Db | Tx) {
 }
 
 export function planRepository(db: Db | Tx) {
-  return { ...eventsAndPeople(db), ...stripQueries(db), ...positionQueries(db), ...stepQueries(db) };
+  return { ...eventsAndPeople(db), ...stripQueries(db), ...positionQueries(db), ...positionRecordQueries(db), ...stepQueries(db) };
 }

@@ -77,13 +77,16 @@ function parseBody(c: Contract, req: Request): unknown {
   if (kind === 'text') {
     const spec = c.body as TextBody;
     if (!Buffer.isBuffer(req.body)) {
-      throw new AppError(415, 'unsupported-type', `Send ${spec.what} as the request body with Content-Type ${spec.contentTypes.join(', ')}.`);
+      throw new AppError(
+        415,
+        'unsupported-type',
+        `Send ${spec.what} as the request body with Content-Type ${spec.contentTypes.join(', ')}.`,
+      );
     }
     return req.body;
   }
   return (c.body as ZodType).parse(req.body === undefined ? {} : req.body);
 }
-
 
 /** Params and query replaced by their parsed values; a ZodError is answered 422 by the error handler. */
 function parseUrl(c: Contract): RequestHandler {

@@ -4,7 +4,13 @@ import type { Db, Tx } from '../db/client';
 import { faultsRepository, type FaultEstimateRow, type FaultListRow } from '../db/faults.repository';
 import type { stripsRepository } from '../db/strips.repository';
 import type { EquipmentRow } from '../db/equipment.repository';
-import { combineEstimates, FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation, type FaultEstimate } from '../../shared/domain/fault-location';
+import {
+  combineEstimates,
+  FaultLocationError,
+  ohmPerMetreFromConductorSize,
+  runFaultLocation,
+  type FaultEstimate,
+} from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
 import type { LengthSystem } from '../../shared/domain/units';
 
@@ -41,7 +47,12 @@ function explanationFor(row: FaultEstimateRow, saved: string, units: LengthSyste
 }
 
 // `units` undefined keeps the saved words: lists (the board every few seconds) do not show them.
-export function presentEstimate(row: FaultEstimateRow, lengthM: number | null, createdByName: string | null | undefined, units?: LengthSystem) {
+export function presentEstimate(
+  row: FaultEstimateRow,
+  lengthM: number | null,
+  createdByName: string | null | undefined,
+  units?: LengthSystem,
+) {
   const result = JSON.parse(row.resultJson) as { explanation?: string; fromOtherEndM?: number; faultOhm?: number; velocityFactor?: number };
   return {
     id: row.id,
@@ -85,7 +96,14 @@ function summaryEstimate(estimates: EstimateDto[]) {
   if (estimates.length === 0) return null;
   const combined = estimates.length > 1 ? combine(estimates) : null;
   if (combined) {
-    return { method: 'combined', distanceM: combined.distanceM, uncertaintyM: combined.uncertaintyM, fromEnd: 'near' as const, count: combined.count, agree: combined.agree };
+    return {
+      method: 'combined',
+      distanceM: combined.distanceM,
+      uncertaintyM: combined.uncertaintyM,
+      fromEnd: 'near' as const,
+      count: combined.count,
+      agree: combined.agree,
+    };
   }
   const last = estimates[estimates.length - 1]!;
   return {

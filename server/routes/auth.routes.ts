@@ -28,7 +28,8 @@ export function authRoutes(deps: AppDeps, auth: AuthService) {
     standardHeaders: 'draft-8',
     legacyHeaders: false,
     keyGenerator: (req) => ipKeyGenerator(req.ip ?? ''),
-    handler: (_req, res) => sendProblem(res, 429, 'too-many-attempts', 'Too many reset requests from this address. Wait a few minutes and try again.'),
+    handler: (_req, res) =>
+      sendProblem(res, 429, 'too-many-attempts', 'Too many reset requests from this address. Wait a few minutes and try again.'),
   });
 
   api.route(

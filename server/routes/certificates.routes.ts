@@ -46,7 +46,10 @@ export function certificatesRoutes(deps: AppDeps) {
     c.verifyFile,
     ({ req }) => {
       const pdf = req.file;
-      if (!pdf) throw unprocessable('no-file', 'Choose a PDF file to check.', { errors: [{ path: 'file', message: 'Choose a PDF file to check.' }] });
+      if (!pdf)
+        throw unprocessable('no-file', 'Choose a PDF file to check.', {
+          errors: [{ path: 'file', message: 'Choose a PDF file to check.' }],
+        });
       if (!pdf.buffer.subarray(0, 5).equals(Buffer.from('%PDF-'))) {
         throw new AppError(415, 'not-a-pdf', 'That file is not a PDF.');
       }

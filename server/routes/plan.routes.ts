@@ -28,15 +28,21 @@ export function planRoutes(deps: AppDeps) {
   api.route(c.getPlan, ({ user, params, res }) => tagged(res, venue.plan(user, params.id)));
   api.route(c.updateVenue, ({ user, params, body, req, res }) => tagged(res, venue.updateVenue(user, params.id, ifMatchOf(req), body)));
   api.route(c.addStrips, ({ user, params, body, req, res }) => tagged(res, venue.addStrips(user, params.id, ifMatchOf(req), body)));
-  api.route(c.setTechnicians, ({ user, params, body, req, res }) => tagged(res, venue.setTechnicians(user, params.id, ifMatchOf(req), body.userIds)));
+  api.route(c.setTechnicians, ({ user, params, body, req, res }) =>
+    tagged(res, venue.setTechnicians(user, params.id, ifMatchOf(req), body.userIds)),
+  );
 
   api.route(c.updateStrip, ({ user, params, body, req, res }) => tagged(res, strip.updateStrip(user, params.id, ifMatchOf(req), body)));
-  api.route(c.withdrawStrip, ({ user, params, body, req, res }) => tagged(res, strip.withdrawStrip(user, params.id, ifMatchOf(req), body.reason)));
+  api.route(c.withdrawStrip, ({ user, params, body, req, res }) =>
+    tagged(res, strip.withdrawStrip(user, params.id, ifMatchOf(req), body.reason)),
+  );
   api.route(c.reinstateStrip, ({ user, params, req, res }) => tagged(res, strip.reinstateStrip(user, params.id, ifMatchOf(req))));
   api.route(c.addPosition, ({ user, params, body, req, res }) => tagged(res, strip.addPosition(user, params.id, ifMatchOf(req), body)));
 
   api.route(c.removePosition, ({ user, params, req, res }) => tagged(res, strip.removePosition(user, params.id, ifMatchOf(req))));
-  api.route(c.attachEquipment, ({ user, params, body, req, res }) => tagged(res, strip.attachEquipment(user, params.id, ifMatchOf(req), body.assetTag)));
+  api.route(c.attachEquipment, ({ user, params, body, req, res }) =>
+    tagged(res, strip.attachEquipment(user, params.id, ifMatchOf(req), body.assetTag)),
+  );
   api.route(c.addStep, ({ user, params, body, req, res }) => tagged(res, strip.addStep(user, params.id, ifMatchOf(req), body)));
   api.route(c.dropStep, ({ user, params, req, res }) => tagged(res, strip.dropStep(user, params.id, ifMatchOf(req))));
   return api;

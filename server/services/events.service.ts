@@ -23,7 +23,14 @@ export function eventsService(deps: AppDeps) {
       ...event,
       directorName: nameOf(event.directorId),
       organiserName: nameOf(event.organiserId),
-      venues: venues.map((v) => ({ id: v.id, name: v.name, status: v.status, profileId: v.profileId, clonedFromId: v.clonedFromId, stripCount: repo.stripsOf(v.id).length })),
+      venues: venues.map((v) => ({
+        id: v.id,
+        name: v.name,
+        status: v.status,
+        profileId: v.profileId,
+        clonedFromId: v.clonedFromId,
+        stripCount: repo.stripsOf(v.id).length,
+      })),
     };
   }
 

@@ -85,7 +85,6 @@ function detail(scope: Scope, user: AuthUser, id: string) {
   };
 }
 
-
 function list({ deps, access }: Scope, user: AuthUser, venueId: string) {
   access.requireVenue(user, venueId, 'read');
   return presentFaultList(deps.db, faultsRepository(deps.db).ofVenue(venueId));

@@ -43,7 +43,14 @@ export function readPlan(db: Db, user: AuthUser, venueId: string): VenuePlan {
       // A reading or a fault was recorded against it, so it stays in the plan (steps can be dropped).
       tested: tested.has(position.id),
       equipment: equipment
-        ? { id: equipment.id, assetTag: equipment.assetTag, kind: equipment.kind, lengthM: equipment.lengthM, status: equipment.status, description: equipment.description }
+        ? {
+            id: equipment.id,
+            assetTag: equipment.assetTag,
+            kind: equipment.kind,
+            lengthM: equipment.lengthM,
+            status: equipment.status,
+            description: equipment.description,
+          }
         : null,
       steps: (stepsByPosition.get(position.id) ?? []).map((s) => ({
         id: s.id,
@@ -151,9 +158,13 @@ export function attachableItem(
   if (item.status === 'retired') throw bad(`${assetTag} is retired and cannot go back on a strip.`);
   const elsewhere = eq.positionInVenue(item.id, target.venueId);
   if (elsewhere && elsewhere.positionId !== target.positionId) {
-    throw conflict('item-in-use', `${assetTag} is already on ${elsewhere.stripLabel} (${elsewhere.positionName}) in this venue; take it off there first.`, {
-      errors: [{ path: 'assetTag', message: `Already on ${elsewhere.stripLabel}, ${elsewhere.positionName}.` }],
-    });
+    throw conflict(
+      'item-in-use',
+      `${assetTag} is already on ${elsewhere.stripLabel} (${elsewhere.positionName}) in this venue; take it off there first.`,
+      {
+        errors: [{ path: 'assetTag', message: `Already on ${elsewhere.stripLabel}, ${elsewhere.positionName}.` }],
+      },
+    );
   }
   return { item, here: !!elsewhere };
 }
@@ -177,7 +188,13 @@ export function syncLoopSteps(tx: Tx, venueId: string, profile: LimitProfile, at
     const active = r.activeStepsOf(position.id);
     const loops = active.filter((s) => s.testKind === 'loop');
     if (want.has(position.equipmentKind) && loops.length === 0) {
-      r.insertStep({ id: newId(), positionId: position.id, testKind: 'loop', conductors: 'A-B', sortOrder: r.maxStepSort(position.id) + 1 });
+      r.insertStep({
+        id: newId(),
+        positionId: position.id,
+        testKind: 'loop',
+        conductors: 'A-B',
+        sortOrder: r.maxStepSort(position.id) + 1,
+      });
     } else if (!want.has(position.equipmentKind)) {
       for (const s of loops) if (!s.addedByDirector) r.removeStep(s.id, at);
     }

@@ -69,7 +69,13 @@ function get(scope: Scope, user: AuthUser, id: string) {
     ...presentProfile(row),
     latestVersion: versions[0]?.profile.version ?? row.version,
     latestId: versions[0]?.profile.id ?? row.id,
-    versions: versions.map((v) => ({ id: v.profile.id, version: v.profile.version, createdAt: v.profile.createdAt, byName: v.byName, notes: v.profile.notes })),
+    versions: versions.map((v) => ({
+      id: v.profile.id,
+      version: v.profile.version,
+      createdAt: v.profile.createdAt,
+      byName: v.byName,
+      notes: v.profile.notes,
+    })),
     usedBy: repo.venuesUsing(user.orgId, row.lineageId),
   };
 }
@@ -90,7 +96,12 @@ function copy(scope: Scope, user: AuthUser, id: string, name: string) {
       createdBy: user.id,
       createdAt: nowIso(),
     });
-    recordAudit(tx, user, 'profile.copied', 'limit-profile', newRowId, { name, fromProfileId: source.id, fromName: source.name, fromVersion: source.version });
+    recordAudit(tx, user, 'profile.copied', 'limit-profile', newRowId, {
+      name,
+      fromProfileId: source.id,
+      fromName: source.name,
+      fromVersion: source.version,
+    });
   });
   return get(scope, user, newRowId);
 }
@@ -121,7 +132,12 @@ function update(scope: Scope, user: AuthUser, id: string, ifMatch: string | unde
       createdBy: user.id,
       createdAt: nowIso(),
     });
-    recordAudit(tx, user, 'profile.versioned', 'limit-profile', newRowId, { lineageId: row.lineageId, name: input.name ?? latest.name, fromVersion: latest.version, version: latest.version + 1 });
+    recordAudit(tx, user, 'profile.versioned', 'limit-profile', newRowId, {
+      lineageId: row.lineageId,
+      name: input.name ?? latest.name,
+      fromVersion: latest.version,
+      version: latest.version + 1,
+    });
   });
   return get(scope, user, newRowId);
 }

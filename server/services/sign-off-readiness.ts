@@ -95,7 +95,14 @@ function issuesProblem(readiness: VenueReadiness) {
     issues: describedIssues(readiness),
     strips: readiness.strips
       .filter((s) => s.state !== 'ready' && s.state !== 'withdrawn' && s.state !== 'exception')
-      .map((s) => ({ stripId: s.stripId, label: s.label, state: s.state, missing: s.missing, failing: s.failing, openFaults: s.openFaults })),
+      .map((s) => ({
+        stripId: s.stripId,
+        label: s.label,
+        state: s.state,
+        missing: s.missing,
+        failing: s.failing,
+        openFaults: s.openFaults,
+      })),
   };
 }
 

@@ -23,8 +23,7 @@ import type { VenueReadiness } from '../../shared/domain/readiness';
 import { formatOhm } from '../../shared/domain/units';
 import type { CertificateKind } from '../../shared/domain/certificate-number';
 
-export const DEFAULT_STATEMENT =
-  'I have reviewed the readings listed in this certificate and sign the venue off for competition.';
+export const DEFAULT_STATEMENT = 'I have reviewed the readings listed in this certificate and sign the venue off for competition.';
 
 /** The limit of a rule in words, for the certificate's list of limits and sources. */
 export function ruleLimitText(r: LimitRule): string {
@@ -75,7 +74,9 @@ function allocateNumbers(db: Db, year: number, readiness: VenueReadiness) {
     }
   };
   const venueNumber = fresh('venue');
-  const stripNumbers = readiness.strips.filter((s) => s.state === 'ready').map((s) => ({ stripId: s.stripId, label: s.label, number: fresh('strip') }));
+  const stripNumbers = readiness.strips
+    .filter((s) => s.state === 'ready')
+    .map((s) => ({ stripId: s.stripId, label: s.label, number: fresh('strip') }));
   return { venueNumber, stripNumbers };
 }
 
@@ -130,7 +131,13 @@ function payloadBase(ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<
 }
 
 /** The venue certificate (every certified reading, the exceptions) and one per ready strip. */
-export function draftCertificates(db: Db, ctx: SigningContext, snap: Snapshot, readiness: VenueReadiness, readings: CertifiedReading[]): Draft[] {
+export function draftCertificates(
+  db: Db,
+  ctx: SigningContext,
+  snap: Snapshot,
+  readiness: VenueReadiness,
+  readings: CertifiedReading[],
+): Draft[] {
   const { venueNumber, stripNumbers } = allocateNumbers(db, new Date(ctx.signedAt).getUTCFullYear(), readiness);
   const zoneOf = new Map(snap.stripRows.map((s) => [s.id, s.zone]));
   const venue: Draft = {

@@ -22,7 +22,10 @@ async function notify(deps: AppDeps, ctx: SigningContext, issued: IssuedCertific
   const people = signOffRepository(deps.db).usersByIds([...new Set(recipients)]);
   const origin = deps.env.APP_ORIGIN;
   const list = issued
-    .map((c) => `  ${c.payload.kind === 'venue' ? 'Venue' : c.payload.strips[0].label}: ${c.payload.number}\n  ${verifyUrlFor(origin, c.payload.number)}`)
+    .map(
+      (c) =>
+        `  ${c.payload.kind === 'venue' ? 'Venue' : c.payload.strips[0].label}: ${c.payload.number}\n  ${verifyUrlFor(origin, c.payload.number)}`,
+    )
     .join('\n\n');
   for (const person of people) {
     const text =
@@ -32,7 +35,12 @@ async function notify(deps: AppDeps, ctx: SigningContext, issued: IssuedCertific
       `Anyone can check a certificate, without signing in, on its verification page:\n\n${list}\n\n` +
       `The certificates cover the competition equipment tested, not the building's electrical installation.\n`;
     try {
-      await deps.mailer.send({ orgId: row.event.orgId, to: person.email, subject: `Signed off: ${row.venue.name}, ${row.event.name}`, text });
+      await deps.mailer.send({
+        orgId: row.event.orgId,
+        to: person.email,
+        subject: `Signed off: ${row.venue.name}, ${row.event.name}`,
+        text,
+      });
     } catch (err) {
       // The sign-off stands; the certificates page has everything the e-mail links to.
       deps.log.error(`sign-off e-mail to ${person.email} failed`, err);

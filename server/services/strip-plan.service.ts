@@ -35,7 +35,13 @@ function updateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: st
         for (const p of pistes) {
           if (r.activeStepsOf(p.id).length > 0) continue;
           stepsForKind('piste', profile).forEach((s) =>
-            r.insertStep({ id: newId(), positionId: p.id, testKind: s.testKind, conductors: s.conductors, sortOrder: r.maxStepSort(p.id) + 1 }),
+            r.insertStep({
+              id: newId(),
+              positionId: p.id,
+              testKind: s.testKind,
+              conductors: s.conductors,
+              sortOrder: r.maxStepSort(p.id) + 1,
+            }),
           );
         }
       } else {
@@ -65,7 +71,11 @@ function reinstateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch:
   return editPlan(deps, user, strip.venueId, ifMatch, `strip ${strip.label} reinstated`, (tx) => {
     if (!strip.withdrawnAt) throw conflict('not-withdrawn', `${strip.label} is not withdrawn.`);
     planRepository(tx).updateStrip(stripId, { withdrawnReason: null, withdrawnAt: null });
-    recordAudit(tx, user, 'strip.reinstated', 'strip', stripId, { venueId: strip.venueId, label: strip.label, previousReason: strip.withdrawnReason });
+    recordAudit(tx, user, 'strip.reinstated', 'strip', stripId, {
+      venueId: strip.venueId,
+      label: strip.label,
+      previousReason: strip.withdrawnReason,
+    });
   });
 }
 
@@ -77,7 +87,12 @@ function attachEquipment(deps: AppDeps, user: AuthUser, positionId: string, ifMa
     const before = position.equipmentId ? eq.findById(position.equipmentId) : null;
     let item = null;
     if (assetTag !== null) {
-      const found = attachableItem(tx, user, { positionId, name: position.name, equipmentKind: position.equipmentKind, venueId: strip.venueId }, assetTag);
+      const found = attachableItem(
+        tx,
+        user,
+        { positionId, name: position.name, equipmentKind: position.equipmentKind, venueId: strip.venueId },
+        assetTag,
+      );
       if (found.here) return; // already there: nothing changes, but the version still moves on
       item = found.item;
     } else if (!position.equipmentId) {
@@ -99,7 +114,10 @@ function addPosition(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: st
   const strip = requireStrip(deps.db, stripId);
   return editPlan(deps, user, strip.venueId, ifMatch, `${strip.label} position ${input.name} added`, (tx, { venue }) => {
     if (strip.withdrawnAt) {
-      throw conflict('strip-withdrawn', `${strip.label} is withdrawn (${strip.withdrawnReason}); reinstate it before adding positions to it.`);
+      throw conflict(
+        'strip-withdrawn',
+        `${strip.label} is withdrawn (${strip.withdrawnReason}); reinstate it before adding positions to it.`,
+      );
     }
     const r = planRepository(tx);
     const name = input.name.trim();
@@ -110,7 +128,9 @@ function addPosition(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: st
       });
     }
     const assetTag = input.assetTag ?? null;
-    const item = assetTag ? attachableItem(tx, user, { positionId: null, name, equipmentKind: input.equipmentKind, venueId: strip.venueId }, assetTag).item : null;
+    const item = assetTag
+      ? attachableItem(tx, user, { positionId: null, name, equipmentKind: input.equipmentKind, venueId: strip.venueId }, assetTag).item
+      : null;
     const profile = profileOf(tx, venue.profileId);
     const positionId = insertPosition(tx, stripId, { name, equipmentKind: input.equipmentKind }, r.maxPositionSort(stripId) + 1, profile);
     if (item) equipmentRepository(tx).assignToPosition(positionId, item.id, user.id, nowIso());
@@ -218,8 +238,7 @@ function dropStep(deps: AppDeps, user: AuthUser, stepId: string, ifMatch: string
 }
 
 type Rest<F> = F extends (deps: AppDeps, ...rest: infer R) => infer Out ? (...rest: R) => Out : never;
-const bind =
-  <F extends (deps: AppDeps, ...rest: never[]) => unknown>(deps: AppDeps, f: F): Rest<F> =>
+const bind = <F extends (deps: AppDeps, ...rest: never[]) => unknown>(deps: AppDeps, f: F): Rest<F> =>
   ((...rest: never[]) => f(deps, ...rest)) as Rest<F>;
 
 export function stripPlanService(deps: AppDeps) {

@@ -27,7 +27,13 @@ function copyVenue(tx: Tx, user: AuthUser, source: VenueCtx, venueId: string, in
     copied.strips += 1;
     for (const { position, equipment } of srcPositions.filter((p) => p.position.stripId === s.id)) {
       const positionId = newId();
-      r.insertPosition({ id: positionId, stripId, name: position.name, equipmentKind: position.equipmentKind, sortOrder: position.sortOrder });
+      r.insertPosition({
+        id: positionId,
+        stripId,
+        name: position.name,
+        equipmentKind: position.equipmentKind,
+        sortOrder: position.sortOrder,
+      });
       copied.positions += 1;
       if (input.copyEquipment !== false && equipment && equipment.status !== 'retired') {
         eq.assignToPosition(positionId, equipment.id, user.id, at);
@@ -65,7 +71,13 @@ function createVenue(deps: AppDeps, user: AuthUser, eventId: string, input: Crea
   const venueId = newId();
   deps.db.transaction((tx) => {
     const at = nowIso();
-    planRepository(tx).insertVenue({ id: venueId, eventId, name: input.name, profileId: profileRow.id, clonedFromId: source?.venue.id ?? null });
+    planRepository(tx).insertVenue({
+      id: venueId,
+      eventId,
+      name: input.name,
+      profileId: profileRow.id,
+      clonedFromId: source?.venue.id ?? null,
+    });
     const copied = source ? copyVenue(tx, user, source, venueId, input, at) : null;
     // The checklist follows the new venue's profile (loop steps where it asks for them).
     if (source) syncLoopSteps(tx, venueId, toLimitProfile(profileRow), at);
@@ -107,9 +119,13 @@ function addStrips(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: stri
     const labels = input.labels ?? Array.from({ length: input.count! }, (_, i) => `${prefix}${startAt + i}`.trim());
     const taken = labels.filter((l) => existing.some((s) => s.label === l));
     if (taken.length) {
-      throw conflict('duplicate-strip-label', `This venue already has ${taken.slice(0, 5).join(', ')}${taken.length > 5 ? ' …' : ''}; choose other labels or another start number.`, {
-        errors: [{ path: input.labels ? 'labels' : 'startAt', message: `Already used: ${taken.join(', ')}` }],
-      });
+      throw conflict(
+        'duplicate-strip-label',
+        `This venue already has ${taken.slice(0, 5).join(', ')}${taken.length > 5 ? ' …' : ''}; choose other labels or another start number.`,
+        {
+          errors: [{ path: input.labels ? 'labels' : 'startAt', message: `Already used: ${taken.join(', ')}` }],
+        },
+      );
     }
     const profile = profileOf(tx, venue.profileId);
     const template = input.template ?? DEFAULT_POSITION_TEMPLATE;
@@ -117,11 +133,21 @@ function addStrips(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: stri
     for (const label of labels) {
       const stripId = newId();
       sort += 1;
-      r.insertStrip({ id: stripId, venueId, label, sortOrder: sort, zone: input.zone ?? null, conductivePiste: input.conductivePiste ?? false });
-      template
-        .filter((p) => !p.pisteOnly || input.conductivePiste)
-        .forEach((p, i) => insertPosition(tx, stripId, p, i + 1, profile));
-      recordAudit(tx, user, 'strip.created', 'strip', stripId, { venueId, label, zone: input.zone ?? null, conductivePiste: !!input.conductivePiste });
+      r.insertStrip({
+        id: stripId,
+        venueId,
+        label,
+        sortOrder: sort,
+        zone: input.zone ?? null,
+        conductivePiste: input.conductivePiste ?? false,
+      });
+      template.filter((p) => !p.pisteOnly || input.conductivePiste).forEach((p, i) => insertPosition(tx, stripId, p, i + 1, profile));
+      recordAudit(tx, user, 'strip.created', 'strip', stripId, {
+        venueId,
+        label,
+        zone: input.zone ?? null,
+        conductivePiste: !!input.conductivePiste,
+      });
     }
   });
 }
@@ -136,7 +162,10 @@ function setTechnicians(deps: AppDeps, user: AuthUser, venueId: string, ifMatch:
     });
     if (invalid.length) {
       throw unprocessable('not-a-technician', 'Only active technicians of your organisation can be assigned to a venue.', {
-        errors: invalid.map((id) => ({ path: `userIds.${userIds.indexOf(id)}`, message: 'Not an active technician of your organisation.' })),
+        errors: invalid.map((id) => ({
+          path: `userIds.${userIds.indexOf(id)}`,
+          message: 'Not an active technician of your organisation.',
+        })),
       });
     }
     const before = r.techniciansOf(venueId);
@@ -153,8 +182,11 @@ export function venuePlanService(deps: AppDeps) {
   return {
     plan: (user: AuthUser, venueId: string) => readPlan(deps.db, user, venueId),
     createVenue: (user: AuthUser, eventId: string, input: CreateVenueInput) => createVenue(deps, user, eventId, input),
-    updateVenue: (user: AuthUser, venueId: string, ifMatch: string | undefined, input: UpdateVenueInput) => updateVenue(deps, user, venueId, ifMatch, input),
-    addStrips: (user: AuthUser, venueId: string, ifMatch: string | undefined, input: BulkStripsInput) => addStrips(deps, user, venueId, ifMatch, input),
-    setTechnicians: (user: AuthUser, venueId: string, ifMatch: string | undefined, userIds: string[]) => setTechnicians(deps, user, venueId, ifMatch, userIds),
+    updateVenue: (user: AuthUser, venueId: string, ifMatch: string | undefined, input: UpdateVenueInput) =>
+      updateVenue(deps, user, venueId, ifMatch, input),
+    addStrips: (user: AuthUser, venueId: string, ifMatch: string | undefined, input: BulkStripsInput) =>
+      addStrips(deps, user, venueId, ifMatch, input),
+    setTechnicians: (user: AuthUser, venueId: string, ifMatch: string | undefined, userIds: string[]) =>
+      setTechnicians(deps, user, venueId, ifMatch, userIds),
   };
 }

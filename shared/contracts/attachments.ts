@@ -10,7 +10,13 @@ import { ATTACHMENT_EXTENSIONS, attachmentCreatedSchema, attachmentDtoSchema, tr
  */
 function ownerContracts<const S extends string, const U extends Access>(segment: S, uploaders: U) {
   return {
-    list: contract({ method: 'GET', path: `/${segment}/:id/attachments` as `/${S}/:id/attachments`, access: STAFF, params: idParams, answer: json(z.array(attachmentDtoSchema)) }),
+    list: contract({
+      method: 'GET',
+      path: `/${segment}/:id/attachments` as `/${S}/:id/attachments`,
+      access: STAFF,
+      params: idParams,
+      answer: json(z.array(attachmentDtoSchema)),
+    }),
     upload: contract({
       method: 'POST',
       path: `/${segment}/:id/attachments` as `/${S}/:id/attachments`,
@@ -32,5 +38,11 @@ export const attachmentsContracts = {
   original: contract({ method: 'GET', path: '/attachments/:id', access: STAFF, params: idParams, answer: file(...STORED_TYPES) }),
   /** A 480 px JPEG of a photo. */
   preview: contract({ method: 'GET', path: '/attachments/:id/preview', access: STAFF, params: idParams, answer: file('image/jpeg') }),
-  analysis: contract({ method: 'GET', path: '/attachments/:id/analysis', access: STAFF, params: idParams, answer: json(traceAnalysisDtoSchema) }),
+  analysis: contract({
+    method: 'GET',
+    path: '/attachments/:id/analysis',
+    access: STAFF,
+    params: idParams,
+    answer: json(traceAnalysisDtoSchema),
+  }),
 };

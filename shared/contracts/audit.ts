@@ -17,7 +17,13 @@ export const auditEntrySchema = z.strictObject({
 export type AuditEntry = z.infer<typeof auditEntrySchema>;
 
 export const auditContracts = {
-  list: contract({ method: 'GET', path: '/audit', access: ['admin', 'director'], query: auditQuerySchema, answer: json(z.array(auditEntrySchema)) }),
+  list: contract({
+    method: 'GET',
+    path: '/audit',
+    access: ['admin', 'director'],
+    query: auditQuerySchema,
+    answer: json(z.array(auditEntrySchema)),
+  }),
   ofVenue: contract({
     method: 'GET',
     path: '/venues/:id/audit',

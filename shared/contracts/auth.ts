@@ -9,7 +9,13 @@ export const authContracts = {
   signIn: contract({ method: 'POST', path: '/auth/sign-in', access: 'public', body: signInSchema, answer: json(userAnswer) }),
   me: contract({ method: 'GET', path: '/auth/me', access: 'signed-in', answer: json(userAnswer) }),
   signOut: contract({ method: 'POST', path: '/auth/sign-out', access: 'signed-in', answer: noContent }),
-  preferences: contract({ method: 'PUT', path: '/auth/preferences', access: 'signed-in', body: preferencesSchema, answer: json(userAnswer) }),
+  preferences: contract({
+    method: 'PUT',
+    path: '/auth/preferences',
+    access: 'signed-in',
+    body: preferencesSchema,
+    answer: json(userAnswer),
+  }),
   /** The same answer whether the address has an account or not. */
   requestReset: contract({
     method: 'POST',
@@ -24,5 +30,11 @@ export const authContracts = {
     access: 'public',
     answer: json(z.strictObject({ email: z.string(), name: z.string(), purpose: z.enum(['invite', 'reset']) })),
   }),
-  setPassword: contract({ method: 'POST', path: '/auth/set-password/:token', access: 'public', body: setPasswordSchema, answer: json(userAnswer) }),
+  setPassword: contract({
+    method: 'POST',
+    path: '/auth/set-password/:token',
+    access: 'public',
+    body: setPasswordSchema,
+    answer: json(userAnswer),
+  }),
 };

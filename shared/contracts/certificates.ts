@@ -69,11 +69,19 @@ export type FileCheck = z.infer<typeof fileCheckSchema>;
 
 /** RFC 7517 key set: the public keys (Ed25519) that sign certificates, for outside verifiers. */
 export const jwksSchema = z.strictObject({
-  keys: z.array(z.looseObject({ kty: z.string(), crv: z.string(), x: z.string(), kid: z.string(), alg: z.literal('EdDSA'), use: z.literal('sig') })),
+  keys: z.array(
+    z.looseObject({ kty: z.string(), crv: z.string(), x: z.string(), kid: z.string(), alg: z.literal('EdDSA'), use: z.literal('sig') }),
+  ),
 });
 
 export const certificatesContracts = {
-  ofVenue: contract({ method: 'GET', path: '/venues/:id/certificates', access: STAFF, params: idParams, answer: json(venueCertificatesSchema) }),
+  ofVenue: contract({
+    method: 'GET',
+    path: '/venues/:id/certificates',
+    access: STAFF,
+    params: idParams,
+    answer: json(venueCertificatesSchema),
+  }),
   /** The latest sign-off's PDFs of a venue. */
   zip: contract({ method: 'GET', path: '/venues/:id/certificates.zip', access: STAFF, params: idParams, answer: file('application/zip') }),
   pdf: contract({ method: 'GET', path: '/certificates/:number/pdf', access: STAFF, answer: file('application/pdf') }),

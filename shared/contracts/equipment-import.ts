@@ -7,7 +7,19 @@ import { importOptionsSchema, importPreviewSchema, importReportSchema } from '..
  */
 export const equipmentImportContracts = {
   /** Nothing is written: the rows as they would be imported, with their errors. */
-  preview: contract({ method: 'POST', path: '/equipment/import/preview', access: KEEPERS, body: multipart(importOptionsSchema), answer: json(importPreviewSchema) }),
-  run: contract({ method: 'POST', path: '/equipment/import', access: KEEPERS, body: multipart(importOptionsSchema), answer: json(importReportSchema) }),
+  preview: contract({
+    method: 'POST',
+    path: '/equipment/import/preview',
+    access: KEEPERS,
+    body: multipart(importOptionsSchema),
+    answer: json(importPreviewSchema),
+  }),
+  run: contract({
+    method: 'POST',
+    path: '/equipment/import',
+    access: KEEPERS,
+    body: multipart(importOptionsSchema),
+    answer: json(importReportSchema),
+  }),
   csv: contract({ method: 'GET', path: '/equipment.csv', access: STAFF, answer: file('text/csv') }),
 };

@@ -126,10 +126,29 @@ export const calibrationResultSchema = z.strictObject({
 });
 
 export const equipmentContracts = {
-  list: contract({ method: 'GET', path: '/equipment', access: STAFF, query: equipmentQuerySchema, answer: json(z.array(equipmentItemSchema)) }),
-  create: contract({ method: 'POST', path: '/equipment', access: KEEPERS, body: createEquipmentSchema, answer: json(equipmentItemSchema, 201) }),
+  list: contract({
+    method: 'GET',
+    path: '/equipment',
+    access: STAFF,
+    query: equipmentQuerySchema,
+    answer: json(z.array(equipmentItemSchema)),
+  }),
+  create: contract({
+    method: 'POST',
+    path: '/equipment',
+    access: KEEPERS,
+    body: createEquipmentSchema,
+    answer: json(equipmentItemSchema, 201),
+  }),
   get: contract({ method: 'GET', path: '/equipment/:id', access: STAFF, params: idParams, answer: json(equipmentDetailSchema) }),
-  update: contract({ method: 'PATCH', path: '/equipment/:id', access: KEEPERS, params: idParams, body: updateEquipmentSchema, answer: json(equipmentItemSchema) }),
+  update: contract({
+    method: 'PATCH',
+    path: '/equipment/:id',
+    access: KEEPERS,
+    params: idParams,
+    body: updateEquipmentSchema,
+    answer: json(equipmentItemSchema),
+  }),
   calibrate: contract({
     method: 'POST',
     path: '/equipment/:id/calibrations',

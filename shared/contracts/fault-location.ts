@@ -37,7 +37,13 @@ export type WaveformAnswer = z.infer<typeof waveformAnswerSchema>;
 /** Pure computation, no database: any signed-in user may ask where a fault is. */
 export const faultLocationContracts = {
   /** The explanation is worded in the asker's units; the numbers are always metres. */
-  locate: contract({ method: 'POST', path: '/fault-location', access: 'signed-in', body: faultLocationRequestSchema, answer: json(faultLocationAnswerSchema) }),
+  locate: contract({
+    method: 'POST',
+    path: '/fault-location',
+    access: 'signed-in',
+    body: faultLocationRequestSchema,
+    answer: json(faultLocationAnswerSchema),
+  }),
   /** The trace is the body itself (a scope's CSV export), far over the 100 kB JSON limit. */
   analyse: contract({
     method: 'POST',

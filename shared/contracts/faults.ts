@@ -86,7 +86,14 @@ export const faultsContracts = {
   get: contract({ method: 'GET', path: '/faults/:id', access: STAFF, params: idParams, answer: json(faultDetailSchema) }),
   create: contract({ method: 'POST', path: '/faults', access: TESTERS, body: createFaultSchema, answer: json(faultDetailSchema, 201) }),
   /** If-Match with the fault's ETag. */
-  update: contract({ method: 'PATCH', path: '/faults/:id', access: TESTERS, params: idParams, body: updateFaultSchema, answer: json(faultDetailSchema) }),
+  update: contract({
+    method: 'PATCH',
+    path: '/faults/:id',
+    access: TESTERS,
+    params: idParams,
+    body: updateFaultSchema,
+    answer: json(faultDetailSchema),
+  }),
   /**
    * One fault-location request (schemas/fault-location.ts) plus fromEnd. The service parses it,
    * after filling in the item's length when the form left it out, so the body is taken as it comes.
@@ -97,7 +104,10 @@ export const faultsContracts = {
     access: TESTERS,
     params: idParams,
     body: z.unknown(),
-    answer: json(z.strictObject({ estimate: faultEstimateSchema, combined: combinedEstimateSchema.nullable(), fault: faultDetailSchema }), 201),
+    answer: json(
+      z.strictObject({ estimate: faultEstimateSchema, combined: combinedEstimateSchema.nullable(), fault: faultDetailSchema }),
+      201,
+    ),
   }),
   addRepair: contract({
     method: 'POST',

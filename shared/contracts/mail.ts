@@ -13,5 +13,10 @@ export type MailSummary = z.infer<typeof mailSummarySchema>;
 
 export const mailContracts = {
   list: contract({ method: 'GET', path: '/mail', access: ['admin'], answer: json(z.array(mailSummarySchema)) }),
-  get: contract({ method: 'GET', path: '/mail/:id', access: ['admin'], answer: json(z.strictObject({ ...mailSummarySchema.shape, text: z.string() })) }),
+  get: contract({
+    method: 'GET',
+    path: '/mail/:id',
+    access: ['admin'],
+    answer: json(z.strictObject({ ...mailSummarySchema.shape, text: z.string() })),
+  }),
 };

@@ -31,16 +31,38 @@ export const profileDetailSchema = z.strictObject({
   latestVersion: z.number().int(),
   latestId: z.string(),
   versions: z.array(
-    z.strictObject({ id: z.string(), version: z.number().int(), createdAt: z.string(), byName: z.string().nullable(), notes: z.string().nullable() }),
+    z.strictObject({
+      id: z.string(),
+      version: z.number().int(),
+      createdAt: z.string(),
+      byName: z.string().nullable(),
+      notes: z.string().nullable(),
+    }),
   ),
-  usedBy: z.array(z.strictObject({ venueId: z.string(), venueName: z.string(), eventName: z.string(), profileId: z.string(), version: z.number().int() })),
+  usedBy: z.array(
+    z.strictObject({ venueId: z.string(), venueName: z.string(), eventName: z.string(), profileId: z.string(), version: z.number().int() }),
+  ),
 });
 export type ProfileDetail = z.infer<typeof profileDetailSchema>;
 
 export const profilesContracts = {
   list: contract({ method: 'GET', path: '/profiles', access: STAFF, answer: json(z.array(profileSummarySchema)) }),
   get: contract({ method: 'GET', path: '/profiles/:id', access: STAFF, params: idParams, answer: json(profileDetailSchema) }),
-  copy: contract({ method: 'POST', path: '/profiles/:id/copy', access: KEEPERS, params: idParams, body: copyProfileSchema, answer: json(profileDetailSchema, 201) }),
+  copy: contract({
+    method: 'POST',
+    path: '/profiles/:id/copy',
+    access: KEEPERS,
+    params: idParams,
+    body: copyProfileSchema,
+    answer: json(profileDetailSchema, 201),
+  }),
   /** An edit is stored as a new version of the lineage (201), never over an old one; If-Match names the latest. */
-  update: contract({ method: 'PUT', path: '/profiles/:id', access: KEEPERS, params: idParams, body: updateProfileSchema, answer: json(profileDetailSchema, 201) }),
+  update: contract({
+    method: 'PUT',
+    path: '/profiles/:id',
+    access: KEEPERS,
+    params: idParams,
+    body: updateProfileSchema,
+    answer: json(profileDetailSchema, 201),
+  }),
 };

@@ -70,7 +70,9 @@ export const readinessSchema = z.strictObject({
   ready: z.boolean(),
   strips: z.array(stripReadinessSchema),
   nearLimit: z.array(z.strictObject(failingStep)),
-  exceptions: z.array(z.strictObject({ stripId: z.string(), label: z.string(), reason: z.string(), source: z.enum(['withdrawn', 'sign-off']) })),
+  exceptions: z.array(
+    z.strictObject({ stripId: z.string(), label: z.string(), reason: z.string(), source: z.enum(['withdrawn', 'sign-off']) }),
+  ),
   issues: z.array(readinessIssueSchema),
   counts: z.strictObject({ strips: z.number().int(), ready: z.number().int(), excepted: z.number().int(), notReady: z.number().int() }),
 });
@@ -98,5 +100,12 @@ export const signOffContracts = {
    * Directors only; the service then checks it is this event's director (object level). 409
    * not-ready carries the issues; 401 wrong-password when the re-entered password is not right.
    */
-  signOff: contract({ method: 'POST', path: '/venues/:id/sign-off', access: ['director'], params: idParams, body: signOffSchema, answer: json(signOffResultSchema, 201) }),
+  signOff: contract({
+    method: 'POST',
+    path: '/venues/:id/sign-off',
+    access: ['director'],
+    params: idParams,
+    body: signOffSchema,
+    answer: json(signOffResultSchema, 201),
+  }),
 };

@@ -17,7 +17,13 @@ export const stripDetailSchema = z.strictObject({
   venueStatus,
   /** What the browser judges a typed reading with before the server answers. */
   profile: z
-    .strictObject({ id: z.string(), name: z.string(), version: z.number().int(), rules: z.array(limitRuleDto), loopRequired: z.array(equipmentKind) })
+    .strictObject({
+      id: z.string(),
+      name: z.string(),
+      version: z.number().int(),
+      rules: z.array(limitRuleDto),
+      loopRequired: z.array(equipmentKind),
+    })
     .nullable(),
   counts: z.strictObject(stepCountsShape),
   venueProgress: z.strictObject({

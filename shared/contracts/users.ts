@@ -22,6 +22,13 @@ export type Person = z.infer<typeof personSchema>;
 export const usersContracts = {
   list: contract({ method: 'GET', path: '/users', access: ADMINS, answer: json(z.array(personSchema)) }),
   invite: contract({ method: 'POST', path: '/users', access: ADMINS, body: inviteUserSchema, answer: json(personSchema, 201) }),
-  update: contract({ method: 'PATCH', path: '/users/:id', access: ADMINS, params: idParams, body: updateUserSchema, answer: json(personSchema) }),
+  update: contract({
+    method: 'PATCH',
+    path: '/users/:id',
+    access: ADMINS,
+    params: idParams,
+    body: updateUserSchema,
+    answer: json(personSchema),
+  }),
   endSessions: contract({ method: 'POST', path: '/users/:id/end-sessions', access: ADMINS, params: idParams, answer: noContent }),
 };

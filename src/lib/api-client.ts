@@ -46,7 +46,9 @@ const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 /** The ApiError for a refusal: the problem+json body's code, sentence and field errors when there is one. */
 export function problemError(status: number, data: unknown): ApiError {
   const p = isRecord(data) ? data : {};
-  const errors = Array.isArray(p.errors) ? p.errors.filter((e): e is FieldError => isRecord(e) && typeof e.path === 'string' && typeof e.message === 'string') : [];
+  const errors = Array.isArray(p.errors)
+    ? p.errors.filter((e): e is FieldError => isRecord(e) && typeof e.path === 'string' && typeof e.message === 'string')
+    : [];
   return new ApiError(
     status,
     typeof p.code === 'string' ? p.code : 'error',
@@ -131,7 +133,8 @@ export type CallInput<C extends Contract> = (NeedsParams<C> extends true ? { par
     headers?: Record<string, string>;
     signal?: AbortSignal;
   };
-type Args<C extends Contract> = NeedsParams<C> extends true ? [CallInput<C>] : BodyIn<C> extends undefined ? [CallInput<C>?] : [CallInput<C>];
+type Args<C extends Contract> =
+  NeedsParams<C> extends true ? [CallInput<C>] : BodyIn<C> extends undefined ? [CallInput<C>?] : [CallInput<C>];
 
 /** Calls the route of a contract. */
 export async function call<C extends Contract>(c: C, ...[input]: Args<C>): Promise<AnswerOf<C>> {
@@ -139,7 +142,8 @@ export async function call<C extends Contract>(c: C, ...[input]: Args<C>): Promi
   const opts: RequestOptions = { method: c.method, headers, signal };
   if (body !== undefined) {
     opts.body = body as RequestOptions['body'];
-    if (typeof body === 'string' && typeof c.body === 'object' && 'kind' in c.body && c.body.kind === 'text') opts.contentType = c.body.contentTypes[0];
+    if (typeof body === 'string' && typeof c.body === 'object' && 'kind' in c.body && c.body.kind === 'text')
+      opts.contentType = c.body.contentTypes[0];
   } else if (c.method !== 'GET' && c.method !== 'DELETE') {
     // A write without a body of its own sends {} (JSON), as it always has.
     opts.body = {};

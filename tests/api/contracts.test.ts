@@ -45,7 +45,11 @@ describe('contracts and routes', () => {
       if (c.answer.kind === 'json') expect(c.answer.schema, key(c)).toBeInstanceOf(z.ZodType);
       if (c.answer.kind === 'file') expect(c.answer.contentTypes.length, key(c)).toBeGreaterThan(0);
     }
-    expect(allContracts().filter((c) => c.hot).map(key)).toEqual(['POST /readings']);
+    expect(
+      allContracts()
+        .filter((c) => c.hot)
+        .map(key),
+    ).toEqual(['POST /readings']);
   });
 });
 

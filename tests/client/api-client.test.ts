@@ -42,7 +42,10 @@ describe('fetchers against the server', () => {
     base = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
     // The browser's fetch: same origin, the session cookie kept.
     vi.stubGlobal('fetch', async (url: string, init: RequestInit = {}) => {
-      const res = await realFetch(`${base}${url}`, { ...init, headers: { ...(init.headers as Record<string, string>), Origin: ORIGIN, Cookie: cookie } });
+      const res = await realFetch(`${base}${url}`, {
+        ...init,
+        headers: { ...(init.headers as Record<string, string>), Origin: ORIGIN, Cookie: cookie },
+      });
       const set = res.headers.get('set-cookie');
       if (set) cookie = set.split(';')[0]!;
       return res;
@@ -80,6 +83,8 @@ describe('fetchers against the server', () => {
   test('in tests an answer that does not match the contract is refused by the client too', async () => {
     vi.stubGlobal('fetch', async () => new Response(JSON.stringify([{ id: 'x' }]), { headers: { 'Content-Type': 'application/json' } }));
     await expect(call(venuesContracts.list)).rejects.toBeInstanceOf(ZodError);
-    vi.stubGlobal('fetch', async (url: string, init: RequestInit = {}) => realFetch(`${base}${url}`, { ...init, headers: { ...(init.headers as Record<string, string>), Origin: ORIGIN, Cookie: cookie } }));
+    vi.stubGlobal('fetch', async (url: string, init: RequestInit = {}) =>
+      realFetch(`${base}${url}`, { ...init, headers: { ...(init.headers as Record<string, string>), Origin: ORIGIN, Cookie: cookie } }),
+    );
   });
 });

@@ -3,7 +3,6 @@
 import { createdAt, id, now } from './columns';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 
-
 export const organisations = sqliteTable('organisations', {
   id: id(),
   name: text('name').notNull(),
@@ -14,14 +13,18 @@ export const users = sqliteTable(
   'users',
   {
     id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
+    orgId: text('org_id')
+      .notNull()
+      .references(() => organisations.id),
     email: text('email').notNull(),
     name: text('name').notNull(),
     role: text('role', { enum: ['admin', 'organiser', 'director', 'technician'] }).notNull(),
     // Null until an invited person sets a password.
     passwordHash: text('password_hash'),
     disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
-    unitSystem: text('unit_system', { enum: ['metric', 'imperial'] }).notNull().default('metric'),
+    unitSystem: text('unit_system', { enum: ['metric', 'imperial'] })
+      .notNull()
+      .default('metric'),
     createdAt: createdAt(),
   },
   (t) => [uniqueIndex('users_email_unique').on(t.email)],
@@ -31,7 +34,9 @@ export const sessions = sqliteTable(
   'sessions',
   {
     id: id(),
-    userId: text('user_id').notNull().references(() => users.id),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
     lastSeenAt: text('last_seen_at').notNull(),
     expiresAt: text('expires_at').notNull(),
@@ -44,7 +49,9 @@ export const sessions = sqliteTable(
 // One-time links: invitations and password resets. Only the SHA-256 of the token is kept.
 export const userTokens = sqliteTable('user_tokens', {
   id: id(),
-  userId: text('user_id').notNull().references(() => users.id),
+  userId: text('user_id')
+    .notNull()
+    .references(() => users.id),
   purpose: text('purpose', { enum: ['invite', 'reset'] }).notNull(),
   tokenHash: text('token_hash').notNull().unique(),
   expiresAt: text('expires_at').notNull(),
@@ -56,7 +63,9 @@ export const limitProfiles = sqliteTable(
   'limit_profiles',
   {
     id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
+    orgId: text('org_id')
+      .notNull()
+      .references(() => organisations.id),
     // All versions of one profile share a lineage; editing adds a version, never rewrites one.
     lineageId: text('lineage_id').notNull(),
     name: text('name').notNull(),
@@ -72,7 +81,9 @@ export const limitProfiles = sqliteTable(
 
 export const events = sqliteTable('events', {
   id: id(),
-  orgId: text('org_id').notNull().references(() => organisations.id),
+  orgId: text('org_id')
+    .notNull()
+    .references(() => organisations.id),
   name: text('name').notNull(),
   startsOn: text('starts_on').notNull(),
   endsOn: text('ends_on').notNull(),
@@ -85,10 +96,16 @@ export const venues = sqliteTable(
   'venues',
   {
     id: id(),
-    eventId: text('event_id').notNull().references(() => events.id),
+    eventId: text('event_id')
+      .notNull()
+      .references(() => events.id),
     name: text('name').notNull(),
-    profileId: text('profile_id').notNull().references(() => limitProfiles.id),
-    status: text('status', { enum: ['planning', 'testing', 'signed-off'] }).notNull().default('planning'),
+    profileId: text('profile_id')
+      .notNull()
+      .references(() => limitProfiles.id),
+    status: text('status', { enum: ['planning', 'testing', 'signed-off'] })
+      .notNull()
+      .default('planning'),
     // Optimistic concurrency for plan edits (ETag / If-Match).
     version: integer('version').notNull().default(1),
     clonedFromId: text('cloned_from_id'),
@@ -100,8 +117,12 @@ export const venues = sqliteTable(
 export const venueTechnicians = sqliteTable(
   'venue_technicians',
   {
-    venueId: text('venue_id').notNull().references(() => venues.id),
-    userId: text('user_id').notNull().references(() => users.id),
+    venueId: text('venue_id')
+      .notNull()
+      .references(() => venues.id),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id),
   },
   (t) => [primaryKey({ columns: [t.venueId, t.userId] })],
 );
@@ -110,7 +131,9 @@ export const strips = sqliteTable(
   'strips',
   {
     id: id(),
-    venueId: text('venue_id').notNull().references(() => venues.id),
+    venueId: text('venue_id')
+      .notNull()
+      .references(() => venues.id),
     label: text('label').notNull(),
     sortOrder: integer('sort_order').notNull(),
     zone: text('zone'),
@@ -125,7 +148,9 @@ export const equipment = sqliteTable(
   'equipment',
   {
     id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
+    orgId: text('org_id')
+      .notNull()
+      .references(() => organisations.id),
     assetTag: text('asset_tag').notNull(),
     kind: text('kind', { enum: ['floor-cable', 'reel', 'piste', 'body-wire', 'apparatus', 'other'] }).notNull(),
     description: text('description').notNull().default(''),
@@ -134,7 +159,9 @@ export const equipment = sqliteTable(
     awg: integer('awg'),
     cableType: text('cable_type'),
     velocityFactor: real('velocity_factor'),
-    status: text('status', { enum: ['in-service', 'under-repair', 'retired'] }).notNull().default('in-service'),
+    status: text('status', { enum: ['in-service', 'under-repair', 'retired'] })
+      .notNull()
+      .default('in-service'),
     notes: text('notes'),
     version: integer('version').notNull().default(1),
     createdAt: createdAt(),
@@ -144,7 +171,9 @@ export const equipment = sqliteTable(
 
 export const velocityCalibrations = sqliteTable('velocity_calibrations', {
   id: id(),
-  equipmentId: text('equipment_id').notNull().references(() => equipment.id),
+  equipmentId: text('equipment_id')
+    .notNull()
+    .references(() => equipment.id),
   velocityFactor: real('velocity_factor').notNull(),
   lengthM: real('length_m').notNull(),
   roundTripNs: real('round_trip_ns').notNull(),
@@ -156,7 +185,9 @@ export const positions = sqliteTable(
   'positions',
   {
     id: id(),
-    stripId: text('strip_id').notNull().references(() => strips.id),
+    stripId: text('strip_id')
+      .notNull()
+      .references(() => strips.id),
     name: text('name').notNull(),
     equipmentKind: text('equipment_kind', {
       enum: ['floor-cable', 'reel', 'piste', 'body-wire', 'apparatus', 'other'],
@@ -170,8 +201,12 @@ export const positions = sqliteTable(
 // Which item sat in which position and when, so an item's history shows the strips it was on.
 export const positionAssignments = sqliteTable('position_assignments', {
   id: id(),
-  positionId: text('position_id').notNull().references(() => positions.id),
-  equipmentId: text('equipment_id').notNull().references(() => equipment.id),
+  positionId: text('position_id')
+    .notNull()
+    .references(() => positions.id),
+  equipmentId: text('equipment_id')
+    .notNull()
+    .references(() => equipment.id),
   assignedAt: text('assigned_at').notNull().default(now),
   removedAt: text('removed_at'),
   assignedBy: text('assigned_by').references(() => users.id),
@@ -181,7 +216,9 @@ export const steps = sqliteTable(
   'steps',
   {
     id: id(),
-    positionId: text('position_id').notNull().references(() => positions.id),
+    positionId: text('position_id')
+      .notNull()
+      .references(() => positions.id),
     testKind: text('test_kind', {
       enum: ['continuity', 'insulation', 'loop', 'piste-end-to-end', 'piste-earth'],
     }).notNull(),
@@ -200,7 +237,9 @@ export const readings = sqliteTable(
   'readings',
   {
     id: id(), // made by the client, so a replay is recognised
-    stepId: text('step_id').notNull().references(() => steps.id),
+    stepId: text('step_id')
+      .notNull()
+      .references(() => steps.id),
     equipmentId: text('equipment_id').references(() => equipment.id),
     valueText: text('value_text').notNull(),
     valueOhm: real('value_ohm'),
@@ -212,14 +251,18 @@ export const readings = sqliteTable(
     limitKind: text('limit_kind', { enum: ['max', 'min'] }),
     source: text('source').notNull(),
     ruleId: text('rule_id'),
-    profileId: text('profile_id').notNull().references(() => limitProfiles.id),
+    profileId: text('profile_id')
+      .notNull()
+      .references(() => limitProfiles.id),
     profileVersion: integer('profile_version').notNull(),
     explanation: text('explanation').notNull(),
     supersedesId: text('supersedes_id'),
     correctionReason: text('correction_reason'),
     // Fingerprint of the request body, to tell an idempotent replay from a different body.
     requestHash: text('request_hash').notNull(),
-    takenBy: text('taken_by').notNull().references(() => users.id),
+    takenBy: text('taken_by')
+      .notNull()
+      .references(() => users.id),
     takenAt: text('taken_at').notNull().default(now),
     // When the server got it (a reading typed offline arrives later than it was taken). Null on
     // rows from before this column: they were stamped on arrival, so taken_at is that time.
@@ -232,17 +275,25 @@ export const faults = sqliteTable(
   'faults',
   {
     id: id(),
-    stripId: text('strip_id').notNull().references(() => strips.id),
-    positionId: text('position_id').notNull().references(() => positions.id),
+    stripId: text('strip_id')
+      .notNull()
+      .references(() => strips.id),
+    positionId: text('position_id')
+      .notNull()
+      .references(() => positions.id),
     equipmentId: text('equipment_id').references(() => equipment.id),
     stepId: text('step_id').references(() => steps.id),
     readingId: text('reading_id').references(() => readings.id),
     kind: text('kind', { enum: ['short', 'open', 'high-resistance', 'intermittent'] }).notNull(),
     conductors: text('conductors').notNull(),
-    status: text('status', { enum: ['open', 'located', 'repaired', 'closed'] }).notNull().default('open'),
+    status: text('status', { enum: ['open', 'located', 'repaired', 'closed'] })
+      .notNull()
+      .default('open'),
     notes: text('notes'),
     version: integer('version').notNull().default(1),
-    openedBy: text('opened_by').notNull().references(() => users.id),
+    openedBy: text('opened_by')
+      .notNull()
+      .references(() => users.id),
     openedAt: text('opened_at').notNull().default(now),
     closedAt: text('closed_at'),
   },
@@ -252,26 +303,34 @@ export const faults = sqliteTable(
 
 export const faultEstimates = sqliteTable('fault_estimates', {
   id: id(),
-  faultId: text('fault_id').notNull().references(() => faults.id),
+  faultId: text('fault_id')
+    .notNull()
+    .references(() => faults.id),
   method: text('method').notNull(),
   fromEnd: text('from_end').notNull().default('near'),
   inputsJson: text('inputs_json').notNull(),
   distanceM: real('distance_m').notNull(),
   uncertaintyM: real('uncertainty_m').notNull(),
   resultJson: text('result_json').notNull(),
-  createdBy: text('created_by').notNull().references(() => users.id),
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
 });
 
 export const repairs = sqliteTable('repairs', {
   id: id(),
-  faultId: text('fault_id').notNull().references(() => faults.id),
+  faultId: text('fault_id')
+    .notNull()
+    .references(() => faults.id),
   equipmentId: text('equipment_id').references(() => equipment.id),
   action: text('action', { enum: ['cut-out', 'connector-remade', 'swapped', 'retired'] }).notNull(),
   lengthRemovedM: real('length_removed_m'),
   lengthBeforeM: real('length_before_m'),
   replacementEquipmentId: text('replacement_equipment_id').references(() => equipment.id),
   notes: text('notes'),
-  createdBy: text('created_by').notNull().references(() => users.id),
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
 });

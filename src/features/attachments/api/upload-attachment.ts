@@ -2,7 +2,13 @@ import { useCallback, useRef, useState } from 'react';
 import { useQueryClient } from '@tanstack/react-query';
 import { answerOf, ApiError, problemError, urlOf } from '@/lib/api-client';
 import { attachmentsContracts } from '@shared/contracts/attachments';
-import { ATTACHMENT_EXTENSIONS, ATTACHMENT_MAX_BYTES, extensionOf, type AttachmentCreated, type AttachmentOwnerType } from '@shared/schemas/attachments';
+import {
+  ATTACHMENT_EXTENSIONS,
+  ATTACHMENT_MAX_BYTES,
+  extensionOf,
+  type AttachmentCreated,
+  type AttachmentOwnerType,
+} from '@shared/schemas/attachments';
 import { attachmentsQueryOptions } from './get-attachments';
 import { formatBytes, newIdempotencyKey } from '../utils/idempotency-key';
 
@@ -28,7 +34,10 @@ export function uploadAttachment(
     xhr.setRequestHeader('Accept', 'application/json');
     xhr.setRequestHeader('Idempotency-Key', idempotencyKey);
     xhr.upload.onprogress = (e) => onProgress({ loaded: e.loaded, total: e.lengthComputable ? e.total : file.size });
-    xhr.onerror = () => reject(new ApiError(0, 'network', 'The connection dropped during the upload. Try again: the same upload is recognised, not stored twice.'));
+    xhr.onerror = () =>
+      reject(
+        new ApiError(0, 'network', 'The connection dropped during the upload. Try again: the same upload is recognised, not stored twice.'),
+      );
     xhr.onabort = () => reject(new ApiError(0, 'aborted', 'The upload was stopped.'));
     xhr.onload = () => {
       let body: unknown = {};
@@ -68,9 +77,7 @@ export function useUploadAttachment(ownerType: AttachmentOwnerType, ownerId: str
       pending.current = { file, key };
       setState({ phase: 'sending', file, progress: { loaded: 0, total: file.size } });
       try {
-        const res = await uploadAttachment(ownerType, ownerId, file, key, (progress) =>
-          setState({ phase: 'sending', file, progress }),
-        );
+        const res = await uploadAttachment(ownerType, ownerId, file, key, (progress) => setState({ phase: 'sending', file, progress }));
         pending.current = null;
         setState({ phase: 'done', file, duplicate: res.status === 200 });
         await qc.invalidateQueries({ queryKey: attachmentsQueryOptions(ownerType, ownerId).queryKey });
@@ -90,7 +97,11 @@ export function useUploadAttachment(ownerType: AttachmentOwnerType, ownerId: str
     start: (file: File) => {
       const known = ATTACHMENT_EXTENSIONS[extensionOf(file.name)];
       if (known && file.size > ATTACHMENT_MAX_BYTES[known.kind]) {
-        const error = new ApiError(413, 'file-too-large', `The file is larger than the ${formatBytes(ATTACHMENT_MAX_BYTES[known.kind])} allowed for a ${known.kind}.`);
+        const error = new ApiError(
+          413,
+          'file-too-large',
+          `The file is larger than the ${formatBytes(ATTACHMENT_MAX_BYTES[known.kind])} allowed for a ${known.kind}.`,
+        );
         setState({ phase: 'failed', file, error, retryable: false });
         return;
       }

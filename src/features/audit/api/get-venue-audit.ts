@@ -5,5 +5,6 @@ import { auditContracts, type AuditEntry } from '@shared/contracts/audit';
 export type { AuditEntry };
 
 export const getVenueAudit = (venueId: string) => call(auditContracts.ofVenue, { params: { id: venueId } });
-export const venueAuditQueryOptions = (venueId: string) => queryOptions({ queryKey: ['venues', venueId, 'audit'], queryFn: () => getVenueAudit(venueId) });
+export const venueAuditQueryOptions = (venueId: string) =>
+  queryOptions({ queryKey: ['venues', venueId, 'audit'], queryFn: () => getVenueAudit(venueId) });
 export const useVenueAudit = (venueId: string) => useQuery(venueAuditQueryOptions(venueId));

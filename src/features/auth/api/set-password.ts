@@ -3,8 +3,7 @@ import { call } from '@/lib/api-client';
 import { authContracts } from '@shared/contracts/auth';
 import type { SetPasswordInput } from '@shared/schemas/auth';
 
-export const getLinkInfo = (token: string) =>
-  call(authContracts.linkInfo, { params: { token } });
+export const getLinkInfo = (token: string) => call(authContracts.linkInfo, { params: { token } });
 
 export const linkInfoQueryOptions = (token: string) =>
   queryOptions({ queryKey: ['auth', 'link', token], queryFn: () => getLinkInfo(token), retry: false });

@@ -3,8 +3,7 @@ import { call } from '@/lib/api-client';
 import { authContracts } from '@shared/contracts/auth';
 import { meQueryOptions } from './get-me';
 
-export const updatePreferences = (input: { unitSystem: 'metric' | 'imperial' }) =>
-  call(authContracts.preferences, { body: input });
+export const updatePreferences = (input: { unitSystem: 'metric' | 'imperial' }) => call(authContracts.preferences, { body: input });
 
 export const useUpdatePreferences = () => {
   const qc = useQueryClient();

@@ -13,4 +13,8 @@ export const boardQueryOptions = (venueId: string) =>
   queryOptions({ queryKey: ['venues', venueId, 'board'], queryFn: () => getBoard(venueId) });
 /** Polled so the board follows the technicians without a reload. */
 export const useBoard = (venueId: string, opts: { poll?: boolean } = {}) =>
-  useQuery({ ...boardQueryOptions(venueId), refetchInterval: opts.poll === false ? false : BOARD_REFRESH_MS, refetchIntervalInBackground: false });
+  useQuery({
+    ...boardQueryOptions(venueId),
+    refetchInterval: opts.poll === false ? false : BOARD_REFRESH_MS,
+    refetchIntervalInBackground: false,
+  });

@@ -1,6 +1,11 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { call, urlOf } from '@/lib/api-client';
-import { certificatesContracts, type CertificateStatus, type CertificateSummary, type VenueCertificates } from '@shared/contracts/certificates';
+import {
+  certificatesContracts,
+  type CertificateStatus,
+  type CertificateSummary,
+  type VenueCertificates,
+} from '@shared/contracts/certificates';
 
 export type { CertificateStatus, CertificateSummary, VenueCertificates };
 

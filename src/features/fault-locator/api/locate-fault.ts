@@ -14,8 +14,7 @@ export interface LocateFaultInput {
 }
 
 /** The server's answer for one set of readings: the authority the browser's estimate is checked against. */
-export const locateFault = (request: FaultLocationRequest) =>
-  call(faultLocationContracts.locate, { body: request });
+export const locateFault = (request: FaultLocationRequest) => call(faultLocationContracts.locate, { body: request });
 
 // A computation, not a change: nothing to invalidate.
 export const useLocateFault = () => useMutation({ mutationFn: ({ request }: LocateFaultInput) => locateFault(request) });

@@ -12,7 +12,8 @@ export async function sendReadingBatch(bodies: ReadingBody[]): Promise<BatchAnsw
     const { results } = await call(readingsContracts.batch, { body: { readings: bodies } });
     return answersFromBatch(bodies, { kind: 'results', results });
   } catch (err) {
-    if (err instanceof ApiError) return answersFromBatch(bodies, { kind: 'http', status: err.status, code: err.code, message: err.message });
+    if (err instanceof ApiError)
+      return answersFromBatch(bodies, { kind: 'http', status: err.status, code: err.code, message: err.message });
     return answersFromBatch(bodies, { kind: 'network' });
   }
 }

@@ -7,11 +7,16 @@ import { stripQueryOptions, type StripDetail } from './get-strip';
 
 /** The stored verdict replaces the browser's preview at once. */
 export function showRecordedReading(qc: QueryClient, stripId: string, reading: ReadingDto) {
-  qc.setQueryData<StripDetail>(stripQueryOptions(stripId).queryKey, (old) =>
-    old && {
-      ...old,
-      positions: old.positions.map((p) => ({ ...p, steps: p.steps.map((s) => (s.id === reading.stepId ? { ...s, latest: reading } : s)) })),
-    },
+  qc.setQueryData<StripDetail>(
+    stripQueryOptions(stripId).queryKey,
+    (old) =>
+      old && {
+        ...old,
+        positions: old.positions.map((p) => ({
+          ...p,
+          steps: p.steps.map((s) => (s.id === reading.stepId ? { ...s, latest: reading } : s)),
+        })),
+      },
   );
 }
 
