@@ -20,6 +20,8 @@ const envSchema = z
     SIGNING_KEY_PATH: z.string().optional(),
     SEED_DEMO: z.enum(['auto', 'never']).default('auto'),
     LOG_REQUESTS: z.enum(['on', 'off']).default('on'),
+    // The longest result a fault-location method may give when no cable length is sent.
+    FAULT_MAX_CABLE_LENGTH_M: z.coerce.number().positive().max(1e6).default(2000),
   })
   .transform((e) => ({
     ...e,

@@ -7,9 +7,9 @@ import { faultLocationRequestSchema } from '../../shared/schemas/fault-location'
 import { WAVEFORM_CONTENT_TYPES, WAVEFORM_MAX_BYTES, waveformQuerySchema } from '../../shared/schemas/waveforms';
 import { faultLocationService } from '../services/fault-location.service';
 
-export function faultLocationRoutes(_deps: AppDeps) {
+export function faultLocationRoutes(deps: AppDeps) {
   const api = new ApiRouter();
-  const service = faultLocationService();
+  const service = faultLocationService(deps.env);
 
   api.post('/fault-location', 'signed-in', validate(faultLocationRequestSchema), (req, res) => {
     res.json(service.locate(req.user!, parsed(faultLocationRequestSchema, req.body)));

@@ -20,6 +20,7 @@ import {
   type FaultEstimate,
 } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
+import { LOCATE_METHODS } from '../../shared/domain/fault-methods';
 import { formatLength, type LengthSystem } from '../../shared/domain/units';
 import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
 
@@ -322,13 +323,13 @@ export function faultsService(deps: AppDeps) {
     const request = faultLocationRequestSchema.parse(rest);
     if (request.method === 'vf-calibration') {
       throw unprocessable('not-a-location', 'Velocity-factor calibration is done on a good cable, not on a fault.', {
-        errors: [{ path: 'method', message: 'Use tdr, loop-one-end, loop-both-ends, murray, capacitance or flex' }],
+        errors: [{ path: 'method', message: `Use ${LOCATE_METHODS.join(', ')}` }],
       });
     }
     let answer;
     try {
       // Saved in the saver's units; readers see it worded in theirs (explanationFor).
-      answer = runFaultLocation(request, user.unitSystem);
+      answer = runFaultLocation(request, user.unitSystem, { maxCableLengthM: deps.env.FAULT_MAX_CABLE_LENGTH_M });
     } catch (err) {
       if (err instanceof FaultLocationError) {
         throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
