@@ -66,6 +66,8 @@ export const limitProfiles = sqliteTable(
     version: integer('version').notNull(),
     rulesJson: text('rules_json').notNull(),
     loopRequiredJson: text('loop_required_json').notNull().default('[]'),
+    // Copper readings taken with a temperature are corrected to this °C (a house rule); null: judged as measured.
+    temperatureReferenceC: real('temperature_reference_c'),
     notes: text('notes'),
     createdBy: text('created_by').references(() => users.id),
     createdAt: createdAt(),
@@ -262,6 +264,8 @@ export const faultEstimates = sqliteTable('fault_estimates', {
   distanceM: real('distance_m').notNull(),
   uncertaintyM: real('uncertainty_m').notNull(),
   resultJson: text('result_json').notNull(),
+  // The item's recorded length when the estimate was made: a later cut-out does not move it.
+  itemLengthM: real('item_length_m'),
   createdBy: text('created_by').notNull().references(() => users.id),
   createdAt: createdAt(),
 });

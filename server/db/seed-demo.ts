@@ -339,6 +339,7 @@ function openFault(
       distanceM: estimate.distanceM,
       uncertaintyM: estimate.uncertaintyM,
       resultJson: JSON.stringify(estimate),
+      itemLengthM: FLOOR_CABLE_M,
       createdBy: f.by,
       createdAt: '2026-11-21T07:48:00.000Z',
     })

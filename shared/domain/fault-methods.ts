@@ -49,6 +49,12 @@ export interface MethodDefinition {
   /** Which end the distance is counted from, in the estimate's words. */
   readonly nearEnd: string;
   readonly inputs: readonly MethodInput[];
+  /**
+   * The reading inputs are one observation together (a bridge balance is one ratio: one arm is
+   * often left at a round value while the other is turned), so estimates share a reading only
+   * when the ratio is the same.
+   */
+  readonly oneReading?: boolean;
 }
 
 const lengthInput = <R extends boolean>(required: R) =>
@@ -155,6 +161,7 @@ export const METHOD_DEFINITIONS = {
     suits: 'A line faulted to earth (line C) or to the screen, with a sound line of the same size to loop it with.',
     help: 'Join the faulted line and a sound line at the far end. At the near end put one bridge arm on each line, the supply between the arms’ junction and earth, and the detector between the two lines; adjust the arms until the detector reads zero and read both arms.',
     nearEnd: 'bridge end (near end)',
+    oneReading: true,
     inputs: [
       lengthInput(true),
       {
