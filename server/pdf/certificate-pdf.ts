@@ -311,6 +311,7 @@ function testedLine(p: CertificatePayload) {
 function commonFacts(p: CertificatePayload): [string, string][] {
   return [
     ['Limit profile', `${p.profile.name}, version ${p.profile.version}`],
+    ...(p.profile.temperature ? ([['Temperature', p.profile.temperature]] as [string, string][]) : []),
     ['Tested by', p.testedBy.map((t) => t.name).join(', ') || '—'],
     ['Testing', testedLine(p)],
     ['Signed by', `${p.signer.name}, ${p.signer.role}`],

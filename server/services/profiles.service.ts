@@ -18,6 +18,7 @@ export function toLimitProfile(row: ProfileRow): LimitProfile {
     version: row.version,
     rules: JSON.parse(row.rulesJson) as LimitRule[],
     loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
+    temperatureReferenceC: row.temperatureReferenceC,
   };
 }
 
@@ -50,6 +51,7 @@ function present(row: ProfileRow) {
     version: row.version,
     rules: p.rules,
     loopRequired: p.loopRequired ?? [],
+    temperatureReferenceC: row.temperatureReferenceC,
     notes: row.notes,
     createdAt: row.createdAt,
     createdBy: row.createdBy,
@@ -110,6 +112,7 @@ export function profilesService(deps: AppDeps) {
           version: 1,
           rulesJson: source.rulesJson,
           loopRequiredJson: source.loopRequiredJson,
+          temperatureReferenceC: source.temperatureReferenceC,
           notes: `Copied from “${source.name}” version ${source.version}.`,
           createdBy: user.id,
           createdAt: nowIso(),
@@ -148,6 +151,7 @@ export function profilesService(deps: AppDeps) {
           version: latest.version + 1,
           rulesJson: JSON.stringify(input.rules),
           loopRequiredJson: input.loopRequired ? JSON.stringify(input.loopRequired) : latest.loopRequiredJson,
+          temperatureReferenceC: input.temperatureReferenceC === undefined ? latest.temperatureReferenceC : input.temperatureReferenceC,
           notes: input.notes === undefined ? latest.notes : input.notes,
           createdBy: user.id,
           createdAt: nowIso(),

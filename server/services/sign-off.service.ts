@@ -31,7 +31,7 @@ import {
   type ReadinessStripInput,
   type VenueReadiness,
 } from '../../shared/domain/readiness';
-import type { LimitRule } from '../../shared/domain/limits';
+import { temperatureRuleText, type LimitRule } from '../../shared/domain/limits';
 import { formatOhm } from '../../shared/domain/units';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
 
@@ -273,6 +273,7 @@ export function signOffService(deps: AppDeps) {
             name: profile.name,
             version: profile.version,
             rules: rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
+            temperature: temperatureRuleText(profile),
           },
           testedBy: [...testers].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
           testedFrom: times[0],

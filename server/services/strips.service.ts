@@ -66,7 +66,14 @@ export function stripsService(deps: AppDeps) {
       venueName: venue.name,
       venueStatus: venue.status,
       profile: profile
-        ? { id: venue.profileId, name: profile.name, version: profile.version, rules: profile.rules, loopRequired: profile.loopRequired ?? [] }
+        ? {
+            id: venue.profileId,
+            name: profile.name,
+            version: profile.version,
+            rules: profile.rules,
+            loopRequired: profile.loopRequired ?? [],
+            temperatureReferenceC: profile.temperatureReferenceC ?? null,
+          }
         : null,
       counts,
       venueProgress: {

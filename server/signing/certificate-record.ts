@@ -49,7 +49,14 @@ export interface CertificatePayload {
   /** Asset tags of every item certified, sorted. */
   items: string[];
   readings: { count: number; nearLimit: number; digestAlg: 'SHA-256'; digest: string };
-  profile: { id: string; name: string; version: number; rules: { id: string; source: string; limit: string; note: string | null }[] };
+  profile: {
+    id: string;
+    name: string;
+    version: number;
+    rules: { id: string; source: string; limit: string; note: string | null }[];
+    /** How a cable's temperature was treated (judged as measured, or corrected: a house rule). */
+    temperature?: string;
+  };
   testedBy: { id: string; name: string }[];
   testedFrom: string;
   testedTo: string;

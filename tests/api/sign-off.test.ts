@@ -249,11 +249,15 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     for (const label of ['Annex 1', 'Annex 2', 'Annex 3', 'Annex 4']) expect(text).toContain(label);
     expect(text).toContain("not the building's electrical installation");
     expect(text).toMatch(/Page 1 of \d+/);
+    // The profile's temperature choice: the demo profile judges readings as measured.
+    expect(text).toMatch(/T E M P E R AT U R E/);
+    expect(text).toContain('Judged as measured (no correction)');
     for (const strip of issued.filter((c) => c.kind === 'strip')) {
       const s = await pdfText((await download(nina, `/api/certificates/${strip.number}/pdf`)).body);
       expect(s).toContain(strip.number);
       expect(s).toContain('Riverside Annex');
       expect(s).toContain(venue.number);
+      expect(s).toContain('Judged as measured');
     }
   });
 

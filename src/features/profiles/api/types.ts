@@ -7,6 +7,8 @@ export interface ProfileSummary {
   version: number;
   rules: LimitRule[];
   loopRequired: EquipmentKind[];
+  /** Copper readings are corrected to this °C (a house rule); null: judged as measured. */
+  temperatureReferenceC: number | null;
   notes: string | null;
   createdAt: string;
   ruleCount: number;

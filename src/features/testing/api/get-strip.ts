@@ -44,7 +44,7 @@ export interface StripDetail {
   venueId: string;
   venueName: string;
   venueStatus: string;
-  profile: { id: string; name: string; version: number; rules: LimitRule[]; loopRequired: EquipmentKind[] } | null;
+  profile: { id: string; name: string; version: number; rules: LimitRule[]; loopRequired: EquipmentKind[]; temperatureReferenceC: number | null } | null;
   counts: { total: number; done: number; passed: number; nearLimit: number; failed: number };
   venueProgress: { stepsDone: number; stepsTotal: number; stripsClear: number; stripCount: number };
   previousStripId: string | null;
