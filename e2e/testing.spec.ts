@@ -76,7 +76,9 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   await expect(page.getByRole('heading', { name: `Fault on ${STRIP} · Left floor cable` })).toBeVisible();
   await expect(page.getByLabel('Loop resistance from both ends')).toBeChecked();
   await expect(page.getByLabel('Cable length (m)')).toHaveValue('12');
-  await page.getByLabel(/Loop reading from the apparatus end/).fill('0.917');
+  // The methods that fit an A–B short, the one to try first first, each with why.
+  await expect(page.getByTestId('method-reason')).toContainText('the short’s own resistance drops out');
+  await page.getByLabel(/Loop reading from the near end/).fill('0.917');
   await page.getByLabel(/Loop reading from the far end/).fill('0.683');
   await page.getByRole('button', { name: 'Estimate and save' }).click();
   // x = (R_A − R_B + 2rL) / (4r) with r = 0.5 Ω / 12 m: (0.917 − 0.683 + 1.0) / (1/6) ≈ 7.4 m
@@ -88,6 +90,9 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   await expect(page.getByTestId('new-length')).toHaveText('12 m now → 10.5 m after the cut');
   await page.getByRole('button', { name: 'Record the repair' }).click();
   await expect(page.getByText('Section cut out: 1.5 m removed, 12 m → 10.5 m')).toBeVisible();
+  // The estimate stays on the cable as it was when it was made, and says so.
+  await expect(page.getByTestId('shortened-since')).toHaveText('Located on the item as it was then, 12 m long; it is 10.5 m now, after a cut-out.');
+  await expect(page.getByTestId('estimate')).toContainText('from the far end of the 12 m it was then');
 
   // Retest the cable: all seven steps again, keyboard only.
   await page.getByRole('link', { name: 'Retest the affected steps →' }).click();

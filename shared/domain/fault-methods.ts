@@ -96,8 +96,8 @@ export const METHOD_DEFINITIONS = {
   'loop-both-ends': {
     method: 'loop-both-ends',
     title: 'Loop resistance from both ends',
-    suits: 'A short between two conductors, with both ends within reach.',
-    help: 'Measure the shorted pair from the near end with the far end open, then from the far end with the near end open. The short’s own resistance drops out of the distance.',
+    suits: 'A short between two conductors, with both ends within reach: the short’s own resistance drops out of the distance.',
+    help: 'Measure the shorted pair from the near end with the far end open, then from the far end with the near end open.',
     nearEnd: 'near end',
     inputs: [
       {
@@ -362,8 +362,8 @@ export interface SuggestedMethod {
   reason: string;
 }
 
-/** The conductor that is faulted to C in an A–C or B–C fault, and the one left sound. */
-function earthLines(conductors: string): { faulted: string; sound: string } | null {
+/** In an A–C or B–C fault: the line faulted to C (the Murray loop's faulted line) and the one left sound. */
+export function murrayLines(conductors: string): { faulted: string; sound: string } | null {
   const lines = conductors.split('-');
   if (lines.length !== 2 || !lines.includes('C')) return null;
   const faulted = lines.find((l) => l !== 'C')!;
@@ -397,7 +397,7 @@ export function methodsForFault(kind: FaultKind, conductors: string): SuggestedM
         flexShort,
       ];
     case 'earth': {
-      const lines = earthLines(conductors);
+      const lines = murrayLines(conductors);
       const murrayReason = lines
         ? `Line ${lines.faulted} is faulted to earth (line C) and line ${lines.sound} can be the sound line looped with it: at balance the fault’s own resistance does not enter the distance.`
         : 'A line faulted to earth with a sound line to loop it with: at balance the fault’s own resistance does not enter the distance.';

@@ -1,8 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
+import type { FaultLocationRequest } from '@shared/schemas/fault-location';
 import { faultQueryOptions, type CombinedDto, type FaultDetail, type FaultEstimateDto } from './get-fault';
 
-export type EstimateBody = Record<string, number | string>;
+/** The body of POST /api/fault-location, and the end the readings were taken from. */
+export type EstimateBody = FaultLocationRequest & { fromEnd?: 'near' | 'far' };
 export interface EstimateAnswer {
   estimate: FaultEstimateDto;
   combined: CombinedDto | null;

@@ -15,6 +15,9 @@ export interface FaultEstimateDto {
   faultOhm: number | null;
   explanation: string;
   inputs: Record<string, number | string>;
+  /** The item's recorded length when the estimate was made. */
+  itemLengthM: number | null;
+  itemShortenedSince: boolean;
   createdAt: string;
   createdByName: string | null;
 }
@@ -26,6 +29,11 @@ export interface CombinedDto {
   disagreements: Array<[number, number]>;
   explanation: string;
   count: number;
+  /** The item's length the estimates used were made against. */
+  itemLengthM: number | null;
+  estimateIds: string[];
+  /** Estimates shown beside the combination, not weighed in, and why. */
+  apart: { estimateId: string; kind: string; reason: string }[];
 }
 
 export interface EquipmentDto {

@@ -2,11 +2,11 @@ import { useState } from 'react';
 import { formatLength, lengthUnitSymbol, lengthUnitWord, type LengthSystem } from '@shared/domain/units';
 import type { CreateRepairInput, RepairAction } from '@shared/schemas/faults';
 import { ApiError } from '@/lib/api-client';
+import { siOf, switchUnits, typeText, type UnitTexts } from '@/lib/unit-texts';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import type { FaultDetail } from '../api/get-fault';
 import { useAddRepair } from '../api/add-repair';
-import { siOf, switchUnits, typeText, type UnitTexts } from '../utils/unit-texts';
 
 const ACTIONS: { value: RepairAction; label: string; hint: string }[] = [
   { value: 'cut-out', label: 'Cut out a section', hint: 'The damaged length is cut away and the cable re-joined; its recorded length shrinks.' },
