@@ -25,7 +25,7 @@ function expectProblem(res: { status: number; headers: Record<string, string>; b
 }
 
 describe('POST /api/fault-location', () => {
-  test('tdr: d = VF·c·Δt/2 (Ulaby, Fundamentals of Applied Electromagnetics, TDR section), with c from mathjs', async () => {
+  test('tdr: d = VF·c·Δt/2 (formula: Ulaby, Fundamentals of Applied Electromagnetics, TDR section; the numbers are ours), with c from mathjs', async () => {
     const res = await locate({ method: 'tdr', roundTripNs: 100, velocityFactor: 0.66, riseTimeNs: 2, lengthM: 12 });
     expect(res.status).toBe(200);
     const expected = (0.66 * C * 100e-9) / 2;
@@ -53,7 +53,7 @@ describe('POST /api/fault-location', () => {
     expect(res.body.distanceM).toBe(10);
   });
 
-  test('loop-both-ends: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω (Halliday/Resnick/Walker-type textbook problem; attribution from memory, the arithmetic is exact)', async () => {
+  test('loop-both-ends: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω (an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, loop both ends); the arithmetic is exact)', async () => {
     const res = await locate({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
@@ -61,14 +61,14 @@ describe('POST /api/fault-location', () => {
     expect(res.body.faultOhm).toBeCloseTo(25, 9);
   });
 
-  test('loop-both-ends: the same textbook problem with r from a sound conductor reading end to end (110 Ω over 10 km)', async () => {
+  test('loop-both-ends: the same example with r from a sound conductor reading end to end (110 Ω over 10 km)', async () => {
     const res = await locate({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, conductorOhm: 110 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
     expect(res.body.faultOhm).toBeCloseTo(25, 9);
   });
 
-  test('loop-one-end: d = (R_loop − R_f)/(2r); the textbook problem from end A with its 25 Ω fault known gives 3.864 km again', async () => {
+  test('loop-one-end: d = (R_loop − R_f)/(2r); the same example from end A with its 25 Ω fault known gives 3.864 km again', async () => {
     const res = await locate({ method: 'loop-one-end', loopOhm: 110, faultOhm: 25, ohmPerMetre: 0.011, lengthM: 10_000 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
@@ -153,7 +153,7 @@ describe('POST /api/fault-location', () => {
   });
 
   test('when no cable length is given and the result is longer than any cable the methods are for, then 422 naming the reading', async () => {
-    // d = VF · c · Δt / 2 (Ulaby, TDR section): 10⁹ ns at VF 0.66 is 98 932 km, with c from mathjs
+    // d = VF · c · Δt / 2 (formula: Ulaby, TDR section; the numbers are ours): 10⁹ ns at VF 0.66 is 98 932 km, with c from mathjs
     const res = await locate({ method: 'tdr', roundTripNs: 1e9, velocityFactor: 0.66 });
     expectProblem(res, 'roundTripNs');
     expect(res.body.detail).toMatch(/further than the longest cable these methods are meant for \(2 km\)/);

@@ -117,12 +117,12 @@ describe('POST /api/faults/:id/estimates', () => {
     expect(res.body.fault.status).toBe('located');
   });
 
-  test('the textbook case: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω puts the fault 3.864 km from A', async () => {
-    // Halliday/Resnick/Walker-type textbook problem (REFERENCES.md; attribution from memory, arithmetic exact)
+  test('the worked example: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω puts the fault 3.864 km from A', async () => {
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const strip = await stripByLabel(t, hall, 'Strip 15');
     const { position } = stepOf(strip, 'Right floor cable', 'insulation', 'A-B');
     const sam = await t.agentFor(DEMO.technician);
-    const made = await sam.post('/api/faults').send({ positionId: position.id, kind: 'short', conductors: 'A-B', notes: 'textbook check' });
+    const made = await sam.post('/api/faults').send({ positionId: position.id, kind: 'short', conductors: 'A-B', notes: 'worked-example check' });
     expect(made.status).toBe(201);
     const res = await sam.post(`/api/faults/${made.body.id}/estimates`).send({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(res.status).toBe(201);

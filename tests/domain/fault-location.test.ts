@@ -54,7 +54,7 @@ describe('speed of light and TDR', () => {
   });
 
   test('d = VF · c · Δt / 2', () => {
-    // Ulaby, Fundamentals of Applied Electromagnetics, TDR section
+    // formula: Ulaby, Fundamentals of Applied Electromagnetics, TDR section (the numbers are ours, not the book's)
     const e = locateByTdr({ roundTripNs: 100, velocityFactor: 0.66 });
     expect(e.distanceM).toBeCloseTo((0.66 * C * 100e-9) / 2, 9); // 9.893 m
     expect(e.method).toBe('tdr');
@@ -63,7 +63,7 @@ describe('speed of light and TDR', () => {
   });
 
   test('VF = 1/√εr: εr = 2.25 → u_p = 2.0 × 10⁸ m/s (VF 0.667)', () => {
-    // Ulaby problem 2.18
+    // Ulaby problem 2.18 (the book's own numbers, as REFERENCES.md gives them)
     const vf = velocityFactorFromPermittivity(2.25);
     expect(vf).toBeCloseTo(0.667, 3);
     expect((vf * C) / 2.0e8).toBeCloseTo(1, 2);
@@ -229,7 +229,7 @@ describe('loop resistance from one end', () => {
   });
 
   test('meter accuracy ±(1 % + 2 digits) at 0.01 Ω propagates into the band (common practice, from memory)', () => {
-    // common practice (no published source)
+    // common practice, from memory (no published source; a meter's data sheet gives its own)
     expect(DEFAULT_METER_ACCURACY).toEqual({ percentOfReading: 1, digits: 2, resolutionOhm: 0.01 });
     expect(meterUncertaintyOhm(1.63)).toBeCloseTo(0.0163 + 0.02, 12);
     // r from a sound conductor (1.2 Ω ± meter) and R_loop (2 Ω ± meter)
@@ -302,7 +302,7 @@ describe('loop resistance from one end', () => {
 
 describe('loop resistance from both ends', () => {
   test('L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω', () => {
-    // Halliday/Resnick/Walker-type textbook problem (attribution from memory; the arithmetic is exact)
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const e = locateByLoopBothEnds({ nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(e.distanceM / 1000).toBeCloseTo(3.864, 3);
     expect(e.faultOhm).toBeCloseTo(25, 9);
@@ -311,7 +311,7 @@ describe('loop resistance from both ends', () => {
   });
 
   test('the same with r from a sound conductor: 110 Ω over 10 km', () => {
-    // Halliday/Resnick/Walker-type textbook problem (attribution from memory; the arithmetic is exact)
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const e = locateByLoopBothEnds({ nearOhm: 110, farOhm: 160, lengthM: 10_000, conductorOhm: 110 });
     expect(e.distanceM / 1000).toBeCloseTo(3.864, 3);
     expect(e.faultOhm).toBeCloseTo(25, 9);
@@ -522,7 +522,7 @@ describe('flex test', () => {
 
 describe('results with no cable length to check them against', () => {
   test('a TDR round trip of 10⁹ ns with no length (98 932 km at VF 0.66) is refused naming roundTripNs; with the length given, the length decides', () => {
-    // d = VF · c · Δt / 2 (Ulaby, TDR section): 0.66 · c · 1 s / 2 = 98 931 km, with c from mathjs
+    // d = VF · c · Δt / 2 (formula: Ulaby, TDR section; the numbers are ours): 0.66 · c · 1 s / 2 = 98 932 km, with c from mathjs
     expect(Math.round((0.66 * C * 1) / 2 / 1000)).toBe(98_932);
     const error = refusal(() => locateByTdr({ roundTripNs: 1e9, velocityFactor: 0.66 }));
     expect(error.field).toBe('roundTripNs');
@@ -686,7 +686,7 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
   });
 
   test('loop-both-ends via the API: 3.864 km, 25 Ω', () => {
-    // Halliday/Resnick/Walker-type textbook problem (attribution from memory; the arithmetic is exact)
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const answer = runFaultLocation(
       faultLocationRequestSchema.parse({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10000, ohmPerMetre: 0.011 }),
     );

@@ -366,8 +366,8 @@ describe('resistance per length', () => {
 });
 
 // SI Brochure, 9th edition (BIPM 2019), §5.4.4: the decimal marker is the point or the comma on
-// the line, and neither dots nor commas go between groups of three digits (as quoted from the
-// Brochure; the same in CGPM 2003 Resolution 10). People still write "1,000" and "2.500" for
+// the line, and neither dots nor commas go between groups of three digits (CGPM 2003, Resolution
+// 10). Read second-hand, as quoted elsewhere, not in the Brochure itself. People still write "1,000" and "2.500" for
 // thousands (common practice), so a number that reads both ways is refused, never guessed.
 describe('parseReading: a separator that could be a thousands separator', () => {
   test.each<[string, Quantity, string, string]>([
