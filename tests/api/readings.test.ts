@@ -115,6 +115,24 @@ describe('POST /api/readings', () => {
     expect(neg.body.detail).toMatch(/cannot be negative/);
   });
 
+  test('when a continuity reading could carry a thousands separator ("2,500"), then it is refused offering both readings, and nothing is stored', async () => {
+    // SI Brochure §5.4.4: a comma or a point is a decimal marker, never a thousands separator; "2,500" read as 2.5 Ω would pass
+    // near the 2.5 Ω floor-cable limit (FIE Material Rules, art. m.55.5), read as 2500 Ω it fails
+    const sam = await t.agentFor(DEMO.technician);
+    const stepId = stepOf(strip, 'Left floor cable', 'continuity', 'B').step.id;
+    const reading = newReading(stepId, '2,500');
+    const res = await sam.post('/api/readings').send(reading);
+    expect(res.status).toBe(422);
+    expect(res.body.errors).toEqual([expect.objectContaining({ path: 'value', message: expect.stringContaining('did you mean 2500 Ω or 2.500 Ω?') })]);
+    expect(countReadings(reading.id)).toBe(0);
+    const underflow = await sam.post('/api/readings').send(newReading(stepId, '1e-400'));
+    expect(underflow.status).toBe(422);
+    expect(underflow.body.detail).toMatch(/underflows/);
+    // As the meter shows it on its kΩ range, a point before the prefix is a decimal.
+    const kilo = await sam.post('/api/readings').send(newReading(stepId, '2.500k'));
+    expect(kilo.body).toMatchObject({ valueOhm: 2500, verdict: 'fail' });
+  });
+
   test('when fields are missing or wrong, then it answers 422 naming them, never 500', async () => {
     const sam = await t.agentFor(DEMO.technician);
     const res = await sam.post('/api/readings').send({ id: 'nope', value: '' , extra: 1});
