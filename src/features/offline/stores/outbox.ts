@@ -1,17 +1,22 @@
 // The tablet's outbox: readings typed on the testing screen, kept in IndexedDB until the server
 // has them. Written to disk before the screen moves on, so a reload, a crash or a closed browser
-// loses nothing; replayed in typing order when the network is there (at start, on the browser's
-// online event, and on a backoff timer). Replays are safe: the server knows a reading by its id.
-import { createStore, del, entries, set } from 'idb-keyval';
+// loses nothing; replayed in typing order when the network is there (at start, when the
+// server can be reached again, and on a backoff timer). Replays are safe: the server knows a
+// reading by its id.
+import { createStore, del, delMany, entries, set, setMany } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
+import { sendReadingBatch } from '../api/send-reading-batch';
+import { connectionStore, serverAnswered, serverDidNotAnswer, startConnectionWatch } from './connection';
 import {
   addToQueue,
   applyOutcome,
   byTypingOrder,
   classifyAnswer,
+  inBatches,
   makeSeq,
   nextDueAt,
   planSend,
+  type BatchAnswer,
   type QueuedReading,
   type ReadingBody,
 } from '../utils/queue';
@@ -22,6 +27,7 @@ export interface OutboxState {
   items: QueuedReading[];
   /** A pass is sending right now. */
   syncing: boolean;
+  /** The server can be reached (./connection.ts: its answers decide, not navigator.onLine alone). */
   online: boolean;
   userId: string | null;
   /** Why the last pass stopped early, for the list page ("the server did not answer"). */
@@ -43,7 +49,7 @@ let state: OutboxState = {
   loaded: false,
   items: [],
   syncing: false,
-  online: typeof navigator === 'undefined' ? true : navigator.onLine,
+  online: connectionStore.getSnapshot(),
   userId: null,
   lastStop: null,
 };
@@ -94,6 +100,17 @@ async function put(item: QueuedReading) {
 async function remove(id: string) {
   if (db) await del(id, db);
   setState({ items: state.items.filter((i) => i.id !== id) });
+  changed();
+}
+
+/** The answers of one send, on disk in one go (a batch is hundreds of readings). */
+async function putAndRemove(keep: QueuedReading[], gone: string[]) {
+  if (db) {
+    if (keep.length) await setMany(keep.map((i) => [i.id, i] as [string, QueuedReading]), db);
+    if (gone.length) await delMany(gone, db);
+  }
+  const replaced = new Set([...gone, ...keep.map((i) => i.id)]);
+  setState({ items: [...state.items.filter((i) => !replaced.has(i.id)), ...keep].sort(byTypingOrder) });
   changed();
 }
 
@@ -154,6 +171,34 @@ function schedule() {
   timer = setTimeout(() => void flush(), Math.max(0, due - Date.now()) + 50);
 }
 
+/**
+ * Applies each reading's answer by the queue's rules and stores the result; says why sending must
+ * stop (no answer, the server busy or failing, the session lapsed), or null to go on.
+ */
+async function settle(items: QueuedReading[], answers: BatchAnswer[], touched: { stripIds: Set<string>; venueIds: Set<string> }) {
+  const now = Date.now();
+  const keep: QueuedReading[] = [];
+  const gone: string[] = [];
+  const recorded: [SentReading, QueuedReading][] = [];
+  let stop: OutboxState['lastStop'] = null;
+  items.forEach((item, i) => {
+    const { answer, reading } = answers[i];
+    const outcome = classifyAnswer(answer);
+    const next = applyOutcome(item, outcome, now);
+    if (next) keep.push(next);
+    else gone.push(item.id);
+    if (outcome.kind === 'done' && reading) recorded.push([reading, item]);
+    if (outcome.kind === 'retry') stop ??= outcome.reason;
+  });
+  await putAndRemove(keep, gone);
+  for (const [reading, item] of recorded) {
+    touched.stripIds.add(item.stripId);
+    touched.venueIds.add(item.venueId);
+    handlers.onRecorded?.(reading, item);
+  }
+  return stop;
+}
+
 async function pass(force: boolean) {
   const userId = state.userId;
   if (!userId) return;
@@ -167,21 +212,14 @@ async function pass(force: boolean) {
     if (send.length === 0) break;
     setState({ syncing: true });
     let progressed = false;
-    for (const item of send) {
-      const { answer, reading } = await sendReading(item.body);
-      const outcome = classifyAnswer(answer);
-      const next = applyOutcome(item, outcome, Date.now());
-      if (next) await put(next);
-      else await remove(item.id);
-      if (outcome.kind === 'done' && reading) {
-        touched.stripIds.add(item.stripId);
-        touched.venueIds.add(item.venueId);
-        handlers.onRecorded?.(reading, item);
-      }
-      if (outcome.kind === 'retry') {
-        stop = outcome.reason;
-        break;
-      }
+    // One reading alone as before; more go in batches, each result read by the same rules.
+    for (const chunk of send.length === 1 ? [send] : inBatches(send)) {
+      const answers: BatchAnswer[] = chunk.length === 1 ? [await sendReading(chunk[0].body)] : await sendReadingBatch(chunk.map((i) => i.body));
+      // No answer at all means offline, whatever the browser says (./connection.ts).
+      if (answers.some((a) => a.answer.kind === 'network')) serverDidNotAnswer();
+      else serverAnswered();
+      stop = await settle(chunk, answers, touched);
+      if (stop) break;
       progressed = true;
     }
     if (stop || !progressed) break;
@@ -190,13 +228,13 @@ async function pass(force: boolean) {
   if (touched.stripIds.size > 0) handlers.onPassDone?.({ stripIds: [...touched.stripIds], venueIds: [...touched.venueIds] });
 }
 
-/** Sends what is due, in typing order; `force` ignores the backoff (the network just came back). */
-export function flush(opts: { force?: boolean } = {}): Promise<void> {
-  if (!state.userId || !state.loaded) return Promise.resolve();
-  if (typeof navigator !== 'undefined' && !navigator.onLine) {
-    setState({ online: false });
-    return Promise.resolve();
-  }
+/**
+ * Sends what is due, in typing order; `force` ignores the backoff (the network just came back).
+ * Offline nothing is tried, unless `evenOffline`: the browser just said it has a network again, and
+ * the readings' own answers tell as soon as a check would.
+ */
+export function flush(opts: { force?: boolean; evenOffline?: boolean } = {}): Promise<void> {
+  if (!state.userId || !state.loaded || (!state.online && !opts.evenOffline)) return Promise.resolve();
   if (running) {
     again = true;
     return running;
@@ -225,11 +263,15 @@ export function setOutboxUser(userId: string | null) {
 export function startOutbox() {
   if (started || typeof window === 'undefined') return;
   started = true;
-  window.addEventListener('online', () => {
-    setState({ online: true });
-    void flush({ force: true });
+  setState({ online: connectionStore.getSnapshot() });
+  connectionStore.subscribe(() => {
+    const online = connectionStore.getSnapshot();
+    if (online === state.online) return;
+    setState({ online });
+    if (online) void flush({ force: true });
   });
-  window.addEventListener('offline', () => setState({ online: false }));
+  startConnectionWatch();
+  window.addEventListener('online', () => void flush({ force: true, evenOffline: true }));
   if ('BroadcastChannel' in window) {
     channel = new BroadcastChannel(LOCK);
     channel.onmessage = () => void load();
