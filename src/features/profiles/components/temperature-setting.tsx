@@ -1,9 +1,25 @@
-import { useState } from 'react';
-import { parseDecimal } from '@shared/domain/units';
-import type { UpdateProfileInput } from '@shared/schemas/limit-profile';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import { decimalProblem, parseDecimal } from '@shared/domain/units';
+import { temperatureReferenceSchema, type UpdateProfileInput } from '@shared/schemas/limit-profile';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
+
+// The two choices as the form has them, turned into the body's temperatureReferenceC (null: as measured).
+const temperatureFormSchema = z
+  .object({ correct: z.enum(['no', 'yes']), referenceC: z.string() })
+  .transform((v, ctx): Pick<UpdateProfileInput, 'temperatureReferenceC'> => {
+    if (v.correct === 'no') return { temperatureReferenceC: null };
+    const checked = temperatureReferenceSchema.safeParse(parseDecimal(v.referenceC));
+    if (!checked.success || checked.data === null) {
+      const problem = decimalProblem(v.referenceC, '°C');
+      ctx.addIssue({ code: 'custom', path: ['referenceC'], message: problem ?? checked.error?.issues[0]?.message ?? 'Type the reference temperature in °C, e.g. 20.' });
+      return z.NEVER;
+    }
+    return { temperatureReferenceC: checked.data };
+  });
 
 /**
  * How the profile treats a cable's temperature: judged as measured (the default: the FIE
@@ -19,13 +35,12 @@ export function TemperatureSetting({
   canEdit: boolean;
   onSave: (body: Pick<UpdateProfileInput, 'temperatureReferenceC'>) => Promise<unknown>;
 }) {
-  const [correct, setCorrect] = useState(referenceC !== null);
-  const [text, setText] = useState(String(referenceC ?? 20));
-  const [error, setError] = useState<string | null>(null);
-  const [saving, setSaving] = useState(false);
-  const typed = parseDecimal(text);
-  const wanted = correct ? typed : null;
-  const changed = wanted !== referenceC;
+  const form = useForm<z.input<typeof temperatureFormSchema>, unknown, z.output<typeof temperatureFormSchema>>({
+    resolver: zodResolver(temperatureFormSchema),
+    defaultValues: { correct: referenceC === null ? 'no' : 'yes', referenceC: String(referenceC ?? 20) },
+  });
+  const correct = useWatch({ control: form.control, name: 'correct' });
+  const { errors, isSubmitting, isDirty } = form.formState;
 
   return (
     <div className="mt-2 flex flex-col gap-3 text-sm">
@@ -41,38 +56,33 @@ export function TemperatureSetting({
       </p>
       {canEdit && (
         <form
+          noValidate
           className="flex flex-col gap-2"
-          onSubmit={async (e) => {
-            e.preventDefault();
-            if (correct && typed === null) return setError('Type the reference temperature in °C, e.g. 20.');
-            setError(null);
-            setSaving(true);
+          onSubmit={form.handleSubmit(async (body) => {
             try {
-              await onSave({ temperatureReferenceC: wanted });
+              await onSave(body);
             } catch (err) {
-              setError(err instanceof Error ? err.message : 'Not saved.');
-            } finally {
-              setSaving(false);
+              form.setError('root', { message: err instanceof Error ? err.message : 'Not saved.' });
             }
-          }}
+          })}
         >
           <fieldset className="flex flex-col gap-1">
             <legend className="sr-only">Cable temperature</legend>
             <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="temperature" checked={!correct} onChange={() => setCorrect(false)} className="size-4" />
+              <input type="radio" value="no" {...form.register('correct')} className="size-4" />
               Judge readings as measured (default)
             </label>
             <label className="flex min-h-touch items-center gap-2">
-              <input type="radio" name="temperature" checked={correct} onChange={() => setCorrect(true)} className="size-4" />
+              <input type="radio" value="yes" {...form.register('correct')} className="size-4" />
               Correct copper readings to a reference temperature (house rule)
             </label>
           </fieldset>
-          {correct && (
-            <TextField label="Reference temperature (°C)" name="temperatureReferenceC" inputMode="decimal" value={text} onChange={(e) => setText(e.target.value)} />
+          {correct === 'yes' && (
+            <TextField label="Reference temperature (°C)" id="f-temperatureReferenceC" inputMode="decimal" {...form.register('referenceC')} error={errors.referenceC?.message} />
           )}
-          {error && <Notice tone="error">{error}</Notice>}
-          <Button type="submit" variant="secondary" disabled={!changed || saving}>
-            {saving ? 'Saving…' : 'Save as a new version'}
+          {errors.root?.message && <Notice tone="error">{errors.root.message}</Notice>}
+          <Button type="submit" variant="secondary" disabled={!isDirty || isSubmitting}>
+            {isSubmitting ? 'Saving…' : 'Save as a new version'}
           </Button>
         </form>
       )}
