@@ -4,6 +4,7 @@
 // online event, and on a backoff timer). Replays are safe: the server knows a reading by its id.
 import { createStore, del, entries, set } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
+import { sendLeadNull } from '../api/send-lead-null';
 import {
   addToQueue,
   applyOutcome,
@@ -12,6 +13,9 @@ import {
   makeSeq,
   nextDueAt,
   planSend,
+  upgradeLegacyItems,
+  type Answer,
+  type LeadNullRecord,
   type QueuedReading,
   type ReadingBody,
 } from '../utils/queue';
@@ -55,6 +59,8 @@ let again = false;
 let timer: ReturnType<typeof setTimeout> | undefined;
 let channel: BroadcastChannel | null = null;
 let started = false;
+/** Test-lead nulls the server is known to have (this page's life): readings using them go alone. */
+const nullsOnServer = new Set<string>();
 
 function setState(patch: Partial<OutboxState>) {
   state = { ...state, ...patch };
@@ -76,7 +82,13 @@ export function setOutboxHandlers(h: OutboxHandlers) {
 async function load() {
   if (!db) return setState({ loaded: true });
   const all = await entries<string, QueuedReading>(db);
-  const items = all.map(([, v]) => v).sort(byTypingOrder);
+  let items = all.map(([, v]) => v).sort(byTypingOrder);
+  const upgraded = upgradeLegacyItems(items, newReadingId);
+  if (upgraded.length > 0) {
+    for (const u of upgraded) await set(u.id, u, db);
+    const byId = new Map(upgraded.map((u) => [u.id, u]));
+    items = items.map((i) => byId.get(i.id) ?? i);
+  }
   lastSeq = Math.max(lastSeq, ...items.map((i) => i.seq), 0);
   setState({ items, loaded: true });
 }
@@ -109,6 +121,8 @@ export interface NewQueuedReading {
   stripId: string;
   where: string;
   preview: QueuedReading['preview'];
+  /** The null named by body.leadNullId: sent first unless the server is known to have it. */
+  leadNull?: LeadNullRecord;
 }
 
 /** Keeps a typed reading on the tablet (on disk before it resolves), then tries to send it. */
@@ -131,6 +145,7 @@ export async function enqueueReading(r: NewQueuedReading): Promise<QueuedReading
     status: 'waiting',
     attempts: 0,
     nextAttemptAt: 0,
+    ...(r.leadNull ? { leadNull: r.leadNull } : {}),
   };
   if (db) await set(item.id, item, db);
   setState({ items: addToQueue(state.items, item) });
@@ -168,7 +183,15 @@ async function pass(force: boolean) {
     setState({ syncing: true });
     let progressed = false;
     for (const item of send) {
-      const { answer, reading } = await sendReading(item.body);
+      // The test-lead null a reading uses goes first; if it is refused, so is the reading.
+      let answer: Answer | undefined;
+      let reading: SentReading | undefined;
+      if (item.leadNull && !nullsOnServer.has(item.leadNull.id)) {
+        const sent = await sendLeadNull(item.leadNull);
+        if (sent.kind === 'http' && sent.status < 300) nullsOnServer.add(item.leadNull.id);
+        else answer = sent;
+      }
+      if (!answer) ({ answer, reading } = await sendReading(item.body));
       const outcome = classifyAnswer(answer);
       const next = applyOutcome(item, outcome, Date.now());
       if (next) await put(next);
@@ -212,6 +235,16 @@ export function flush(opts: { force?: boolean } = {}): Promise<void> {
       }
     });
   return running;
+}
+
+/**
+ * A test-lead null was just set: send it at once when the network is there, so it is on record
+ * even before a reading uses it. If it cannot go now, the readings that use it carry it.
+ */
+export async function recordLeadNull(n: LeadNullRecord): Promise<void> {
+  if (typeof navigator !== 'undefined' && !navigator.onLine) return;
+  const sent = await sendLeadNull(n);
+  if (sent.kind === 'http' && sent.status < 300) nullsOnServer.add(n.id);
 }
 
 /** Whose readings to send: only the signed-in person's own (a shared tablet keeps the others'). */

@@ -11,6 +11,8 @@ import {
 } from '@tanstack/react-table';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import { formatOhm } from '@shared/domain/units';
+import { readingValueView } from '@shared/domain/typed-reading';
+import { CORRECTION_REASON_MIN } from '@shared/schemas/readings';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
@@ -36,7 +38,7 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
         e.preventDefault();
         setError(null);
         try {
-          await onCorrect({ stepId: row.stepId, value, supersedesId: row.id, correctionReason: reason });
+          await onCorrect({ stepId: row.stepId, value, supersedesId: row.id, correctionReason: reason, leadNullId: row.leadNullId });
           onClose();
         } catch (err) {
           setError(err instanceof Error ? err.message : 'The correction was not saved.');
@@ -44,11 +46,14 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
       }}
     >
       <p className="w-full text-sm">
-        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}. The old reading stays in the history.
+        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}
+        {row.leadOffsetOhm ? ` (typed with a ${formatOhm(row.leadOffsetOhm)} lead null, which the correction keeps)` : ''}. The old reading stays in the history. A
+        correction closes no fault: a fault opened by a typing mistake is dismissed by the technical director.
       </p>
       <TextField label="Correct value" name={`fix-${row.id}`} id={`fix-${row.id}`} autoFocus inputMode="decimal" value={value} onChange={(e) => setValue(e.target.value)} className="w-36" />
       <TextField label="Reason" name={`reason-${row.id}`} id={`reason-${row.id}`} value={reason} onChange={(e) => setReason(e.target.value)} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
-      <Button type="submit" disabled={!value.trim() || reason.trim().length < 3}>Save correction</Button>
+      <Button type="submit" disabled={!value.trim() || reason.trim().length < CORRECTION_REASON_MIN}>Save correction</Button>
+      <p className="w-full text-xs text-ink-soft">The reason needs at least {CORRECTION_REASON_MIN} characters.</p>
       <Button variant="secondary" onClick={onClose}>Cancel</Button>
       {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
     </form>
@@ -83,7 +88,22 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
       col.accessor('valueText', {
         header: 'Value',
         sortingFn: (a, b) => (a.original.valueOhm ?? Infinity) - (b.original.valueOhm ?? Infinity),
-        cell: (c) => <span className="whitespace-nowrap font-mono font-semibold" data-value>{c.getValue()}</span>,
+        cell: (c) => {
+          // The value judged, with its unit; when a lead null was subtracted, what was typed too.
+          const v = readingValueView(c.row.original);
+          return (
+            <span>
+              <span className="whitespace-nowrap font-mono font-semibold" data-value>
+                {v.value}
+              </span>
+              {v.typed && (
+                <span className="block whitespace-nowrap text-xs text-ink-soft" data-testid="value-typed">
+                  typed {v.typed} − {v.leadNull} lead null{c.row.original.leadNullMeter ? ` (${c.row.original.leadNullMeter})` : ''}
+                </span>
+              )}
+            </span>
+          );
+        },
       }),
       col.accessor('verdict', {
         header: 'Verdict',
