@@ -350,19 +350,20 @@ function leadNullsTable(w: Writer, p: CertificatePayload) {
 }
 
 /** Faults the director closed as typing mistakes, each with the reason given. */
-function dismissedTable(w: Writer, faults: DismissedFault[]) {
+function dismissedTable(w: Writer, faults: DismissedFault[], withStrip = true) {
   if (faults.length === 0) {
     w.text('None: every fault on these strips was closed by a repair and a passing retest.', { size: 8.5, color: COLOURS.soft }, 8);
     return;
   }
-  w.table(faults, [
-    { header: 'Strip', width: 52, value: (f) => f.stripLabel, style: () => ({ weight: 500 }) },
+  const columns: Column<DismissedFault>[] = [
     { header: 'Position', width: 80, value: (f) => f.position },
     { header: 'Fault', width: 90, value: (f) => `${FAULT_KIND[f.kind] ?? f.kind} ${f.conductors.startsWith('piste') ? '' : f.conductors}`.trim() },
-    { header: 'Opened (UTC)', width: 62, value: (f) => timeUtc(f.openedAt), nowrap: true },
+    { header: 'Opened (UTC)', width: 62, value: (f) => timeUtc(f.openedAt) },
     { header: 'Dismissed by', width: 90, value: (f) => `${f.dismissedBy}, ${timeUtc(f.dismissedAt)}` },
-    { header: 'Reason', width: 300, value: (f) => f.reason },
-  ], { size: 7.5, headerSize: 6, padY: 2.6 });
+    { header: 'Reason', width: withStrip ? 300 : 220, value: (f) => f.reason },
+  ];
+  if (withStrip) columns.unshift({ header: 'Strip', width: 52, value: (f) => f.stripLabel, style: () => ({ weight: 500 }) });
+  w.table(faults, columns, { size: 7.5, headerSize: 6, padY: 2.6 });
 }
 
 function renderVenue(w: Writer, doc: CertificateDocument) {
@@ -544,7 +545,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   );
   if (p.dismissedFaults.length > 0) {
     w.section('Faults dismissed by the technical director as typing mistakes', 30);
-    dismissedTable(w, p.dismissedFaults);
+    dismissedTable(w, p.dismissedFaults, false);
   }
   w.section(`Limits applied: ${p.profile.name}, version ${p.profile.version}`, 30);
   const used = new Set(doc.readings.map((r) => r.ruleId));

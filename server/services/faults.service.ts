@@ -287,6 +287,8 @@ export function faultsService(deps: AppDeps) {
         entityId: id,
         detail: { kind: body.kind, conductors: body.conductors, automatic: false },
       });
+      // A fault on a signed-off venue: its certificates no longer say all of it.
+      reopenIfSignedOff(tx, { venueId: ctx.venue.id, orgId: user.orgId, actorId: user.id, reason: `Fault opened on ${ctx.strip.label}, ${ctx.position.name}` });
     });
     return detail(user, id);
   }

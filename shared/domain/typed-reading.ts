@@ -83,7 +83,7 @@ export function parseLeadNull(text: string): ParsedLeadNull {
 export interface ReadingValueView {
   /** The value that was judged: `0.4 Ω`, `OL`. */
   value: string;
-  /** What the meter showed, with its unit (`0.5 Ω`), when a lead null was subtracted; else null. */
+  /** What the meter showed, with its unit (`0.5 Ω`), when a lead null changed the figure; else null. */
   typed: string | null;
   /** The lead null subtracted (`0.1 Ω`), when there was one above 0 Ω. */
   leadNull: string | null;
@@ -96,6 +96,8 @@ export function readingValueView(r: { valueText: string; valueOhm: number | null
   if (!r.leadOffsetOhm) return { value, typed: null, leadNull: null };
   const typed = parseReading(r.valueText, 'resistance');
   const typedOhm = typed.ok && typed.value !== null ? typed.value : roundSignificant(r.valueOhm + r.leadOffsetOhm, 12);
+  // On 54 MΩ a 0.05 Ω null changes no figure shown: saying it would only add noise.
+  if (formatOhm(typedOhm) === value) return { value, typed: null, leadNull: null };
   return { value, typed: formatOhm(typedOhm), leadNull: formatOhm(r.leadOffsetOhm) };
 }
 

@@ -39,3 +39,19 @@ export interface LeadNullDto {
   takenBy: string;
   takenByName: string | null;
 }
+
+/**
+ * A test-lead null as the tablet keeps it for the session and sends it. Its id is made when it is
+ * set, so sending it again is a replay; a reading queued offline carries the null it uses, which
+ * is sent before it.
+ */
+export interface LeadNullRecord {
+  id: string;
+  /** As typed, e.g. `0.12`. */
+  value: string;
+  valueOhm: number;
+  meter: string | null;
+  takenAt: string;
+  /** Who set it: on a shared tablet, one person's null is never used for another's readings. */
+  userId: string;
+}

@@ -64,5 +64,7 @@ describe('readingValueView: the value with its unit, and both figures when a nul
     expect(readingValueView({ valueText: 'OL', valueOhm: null, overRange: true, leadOffsetOhm: 0.1 })).toEqual({ value: 'OL', typed: null, leadNull: null });
     expect(describeReadingValue({ valueText: '1.3', valueOhm: 1.2, overRange: false, leadOffsetOhm: 0.1 })).toBe('1.2 Ω (typed 1.3 Ω − 0.1 Ω lead null)');
     expect(describeReadingValue({ valueText: '22 MΩ', valueOhm: 22e6, overRange: false, leadOffsetOhm: 0 })).toBe('22 MΩ');
+    // A null too small to change the figure shown is not spelled out.
+    expect(readingValueView({ valueText: '54 MΩ', valueOhm: 54e6 - 0.05, overRange: false, leadOffsetOhm: 0.05 })).toEqual({ value: '54 MΩ', typed: null, leadNull: null });
   });
 });

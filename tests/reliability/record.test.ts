@@ -4,10 +4,12 @@
 // the history of venues they are not assigned to. Each test is an attack that worked before.
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { randomUUID } from 'node:crypto';
+import { spawnSync } from 'node:child_process';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from '../api/testing-helpers';
-import { auditLog, faults, leadNulls, readings, venues } from '../../server/db/schema';
+import { auditLog, certificates, faults, leadNulls, readings, venues } from '../../server/db/schema';
+import type { CertificatePayload } from '../../server/signing/certificate-record';
 
 let t: TestApp;
 let hall: string;
@@ -186,6 +188,50 @@ describe('revoking certificates', () => {
     expect(v.body.notCovering).toEqual([expect.objectContaining({ strip: 'Annex 1', number: strip.number, revokedReason: 'The reel was swapped before the first bout.' })]);
     const others = certs.filter((c) => c.kind === 'strip' && c.number !== strip.number);
     for (const c of others) expect((await t.request.get(`/api/verify/${c.number}`)).body.status).toBe('valid');
+  });
+});
+
+describe('the certificate carries the record', () => {
+  test('dismissed faults and the test-lead nulls are signed and printed on the annex; a dismissal or a new fault re-opens a signed-off venue', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const lee = await t.agentFor(DEMO.annexTechnician);
+    const [annex3, annex4] = [await stripByLabel(t, annex, 'Annex 3'), await stripByLabel(t, annex, 'Annex 4')];
+    const statusOf = () => t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status;
+    if (statusOf() !== 'signed-off') await marco.post(`/api/venues/${annex}/sign-off`).send({ password: DEMO_PASSWORD }).expect(201);
+
+    const f1 = await lee.post('/api/faults').send({ positionId: annex3.positions[1].id, kind: 'intermittent', conductors: 'A' });
+    expect(f1.status).toBe(201);
+    expect(statusOf()).toBe('testing');
+    const reason = 'Opened on the wrong strip: Lee meant Annex 2, whose fault was already dismissed.';
+    await marco.post(`/api/faults/${f1.body.id}/dismiss`).set('If-Match', await etagOf(marco, f1.body.id)).send({ reason }).expect(200);
+    const f2 = await lee.post('/api/faults').send({ positionId: annex4.positions[1].id, kind: 'open', conductors: 'B' }).expect(201);
+    const signed = await marco
+      .post(`/api/venues/${annex}/sign-off`)
+      .send({ password: DEMO_PASSWORD, exceptions: [{ stripId: annex4.id, reason: 'Left floor cable waits for a repair.' }] });
+    expect(signed.status, JSON.stringify(signed.body)).toBe(201);
+    const venueNumber = (signed.body.certificates as { number: string; kind: string }[]).find((c) => c.kind === 'venue')!.number;
+    const row = t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!;
+    const payload = JSON.parse(row.payloadJson) as CertificatePayload;
+    expect(payload.format).toBe('stripwarden-certificate/2');
+    expect(payload.dismissedFaults.map((f) => [f.stripLabel, f.reason, f.dismissedBy])).toContainEqual(['Annex 3', reason, 'Marco Dal Bello']);
+    expect(payload.dismissedFaults.some((f) => f.faultId === f2.body.id)).toBe(false);
+    // Lee's demo readings were all typed with one 0.05 Ω null (Meter 2).
+    expect(payload.leadNulls).toContainEqual(expect.objectContaining({ valueOhm: 0.05, takenBy: 'Lee Varga', meter: 'Meter 2' }));
+    const pdf = (await marco.get(`/api/certificates/${venueNumber}/pdf`).buffer(true).parse((res, cb) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (c: Buffer) => chunks.push(c));
+      res.on('end', () => cb(null, Buffer.concat(chunks)));
+    })).body as Buffer;
+    // poppler's pdftotext reads the certificate back as a reader would.
+    const text = spawnSync('pdftotext', ['-layout', '-', '-'], { input: pdf }).stdout.toString('utf8').replace(/\s+/g, ' ');
+    expect(text).toContain('Annex C');
+    expect(text).toContain('Test-lead nulls used');
+    expect(text).toContain('Opened on the wrong strip');
+    expect(text).toMatch(/LEAD NULL/);
+
+    await marco.post(`/api/faults/${f2.body.id}/dismiss`).set('If-Match', await etagOf(marco, f2.body.id)).send({ reason: 'Opened by mistake: the cable was never tested here.' }).expect(200);
+    expect(statusOf()).toBe('testing');
+    expect(t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!.status).toBe('superseded');
   });
 });
 

@@ -99,7 +99,7 @@ function Details({ number }: { number: string }) {
               <span key={s.number}>
                 {i > 0 ? '; ' : ''}
                 {s.strip} (its strip certificate <span className="font-mono">{s.number}</span> was revoked{s.revokedAt ? ` ${when(s.revokedAt)}` : ''}
-                {s.revokedReason ? `: ${s.revokedReason}` : ''})
+                {s.revokedReason ? `: ${s.revokedReason.replace(/[.!]+$/, '')}` : ''})
               </span>
             ))}
             . Do not rely on it for {notCovering.length === 1 ? 'that strip' : 'those strips'}.
