@@ -2,6 +2,7 @@ import { defineConfig } from 'vitest/config';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
 import { VitePWA } from 'vite-plugin-pwa';
+import { compression } from 'vite-plugin-compression2';
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 
@@ -43,6 +44,10 @@ export default defineConfig({
         skipWaiting: true,
       },
     }),
+    // Brotli and gzip copies of every text asset, made once at build time at the highest levels, so
+    // the server sends a hall's slow Wi-Fi a fraction of the bytes without compressing per request
+    // (served by express-static-gzip in server/http/static-files.ts).
+    compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|json|svg|webmanifest|txt)$/, threshold: 1024 }),
   ],
   define: { __APP_VERSION__: JSON.stringify(appVersion) },
   resolve: {

@@ -10,6 +10,7 @@ const all: Record<string, () => Promise<{ run: () => Promise<BenchResult> }>> = 
   verdicts: () => import('./verdicts.bench'),
   certificate: () => import('./certificate.bench'),
   'testing-screen': () => import('./testing-screen.bench'),
+  'hall-network': () => import('./hall-network.bench'),
 };
 
 const wanted = process.argv.slice(2).length ? process.argv.slice(2) : Object.keys(all);

@@ -1,8 +1,8 @@
 // The hall's Wi-Fi drops while Sam tests Strip 20: the test-lead null set offline and the readings
 // typed with it are kept on the tablet with their verdicts, survive a reload with no network, and
-// reach the server exactly once when the network is back (even when an answer is lost on the way),
-// each reading naming that null. A reading whose step the director removed
-// meanwhile ends as a problem Sam can see and decide on, not as a loss.
+// reach the server exactly once, in one batch, when the network is back (even when its answer is
+// lost on the way), each reading naming that null, which is sent before them. A reading whose step
+// the director removed meanwhile ends as a problem Sam can see and decide on, not as a loss.
 import type { Page } from '@playwright/test';
 import { apiAs, expect, signIn, test } from './fixtures';
 
@@ -108,11 +108,21 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await page.goBack();
   await expect(page.getByRole('heading', { name: `${STRIP} — testing` })).toBeVisible();
 
-  // The first answer is lost on the way back (the server has the reading, the tablet does not know):
-  // the replay must not record it twice.
+  // The first answer is lost on the way back (the server has the readings, the tablet does not
+  // know): the replay must not record them twice. 28 readings waiting go as one batch.
   let lost = 0;
-  await context.route('**/api/readings', async (route) => {
-    if (lost === 0 && route.request().method() === 'POST') {
+  const sent = { single: 0, batch: 0 };
+  const order: string[] = [];
+  await context.route(/\/api\/lead-nulls$/, async (route) => {
+    if (route.request().method() === 'POST') order.push('lead-null');
+    return route.continue();
+  });
+  await context.route(/\/api\/readings(\/batch)?$/, async (route) => {
+    if (route.request().method() !== 'POST') return route.continue();
+    order.push('readings');
+    if (route.request().url().endsWith('/batch')) sent.batch += 1;
+    else sent.single += 1;
+    if (lost === 0) {
       lost += 1;
       await route.fetch();
       return route.abort('connectionreset');
@@ -126,6 +136,10 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await expect(indicator(page)).toHaveAttribute('data-state', 'needs-you', { timeout: 30_000 });
   await expect(indicator(page)).toHaveText('1 needs you');
   expect(lost).toBe(1);
+  // The lost batch and its replay: two requests for 28 readings, none sent one by one.
+  expect(sent).toEqual({ single: 0, batch: 2 });
+  // The null set offline went first, once (the server has it for the replay).
+  expect(order).toEqual(['lead-null', 'readings', 'readings']);
 
   // The server holds each reading exactly once: 27 readings of Strip 20, one per remaining step.
   const table = await apiAs<TableRow[]>(director, 'GET', `/api/venues/${venueId}/readings`);

@@ -1,3 +1,5 @@
+import sharp from 'sharp';
+import exifReader from 'exif-reader';
 import { test, expect, apiAs } from './fixtures';
 import { roundTripNsFor, syntheticTdrTrace } from '../tests/setup/synthetic-trace';
 
@@ -49,6 +51,34 @@ test.describe('a scope trace on a fault', () => {
     await expect(page.getByText('Saved with the fault’s estimates.')).toBeVisible();
     expect(posted).toMatchObject({ method: 'tdr', velocityFactor: 0.6, fromEnd: 'near' });
     expect(Math.abs((posted!.roundTripNs as number) - moved)).toBeLessThan(0.01);
+  });
+});
+
+test.describe('a photo on a fault', () => {
+  test('Sam attaches a photo that carries its location: the control says it is removed, and the stored photo has no GPS', async ({ page, signIn }) => {
+    await signIn('technician');
+    const venues = await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues');
+    const hall = venues.body.find((v) => v.name === 'Riverside Sports Hall')!;
+    const faults = await apiAs<{ id: string; stripLabel: string }[]>(page, 'GET', `/api/venues/${hall.id}/faults`);
+    const fault = faults.body.find((f) => f.stripLabel === 'Strip 6')!;
+    const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#c87828' } })
+      .jpeg()
+      .withExif({ IFD2: { DateTimeOriginal: '2026:11:21 08:15:42', BodySerialNumber: 'SN-4471-0098' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 1234/100' } })
+      .toBuffer();
+
+    await page.goto(`/faults/${fault.id}`);
+    await expect(page.getByTestId('photo-privacy')).toHaveText(/without their location \(GPS\) and the device.s serial number/);
+    await page.getByTestId('file-input').setInputFiles({ name: 'connector.jpg', mimeType: 'image/jpeg', buffer: photo });
+    await expect(page.getByText('connector.jpg is attached.')).toBeVisible();
+    await page.screenshot({ path: test.info().outputPath('photo-attached.png'), fullPage: true });
+
+    const list = await apiAs<{ id: string; originalName: string; sha256: string }[]>(page, 'GET', `/api/faults/${fault.id}/attachments`);
+    const stored = list.body.find((a) => a.originalName === 'connector.jpg')!;
+    const file = await page.request.get(`/api/attachments/${stored.id}`);
+    const exif = exifReader((await sharp(await file.body()).metadata()).exif!);
+    expect(exif.GPSInfo).toBeUndefined();
+    expect(exif.Photo?.BodySerialNumber).toBeUndefined();
+    expect(exif.Photo?.DateTimeOriginal).toEqual(new Date('2026-11-21T08:15:42Z'));
   });
 });
 

@@ -1,11 +1,13 @@
 import express from 'express';
 import helmet from 'helmet';
 import cookieParser from 'cookie-parser';
+import compression from 'compression';
 import { existsSync } from 'node:fs';
-import { basename, dirname, resolve } from 'node:path';
+import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppDeps } from './deps';
 import { ApiRouter, type RouteSpec } from './http/api-router';
+import { serveClient } from './http/static-files';
 import { authenticate, sessionCookie } from './auth/authenticate';
 import { csrfGuard } from './middleware/csrf';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
@@ -15,7 +17,7 @@ import { authRoutes } from './routes/auth.routes';
 import { usersRoutes } from './routes/users.routes';
 import { venuesRoutes } from './routes/venues.routes';
 import { stripsRoutes } from './routes/strips.routes';
-import { readingsRoutes } from './routes/readings.routes';
+import { READINGS_BATCH_BODY_LIMIT, readingsRoutes } from './routes/readings.routes';
 import { faultsRoutes } from './routes/faults.routes';
 import { boardRoutes } from './routes/board.routes';
 import { equipmentRoutes } from './routes/equipment.routes';
@@ -29,9 +31,14 @@ import { faultLocationRoutes } from './routes/fault-location.routes';
 import { signOffRoutes } from './routes/sign-off.routes';
 import { certificatesRoutes, wellKnownRoutes } from './routes/certificates.routes';
 
-const distDir = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
+const builtClient = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 
-export function createApp(deps: AppDeps) {
+/** Answers smaller than this go as they are: compressing them costs more time than it saves. */
+export const COMPRESS_MIN_BYTES = 1024;
+
+/** `distDir`: the built client to serve (tests give a folder of their own). */
+export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
+  const distDir = opts.distDir ?? builtClient;
   const app = express();
   app.disable('x-powered-by');
   // API answers are no-store, so a body hash as ETag on each (Express's default) serves no one;
@@ -65,6 +72,9 @@ export function createApp(deps: AppDeps) {
     }),
   );
   if (deps.env.LOG_REQUESTS === 'on') app.use(requestLog((line) => deps.log.info(line)));
+  // gzip or brotli, as the browser asks, for answers from 1 KB (lists, strips, batches of readings);
+  // a file the build compressed already is sent as it is (the middleware leaves encoded answers alone).
+  const compress = compression({ threshold: COMPRESS_MIN_BYTES });
 
   const auth = authService(deps);
   const cookie = sessionCookie(deps.env.APP_ORIGIN);
@@ -105,6 +115,8 @@ export function createApp(deps: AppDeps) {
 
   const api = express.Router();
   // strict: false so a bare JSON value (5, "x") reaches the schema and gets its 422, not a parse error.
+  // A batch of readings has a larger allowance; the general parser then leaves its parsed body alone.
+  api.use('/readings/batch', express.json({ limit: READINGS_BATCH_BODY_LIMIT, strict: false }));
   api.use(express.json({ limit: '100kb', strict: false }));
   api.use(cookieParser());
   // Checking a certificate file stores nothing and is public: outside tools (a script, curl) may
@@ -116,6 +128,9 @@ export function createApp(deps: AppDeps) {
     res.set('Cache-Control', 'no-store');
     next();
   });
+  // A single reading's answer is under 1 KB and is the most frequent request: it skips the
+  // middleware altogether rather than paying for its wrapping on every write.
+  api.use((req, res, next) => (req.method === 'POST' && req.path === '/readings' ? next() : compress(req, res, next)));
   for (const r of routers) api.use(r.router);
   api.use(notFoundApi);
   app.use('/api', api);
@@ -124,20 +139,9 @@ export function createApp(deps: AppDeps) {
   app.use(wellKnown.router);
 
   if (existsSync(distDir)) {
-    // The service worker and the page that names the hashed assets must be asked for every time,
-    // or a tablet would keep an old version for an hour (web.dev, "Service worker lifecycle").
-    const revalidate = new Set(['index.html', 'sw.js', 'registerSW.js', 'manifest.webmanifest']);
-    app.use(
-      express.static(distDir, {
-        index: false,
-        maxAge: '1h',
-        setHeaders: (res, file) => {
-          if (revalidate.has(basename(file))) res.setHeader('Cache-Control', 'no-cache');
-        },
-      }),
-    );
-    // Single-page fallback for client routes (Express 5 syntax).
-    app.get('/{*splat}', (_req, res) => res.set('Cache-Control', 'no-cache').sendFile(resolve(distDir, 'index.html'), { cacheControl: false }));
+    // The service worker's own files are not compressed by the build (they are written after it).
+    app.use(compress);
+    serveClient(app, distDir);
   }
   app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
 

@@ -3,6 +3,7 @@ import { buildDeps, consoleLogger } from './bootstrap';
 import { createApp } from './app';
 import { seedDemo } from './db/seed-demo';
 import { currentSigningKey } from './signing/signing-keys';
+import { endPhotoMetadataTool } from './storage/photo-metadata';
 
 // listen + graceful shutdown only; everything else is in createApp().
 let env;
@@ -42,7 +43,7 @@ function shutdown(signal: string) {
   stopping = true;
   consoleLogger.info(`${signal}: finishing open requests, then stopping.`);
   server.close(async () => {
-    await close();
+    await Promise.all([close(), endPhotoMetadataTool()]);
     process.exit(0);
   });
   server.closeIdleConnections();

@@ -14,16 +14,38 @@ interface Pending {
   reject: (error: unknown) => void;
 }
 
+/** Writes that go into one group together: one alone, or a batch that is never split. */
+interface Unit {
+  writes: Pending[];
+  committed?: () => void;
+  failed?: (error: unknown) => void;
+}
+
 const MAX_GROUP = 256;
 const queues = new WeakMap<Database.Database, GroupCommit>();
 
-export interface GroupCommit {
+/** Where a write is queued: the group commit itself, or a batch of it. */
+export interface WriteQueue {
   /**
    * Runs `work` in a transaction shared with the other writes of this turn of the event loop, in a
    * savepoint of its own. `work` runs on the same connection: it uses the database handle itself,
    * not a transaction of its own, and must be synchronous.
    */
   run<T>(work: () => T): Promise<T>;
+}
+
+export interface GroupCommit extends WriteQueue {
+  /**
+   * Writes that must share one COMMIT: each `run` on the batch is a write as above (its own
+   * savepoint, its own outcome), kept until `submit()`, which queues them all at once, in order,
+   * in one group that is never split.
+   */
+  batch(): WriteBatch;
+}
+
+export interface WriteBatch extends WriteQueue {
+  /** Resolves once the COMMIT holding the batch has returned; rejects when that group failed (then every write of it failed too). */
+  submit(): Promise<void>;
 }
 
 export function groupCommit(sqlite: Database.Database): GroupCommit {
@@ -33,7 +55,7 @@ export function groupCommit(sqlite: Database.Database): GroupCommit {
 }
 
 function makeQueue(sqlite: Database.Database): GroupCommit {
-  const pending: Pending[] = [];
+  const pending: Unit[] = [];
   let scheduled = false;
   // Prepared once: better-sqlite3's db.transaction() builds five wrapper functions per call, which
   // showed in the write profile when made for every write and every group.
@@ -46,7 +68,12 @@ function makeQueue(sqlite: Database.Database): GroupCommit {
 
   function flush() {
     scheduled = false;
-    const group = pending.splice(0, MAX_GROUP);
+    // Whole units up to MAX_GROUP writes (always at least one unit, however large).
+    let take = 1;
+    let count = pending[0].writes.length;
+    while (take < pending.length && count + pending[take].writes.length <= MAX_GROUP) count += pending[take++].writes.length;
+    const units = pending.splice(0, take);
+    const group = units.flatMap((u) => u.writes);
     if (pending.length > 0) schedule();
     const outcomes: { ok: boolean; value: unknown }[] = [];
     try {
@@ -70,9 +97,11 @@ function makeQueue(sqlite: Database.Database): GroupCommit {
     } catch (error) {
       if (sqlite.inTransaction) rollback.run();
       for (const p of group) p.reject(error);
+      for (const u of units) u.failed?.(error);
       return;
     }
     group.forEach((p, i) => (outcomes[i].ok ? p.resolve(outcomes[i].value) : p.reject(outcomes[i].value)));
+    for (const u of units) u.committed?.();
   }
 
   function schedule() {
@@ -80,12 +109,29 @@ function makeQueue(sqlite: Database.Database): GroupCommit {
     setImmediate(flush);
   }
 
+  const enqueue = (unit: Unit) => {
+    pending.push(unit);
+    if (!scheduled) schedule();
+  };
+  const write = <T>(work: () => T, into: (p: Pending) => void) =>
+    new Promise<T>((resolve, reject) => into({ work, resolve: resolve as (v: unknown) => void, reject }));
+
   return {
-    run<T>(work: () => T): Promise<T> {
-      return new Promise<T>((resolve, reject) => {
-        pending.push({ work, resolve: resolve as (v: unknown) => void, reject });
-        if (!scheduled) schedule();
-      });
+    run: (work) => write(work, (p) => enqueue({ writes: [p] })),
+    batch() {
+      const writes: Pending[] = [];
+      let submitted = false;
+      return {
+        run: (work) => {
+          if (submitted) throw new Error('This batch was submitted already.');
+          return write(work, (p) => writes.push(p));
+        },
+        submit: () => {
+          submitted = true;
+          if (writes.length === 0) return Promise.resolve();
+          return new Promise<void>((committed, failed) => enqueue({ writes, committed, failed }));
+        },
+      };
     },
   };
 }

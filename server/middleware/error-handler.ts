@@ -10,10 +10,7 @@ export function sendProblem(
   detail: string,
   extra: Record<string, unknown> = {},
 ) {
-  res
-    .status(status)
-    .type('application/problem+json')
-    .json({ type: `/problems/${code}`, title: titleFor(status), status, code, detail, ...extra });
+  res.status(status).type('application/problem+json').json(problemBody({ status, code, detail, extra }));
 }
 
 function titleFor(status: number): string {
@@ -44,28 +41,40 @@ export function zodFieldErrors(err: ZodError): FieldError[] {
 export const notFoundApi: RequestHandler = (req, res) =>
   sendProblem(res, 404, 'no-such-route', `There is no API route ${req.method} ${req.path}.`);
 
+/** An error as an RFC 9457 problem: status, code, a sentence, extra members; null for an unexpected error (a bug). */
+export function problemFor(err: unknown): { status: number; code: string; detail: string; extra?: Record<string, unknown> } | null {
+  if (err instanceof ZodError) {
+    const errors = zodFieldErrors(err);
+    const summary = errors.map((e) => `${e.path}: ${e.message}`).join('; ');
+    return { status: 422, code: 'invalid-input', detail: `Some fields are not right — ${summary}`, extra: { errors } };
+  }
+  if (err instanceof AppError) return { status: err.status, code: err.code, detail: err.message, extra: err.extra };
+  // body-parser and multer errors carry a status and a type.
+  const e = err as { status?: number; type?: string; code?: string; message?: string };
+  if (e.type === 'entity.parse.failed') return { status: 400, code: 'malformed-json', detail: 'The request body is not valid JSON.' };
+  if (e.type === 'entity.too.large') return { status: 413, code: 'body-too-large', detail: 'The request body is too large.' };
+  if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported')
+    return { status: 415, code: 'unsupported-encoding', detail: 'The request body encoding is not supported.' };
+  if (e.code === 'LIMIT_FILE_SIZE') return { status: 413, code: 'file-too-large', detail: 'The file is too large.' };
+  if (typeof e.code === 'string' && e.code.startsWith('LIMIT_')) return { status: 400, code: 'bad-upload', detail: e.message ?? 'The upload is not acceptable.' };
+  if (typeof e.status === 'number' && e.status >= 400 && e.status < 500)
+    return { status: e.status, code: 'bad-request', detail: e.message ?? 'The request is not acceptable.' };
+  return null;
+}
+
+export const SERVER_ERROR = { status: 500, code: 'server-error', detail: 'Something went wrong on our side. It has been logged.' } as const;
+
+/** The problem+json body itself, for answers that carry several (a batch of readings). */
+export function problemBody(p: { status: number; code: string; detail: string; extra?: Record<string, unknown> }) {
+  return { type: `/problems/${p.code}`, title: titleFor(p.status), status: p.status, code: p.code, detail: p.detail, ...p.extra };
+}
+
 export function errorHandler(log: (msg: string, err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
-    if (err instanceof ZodError) {
-      const errors = zodFieldErrors(err);
-      const summary = errors.map((e) => `${e.path}: ${e.message}`).join('; ');
-      return sendProblem(res, 422, 'invalid-input', `Some fields are not right — ${summary}`, { errors });
-    }
-    if (err instanceof AppError) return sendProblem(res, err.status, err.code, err.message, err.extra);
-    // body-parser and multer errors carry a status and a type.
-    const e = err as { status?: number; type?: string; code?: string; message?: string };
-    if (e.type === 'entity.parse.failed')
-      return sendProblem(res, 400, 'malformed-json', 'The request body is not valid JSON.');
-    if (e.type === 'entity.too.large') return sendProblem(res, 413, 'body-too-large', 'The request body is too large.');
-    if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported')
-      return sendProblem(res, 415, 'unsupported-encoding', 'The request body encoding is not supported.');
-    if (e.code === 'LIMIT_FILE_SIZE') return sendProblem(res, 413, 'file-too-large', 'The file is too large.');
-    if (typeof e.code === 'string' && e.code.startsWith('LIMIT_'))
-      return sendProblem(res, 400, 'bad-upload', e.message ?? 'The upload is not acceptable.');
-    if (typeof e.status === 'number' && e.status >= 400 && e.status < 500)
-      return sendProblem(res, e.status, 'bad-request', e.message ?? 'The request is not acceptable.');
+    const problem = problemFor(err);
+    if (problem) return sendProblem(res, problem.status, problem.code, problem.detail, problem.extra);
     log('unhandled error', err);
-    return sendProblem(res, 500, 'server-error', 'Something went wrong on our side. It has been logged.');
+    return sendProblem(res, SERVER_ERROR.status, SERVER_ERROR.code, SERVER_ERROR.detail);
   };
 }

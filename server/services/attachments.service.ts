@@ -11,6 +11,7 @@ import { attachmentsRepository, type AttachmentRow } from '../db/attachments.rep
 import type { EquipmentRow } from '../db/equipment.repository';
 import { writeAudit } from '../db/audit.repository';
 import { attachmentStore, type AttachmentStore } from '../storage/attachment-store';
+import { PhotoMetadataError, removeIdentifyingMetadata } from '../storage/photo-metadata';
 import { accessService } from './access.service';
 import { AppError, conflict, forbidden, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
@@ -204,6 +205,17 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
     }
   }
 
+  /** The photo as stored: without location, serial numbers and the like, picture untouched. */
+  async function withoutIdentifyingMetadata(bytes: Buffer, contentType: string): Promise<Buffer> {
+    try {
+      return await removeIdentifyingMetadata(bytes, contentType, store.dir);
+    } catch (err) {
+      if (!(err instanceof PhotoMetadataError)) throw err;
+      deps.log.error('photo metadata could not be removed', err);
+      throw unprocessable('photo-metadata', 'The location and device details could not be removed from this photo, so it was not stored; take it again or export it as JPEG.');
+    }
+  }
+
   function checkIdempotency(user: AuthUser, key: string, requestHash: string): StoredAnswer | null {
     const existing = repo.findIdempotency(key);
     if (!existing) return null;
@@ -237,8 +249,9 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
       const max = ATTACHMENT_MAX_BYTES[known.kind];
       if (file.buffer.length > max) throw tooLarge(max);
 
-      const sha256 = sha256Hex(file.buffer);
-      const requestHash = sha256Hex(`${ownerType}:${ownerId}:${sha256}`);
+      // The request is known by the bytes sent; the attachment by the bytes stored (a photo loses
+      // its identifying metadata first).
+      const requestHash = sha256Hex(`${ownerType}:${ownerId}:${sha256Hex(file.buffer)}`);
       if (key) {
         const replay = checkIdempotency(user, key, requestHash);
         if (replay) return replay;
@@ -261,12 +274,15 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
         };
 
         const contentType = await checkContent(file.buffer, ext);
+        // A photo must decode (the preview) before its metadata is rewritten; the preview has none.
+        const preview = known.kind === 'photo' ? await makePreview(file.buffer, contentType) : null;
+        const bytes = known.kind === 'photo' ? await withoutIdentifyingMetadata(file.buffer, contentType) : file.buffer;
+        const sha256 = sha256Hex(bytes);
         // The same bytes on the same owner are one attachment: a retry without a key lands here.
         const same = repo.sameBytes(ownerType, ownerId, sha256);
         if (same) return deps.db.transaction((tx) => remember(tx, { status: 200, body: created(same) }));
-        const preview = known.kind === 'photo' ? await makePreview(file.buffer, contentType) : null;
 
-        const storedName = store.write(file.buffer);
+        const storedName = store.write(bytes);
         let previewName: string | null = null;
         try {
           if (preview) previewName = store.write(preview, '.preview.jpg');
@@ -282,7 +298,7 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
               ownerId,
               kind: known.kind,
               contentType,
-              size: file.buffer.length,
+              size: bytes.length,
               sha256,
               storedName,
               originalName,

@@ -9,7 +9,7 @@ import { readingsRepository, type ReadingWriteContext } from '../db/readings.rep
 import { stripsRepository, latestByStep, type ReadingRow } from '../db/strips.repository';
 import { faultsRepository } from '../db/faults.repository';
 import { writeAudit } from '../db/audit.repository';
-import { groupCommit } from '../db/group-commit';
+import { groupCommit, type WriteQueue } from '../db/group-commit';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
 import { limitProfileById } from './profiles.service';
@@ -75,6 +75,11 @@ function faultKindFor(testKind: string, overRange: boolean): FaultKind {
   return overRange ? 'open' : 'high-resistance';
 }
 
+export interface CreatedReading {
+  replayed: boolean;
+  reading: ReadingDto;
+}
+
 export function readingsService(deps: AppDeps) {
   const access = accessService(deps.db);
 
@@ -98,10 +103,11 @@ export function readingsService(deps: AppDeps) {
    * again with the same body (an offline client retrying). Settles once the reading is durable:
    * readings arriving together share one commit (server/db/group-commit.ts), and everything below
    * runs inside it, so what the write reads (the venue's state, the step's faults) is current.
+   * `queue`: a batch of the group commit when the reading came in one (createBatch).
    */
-  function create(user: AuthUser, body: CreateReadingInput): Promise<{ replayed: boolean; reading: ReadingDto }> {
+  function create(user: AuthUser, body: CreateReadingInput, queue: WriteQueue = groupCommit(deps.sqlite)): Promise<CreatedReading> {
     const hash = requestHash(body);
-    return groupCommit(deps.sqlite).run(() => {
+    return queue.run(() => {
       const db = deps.db;
       const leadNullId = body.leadNullId ?? null;
       const ctx = readingsRepository(db).writeContext(body.stepId, user.id, body.id, leadNullId);
@@ -220,6 +226,19 @@ export function readingsService(deps: AppDeps) {
     });
   }
 
+  /**
+   * Readings sent together (a tablet's queue after time offline): each goes through create() and
+   * so is judged and stored exactly as if it came alone, in the order given, and all of them share
+   * one COMMIT. Settles once that commit has returned, with each reading's own outcome; rejects
+   * when the commit failed (then none of them is stored).
+   */
+  async function createBatch(user: AuthUser, bodies: CreateReadingInput[]): Promise<PromiseSettledResult<CreatedReading>[]> {
+    const batch = groupCommit(deps.sqlite).batch();
+    const outcomes = Promise.allSettled(bodies.map((body) => create(user, body, batch)));
+    await batch.submit();
+    return outcomes;
+  }
+
   /** The same id again: the stored reading if the body is the same, a refusal if it is not. */
   function replay(body: CreateReadingInput, hash: string, storedHash: string): { replayed: boolean; reading: ReadingDto } {
     if (storedHash !== hash) {
@@ -314,5 +333,5 @@ export function readingsService(deps: AppDeps) {
     return null;
   }
 
-  return { create, get };
+  return { create, createBatch, get };
 }

@@ -61,6 +61,40 @@ export const createReadingSchema = z
   });
 export type CreateReadingInput = z.infer<typeof createReadingSchema>;
 
+/** Readings per POST /api/readings/batch: a tablet's hour offline is a few hundred, sent in turns. */
+export const READINGS_BATCH_MAX = 200;
+
+/**
+ * Body of POST /api/readings/batch. Each reading is checked against createReadingSchema on its own,
+ * so one bad reading is refused alone (its result says why) and the others are recorded.
+ */
+export const readingsBatchSchema = z.strictObject({
+  readings: z
+    .array(z.unknown(), { error: 'readings must be a list of readings, each the body of POST /api/readings' })
+    .min(1, { error: 'readings needs at least one reading' })
+    .max(READINGS_BATCH_MAX, { error: `Send at most ${READINGS_BATCH_MAX} readings at once` }),
+});
+
+/** The problem+json body a refused reading would have had on its own. */
+export interface ProblemBody {
+  type: string;
+  title: string;
+  status: number;
+  code: string;
+  detail: string;
+  errors?: { path: string; message: string }[];
+  [key: string]: unknown;
+}
+
+/** One reading's outcome in a batch, in the order sent: the status and body it would have had alone. */
+export interface ReadingBatchResult {
+  /** The reading's id as sent (null when it had none that could be read). */
+  id: string | null;
+  status: number;
+  reading?: ReadingDto;
+  problem?: ProblemBody;
+}
+
 export type VerdictName = 'pass' | 'near-limit' | 'fail';
 
 /** A stored reading as the API answers it. */

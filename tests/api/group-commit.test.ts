@@ -81,4 +81,48 @@ describe('group commit', () => {
     await q.run(insert('d', 4));
     expect(seen()).toEqual(['d']);
   });
+
+  test('when a batch holds more writes than a group takes, then it is still committed whole, in order, after the writes queued before it', async () => {
+    const q = groupCommit(writer);
+    const singles = Array.from({ length: 100 }, (_, i) => q.run(insert(`s${String(i).padStart(3, '0')}`, i)).then(() => seen().length));
+    const batch = q.batch();
+    const order: number[] = [];
+    const writes = Array.from({ length: 300 }, (_, i) =>
+      batch.run(() => {
+        order.push(i);
+        return insert(`b${String(i).padStart(3, '0')}`, i)();
+      }).then(() => seen().length),
+    );
+    // Nothing of the batch runs before it is submitted.
+    await Promise.all(singles);
+    expect(order).toEqual([]);
+    await batch.submit();
+    // Every write of the batch was acknowledged after all 300 were visible: one COMMIT.
+    expect(new Set(await Promise.all(writes))).toEqual(new Set([400]));
+    expect(order).toEqual(Array.from({ length: 300 }, (_, i) => i));
+  });
+
+  test('when one write of a batch fails, then the batch commits the others and reports that write alone', async () => {
+    const q = groupCommit(writer);
+    const batch = q.batch();
+    const results = Promise.allSettled([batch.run(insert('a', 1)), batch.run(insert('a', 2)), batch.run(insert('b', 3))]);
+    await batch.submit();
+    expect((await results).map((r) => r.status)).toEqual(['fulfilled', 'rejected', 'fulfilled']);
+    expect(seen()).toEqual(['a', 'b']);
+  });
+
+  test('when the group holding a batch fails, then submit rejects, every write of it fails and nothing is stored', async () => {
+    const q = groupCommit(writer);
+    const batch = q.batch();
+    const results = Promise.allSettled([
+      batch.run(insert('a', 1)),
+      batch.run(() => {
+        writer.exec('ROLLBACK');
+        throw new Error('disk I/O error');
+      }),
+    ]);
+    await expect(batch.submit()).rejects.toThrow('disk I/O error');
+    expect((await results).map((r) => r.status)).toEqual(['rejected', 'rejected']);
+    expect(seen()).toEqual([]);
+  });
 });

@@ -1,8 +1,10 @@
 import { describe, expect, test } from 'vitest';
 import {
   addToQueue,
+  answersFromBatch,
   applyOutcome,
   classifyAnswer,
+  inBatches,
   makeSeq,
   nextDueAt,
   planSend,
@@ -143,6 +145,57 @@ describe('planSend', () => {
     expect(planSend([due], { userId: SAM, nowMs: 1_000, force: true }).send).toHaveLength(1);
     expect(nextDueAt([due, item({ nextAttemptAt: 9_000 })], SAM)).toBe(5_000);
     expect(nextDueAt([item({ status: 'problem' })], SAM)).toBeNull();
+  });
+});
+
+describe('answersFromBatch', () => {
+  const bodies = [item(), item(), item(), item()].map((i) => i.body);
+  const reading = (id: string, venueReopened?: boolean) => ({ id, verdict: 'pass', ...(venueReopened ? { venueReopened } : {}) }) as never;
+  const problem = (status: number, code: string, detail: string) => ({ type: `/problems/${code}`, title: 't', status, code, detail });
+
+  test('each result is read as the answer that reading would have had alone, and leads to the same outcome', () => {
+    const answers = answersFromBatch(bodies, {
+      kind: 'results',
+      results: [
+        { id: bodies[0].id, status: 201, reading: reading(bodies[0].id) },
+        { id: bodies[1].id, status: 200, reading: reading(bodies[1].id, true) },
+        { id: bodies[2].id, status: 409, problem: problem(409, 'step-removed', 'This step was taken off the checklist') },
+        { id: bodies[3].id, status: 500, problem: problem(500, 'server-error', 'Something went wrong') },
+      ],
+    });
+    expect(answers.map((a) => classifyAnswer(a.answer))).toEqual([
+      { kind: 'done', venueReopened: false },
+      { kind: 'done', venueReopened: true },
+      { kind: 'problem', problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'This step was taken off the checklist' } },
+      { kind: 'retry', reason: 'server' },
+    ]);
+    expect(answers[0].reading).toMatchObject({ id: bodies[0].id });
+    expect(answers[2].reading).toBeUndefined();
+  });
+
+  test('when the whole batch got no answer or a refusal, then every reading has that answer', () => {
+    expect(answersFromBatch(bodies, { kind: 'network' }).map((a) => classifyAnswer(a.answer).kind)).toEqual(['retry', 'retry', 'retry', 'retry']);
+    const refused = answersFromBatch(bodies, { kind: 'http', status: 403, code: 'forbidden', message: 'no' });
+    expect(refused.map((a) => classifyAnswer(a.answer))).toEqual(bodies.map(() => ({ kind: 'problem', problem: { kind: 'not-assigned', status: 403, code: 'forbidden', message: 'no' } })));
+    expect(answersFromBatch(bodies, { kind: 'http', status: 401 }).every((a) => classifyAnswer(a.answer).kind === 'retry')).toBe(true);
+  });
+
+  test('when a result is missing or names another reading, then that reading counts as not answered and is sent again', () => {
+    const answers = answersFromBatch(bodies.slice(0, 3), {
+      kind: 'results',
+      results: [
+        { id: bodies[0].id, status: 201, reading: reading(bodies[0].id) },
+        { id: bodies[2].id, status: 201, reading: reading(bodies[2].id) },
+      ],
+    });
+    expect(answers.map((a) => classifyAnswer(a.answer).kind)).toEqual(['done', 'retry', 'retry']);
+  });
+
+  test('readings go in batches of at most 200, in typing order', () => {
+    const many = Array.from({ length: 450 }, (_, i) => i);
+    const batches = inBatches(many);
+    expect(batches.map((b) => b.length)).toEqual([200, 200, 50]);
+    expect(batches.flat()).toEqual(many);
   });
 });
 

@@ -62,6 +62,8 @@ interface Row {
   route: string;
   path: (c: Ctx, a: Actor) => string;
   expect: Expect;
+  /** For a batch answered 200: the status of the reading inside, per actor (the check per object). */
+  results?: Expect;
   body?: (c: Ctx, a: Actor) => unknown;
   attach?: (c: Ctx, a: Actor) => { field: string; data: Buffer; filename: string; fields?: Record<string, string> };
   text?: (c: Ctx) => { type: string; data: string };
@@ -124,6 +126,8 @@ function rows(): Row[] {
     { route: 'GET /api/venues/:id/strips', path: (c) => `/api/venues/${c.hall}/strips`, expect: READ_VENUE() },
     { route: 'GET /api/strips/:id', path: (c) => `/api/strips/${c.stripId}`, expect: READ_VENUE() },
     { route: 'POST /api/readings', path: () => '/api/readings', body: (c) => ({ id: id(), stepId: c.stepId, value: '0.5' }), expect: TEST_VENUE(201) },
+    // The batch is let in for testers; each reading in it meets the same per-venue check as alone.
+    { route: 'POST /api/readings/batch', path: () => '/api/readings/batch', body: (c) => ({ readings: [{ id: id(), stepId: c.stepId, value: '0.5' }] }), expect: [401, 200, 200, 200, 200, 403, 403], results: TEST_VENUE(201) },
     { route: 'GET /api/readings/:id', path: (c) => `/api/readings/${c.readingId}`, expect: READ_VENUE() },
     // A technician's or director's own test-lead null: no venue involved, any tester records one.
     { route: 'POST /api/lead-nulls', path: () => '/api/lead-nulls', body: () => ({ id: id(), value: '0.12' }), expect: [401, 201, 201, 201, 201, 403, 403] },
@@ -332,6 +336,9 @@ describe('access matrix', () => {
           wrong.push(`${row.route} as ${actor}: ${res.status}, expected ${want} — ${detail}`);
         } else if (res.status >= 400 && !res.type.startsWith('application/problem+json')) {
           wrong.push(`${row.route} as ${actor}: ${res.status} without problem+json (${res.type})`);
+        } else if (row.results && res.status === 200) {
+          const inner = (res.body as { results: { status: number; problem?: { detail: string } }[] }).results[0];
+          if (inner.status !== row.results[i]) wrong.push(`${row.route} as ${actor}: the reading inside answered ${inner.status}, expected ${row.results[i]} — ${inner.problem?.detail ?? ''}`);
         }
       }
     }

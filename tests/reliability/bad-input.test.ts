@@ -84,6 +84,7 @@ function validBody(route: string): Record<string, unknown> | null {
     'POST /api/users': { email: 'someone@lakeshore.example', name: 'Someone', role: 'technician' },
     'PATCH /api/users/:id': { name: 'Fuzz Target' },
     'POST /api/readings': { id: randomUUID(), stepId: params.steps, value: '0.5', leadNullId: null },
+    'POST /api/readings/batch': { readings: [{ id: randomUUID(), stepId: params.steps, value: '0.5', leadNullId: null }] },
     'POST /api/faults': { positionId: params.positions, kind: 'open', conductors: 'A' },
     'PATCH /api/faults/:id': { notes: 'x' },
     'POST /api/faults/:id/estimates': { method: 'flex', distanceM: 3, uncertaintyM: 0.2, fromEnd: 'near' },
@@ -180,6 +181,27 @@ describe('bad input to every JSON route', () => {
         );
       }
     }
+  });
+});
+
+describe('bad input inside a batch of readings', () => {
+  test('near-valid readings in a batch: each result is a reading or a refusal with its problem, never a 500, and the answer is 200', { timeout: 60_000 }, async () => {
+    const reading = { id: randomUUID(), stepId: params.steps, value: '0.5' };
+    await fc.assert(
+      fc.asyncProperty(fc.array(fc.oneof(nearValid(reading), fc.jsonValue({ maxDepth: 2 })), { minLength: 1, maxLength: 8 }), async (list) => {
+        const body = JSON.stringify({ readings: list });
+        const res = await as.director.post('/api/readings/batch').set('Content-Type', 'application/json').send(body);
+        expect(res.status, `${body.slice(0, 200)} → ${res.status} ${res.text?.slice(0, 200)}`).toBe(200);
+        const results = res.body.results as { status: number; reading?: unknown; problem?: { status: number; detail: string } }[];
+        expect(results).toHaveLength(list.length);
+        for (const r of results) {
+          expect(r.status, `${body.slice(0, 200)} → ${JSON.stringify(r).slice(0, 200)}`).toBeLessThan(500);
+          if (r.status >= 400) expect(r.problem?.status).toBe(r.status);
+          else expect(r.reading).toBeTruthy();
+        }
+      }),
+      { numRuns: RUNS },
+    );
   });
 });
 

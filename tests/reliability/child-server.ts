@@ -113,3 +113,12 @@ export function postReading(base: string, cookie: string, body: { id: string; st
     signal,
   });
 }
+
+export function postBatch(base: string, cookie: string, readings: { id: string; stepId: string; value: string }[], signal?: AbortSignal) {
+  return fetch(`${base}/api/readings/batch`, {
+    method: 'POST',
+    headers: { 'Content-Type': 'application/json', Origin: base, Cookie: cookie },
+    body: JSON.stringify({ readings }),
+    signal,
+  });
+}

@@ -25,7 +25,7 @@ export const DEMO = {
 const quietLog: Logger = { info: () => {}, error: (msg, err) => console.error(msg, err) };
 
 /** A real SQLite file per test file, copied from the migrated template, with the demo scenario. */
-export async function createTestApp(opts: { seed?: boolean; env?: Record<string, string> } = {}) {
+export async function createTestApp(opts: { seed?: boolean; env?: Record<string, string>; distDir?: string } = {}) {
   const dir = resolve('.tmp/test-db', randomUUID());
   mkdirSync(dir, { recursive: true });
   const dbPath = resolve(dir, 'test.db');
@@ -52,7 +52,7 @@ export async function createTestApp(opts: { seed?: boolean; env?: Record<string,
     version: '0.0.0-test',
   };
   if (opts.seed !== false) await seedDemo(db, TEST_SCRYPT);
-  const app = createApp(deps);
+  const app = createApp(deps, { distDir: opts.distDir });
   const request = supertest(app);
 
   /** A supertest agent signed in as the given demo user, sending our Origin on every write. */

@@ -7,7 +7,8 @@ import { formatBytes } from '../utils/idempotency-key';
 
 /**
  * Take a photo with the tablet's camera, or choose a file (photo, scope trace CSV, PDF). Shows the
- * upload's progress; a dropped upload can be sent again and is recognised, not stored twice.
+ * upload's progress; a dropped upload can be sent again and is recognised, not stored twice. Says
+ * that the server removes a photo's location and device serial before storing it.
  */
 export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType: AttachmentOwnerType; ownerId: string; camera?: boolean }) {
   const { state, start, retry, reset } = useUploadAttachment(ownerType, ownerId);
@@ -59,6 +60,9 @@ export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType
       <p className="text-xs text-ink-soft">
         Photos (JPEG, PNG, WebP, HEIC) up to {formatBytes(ATTACHMENT_MAX_BYTES.photo)}, scope traces (CSV: time in s, volts) up to{' '}
         {formatBytes(ATTACHMENT_MAX_BYTES.trace)}, PDFs up to {formatBytes(ATTACHMENT_MAX_BYTES.pdf)}.
+      </p>
+      <p className="text-xs text-ink-soft" data-testid="photo-privacy">
+        Photos are kept without their location (GPS) and the device&apos;s serial number; which way up they are and when they were taken stay.
       </p>
 
       {state.phase === 'sending' && (

@@ -2,19 +2,22 @@
 // has them. Written to disk before the screen moves on, so a reload, a crash or a closed browser
 // loses nothing; replayed in typing order when the network is there (at start, on the browser's
 // online event, and on a backoff timer). Replays are safe: the server knows a reading by its id.
-import { createStore, del, entries, set } from 'idb-keyval';
+import { createStore, del, delMany, entries, set, setMany } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
+import { sendReadingBatch } from '../api/send-reading-batch';
 import { sendLeadNull } from '../api/send-lead-null';
 import {
   addToQueue,
   applyOutcome,
   byTypingOrder,
   classifyAnswer,
+  inBatches,
   makeSeq,
   nextDueAt,
   planSend,
   upgradeLegacyItems,
   type Answer,
+  type BatchAnswer,
   type LeadNullRecord,
   type QueuedReading,
   type ReadingBody,
@@ -109,6 +112,17 @@ async function remove(id: string) {
   changed();
 }
 
+/** The answers of one send, on disk in one go (a batch is hundreds of readings). */
+async function putAndRemove(keep: QueuedReading[], gone: string[]) {
+  if (db) {
+    if (keep.length) await setMany(keep.map((i) => [i.id, i] as [string, QueuedReading]), db);
+    if (gone.length) await delMany(gone, db);
+  }
+  const replaced = new Set([...gone, ...keep.map((i) => i.id)]);
+  setState({ items: [...state.items.filter((i) => !replaced.has(i.id)), ...keep].sort(byTypingOrder) });
+  changed();
+}
+
 /** Asks the browser not to clear our storage under pressure (readings live there until sent). */
 function askForPersistentStorage() {
   void navigator.storage?.persist?.().catch(() => undefined);
@@ -169,6 +183,54 @@ function schedule() {
   timer = setTimeout(() => void flush(), Math.max(0, due - Date.now()) + 50);
 }
 
+/**
+ * Applies each reading's answer by the queue's rules and stores the result; says why sending must
+ * stop (no answer, the server busy or failing, the session lapsed), or null to go on.
+ */
+async function settle(items: QueuedReading[], answers: BatchAnswer[], touched: { stripIds: Set<string>; venueIds: Set<string> }) {
+  const now = Date.now();
+  const keep: QueuedReading[] = [];
+  const gone: string[] = [];
+  const recorded: [SentReading, QueuedReading][] = [];
+  let stop: OutboxState['lastStop'] = null;
+  items.forEach((item, i) => {
+    const { answer, reading } = answers[i];
+    const outcome = classifyAnswer(answer);
+    const next = applyOutcome(item, outcome, now);
+    if (next) keep.push(next);
+    else gone.push(item.id);
+    if (outcome.kind === 'done' && reading) recorded.push([reading, item]);
+    if (outcome.kind === 'retry') stop ??= outcome.reason;
+  });
+  await putAndRemove(keep, gone);
+  for (const [reading, item] of recorded) {
+    touched.stripIds.add(item.stripId);
+    touched.venueIds.add(item.venueId);
+    handlers.onRecorded?.(reading, item);
+  }
+  return stop;
+}
+
+/**
+ * Sends the test-lead nulls these readings use that the server may not have yet (a replay when it
+ * has), in typing order. Answers the refusal, or the missing answer, of each null that did not go.
+ */
+async function sendNullsOf(chunk: QueuedReading[]): Promise<Map<string, Answer>> {
+  const failed = new Map<string, Answer>();
+  const tried = new Set<string>();
+  for (const { leadNull: n } of chunk) {
+    if (!n || nullsOnServer.has(n.id) || tried.has(n.id)) continue;
+    tried.add(n.id);
+    const answer = await sendLeadNull(n);
+    if (answer.kind === 'http' && answer.status < 300) nullsOnServer.add(n.id);
+    else {
+      failed.set(n.id, answer);
+      if (classifyAnswer(answer).kind === 'retry') break;
+    }
+  }
+  return failed;
+}
+
 async function pass(force: boolean) {
   const userId = state.userId;
   if (!userId) return;
@@ -182,29 +244,21 @@ async function pass(force: boolean) {
     if (send.length === 0) break;
     setState({ syncing: true });
     let progressed = false;
-    for (const item of send) {
-      // The test-lead null a reading uses goes first; if it is refused, so is the reading.
-      let answer: Answer | undefined;
-      let reading: SentReading | undefined;
-      if (item.leadNull && !nullsOnServer.has(item.leadNull.id)) {
-        const sent = await sendLeadNull(item.leadNull);
-        if (sent.kind === 'http' && sent.status < 300) nullsOnServer.add(item.leadNull.id);
-        else answer = sent;
-      }
-      if (!answer) ({ answer, reading } = await sendReading(item.body));
-      const outcome = classifyAnswer(answer);
-      const next = applyOutcome(item, outcome, Date.now());
-      if (next) await put(next);
-      else await remove(item.id);
-      if (outcome.kind === 'done' && reading) {
-        touched.stripIds.add(item.stripId);
-        touched.venueIds.add(item.venueId);
-        handlers.onRecorded?.(reading, item);
-      }
-      if (outcome.kind === 'retry') {
-        stop = outcome.reason;
+    // One reading alone as before; more go in batches, each result read by the same rules.
+    for (const chunk of send.length === 1 ? [send] : inBatches(send)) {
+      // The test-lead nulls the readings use go first; a reading whose null is refused is refused too.
+      const failed = await sendNullsOf(chunk);
+      const lost = [...failed.values()].find((a) => classifyAnswer(a).kind === 'retry');
+      if (lost) {
+        stop = await settle(chunk, chunk.map(() => ({ answer: lost })), touched);
         break;
       }
+      const blocked = chunk.filter((i) => i.leadNull && failed.has(i.leadNull.id));
+      const ready = chunk.filter((i) => !blocked.includes(i));
+      const answers: BatchAnswer[] =
+        ready.length === 0 ? [] : ready.length === 1 ? [await sendReading(ready[0].body)] : await sendReadingBatch(ready.map((i) => i.body));
+      stop = await settle([...blocked, ...ready], [...blocked.map((i) => ({ answer: failed.get(i.leadNull!.id)! })), ...answers], touched);
+      if (stop) break;
       progressed = true;
     }
     if (stop || !progressed) break;

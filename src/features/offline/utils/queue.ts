@@ -1,6 +1,6 @@
 // The rules of the tablet's outbox, without storage or network: what to send next, how to read
 // the server's answer, and what the sync indicator says. Pure, so it is tested on its own.
-import type { VerdictName } from '@shared/schemas/readings';
+import { READINGS_BATCH_MAX, type ReadingBatchResult, type ReadingDto, type VerdictName } from '@shared/schemas/readings';
 import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
 
 export type { LeadNullRecord };
@@ -66,6 +66,39 @@ export interface QueuedReading {
 export type Answer =
   | { kind: 'network' }
   | { kind: 'http'; status: number; code?: string; message?: string; venueReopened?: boolean; retryAfterS?: number };
+
+/** A reading's answer taken out of a batch, with the stored reading when it was recorded. */
+export interface BatchAnswer {
+  answer: Answer;
+  reading?: ReadingDto & { venueReopened?: boolean };
+}
+
+/** What came back from one batch: nothing, a refusal of the whole request, or a result per reading. */
+export type BatchReply = { kind: 'network' } | { kind: 'http'; status: number; code?: string; message?: string } | { kind: 'results'; results: ReadingBatchResult[] };
+
+/**
+ * One answer per reading sent, as if each had been sent alone: a refusal of the whole batch (or no
+ * answer) is that reading's answer too; a result is read like a single reading's answer. A reading
+ * the server's results do not account for (they should, in order) is taken as not answered.
+ */
+export function answersFromBatch(bodies: ReadingBody[], reply: BatchReply): BatchAnswer[] {
+  if (reply.kind !== 'results') return bodies.map(() => ({ answer: reply }));
+  return bodies.map((body, i) => {
+    const r = reply.results[i];
+    if (!r || r.id !== body.id) return { answer: { kind: 'network' } };
+    if (r.status >= 200 && r.status < 300 && r.reading) {
+      return { answer: { kind: 'http', status: r.status, venueReopened: r.reading.venueReopened === true }, reading: r.reading };
+    }
+    return { answer: { kind: 'http', status: r.status, code: r.problem?.code, message: r.problem?.detail } };
+  });
+}
+
+/** More than one reading to send goes in batches of at most READINGS_BATCH_MAX, in typing order. */
+export function inBatches<T>(items: T[], size = READINGS_BATCH_MAX): T[][] {
+  const out: T[][] = [];
+  for (let i = 0; i < items.length; i += size) out.push(items.slice(i, i + size));
+  return out;
+}
 
 export type Outcome =
   | { kind: 'done'; venueReopened: boolean }
