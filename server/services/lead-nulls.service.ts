@@ -34,11 +34,16 @@ export function leadNullsService(deps: AppDeps) {
       const repo = leadNullsRepository(tx);
       const existing = repo.findById(body.id);
       if (existing) {
-        const same = existing.leadNull.takenBy === user.id && existing.leadNull.valueText === body.value && existing.leadNull.meter === meter;
+        const same =
+          existing.leadNull.takenBy === user.id && existing.leadNull.valueText === body.value && existing.leadNull.meter === meter;
         if (!same) {
-          throw unprocessable('idempotency-mismatch', 'A test-lead null with this id was already recorded with different content. Make a new id for a new null.', {
-            errors: [{ path: 'id', message: 'This id belongs to a different test-lead null' }],
-          });
+          throw unprocessable(
+            'idempotency-mismatch',
+            'A test-lead null with this id was already recorded with different content. Make a new id for a new null.',
+            {
+              errors: [{ path: 'id', message: 'This id belongs to a different test-lead null' }],
+            },
+          );
         }
         return { replayed: true, leadNull: present(existing.leadNull, existing.takenByName) };
       }
@@ -64,7 +69,12 @@ export function leadNullsService(deps: AppDeps) {
         action: 'lead-null.recorded',
         entityType: 'lead-null',
         entityId: row.id,
-        detail: { value: body.value, valueOhm: parsed.valueOhm, meter, ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}) },
+        detail: {
+          value: body.value,
+          valueOhm: parsed.valueOhm,
+          meter,
+          ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
+        },
       });
       return { replayed: false, leadNull: present(row, user.name) };
     });

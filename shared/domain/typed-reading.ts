@@ -2,7 +2,15 @@
 // and the benchmarks turn what a technician typed into a value and a verdict. The test-lead null
 // is subtracted only when one is given (no default), and is checked here like the reading itself.
 
-import { evaluateReading, NoRuleError, ReadingInputError, type EquipmentKind, type LimitProfile, type TestKind, type Verdict } from './limits';
+import {
+  evaluateReading,
+  NoRuleError,
+  ReadingInputError,
+  type EquipmentKind,
+  type LimitProfile,
+  type TestKind,
+  type Verdict,
+} from './limits';
 import { formatOhm, LEAD_NULL_MAX_OHM, parseReading, roundSignificant } from './units';
 
 export interface TypedReadingContext {
@@ -89,7 +97,12 @@ export interface ReadingValueView {
   leadNull: string | null;
 }
 
-export function readingValueView(r: { valueText: string; valueOhm: number | null; overRange: boolean; leadOffsetOhm: number | null }): ReadingValueView {
+export function readingValueView(r: {
+  valueText: string;
+  valueOhm: number | null;
+  overRange: boolean;
+  leadOffsetOhm: number | null;
+}): ReadingValueView {
   if (r.overRange) return { value: 'OL', typed: null, leadNull: null };
   if (r.valueOhm === null) return { value: r.valueText, typed: null, leadNull: null };
   const value = formatOhm(r.valueOhm);

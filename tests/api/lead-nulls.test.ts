@@ -16,7 +16,14 @@ describe('POST /api/lead-nulls', () => {
     const body = { id: randomUUID(), value: '0,12', meter: 'Meter 1', takenAt: new Date(Date.now() - 60_000).toISOString() };
     const first = await sam.post('/api/lead-nulls').send(body);
     expect(first.status).toBe(201);
-    expect(first.body).toMatchObject({ id: body.id, valueText: '0,12', valueOhm: 0.12, meter: 'Meter 1', takenAt: body.takenAt, takenByName: 'Sam Reyes' });
+    expect(first.body).toMatchObject({
+      id: body.id,
+      valueText: '0,12',
+      valueOhm: 0.12,
+      meter: 'Meter 1',
+      takenAt: body.takenAt,
+      takenByName: 'Sam Reyes',
+    });
     expect((await sam.post('/api/lead-nulls').send(body)).status).toBe(200);
     const other = await sam.post('/api/lead-nulls').send({ ...body, value: '0.13' });
     expect(other.status).toBe(422);

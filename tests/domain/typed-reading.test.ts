@@ -4,7 +4,13 @@ import { DEFAULT_LIMIT_PROFILE } from '../../shared/domain/limits';
 import { describeReadingValue, judgeTypedReading, parseLeadNull, readingValueView } from '../../shared/domain/typed-reading';
 import { LEAD_NULL_MAX_OHM } from '../../shared/domain/units';
 
-const reelContinuity = { profile: DEFAULT_LIMIT_PROFILE, equipmentKind: 'reel', testKind: 'continuity', conductors: 'A', lengthM: 20 } as const;
+const reelContinuity = {
+  profile: DEFAULT_LIMIT_PROFILE,
+  equipmentKind: 'reel',
+  testKind: 'continuity',
+  conductors: 'A',
+  lengthM: 20,
+} as const;
 
 describe('judgeTypedReading: one parse-and-judge for server, tablet, demo data and benchmarks', () => {
   test('the lead null is subtracted before judging: 3.05 Ω typed on a reel fails the 3 Ω limit, 2.95 Ω after a 0.1 Ω null passes near the limit', () => {
@@ -28,12 +34,21 @@ describe('judgeTypedReading: one parse-and-judge for server, tablet, demo data a
 
   test('a null above the reading is refused on the value; over range ignores the null', () => {
     expect(judgeTypedReading('0.2', reelContinuity, 0.3)).toMatchObject({ ok: false, field: 'value' });
-    expect(judgeTypedReading('OL', { ...reelContinuity, testKind: 'insulation', conductors: 'A-B' }, 0.3)).toMatchObject({ ok: true, overRange: true, valueOhm: null, verdict: { verdict: 'pass' } });
+    expect(judgeTypedReading('OL', { ...reelContinuity, testKind: 'insulation', conductors: 'A-B' }, 0.3)).toMatchObject({
+      ok: true,
+      overRange: true,
+      valueOhm: null,
+      verdict: { verdict: 'pass' },
+    });
   });
 
   test('the engine’s refusals come back as a field and a message, not as exceptions', () => {
     expect(judgeTypedReading('1', { ...reelContinuity, conductors: 'A-B' })).toMatchObject({ ok: false, field: 'conductors' });
-    expect(judgeTypedReading('1', { ...reelContinuity, equipmentKind: 'piste' })).toMatchObject({ ok: false, field: 'stepId', code: 'no-limit-rule' });
+    expect(judgeTypedReading('1', { ...reelContinuity, equipmentKind: 'piste' })).toMatchObject({
+      ok: false,
+      field: 'stepId',
+      code: 'no-limit-rule',
+    });
     expect(judgeTypedReading('1', { ...reelContinuity, temperatureC: 200 })).toMatchObject({ ok: false, field: 'temperatureC' });
   });
 
@@ -59,12 +74,30 @@ describe('parseLeadNull', () => {
 
 describe('readingValueView: the value with its unit, and both figures when a null was subtracted', () => {
   test('with and without a null', () => {
-    expect(readingValueView({ valueText: '0.8', valueOhm: 0.8, overRange: false, leadOffsetOhm: null })).toEqual({ value: '0.8 Ω', typed: null, leadNull: null });
-    expect(readingValueView({ valueText: '850m', valueOhm: 0.75, overRange: false, leadOffsetOhm: 0.1 })).toEqual({ value: '0.75 Ω', typed: '0.85 Ω', leadNull: '0.1 Ω' });
-    expect(readingValueView({ valueText: 'OL', valueOhm: null, overRange: true, leadOffsetOhm: 0.1 })).toEqual({ value: 'OL', typed: null, leadNull: null });
-    expect(describeReadingValue({ valueText: '1.3', valueOhm: 1.2, overRange: false, leadOffsetOhm: 0.1 })).toBe('1.2 Ω (typed 1.3 Ω − 0.1 Ω lead null)');
+    expect(readingValueView({ valueText: '0.8', valueOhm: 0.8, overRange: false, leadOffsetOhm: null })).toEqual({
+      value: '0.8 Ω',
+      typed: null,
+      leadNull: null,
+    });
+    expect(readingValueView({ valueText: '850m', valueOhm: 0.75, overRange: false, leadOffsetOhm: 0.1 })).toEqual({
+      value: '0.75 Ω',
+      typed: '0.85 Ω',
+      leadNull: '0.1 Ω',
+    });
+    expect(readingValueView({ valueText: 'OL', valueOhm: null, overRange: true, leadOffsetOhm: 0.1 })).toEqual({
+      value: 'OL',
+      typed: null,
+      leadNull: null,
+    });
+    expect(describeReadingValue({ valueText: '1.3', valueOhm: 1.2, overRange: false, leadOffsetOhm: 0.1 })).toBe(
+      '1.2 Ω (typed 1.3 Ω − 0.1 Ω lead null)',
+    );
     expect(describeReadingValue({ valueText: '22 MΩ', valueOhm: 22e6, overRange: false, leadOffsetOhm: 0 })).toBe('22 MΩ');
     // A null too small to change the figure shown is not spelled out.
-    expect(readingValueView({ valueText: '54 MΩ', valueOhm: 54e6 - 0.05, overRange: false, leadOffsetOhm: 0.05 })).toEqual({ value: '54 MΩ', typed: null, leadNull: null });
+    expect(readingValueView({ valueText: '54 MΩ', valueOhm: 54e6 - 0.05, overRange: false, leadOffsetOhm: 0.05 })).toEqual({
+      value: '54 MΩ',
+      typed: null,
+      leadNull: null,
+    });
   });
 });

@@ -4,12 +4,12 @@
 // the history of venues they are not assigned to. Each test is an attack that worked before.
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { randomUUID } from 'node:crypto';
-import { spawnSync } from 'node:child_process';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from '../api/testing-helpers';
 import { auditLog, certificates, faults, leadNulls, readings, venues } from '../../server/db/schema';
 import type { CertificatePayload } from '../../server/signing/certificate-record';
+import { pdfText } from '../setup/pdf-read';
 
 let t: TestApp;
 let hall: string;
@@ -21,7 +21,8 @@ beforeAll(async () => {
 afterAll(() => t.close());
 
 const faultRow = (id: string) => t.db.select().from(faults).where(eq(faults.id, id)).get()!;
-const etagOf = async (agent: Awaited<ReturnType<TestApp['agentFor']>>, faultId: string) => (await agent.get(`/api/faults/${faultId}`)).headers.etag as string;
+const etagOf = async (agent: Awaited<ReturnType<TestApp['agentFor']>>, faultId: string) =>
+  (await agent.get(`/api/faults/${faultId}`)).headers.etag as string;
 
 describe('a correction never closes a fault', () => {
   test('a failing reading corrected to a pass with a short reason: refused; with a real reason: recorded, and the fault stays open', async () => {
@@ -32,12 +33,16 @@ describe('a correction never closes a fault', () => {
     expect(fail.body.verdict).toBe('fail');
     const faultId = fail.body.faultId as string;
 
-    const short = await sam.post('/api/readings').send(newReading(step.id, '0.55', { supersedesId: fail.body.id, correctionReason: 'oops' }));
+    const short = await sam
+      .post('/api/readings')
+      .send(newReading(step.id, '0.55', { supersedesId: fail.body.id, correctionReason: 'oops' }));
     expect(short.status).toBe(422);
     expect(short.body.errors[0]).toMatchObject({ path: 'correctionReason' });
     expect(short.body.errors[0].message).toMatch(/at least 10 characters/);
 
-    const fix = await sam.post('/api/readings').send(newReading(step.id, '0.55', { supersedesId: fail.body.id, correctionReason: 'Missed the decimal point' }));
+    const fix = await sam
+      .post('/api/readings')
+      .send(newReading(step.id, '0.55', { supersedesId: fail.body.id, correctionReason: 'Missed the decimal point' }));
     expect(fix.status).toBe(201);
     expect(fix.body.verdict).toBe('pass');
     expect(faultRow(faultId).status).toBe('open');
@@ -52,7 +57,10 @@ describe('a correction never closes a fault', () => {
     const fail = await sam.post('/api/readings').send(newReading(step.id, 'OL'));
     const faultId = fail.body.faultId as string;
     for (const status of ['closed', 'repaired']) {
-      const res = await sam.patch(`/api/faults/${faultId}`).set('If-Match', await etagOf(sam, faultId)).send({ status });
+      const res = await sam
+        .patch(`/api/faults/${faultId}`)
+        .set('If-Match', await etagOf(sam, faultId))
+        .send({ status });
       expect(res.status, status).toBe(422);
       expect(res.body.errors[0].path).toBe('status');
     }
@@ -94,23 +102,43 @@ describe('a correction never closes a fault', () => {
     const { step } = stepOf(strip, 'Left floor cable', 'continuity', 'C');
     const fail = await sam.post('/api/readings').send(newReading(step.id, '45'));
     const faultId = fail.body.faultId as string;
-    await sam.post('/api/readings').send(newReading(step.id, '0.45', { supersedesId: fail.body.id, correctionReason: 'Missed the decimal point' })).expect(201);
+    await sam
+      .post('/api/readings')
+      .send(newReading(step.id, '0.45', { supersedesId: fail.body.id, correctionReason: 'Missed the decimal point' }))
+      .expect(201);
 
     const reason = 'Typed 45 for 0.45; the meter showed 0.45 Ω, checked again with Sam.';
-    const bySam = await sam.post(`/api/faults/${faultId}/dismiss`).set('If-Match', await etagOf(sam, faultId)).send({ reason });
+    const bySam = await sam
+      .post(`/api/faults/${faultId}/dismiss`)
+      .set('If-Match', await etagOf(sam, faultId))
+      .send({ reason });
     expect(bySam.status).toBe(403);
-    const terse = await marco.post(`/api/faults/${faultId}/dismiss`).set('If-Match', await etagOf(marco, faultId)).send({ reason: 'typo' });
+    const terse = await marco
+      .post(`/api/faults/${faultId}/dismiss`)
+      .set('If-Match', await etagOf(marco, faultId))
+      .send({ reason: 'typo' });
     expect(terse.status).toBe(422);
     expect(terse.body.errors[0].message).toMatch(/at least 20 characters/);
     expect((await marco.post(`/api/faults/${faultId}/dismiss`).send({ reason })).status).toBe(428);
 
-    const ok = await marco.post(`/api/faults/${faultId}/dismiss`).set('If-Match', await etagOf(marco, faultId)).send({ reason });
+    const ok = await marco
+      .post(`/api/faults/${faultId}/dismiss`)
+      .set('If-Match', await etagOf(marco, faultId))
+      .send({ reason });
     expect(ok.status).toBe(200);
     expect(ok.body).toMatchObject({ status: 'closed', dismissal: { reason, byName: 'Marco Dal Bello' } });
-    const audit = t.db.select().from(auditLog).where(eq(auditLog.entityId, faultId)).all().find((a) => a.action === 'fault.dismissed')!;
+    const audit = t.db
+      .select()
+      .from(auditLog)
+      .where(eq(auditLog.entityId, faultId))
+      .all()
+      .find((a) => a.action === 'fault.dismissed')!;
     expect(JSON.parse(audit.detailJson)).toMatchObject({ reason, previousStatus: 'open' });
     expect((await stripByLabel(t, hall, 'Strip 17')).openFaults.some((f) => f.id === faultId)).toBe(false);
-    const again = await marco.post(`/api/faults/${faultId}/dismiss`).set('If-Match', await etagOf(marco, faultId)).send({ reason });
+    const again = await marco
+      .post(`/api/faults/${faultId}/dismiss`)
+      .set('If-Match', await etagOf(marco, faultId))
+      .send({ reason });
     expect(again.status).toBe(409);
   });
 });
@@ -135,7 +163,9 @@ describe('the test-lead null is a record of its own', () => {
     const ok = await sam.post('/api/lead-nulls').send({ id: randomUUID(), value: '0.4', meter: 'Meter 1' });
     expect(ok.status).toBe(201);
     const strip = await stripByLabel(t, hall, 'Strip 18');
-    const below = await sam.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'B').step.id, '0.3', { leadNullId: ok.body.id }));
+    const below = await sam
+      .post('/api/readings')
+      .send(newReading(stepOf(strip, 'Left reel', 'continuity', 'B').step.id, '0.3', { leadNullId: ok.body.id }));
     expect(below.status).toBe(422);
     expect(below.body.detail).toMatch(/below the nulled test-lead resistance/);
   });
@@ -182,10 +212,15 @@ describe('revoking certificates', () => {
     const certs = signed.body.certificates as { number: string; kind: string; stripId?: string }[];
     const venueCert = certs.find((c) => c.kind === 'venue')!.number;
     const strip = certs.find((c) => c.kind === 'strip')!;
-    await marco.post(`/api/certificates/${strip.number}/revoke`).send({ reason: 'The reel was swapped before the first bout.' }).expect(200);
+    await marco
+      .post(`/api/certificates/${strip.number}/revoke`)
+      .send({ reason: 'The reel was swapped before the first bout.' })
+      .expect(200);
     const v = await t.request.get(`/api/verify/${venueCert}`);
     expect(v.body.status).toBe('valid');
-    expect(v.body.notCovering).toEqual([expect.objectContaining({ strip: 'Annex 1', number: strip.number, revokedReason: 'The reel was swapped before the first bout.' })]);
+    expect(v.body.notCovering).toEqual([
+      expect.objectContaining({ strip: 'Annex 1', number: strip.number, revokedReason: 'The reel was swapped before the first bout.' }),
+    ]);
     const others = certs.filter((c) => c.kind === 'strip' && c.number !== strip.number);
     for (const c of others) expect((await t.request.get(`/api/verify/${c.number}`)).body.status).toBe('valid');
   });
@@ -203,7 +238,11 @@ describe('the certificate carries the record', () => {
     expect(f1.status).toBe(201);
     expect(statusOf()).toBe('testing');
     const reason = 'Opened on the wrong strip: Lee meant Annex 2, whose fault was already dismissed.';
-    await marco.post(`/api/faults/${f1.body.id}/dismiss`).set('If-Match', await etagOf(marco, f1.body.id)).send({ reason }).expect(200);
+    await marco
+      .post(`/api/faults/${f1.body.id}/dismiss`)
+      .set('If-Match', await etagOf(marco, f1.body.id))
+      .send({ reason })
+      .expect(200);
     const f2 = await lee.post('/api/faults').send({ positionId: annex4.positions[1].id, kind: 'open', conductors: 'B' }).expect(201);
     const signed = await marco
       .post(`/api/venues/${annex}/sign-off`)
@@ -213,23 +252,36 @@ describe('the certificate carries the record', () => {
     const row = t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!;
     const payload = JSON.parse(row.payloadJson) as CertificatePayload;
     expect(payload.format).toBe('stripwarden-certificate/2');
-    expect(payload.dismissedFaults.map((f) => [f.stripLabel, f.reason, f.dismissedBy])).toContainEqual(['Annex 3', reason, 'Marco Dal Bello']);
+    expect(payload.dismissedFaults.map((f) => [f.stripLabel, f.reason, f.dismissedBy])).toContainEqual([
+      'Annex 3',
+      reason,
+      'Marco Dal Bello',
+    ]);
     expect(payload.dismissedFaults.some((f) => f.faultId === f2.body.id)).toBe(false);
     // Lee's demo readings were all typed with one 0.05 Ω null (Meter 2).
     expect(payload.leadNulls).toContainEqual(expect.objectContaining({ valueOhm: 0.05, takenBy: 'Lee Varga', meter: 'Meter 2' }));
-    const pdf = (await marco.get(`/api/certificates/${venueNumber}/pdf`).buffer(true).parse((res, cb) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (c: Buffer) => chunks.push(c));
-      res.on('end', () => cb(null, Buffer.concat(chunks)));
-    })).body as Buffer;
-    // poppler's pdftotext reads the certificate back as a reader would.
-    const text = spawnSync('pdftotext', ['-layout', '-', '-'], { input: pdf }).stdout.toString('utf8').replace(/\s+/g, ' ');
+    const pdf = (
+      await marco
+        .get(`/api/certificates/${venueNumber}/pdf`)
+        .buffer(true)
+        .parse((res, cb) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => cb(null, Buffer.concat(chunks)));
+        })
+    ).body as Buffer;
+    // PDF.js reads the certificate back as a viewer would.
+    const text = (await pdfText(pdf)).replace(/\s+/g, ' ');
     expect(text).toContain('Annex C');
     expect(text).toContain('Test-lead nulls used');
     expect(text).toContain('Opened on the wrong strip');
     expect(text).toMatch(/LEAD NULL/);
 
-    await marco.post(`/api/faults/${f2.body.id}/dismiss`).set('If-Match', await etagOf(marco, f2.body.id)).send({ reason: 'Opened by mistake: the cable was never tested here.' }).expect(200);
+    await marco
+      .post(`/api/faults/${f2.body.id}/dismiss`)
+      .set('If-Match', await etagOf(marco, f2.body.id))
+      .send({ reason: 'Opened by mistake: the cable was never tested here.' })
+      .expect(200);
     expect(statusOf()).toBe('testing');
     expect(t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!.status).toBe('superseded');
   });

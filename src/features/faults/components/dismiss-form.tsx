@@ -32,8 +32,8 @@ export function DismissForm({ fault }: { fault: FaultDetail }) {
       }}
     >
       <p className="text-sm">
-        Only for a fault opened by a mistyped value: the reading should be corrected first, so its latest value passes. The fault closes without a repair, and the
-        reason is printed on the certificate’s annex with your name.
+        Only for a fault opened by a mistyped value: the reading should be corrected first, so its latest value passes. The fault closes
+        without a repair, and the reason is printed on the certificate’s annex with your name.
       </p>
       <label htmlFor={`dismiss-${fault.id}`} className="text-sm font-medium">
         Why it was a typing mistake (at least {DISMISSAL_REASON_MIN} characters)

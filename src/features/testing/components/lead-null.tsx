@@ -11,7 +11,15 @@ const clock = (iso: string) => new Date(iso).toLocaleTimeString([], { hour: '2-d
  * The test leads' own resistance, measured tips together once per session and subtracted from this
  * technician's readings. Setting it makes a record (an id made here, so it can wait offline).
  */
-export function LeadNull({ leadNull, userId, onChange }: { leadNull: LeadNullRecord | null; userId: string; onChange: (n: LeadNullRecord | null) => void }) {
+export function LeadNull({
+  leadNull,
+  userId,
+  onChange,
+}: {
+  leadNull: LeadNullRecord | null;
+  userId: string;
+  onChange: (n: LeadNullRecord | null) => void;
+}) {
   const [editing, setEditing] = useState(false);
   const [text, setText] = useState('');
   const [meter, setMeter] = useState(leadNull?.meter ?? '');
@@ -42,7 +50,14 @@ export function LeadNull({ leadNull, userId, onChange }: { leadNull: LeadNullRec
         e.preventDefault();
         const p = parseLeadNull(text);
         if (!p.ok) return setError(p.message);
-        onChange({ id: uuidv7(), value: text.trim(), valueOhm: p.valueOhm, meter: meter.trim() || null, takenAt: new Date().toISOString(), userId });
+        onChange({
+          id: uuidv7(),
+          value: text.trim(),
+          valueOhm: p.valueOhm,
+          meter: meter.trim() || null,
+          takenAt: new Date().toISOString(),
+          userId,
+        });
         setEditing(false);
         setText('');
         setError(null);
@@ -50,11 +65,26 @@ export function LeadNull({ leadNull, userId, onChange }: { leadNull: LeadNullRec
     >
       <label className="flex flex-col font-medium">
         Leads with tips touching read (Ω)
-        <input id="lead-null" autoFocus inputMode="decimal" autoComplete="off" className="min-h-touch w-28 rounded-lg border border-line bg-card px-2 text-base" value={text} onChange={(e) => setText(e.target.value)} />
+        <input
+          id="lead-null"
+          autoFocus
+          inputMode="decimal"
+          autoComplete="off"
+          className="min-h-touch w-28 rounded-lg border border-line bg-card px-2 text-base"
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+        />
       </label>
       <label className="flex flex-col font-medium">
         Meter (optional)
-        <input id="lead-null-meter" autoComplete="off" maxLength={80} className="min-h-touch w-40 rounded-lg border border-line bg-card px-2 text-base" value={meter} onChange={(e) => setMeter(e.target.value)} />
+        <input
+          id="lead-null-meter"
+          autoComplete="off"
+          maxLength={80}
+          className="min-h-touch w-40 rounded-lg border border-line bg-card px-2 text-base"
+          value={meter}
+          onChange={(e) => setMeter(e.target.value)}
+        />
       </label>
       <Button type="submit">Save</Button>
       {leadNull !== null && (
@@ -71,7 +101,9 @@ export function LeadNull({ leadNull, userId, onChange }: { leadNull: LeadNullRec
       <Button variant="ghost" onClick={() => setEditing(false)}>
         Cancel
       </Button>
-      <p className="w-full text-xs text-ink-soft">At most {formatOhm(LEAD_NULL_MAX_OHM)}: leads that read more with their tips touching are worn; replace them.</p>
+      <p className="w-full text-xs text-ink-soft">
+        At most {formatOhm(LEAD_NULL_MAX_OHM)}: leads that read more with their tips touching are worn; replace them.
+      </p>
       {error && (
         <p role="alert" className="w-full text-fail">
           {error}
