@@ -198,6 +198,27 @@ export const steps = sqliteTable(
   (t) => [index('steps_position_idx').on(t.positionId)],
 );
 
+// A technician's test-lead null: the leads' own resistance with the probe tips touching, measured
+// once per session and subtracted from that technician's readings. Its own record (who, when,
+// which meter), so a reading says which null it used. The id is made on the tablet, like a
+// reading's, so a null set offline is recognised when it is sent again.
+export const leadNulls = sqliteTable(
+  'lead_nulls',
+  {
+    id: id(),
+    orgId: text('org_id').notNull().references(() => organisations.id),
+    takenBy: text('taken_by').notNull().references(() => users.id),
+    // The sign-in session it was sent from (null if that session is gone from the record).
+    sessionId: text('session_id'),
+    valueText: text('value_text').notNull(),
+    valueOhm: real('value_ohm').notNull(),
+    meter: text('meter'),
+    takenAt: text('taken_at').notNull(),
+    receivedAt: text('received_at').notNull(),
+  },
+  (t) => [index('lead_nulls_taken_by_idx').on(t.takenBy)],
+);
+
 // Append-only: a correction is a new reading that supersedes an earlier one.
 export const readings = sqliteTable(
   'readings',
@@ -208,7 +229,9 @@ export const readings = sqliteTable(
     valueText: text('value_text').notNull(),
     valueOhm: real('value_ohm'),
     overRange: integer('over_range', { mode: 'boolean' }).notNull(),
+    // The test-lead null subtracted (its value, copied when the reading was judged) and its record.
     leadOffsetOhm: real('lead_offset_ohm'),
+    leadNullId: text('lead_null_id').references(() => leadNulls.id),
     temperatureC: real('temperature_c'),
     verdict: text('verdict', { enum: ['pass', 'near-limit', 'fail'] }).notNull(),
     limitOhm: real('limit_ohm'),
@@ -248,6 +271,11 @@ export const faults = sqliteTable(
     openedBy: text('opened_by').notNull().references(() => users.id),
     openedAt: text('opened_at').notNull().default(now),
     closedAt: text('closed_at'),
+    // A fault that was a typing mistake is closed by the event's director with a reason, not by a
+    // correction: who, when and why are kept here (and in the audit trail and on the certificate).
+    dismissedBy: text('dismissed_by').references(() => users.id),
+    dismissedAt: text('dismissed_at'),
+    dismissedReason: text('dismissed_reason'),
   },
   // Every reading looks up its step's unclosed fault and its position's repaired ones.
   (t) => [index('faults_strip_idx').on(t.stripId), index('faults_step_idx').on(t.stepId), index('faults_position_idx').on(t.positionId)],

@@ -8,6 +8,8 @@ import { verifyPassword } from '../auth/password';
 import { accessService } from './access.service';
 import { venuesRepository } from '../db/venues.repository';
 import { signOffRepository } from '../db/sign-off.repository';
+import { faultsRepository } from '../db/faults.repository';
+import { leadNullsRepository } from '../db/lead-nulls.repository';
 import { writeAudit } from '../db/audit.repository';
 import { AppError, conflict, unprocessable } from '../lib/app-error';
 import { newId } from '../lib/ids';
@@ -19,7 +21,9 @@ import {
   readingsDigest,
   verifyUrlFor,
   type CertificatePayload,
+  type CertifiedLeadNull,
   type CertifiedReading,
+  type DismissedFault,
 } from '../signing/certificate-record';
 import { certificateFiles } from '../storage/certificate-files';
 import { sha256Hex } from '../lib/ids';
@@ -115,6 +119,8 @@ function certifiedReadings(snap: ReturnType<typeof snapshot>, readiness: VenueRe
         valueText: reading.valueText,
         valueOhm: reading.valueOhm,
         overRange: reading.overRange,
+        leadNullOhm: reading.leadOffsetOhm,
+        leadNullId: reading.leadNullId,
         limitOhm: reading.limitOhm,
         limitKind: reading.limitKind,
         verdict: reading.verdict,
@@ -126,6 +132,44 @@ function certifiedReadings(snap: ReturnType<typeof snapshot>, readiness: VenueRe
         takenAt: reading.takenAt,
       };
     });
+}
+
+/** The faults of the venue its director dismissed as typing mistakes, on the given strips. */
+function dismissedFaultsOf(db: Db | Tx, venueId: string, stripIds: Set<string>): DismissedFault[] {
+  return faultsRepository(db)
+    .dismissedOfVenue(venueId)
+    .filter((r) => stripIds.has(r.fault.stripId))
+    .map((r) => ({
+      faultId: r.fault.id,
+      stripId: r.fault.stripId,
+      stripLabel: r.stripLabel,
+      position: r.positionName,
+      kind: r.fault.kind,
+      conductors: r.fault.conductors,
+      openedAt: r.fault.openedAt,
+      dismissedById: r.fault.dismissedBy,
+      dismissedBy: r.dismissedByName ?? '',
+      dismissedAt: r.fault.dismissedAt!,
+      reason: r.fault.dismissedReason ?? '',
+    }));
+}
+
+/** The test-lead nulls the readings used, each with who measured it, when and how many readings used it. */
+function leadNullsOf(db: Db | Tx, list: CertifiedReading[]): CertifiedLeadNull[] {
+  const uses = new Map<string, number>();
+  for (const r of list) if (r.leadNullId) uses.set(r.leadNullId, (uses.get(r.leadNullId) ?? 0) + 1);
+  return leadNullsRepository(db)
+    .byIds([...uses.keys()])
+    .map(({ leadNull: n, takenByName }) => ({
+      id: n.id,
+      valueOhm: n.valueOhm,
+      takenById: n.takenBy,
+      takenBy: takenByName ?? '',
+      takenAt: n.takenAt,
+      meter: n.meter,
+      readings: uses.get(n.id) ?? 0,
+    }))
+    .sort((a, b) => a.takenAt.localeCompare(b.takenAt) || a.id.localeCompare(b.id));
 }
 
 function issuesProblem(readiness: VenueReadiness) {
@@ -220,6 +264,8 @@ export function signOffService(deps: AppDeps) {
       await yieldToEventLoop();
       const readings = certifiedReadings(snap, readiness);
       const digest = readingsDigest(readings);
+      const certifiedStripIds = new Set(readiness.strips.filter((s) => s.state === 'ready').map((s) => s.stripId));
+      const dismissed = dismissedFaultsOf(deps.db, venueId, certifiedStripIds);
       const profile = repo.profile(row.venue.profileId)!;
       const org = repo.organisation(row.event.orgId)!;
       const rules = JSON.parse(profile.rulesJson) as LimitRule[];
@@ -280,6 +326,8 @@ export function signOffService(deps: AppDeps) {
             rules: rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
           },
           testedBy: [...testers].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
+          leadNulls: leadNullsOf(deps.db, list),
+          dismissedFaults: dismissed.filter((f) => strips.some((s) => s.id === f.stripId)),
           testedFrom: times[0],
           testedTo: times[times.length - 1],
           signer: { id: user.id, name: me.name, role: 'Technical director' as const },
@@ -343,6 +391,10 @@ export function signOffService(deps: AppDeps) {
           const againReadiness = venueReadiness(again.inputs, exceptions);
           if (!againReadiness.ready || readingsDigest(certifiedReadings(again, againReadiness)) !== digest) {
             throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
+          }
+          const dismissedAgain = dismissedFaultsOf(tx, venueId, certifiedStripIds).map((f) => f.faultId).join();
+          if (dismissedAgain !== dismissed.map((f) => f.faultId).join()) {
+            throw conflict('changed-meanwhile', 'A fault was dismissed while the certificates were being made. Check the venue and sign again.');
           }
           txRepo.insertSignOff({
             id: signOffId,
