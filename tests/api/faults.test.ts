@@ -286,7 +286,7 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
 
   test('estimates saved before lengths were kept get the length the item had then (the migration’s backfill)', async () => {
     const f = await faultOn('Strip 6');
-    const sql = readFileSync('migrations/0003_estimate_item_length_temperature_rule.sql', 'utf8');
+    const sql = readFileSync('migrations/0005_estimate_item_length_temperature_rule.sql', 'utf8');
     const backfill = sql.slice(sql.indexOf('UPDATE `fault_estimates`'));
     const lengths = () => t.db.select().from(faultEstimates).where(eq(faultEstimates.faultId, f.id)).all().map((e) => e.itemLengthM);
     const kept = lengths();

@@ -1,5 +1,6 @@
 ALTER TABLE `fault_estimates` ADD `item_length_m` real;--> statement-breakpoint
-ALTER TABLE `limit_profiles` ADD `temperature_reference_c` real;--> statement-breakpoint
+ALTER TABLE `limit_profiles` ADD `temperature_reference_c` real;
+--> statement-breakpoint
 -- Hand-written backfill: each earlier estimate gets the item's length when it was made, that is the length before the first cut-out after it, else the item's length now.
 UPDATE `fault_estimates` SET `item_length_m` = COALESCE(
   (SELECT r.`length_before_m` FROM `repairs` r JOIN `faults` f ON f.`id` = `fault_estimates`.`fault_id`
