@@ -12,16 +12,12 @@ import { RepairForm } from '@/features/faults/components/repair-form';
 import { METHOD_LABELS, type LocateMethod } from '@/features/faults/utils/methods';
 import { CableDrawing } from '@/components/ui/cable-drawing';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
-import { StatusMark } from '@/components/ui/status-mark';
+import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { FAULT_SYMBOLS, READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 
-const statusLook = {
-  open: { shape: 'triangle', tone: 'fail' },
-  located: { shape: 'diamond', tone: 'fail' },
-  repaired: { shape: 'half', tone: 'near' },
-  closed: { shape: 'circle', tone: 'pass' },
-} as const;
-const verdictLook = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['diamond', 'near', 'Near limit'], fail: ['triangle', 'fail', 'Fail'] } as const;
+const statusLook = FAULT_SYMBOLS;
+const verdictLook = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const ACTION_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped', retired: 'Retired' } as const;
 
 /** A fault: where it is on the cable, how to locate it, the repair, and the way back to the retest. */
@@ -97,7 +93,7 @@ export default function FaultPage() {
                 About {formatLength(shown.distanceM, unit)} ±{formatLength(shown.uncertaintyM, unit)} from the apparatus end
                 {lengthM !== null ? ` (${formatLength(lengthM - shown.distanceM, unit)} from the far end)` : ''}
               </strong>
-              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'triangle'} tone={shown.agree ? 'pass' : 'near'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
+              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'octagon'} tone={shown.agree ? 'pass' : 'brass'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
             </p>
             <p>{shown.count > 1 ? shown.explanation : f.estimates[f.estimates.length - 1]?.explanation}</p>
           </div>

@@ -1,4 +1,5 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { FAULT_SYMBOLS } from '@shared/domain/symbols';
 import { Link, useParams, useSearchParams } from 'react-router';
 import { formatLength } from '@shared/domain/units';
 import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
@@ -169,7 +170,7 @@ export default function StripTestPage() {
           <ul className="mt-2 divide-y divide-line">
             {data.openFaults.map((f) => (
               <li key={f.id} className="flex flex-wrap items-center gap-3 py-2">
-                <StatusMark shape="triangle" tone={f.status === 'repaired' ? 'near' : 'fail'} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
+                <StatusMark shape={FAULT_SYMBOLS[f.status].shape} tone={FAULT_SYMBOLS[f.status].tone} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
                 <span>
                   {f.positionName}: {FAULT_KIND_LABELS[f.kind]} ({f.conductors}){f.equipment ? ` · ${f.equipment.assetTag}` : ''}
                 </span>

@@ -17,7 +17,7 @@ function nearText(r: LimitRule) {
 }
 
 export function HouseRuleMark({ house }: { house: boolean }) {
-  return house ? <StatusMark shape="diamond" tone="brass" label="House rule" size="sm" /> : <StatusMark shape="square" tone="brand" label="Published" size="sm" />;
+  return house ? <StatusMark shape="box" tone="brass" label="House rule" size="sm" /> : <StatusMark shape="square" tone="brand" label="Published" size="sm" />;
 }
 
 /** The rules of one profile version, read only, with their sources. */

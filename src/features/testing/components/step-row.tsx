@@ -270,7 +270,7 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
     const notice = queued.status === 'notice';
     return (
       <div data-testid="queued" data-status={queued.status} className={`mt-2 flex flex-wrap items-center gap-2 rounded-md border-2 px-2 py-1 text-sm ${notice ? 'border-brass bg-brass-soft' : 'border-fail/50 bg-fail-soft'}`}>
-        <StatusMark shape="triangle" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
+        <StatusMark shape="octagon" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
         <strong className="tabular-nums">{queued.display}</strong>
         <span>{queued.title}</span>
         <Link to={paths.onThisTablet} className="inline-flex min-h-touch items-center font-medium text-brand underline">
@@ -281,7 +281,7 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
   }
   return (
     <div data-testid="queued" data-status={queued.status} className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-soft/50 bg-paper px-2 py-1 text-sm">
-      <StatusMark shape={queued.status === 'sending' ? 'half' : 'ring'} tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
+      <StatusMark shape="hourglass" tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
       <strong className="tabular-nums">{queued.display}</strong>
       {queued.verdict && <StatusMark {...verdictLook[queued.verdict]} size="sm" />}
       <span className="text-xs text-ink-soft">
