@@ -67,7 +67,8 @@ export default defineConfig({
     setupFiles: ['tests/setup/fail-on-console-error.ts'],
     globalSetup: ['tests/setup/global-setup.ts'],
     pool: 'forks',
-    testTimeout: 20_000,
-    hookTimeout: 30_000,
+    // Bounds for a loaded two-core machine (a sign-off renders and signs five PDFs), never waits.
+    testTimeout: 60_000,
+    hookTimeout: 60_000,
   },
 });

@@ -6,7 +6,10 @@ import { expect, signIn, test } from './fixtures';
 
 test.use({ viewport: { width: 1024, height: 768 }, hasTouch: true });
 
-const fitsOneScreen = (page: Page) => page.evaluate(() => document.documentElement.scrollHeight <= window.innerHeight && document.documentElement.scrollWidth <= window.innerWidth);
+const fitsOneScreen = (page: Page) =>
+  page.evaluate(
+    () => document.documentElement.scrollHeight <= window.innerHeight && document.documentElement.scrollWidth <= window.innerWidth,
+  );
 
 /** Key presses other than the digits and the decimal point of the value itself. */
 let nonDigitKeys = 0;
@@ -22,7 +25,9 @@ async function enter(page: Page) {
   await page.keyboard.press('Enter');
 }
 
-test('a strip recorded in the grid at 1024 × 768: one screen, ≤ 1 non-digit key per reading, the fault linked, focus kept', async ({ page }) => {
+test('a strip recorded in the grid at 1024 × 768: one screen, ≤ 1 non-digit key per reading, the fault linked, focus kept', async ({
+  page,
+}) => {
   await signIn(page, 'technician');
   await page.goto('/');
   await page.getByRole('link', { name: 'Open venue' }).click();
@@ -133,7 +138,8 @@ test('a strip recorded in the grid at 1024 × 768: one screen, ≤ 1 non-digit k
   }
   for (let i = 0; i < boxes.length; i++)
     for (let j = i + 1; j < boxes.length; j++) {
-      const a = boxes[i], b = boxes[j];
+      const a = boxes[i],
+        b = boxes[j];
       const gapX = Math.max(b.left - a.right, a.left - b.right);
       const gapY = Math.max(b.top - a.bottom, a.top - b.bottom);
       expect(Math.max(gapX, gapY)).toBeGreaterThanOrEqual(12);

@@ -13,7 +13,8 @@ test('the director signs off the annex; the organiser gets the e-mail and the ZI
   await page.getByLabel('Statement on the certificate').fill('All four annex strips tested with the venue kit.');
   await page.getByLabel('Your password, to confirm').fill('demo-strip-2026');
   await page.getByRole('button', { name: 'Sign off and issue certificates' }).click();
-  await expect(page.getByText('Signed off. 5 certificates issued.')).toBeVisible({ timeout: 30_000 });
+  // Five PDFs are made and signed before the answer.
+  await expect(page.getByText('Signed off. 5 certificates issued.')).toBeVisible({ timeout: 60_000 });
 
   // The organiser: the e-mail reached the outbox (read through the admin's mail API).
   const admin = await browser.newContext();

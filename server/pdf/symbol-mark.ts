@@ -3,7 +3,14 @@
 import { SHAPE_PATHS, type SymbolLook } from '../../shared/domain/symbols';
 
 /** Draws `look`'s shape in a `size`-point square at (x, y); returns the width used. */
-export function drawSymbol(doc: PDFKit.PDFDocument, look: Pick<SymbolLook, 'shape'>, x: number, y: number, size: number, colour: string): number {
+export function drawSymbol(
+  doc: PDFKit.PDFDocument,
+  look: Pick<SymbolLook, 'shape'>,
+  x: number,
+  y: number,
+  size: number,
+  colour: string,
+): number {
   const shape = SHAPE_PATHS[look.shape];
   doc.save();
   doc.translate(x, y).scale(size / 16);

@@ -6,7 +6,8 @@
 // "nothing measured yet".
 import { STRIP_STATUS_LABELS, type StripStatus } from './progress';
 
-export type SymbolShape = 'circle' | 'ring' | 'triangle' | 'diamond' | 'target' | 'half' | 'dash' | 'square' | 'box' | 'hourglass' | 'octagon';
+export type SymbolShape =
+  'circle' | 'ring' | 'triangle' | 'diamond' | 'target' | 'half' | 'dash' | 'square' | 'box' | 'hourglass' | 'octagon';
 export type SymbolTone = 'pass' | 'near' | 'fail' | 'idle' | 'brand' | 'brass';
 
 /** The outline of each shape in a 16 × 16 box: `fill` is filled, `stroke` drawn with a 2-unit line. */
@@ -16,7 +17,11 @@ export const SHAPE_PATHS: Record<SymbolShape, { fill?: string; stroke?: string; 
   triangle: { fill: 'M8 1.5 15 14.5H1z', name: 'triangle' },
   diamond: { fill: 'M8 1 15 8 8 15 1 8z', name: 'diamond' },
   target: { fill: 'M8 5.5a2.5 2.5 0 1 1 0 5a2.5 2.5 0 1 1 0-5z', stroke: 'M8 2a6 6 0 1 1 0 12a6 6 0 1 1 0-12z', name: 'ring with a dot' },
-  half: { fill: 'M8 2.25a5.75 5.75 0 0 1 0 11.5z', stroke: 'M8 2.25a5.75 5.75 0 1 1 0 11.5a5.75 5.75 0 1 1 0-11.5z', name: 'half-filled circle' },
+  half: {
+    fill: 'M8 2.25a5.75 5.75 0 0 1 0 11.5z',
+    stroke: 'M8 2.25a5.75 5.75 0 1 1 0 11.5a5.75 5.75 0 1 1 0-11.5z',
+    name: 'half-filled circle',
+  },
   dash: { fill: 'M2.5 6h11a1 1 0 0 1 1 1v2a1 1 0 0 1-1 1h-11a1 1 0 0 1-1-1v-2a1 1 0 0 1 1-1z', name: 'bar' },
   square: { fill: 'M3 2h10a1 1 0 0 1 1 1v10a1 1 0 0 1-1 1H3a1 1 0 0 1-1-1V3a1 1 0 0 1 1-1z', name: 'filled square' },
   box: { stroke: 'M3 3h10v10H3z', name: 'square outline' },
@@ -71,7 +76,5 @@ export const OTHER_SYMBOLS = {
 /** The legend, in the words a certificate or an e-mail prints beside the drawn shapes. */
 export function legendText(meanings: readonly ReadingSymbol[] = ['pass', 'near-limit', 'fail']): string {
   const r = READING_SYMBOLS;
-  return meanings
-    .map((k) => `${SHAPE_PATHS[r[k].shape].name}: ${r[k].label.toLowerCase()}`)
-    .join(', ');
+  return meanings.map((k) => `${SHAPE_PATHS[r[k].shape].name}: ${r[k].label.toLowerCase()}`).join(', ');
 }

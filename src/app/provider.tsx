@@ -2,11 +2,12 @@ import type { ReactNode } from 'react';
 import { onlineManager } from '@tanstack/react-query';
 import { PersistQueryClientProvider, type PersistQueryClientOptions } from '@tanstack/react-query-persist-client';
 import { queryClient } from '@/lib/query-client';
-import { setUnauthenticatedHandler } from '@/lib/api-client';
+import { setReachabilityObserver, setUnauthenticatedHandler } from '@/lib/api-client';
 import { meQueryOptions } from '@/features/auth/api/get-me';
 import { OFFLINE_MAX_AGE_MS, PERSISTED_KEY_PREFIXES, shouldPersistQuery } from '@/features/offline/utils/persist-filter';
 import { queryPersister } from '@/features/offline/utils/query-persister';
 import { setOutboxHandlers, startOutbox } from '@/features/offline/stores/outbox';
+import { connectionStore, serverAnswered, serverDidNotAnswer } from '@/features/offline/stores/connection';
 import { readingsRecorded, showRecordedReading } from '@/features/testing/api/create-reading';
 
 // A 401 anywhere means the session ended: forget who we were, and the guard sends us to sign-in.
@@ -14,8 +15,13 @@ setUnauthenticatedHandler(() => queryClient.setQueryData(meQueryOptions().queryK
 
 // What the testing flow needs is kept on the tablet (IndexedDB) for a week, so it opens without a
 // network; it must stay in the memory cache as long, or it would drop out of the saved copy too.
-// TanStack Query assumes "online" until an offline event; a page loaded with no network must start paused.
-if (typeof navigator !== 'undefined') onlineManager.setOnline(navigator.onLine);
+// Online means the server answers (see features/offline/stores/connection.ts). Every request tells
+// it, and TanStack Query follows it instead of the browser's guess, so queries pause while offline.
+setReachabilityObserver((answered) => (answered ? serverAnswered() : serverDidNotAnswer()));
+onlineManager.setEventListener((setOnline) => {
+  setOnline(connectionStore.getSnapshot());
+  return connectionStore.subscribe(() => setOnline(connectionStore.getSnapshot()));
+});
 for (const key of PERSISTED_KEY_PREFIXES) queryClient.setQueryDefaults(key, { gcTime: OFFLINE_MAX_AGE_MS });
 const persistOptions: Omit<PersistQueryClientOptions, 'queryClient'> = {
   persister: queryPersister,

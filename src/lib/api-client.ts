@@ -32,6 +32,12 @@ export function setUnauthenticatedHandler(fn: () => void) {
   onUnauthenticated = fn;
 }
 
+let onReach: ((answered: boolean) => void) | null = null;
+/** Told after each request whether the server answered at all (the tablet's online state). */
+export function setReachabilityObserver(fn: (answered: boolean) => void) {
+  onReach = fn;
+}
+
 export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Promise<T> {
   const headers: Record<string, string> = { Accept: 'application/json', ...opts.headers };
   let body: BodyInit | undefined;
@@ -43,13 +49,21 @@ export async function apiRequest<T>(path: string, opts: RequestOptions = {}): Pr
     body = JSON.stringify(opts.body);
     headers['Content-Type'] = 'application/json';
   }
-  const res = await fetch(`/api${path}`, {
-    method: opts.method ?? (body ? 'POST' : 'GET'),
-    headers,
-    body,
-    credentials: 'same-origin',
-    signal: opts.signal,
-  });
+  let res: Response;
+  try {
+    res = await fetch(`/api${path}`, {
+      method: opts.method ?? (body ? 'POST' : 'GET'),
+      headers,
+      body,
+      credentials: 'same-origin',
+      signal: opts.signal,
+    });
+  } catch (err) {
+    // A request we cancelled says nothing about the network.
+    if (!opts.signal?.aborted) onReach?.(false);
+    throw err;
+  }
+  onReach?.(true);
   if (res.status === 204) return undefined as T;
   const isJson = (res.headers.get('content-type') ?? '').includes('json');
   const data = isJson ? await res.json() : await res.text();

@@ -1,5 +1,4 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { spawn } from 'node:child_process';
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { randomUUID } from 'node:crypto';
@@ -8,6 +7,7 @@ import { compactVerify, createLocalJWKSet, decodeProtectedHeader } from 'jose';
 import type supertest from 'supertest';
 import type superagent from 'superagent';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
+import { pdfText, readPdf } from '../setup/pdf-read';
 import { venueIds } from './testing-helpers';
 import { capturedMail, certificates, events, signOffs, users, venues } from '../../server/db/schema';
 import { hashPassword, TEST_SCRYPT } from '../../server/auth/password';
@@ -40,18 +40,6 @@ const binary = (res: superagent.Response, cb: (err: Error | null, body: Buffer) 
   stream.on('end', () => cb(null, Buffer.concat(chunks)));
 };
 const download = async (agent: Agent, path: string) => agent.get(path).buffer(true).parse(binary);
-
-/** The text of a PDF, through poppler's pdftotext reading stdin. */
-function pdfText(pdf: Buffer): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const p = spawn('pdftotext', ['-layout', '-', '-']);
-    const out: Buffer[] = [];
-    p.stdout.on('data', (c: Buffer) => out.push(c));
-    p.on('error', reject);
-    p.on('close', (code) => (code === 0 ? resolve(Buffer.concat(out).toString('utf8')) : reject(new Error(`pdftotext exited ${code}`))));
-    p.stdin.end(pdf);
-  });
-}
 
 /** File names in a ZIP, from its central directory (APPNOTE 4.3.12). */
 function zipNames(zip: Buffer): string[] {
@@ -235,7 +223,7 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     expect(decodeProtectedHeader(forged).alg).toBe('EdDSA');
   });
 
-  test('the venue PDF names its number, the venue and every strip; each strip PDF its own strip (pdftotext)', async () => {
+  test('the venue PDF names its number, the venue and every strip; each strip PDF its own strip (read back with PDF.js)', async () => {
     const nina = await t.agentFor(DEMO.organiser);
     const venue = issued.find((c) => c.kind === 'venue')!;
     const res = await download(nina, `/api/certificates/${venue.number}/pdf`);
@@ -243,12 +231,16 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     expect(res.headers['content-type']).toBe('application/pdf');
     expect(res.headers['content-disposition']).toBe(`attachment; filename="${venue.number}.pdf"`);
     expect(res.headers['x-content-type-options']).toBe('nosniff');
-    const text = await pdfText(res.body);
+    const { pages, fonts } = await readPdf(res.body);
+    const text = pages.join('\n');
     expect(text).toContain(venue.number);
     expect(text).toContain('Riverside Annex');
     for (const label of ['Annex 1', 'Annex 2', 'Annex 3', 'Annex 4']) expect(text).toContain(label);
     expect(text).toContain("not the building's electrical installation");
     expect(text).toMatch(/Page 1 of \d+/);
+    // The fonts ship with the app and travel inside the file: nothing is left to the reader's machine.
+    expect(fonts.length).toBeGreaterThan(0);
+    for (const f of fonts) expect(f, f.name).toEqual({ name: expect.stringMatching(/^[A-Z]{6}\+IBMPlexSans-/), embedded: true });
     for (const strip of issued.filter((c) => c.kind === 'strip')) {
       const s = await pdfText((await download(nina, `/api/certificates/${strip.number}/pdf`)).body);
       expect(s).toContain(strip.number);

@@ -5,7 +5,16 @@ import { renderToStaticMarkup } from 'react-dom/server';
 import PDFDocument from 'pdfkit';
 import { describe, expect, test } from 'vitest';
 import { FAULT_STATUSES } from '../../shared/schemas/faults';
-import { FAULT_SYMBOLS, OTHER_SYMBOLS, READING_SYMBOLS, SHAPE_PATHS, STRIP_SYMBOLS, legendText, type SymbolLook } from '../../shared/domain/symbols';
+import {
+  FAULT_SYMBOLS,
+  OTHER_SYMBOLS,
+  READING_SYMBOLS,
+  SHAPE_PATHS,
+  STRIP_SYMBOLS,
+  legendText,
+  type SymbolLook,
+  type SymbolShape,
+} from '../../shared/domain/symbols';
 import { StatusMark } from '../../src/components/ui/status-mark';
 import { drawSymbol } from '../../server/pdf/symbol-mark';
 
@@ -40,7 +49,7 @@ describe('symbols: one per meaning', () => {
   });
 
   test('a shape used for a strip or fault state means the same as for a reading (▲ always a failure, ● always good, ○ nothing measured)', () => {
-    const meaningOfShape = new Map(Object.values(READING_SYMBOLS).map((l) => [l.shape, l.tone]));
+    const meaningOfShape = new Map<SymbolShape, string>(Object.values(READING_SYMBOLS).map((l) => [l.shape, l.tone]));
     for (const look of [...Object.values(STRIP_SYMBOLS), ...Object.values(FAULT_SYMBOLS)]) {
       if (meaningOfShape.has(look.shape)) expect(look.tone, look.label).toBe(meaningOfShape.get(look.shape));
     }
@@ -50,7 +59,7 @@ describe('symbols: one per meaning', () => {
   });
 
   test('no other state borrows one of the five shapes', () => {
-    const five = new Set(Object.values(READING_SYMBOLS).map((l) => l.shape));
+    const five = new Set<SymbolShape>(Object.values(READING_SYMBOLS).map((l) => l.shape));
     for (const look of Object.values(OTHER_SYMBOLS)) expect(five.has(look.shape), look.label).toBe(false);
   });
 
@@ -70,7 +79,9 @@ describe('symbols: one per meaning', () => {
   });
 
   test('different shapes give different drawings in the PDF', async () => {
-    const streams = await Promise.all(Object.values(READING_SYMBOLS).map(async (l) => (await pdfOf(l)).replace(/\/CreationDate.*\n/, '').replace(/\/ID.*\n/, '')));
+    const streams = await Promise.all(
+      Object.values(READING_SYMBOLS).map(async (l) => (await pdfOf(l)).replace(/\/CreationDate.*\n/, '').replace(/\/ID.*\n/, '')),
+    );
     expect(new Set(streams).size).toBe(Object.keys(READING_SYMBOLS).length);
   });
 

@@ -1,4 +1,5 @@
-import { useState, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router';
 import { format } from 'date-fns';
 import { useVerification } from '@/features/certificates/api/get-verification';
@@ -29,23 +30,21 @@ function PublicFrame({ children }: { children: ReactNode }) {
 
 function NumberForm({ initial = '' }: { initial?: string }) {
   const navigate = useNavigate();
-  const [value, setValue] = useState(initial);
+  // No check here: the answer page says whether a certificate has the number typed.
+  const form = useForm({ defaultValues: { number: initial } });
   return (
     <form
       className="flex flex-wrap items-end gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const n = value.trim().toUpperCase();
+      onSubmit={form.handleSubmit(({ number }) => {
+        const n = number.trim().toUpperCase();
         if (n) navigate(paths.verify(encodeURIComponent(n)));
-      }}
+      })}
     >
       <TextField
         className="min-w-72 flex-1"
         label="Certificate number"
-        name="number"
         placeholder="SW-2026-XXXX-XXXX-V"
-        value={value}
-        onChange={(e) => setValue(e.target.value)}
+        {...form.register('number')}
         autoCapitalize="characters"
         spellCheck={false}
       />

@@ -1,10 +1,12 @@
 // The tablet's outbox: readings typed on the testing screen, kept in IndexedDB until the server
 // has them. Written to disk before the screen moves on, so a reload, a crash or a closed browser
-// loses nothing; replayed in typing order when the network is there (at start, on the browser's
-// online event, and on a backoff timer). Replays are safe: the server knows a reading by its id.
+// loses nothing; replayed in typing order when the network is there (at start, when the
+// server can be reached again, and on a backoff timer). Replays are safe: the server knows a
+// reading by its id.
 import { createStore, del, delMany, entries, set, setMany } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
 import { sendReadingBatch } from '../api/send-reading-batch';
+import { connectionStore, serverAnswered, serverDidNotAnswer, startConnectionWatch } from './connection';
 import {
   addToQueue,
   applyOutcome,
@@ -25,6 +27,7 @@ export interface OutboxState {
   items: QueuedReading[];
   /** A pass is sending right now. */
   syncing: boolean;
+  /** The server can be reached (./connection.ts: its answers decide, not navigator.onLine alone). */
   online: boolean;
   userId: string | null;
   /** Why the last pass stopped early, for the list page ("the server did not answer"). */
@@ -46,7 +49,7 @@ let state: OutboxState = {
   loaded: false,
   items: [],
   syncing: false,
-  online: typeof navigator === 'undefined' ? true : navigator.onLine,
+  online: connectionStore.getSnapshot(),
   userId: null,
   lastStop: null,
 };
@@ -212,6 +215,9 @@ async function pass(force: boolean) {
     // One reading alone as before; more go in batches, each result read by the same rules.
     for (const chunk of send.length === 1 ? [send] : inBatches(send)) {
       const answers: BatchAnswer[] = chunk.length === 1 ? [await sendReading(chunk[0].body)] : await sendReadingBatch(chunk.map((i) => i.body));
+      // No answer at all means offline, whatever the browser says (./connection.ts).
+      if (answers.some((a) => a.answer.kind === 'network')) serverDidNotAnswer();
+      else serverAnswered();
       stop = await settle(chunk, answers, touched);
       if (stop) break;
       progressed = true;
@@ -222,13 +228,13 @@ async function pass(force: boolean) {
   if (touched.stripIds.size > 0) handlers.onPassDone?.({ stripIds: [...touched.stripIds], venueIds: [...touched.venueIds] });
 }
 
-/** Sends what is due, in typing order; `force` ignores the backoff (the network just came back). */
-export function flush(opts: { force?: boolean } = {}): Promise<void> {
-  if (!state.userId || !state.loaded) return Promise.resolve();
-  if (typeof navigator !== 'undefined' && !navigator.onLine) {
-    setState({ online: false });
-    return Promise.resolve();
-  }
+/**
+ * Sends what is due, in typing order; `force` ignores the backoff (the network just came back).
+ * Offline nothing is tried, unless `evenOffline`: the browser just said it has a network again, and
+ * the readings' own answers tell as soon as a check would.
+ */
+export function flush(opts: { force?: boolean; evenOffline?: boolean } = {}): Promise<void> {
+  if (!state.userId || !state.loaded || (!state.online && !opts.evenOffline)) return Promise.resolve();
   if (running) {
     again = true;
     return running;
@@ -257,11 +263,15 @@ export function setOutboxUser(userId: string | null) {
 export function startOutbox() {
   if (started || typeof window === 'undefined') return;
   started = true;
-  window.addEventListener('online', () => {
-    setState({ online: true });
-    void flush({ force: true });
+  setState({ online: connectionStore.getSnapshot() });
+  connectionStore.subscribe(() => {
+    const online = connectionStore.getSnapshot();
+    if (online === state.online) return;
+    setState({ online });
+    if (online) void flush({ force: true });
   });
-  window.addEventListener('offline', () => setState({ online: false }));
+  startConnectionWatch();
+  window.addEventListener('online', () => void flush({ force: true, evenOffline: true }));
   if ('BroadcastChannel' in window) {
     channel = new BroadcastChannel(LOCK);
     channel.onmessage = () => void load();

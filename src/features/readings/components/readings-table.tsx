@@ -9,7 +9,11 @@ import {
   type ColumnFiltersState,
   type SortingState,
 } from '@tanstack/react-table';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
+import { createReadingSchema } from '@shared/schemas/readings';
 import { formatOhm } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
@@ -26,30 +30,38 @@ const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyl
 const sentLater = (r: ReadingRow) => r.receivedAt !== null && Date.parse(r.receivedAt) - Date.parse(r.takenAt) >= 60_000;
 const equals = (row: { getValue: (id: string) => unknown }, id: string, value: unknown) => value === '' || row.getValue(id) === value;
 
+// A correction is a reading with a reason: the value and the reason as the reading's schema has them.
+const correctionSchema = z.object({
+  value: createReadingSchema.shape.value,
+  correctionReason: createReadingSchema.shape.correctionReason.unwrap().unwrap(),
+});
+
 function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrect: (v: CorrectionInput) => Promise<unknown>; onClose: () => void }) {
-  const [value, setValue] = useState('');
-  const [reason, setReason] = useState('');
-  const [error, setError] = useState<string | null>(null);
+  const form = useForm<z.input<typeof correctionSchema>, unknown, z.output<typeof correctionSchema>>({
+    resolver: zodResolver(correctionSchema),
+    defaultValues: { value: '', correctionReason: '' },
+  });
+  const typed = useWatch({ control: form.control });
+  const error = form.formState.errors.root?.message;
   return (
     <form
+      noValidate
       className="flex flex-wrap items-end gap-3 bg-brass-soft px-4 py-3"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
+      onSubmit={form.handleSubmit(async (v) => {
         try {
-          await onCorrect({ stepId: row.stepId, value, supersedesId: row.id, correctionReason: reason });
+          await onCorrect({ stepId: row.stepId, supersedesId: row.id, ...v });
           onClose();
         } catch (err) {
-          setError(err instanceof Error ? err.message : 'The correction was not saved.');
+          form.setError('root', { message: err instanceof Error ? err.message : 'The correction was not saved.' });
         }
-      }}
+      })}
     >
       <p className="w-full text-sm">
         Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}. The old reading stays in the history.
       </p>
-      <TextField label="Correct value" name={`fix-${row.id}`} id={`fix-${row.id}`} autoFocus inputMode="decimal" value={value} onChange={(e) => setValue(e.target.value)} className="w-36" />
-      <TextField label="Reason" name={`reason-${row.id}`} id={`reason-${row.id}`} value={reason} onChange={(e) => setReason(e.target.value)} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
-      <Button type="submit" disabled={!value.trim() || reason.trim().length < 3}>Save correction</Button>
+      <TextField label="Correct value" id={`fix-${row.id}`} autoFocus inputMode="decimal" {...form.register('value')} className="w-36" />
+      <TextField label="Reason" id={`reason-${row.id}`} {...form.register('correctionReason')} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
+      <Button type="submit" disabled={!correctionSchema.safeParse(typed).success}>Save correction</Button>
       <Button variant="secondary" onClick={onClose}>Cancel</Button>
       {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
     </form>

@@ -67,7 +67,19 @@ export function EntryGrid({
         columns.flatMap((c) => {
           const step = position.steps.find((s) => cellKey(s) === c.key);
           return step
-            ? [{ position, step, ctx: { profile, equipmentKind: position.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM: position.equipment?.lengthM ?? null } }]
+            ? [
+                {
+                  position,
+                  step,
+                  ctx: {
+                    profile,
+                    equipmentKind: position.equipmentKind,
+                    testKind: step.testKind,
+                    conductors: step.conductors,
+                    lengthM: position.equipment?.lengthM ?? null,
+                  },
+                },
+              ]
             : [];
         }),
       ),
@@ -125,7 +137,10 @@ export function EntryGrid({
   // the first cell not measured, else the "strip complete" action.
   useEffect(() => {
     if (!ready || !canWrite) return;
-    const retestFirst = retest ? cells.find((c) => c.position.id === retest.positionId && !(retest.since && c.step.latest && c.step.latest.takenAt >= retest.since))?.step.id : undefined;
+    const retestFirst = retest
+      ? cells.find((c) => c.position.id === retest.positionId && !(retest.since && c.step.latest && c.step.latest.takenAt >= retest.since))
+          ?.step.id
+      : undefined;
     focusCell(retestFirst ?? nextUnmeasured());
     // Only on these signals, not on every reading recorded (that moves focus itself).
     // eslint-disable-next-line react-hooks/exhaustive-deps
@@ -160,7 +175,9 @@ export function EntryGrid({
     } catch (err) {
       // Only the tablet's own storage can fail here: the network is the outbox's business.
       justRecorded.current.delete(cell.step.id);
-      setError(`Could not keep the reading on this tablet: ${err instanceof Error ? err.message : String(err)}. Write it down and try again.`);
+      setError(
+        `Could not keep the reading on this tablet: ${err instanceof Error ? err.message : String(err)}. Write it down and try again.`,
+      );
       focusNow(cell.step.id);
       return false;
     } finally {
@@ -256,21 +273,27 @@ export function EntryGrid({
   const preview = current ? previewReading(values[current.step.id] ?? '', current.ctx, leadOffsetOhm) : null;
   const limit = current ? limitText(current.ctx) : null;
   const currentFault = current ? faultOf(current.step) : null;
-  const retested = (c: Cell) => !!retest && retest.positionId === c.position.id && !!retest.since && !!c.step.latest && c.step.latest.takenAt >= retest.since;
+  const retested = (c: Cell) =>
+    !!retest && retest.positionId === c.position.id && !!retest.since && !!c.step.latest && c.step.latest.takenAt >= retest.since;
 
   return (
     <div className="flex flex-col gap-3 min-[960px]:flex-row min-[960px]:items-start" data-testid="entry-grid">
       <div className="min-w-0 flex-1">
         {(hasInsulation || hasPisteEarth) && (
-          <div className="mb-2 flex flex-col gap-1 rounded-md border border-brass/50 bg-brass-soft px-3 py-1.5 text-sm" data-testid="grid-cautions">
+          <div
+            className="mb-2 flex flex-col gap-1 rounded-md border border-brass/50 bg-brass-soft px-3 py-1.5 text-sm"
+            data-testid="grid-cautions"
+          >
             {hasInsulation && (
               <p>
-                <strong>Insulation:</strong> the multimeter’s resistance range only; never a high-voltage insulation tester on anything still connected to an apparatus or electronics.
+                <strong>Insulation:</strong> the multimeter’s resistance range only; never a high-voltage insulation tester on anything
+                still connected to an apparatus or electronics.
               </p>
             )}
             {hasPisteEarth && (
               <p>
-                <strong>Piste earth:</strong> checks the link to the apparatus earth only; the hall’s earthing and mains are a licensed electrician’s, under local codes.
+                <strong>Piste earth:</strong> checks the link to the apparatus earth only; the hall’s earthing and mains are a licensed
+                electrician’s, under local codes.
               </p>
             )}
           </div>
@@ -284,7 +307,11 @@ export function EntryGrid({
                 </th>
                 {columns.map((c, i) => (
                   <th key={c.key} scope="col" className="font-medium leading-tight">
-                    {i === 0 || columns[i - 1].group !== c.group ? <span className="block text-ink">{c.group}</span> : <span className="block">&nbsp;</span>}
+                    {i === 0 || columns[i - 1].group !== c.group ? (
+                      <span className="block text-ink">{c.group}</span>
+                    ) : (
+                      <span className="block">&nbsp;</span>
+                    )}
                     {c.short}
                   </th>
                 ))}
@@ -292,7 +319,11 @@ export function EntryGrid({
             </thead>
             <tbody>
               {rows.map((position) => (
-                <tr key={position.id} data-position={position.name} className={retest?.positionId === position.id ? 'bg-brass-soft/70' : ''}>
+                <tr
+                  key={position.id}
+                  data-position={position.name}
+                  className={retest?.positionId === position.id ? 'bg-brass-soft/70' : ''}
+                >
                   <th scope="row" className="w-28 text-left align-middle text-sm leading-tight font-semibold">
                     {position.name}
                     <span className="block text-xs font-normal text-ink-soft">{position.equipment?.assetTag ?? 'no item'}</span>
@@ -302,7 +333,11 @@ export function EntryGrid({
                     if (!step) return <td key={col.key} aria-hidden className="rounded-md bg-idle-soft/50" />;
                     const cell = cells.find((c) => c.step.id === step.id)!;
                     const q = queued.get(step.id);
-                    const shown = q ? { text: q.display, verdict: q.verdict } : step.latest ? { text: step.latest.overRange ? 'OL' : step.latest.valueText, verdict: step.latest.verdict } : null;
+                    const shown = q
+                      ? { text: q.display, verdict: q.verdict }
+                      : step.latest
+                        ? { text: step.latest.overRange ? 'OL' : step.latest.valueText, verdict: step.latest.verdict }
+                        : null;
                     const look = shown ? verdictSymbol(shown.verdict) : READING_SYMBOLS['not-measured'];
                     const typed = values[step.id] ?? '';
                     const fault = faultOf(step);
@@ -344,12 +379,19 @@ export function EntryGrid({
                             className="peer h-full w-full min-w-0 rounded-md bg-transparent px-1 text-center text-base font-semibold tabular-nums outline-none"
                           />
                           {typed === '' && (shown || !isActive) && (
-                            <span id={`cell-${step.id}`} className="pointer-events-none absolute inset-0 flex items-center justify-center gap-1 px-1 text-sm tabular-nums">
+                            <span
+                              id={`cell-${step.id}`}
+                              className="pointer-events-none absolute inset-0 flex items-center justify-center gap-1 px-1 text-sm tabular-nums"
+                            >
                               <MarkIcon shape={look.shape} tone={look.tone} className="size-3.5" />
                               <span className={shown ? 'font-semibold' : 'text-ink-soft'}>{shown ? shown.text : ''}</span>
                               <span className="sr-only">{shown ? `${look.label}${q ? ', waiting to send' : ''}` : 'not measured'}</span>
                               {q && <MarkIcon shape="hourglass" tone="idle" className="size-3" />}
-                              {retested(cell) && <span className="text-xs font-bold text-brand" title="Retested after the repair">R</span>}
+                              {retested(cell) && (
+                                <span className="text-xs font-bold text-brand" title="Retested after the repair">
+                                  R
+                                </span>
+                              )}
                             </span>
                           )}
                           {fault && (
@@ -372,11 +414,16 @@ export function EntryGrid({
           </table>
         </div>
         <p className="mt-1 text-sm text-ink-soft">
-          Limits: {limitsName}.{nothing.length > 0 && ` ${nothing.map((p) => p.name).join(', ')}: nothing to measure here with a multimeter.`}
+          Limits: {limitsName}.
+          {nothing.length > 0 && ` ${nothing.map((p) => p.name).join(', ')}: nothing to measure here with a multimeter.`}
         </p>
       </div>
 
-      <aside aria-label="Reading entry" className="flex w-full flex-col gap-3 rounded-card border border-line bg-card p-3 min-[960px]:w-[18rem] min-[960px]:shrink-0" data-testid="grid-panel">
+      <aside
+        aria-label="Reading entry"
+        className="flex w-full flex-col gap-3 rounded-card border border-line bg-card p-3 min-[960px]:w-[18rem] min-[960px]:shrink-0"
+        data-testid="grid-panel"
+      >
         {complete && !again && !allOl ? (
           <div className="flex flex-col gap-2">
             <p className="text-sm font-semibold">Every step of this strip has a reading.</p>
@@ -426,20 +473,35 @@ export function EntryGrid({
           </p>
         )}
         {again && current && (
-          <div role="alertdialog" aria-label="Record again?" className="flex flex-col gap-2 rounded-lg border-2 border-brass bg-brass-soft p-2 text-sm">
+          <div
+            role="alertdialog"
+            aria-label="Record again?"
+            className="flex flex-col gap-2 rounded-lg border-2 border-brass bg-brass-soft p-2 text-sm"
+          >
             <p>This step has a reading already. Record again?</p>
             <div className="flex gap-3">
               <button ref={confirmButton} type="button" className={CONFIRM} onClick={() => void recordAndMove(current, again.text, true)}>
                 Record again
               </button>
-              <Button variant="secondary" className="min-h-14" onClick={() => { setAgain(null); focusCell(current.step.id); }}>
+              <Button
+                variant="secondary"
+                className="min-h-14"
+                onClick={() => {
+                  setAgain(null);
+                  focusCell(current.step.id);
+                }}
+              >
                 Keep it
               </Button>
             </div>
           </div>
         )}
         {allOl && (
-          <div role="alertdialog" aria-label="All insulation OL?" className="flex flex-col gap-2 rounded-lg border-2 border-brass bg-brass-soft p-2 text-sm">
+          <div
+            role="alertdialog"
+            aria-label="All insulation OL?"
+            className="flex flex-col gap-2 rounded-lg border-2 border-brass bg-brass-soft p-2 text-sm"
+          >
             <p>
               Record OL (over range, open) for every insulation pair of <strong>{rows.find((p) => p.id === allOl)?.name}</strong>?
             </p>
@@ -447,13 +509,23 @@ export function EntryGrid({
               <button ref={confirmButton} type="button" className={CONFIRM} onClick={() => void recordAllOl(allOl)}>
                 Record OL ×{insulationOf(allOl).filter((c) => !measured(c.step)).length || insulationOf(allOl).length}
               </button>
-              <Button variant="secondary" className="min-h-14" onClick={() => { const back = active; setAllOl(null); focusCell(back); }}>
+              <Button
+                variant="secondary"
+                className="min-h-14"
+                onClick={() => {
+                  const back = active;
+                  setAllOl(null);
+                  focusCell(back);
+                }}
+              >
                 Cancel
               </Button>
             </div>
           </div>
         )}
-        {canWrite && <Keypad onKey={onPad} disabled={!current || busy} allInsulation={!!current && insulationOf(current.position.id).length > 0} />}
+        {canWrite && (
+          <Keypad onKey={onPad} disabled={!current || busy} allInsulation={!!current && insulationOf(current.position.id).length > 0} />
+        )}
       </aside>
     </div>
   );

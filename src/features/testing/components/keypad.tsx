@@ -3,10 +3,22 @@
 export type PadKey = '0' | '1' | '2' | '3' | '4' | '5' | '6' | '7' | '8' | '9' | '.' | 'k' | 'M' | 'OL' | 'back' | 'enter' | 'all-ol';
 
 const KEYS: { key: PadKey; label: string; aria?: string; tone?: 'action' | 'unit' }[] = [
-  { key: '7', label: '7' }, { key: '8', label: '8' }, { key: '9', label: '9' }, { key: 'OL', label: 'OL', aria: 'OL: over range, record', tone: 'action' },
-  { key: '4', label: '4' }, { key: '5', label: '5' }, { key: '6', label: '6' }, { key: 'k', label: 'k', aria: 'kilo-ohm', tone: 'unit' },
-  { key: '1', label: '1' }, { key: '2', label: '2' }, { key: '3', label: '3' }, { key: 'M', label: 'M', aria: 'mega-ohm', tone: 'unit' },
-  { key: '.', label: '.', aria: 'decimal point' }, { key: '0', label: '0' }, { key: 'back', label: '⌫', aria: 'delete' }, { key: 'enter', label: 'Record', tone: 'action' },
+  { key: '7', label: '7' },
+  { key: '8', label: '8' },
+  { key: '9', label: '9' },
+  { key: 'OL', label: 'OL', aria: 'OL: over range, record', tone: 'action' },
+  { key: '4', label: '4' },
+  { key: '5', label: '5' },
+  { key: '6', label: '6' },
+  { key: 'k', label: 'k', aria: 'kilo-ohm', tone: 'unit' },
+  { key: '1', label: '1' },
+  { key: '2', label: '2' },
+  { key: '3', label: '3' },
+  { key: 'M', label: 'M', aria: 'mega-ohm', tone: 'unit' },
+  { key: '.', label: '.', aria: 'decimal point' },
+  { key: '0', label: '0' },
+  { key: 'back', label: '⌫', aria: 'delete' },
+  { key: 'enter', label: 'Record', tone: 'action' },
 ];
 
 export function Keypad({ onKey, disabled, allInsulation }: { onKey: (key: PadKey) => void; disabled: boolean; allInsulation: boolean }) {
@@ -34,7 +46,14 @@ export function Keypad({ onKey, disabled, allInsulation }: { onKey: (key: PadKey
         ))}
       </div>
       {allInsulation && (
-        <button type="button" tabIndex={-1} disabled={disabled} data-key="all-ol" className="h-14 w-[15.5rem] rounded-lg border-2 border-brand bg-card text-base font-semibold text-brand disabled:opacity-40" {...press('all-ol')}>
+        <button
+          type="button"
+          tabIndex={-1}
+          disabled={disabled}
+          data-key="all-ol"
+          className="h-14 w-[15.5rem] rounded-lg border-2 border-brand bg-card text-base font-semibold text-brand disabled:opacity-40"
+          {...press('all-ol')}
+        >
           All insulation OL (A)
         </button>
       )}

@@ -22,7 +22,10 @@ export function StripBar({
 }) {
   const percent = total === 0 ? 0 : Math.round((done / total) * 100);
   return (
-    <div data-testid="strip-bar" className="sticky top-0 z-20 -mx-4 mb-3 flex min-h-11 flex-wrap items-center gap-x-4 gap-y-1 border-b border-line bg-card/95 px-4 py-1 text-sm shadow-sm backdrop-blur">
+    <div
+      data-testid="strip-bar"
+      className="sticky top-0 z-20 -mx-4 mb-3 flex min-h-11 flex-wrap items-center gap-x-4 gap-y-1 border-b border-line bg-card/95 px-4 py-1 text-sm shadow-sm backdrop-blur"
+    >
       <strong className="text-base">{label}</strong>
       <span className="flex items-center gap-2" data-testid="strip-bar-progress">
         <span

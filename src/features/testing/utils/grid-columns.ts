@@ -32,7 +32,13 @@ export function gridColumns(steps: { testKind: TestKind; conductors: string }[])
     .filter((k) => !ORDER.some((c) => cellKey(c) === k))
     .map((k) => {
       const s = steps.find((x) => cellKey(x) === k)!;
-      return { key: k, testKind: s.testKind, conductors: s.conductors, short: s.conductors.replace('-', '–'), group: s.testKind === 'loop' ? 'Loop' : s.testKind === 'insulation' ? 'Insulation' : 'Other' };
+      return {
+        key: k,
+        testKind: s.testKind,
+        conductors: s.conductors,
+        short: s.conductors.replace('-', '–'),
+        group: s.testKind === 'loop' ? 'Loop' : s.testKind === 'insulation' ? 'Insulation' : 'Other',
+      };
     });
   return [...known, ...extra];
 }
