@@ -160,3 +160,22 @@ test('a strip recorded in the grid at 1024 × 768: one screen, ≤ 1 non-digit k
   await faultLink.click();
   await expect(page.getByRole('heading', { name: 'Fault on Strip 15 · Left floor cable' })).toBeVisible();
 });
+
+test('a strip with a piste (five items) fits 1024 × 768, focus on the way on; the grid at 768 × 1024 and 390 × 844', async ({ page }) => {
+  await signIn(page, 'technician');
+  await page.goto('/');
+  await page.getByRole('link', { name: 'Open venue' }).click();
+  await page.getByLabel('Go to strip number').fill('3'); // tested in the demo scenario, conductive piste
+  await page.keyboard.press('Enter');
+  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  await expect(page.getByTestId('entry-grid').locator('tr[data-position]')).toHaveCount(5);
+  // A completed strip: focus is on the way on, not lost.
+  await expect(page.getByRole('link', { name: 'Strip complete — next strip →' })).toBeFocused();
+  expect(await fitsOneScreen(page)).toBe(true);
+  await page.screenshot({ path: 'test-results/grid-piste-1024x768.png' });
+  await page.setViewportSize({ width: 768, height: 1024 });
+  await expect(page.getByTestId('entry-grid')).toBeVisible();
+  await page.screenshot({ path: 'test-results/grid-piste-768x1024.png', fullPage: true });
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.screenshot({ path: 'test-results/grid-piste-390x844.png', fullPage: true });
+});
