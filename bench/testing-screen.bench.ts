@@ -118,11 +118,12 @@ async function scriptedStrip(browser: Browser, base: string, cookie: string, str
       .evaluateAll((els) => els.map((e) => e.getAttribute('data-cell')!));
     const number = r < 2 ? '0.5' : '1.3';
     for (const step of steps) {
+      // The whole item's insulation goes at once, from its first pair.
+      if (step.startsWith('insulation') && step !== 'insulation A-B') continue;
       const input = rows.nth(r).locator(`[data-cell="${step}"] input`);
       await input.waitFor();
       await page.waitForFunction((el) => el === document.activeElement, await input.elementHandle());
       if (step.startsWith('insulation')) {
-        if (step !== 'insulation A-B') continue; // the whole item's insulation at once
         if (by === 'keyboard') await press('a');
         else await tap('all-ol');
         await confirmAllOl.first().waitFor();
