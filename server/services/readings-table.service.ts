@@ -11,6 +11,8 @@ const CSV_COLUMNS = [
   ['Test', 'testKind'],
   ['Conductors', 'conductors'],
   ['Value as typed', 'valueText'],
+  // What the meter showed, less the technician's test-lead null, is the value that was judged.
+  ['Lead null (ohm)', 'leadOffsetOhm'],
   ['Value (ohm)', 'valueOhm'],
   ['Over range', 'overRange'],
   ['Verdict', 'verdict'],
@@ -25,6 +27,8 @@ const CSV_COLUMNS = [
   ['Corrects reading', 'supersedesId'],
   ['Correction reason', 'correctionReason'],
   ['Superseded by', 'supersededBy'],
+  ['Lead null meter', 'leadNullMeter'],
+  ['Lead null id', 'leadNullId'],
   ['Reading id', 'id'],
 ] as const;
 

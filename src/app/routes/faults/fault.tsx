@@ -10,6 +10,7 @@ import { AttachmentsPanel } from '@/features/attachments/components/attachments-
 import { FaultNotes } from '@/features/faults/components/fault-notes';
 import { LocateForm } from '@/features/faults/components/locate-form';
 import { RepairForm } from '@/features/faults/components/repair-form';
+import { DismissForm } from '@/features/faults/components/dismiss-form';
 import { METHOD_LABELS, type LocateMethod } from '@/features/faults/utils/methods';
 import { CableDrawing } from '@/components/ui/cable-drawing';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
@@ -100,8 +101,14 @@ export default function FaultPage() {
         </div>
       )}
       {f.status === 'closed' && (
-        <div className="mb-4">
-          <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+        <div className="mb-4" data-testid="fault-closed">
+          {f.dismissal ? (
+            <Notice tone="info">
+              Dismissed as a typing mistake {new Date(f.dismissal.at).toLocaleString()} by {f.dismissal.byName ?? 'the technical director'}: “{f.dismissal.reason}”
+            </Notice>
+          ) : (
+            <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+          )}
         </div>
       )}
 
@@ -172,6 +179,13 @@ export default function FaultPage() {
           </Card>
         )}
       </div>
+
+      {f.canDismiss && (
+        <Card className="mt-4">
+          <h2 className="mb-2 text-lg font-semibold">A typing mistake?</h2>
+          <DismissForm fault={f} />
+        </Card>
+      )}
 
       <Card className="mt-4">
         <h2 className="mb-3 text-lg font-semibold">Photos, scope traces and files</h2>

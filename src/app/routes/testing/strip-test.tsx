@@ -13,16 +13,17 @@ import type { StripPosition, StripStep } from '@/features/testing/api/get-strip'
 import { useSyncSummary } from '@/features/offline/hooks/use-outbox';
 import { syncLook, syncWords } from '@/features/offline/components/sync-indicator';
 import { useOutbox } from '@/features/offline/hooks/use-outbox';
-import { enqueueReading } from '@/features/offline/stores/outbox';
+import { enqueueReading, recordLeadNull } from '@/features/offline/stores/outbox';
 import { newReadingId } from '@/features/offline/utils/reading-id';
 import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
-import { readLeadOffset, safetyAcknowledged, saveLeadOffset } from '@/features/testing/utils/session';
+import { readLeadNull, safetyAcknowledged, saveLeadNull } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
+import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
 
 
 /** The testing screen: walk a strip's positions and steps with the keyboard alone. */
@@ -33,7 +34,9 @@ export default function StripTestPage() {
   const strip = useStrip(stripId);
   const me = useMe();
   const outbox = useOutbox();
-  const [lead, setLead] = useState<number | null>(() => readLeadOffset());
+  const [lead, setLead] = useState<LeadNullRecord | null>(null);
+  // This person's null of this session (kept in the tab; a shared tablet never uses another's).
+  useEffect(() => setLead(readLeadNull(me.data?.id)), [me.data?.id]);
   const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
   const nextStripLink = useRef<HTMLAnchorElement>(null);
   const [ready, setReady] = useState(() => safetyAcknowledged());
@@ -82,9 +85,11 @@ export default function StripTestPage() {
         stripId: data.id,
         where: `${data.label} · ${position.name} · ${stepTitle(step)}`,
         preview,
+        // The null goes with the reading until the server is known to have it.
+        ...(lead && input.leadNullId === lead.id ? { leadNull: lead } : {}),
       });
     },
-    [me.data, data],
+    [me.data, data, lead],
   );
 
   const focusStep = useCallback((stepId: string | undefined) => {
@@ -199,12 +204,14 @@ export default function StripTestPage() {
       ))}
     </span>
   );
-  const leadNull = canWrite && (
+  const leadNull = canWrite && me.data && (
     <LeadNull
-      valueOhm={lead}
-      onChange={(v) => {
-        saveLeadOffset(v);
-        setLead(v);
+      leadNull={lead}
+      userId={me.data.id}
+      onChange={(next) => {
+        saveLeadNull(next);
+        setLead(next);
+        if (next) void recordLeadNull(next);
         // Back to the first step not measured: the lead null is usually done before the strip.
         setFocusRequest((x) => x + 1);
         if (view === 'list') requestAnimationFrame(() => focusStep((flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0])?.step.id));
@@ -249,7 +256,7 @@ export default function StripTestPage() {
             limitsName={`${data.profile.name} v${data.profile.version}`}
             positions={data.positions}
             profile={profile}
-            leadOffsetOhm={lead}
+            leadNull={lead}
             canWrite={canWrite}
             faults={data.openFaults}
             queued={queued}
@@ -327,7 +334,7 @@ export default function StripTestPage() {
                       index={n}
                       step={step}
                       ctx={{ profile, equipmentKind: position.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM: position.equipment?.lengthM ?? null }}
-                      leadOffsetOhm={lead}
+                      leadNull={lead}
                       canWrite={canWrite}
                       faultId={fault?.id ?? null}
                       highlight={retestPosition === position.id}

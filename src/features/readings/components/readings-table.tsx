@@ -13,8 +13,9 @@ import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
-import { createReadingSchema } from '@shared/schemas/readings';
+import { CORRECTION_REASON_MIN, createReadingSchema } from '@shared/schemas/readings';
 import { formatOhm } from '@shared/domain/units';
+import { readingValueView } from '@shared/domain/typed-reading';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
@@ -49,7 +50,7 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
       className="flex flex-wrap items-end gap-3 bg-brass-soft px-4 py-3"
       onSubmit={form.handleSubmit(async (v) => {
         try {
-          await onCorrect({ stepId: row.stepId, supersedesId: row.id, ...v });
+          await onCorrect({ stepId: row.stepId, supersedesId: row.id, leadNullId: row.leadNullId, ...v });
           onClose();
         } catch (err) {
           form.setError('root', { message: err instanceof Error ? err.message : 'The correction was not saved.' });
@@ -57,11 +58,14 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
       })}
     >
       <p className="w-full text-sm">
-        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}. The old reading stays in the history.
+        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}
+        {row.leadOffsetOhm ? ` (typed with a ${formatOhm(row.leadOffsetOhm)} lead null, which the correction keeps)` : ''}. The old reading stays in the history. A
+        correction closes no fault: a fault opened by a typing mistake is dismissed by the technical director.
       </p>
       <TextField label="Correct value" id={`fix-${row.id}`} autoFocus inputMode="decimal" {...form.register('value')} className="w-36" />
       <TextField label="Reason" id={`reason-${row.id}`} {...form.register('correctionReason')} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
       <Button type="submit" disabled={!correctionSchema.safeParse(typed).success}>Save correction</Button>
+      <p className="w-full text-xs text-ink-soft">The reason needs at least {CORRECTION_REASON_MIN} characters.</p>
       <Button variant="secondary" onClick={onClose}>Cancel</Button>
       {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
     </form>
@@ -96,7 +100,22 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
       col.accessor('valueText', {
         header: 'Value',
         sortingFn: (a, b) => (a.original.valueOhm ?? Infinity) - (b.original.valueOhm ?? Infinity),
-        cell: (c) => <span className="whitespace-nowrap font-mono font-semibold" data-value>{c.getValue()}</span>,
+        cell: (c) => {
+          // The value judged, with its unit; when a lead null was subtracted, what was typed too.
+          const v = readingValueView(c.row.original);
+          return (
+            <span>
+              <span className="whitespace-nowrap font-mono font-semibold" data-value>
+                {v.value}
+              </span>
+              {v.typed && (
+                <span className="block whitespace-nowrap text-xs text-ink-soft" data-testid="value-typed">
+                  typed {v.typed} − {v.leadNull} lead null{c.row.original.leadNullMeter ? ` (${c.row.original.leadNullMeter})` : ''}
+                </span>
+              )}
+            </span>
+          );
+        },
       }),
       col.accessor('verdict', {
         header: 'Verdict',

@@ -30,7 +30,7 @@ interface Cell {
 export function EntryGrid({
   positions,
   profile,
-  leadOffsetOhm,
+  leadNull,
   canWrite,
   faults,
   queued,
@@ -45,7 +45,8 @@ export function EntryGrid({
   limitsName: string;
   positions: StripPosition[];
   profile: LimitProfile;
-  leadOffsetOhm: number | null;
+  /** The person's test-lead null of this session: subtracted from each reading, its id sent with it. */
+  leadNull: { id: string; valueOhm: number } | null;
   canWrite: boolean;
   faults: StripFault[];
   queued: Map<string, QueuedView>;
@@ -148,7 +149,7 @@ export function EntryGrid({
 
   /** Checks the typed value; a measured step asks once ("record again?"). Null when it can be kept. */
   function check(cell: Cell, text: string, confirmed: boolean): JudgedPreview | null {
-    const p = previewReading(text, cell.ctx, leadOffsetOhm);
+    const p = previewReading(text, cell.ctx, leadNull?.valueOhm ?? null);
     if (p.state === 'empty') {
       setError('Type the reading first, or O for over range (OL).');
       return null;
@@ -169,7 +170,7 @@ export function EntryGrid({
     justRecorded.current.add(cell.step.id);
     setBusy(true);
     try {
-      await submit(cell.position, cell.step, { stepId: cell.step.id, value: text, leadOffsetOhm }, judged);
+      await submit(cell.position, cell.step, { stepId: cell.step.id, value: text, ...(leadNull ? { leadNullId: leadNull.id } : {}) }, judged);
       setValues((v) => ({ ...v, [cell.step.id]: '' }));
       return true;
     } catch (err) {
@@ -270,7 +271,7 @@ export function EntryGrid({
   const faultOf = (step: StripStep) => step.latest?.faultId ?? faults.find((f) => f.stepId === step.id)?.id ?? null;
   const hasInsulation = cells.some((c) => c.step.testKind === 'insulation');
   const hasPisteEarth = cells.some((c) => c.step.testKind === 'piste-earth');
-  const preview = current ? previewReading(values[current.step.id] ?? '', current.ctx, leadOffsetOhm) : null;
+  const preview = current ? previewReading(values[current.step.id] ?? '', current.ctx, leadNull?.valueOhm ?? null) : null;
   const limit = current ? limitText(current.ctx) : null;
   const currentFault = current ? faultOf(current.step) : null;
   const retested = (c: Cell) =>
