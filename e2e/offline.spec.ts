@@ -138,6 +138,10 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await expect(page.getByTestId('queued')).toHaveCount(28);
   await expect(page.getByTestId('queued').filter({ hasText: 'Pass' })).toHaveCount(28);
   await expect(indicator(page)).toHaveText('Offline · 28 readings waiting');
+  // The strip's own sticky bar says the same, and counts the readings still on the tablet.
+  await expect(page.getByTestId('strip-bar-sync')).toHaveAttribute('data-state', 'offline');
+  await expect(page.getByTestId('strip-bar-sync')).toHaveText('Offline · 28 readings waiting');
+  await expect(page.getByTestId('strip-bar-progress')).toHaveText('28 of 28 measured · 28 waiting to send');
   await page.screenshot({ path: test.info().outputPath('offline-after-reload.png'), fullPage: true });
   // Walking to the next strip works offline too.
   await page.goto(nextStripId);

@@ -8,6 +8,8 @@ import type { CertificatePayload, CertifiedReading, DismissedFault } from '../si
 import { formatOhm } from '../../shared/domain/units';
 import { stepsForKind, TEST_KIND_LABELS } from '../../shared/domain/checklist';
 import type { TestKind } from '../../shared/domain/limits';
+import { legendText, READING_SYMBOLS } from '../../shared/domain/symbols';
+import { drawSymbol } from './symbol-mark';
 
 export interface CertificateDocument {
   payload: CertificatePayload;
@@ -47,7 +49,7 @@ export function formatDateRange(startsOn: string, endsOn: string): string {
 const limitText = (r: CertifiedReading) =>
   r.limitOhm === null ? '—' : `${r.limitKind === 'min' ? 'min' : 'max'} ${formatOhm(r.limitOhm)}`;
 const testLabel = (kind: string) => TEST_KIND_LABELS[kind as keyof typeof TEST_KIND_LABELS] ?? kind;
-const verdictLabel = (v: CertifiedReading['verdict']) => (v === 'pass' ? 'Pass' : v === 'near-limit' ? 'Near limit' : 'Fail');
+const verdictLabel = (v: CertifiedReading['verdict']) => READING_SYMBOLS[v].label;
 const ruleLabel = (id: string) => {
   const [kind, test] = id.split('.');
   const k = kind.replace(/-/g, ' ');
@@ -56,20 +58,9 @@ const ruleLabel = (id: string) => {
 const fingerprint = (jws: string) =>
   createHash('sha256').update(jws).digest('hex').toUpperCase().match(/.{4}/g)!.join(' ');
 
-/** A small shape beside the word: a tick for pass, a triangle for near limit, a cross for fail. */
+/** The verdict's shape from the one symbol module (fail ▲, near limit ◆, pass ●), drawn as vectors. */
 function verdictMark(pen: Pen, verdict: CertifiedReading['verdict'], x: number, y: number, size: number) {
-  const s = size * 0.78;
-  const doc = pen.doc.save();
-  if (verdict === 'pass') {
-    doc.moveTo(x, y + s * 0.55).lineTo(x + s * 0.38, y + s * 0.92).lineTo(x + s, y + s * 0.12)
-      .lineWidth(1.1).strokeColor(COLOURS.pass).stroke();
-  } else if (verdict === 'near-limit') {
-    doc.moveTo(x + s / 2, y + s * 0.05).lineTo(x + s, y + s * 0.95).lineTo(x, y + s * 0.95).closePath().fill(COLOURS.near);
-  } else {
-    doc.moveTo(x, y).lineTo(x + s, y + s).moveTo(x + s, y).lineTo(x, y + s).lineWidth(1.1).strokeColor(COLOURS.fail).stroke();
-  }
-  doc.restore();
-  return s;
+  return drawSymbol(pen.doc, READING_SYMBOLS[verdict], x, y, size * 0.78, verdictColour(verdict));
 }
 
 function drawQr(pen: Pen, text: string, x: number, y: number, size: number) {
@@ -540,7 +531,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   w.table(grid.rows, grid.columns, { size: 7.5, headerSize: 6, padY: 3.4 });
   const nulls = p.leadNulls.map((n) => `${formatOhm(n.valueOhm)} (${n.takenBy}, ${timeUtc(n.takenAt)} UTC${n.meter ? `, ${n.meter}` : ''})`);
   w.text(
-    `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. A tick is a pass, a triangle a pass near the limit. ${nulls.length ? `The test-lead null was subtracted from what the meter showed: ${nulls.join('; ')}.` : 'No test-lead null was subtracted.'}`,
+    `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. Marks: ${legendText()}. ${nulls.length ? `The test-lead null was subtracted from what the meter showed: ${nulls.join('; ')}.` : 'No test-lead null was subtracted.'}`,
     { size: 7, color: COLOURS.soft },
     6,
   );

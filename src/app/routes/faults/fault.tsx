@@ -17,16 +17,12 @@ import { DismissForm } from '@/features/faults/components/dismiss-form';
 import { CableDrawing } from '@/components/ui/cable-drawing';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { DataTable } from '@/components/ui/data-table';
-import { StatusMark } from '@/components/ui/status-mark';
+import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { FAULT_SYMBOLS, READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 
-const statusLook = {
-  open: { shape: 'triangle', tone: 'fail' },
-  located: { shape: 'diamond', tone: 'fail' },
-  repaired: { shape: 'half', tone: 'near' },
-  closed: { shape: 'circle', tone: 'pass' },
-} as const;
-const verdictLook = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['diamond', 'near', 'Near limit'], fail: ['triangle', 'fail', 'Fail'] } as const;
+const statusLook = FAULT_SYMBOLS;
+const verdictLook = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const ACTION_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped', retired: 'Retired' } as const;
 
 type FaultStep = NonNullable<ReturnType<typeof useFault>['data']>['steps'][number];
@@ -164,7 +160,7 @@ export default function FaultPage() {
                 About {formatLength(shown.distanceM, unit)} ±{formatLength(shown.uncertaintyM, unit)} from the apparatus end
                 {drawnM !== null ? ` (${formatLength(drawnM - shown.distanceM, unit)} from the far end${shortenedSince ? ` of the ${formatLength(drawnM, unit)} it was then` : ''})` : ''}
               </strong>
-              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'triangle'} tone={shown.agree ? 'pass' : 'near'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
+              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'octagon'} tone={shown.agree ? 'pass' : 'brass'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
             </p>
             <p>{shown.count > 1 || shown.apart.length > 0 ? shown.explanation : f.estimates.find((e) => used.has(e.id))?.explanation}</p>
           </div>

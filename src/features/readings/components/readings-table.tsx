@@ -19,11 +19,12 @@ import { readingValueView } from '@shared/domain/typed-reading';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { StatusMark } from '@/components/ui/status-mark';
+import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { READING_SYMBOLS } from '@shared/domain/symbols';
 import type { ReadingRow } from '../api/get-venue-readings';
 import type { CorrectionInput } from '../api/correct-reading';
 
-const VERDICT = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['triangle', 'near', 'Near limit'], fail: ['square', 'fail', 'Fail'] } as const;
+const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const col = createColumnHelper<ReadingRow>();
 const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' });
 /** A reading typed offline reached the server a while after it was taken: say when. */
@@ -223,7 +224,7 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
                       {h.column.getCanSort() ? (
                         <button type="button" className="inline-flex min-h-touch items-center gap-1 font-semibold uppercase" onClick={h.column.getToggleSortingHandler()}>
                           {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                          <span aria-hidden>{sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '↕'}</span>
                         </button>
                       ) : (
                         flexRender(h.column.columnDef.header, h.getContext())

@@ -32,6 +32,8 @@ export interface StripFault {
   conductors: string;
   status: FaultStatus;
   equipment: { assetTag: string } | null;
+  /** When it was repaired (a repaired fault only): readings since then are its retest. */
+  repairedAt: string | null;
 }
 
 export interface StripDetail {

@@ -57,6 +57,8 @@ export function StepRow({
   canWrite,
   faultId,
   highlight,
+  retested = false,
+  showCaution = true,
   queued,
   inputRef,
   submit,
@@ -70,6 +72,10 @@ export function StepRow({
   canWrite: boolean;
   faultId: string | null;
   highlight: boolean;
+  /** Measured again since the repair of its item's fault. */
+  retested?: boolean;
+  /** The caution of its kind is shown once per item kind, on its first step. */
+  showCaution?: boolean;
   queued: QueuedView | null;
   inputRef: Ref<HTMLInputElement>;
   submit: Submit;
@@ -132,6 +138,7 @@ export function StepRow({
     <li
       className={`grid gap-3 border-b border-line px-4 py-4 last:border-0 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.15fr)] ${highlight ? 'bg-brass-soft/60' : ''}`}
       data-step={`${step.testKind} ${step.conductors}`}
+      data-retested={retested ? 'yes' : undefined}
     >
       <div className="min-w-0">
         <div className="flex items-baseline gap-2">
@@ -140,6 +147,11 @@ export function StepRow({
             {title}
           </label>
           {!step.required && <span className="text-xs text-ink-soft">(optional)</span>}
+          {retested && (
+            <span data-testid="retested" className="rounded-full border border-brand/40 bg-brand-soft px-2 text-xs font-semibold text-brand">
+              Retested after the repair
+            </span>
+          )}
         </div>
         <p className="mt-1 text-sm text-ink">{step.instruction}</p>
         {limit && (
@@ -147,12 +159,12 @@ export function StepRow({
             Limit: <strong className="text-ink">{limit.text}</strong> — {limit.source}
           </p>
         )}
-        {step.testKind === 'insulation' && (
+        {showCaution && step.testKind === 'insulation' && (
           <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
             <strong>Caution:</strong> use the multimeter’s resistance range. Never use a high-voltage insulation tester on a cable still connected to a scoring apparatus or any electronics.
           </p>
         )}
-        {step.testKind === 'piste-earth' && (
+        {showCaution && step.testKind === 'piste-earth' && (
           <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
             <strong>Note:</strong> this checks the piste’s link to the apparatus earth only. The hall’s own earthing and mains installation are the business of a licensed electrician under local codes.
           </p>
@@ -294,7 +306,7 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
     const notice = queued.status === 'notice';
     return (
       <div data-testid="queued" data-status={queued.status} className={`mt-2 flex flex-wrap items-center gap-2 rounded-md border-2 px-2 py-1 text-sm ${notice ? 'border-brass bg-brass-soft' : 'border-fail/50 bg-fail-soft'}`}>
-        <StatusMark shape="triangle" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
+        <StatusMark shape="octagon" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
         <strong className="tabular-nums">{queued.display}</strong>
         <span>{queued.title}</span>
         <Link to={paths.onThisTablet} className="inline-flex min-h-touch items-center font-medium text-brand underline">
@@ -305,7 +317,7 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
   }
   return (
     <div data-testid="queued" data-status={queued.status} className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-soft/50 bg-paper px-2 py-1 text-sm">
-      <StatusMark shape={queued.status === 'sending' ? 'half' : 'ring'} tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
+      <StatusMark shape="hourglass" tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
       <strong className="tabular-nums">{queued.display}</strong>
       {queued.verdict && <StatusMark {...verdictLook[queued.verdict]} size="sm" />}
       <span className="text-xs text-ink-soft">
