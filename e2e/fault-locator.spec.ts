@@ -35,13 +35,13 @@ test('a technician locates the demo short from both ends, sees it on the drawing
   await expect(page.getByText('✓ Checked by the server')).toBeVisible();
 
   // Feet: 7.4 m / 0.3048 = 24.28 ft; the typed length keeps its metres.
-  await page.getByRole('button', { name: /Lengths shown in metres/ }).click();
+  await page.getByRole('group', { name: 'Lengths' }).getByText('ft', { exact: true }).click();
   await expect(distance).toHaveText('24.3 ft');
   await expect(readings.getByLabel(/^Cable length/)).toHaveValue('12 m');
   await expect(page.getByRole('img', { name: /fault about 24\.3 ft from the near end/ })).toBeVisible();
   await expect(page.getByText('✓ Checked by the server')).toBeVisible();
   // Back to metres, so the preference is as the demo had it.
-  await page.getByRole('button', { name: /Lengths shown in feet/ }).click();
+  await page.getByRole('group', { name: 'Lengths' }).getByText('m', { exact: true }).click();
   await expect(distance).toHaveText('7.4 m');
 
   // A noisy trace with a short 96 ns after the incident edge, 1 ns per sample.
