@@ -469,6 +469,18 @@ function readingGrid(readings: CertifiedReading[]) {
   return { rows: list, columns };
 }
 
+/**
+ * The venue with the strip's zone, unless the venue's name already says it: a zone "Annex" in
+ * "Riverside Annex" would read "Riverside Annex, Annex".
+ */
+export function placeOf(venueName: string, zone: string | null | undefined): string {
+  const z = zone?.trim();
+  if (!z) return venueName;
+  const words = (t: string) => t.toLocaleLowerCase().split(/[^\p{L}\p{N}]+/u).filter(Boolean);
+  const name = words(venueName).join(' ');
+  return ` ${name} `.includes(` ${words(z).join(' ')} `) ? venueName : `${venueName}, ${z}`;
+}
+
 function renderStrip(w: Writer, doc: CertificateDocument) {
   const { payload: p } = doc;
   const strip = p.strips[0];
@@ -481,7 +493,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
     10,
   );
   w.facts([
-    ['Venue', `${p.venue.name}${strip.zone ? `, ${strip.zone}` : ''}`],
+    ['Venue', placeOf(p.venue.name, strip.zone)],
     ['Items by asset tag', strip.items.map((i) => i.assetTag ?? i.position).join(', ')],
     ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
     ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),

@@ -12,7 +12,7 @@ import { venueIds } from './testing-helpers';
 import { capturedMail, certificates, events, signOffs, users, venues } from '../../server/db/schema';
 import { hashPassword, TEST_SCRYPT } from '../../server/auth/password';
 import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
-import { renderCertificatePdf } from '../../server/pdf/certificate-pdf';
+import { placeOf, renderCertificatePdf } from '../../server/pdf/certificate-pdf';
 import type { CertificatePayload } from '../../server/signing/certificate-record';
 import { keyIdOf, newPrivateJwk, privateKeyFromText, publicJwkOf, writeKeyFile } from '../../server/signing/signing-keys';
 
@@ -246,7 +246,17 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
       expect(s).toContain(strip.number);
       expect(s).toContain('Riverside Annex');
       expect(s).toContain(venue.number);
+      // The annex strips' zone is "Annex": said once, not "Riverside Annex, Annex".
+      expect(s).not.toMatch(/Riverside Annex[\s,]+Annex\b/);
     }
+  });
+
+  test('the place of a strip names its zone once', () => {
+    expect(placeOf('Riverside Annex', 'Annex')).toBe('Riverside Annex');
+    expect(placeOf('Riverside Sports Hall', 'Row A')).toBe('Riverside Sports Hall, Row A');
+    expect(placeOf('Riverside Sports Hall', 'sports hall')).toBe('Riverside Sports Hall');
+    expect(placeOf('Annexe Hall', 'Annex')).toBe('Annexe Hall, Annex');
+    expect(placeOf('Riverside Annex', null)).toBe('Riverside Annex');
   });
 
   test('rendering the same record twice gives the same bytes', async () => {
