@@ -241,7 +241,8 @@ class Writer {
     this.y += h + 12;
   }
 
-  signature(jws: string, keyId: string) {
+  /** The signature in plain words, with the code to scan; the technical details go to signatureAnnex(). */
+  signature(annexName: string) {
     const { frame: FRAME, width: WIDTH } = this;
     const qr = 86;
     const h = qr + 24;
@@ -252,25 +253,42 @@ class Writer {
     this.pen.line('SIGNED ELECTRONICALLY', left, top, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.8 });
     this.pen.line(this.p.signer.name, left, top + 11, { size: 13, weight: 600 });
     this.pen.line(`${this.p.signer.role}, ${formatUtc(this.p.signedAt)}`, left, top + 29, { size: 9, color: COLOURS.soft });
-    const mono: TextStyle = { size: 7, color: COLOURS.soft };
-    let y = top + 48;
+    const plain: TextStyle = { size: 8.5, color: COLOURS.ink };
+    const words = `${this.p.issuer.organisation.name} signed this certificate with its own digital key when the venue was signed off. To check that it is genuine, unaltered and still valid, scan the code or open ${this.p.verifyUrl}. Any change to the file or its record shows there. The technical details are in ${annexName}.`;
+    let y = top + 46;
+    for (const l of this.pen.wrap(words, textW, plain)) {
+      this.pen.line(l, left, y, plain);
+      y += 11;
+    }
+    const qx = FRAME.right - qr;
+    drawQr(this.pen, this.p.verifyUrl, qx, top - 2, qr);
+    this.pen.line('Scan to check this certificate', qx - 20, top + qr + 2, { size: 6.5, color: COLOURS.soft }, { width: qr + 20, align: 'right' });
+    this.y = Math.max(y, top + qr + 14) + 6;
+  }
+
+  /** The signature's technical details, for whoever checks it by hand. */
+  signatureAnnex(title: string, jws: string, keyId: string) {
+    const { frame: FRAME, width: WIDTH } = this;
+    this.need(120);
+    this.y += 14;
+    this.eyebrow(title);
+    this.pen.line('Signature details', FRAME.left, this.y, { size: 16, weight: 600 });
+    this.y += 25;
+    const mono: TextStyle = { size: 7.5, color: COLOURS.soft };
     const rows: [string, string][] = [
-      ['Signature', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
+      ['Algorithm', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
       ['Key id', keyId],
       ['JWS SHA-256', fingerprint(jws)],
       ['Full signature', `${this.p.issuer.origin}/api/verify/${this.p.number}`],
       ['Public keys', `${this.p.issuer.origin}/.well-known/jwks.json`],
     ];
     for (const [label, value] of rows) {
-      this.pen.line(label, left, y, { size: 7, weight: 600, color: COLOURS.ink });
-      const lines = this.pen.wrap(value, textW - 62, mono);
-      lines.forEach((l, i) => this.pen.line(l, left + 62, y + i * 9.4, mono));
-      y += lines.length * 9.4 + 1.5;
+      const lines = this.pen.wrap(value, WIDTH - 80, mono);
+      this.need(lines.length * 10 + 2);
+      this.pen.line(label, FRAME.left, this.y, { size: 7.5, weight: 600, color: COLOURS.ink });
+      lines.forEach((l, i) => this.pen.line(l, FRAME.left + 80, this.y + i * 10, mono));
+      this.y += lines.length * 10 + 3;
     }
-    const qx = FRAME.right - qr;
-    drawQr(this.pen, this.p.verifyUrl, qx, top - 2, qr);
-    this.pen.line('Scan to check this certificate', qx - 20, top + qr + 2, { size: 6.5, color: COLOURS.soft }, { width: qr + 20, align: 'right' });
-    this.y = Math.max(y, top + qr + 14) + 6;
   }
 }
 
@@ -375,7 +393,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.section('Statement of the technical director', 30);
   w.text(`“${p.statement}”`, { size: 9.5, color: COLOURS.ink }, 12);
   w.scope();
-  w.signature(doc.jws, doc.keyId);
+  w.signature('Annex C');
 
   // The annexes are landscape, so each rule and each reading fits on a line.
   w.newPage('landscape');
@@ -400,6 +418,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
     8,
   );
   w.table(doc.readings, readingColumns(), { size: 7.5, headerSize: 6, padY: 2.6, zebra: true });
+  w.signatureAnnex('Annex C', doc.jws, doc.keyId);
 }
 
 // The strip certificate shows its readings as a grid: one row per item, one column per test, in
@@ -512,7 +531,8 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   w.ruleList(p.profile.rules.filter((r) => used.has(r.id)).map((r) => [ruleLabel(r.id), `${r.limit} · ${r.source}`]));
   w.text(`Statement of the technical director: “${p.statement}”`, { size: 8, color: COLOURS.ink }, 10);
   w.scope();
-  w.signature(doc.jws, doc.keyId);
+  w.signature('the annex at the end');
+  w.signatureAnnex('Annex', doc.jws, doc.keyId);
 }
 
 export async function renderCertificatePdf(input: CertificateDocument): Promise<Buffer> {

@@ -251,6 +251,24 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     }
   });
 
+  test('page 1 says who signed in plain words; the algorithm, key id and links are in the last annex (PDF.js)', async () => {
+    const nina = await t.agentFor(DEMO.organiser);
+    for (const c of issued) {
+      const res = await download(nina, `/api/certificates/${c.number}/pdf`);
+      const { pages } = await readPdf(res.body, { fonts: false });
+      const row = t.db.select().from(certificates).where(eq(certificates.number, c.number)).get()!;
+      const first = pages[0].replace(/\s+/g, ' ');
+      expect(first).toContain('signed this certificate with its own digital key');
+      expect(first).toMatch(/scan the code or open/);
+      for (const technical of ['Ed25519', 'JWS', 'Key id', row.keyId, '/.well-known/jwks.json']) expect(first, c.number).not.toContain(technical);
+      const last = pages.at(-1)!.replace(/\s+/g, ' ');
+      expect(last).toContain('Signature details');
+      expect(last).toContain('Ed25519');
+      expect(last).toContain(row.keyId);
+      expect(last).toContain('/.well-known/jwks.json');
+    }
+  });
+
   test('the place of a strip names its zone once', () => {
     expect(placeOf('Riverside Annex', 'Annex')).toBe('Riverside Annex');
     expect(placeOf('Riverside Sports Hall', 'Row A')).toBe('Riverside Sports Hall, Row A');
