@@ -1,6 +1,7 @@
 // One lint gate for the whole repo. The import rules keep the architecture of DEVELOPERS.md
-// visible: src → shared, server → shared, shared → nothing but zod; features do not import
-// each other; no import cycles.
+// visible: src → shared, server → shared, shared → nothing but zod; in src, app → features →
+// components and lib (never back), features do not import each other; no import cycles.
+// tests/lint/import-boundaries.test.ts feeds a probe file per forbidden direction through this.
 import js from '@eslint/js';
 import tseslint from 'typescript-eslint';
 import reactHooks from 'eslint-plugin-react-hooks';
@@ -37,12 +38,24 @@ export default tseslint.config(
       'import-x/no-restricted-paths': [
         'error',
         {
-          zones: features.map((f) => ({
-            target: `./src/features/${f}`,
-            from: './src/features',
-            except: [`./${f}`],
-            message: 'A feature does not import another feature; compose them in a page.',
-          })),
+          zones: [
+            ...features.map((f) => ({
+              target: `./src/features/${f}`,
+              from: './src/features',
+              except: [`./${f}`],
+              message: 'A feature does not import another feature; compose them in a page.',
+            })),
+            {
+              target: './src/features',
+              from: './src/app',
+              message: 'A feature does not import app code (routes, router, provider); pages import features.',
+            },
+            {
+              target: ['./src/components', './src/lib'],
+              from: ['./src/features', './src/app'],
+              message: 'components/ and lib/ know no business words: they import no feature or app code.',
+            },
+          ],
         },
       ],
     },

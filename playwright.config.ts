@@ -41,7 +41,9 @@ export default defineConfig({
   webServer: process.env.PLAYWRIGHT_BASE_URL
     ? undefined
     : {
-        command: 'rm -rf .tmp/e2e && npx tsx server/index.ts',
+        // Its console goes to a file: one-time links (invitations, resets) are printed there, never
+        // shown in the outbox, and the specs read them from it (e2e/fixtures.ts, oneTimeLinkFor).
+        command: 'rm -rf .tmp/e2e && mkdir -p .tmp/e2e && npx tsx server/index.ts > .tmp/e2e/server.log',
         url: `${baseURL}/api/health`,
         reuseExistingServer: false,
         timeout: 120_000,

@@ -11,6 +11,7 @@ const all: Record<string, () => Promise<{ run: () => Promise<BenchResult> }>> = 
   certificate: () => import('./certificate.bench'),
   'testing-screen': () => import('./testing-screen.bench'),
   'hall-network': () => import('./hall-network.bench'),
+  mixed: () => import('./mixed.bench'),
 };
 
 const wanted = process.argv.slice(2).length ? process.argv.slice(2) : Object.keys(all);

@@ -1,4 +1,4 @@
-import { test, expect, DEMO_USERS, DEMO_PASSWORD, apiAs } from './fixtures';
+import { test, expect, DEMO_USERS, DEMO_PASSWORD, apiAs, oneTimeLinkFor } from './fixtures';
 
 const homes = [
   ['admin', 'People and equipment'],
@@ -62,11 +62,16 @@ test('an invitation e-mail reaches the local SMTP fake, its link sets a password
   await expect(page.getByText('Invitation sent to robin@lakeshore.example')).toBeVisible();
   await expect(page.getByRole('cell', { name: /^Robin Hale robin@/ })).toBeVisible();
 
+  // The outbox shows the invitation, with its one-time link withheld: an admin cannot take it.
   await page.goto('/people/outbox');
   await page.getByRole('button', { name: /Your Stripwarden invitation/ }).first().click();
   const body = await page.locator('article pre').innerText();
   expect(body).toContain('Robin Hale');
-  const link = /https?:\/\/\S+\/set-password\/\S+/.exec(body)![0];
+  expect(body).toContain('one-time link withheld');
+  expect(body).not.toMatch(/\/set-password\//);
+  await page.screenshot({ path: test.info().outputPath('outbox-withheld.png') });
+  // The link reaches the person (here: the server's console, as with the local SMTP fake).
+  const link = await oneTimeLinkFor('robin@lakeshore.example');
 
   const invitee = await browser.newPage();
   await invitee.goto(link);

@@ -1,4 +1,5 @@
 import { test as base, expect, type Page } from '@playwright/test';
+import { existsSync, readFileSync } from 'node:fs';
 
 export const DEMO_PASSWORD = 'demo-strip-2026';
 export const DEMO_USERS = {
@@ -26,6 +27,28 @@ export async function apiAs<T = unknown>(page: Page, method: 'GET' | 'POST' | 'P
   const res = await page.request.fetch(path, { method, data, headers: { Origin: origin } });
   const body = (res.headers()['content-type'] ?? '').includes('json') ? await res.json() : await res.text();
   return { status: res.status(), body: body as T };
+}
+
+/**
+ * The one-time link the server printed on its console for this address (the local SMTP fake keeps
+ * it out of the outbox). The test server's console is `.tmp/e2e/server.log`; with a server of your
+ * own (PLAYWRIGHT_BASE_URL), point E2E_SERVER_LOG at its console output.
+ */
+export async function oneTimeLinkFor(email: string): Promise<string> {
+  const log = process.env.E2E_SERVER_LOG ?? '.tmp/e2e/server.log';
+  let link = '';
+  await expect
+    .poll(
+      () => {
+        const lines = existsSync(log) ? readFileSync(log, 'utf8').split('\n') : [];
+        const line = lines.filter((l) => l.includes(`One-time link for ${email} `)).at(-1);
+        link = /https?:\/\/\S+\/set-password\/[A-Za-z0-9_-]+/.exec(line ?? '')?.[0] ?? '';
+        return link;
+      },
+      { message: `the server printed a one-time link for ${email} (${log})` },
+    )
+    .not.toBe('');
+  return link;
 }
 
 export const test = base.extend<{ signIn: (role: DemoRole) => Promise<void> }>({

@@ -10,9 +10,11 @@ import { ApiRouter, type RouteSpec } from './http/api-router';
 import { serveClient } from './http/static-files';
 import { authenticate, sessionCookie } from './auth/authenticate';
 import { csrfGuard } from './middleware/csrf';
+import { hostCheck } from './middleware/host-check';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { requestLog } from './middleware/request-log';
 import { authService } from './services/auth.service';
+import { healthRepository } from './db/health.repository';
 import { authRoutes } from './routes/auth.routes';
 import { usersRoutes } from './routes/users.routes';
 import { venuesRoutes } from './routes/venues.routes';
@@ -46,6 +48,7 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   // files keep their own from express.static.
   app.set('etag', false);
   app.set('trust proxy', 'loopback');
+  app.use(hostCheck(deps.env.APP_ORIGIN, deps.env.ALLOWED_HOSTS));
 
   app.use(
     helmet({
@@ -80,12 +83,15 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   const cookie = sessionCookie(deps.env.APP_ORIGIN);
 
   const health = new ApiRouter();
+  const healthRepo = healthRepository(deps.sqlite);
+  // Healthy means a write can commit, not only that the file opens: readings must be storable.
   health.get('/health', 'public', (_req, res) => {
     let db = 'ok';
     try {
-      deps.sqlite.prepare('select 1').get();
-    } catch {
+      healthRepo.probeWrite(new Date().toISOString());
+    } catch (err) {
       db = 'error';
+      deps.log.error('health check: the database cannot commit a write', err);
     }
     res.status(db === 'ok' ? 200 : 503).json({ status: db === 'ok' ? 'ok' : 'degraded', db, version: deps.version });
   });

@@ -3,6 +3,7 @@ import type { Env } from './config/env';
 import type { Db } from './db/client';
 import type { Mailer } from './mail/mailer';
 import type { ScryptParams } from './auth/password';
+import type { WorkerPool } from './workers/pool';
 
 export interface Logger {
   info(msg: string): void;
@@ -19,4 +20,6 @@ export interface AppDeps {
   scrypt: ScryptParams;
   log: Logger;
   version: string;
+  /** Worker threads for CPU-heavy jobs (traces, spreadsheets, certificate PDFs). */
+  workers: WorkerPool;
 }

@@ -5,6 +5,7 @@ import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import * as schema from './schema';
+import { PRIVATE_DIR_MODE, PRIVATE_FILE_MODE, tighten, touchPrivateFile } from '../storage/private-files';
 
 export type Db = BetterSQLite3Database<typeof schema>;
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
@@ -16,7 +17,15 @@ export interface Database_ {
 const migrationsFolder = resolve(dirname(fileURLToPath(import.meta.url)), '../../migrations');
 
 export function openDatabase(path: string, opts: { migrate?: boolean } = {}): Database_ {
-  if (path !== ':memory:') mkdirSync(dirname(resolve(path)), { recursive: true });
+  if (path !== ':memory:') {
+    const file = resolve(path);
+    mkdirSync(dirname(file), { recursive: true, mode: PRIVATE_DIR_MODE });
+    // SQLite creates the -wal and -shm files with the database file's own permissions
+    // (os_unix.c, findCreateFileMode), so a 0600 database keeps them private too.
+    touchPrivateFile(file);
+    tighten(`${file}-wal`, PRIVATE_FILE_MODE);
+    tighten(`${file}-shm`, PRIVATE_FILE_MODE);
+  }
   const sqlite = new Database(path);
   sqlite.pragma('journal_mode = WAL');
   // WAL with NORMAL can lose a committed transaction on power loss (sqlite.org, PRAGMA synchronous).

@@ -1,10 +1,10 @@
-import { desc, eq } from 'drizzle-orm';
+import { and, desc, eq } from 'drizzle-orm';
 import type { Db } from './client';
 import { capturedMail } from './schema';
 
 export function mailRepository(db: Db) {
   return {
-    list: (limit = 200) =>
+    list: (orgId: string, limit = 200) =>
       db
         .select({
           id: capturedMail.id,
@@ -14,9 +14,15 @@ export function mailRepository(db: Db) {
           receivedAt: capturedMail.receivedAt,
         })
         .from(capturedMail)
+        .where(eq(capturedMail.orgId, orgId))
         .orderBy(desc(capturedMail.id))
         .limit(limit)
         .all(),
-    get: (id: number) => db.select().from(capturedMail).where(eq(capturedMail.id, id)).get(),
+    get: (orgId: string, id: number) =>
+      db
+        .select()
+        .from(capturedMail)
+        .where(and(eq(capturedMail.id, id), eq(capturedMail.orgId, orgId)))
+        .get(),
   };
 }

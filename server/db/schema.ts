@@ -198,6 +198,27 @@ export const steps = sqliteTable(
   (t) => [index('steps_position_idx').on(t.positionId)],
 );
 
+// A technician's test-lead null: the leads' own resistance with the probe tips touching, measured
+// once per session and subtracted from that technician's readings. Its own record (who, when,
+// which meter), so a reading says which null it used. The id is made on the tablet, like a
+// reading's, so a null set offline is recognised when it is sent again.
+export const leadNulls = sqliteTable(
+  'lead_nulls',
+  {
+    id: id(),
+    orgId: text('org_id').notNull().references(() => organisations.id),
+    takenBy: text('taken_by').notNull().references(() => users.id),
+    // The sign-in session it was sent from (null if that session is gone from the record).
+    sessionId: text('session_id'),
+    valueText: text('value_text').notNull(),
+    valueOhm: real('value_ohm').notNull(),
+    meter: text('meter'),
+    takenAt: text('taken_at').notNull(),
+    receivedAt: text('received_at').notNull(),
+  },
+  (t) => [index('lead_nulls_taken_by_idx').on(t.takenBy)],
+);
+
 // Append-only: a correction is a new reading that supersedes an earlier one.
 export const readings = sqliteTable(
   'readings',
@@ -208,7 +229,9 @@ export const readings = sqliteTable(
     valueText: text('value_text').notNull(),
     valueOhm: real('value_ohm'),
     overRange: integer('over_range', { mode: 'boolean' }).notNull(),
+    // The test-lead null subtracted (its value, copied when the reading was judged) and its record.
     leadOffsetOhm: real('lead_offset_ohm'),
+    leadNullId: text('lead_null_id').references(() => leadNulls.id),
     temperatureC: real('temperature_c'),
     verdict: text('verdict', { enum: ['pass', 'near-limit', 'fail'] }).notNull(),
     limitOhm: real('limit_ohm'),
@@ -248,6 +271,11 @@ export const faults = sqliteTable(
     openedBy: text('opened_by').notNull().references(() => users.id),
     openedAt: text('opened_at').notNull().default(now),
     closedAt: text('closed_at'),
+    // A fault that was a typing mistake is closed by the event's director with a reason, not by a
+    // correction: who, when and why are kept here (and in the audit trail and on the certificate).
+    dismissedBy: text('dismissed_by').references(() => users.id),
+    dismissedAt: text('dismissed_at'),
+    dismissedReason: text('dismissed_reason'),
   },
   // Every reading looks up its step's unclosed fault and its position's repaired ones.
   (t) => [index('faults_strip_idx').on(t.stripId), index('faults_step_idx').on(t.stepId), index('faults_position_idx').on(t.positionId)],
@@ -358,15 +386,29 @@ export const auditLog = sqliteTable(
 );
 
 // What the local fake SMTP server received (demo, dev and tests).
-export const capturedMail = sqliteTable('captured_mail', {
-  id: integer('id').primaryKey({ autoIncrement: true }),
-  fromAddress: text('from_address').notNull(),
-  toAddresses: text('to_addresses').notNull(),
-  subject: text('subject').notNull(),
-  text: text('text').notNull().default(''),
-  html: text('html'),
-  raw: text('raw').notNull(),
-  receivedAt: text('received_at').notNull().default(now),
+// What the local fake SMTP server received. One-time links (set a password, reset, invitation) are
+// never stored: text and html hold them withheld, and `raw` is then only the message's headers.
+// Each message belongs to the organisation that sent it; rows without one are shown to nobody.
+export const capturedMail = sqliteTable(
+  'captured_mail',
+  {
+    id: integer('id').primaryKey({ autoIncrement: true }),
+    orgId: text('org_id').references(() => organisations.id),
+    fromAddress: text('from_address').notNull(),
+    toAddresses: text('to_addresses').notNull(),
+    subject: text('subject').notNull(),
+    text: text('text').notNull().default(''),
+    html: text('html'),
+    raw: text('raw').notNull(),
+    receivedAt: text('received_at').notNull().default(now),
+  },
+  (t) => [index('captured_mail_org_idx').on(t.orgId, t.id)],
+);
+
+// One row, rewritten by GET /api/health: proof that a write can still commit.
+export const healthProbe = sqliteTable('health_probe', {
+  id: integer('id').primaryKey(),
+  checkedAt: text('checked_at').notNull(),
 });
 
 // Replays of offline writes: the stored answer for an Idempotency-Key.

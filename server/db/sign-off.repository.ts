@@ -99,6 +99,15 @@ export function signOffRepository(db: Db | Tx) {
         .where(eq(certificates.venueId, venueId))
         .orderBy(desc(certificates.issuedAt), asc(certificates.kind), asc(strips.sortOrder))
         .all(),
+    /** Every certificate of one sign-off (its venue certificate and strip certificates). */
+    certificatesOfSignOff: (signOffId: string) =>
+      db
+        .select({ certificate: certificates, stripLabel: strips.label })
+        .from(certificates)
+        .leftJoin(strips, eq(certificates.stripId, strips.id))
+        .where(eq(certificates.signOffId, signOffId))
+        .orderBy(asc(strips.sortOrder))
+        .all(),
     certificateByNumber: (number: string) =>
       db.select().from(certificates).where(eq(certificates.number, number)).get(),
     certificatesBySha: (sha256: string) =>

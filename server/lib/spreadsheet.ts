@@ -5,12 +5,18 @@ import Papa from 'papaparse';
 import ExcelJS from 'exceljs';
 import { Readable } from 'node:stream';
 import { fileTypeFromBuffer } from 'file-type';
+import { Unzip, UnzipInflate } from 'fflate';
 import { AppError, unprocessable } from './app-error';
 
 export interface SheetLimits {
   maxRows: number;
   maxColumns: number;
+  /** What a workbook (a zip) may unpack to, all its parts together. */
+  maxUnpackedBytes: number;
 }
+
+/** Parts of a workbook: a few dozen in a real one. */
+const MAX_ZIP_ENTRIES = 1000;
 
 export interface Sheet {
   format: 'csv' | 'xlsx';
@@ -25,6 +31,50 @@ const tooManyColumns = (line: number, max: number) =>
   unprocessable('too-many-columns', `Row ${line} has more than ${max} columns; a register needs a dozen or so. Remove the extra columns and try again.`);
 const tooManyRows = (max: number) =>
   unprocessable('too-many-rows', `The file has more than ${max.toLocaleString('en')} rows; split it into smaller files.`);
+const unpacksTooLarge = (max: number) =>
+  new AppError(
+    413,
+    'workbook-too-large',
+    `The workbook unpacks to more than ${Math.round(max / 2 ** 20)} MB (an .xlsx file is compressed); a register is a few MB. Save it again without the extra content, or export it as CSV.`,
+    { maxUnpackedBytes: max },
+  );
+
+/**
+ * A zip bomb is refused before ExcelJS unpacks it: the parts are inflated here, counting the bytes
+ * as they come and stopping at the limit (the sizes a zip declares can lie). The input is fed in
+ * small slices, so no more than a few MB are inflated past the limit.
+ */
+function checkUnpackedSize(bytes: Uint8Array, maxBytes: number) {
+  let total = 0;
+  let entries = 0;
+  let over = false;
+  const unzip = new Unzip((file) => {
+    if (over) return;
+    if (++entries > MAX_ZIP_ENTRIES) {
+      over = true;
+      return;
+    }
+    // Another compression method: not a workbook part ExcelJS could read; it refuses the file later.
+    if (file.compression !== 0 && file.compression !== 8) return;
+    file.ondata = (err, chunk) => {
+      if (err || over) return;
+      total += chunk.length;
+      if (total > maxBytes) {
+        over = true;
+        file.terminate();
+      }
+    };
+    file.start();
+  });
+  unzip.register(UnzipInflate);
+  const SLICE = 4096;
+  try {
+    for (let i = 0; i < bytes.length && !over; i += SLICE) unzip.push(bytes.subarray(i, i + SLICE), i + SLICE >= bytes.length);
+  } catch {
+    // A damaged archive: ExcelJS says so below (unreadable-workbook).
+  }
+  if (over) throw unpacksTooLarge(maxBytes);
+}
 
 export async function readSheet(bytes: Buffer, fileName: string, limits: SheetLimits): Promise<Sheet> {
   const ext = fileName.toLowerCase().split('.').pop() ?? '';
@@ -33,6 +83,7 @@ export async function readSheet(bytes: Buffer, fileName: string, limits: SheetLi
     if (detected?.mime !== XLSX_MIME) {
       throw new AppError(415, 'content-mismatch', `The file is named .xlsx but its content is ${detected?.mime ?? 'not a workbook'}.`);
     }
+    checkUnpackedSize(bytes, limits.maxUnpackedBytes);
     return readXlsx(bytes, limits);
   }
   if (ext === 'csv' || ext === 'txt') {
@@ -125,6 +176,8 @@ function cellText(value: ExcelJS.CellValue): string {
 async function readXlsx(bytes: Buffer, limits: SheetLimits): Promise<Sheet> {
   const rows: string[][] = [];
   const rowNumbers: number[] = [];
+  // Empty rows are skipped, not free: a sheet of millions of empty rows is refused as well.
+  let rowsSeen = 0;
   try {
     const reader = new ExcelJS.stream.xlsx.WorkbookReader(Readable.from(bytes), {
       worksheets: 'emit',
@@ -135,6 +188,7 @@ async function readXlsx(bytes: Buffer, limits: SheetLimits): Promise<Sheet> {
     });
     for await (const sheet of reader) {
       for await (const row of sheet) {
+        if (++rowsSeen > limits.maxRows * 2) throw tooManyRows(limits.maxRows);
         const values = row.values as ExcelJS.CellValue[];
         // values[0] is unused: ExcelJS counts columns from 1.
         if (values.length - 1 > limits.maxColumns) {

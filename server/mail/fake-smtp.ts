@@ -1,12 +1,32 @@
 import { SMTPServer } from 'smtp-server';
 import { simpleParser } from 'mailparser';
+import { eq } from 'drizzle-orm';
 import type { AddressInfo } from 'node:net';
 import type { Db } from '../db/client';
-import { capturedMail } from '../db/schema';
+import { capturedMail, organisations } from '../db/schema';
+import { ORGANISATION_HEADER } from './mailer';
+import { withholdOneTimeLinks } from './one-time-links';
+
+export interface OneTimeLink {
+  to: string;
+  subject: string;
+  link: string;
+}
+
+/** The message's header block (up to the first empty line): what is kept of a message that held a one-time link. */
+function headerBlock(raw: string): string {
+  const end = raw.search(/\r?\n\r?\n/);
+  return end < 0 ? raw : raw.slice(0, end);
+}
 
 // A local SMTP server that keeps what it receives, so demo, dev and tests send real SMTP without
-// anything leaving the machine. Listens on 127.0.0.1 only.
-export async function startFakeSmtp(db: Db, port: number): Promise<{ port: number; close: () => Promise<void> }> {
+// anything leaving the machine. Listens on 127.0.0.1 only. One-time links are never stored: each is
+// handed to `onOneTimeLink` (the server prints it on its console) and withheld from the copy kept.
+export async function startFakeSmtp(
+  db: Db,
+  port: number,
+  opts: { onOneTimeLink?: (l: OneTimeLink) => void } = {},
+): Promise<{ port: number; close: () => Promise<void> }> {
   const server = new SMTPServer({
     authOptional: true,
     disabledCommands: ['STARTTLS'],
@@ -17,19 +37,30 @@ export async function startFakeSmtp(db: Db, port: number): Promise<{ port: numbe
       stream.on('data', (c: Buffer) => chunks.push(c));
       stream.on('end', async () => {
         try {
-          const raw = Buffer.concat(chunks);
+          const raw = Buffer.concat(chunks).toString('utf8');
           const mail = await simpleParser(raw);
           const to = Array.isArray(mail.to) ? mail.to.map((a) => a.text).join(', ') : (mail.to?.text ?? '');
+          const claimed = mail.headers.get(ORGANISATION_HEADER.toLowerCase());
+          const orgId =
+            typeof claimed === 'string' && db.select({ id: organisations.id }).from(organisations).where(eq(organisations.id, claimed)).get()
+              ? claimed
+              : null;
+          const text = withholdOneTimeLinks(mail.text ?? '');
+          const html = typeof mail.html === 'string' ? withholdOneTimeLinks(mail.html) : null;
+          const links = [...new Set([...text.links, ...(html?.links ?? [])])];
           db.insert(capturedMail)
             .values({
+              orgId,
               fromAddress: mail.from?.text ?? '',
               toAddresses: to,
               subject: mail.subject ?? '',
-              text: mail.text ?? '',
-              html: typeof mail.html === 'string' ? mail.html : null,
-              raw: raw.toString('utf8'),
+              text: text.text,
+              html: html?.text ?? null,
+              // The raw body may hold a link in any transfer encoding: then only the headers are kept.
+              raw: links.length > 0 ? headerBlock(raw) : raw,
             })
             .run();
+          for (const link of links) opts.onOneTimeLink?.({ to, subject: mail.subject ?? '', link });
           callback();
         } catch (err) {
           callback(err as Error);

@@ -24,9 +24,11 @@ function titleFor(status: number): string {
       412: 'Changed meanwhile',
       413: 'Too large',
       415: 'Unsupported type',
+      421: 'Misdirected request',
       422: 'Invalid input',
       428: 'Precondition required',
       429: 'Too many requests',
+      503: 'Busy',
     }[status] ?? (status >= 500 ? 'Server error' : 'Error')
   );
 }
@@ -72,6 +74,8 @@ export function problemBody(p: { status: number; code: string; detail: string; e
 export function errorHandler(log: (msg: string, err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
+    // A refusal that says when to come back (a full worker pool) says so in the standard header too.
+    if (err instanceof AppError && typeof err.extra.retryAfterSeconds === 'number') res.set('Retry-After', String(err.extra.retryAfterSeconds));
     const problem = problemFor(err);
     if (problem) return sendProblem(res, problem.status, problem.code, problem.detail, problem.extra);
     log('unhandled error', err);

@@ -4,7 +4,7 @@
 import QRCode from 'qrcode';
 import { createHash } from 'node:crypto';
 import { A4, COLOURS, createDocument, Pen, table, toBuffer, type Column, type Frame, type TextStyle } from './layout';
-import type { CertificatePayload, CertifiedReading } from '../signing/certificate-record';
+import type { CertificatePayload, CertifiedReading, DismissedFault } from '../signing/certificate-record';
 import { formatOhm } from '../../shared/domain/units';
 import { stepsForKind, TEST_KIND_LABELS } from '../../shared/domain/checklist';
 import type { TestKind } from '../../shared/domain/limits';
@@ -295,6 +295,9 @@ class Writer {
 const shortSource = (source: string) =>
   source.replace(/^FIE Material Rules, art\. /, 'FIE art. ').replace(/^House rule \(no published value\)$/, 'House rule');
 const valueText = (r: CertifiedReading) => (r.overRange ? 'OL' : r.valueOhm === null ? r.valueText : formatOhm(r.valueOhm));
+/** The test-lead null subtracted from what the meter showed, or a dash. */
+const leadNullText = (r: CertifiedReading) => (r.overRange || !r.leadNullOhm ? '—' : `− ${formatOhm(r.leadNullOhm)}`);
+const FAULT_KIND: Record<string, string> = { short: 'Short', open: 'Open line', 'high-resistance': 'High resistance', intermittent: 'Intermittent' };
 const verdictColour = (v: CertifiedReading['verdict']) => (v === 'pass' ? COLOURS.pass : v === 'near-limit' ? COLOURS.near : COLOURS.fail);
 
 function readingColumns(): Column<CertifiedReading>[] {
@@ -305,6 +308,7 @@ function readingColumns(): Column<CertifiedReading>[] {
     { header: 'Test', width: 76, value: (r) => testLabel(r.testKind) },
     { header: 'Wires', width: 40, value: (r) => (r.conductors.startsWith('piste') ? '—' : r.conductors), nowrap: true },
     { header: 'Value', width: 48, align: 'right', value: valueText, nowrap: true, style: () => ({ weight: 500 }) },
+    { header: 'Lead null', width: 42, align: 'right', value: leadNullText, nowrap: true, style: () => ({ color: COLOURS.soft }) },
     { header: 'Limit', width: 62, value: limitText, nowrap: true },
     {
       header: 'Verdict',
@@ -347,6 +351,39 @@ function limitsTable(w: Writer, rules: CertificatePayload['profile']['rules'], s
   w.table(rules, columns, { size, headerSize: 6, padY });
 }
 
+/** The test-lead nulls the readings used: who measured each, when, with which meter. */
+function leadNullsTable(w: Writer, p: CertificatePayload) {
+  type Row = CertificatePayload['leadNulls'][number];
+  if (p.leadNulls.length === 0) {
+    w.text('No test-lead null was subtracted from these readings.', { size: 8.5, color: COLOURS.soft }, 8);
+    return;
+  }
+  w.table<Row>(p.leadNulls, [
+    { header: 'Measured by', width: 120, value: (n) => n.takenBy, style: () => ({ weight: 500 }) },
+    { header: 'When (UTC)', width: 90, value: (n) => timeUtc(n.takenAt), nowrap: true },
+    { header: 'Leads read', width: 60, align: 'right', value: (n) => formatOhm(n.valueOhm), nowrap: true },
+    { header: 'Meter', width: 140, value: (n) => n.meter ?? '—' },
+    { header: 'Readings using it', width: 70, align: 'right', value: (n) => String(n.readings) },
+  ], { size: 7.5, headerSize: 6, padY: 2.6 });
+}
+
+/** Faults the director closed as typing mistakes, each with the reason given. */
+function dismissedTable(w: Writer, faults: DismissedFault[], withStrip = true) {
+  if (faults.length === 0) {
+    w.text('None: every fault on these strips was closed by a repair and a passing retest.', { size: 8.5, color: COLOURS.soft }, 8);
+    return;
+  }
+  const columns: Column<DismissedFault>[] = [
+    { header: 'Position', width: 80, value: (f) => f.position },
+    { header: 'Fault', width: 90, value: (f) => `${FAULT_KIND[f.kind] ?? f.kind} ${f.conductors.startsWith('piste') ? '' : f.conductors}`.trim() },
+    { header: 'Opened (UTC)', width: 62, value: (f) => timeUtc(f.openedAt) },
+    { header: 'Dismissed by', width: 90, value: (f) => `${f.dismissedBy}, ${timeUtc(f.dismissedAt)}` },
+    { header: 'Reason', width: withStrip ? 300 : 220, value: (f) => f.reason },
+  ];
+  if (withStrip) columns.unshift({ header: 'Strip', width: 52, value: (f) => f.stripLabel, style: () => ({ weight: 500 }) });
+  w.table(faults, columns, { size: 7.5, headerSize: 6, padY: 2.6 });
+}
+
 function renderVenue(w: Writer, doc: CertificateDocument) {
   const { payload: p } = doc;
   w.newPage('portrait');
@@ -355,7 +392,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   const certified = p.strips.length;
   const total = certified + p.exceptions.length;
   w.text(
-    `This certifies that the competition equipment of the ${certified === 1 ? 'strip' : `${certified} strips`} listed below was tested strip by strip, and that the latest reading of every required test was within the limits of the profile named here when the venue was signed off. The limits and their sources are in Annex A, every reading in Annex B.`,
+    `This certifies that the competition equipment of the ${certified === 1 ? 'strip' : `${certified} strips`} listed below was tested strip by strip, and that the latest reading of every required test was within the limits of the profile named here when the venue was signed off. The limits and their sources are in Annex A, every reading in Annex B, the test-lead nulls and any fault dismissed as a typing mistake in Annex C.`,
     { size: 9.5 },
     12,
   );
@@ -393,7 +430,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.section('Statement of the technical director', 30);
   w.text(`“${p.statement}”`, { size: 9.5, color: COLOURS.ink }, 12);
   w.scope();
-  w.signature('Annex C');
+  w.signature('Annex D');
 
   // The annexes are landscape, so each rule and each reading fits on a line.
   w.newPage('landscape');
@@ -413,12 +450,22 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.pen.line('Readings', w.frame.left, w.y, { size: 16, weight: 600 });
   w.y += 25;
   w.text(
-    `The latest reading of every required test on the certified strips, as signed: ${p.readings.count} readings. SHA-256 of the list in canonical JSON (RFC 8785): ${p.readings.digest}.`,
+    `The latest reading of every required test on the certified strips, as signed: ${p.readings.count} readings. Values are in ohms after the tester's test-lead null (the Lead null column, recorded in Annex C) was subtracted from what the meter showed. SHA-256 of the list in canonical JSON (RFC 8785): ${p.readings.digest}.`,
     { size: 8, color: COLOURS.soft },
     8,
   );
   w.table(doc.readings, readingColumns(), { size: 7.5, headerSize: 6, padY: 2.6, zebra: true });
-  w.signatureAnnex('Annex C', doc.jws, doc.keyId);
+
+  w.need(90);
+  w.y += 14;
+  w.eyebrow('Annex C');
+  w.pen.line('Test-lead nulls and dismissed faults', w.frame.left, w.y, { size: 16, weight: 600 });
+  w.y += 25;
+  w.section('Test-lead nulls used', 30);
+  leadNullsTable(w, p);
+  w.section('Faults dismissed by the technical director as typing mistakes', 30);
+  dismissedTable(w, p.dismissedFaults);
+  w.signatureAnnex('Annex D', doc.jws, doc.keyId);
 }
 
 // The strip certificate shows its readings as a grid: one row per item, one column per test, in
@@ -521,11 +568,16 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   w.section('Readings', 40);
   const grid = readingGrid(doc.readings);
   w.table(grid.rows, grid.columns, { size: 7.5, headerSize: 6, padY: 3.4 });
+  const nulls = p.leadNulls.map((n) => `${formatOhm(n.valueOhm)} (${n.takenBy}, ${timeUtc(n.takenAt)} UTC${n.meter ? `, ${n.meter}` : ''})`);
   w.text(
-    `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. A tick is a pass, a triangle a pass near the limit.`,
+    `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. A tick is a pass, a triangle a pass near the limit. ${nulls.length ? `The test-lead null was subtracted from what the meter showed: ${nulls.join('; ')}.` : 'No test-lead null was subtracted.'}`,
     { size: 7, color: COLOURS.soft },
     6,
   );
+  if (p.dismissedFaults.length > 0) {
+    w.section('Faults dismissed by the technical director as typing mistakes', 30);
+    dismissedTable(w, p.dismissedFaults, false);
+  }
   w.section(`Limits applied: ${p.profile.name}, version ${p.profile.version}`, 30);
   const used = new Set(doc.readings.map((r) => r.ruleId));
   w.ruleList(p.profile.rules.filter((r) => used.has(r.id)).map((r) => [ruleLabel(r.id), `${r.limit} · ${r.source}`]));

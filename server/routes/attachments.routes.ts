@@ -63,8 +63,8 @@ export function attachmentsRoutes(deps: AppDeps) {
 
   api.get('/attachments/:id', STAFF, validate(idParams, 'params'), sendStored('original'));
   api.get('/attachments/:id/preview', STAFF, validate(idParams, 'params'), sendStored('preview'));
-  api.get('/attachments/:id/analysis', STAFF, validate(idParams, 'params'), (req, res) => {
-    res.json(attachments.analysis(req.user!, String(req.params.id)));
+  api.get('/attachments/:id/analysis', STAFF, validate(idParams, 'params'), async (req, res) => {
+    res.json(await attachments.analysis(req.user!, String(req.params.id)));
   });
   return api;
 }

@@ -7,9 +7,9 @@ import { faultLocationRequestSchema } from '../../shared/schemas/fault-location'
 import { WAVEFORM_CONTENT_TYPES, WAVEFORM_MAX_BYTES, waveformQuerySchema } from '../../shared/schemas/waveforms';
 import { faultLocationService } from '../services/fault-location.service';
 
-export function faultLocationRoutes(_deps: AppDeps) {
+export function faultLocationRoutes(deps: AppDeps) {
   const api = new ApiRouter();
-  const service = faultLocationService();
+  const service = faultLocationService(deps.workers);
 
   api.post('/fault-location', 'signed-in', validate(faultLocationRequestSchema), (req, res) => {
     res.json(service.locate(req.user!, parsed(faultLocationRequestSchema, req.body)));
@@ -20,12 +20,14 @@ export function faultLocationRoutes(_deps: AppDeps) {
     '/waveforms/analyse',
     'signed-in',
     validate(waveformQuerySchema, 'query'),
-    express.text({ type: [...WAVEFORM_CONTENT_TYPES], limit: WAVEFORM_MAX_BYTES }),
-    (req, res) => {
-      if (typeof req.body !== 'string') {
+    // Kept as bytes: they go to a worker thread whole (moved, not copied) and are decoded there.
+    express.raw({ type: [...WAVEFORM_CONTENT_TYPES], limit: WAVEFORM_MAX_BYTES }),
+    async (req, res) => {
+      if (!Buffer.isBuffer(req.body)) {
         throw new AppError(415, 'unsupported-type', `Send the trace as the request body with Content-Type ${WAVEFORM_CONTENT_TYPES.join(', ')}.`);
       }
-      res.json(service.analyse(req.user!, req.body, parsed(waveformQuerySchema, req.query)));
+      const charset = /;\s*charset="?([^";\s]+)"?/i.exec(req.get('content-type') ?? '')?.[1];
+      res.json(await service.analyse(req.user!, req.body, charset, parsed(waveformQuerySchema, req.query)));
     },
   );
   return api;

@@ -2,7 +2,7 @@ import type { AppDeps } from '../deps';
 import { ApiRouter, STAFF } from '../http/api-router';
 import { validate } from '../middleware/validate';
 import { idParams } from '../../shared/schemas/params';
-import { createFaultSchema, createRepairSchema, updateFaultSchema } from '../../shared/schemas/faults';
+import { createFaultSchema, createRepairSchema, dismissFaultSchema, updateFaultSchema } from '../../shared/schemas/faults';
 import { faultEtag, faultsService } from '../services/faults.service';
 import { TESTERS } from './readings.routes';
 
@@ -34,6 +34,11 @@ export function faultsRoutes(deps: AppDeps) {
   api.post('/faults/:id/repairs', TESTERS, validate(idParams, 'params'), validate(createRepairSchema), (req, res) => {
     const out = faults.addRepair(req.user!, String(req.params.id), req.body);
     res.status(201).set('ETag', faultEtag(out.fault.version)).json(out);
+  });
+  // The event's director only (checked on the fault's venue); If-Match like any fault edit.
+  api.post('/faults/:id/dismiss', ['director'], validate(idParams, 'params'), validate(dismissFaultSchema), (req, res) => {
+    const fault = faults.dismiss(req.user!, String(req.params.id), req.get('If-Match'), req.body);
+    res.set('ETag', faultEtag(fault.version)).json(fault);
   });
   return api;
 }

@@ -24,11 +24,11 @@ export function usersRoutes(deps: AppDeps, auth: AuthService) {
     res.status(204).end();
   });
 
-  api.get('/mail', ['admin'], (_req, res) => {
-    res.json(mail.list());
+  api.get('/mail', ['admin'], (req, res) => {
+    res.json(mail.list(req.user!.orgId));
   });
   api.get('/mail/:id', ['admin'], (req, res) => {
-    res.json(mail.get(Number(req.params.id)));
+    res.json(mail.get(req.user!.orgId, Number(req.params.id)));
   });
 
   return api;

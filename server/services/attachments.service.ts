@@ -11,6 +11,7 @@ import { attachmentsRepository, type AttachmentRow } from '../db/attachments.rep
 import type { EquipmentRow } from '../db/equipment.repository';
 import { writeAudit } from '../db/audit.repository';
 import { attachmentStore, type AttachmentStore } from '../storage/attachment-store';
+import { ownBytes } from '../workers/pool';
 import { PhotoMetadataError, removeIdentifyingMetadata } from '../storage/photo-metadata';
 import { accessService } from './access.service';
 import { AppError, conflict, forbidden, notFound, unprocessable } from '../lib/app-error';
@@ -26,8 +27,6 @@ import {
   type AttachmentOwnerType,
   type TraceAnalysisDto,
 } from '../../shared/schemas/attachments';
-import { analyseWaveform, parseTraceCsv, WaveformError } from '../../shared/domain/waveform';
-import { decimateMinMax, PLOT_MAX_POINTS } from '../../shared/domain/decimate';
 
 const PREVIEW_PX = 480;
 /** Decoding limit for photos (a "pixel bomb" is refused before it fills memory). */
@@ -162,18 +161,9 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
         throw unsupported('content-mismatch', `The file is named .${ext} but its content is ${detected.mime}; a trace is a text (CSV) file.`);
       }
       if (bytes.includes(0)) throw unsupported('content-mismatch', 'The file is named as a CSV trace but holds binary data (NUL bytes).');
-      let text: string;
-      try {
-        text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-      } catch {
-        throw unsupported('content-mismatch', 'The trace is not UTF-8 text; export it again as CSV.');
-      }
-      try {
-        parseTraceCsv(text);
-      } catch (err) {
-        if (err instanceof WaveformError) throw unprocessable('trace-unreadable', `This CSV is not a trace: ${err.message}`);
-        throw err;
-      }
+      // Decoded and parsed on a worker thread (a trace may be 64 MB), from a copy: the bytes are stored next.
+      const copy = new Uint8Array(bytes);
+      await deps.workers.run('checkTrace', { bytes: copy }, [copy.buffer]);
       return 'text/csv';
     }
     if (!detected) {
@@ -356,55 +346,35 @@ export function attachmentsService(deps: AppDeps, store: AttachmentStore = attac
       };
     },
 
-    /** The trace through the waveform engine with the owner's item's velocity factor, and points for the plot. */
-    analysis(user: AuthUser, id: string): TraceAnalysisDto {
+    /** The trace through the waveform engine (on a worker thread) with the owner's item's velocity factor, and points for the plot. */
+    async analysis(user: AuthUser, id: string): Promise<TraceAnalysisDto> {
       const found = repo.findById(id);
       if (!found) throw notFound('That attachment');
       const row = found.attachment;
       const owner = requireOwner(user, row.ownerType, row.ownerId, 'read');
       if (row.kind !== 'trace') throw unprocessable('not-a-trace', 'Only a trace (CSV) attachment can be analysed.');
-      const trace = parseTraceCsv(store.read(row.storedName).toString('utf8'));
       const item = owner.equipment;
       const velocityFactor = item?.velocityFactor ?? null;
       const lengthM = item?.lengthM ?? null;
-      const out: TraceAnalysisDto = {
+      const bytes = ownBytes(await store.readAsync(row.storedName));
+      const result = await deps.workers.run('storedTraceAnalysis', {
+        bytes,
+        velocityFactor,
+        lengthM,
+        units: user.unitSystem,
+      }, [bytes.buffer]);
+      return {
         attachmentId: row.id,
         originalName: row.originalName,
-        sampleCount: trace.timeS.length,
-        skippedLines: trace.skippedLines,
+        sampleCount: result.sampleCount,
+        skippedLines: result.skippedLines,
         velocityFactor,
         velocityFactorSource: item && velocityFactor !== null ? `${item.assetTag} in the register` : null,
         lengthM,
-        points: { timeS: [], volts: [] },
-        analysis: null,
-        problem: null,
+        points: result.points,
+        analysis: result.analysis,
+        problem: result.problem,
       };
-      try {
-        const a = analyseWaveform(trace, {
-          velocityFactor: velocityFactor ?? undefined,
-          lengthM: lengthM ?? undefined,
-          units: user.unitSystem,
-        });
-        out.analysis = {
-          incidentTimeS: a.markers.incident.timeS,
-          reflectionTimeS: a.markers.reflection?.timeS ?? null,
-          roundTripNs: a.roundTripNs,
-          polarity: a.polarity,
-          reflectionCoefficient: a.reflectionCoefficient,
-          riseTimeNs: a.riseTimeNs,
-          sampleIntervalNs: a.sampleIntervalNs,
-          distanceM: a.distanceM,
-          uncertaintyM: a.uncertaintyM,
-          message: a.message,
-        };
-      } catch (err) {
-        if (!(err instanceof WaveformError)) throw err;
-        out.problem = err.message;
-      }
-      // The plot keeps the samples around the automatic markers, so they sit on the drawn edges.
-      const keep = out.analysis ? [out.analysis.incidentTimeS, ...(out.analysis.reflectionTimeS === null ? [] : [out.analysis.reflectionTimeS])] : [];
-      out.points = decimateMinMax(trace.timeS, trace.volts, PLOT_MAX_POINTS, keep);
-      return out;
     },
   };
 }

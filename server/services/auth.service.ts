@@ -3,6 +3,7 @@ import type { AppDeps } from '../deps';
 import { authRepository, type UserRow } from '../db/auth.repository';
 import { writeAudit } from '../db/audit.repository';
 import { hashPassword, verifyPassword } from '../auth/password';
+import { refuseCommonPassword } from '../auth/common-passwords';
 import { signSessionToken, verifySessionToken } from '../auth/session-token';
 import type { AuthUser } from '../auth/types';
 import { AppError, notFound, unprocessable } from '../lib/app-error';
@@ -50,6 +51,7 @@ export function authService(deps: AppDeps) {
         ? `Hello ${user.name},\n\n${invitedBy ?? 'An administrator'} has invited you to Stripwarden as ${user.role}.\n\nChoose your password here (the link works once and expires in ${hours} hours):\n${link}\n`
         : `Hello ${user.name},\n\nSomeone asked to reset your Stripwarden password. If it was you, choose a new one here (the link works once and expires in ${hours} hours):\n${link}\n\nIf it was not you, ignore this message.\n`;
     await deps.mailer.send({
+      orgId: user.orgId,
       to: user.email,
       subject: purpose === 'invite' ? 'Your Stripwarden invitation' : 'Reset your Stripwarden password',
       text,
@@ -144,9 +146,12 @@ export function authService(deps: AppDeps) {
       });
     },
 
+    /**
+     * Called after the answer has gone out (the route answers first), so an existing address and an
+     * unknown one answer alike; only an existing, enabled account gets a message.
+     */
     async requestReset(email: string) {
       const user = repo.findUserByEmail(email);
-      // Same answer either way; only an existing, enabled account gets a message.
       if (user && !user.disabled) await sendLink(user, 'reset');
     },
 
@@ -162,6 +167,7 @@ export function authService(deps: AppDeps) {
 
     async setPassword(token: string, password: string) {
       const { row, user } = this.checkToken(token);
+      await refuseCommonPassword(password, user);
       const hash = await hashPassword(password, deps.scrypt);
       deps.db.transaction((tx) => {
         const r = authRepository(tx);

@@ -1,11 +1,13 @@
 // Issued certificates: the organiser's list and downloads, revocation, and the public checks
-// (by number, or by the PDF file itself). Public answers only ever describe the one certificate
-// asked about.
+// (by number, or by the PDF file itself). Public answers describe the one certificate asked about;
+// a venue certificate's answer also says which of its strips it no longer covers (their numbers
+// are in its signed record already).
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { accessService } from './access.service';
 import { signOffRepository, type CertificateRow } from '../db/sign-off.repository';
 import { writeAudit } from '../db/audit.repository';
+import { reopenIfSignedOff } from './venue-lifecycle';
 import { conflict, forbidden, notFound } from '../lib/app-error';
 import { sha256Hex } from '../lib/ids';
 import { certificateFiles } from '../storage/certificate-files';
@@ -18,6 +20,22 @@ export function certificatesService(deps: AppDeps) {
   const repo = signOffRepository(deps.db);
   const files = certificateFiles(deps.env.DATA_DIR);
 
+  /** The strips a venue certificate no longer covers: their strip certificates were revoked. */
+  function notCovering(c: CertificateRow, p: CertificatePayload) {
+    if (c.kind !== 'venue') return [];
+    const revoked = new Map(
+      repo
+        .certificatesOfSignOff(c.signOffId)
+        .filter((x) => x.certificate.kind === 'strip' && x.certificate.status === 'revoked')
+        .map((x) => [x.certificate.number, x.certificate]),
+    );
+    // Labels as certified (the strip may have been renamed since).
+    return p.related.stripCertificates.flatMap((s) => {
+      const r = revoked.get(s.number);
+      return r ? [{ strip: s.label, number: s.number, revokedAt: r.revokedAt, revokedReason: r.revokedReason }] : [];
+    });
+  }
+
   function publicView(c: CertificateRow) {
     const p = JSON.parse(c.payloadJson) as CertificatePayload;
     return {
@@ -28,6 +46,7 @@ export function certificatesService(deps: AppDeps) {
       eventDates: { startsOn: p.event.startsOn, endsOn: p.event.endsOn },
       venue: p.venue.name,
       strips: p.strips.map((s) => s.label),
+      notCovering: notCovering(c, p),
       organisation: p.issuer.organisation.name,
       issuedAt: c.issuedAt,
       signedBy: p.signer.name,
@@ -114,6 +133,12 @@ export function certificatesService(deps: AppDeps) {
       };
     },
 
+    /**
+     * Revokes a certificate. A venue certificate takes its strip certificates with it and, when it
+     * is the venue's current sign-off, re-opens the venue (a new sign-off issues new ones). A strip
+     * certificate alone leaves the venue certificate standing, which then says it no longer covers
+     * that strip.
+     */
     revoke(user: AuthUser, number: string, reason: string) {
       const { c, row } = readable(user, number);
       if (!(user.role === 'admin' || (user.role === 'director' && row.event.directorId === user.id))) {
@@ -122,15 +147,25 @@ export function certificatesService(deps: AppDeps) {
       if (c.status === 'revoked') throw conflict('already-revoked', 'This certificate is already revoked.');
       const at = new Date().toISOString();
       deps.db.transaction((tx) => {
-        signOffRepository(tx).revoke(c.id, { at, reason, by: user.id });
-        writeAudit(tx, {
-          orgId: user.orgId,
-          actorId: user.id,
-          action: 'certificate.revoked',
-          entityType: 'certificate',
-          entityId: c.id,
-          detail: { number: c.number, reason, previousStatus: c.status },
-        });
+        const txRepo = signOffRepository(tx);
+        const revoke = (cert: CertificateRow, why: string, extra: Record<string, unknown> = {}) => {
+          txRepo.revoke(cert.id, { at, reason: why, by: user.id });
+          writeAudit(tx, {
+            orgId: user.orgId,
+            actorId: user.id,
+            action: 'certificate.revoked',
+            entityType: 'certificate',
+            entityId: cert.id,
+            detail: { number: cert.number, reason: why, previousStatus: cert.status, ...extra },
+          });
+        };
+        revoke(c, reason);
+        if (c.kind !== 'venue') return;
+        const strips = txRepo.certificatesOfSignOff(c.signOffId).filter((x) => x.certificate.kind === 'strip' && x.certificate.status !== 'revoked');
+        for (const s of strips) revoke(s.certificate, `The venue certificate ${c.number} was revoked: ${reason}`, { withVenueCertificate: c.number });
+        if (txRepo.activeSignOff(c.venueId)?.id === c.signOffId) {
+          reopenIfSignedOff(tx, { venueId: c.venueId, orgId: user.orgId, actorId: user.id, reason: `Venue certificate ${c.number} revoked: ${reason}` });
+        }
       });
       return publicView(repo.certificateByNumber(c.number)!);
     },

@@ -6,7 +6,8 @@ import type { AuthUser } from '../auth/types';
 import type { Db, Tx } from '../db/client';
 import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
 import { writeAudit } from '../db/audit.repository';
-import { readSheet } from '../lib/spreadsheet';
+import type { SheetLimits } from '../lib/spreadsheet';
+import type { WorkerPool } from '../workers/pool';
 import { conflict, unprocessable } from '../lib/app-error';
 import { nowIso } from '../lib/ids';
 import { csvCell } from './readings-table.service';
@@ -63,6 +64,12 @@ const FIELD_OF: Record<string, ImportField> = {
   notes: 'notes',
 };
 
+const SHEET_LIMITS: SheetLimits = {
+  maxRows: IMPORT_LIMITS.maxRows,
+  maxColumns: IMPORT_LIMITS.maxColumns,
+  maxUnpackedBytes: IMPORT_LIMITS.maxUnpackedBytes,
+};
+
 interface ReadFile {
   fileName: string;
   format: 'csv' | 'xlsx';
@@ -71,9 +78,10 @@ interface ReadFile {
   data: { row: number; cells: string[] }[];
 }
 
-async function readRegisterFile(file: UploadedFile): Promise<ReadFile> {
+async function readRegisterFile(workers: WorkerPool, file: UploadedFile): Promise<ReadFile> {
   if (file.size === 0) throw unprocessable('empty-file', 'The file is empty (0 bytes).');
-  const sheet = await readSheet(file.buffer, file.originalname, { maxRows: IMPORT_LIMITS.maxRows, maxColumns: IMPORT_LIMITS.maxColumns });
+  // Read on a worker thread: unpacking and parsing a workbook is seconds of CPU for a large one.
+  const sheet = await workers.run('readSheet', { bytes: file.buffer, fileName: file.originalname, limits: SHEET_LIMITS });
   if (sheet.rows.length === 0) throw unprocessable('no-rows', 'The file has no rows: it needs a header row and one row per item.');
   const [headers, ...rest] = sheet.rows;
   const data = rest.map((cells, i) => ({ row: sheet.rowNumbers[i + 1]!, cells: cells.map(unguardCell) }));
@@ -223,7 +231,7 @@ const EXPORT_COLUMNS: [string, (e: EquipmentRow) => unknown][] = [
 export function equipmentImportService(deps: AppDeps) {
   return {
     async preview(user: AuthUser, upload: UploadedFile, options: ImportOptions): Promise<ImportPreview> {
-      const file = await readRegisterFile(upload);
+      const file = await readRegisterFile(deps.workers, upload);
       const suggestedMapping = suggestMapping(file.headers);
       const mapping = options.mapping ?? suggestedMapping;
       const rows = plan(deps.db, user, file, mapping, options.mode);
@@ -245,7 +253,7 @@ export function equipmentImportService(deps: AppDeps) {
     },
 
     async run(user: AuthUser, upload: UploadedFile, options: ImportOptions): Promise<ImportReport> {
-      const file = await readRegisterFile(upload);
+      const file = await readRegisterFile(deps.workers, upload);
       const mapping = options.mapping;
       if (!mapping || mapping.assetTag == null) {
         throw unprocessable('mapping-required', 'Send the column mapping, with a column for the asset tag (preview the file first).', {

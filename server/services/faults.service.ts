@@ -21,7 +21,7 @@ import {
 } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
 import { formatLength, type LengthSystem } from '../../shared/domain/units';
-import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
+import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type DismissFaultInput, type UpdateFaultInput } from '../../shared/schemas/faults';
 
 export function presentEquipment(e: EquipmentRow | null) {
   if (!e) return null;
@@ -142,6 +142,10 @@ export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units?: Leng
     openedBy: r.fault.openedBy,
     openedByName: r.openedByName,
     closedAt: r.fault.closedAt,
+    // Closed by the director as a typing mistake (null when it closed by a retest, or is open).
+    dismissal: r.fault.dismissedAt
+      ? { at: r.fault.dismissedAt, by: r.fault.dismissedBy, byName: r.dismissedByName, reason: r.fault.dismissedReason ?? '' }
+      : null,
   }));
 }
 
@@ -162,11 +166,11 @@ function checkIfMatch(ifMatch: string | undefined, version: number) {
 export function faultsService(deps: AppDeps) {
   const access = accessService(deps.db);
 
-  function load(user: AuthUser, id: string, mode: 'read' | 'test') {
+  function load(user: AuthUser, id: string, mode: 'read' | 'test' | 'direct') {
     const row = faultsRepository(deps.db).findById(id);
     if (!row) throw notFound('That fault');
-    access.requireVenue(user, row.venueId, mode);
-    return row;
+    const venue = access.requireVenue(user, row.venueId, mode);
+    return { ...row, event: venue.event };
   }
 
   function detail(user: AuthUser, id: string) {
@@ -181,6 +185,8 @@ export function faultsService(deps: AppDeps) {
     const position = strips.positionContext(row.fault.positionId);
     return {
       ...listItem!,
+      // Only the event's own director may dismiss a fault that was a typing mistake.
+      canDismiss: user.role === 'director' && row.event.directorId === user.id && row.fault.status !== 'closed' && row.fault.status !== 'repaired',
       lengthM,
       currentEquipment: presentEquipment(position?.equipment ?? null),
       estimates,
@@ -281,6 +287,8 @@ export function faultsService(deps: AppDeps) {
         entityId: id,
         detail: { kind: body.kind, conductors: body.conductors, automatic: false },
       });
+      // A fault on a signed-off venue: its certificates no longer say all of it.
+      reopenIfSignedOff(tx, { venueId: ctx.venue.id, orgId: user.orgId, actorId: user.id, reason: `Fault opened on ${ctx.strip.label}, ${ctx.position.name}` });
     });
     return detail(user, id);
   }
@@ -293,8 +301,11 @@ export function faultsService(deps: AppDeps) {
       if (body.notes !== undefined) patch.notes = body.notes;
       if (body.kind !== undefined) patch.kind = body.kind;
       if (body.status !== undefined) {
+        // Only open or located: an edit never closes a fault. Re-opening one that was closed
+        // takes its dismissal off the fault (the audit entry below keeps it).
         patch.status = body.status;
-        patch.closedAt = body.status === 'closed' ? nowIso() : null;
+        patch.closedAt = null;
+        if (row.fault.dismissedAt) Object.assign(patch, { dismissedAt: null, dismissedBy: null, dismissedReason: null });
       }
       if (!faultsRepository(tx).update(id, row.fault.version, patch)) {
         throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and make your change again.');
@@ -305,7 +316,15 @@ export function faultsService(deps: AppDeps) {
         action: 'fault.updated',
         entityType: 'fault',
         entityId: id,
-        detail: { before: { notes: row.fault.notes, kind: row.fault.kind, status: row.fault.status }, after: body },
+        detail: {
+          before: {
+            notes: row.fault.notes,
+            kind: row.fault.kind,
+            status: row.fault.status,
+            ...(row.fault.dismissedAt ? { dismissedAt: row.fault.dismissedAt, dismissedBy: row.fault.dismissedBy, dismissedReason: row.fault.dismissedReason } : {}),
+          },
+          after: body,
+        },
       });
     });
     return detail(user, id);
@@ -463,5 +482,46 @@ export function faultsService(deps: AppDeps) {
     return { repair: fault.repairs.find((r) => r.id === repairId)!, fault };
   }
 
-  return { list, detail, create, update, addEstimate, addRepair };
+  /**
+   * The event's director closes a fault that was a typing mistake, with a reason of at least a
+   * sentence: kept on the fault, in the audit trail and on the certificate. Any other fault closes
+   * by a repair and a passing retest. A repaired fault waits for its retest, so it is not dismissed.
+   */
+  function dismiss(user: AuthUser, id: string, ifMatch: string | undefined, body: DismissFaultInput) {
+    const row = load(user, id, 'direct');
+    checkIfMatch(ifMatch, row.fault.version);
+    if (row.fault.status === 'closed') throw conflict('fault-closed', 'This fault is closed already.');
+    if (row.fault.status === 'repaired') {
+      throw conflict('fault-repaired', 'A repair was recorded on this fault: it closes when the retest passes, not by a dismissal.');
+    }
+    const at = nowIso();
+    deps.db.transaction((tx) => {
+      const changed = faultsRepository(tx).update(id, row.fault.version, {
+        status: 'closed',
+        closedAt: at,
+        dismissedAt: at,
+        dismissedBy: user.id,
+        dismissedReason: body.reason,
+      });
+      if (!changed) throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and decide again.');
+      writeAudit(tx, {
+        orgId: user.orgId,
+        actorId: user.id,
+        action: 'fault.dismissed',
+        entityType: 'fault',
+        entityId: id,
+        detail: { reason: body.reason, previousStatus: row.fault.status, readingId: row.fault.readingId, stripId: row.fault.stripId },
+      });
+      // The record of a signed-off venue changed: its certificates no longer say all of it.
+      reopenIfSignedOff(tx, {
+        venueId: row.venueId,
+        orgId: user.orgId,
+        actorId: user.id,
+        reason: `Fault dismissed on ${row.stripLabel}, ${row.positionName}`,
+      });
+    });
+    return detail(user, id);
+  }
+
+  return { list, detail, create, update, addEstimate, addRepair, dismiss };
 }

@@ -12,6 +12,8 @@ const CSV_COLUMNS = [
   ['Test', 'testKind'],
   ['Conductors', 'conductors'],
   ['Value as typed', 'valueText'],
+  // What the meter showed, less the technician's test-lead null, is the value that was judged.
+  ['Lead null (ohm)', 'leadOffsetOhm'],
   ['Value (ohm)', 'valueOhm'],
   ['Over range', 'overRange'],
   ['Verdict', 'verdict'],
@@ -26,6 +28,8 @@ const CSV_COLUMNS = [
   ['Corrects reading', 'supersedesId'],
   ['Correction reason', 'correctionReason'],
   ['Superseded by', 'supersededBy'],
+  ['Lead null meter', 'leadNullMeter'],
+  ['Lead null id', 'leadNullId'],
   ['Reading id', 'id'],
 ] as const;
 

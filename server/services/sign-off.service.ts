@@ -8,6 +8,8 @@ import { verifyPassword } from '../auth/password';
 import { accessService } from './access.service';
 import { venuesRepository } from '../db/venues.repository';
 import { signOffRepository } from '../db/sign-off.repository';
+import { faultsRepository } from '../db/faults.repository';
+import { leadNullsRepository } from '../db/lead-nulls.repository';
 import { writeAudit } from '../db/audit.repository';
 import { AppError, conflict, unprocessable } from '../lib/app-error';
 import { newId } from '../lib/ids';
@@ -19,9 +21,10 @@ import {
   readingsDigest,
   verifyUrlFor,
   type CertificatePayload,
+  type CertifiedLeadNull,
   type CertifiedReading,
+  type DismissedFault,
 } from '../signing/certificate-record';
-import { renderCertificatePdf } from '../pdf/certificate-pdf';
 import { certificateFiles } from '../storage/certificate-files';
 import { sha256Hex } from '../lib/ids';
 import {
@@ -34,6 +37,8 @@ import {
 import type { LimitRule } from '../../shared/domain/limits';
 import { formatOhm } from '../../shared/domain/units';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
+
+const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
 
 export const DEFAULT_STATEMENT =
   'I have reviewed the readings listed in this certificate and sign the venue off for competition.';
@@ -114,6 +119,8 @@ function certifiedReadings(snap: ReturnType<typeof snapshot>, readiness: VenueRe
         valueText: reading.valueText,
         valueOhm: reading.valueOhm,
         overRange: reading.overRange,
+        leadNullOhm: reading.leadOffsetOhm,
+        leadNullId: reading.leadNullId,
         limitOhm: reading.limitOhm,
         limitKind: reading.limitKind,
         verdict: reading.verdict,
@@ -125,6 +132,44 @@ function certifiedReadings(snap: ReturnType<typeof snapshot>, readiness: VenueRe
         takenAt: reading.takenAt,
       };
     });
+}
+
+/** The faults of the venue its director dismissed as typing mistakes, on the given strips. */
+function dismissedFaultsOf(db: Db | Tx, venueId: string, stripIds: Set<string>): DismissedFault[] {
+  return faultsRepository(db)
+    .dismissedOfVenue(venueId)
+    .filter((r) => stripIds.has(r.fault.stripId))
+    .map((r) => ({
+      faultId: r.fault.id,
+      stripId: r.fault.stripId,
+      stripLabel: r.stripLabel,
+      position: r.positionName,
+      kind: r.fault.kind,
+      conductors: r.fault.conductors,
+      openedAt: r.fault.openedAt,
+      dismissedById: r.fault.dismissedBy,
+      dismissedBy: r.dismissedByName ?? '',
+      dismissedAt: r.fault.dismissedAt!,
+      reason: r.fault.dismissedReason ?? '',
+    }));
+}
+
+/** The test-lead nulls the readings used, each with who measured it, when and how many readings used it. */
+function leadNullsOf(db: Db | Tx, list: CertifiedReading[]): CertifiedLeadNull[] {
+  const uses = new Map<string, number>();
+  for (const r of list) if (r.leadNullId) uses.set(r.leadNullId, (uses.get(r.leadNullId) ?? 0) + 1);
+  return leadNullsRepository(db)
+    .byIds([...uses.keys()])
+    .map(({ leadNull: n, takenByName }) => ({
+      id: n.id,
+      valueOhm: n.valueOhm,
+      takenById: n.takenBy,
+      takenBy: takenByName ?? '',
+      takenAt: n.takenAt,
+      meter: n.meter,
+      readings: uses.get(n.id) ?? 0,
+    }))
+    .sort((a, b) => a.takenAt.localeCompare(b.takenAt) || a.id.localeCompare(b.id));
 }
 
 function issuesProblem(readiness: VenueReadiness) {
@@ -147,6 +192,7 @@ export function signOffService(deps: AppDeps) {
   }
 
   async function notify(v: {
+    orgId: string;
     venueId: string;
     venueName: string;
     eventName: string;
@@ -167,7 +213,7 @@ export function signOffService(deps: AppDeps) {
         `Anyone can check a certificate, without signing in, on its verification page:\n\n${list}\n\n` +
         `The certificates cover the competition equipment tested, not the building's electrical installation.\n`;
       try {
-        await deps.mailer.send({ to: person.email, subject: `Signed off: ${v.venueName}, ${v.eventName}`, text });
+        await deps.mailer.send({ orgId: v.orgId, to: person.email, subject: `Signed off: ${v.venueName}, ${v.eventName}`, text });
       } catch (err) {
         // The sign-off stands; the certificates page has everything the e-mail links to.
         deps.log.error(`sign-off e-mail to ${person.email} failed`, err);
@@ -213,8 +259,13 @@ export function signOffService(deps: AppDeps) {
         throw conflict('not-ready', 'The venue is not ready to sign off: some readings are missing or failing.', issuesProblem(readiness));
       }
 
+      // The event loop gets a turn between the long synchronous steps of a large venue, so
+      // readings arriving meanwhile wait for one step, not for all of them.
+      await yieldToEventLoop();
       const readings = certifiedReadings(snap, readiness);
       const digest = readingsDigest(readings);
+      const certifiedStripIds = new Set(readiness.strips.filter((s) => s.state === 'ready').map((s) => s.stripId));
+      const dismissed = dismissedFaultsOf(deps.db, venueId, certifiedStripIds);
       const profile = repo.profile(row.venue.profileId)!;
       const org = repo.organisation(row.event.orgId)!;
       const rules = JSON.parse(profile.rulesJson) as LimitRule[];
@@ -275,6 +326,8 @@ export function signOffService(deps: AppDeps) {
             rules: rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
           },
           testedBy: [...testers].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
+          leadNulls: leadNullsOf(deps.db, list),
+          dismissedFaults: dismissed.filter((f) => strips.some((s) => s.id === f.stripId)),
           testedFrom: times[0],
           testedTo: times[times.length - 1],
           signer: { id: user.id, name: me.name, role: 'Technical director' as const },
@@ -318,16 +371,19 @@ export function signOffService(deps: AppDeps) {
       const issued: ((typeof drafts)[number] & { canonical: string; jws: string; pdf: Buffer; sha256: string; fileName: string })[] = [];
       for (const d of drafts) {
         const { canonical, jws } = await signCertificatePayload(key, d.payload);
-        const pdf = await renderCertificatePdf({ payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+        // Rendered on a worker thread: a 120-strip venue's annex is seconds of CPU.
+        const rendered = await deps.workers.run('renderCertificatePdf', { payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+        const pdf = Buffer.from(rendered.buffer, rendered.byteOffset, rendered.byteLength);
         issued.push({ ...d, canonical, jws, pdf, sha256: sha256Hex(pdf), fileName: files.nameFor(d.payload.number) });
       }
       const written: string[] = [];
       const signOffId = newId();
       try {
         for (const c of issued) {
-          files.write(c.fileName, c.pdf);
+          await files.writeAsync(c.fileName, c.pdf);
           written.push(c.fileName);
         }
+        await yieldToEventLoop();
         deps.db.transaction((tx) => {
           const txRepo = signOffRepository(tx);
           // Nothing may have changed while we signed: same venue version, same readings.
@@ -335,6 +391,10 @@ export function signOffService(deps: AppDeps) {
           const againReadiness = venueReadiness(again.inputs, exceptions);
           if (!againReadiness.ready || readingsDigest(certifiedReadings(again, againReadiness)) !== digest) {
             throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
+          }
+          const dismissedAgain = dismissedFaultsOf(tx, venueId, certifiedStripIds).map((f) => f.faultId).join();
+          if (dismissedAgain !== dismissed.map((f) => f.faultId).join()) {
+            throw conflict('changed-meanwhile', 'A fault was dismissed while the certificates were being made. Check the venue and sign again.');
           }
           txRepo.insertSignOff({
             id: signOffId,
@@ -379,6 +439,7 @@ export function signOffService(deps: AppDeps) {
       }
 
       await notify({
+        orgId: row.event.orgId,
         venueId,
         venueName: row.venue.name,
         eventName: row.event.name,

@@ -3,13 +3,14 @@
 // the data folder with owner-only permissions. Its key id is the RFC 7638 JWK thumbprint. Every
 // public key ever used stays in signing_keys, so old certificates keep verifying after rotation.
 import { createPrivateKey, createPublicKey, generateKeyPairSync, sign as edSign, type KeyObject } from 'node:crypto';
-import { chmodSync, existsSync, mkdirSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, readFileSync, renameSync, statSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { CompactSign, calculateJwkThumbprint, type JWK } from 'jose';
 import canonicalize from 'canonicalize';
 import type { Db } from '../db/client';
 import type { Env } from '../config/env';
 import { signingKeysRepository } from '../db/signing-keys.repository';
+import { PRIVATE_FILE_MODE, privateDir, tighten } from '../storage/private-files';
 
 export const CERTIFICATE_JWS_TYP = 'stripwarden-cert+jws';
 export const GENERATED_KEY_FILE = 'signing-key.jwk';
@@ -20,14 +21,42 @@ export interface SigningKey {
   publicJwk: JWK;
 }
 
-/** Reads a private Ed25519 key from PEM (PKCS8) or JWK text. */
-export function privateKeyFromText(text: string): KeyObject {
+/**
+ * Reads a private Ed25519 key from PEM (PKCS8) or JWK text. A refusal says what is wrong with the
+ * text in our own words and never carries the parser's message: JSON.parse quotes the text it
+ * choked on, which here is the private key (OWASP ASVS 5.0 16.2.5, no secrets in logs).
+ */
+export function privateKeyFromText(text: string, what = 'The signing key'): KeyObject {
   const trimmed = text.trim();
-  const key = trimmed.startsWith('-----BEGIN')
-    ? createPrivateKey({ key: trimmed, format: 'pem' })
-    : createPrivateKey({ key: JSON.parse(trimmed) as import('node:crypto').JsonWebKey, format: 'jwk' });
+  let key: KeyObject;
+  if (trimmed.startsWith('-----BEGIN')) {
+    try {
+      key = createPrivateKey({ key: trimmed, format: 'pem' });
+    } catch {
+      throw new Error(`${what} is PEM text that does not read as a private key (expected PKCS8, "BEGIN PRIVATE KEY").`);
+    }
+  } else {
+    let jwk: unknown;
+    try {
+      jwk = JSON.parse(trimmed);
+    } catch {
+      throw new Error(`${what} is neither PEM nor JSON text (expected a PKCS8 PEM or a private JWK); the file may be cut short or damaged.`);
+    }
+    if (typeof jwk !== 'object' || jwk === null || Array.isArray(jwk)) throw new Error(`${what} is JSON but not a JWK object.`);
+    if (!('d' in jwk)) throw new Error(`${what} is a JWK without its private part ("d"): a public key cannot sign.`);
+    try {
+      key = createPrivateKey({ key: jwk as import('node:crypto').JsonWebKey, format: 'jwk' });
+    } catch {
+      throw new Error(`${what} is a JWK that does not read as a private key (expected kty "OKP", crv "Ed25519" and valid "x" and "d").`);
+    }
+    // Node derives the public key from "d" alone: a "x" that does not match means the file is damaged.
+    const x = (jwk as { x?: unknown }).x;
+    if (key.asymmetricKeyType === 'ed25519' && x !== undefined && publicJwkOf(key).x !== x) {
+      throw new Error(`${what} is damaged: its public part ("x") does not belong to its private part ("d").`);
+    }
+  }
   if (key.asymmetricKeyType !== 'ed25519') {
-    throw new Error(`The signing key must be an Ed25519 private key, not ${key.asymmetricKeyType ?? 'unknown'}.`);
+    throw new Error(`${what} must be an Ed25519 private key, not ${key.asymmetricKeyType ?? 'unknown'}.`);
   }
   return key;
 }
@@ -79,7 +108,7 @@ export function newPrivateJwk(): string {
 
 /** Writes a private key file with owner-only permissions; replaces an old one atomically. */
 export function writeKeyFile(path: string, text: string, opts: { replace: boolean }) {
-  mkdirSync(dirname(path), { recursive: true });
+  privateDir(dirname(path), { tightenExisting: false });
   if (!opts.replace) {
     // 'wx': two processes starting at once must not both make a key.
     writeFileSync(path, text, { mode: 0o600, flag: 'wx' });
@@ -108,11 +137,13 @@ function ensureKeyFile(env: Pick<Env, 'SIGNING_KEY_PATH' | 'DATA_DIR'>): string 
       if ((err as NodeJS.ErrnoException).code !== 'EEXIST') throw err;
     }
   }
+  // Our own generated key: kept owner-only even if someone loosened it.
+  tighten(path, PRIVATE_FILE_MODE);
   return path;
 }
 
 async function loadKey(db: Db, path: string): Promise<SigningKey> {
-  const privateKey = privateKeyFromText(readFileSync(path, 'utf8'));
+  const privateKey = privateKeyFromText(readFileSync(path, 'utf8'), `The signing key file ${path}`);
   const publicJwk = publicJwkOf(privateKey);
   const kid = await keyIdOf(publicJwk);
   signingKeysRepository(db).makeCurrent(kid, JSON.stringify(publicJwk), new Date().toISOString());

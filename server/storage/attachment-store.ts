@@ -1,16 +1,18 @@
 // Files of attachments on disk, under ${DATA_DIR}/attachments/, named by generated UUIDs only: the
 // user's file name is never part of a path (OWASP ASVS 5.3.2). Writes go to a temporary name in the
 // same folder and are renamed into place, so a crash never leaves a half-written file under a real name.
-import { mkdirSync, readdirSync, renameSync, rmSync, statSync, writeFileSync, readFileSync } from 'node:fs';
+import { readdirSync, renameSync, rmSync, statSync, writeFileSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
+import { readFile } from 'node:fs/promises';
 import { randomUUID } from 'node:crypto';
+import { PRIVATE_FILE_MODE, privateDir } from './private-files';
 
 const STORED_NAME = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}(\.preview\.jpg)?$/;
 const TEMP_PREFIX = '.incoming-';
 
 export function attachmentStore(dataDir: string) {
   const dir = resolve(dataDir, 'attachments');
-  mkdirSync(dir, { recursive: true, mode: 0o700 });
+  privateDir(dir);
 
   function pathOf(storedName: string) {
     // Stored names come from the database, but a path is only ever built from a name we generated.
@@ -26,7 +28,7 @@ export function attachmentStore(dataDir: string) {
       const name = `${randomUUID()}${suffix}`;
       const temp = join(dir, `${TEMP_PREFIX}${randomUUID()}`);
       try {
-        writeFileSync(temp, bytes, { mode: 0o600, flag: 'wx' });
+        writeFileSync(temp, bytes, { mode: PRIVATE_FILE_MODE, flag: 'wx' });
         renameSync(temp, pathOf(name));
       } catch (err) {
         rmSync(temp, { force: true });
@@ -35,6 +37,7 @@ export function attachmentStore(dataDir: string) {
       return name;
     },
     read: (storedName: string) => readFileSync(pathOf(storedName)),
+    readAsync: (storedName: string) => readFile(pathOf(storedName)),
     remove(storedName: string | null | undefined) {
       if (storedName) rmSync(pathOf(storedName), { force: true });
     },

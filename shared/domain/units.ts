@@ -30,8 +30,12 @@ export const READING_BOUNDS: Record<Quantity, { min: number; max: number }> = {
   time: { min: 1e-10, max: 10 },
 };
 
-/** Test leads measure well under 1 Ω; more than 10 Ω of "lead offset" is a mistake. */
-export const LEAD_OFFSET_MAX_OHM = 10;
+/**
+ * The most a test-lead null may be. Good leads with their tips touching read a few tenths of an
+ * ohm at most; leads that read more than 1 Ω are worn and must be replaced, not nulled away
+ * (common practice, no published value). A null above this is refused.
+ */
+export const LEAD_NULL_MAX_OHM = 1;
 
 const UNIT_SYMBOL: Record<Quantity, string> = { resistance: 'Ω', capacitance: 'F', time: 's' };
 
@@ -94,9 +98,9 @@ export function parseReading(
 ): ParsedReading {
   const leadOffsetOhm = opts?.leadOffsetOhm ?? 0;
   if (quantity === 'resistance' || opts?.leadOffsetOhm !== undefined) {
-    if (!Number.isFinite(leadOffsetOhm) || leadOffsetOhm < 0 || leadOffsetOhm > LEAD_OFFSET_MAX_OHM) {
+    if (!Number.isFinite(leadOffsetOhm) || leadOffsetOhm < 0 || leadOffsetOhm > LEAD_NULL_MAX_OHM) {
       return fail(
-        `The test-lead offset must be between 0 and ${LEAD_OFFSET_MAX_OHM} Ω (got ${String(leadOffsetOhm)}); null the leads again with their tips touching.`,
+        `The test-lead offset must be between 0 and ${LEAD_NULL_MAX_OHM} Ω (got ${String(leadOffsetOhm)}); null the leads again with their tips touching.`,
       );
     }
   }

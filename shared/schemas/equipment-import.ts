@@ -4,6 +4,8 @@ import { z } from 'zod';
 
 export const IMPORT_LIMITS = {
   maxBytes: 5 * 1024 * 1024,
+  /** A workbook is a zip: what it unpacks to, all its parts together (a register of 10 000 rows is a few MB). */
+  maxUnpackedBytes: 50 * 1024 * 1024,
   maxRows: 10_000,
   maxColumns: 64,
 } as const;

@@ -1,5 +1,9 @@
 import { z } from 'zod';
 import { EQUIPMENT_KINDS } from '../domain/limits';
+import { cleanTypedName } from './common';
+
+/** Words that name or describe an item (shown in lists and on certificates): cleaned like a name. */
+const itemText = (max: number, tooLong: string) => z.string().overwrite(cleanTypedName).normalize('NFC').trim().max(max, tooLong);
 
 export const EQUIPMENT_STATUSES = ['in-service', 'under-repair', 'retired'] as const;
 export type EquipmentStatus = (typeof EQUIPMENT_STATUSES)[number];
@@ -44,11 +48,11 @@ const positiveOrNull = (field: string, unit: string, max: number) =>
 
 const equipmentFields = {
   kind: equipmentKindField,
-  description: z.string().trim().max(300, 'Keep the description under 300 characters.').optional(),
+  description: itemText(300, 'Keep the description under 300 characters.').optional(),
   lengthM: positiveOrNull('lengthM', 'm', 1000),
   conductorMm2: positiveOrNull('conductorMm2', 'mm²', 50),
   awg: z.number().int('awg must be a whole number.').min(0).max(40, 'awg must be between 0 and 40.').nullable().optional(),
-  cableType: z.string().trim().max(120).nullable().optional(),
+  cableType: itemText(120, 'Keep the cable type under 120 characters.').nullable().optional(),
   velocityFactor: z
     .number({ error: 'velocityFactor must be a number between 0.3 and 1.' })
     .min(0.3, 'velocityFactor must be at least 0.3.')

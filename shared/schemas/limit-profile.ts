@@ -1,5 +1,8 @@
 import { z } from 'zod';
 import { EQUIPMENT_KINDS, TEST_KINDS } from '../domain/limits';
+import { typedName } from './common';
+
+const profileName = typedName({ required: 'A limit profile needs a name', max: 120, tooLong: 'Keep the profile name under 120 characters' });
 
 const ohm = (field: string) =>
   z
@@ -8,7 +11,7 @@ const ohm = (field: string) =>
 
 export const limitRuleSchema = z
   .strictObject({
-    id: z.string().trim().min(1, { error: 'Every rule needs an id' }).max(100),
+    id: typedName({ required: 'Every rule needs an id', max: 100, tooLong: 'Keep rule ids under 100 characters' }),
     equipmentKind: z.enum(EQUIPMENT_KINDS, { error: `equipmentKind must be one of: ${EQUIPMENT_KINDS.join(', ')}` }),
     testKind: z.enum(TEST_KINDS, { error: `testKind must be one of: ${TEST_KINDS.join(', ')}` }),
     maxOhm: ohm('maxOhm').optional(),
@@ -21,7 +24,8 @@ export const limitRuleSchema = z
       .lt(1, { error: 'nearLimitFraction must be between 0 and 1, e.g. 0.9' })
       .optional(),
     nearMinOhm: ohm('nearMinOhm').optional(),
-    source: z.string().trim().min(1, { error: 'Every rule needs a source: a rule article, a handbook, or "House rule"' }).max(300),
+    // The source is printed beside each verdict and on the certificate: cleaned like a name.
+    source: typedName({ required: 'Every rule needs a source: a rule article, a handbook, or "House rule"', max: 300, tooLong: 'Keep the source under 300 characters' }),
     houseRule: z.boolean(),
     note: z.string().max(1000).optional(),
   })
@@ -70,7 +74,7 @@ export const limitProfileRulesSchema = z
   });
 
 export const limitProfileSchema = z.strictObject({
-  name: z.string().trim().min(1, { error: 'A limit profile needs a name' }).max(120),
+  name: profileName,
   version: z.number().int().positive(),
   rules: limitProfileRulesSchema,
   loopRequired: z.array(z.enum(EQUIPMENT_KINDS)).optional(),
@@ -81,12 +85,12 @@ export type LimitProfileInput = z.infer<typeof limitProfileSchema>;
 
 /** Copy a profile into a new lineage (version 1) under a new name. */
 export const copyProfileSchema = z.strictObject({
-  name: z.string().trim().min(1, { error: 'A limit profile needs a name' }).max(120),
+  name: profileName,
 });
 
 /** Edit a profile: the server stores it as a new version of the same lineage. */
 export const updateProfileSchema = z.strictObject({
-  name: z.string().trim().min(1, { error: 'A limit profile needs a name' }).max(120).optional(),
+  name: profileName.optional(),
   rules: limitProfileRulesSchema,
   loopRequired: z.array(z.enum(EQUIPMENT_KINDS, { error: `loopRequired lists equipment kinds: ${EQUIPMENT_KINDS.join(', ')}` })).optional(),
   notes: z.string().trim().max(2000).nullable().optional(),

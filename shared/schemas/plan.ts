@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { EQUIPMENT_KINDS, TEST_KINDS, type TestKind } from '../domain/limits';
-import { idField, nameField } from './common';
+import { cleanTypedName, idField, nameField, typedName } from './common';
 import { assetTagField } from './equipment';
 
 const isoDate = (field: string) =>
@@ -37,11 +37,7 @@ export const updateVenueSchema = z
   .refine((v) => v.name !== undefined || v.profileId !== undefined, { message: 'Nothing to change: give name or profileId.' });
 export type UpdateVenueInput = z.input<typeof updateVenueSchema>;
 
-const positionName = z
-  .string({ error: 'A position needs a name.' })
-  .trim()
-  .min(1, 'A position needs a name.')
-  .max(60, 'Keep position names under 60 characters.');
+const positionName = typedName({ required: 'A position needs a name.', max: 60, tooLong: 'Keep position names under 60 characters.' });
 const positionKind = z.enum(EQUIPMENT_KINDS, { error: `equipmentKind must be one of: ${EQUIPMENT_KINDS.join(', ')}` });
 
 export const positionTemplateEntrySchema = z.strictObject({
@@ -50,15 +46,17 @@ export const positionTemplateEntrySchema = z.strictObject({
   pisteOnly: z.boolean().optional(),
 });
 
-const stripLabel = z.string().trim().min(1, 'A strip needs a label.').max(40, 'Keep strip labels under 40 characters.');
+const stripLabel = typedName({ required: 'A strip needs a label.', max: 40, tooLong: 'Keep strip labels under 40 characters.' });
+/** A row or area of the hall; empty means none. */
+const zoneName = z.string().overwrite(cleanTypedName).normalize('NFC').trim().max(60, 'Keep zone names under 60 characters.');
 
 export const bulkStripsSchema = z
   .strictObject({
     count: z.number().int('count must be a whole number.').min(1, 'Add at least 1 strip.').max(200, 'Add at most 200 strips at once.').optional(),
     labels: z.array(stripLabel).min(1, 'Give at least one label.').max(200, 'Add at most 200 strips at once.').optional(),
-    prefix: z.string().max(30).optional(),
+    prefix: z.string().overwrite(cleanTypedName).normalize('NFC').max(30, 'Keep the prefix under 30 characters.').optional(),
     startAt: z.number().int().min(0).max(9999).optional(),
-    zone: z.string().trim().max(60).nullable().optional(),
+    zone: zoneName.nullable().optional(),
     conductivePiste: z.boolean().optional(),
     template: z.array(positionTemplateEntrySchema).min(1, 'A template needs at least one position.').max(20).optional(),
   })
@@ -79,7 +77,7 @@ export type BulkStripsInput = z.input<typeof bulkStripsSchema>;
 export const updateStripSchema = z
   .strictObject({
     label: stripLabel.optional(),
-    zone: z.string().trim().max(60).nullable().optional(),
+    zone: zoneName.nullable().optional(),
     sortOrder: z.number().int().min(0).max(100000).optional(),
     conductivePiste: z.boolean().optional(),
   })

@@ -101,12 +101,15 @@ describe('GET /api/venues/:id/readings.csv', () => {
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     expect(res.headers['content-disposition']).toBe('attachment; filename="Riverside-Annex-readings.csv"');
     const rows = parseCsv(res.body as string);
-    expect(rows[0].slice(0, 9)).toEqual(['Strip', 'Position', 'Asset tag', 'Test', 'Conductors', 'Value as typed', 'Value (ohm)', 'Over range', 'Verdict']);
+    expect(rows[0].slice(0, 10)).toEqual(['Strip', 'Position', 'Asset tag', 'Test', 'Conductors', 'Value as typed', 'Lead null (ohm)', 'Value (ohm)', 'Over range', 'Verdict']);
     expect(rows[0]).toContain('Profile version');
     expect(rows.length - 1).toBe(((await marco.get(`/api/venues/${annexId}/readings`)).body as Row[]).length);
     const header = rows[0];
     const first = Object.fromEntries(header.map((h, i) => [h, rows[1][i]]));
     expect(first).toMatchObject({ Strip: 'Annex 1', Position: 'Left floor cable', Profile: 'Competition default', 'Profile version': '1', 'Taken by': 'Lee Varga' });
+    // Lee's demo readings were typed with a 0.05 Ω test-lead null: typed − null = the value judged.
+    expect(first).toMatchObject({ 'Lead null (ohm)': '0.05', 'Lead null meter': 'Meter 2' });
+    expect(Number(first['Value as typed']) - 0.05).toBeCloseTo(Number(first['Value (ohm)']), 9);
   });
 
   test('cells that a spreadsheet would run as a formula are defused with a leading apostrophe', async () => {

@@ -88,6 +88,16 @@ describe('POST /api/waveforms/analyse', () => {
     }
   });
 
+  test('the trace is read in the charset its Content-Type names (UTF-16 here); an unknown charset is 415', async () => {
+    const csv = traceCsv(synthesiseTrace({ roundTripS: 80e-9, noiseV: 0.005 })).replace('Volts (V)', 'Spannung (V) – Kanal 1');
+    const utf16 = await lee.post('/api/waveforms/analyse').set('Content-Type', 'text/csv; charset=utf-16le').send(Buffer.from(csv, 'utf16le'));
+    expect(utf16.status).toBe(200);
+    expect(Math.abs(utf16.body.roundTripNs - 80)).toBeLessThanOrEqual(1);
+    const bogus = await lee.post('/api/waveforms/analyse').set('Content-Type', 'text/csv; charset=klingon-8').send(Buffer.from(csv));
+    expect(bogus.status).toBe(415);
+    expect(bogus.headers['content-type']).toMatch(/application\/problem\+json/);
+  });
+
   test('when the body is JSON, then 415', async () => {
     const res = await lee.post('/api/waveforms/analyse').send({ timeS: [0, 1] });
     expect(res.status).toBe(415);

@@ -22,7 +22,13 @@ process.once('exit', () => {
   for (const c of running) c.kill('SIGKILL');
 });
 
-export async function startChildServer(port: number, dir = resolve('.tmp/reliability', randomUUID())): Promise<ChildServer> {
+export interface ChildServerOptions {
+  env?: Record<string, string>;
+  /** Each line the server prints on its console (standard output). */
+  onLine?: (line: string) => void;
+}
+
+export async function startChildServer(port: number, dir = resolve('.tmp/reliability', randomUUID()), opts: ChildServerOptions = {}): Promise<ChildServer> {
   mkdirSync(dir, { recursive: true });
   const dbPath = join(dir, 'sw.db');
   const base = `http://localhost:${port}`;
@@ -44,10 +50,19 @@ export async function startChildServer(port: number, dir = resolve('.tmp/reliabi
       SMTP_FAKE_PORT: '0',
       SIGNIN_RATE_LIMIT: '100000',
       LOG_REQUESTS: 'off',
+      ...opts.env,
     },
-    stdio: ['ignore', 'ignore', 'pipe'],
+    stdio: ['ignore', opts.onLine ? 'pipe' : 'ignore', 'pipe'],
   });
   running.add(child);
+  if (opts.onLine) {
+    let pending = '';
+    child.stdout!.on('data', (c: Buffer) => {
+      const lines = (pending + c.toString()).split('\n');
+      pending = lines.pop() ?? '';
+      for (const line of lines) opts.onLine!(line);
+    });
+  }
   let stderr = '';
   child.stderr!.on('data', (c: Buffer) => (stderr += c.toString()));
   let exited = false;

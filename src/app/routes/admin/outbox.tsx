@@ -11,7 +11,10 @@ export default function OutboxPage() {
   const message = useMessage(selected);
   return (
     <>
-      <PageHeader title="Outbox" subtitle="E-mail the app has sent. With no SMTP_URL configured, it is kept here and goes nowhere else." />
+      <PageHeader
+        title="Outbox"
+        subtitle="E-mail your organisation has sent. With no SMTP_URL configured, it is kept here and goes nowhere else. One-time links (invitations, password resets) are for their addressee alone: they are withheld here and printed on the server's console."
+      />
       <div className="grid gap-6 lg:grid-cols-[1fr_1.4fr]">
         <Card className="p-0">
           {list.isPending && <Loading />}

@@ -1,4 +1,6 @@
+import { useMemo } from 'react';
 import { useForm } from 'react-hook-form';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { inviteUserSchema, type InviteUserInput } from '@shared/schemas/auth';
 import { ROLE_LABELS, ROLES } from '@shared/schemas/common';
@@ -7,9 +9,87 @@ import { useInviteUser } from '@/features/users/api/invite-user';
 import { useUpdateUser } from '@/features/users/api/update-user';
 import { useEndSessions } from '@/features/users/api/end-sessions';
 import { Button } from '@/components/ui/button';
+import { DataTable } from '@/components/ui/data-table';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { useMe } from '@/features/auth/api/get-me';
+
+type Person = NonNullable<ReturnType<typeof useUsers>['data']>[number];
+const col = createColumnHelper<Person>();
+
+function PeopleTable({
+  people,
+  meId,
+  onRole,
+  onDisabled,
+  onEndSessions,
+}: {
+  people: Person[];
+  meId: string | undefined;
+  onRole: (id: string, role: InviteUserInput['role']) => void;
+  onDisabled: (id: string, disabled: boolean) => void;
+  onEndSessions: (id: string) => void;
+}) {
+  const columns = useMemo(
+    () => [
+      col.accessor('name', {
+        header: 'Name',
+        cell: (c) => (
+          <>
+            <div className="font-medium">{c.getValue()}</div>
+            <div className="text-xs text-ink-soft">{c.row.original.email}</div>
+          </>
+        ),
+      }),
+      col.accessor('role', {
+        header: 'Role',
+        cell: (c) => {
+          const u = c.row.original;
+          return (
+            <>
+              <label className="sr-only" htmlFor={`role-${u.id}`}>Role of {u.name}</label>
+              <select
+                id={`role-${u.id}`}
+                className="min-h-touch rounded-md border border-line bg-card px-2"
+                value={c.getValue()}
+                disabled={u.id === meId}
+                onChange={(e) => onRole(u.id, e.target.value as InviteUserInput['role'])}
+              >
+                {ROLES.map((r) => (
+                  <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                ))}
+              </select>
+            </>
+          );
+        },
+      }),
+      col.display({ id: 'state', header: 'State', cell: (c) => (c.row.original.disabled ? 'Disabled' : c.row.original.invited ? 'Invited, no password yet' : 'Active') }),
+      col.display({
+        id: 'actions',
+        header: () => <span className="sr-only">Actions</span>,
+        meta: { cellClassName: 'text-right' },
+        cell: (c) => {
+          const u = c.row.original;
+          return (
+            u.id !== meId && (
+              <div className="flex justify-end gap-2">
+                <Button variant="ghost" title="Signs this person out on every device at once" onClick={() => onEndSessions(u.id)}>
+                  Sign out everywhere
+                </Button>
+                <Button variant="secondary" onClick={() => onDisabled(u.id, !u.disabled)}>
+                  {u.disabled ? 'Enable' : 'Disable'}
+                </Button>
+              </div>
+            )
+          );
+        },
+      }),
+    ],
+    [meId, onRole, onDisabled, onEndSessions],
+  );
+  const table = useReactTable({ data: people, columns, getCoreRowModel: getCoreRowModel(), getRowId: (u) => u.id });
+  return <DataTable table={table} />;
+}
 
 export default function PeoplePage() {
   const users = useUsers();
@@ -30,57 +110,13 @@ export default function PeoplePage() {
           {users.isPending && <Loading />}
           {users.isError && <Notice tone="error">{users.error.message}</Notice>}
           {users.data && (
-            <table className="w-full text-left text-sm">
-              <thead className="border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
-                <tr>
-                  <th className="px-4 py-3">Name</th>
-                  <th className="px-4 py-3">Role</th>
-                  <th className="px-4 py-3">State</th>
-                  <th className="px-4 py-3"><span className="sr-only">Actions</span></th>
-                </tr>
-              </thead>
-              <tbody>
-                {users.data.map((u) => (
-                  <tr key={u.id} className="border-b border-line last:border-0">
-                    <td className="px-4 py-2">
-                      <div className="font-medium">{u.name}</div>
-                      <div className="text-xs text-ink-soft">{u.email}</div>
-                    </td>
-                    <td className="px-4 py-2">
-                      <label className="sr-only" htmlFor={`role-${u.id}`}>Role of {u.name}</label>
-                      <select
-                        id={`role-${u.id}`}
-                        className="min-h-touch rounded-md border border-line bg-card px-2"
-                        value={u.role}
-                        disabled={u.id === me.data?.id}
-                        onChange={(e) => update.mutate({ id: u.id, role: e.target.value as InviteUserInput['role'] })}
-                      >
-                        {ROLES.map((r) => (
-                          <option key={r} value={r}>{ROLE_LABELS[r]}</option>
-                        ))}
-                      </select>
-                    </td>
-                    <td className="px-4 py-2">{u.disabled ? 'Disabled' : u.invited ? 'Invited, no password yet' : 'Active'}</td>
-                    <td className="px-4 py-2 text-right">
-                      {u.id !== me.data?.id && (
-                        <div className="flex justify-end gap-2">
-                          <Button
-                            variant="ghost"
-                            title="Signs this person out on every device at once"
-                            onClick={() => endSessions.mutate(u.id)}
-                          >
-                            Sign out everywhere
-                          </Button>
-                          <Button variant="secondary" onClick={() => update.mutate({ id: u.id, disabled: !u.disabled })}>
-                            {u.disabled ? 'Enable' : 'Disable'}
-                          </Button>
-                        </div>
-                      )}
-                    </td>
-                  </tr>
-                ))}
-              </tbody>
-            </table>
+            <PeopleTable
+              people={users.data}
+              meId={me.data?.id}
+              onRole={(id, role) => update.mutate({ id, role })}
+              onDisabled={(id, disabled) => update.mutate({ id, disabled })}
+              onEndSessions={(id) => endSessions.mutate(id)}
+            />
           )}
           {update.isError && <Notice tone="error">{update.error.message}</Notice>}
           {endSessions.isSuccess && <Notice tone="success">Their sessions have ended.</Notice>}

@@ -1,4 +1,5 @@
 import { Link, useParams } from 'react-router';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import type { TestKind } from '@shared/domain/limits';
@@ -11,6 +12,7 @@ import { EquipmentEditForm } from '@/features/equipment/components/edit-form';
 import { CalibrateForm } from '@/features/equipment/components/calibrate-form';
 import { dateTime, lengthText } from '@/features/equipment/components/labels';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
+import { DataTable, plainTableLook } from '@/components/ui/data-table';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
@@ -27,6 +29,28 @@ function Section({ title, count, children }: { title: string; count: number; chi
       {count === 0 ? <p className="px-5 py-4 text-sm text-ink-soft">Nothing yet.</p> : children}
     </Card>
   );
+}
+
+type ItemReading = NonNullable<ReturnType<typeof useEquipmentItem>['data']>['readings'][number];
+const col = createColumnHelper<ItemReading>();
+const readingColumns = [
+  col.accessor('takenAt', { header: 'When', cell: (c) => dateTime(c.getValue()), meta: { cellClassName: 'text-ink-soft' } }),
+  col.display({ id: 'where', header: 'Where', cell: (c) => `${c.row.original.stripLabel} · ${c.row.original.venueName}` }),
+  col.accessor('testKind', { header: 'Test', cell: (c) => `${TEST_KIND_LABELS[c.getValue() as TestKind] ?? c.getValue()} ${c.row.original.conductors}` }),
+  col.accessor('valueText', { header: 'Value', meta: { cellClassName: 'font-mono' } }),
+  col.accessor('verdict', {
+    header: 'Verdict',
+    cell: (c) => {
+      const [shape, tone, label] = VERDICT[c.getValue()];
+      return <StatusMark shape={shape} tone={tone} label={label} size="sm" />;
+    },
+  }),
+];
+const readingsLook = { ...plainTableLook, th: 'px-4 py-2' };
+
+function ItemReadings({ readings }: { readings: ItemReading[] }) {
+  const table = useReactTable({ data: readings, columns: readingColumns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id });
+  return <DataTable table={table} look={readingsLook} />;
 }
 
 export default function EquipmentItemPage() {
@@ -147,31 +171,7 @@ export default function EquipmentItemPage() {
             </ul>
           </Section>
           <Section title="Readings" count={readings.length}>
-            <table className="w-full text-left text-sm">
-              <thead className="border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
-                <tr>
-                  <th className="px-4 py-2">When</th>
-                  <th className="px-4 py-2">Where</th>
-                  <th className="px-4 py-2">Test</th>
-                  <th className="px-4 py-2">Value</th>
-                  <th className="px-4 py-2">Verdict</th>
-                </tr>
-              </thead>
-              <tbody>
-                {readings.map((r) => {
-                  const [shape, tone, label] = VERDICT[r.verdict];
-                  return (
-                    <tr key={r.id} className="border-b border-line last:border-0">
-                      <td className="px-4 py-2 text-ink-soft">{dateTime(r.takenAt)}</td>
-                      <td className="px-4 py-2">{r.stripLabel} · {r.venueName}</td>
-                      <td className="px-4 py-2">{TEST_KIND_LABELS[r.testKind as TestKind] ?? r.testKind} {r.conductors}</td>
-                      <td className="px-4 py-2 font-mono">{r.valueText}</td>
-                      <td className="px-4 py-2"><StatusMark shape={shape} tone={tone} label={label} size="sm" /></td>
-                    </tr>
-                  );
-                })}
-              </tbody>
-            </table>
+            <ItemReadings readings={readings} />
           </Section>
         </div>
       </div>

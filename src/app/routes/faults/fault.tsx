@@ -1,4 +1,5 @@
 import { Link, useParams } from 'react-router';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { formatLength, formatOhm } from '@shared/domain/units';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
@@ -9,9 +10,11 @@ import { AttachmentsPanel } from '@/features/attachments/components/attachments-
 import { FaultNotes } from '@/features/faults/components/fault-notes';
 import { LocateForm } from '@/features/faults/components/locate-form';
 import { RepairForm } from '@/features/faults/components/repair-form';
+import { DismissForm } from '@/features/faults/components/dismiss-form';
 import { METHOD_LABELS, type LocateMethod } from '@/features/faults/utils/methods';
 import { CableDrawing } from '@/components/ui/cable-drawing';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
+import { DataTable } from '@/components/ui/data-table';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 
@@ -23,6 +26,41 @@ const statusLook = {
 } as const;
 const verdictLook = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['diamond', 'near', 'Near limit'], fail: ['triangle', 'fail', 'Fail'] } as const;
 const ACTION_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped', retired: 'Retired' } as const;
+
+type FaultStep = NonNullable<ReturnType<typeof useFault>['data']>['steps'][number];
+const ohmText = (r: { overRange: boolean; valueOhm: number | null }) => (r.overRange ? 'OL' : formatOhm(r.valueOhm ?? 0));
+const stepCol = createColumnHelper<FaultStep>();
+const stepColumns = [
+  stepCol.display({ id: 'step', header: 'Step', cell: (c) => `${TEST_KIND_LABELS[c.row.original.testKind]} ${c.row.original.conductors}`, meta: { className: 'pr-3' } }),
+  stepCol.accessor('latest', { header: 'Latest', cell: (c) => (c.getValue() ? ohmText(c.getValue()!) : '—'), meta: { className: 'pr-3', cellClassName: 'tabular-nums' } }),
+  stepCol.display({
+    id: 'verdict',
+    header: 'Verdict',
+    meta: { className: 'pr-3' },
+    cell: (c) => {
+      const l = c.row.original.latest;
+      const v = l ? verdictLook[l.verdict] : null;
+      return v ? <StatusMark shape={v[0]} tone={v[1]} label={v[2]} size="sm" /> : <span className="text-ink-soft">not measured</span>;
+    },
+  }),
+  stepCol.display({
+    id: 'limit',
+    header: 'Limit',
+    meta: { className: 'pr-3', cellClassName: 'tabular-nums' },
+    cell: (c) => {
+      const l = c.row.original.latest;
+      return l?.limitOhm != null ? `${l.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(l.limitOhm)}` : '—';
+    },
+  }),
+  stepCol.accessor('readings', { header: 'Earlier', cell: (c) => c.getValue().slice(1, 4).map(ohmText).join(', ') || '—', meta: { cellClassName: 'text-xs text-ink-soft' } }),
+];
+const stepsLook = { table: 'w-full text-left text-sm', head: 'border-b border-line text-xs uppercase tracking-wide text-ink-soft', th: 'py-2', row: 'border-b border-line last:border-0', td: 'py-2' };
+
+/** The latest reading of each step of the item, the fault's own step marked. */
+function StepReadings({ steps, faultStepId }: { steps: FaultStep[]; faultStepId: string | null }) {
+  const table = useReactTable({ data: steps, columns: stepColumns, getCoreRowModel: getCoreRowModel(), getRowId: (s) => s.id });
+  return <DataTable table={table} look={stepsLook} rowProps={(row) => ({ className: row.original.id === faultStepId ? 'bg-fail-soft/50' : undefined })} />;
+}
 
 /** A fault: where it is on the cable, how to locate it, the repair, and the way back to the retest. */
 export default function FaultPage() {
@@ -67,8 +105,14 @@ export default function FaultPage() {
         </div>
       )}
       {f.status === 'closed' && (
-        <div className="mb-4">
-          <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+        <div className="mb-4" data-testid="fault-closed">
+          {f.dismissal ? (
+            <Notice tone="info">
+              Dismissed as a typing mistake {new Date(f.dismissal.at).toLocaleString()} by {f.dismissal.byName ?? 'the technical director'}: “{f.dismissal.reason}”
+            </Notice>
+          ) : (
+            <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+          )}
         </div>
       )}
 
@@ -140,6 +184,13 @@ export default function FaultPage() {
         )}
       </div>
 
+      {f.canDismiss && (
+        <Card className="mt-4">
+          <h2 className="mb-2 text-lg font-semibold">A typing mistake?</h2>
+          <DismissForm fault={f} />
+        </Card>
+      )}
+
       <Card className="mt-4">
         <h2 className="mb-3 text-lg font-semibold">Photos, scope traces and files</h2>
         <AttachmentsPanel
@@ -177,39 +228,7 @@ export default function FaultPage() {
 
       <Card className="mt-4 overflow-x-auto">
         <h2 className="mb-2 text-lg font-semibold">Readings of this item</h2>
-        <table className="w-full text-left text-sm">
-          <thead className="border-b border-line text-xs uppercase tracking-wide text-ink-soft">
-            <tr>
-              <th className="py-2 pr-3">Step</th>
-              <th className="py-2 pr-3">Latest</th>
-              <th className="py-2 pr-3">Verdict</th>
-              <th className="py-2 pr-3">Limit</th>
-              <th className="py-2">Earlier</th>
-            </tr>
-          </thead>
-          <tbody>
-            {f.steps.map((s) => {
-              const l = s.latest;
-              const v = l ? verdictLook[l.verdict] : null;
-              return (
-                <tr key={s.id} className={`border-b border-line last:border-0 ${s.id === f.stepId ? 'bg-fail-soft/50' : ''}`}>
-                  <td className="py-2 pr-3">
-                    {TEST_KIND_LABELS[s.testKind]} {s.conductors}
-                  </td>
-                  <td className="py-2 pr-3 tabular-nums">{l ? (l.overRange ? 'OL' : formatOhm(l.valueOhm ?? 0)) : '—'}</td>
-                  <td className="py-2 pr-3">{v ? <StatusMark shape={v[0]} tone={v[1]} label={v[2]} size="sm" /> : <span className="text-ink-soft">not measured</span>}</td>
-                  <td className="py-2 pr-3 tabular-nums">{l?.limitOhm != null ? `${l.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(l.limitOhm)}` : '—'}</td>
-                  <td className="py-2 text-xs text-ink-soft">
-                    {s.readings
-                      .slice(1, 4)
-                      .map((r) => (r.overRange ? 'OL' : formatOhm(r.valueOhm ?? 0)))
-                      .join(', ') || '—'}
-                  </td>
-                </tr>
-              );
-            })}
-          </tbody>
-        </table>
+        <StepReadings steps={f.steps} faultStepId={f.stepId} />
       </Card>
 
       <Card className="mt-4">

@@ -1,6 +1,10 @@
 import { useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
 import { Link, useNavigate, useParams } from 'react-router';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
+import { copyProfileSchema } from '@shared/schemas/limit-profile';
 import { useMe } from '@/features/auth/api/get-me';
 import { useProfile } from '@/features/profiles/api/get-profile';
 import { useCopyProfile } from '@/features/profiles/api/copy-profile';
@@ -12,6 +16,29 @@ import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
 import { paths } from '@/config/paths';
 
+/** A copy of this version under a new name, as version 1 of a new profile. */
+function CopyForm({ onCopy, onCopied, error }: { onCopy: (name: string) => Promise<{ id: string }>; onCopied: (id: string) => void; error: string | null }) {
+  const form = useForm<z.input<typeof copyProfileSchema>, unknown, z.output<typeof copyProfileSchema>>({
+    resolver: zodResolver(copyProfileSchema),
+    defaultValues: { name: '' },
+  });
+  const name = useWatch({ control: form.control, name: 'name' });
+  return (
+    <form
+      noValidate
+      className="mt-2 flex flex-col gap-2"
+      onSubmit={form.handleSubmit(async (v) => {
+        const created = await onCopy(v.name).catch(() => null);
+        if (created) onCopied(created.id);
+      })}
+    >
+      <TextField label="Name of the copy" id="f-copyName" {...form.register('name')} error={form.formState.errors.name?.message} />
+      {error && <Notice tone="error">{error}</Notice>}
+      <Button type="submit" variant="secondary" disabled={!name.trim()}>Copy profile</Button>
+    </form>
+  );
+}
+
 export default function ProfilePage() {
   const { profileId = '' } = useParams();
   const me = useMe();
@@ -20,7 +47,6 @@ export default function ProfilePage() {
   const copy = useCopyProfile();
   const update = useUpdateProfile();
   const [editing, setEditing] = useState(false);
-  const [copyName, setCopyName] = useState('');
   const canManage = me.data?.role === 'admin' || me.data?.role === 'director';
 
   if (profile.isPending) return <Loading />;
@@ -101,18 +127,7 @@ export default function ProfilePage() {
           {canManage && (
             <Card>
               <h2 className="text-lg font-semibold">Make a copy</h2>
-              <form
-                className="mt-2 flex flex-col gap-2"
-                onSubmit={async (e) => {
-                  e.preventDefault();
-                  const created = await copy.mutateAsync({ id: p.id, name: copyName }).catch(() => null);
-                  if (created) navigate(paths.profile(created.id));
-                }}
-              >
-                <TextField label="Name of the copy" name="copyName" value={copyName} onChange={(e) => setCopyName(e.target.value)} />
-                {copy.isError && <Notice tone="error">{copy.error.message}</Notice>}
-                <Button type="submit" variant="secondary" disabled={!copyName.trim()}>Copy profile</Button>
-              </form>
+              <CopyForm onCopy={(name) => copy.mutateAsync({ id: p.id, name })} error={copy.isError ? copy.error.message : null} onCopied={(id) => navigate(paths.profile(id))} />
             </Card>
           )}
         </div>

@@ -7,16 +7,17 @@ import { useMe } from '@/features/auth/api/get-me';
 import { useStrip } from '@/features/testing/api/get-strip';
 import { StepRow, stepTitle, type QueuedView } from '@/features/testing/components/step-row';
 import { useOutbox } from '@/features/offline/hooks/use-outbox';
-import { enqueueReading } from '@/features/offline/stores/outbox';
+import { enqueueReading, recordLeadNull } from '@/features/offline/stores/outbox';
 import { newReadingId } from '@/features/offline/utils/reading-id';
 import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
-import { readLeadOffset, safetyAcknowledged, saveLeadOffset } from '@/features/testing/utils/session';
+import { readLeadNull, safetyAcknowledged, saveLeadNull } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
+import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
 
 const statusTone = { 'not-started': 'idle', 'in-progress': 'brand', clear: 'pass', 'fault-open': 'fail', withdrawn: 'idle' } as const;
 const statusShape = { 'not-started': 'ring', 'in-progress': 'half', clear: 'circle', 'fault-open': 'triangle', withdrawn: 'dash' } as const;
@@ -29,7 +30,9 @@ export default function StripTestPage() {
   const strip = useStrip(stripId);
   const me = useMe();
   const outbox = useOutbox();
-  const [lead, setLead] = useState<number | null>(() => readLeadOffset());
+  const [lead, setLead] = useState<LeadNullRecord | null>(null);
+  // This person's null of this session (kept in the tab; a shared tablet never uses another's).
+  useEffect(() => setLead(readLeadNull(me.data?.id)), [me.data?.id]);
   const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
   const nextStripLink = useRef<HTMLAnchorElement>(null);
   const [ready, setReady] = useState(() => safetyAcknowledged());
@@ -127,13 +130,18 @@ export default function StripTestPage() {
         </div>
         <ProgressBar done={data.counts.done} total={data.counts.total} label="This strip: steps measured" />
         <ProgressBar done={data.venueProgress.stepsDone} total={data.venueProgress.stepsTotal} label={`This venue: steps measured (${data.venueProgress.stripsClear} of ${data.venueProgress.stripCount} strips clear)`} />
-        {canWrite && (
+        {canWrite && me.data && (
           <div className="md:col-span-3">
             <LeadNull
-              valueOhm={lead}
-              onChange={(v) => {
-                saveLeadOffset(v);
-                setLead(v);
+              leadNull={lead}
+              userId={me.data.id}
+              onChange={(n) => {
+                saveLeadNull(n);
+                setLead(n);
+                if (n) void recordLeadNull(n);
+                // Back to the first step not measured yet, so typing goes on.
+                const target = flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0];
+                requestAnimationFrame(() => focusStep(target?.step.id));
               }}
             />
           </div>
@@ -207,7 +215,7 @@ export default function StripTestPage() {
                       index={n}
                       step={step}
                       ctx={{ profile, equipmentKind: position.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM: position.equipment?.lengthM ?? null }}
-                      leadOffsetOhm={lead}
+                      leadNull={lead}
                       canWrite={canWrite}
                       faultId={fault?.id ?? null}
                       highlight={retestPosition === position.id}
@@ -225,6 +233,8 @@ export default function StripTestPage() {
                           stripId: data.id,
                           where: `${data.label} · ${position.name} · ${stepTitle(step)}`,
                           preview,
+                          // The null goes with the reading until the server is known to have it.
+                          ...(lead && input.leadNullId === lead.id ? { leadNull: lead } : {}),
                         });
                       }}
                       onRecorded={() => focusStep(flat[at + 1]?.step.id)}

@@ -1,6 +1,9 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
 import { format } from 'date-fns';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { revokeCertificateSchema, type RevokeCertificateInput } from '@shared/schemas/sign-off';
 import { certificatePdfUrl, certificatesZipUrl, useCertificates, type CertificateSummary } from '@/features/certificates/api/get-certificates';
 import { useRevokeCertificate } from '@/features/certificates/api/revoke-certificate';
 import { CertificateStatusBadge } from '@/features/certificates/components/certificate-status';
@@ -13,17 +16,22 @@ const linkClass = 'inline-flex min-h-touch items-center rounded-lg border border
 
 function RevokeForm({ venueId, number, onDone }: { venueId: string; number: string; onDone: () => void }) {
   const revoke = useRevokeCertificate(venueId);
-  const [reason, setReason] = useState('');
+  const form = useForm<RevokeCertificateInput>({ resolver: zodResolver(revokeCertificateSchema), defaultValues: { reason: '' } });
+  const reason = useWatch({ control: form.control, name: 'reason' });
   return (
     <form
+      noValidate
       className="mt-2 flex flex-wrap items-end gap-3 rounded-lg bg-fail-soft p-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        revoke.mutate({ number, reason }, { onSuccess: onDone });
-      }}
+      onSubmit={form.handleSubmit((v) => revoke.mutate({ number, reason: v.reason }, { onSuccess: onDone }))}
     >
-      <TextField className="min-w-72 flex-1" label={`Why is ${number} revoked?`} name={`reason-${number}`} value={reason} onChange={(e) => setReason(e.target.value)} />
-      <Button type="submit" variant="danger" disabled={reason.trim().length < 3 || revoke.isPending}>
+      <TextField
+        className="min-w-72 flex-1"
+        label={`Why is ${number} revoked?`}
+        id={`f-reason-${number}`}
+        {...form.register('reason')}
+        error={form.formState.errors.reason?.message}
+      />
+      <Button type="submit" variant="danger" disabled={!revokeCertificateSchema.safeParse({ reason }).success || revoke.isPending}>
         Revoke
       </Button>
       <Button variant="ghost" onClick={onDone}>

@@ -1,4 +1,5 @@
-import { useState, type ReactNode } from 'react';
+import type { ReactNode } from 'react';
+import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router';
 import { format } from 'date-fns';
 import { useVerification } from '@/features/certificates/api/get-verification';
@@ -29,23 +30,21 @@ function PublicFrame({ children }: { children: ReactNode }) {
 
 function NumberForm({ initial = '' }: { initial?: string }) {
   const navigate = useNavigate();
-  const [value, setValue] = useState(initial);
+  // No check here: the answer page says whether a certificate has the number typed.
+  const form = useForm({ defaultValues: { number: initial } });
   return (
     <form
       className="flex flex-wrap items-end gap-3"
-      onSubmit={(e) => {
-        e.preventDefault();
-        const n = value.trim().toUpperCase();
+      onSubmit={form.handleSubmit(({ number }) => {
+        const n = number.trim().toUpperCase();
         if (n) navigate(paths.verify(encodeURIComponent(n)));
-      }}
+      })}
     >
       <TextField
         className="min-w-72 flex-1"
         label="Certificate number"
-        name="number"
         placeholder="SW-2026-XXXX-XXXX-V"
-        value={value}
-        onChange={(e) => setValue(e.target.value)}
+        {...form.register('number')}
         autoCapitalize="characters"
         spellCheck={false}
       />
@@ -85,9 +84,27 @@ function Details({ number }: { number: string }) {
       : v.status === 'superseded' && v.supersededAt
         ? `Superseded ${when(v.supersededAt)}.`
         : `Issued ${when(v.issuedAt)}.`;
+  const notCovering = v.notCovering ?? [];
   return (
     <div className="flex flex-col gap-6">
       <VerificationVerdict status={v.status} detail={detail} />
+      {notCovering.length > 0 && (
+        <div data-testid="not-covering">
+          <Notice tone="caution">
+            <strong>
+              This venue certificate no longer covers {notCovering.length === 1 ? 'one of its strips' : `${notCovering.length} of its strips`}:
+            </strong>{' '}
+            {notCovering.map((s, i) => (
+              <span key={s.number}>
+                {i > 0 ? '; ' : ''}
+                {s.strip} (its strip certificate <span className="font-mono">{s.number}</span> was revoked{s.revokedAt ? ` ${when(s.revokedAt)}` : ''}
+                {s.revokedReason ? `: ${s.revokedReason.replace(/[.!]+$/, '')}` : ''})
+              </span>
+            ))}
+            . Do not rely on it for {notCovering.length === 1 ? 'that strip' : 'those strips'}.
+          </Notice>
+        </div>
+      )}
       <Card>
         <dl className="grid gap-x-6 gap-y-3 sm:grid-cols-[12rem_1fr]">
           {rows.map(([k, val]) => (

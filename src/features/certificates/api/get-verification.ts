@@ -10,6 +10,8 @@ export interface Verification {
   eventDates: { startsOn: string; endsOn: string };
   venue: string;
   strips: string[];
+  /** A venue certificate's strips whose own certificates were revoked: it no longer covers them. */
+  notCovering: { strip: string; number: string; revokedAt: string | null; revokedReason: string | null }[];
   organisation: string;
   issuedAt: string;
   signedBy: string;

@@ -1,12 +1,17 @@
-import { useState } from 'react';
+import { useEffect, useMemo, useState } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { createColumnHelper, getCoreRowModel, getFilteredRowModel, useReactTable } from '@tanstack/react-table';
+import { z } from 'zod';
 import {
   IMPORT_FIELD_LABELS,
   IMPORT_FIELDS,
   IMPORT_LIMITS,
   IMPORT_MODE_LABELS,
   IMPORT_MODES,
+  importMappingSchema,
+  importOptionsSchema,
   type ImportAction,
-  type ImportField,
   type ImportMapping,
   type ImportMode,
   type ImportPreview,
@@ -16,6 +21,7 @@ import {
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
 import { Button } from '@/components/ui/button';
 import { Card, Notice } from '@/components/ui/card';
+import { DataTable } from '@/components/ui/data-table';
 import { SelectField } from '@/components/ui/field';
 import { MarkIcon, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
 import { usePreviewImport } from '../api/preview-import';
@@ -42,15 +48,29 @@ const ACTION_LOOK: Record<ImportAction, [MarkShape, MarkTone, string]> = {
   error: ['triangle', 'fail', 'Not imported'],
 };
 
+// The options sent beside the file, as the form holds them: the mapping already parsed.
+const importFormSchema = z.object({ mode: importOptionsSchema.shape.mode.unwrap(), mapping: importMappingSchema });
+type ImportForm = z.input<typeof importFormSchema>;
+const columnOf = (v: unknown) => (v === '' || v === null || v === undefined ? null : Number(v));
+/** Every field named, so a select the answer leaves out shows "not imported". */
+const fullMapping = (m: ImportMapping): ImportMapping => Object.fromEntries(IMPORT_FIELDS.map((f) => [f, m[f] ?? null]));
+
 /** Upload a spreadsheet → check the column mapping and each row → import the good rows → the report. */
 export function ImportWizard({ itemHref }: { itemHref: (id: string) => string }) {
   const [file, setFile] = useState<File | null>(null);
-  const [mode, setMode] = useState<ImportMode>('create-and-update');
-  const [mapping, setMapping] = useState<ImportMapping | undefined>(undefined);
   const [onlyProblems, setOnlyProblems] = useState(false);
+  const form = useForm<ImportForm, unknown, z.output<typeof importFormSchema>>({
+    resolver: zodResolver(importFormSchema),
+    defaultValues: { mode: 'create-and-update', mapping: {} },
+  });
   const preview = usePreviewImport();
   const run = useRunImport();
   const data = preview.data;
+
+  // The mapping the server read the file with is the one shown (its suggestion, or the one sent).
+  useEffect(() => {
+    if (data) form.setValue('mapping', fullMapping(data.mapping));
+  }, [data, form]);
 
   const check = (f: File, m: ImportMapping | undefined, md: ImportMode) => {
     run.reset();
@@ -60,19 +80,14 @@ export function ImportWizard({ itemHref }: { itemHref: (id: string) => string })
   const choose = (f: File | undefined) => {
     if (!f) return;
     setFile(f);
-    setMapping(undefined);
-    check(f, undefined, mode);
+    check(f, undefined, form.getValues('mode'));
   };
 
-  const setColumn = (field: ImportField, value: string) => {
-    const next: ImportMapping = { ...(mapping ?? data?.mapping ?? {}) };
-    if (value === '') next[field] = null;
-    else next[field] = Number(value);
-    setMapping(next);
-    if (file) check(file, next, mode);
+  // A changed column or mode reads the file again with it; nothing is written.
+  const recheck = () => {
+    const { mode, mapping } = form.getValues();
+    if (file) check(file, data ? mapping : undefined, mode);
   };
-
-  const current = mapping ?? data?.mapping ?? {};
   const report = run.data;
 
   return (
@@ -94,16 +109,7 @@ export function ImportWizard({ itemHref }: { itemHref: (id: string) => string })
               data-testid="import-file"
             />
           </label>
-          <SelectField
-            label="What to do with tags already in the register"
-            name="mode"
-            value={mode}
-            onChange={(e) => {
-              const md = e.target.value as ImportMode;
-              setMode(md);
-              if (file) check(file, mapping, md);
-            }}
-          >
+          <SelectField label="What to do with tags already in the register" {...form.register('mode', { onChange: recheck })}>
             {IMPORT_MODES.map((m) => (
               <option key={m} value={m}>
                 {IMPORT_MODE_LABELS[m]}
@@ -132,9 +138,8 @@ export function ImportWizard({ itemHref }: { itemHref: (id: string) => string })
                 <SelectField
                   key={field}
                   label={IMPORT_FIELD_LABELS[field]}
-                  name={`map-${field}`}
-                  value={current[field] == null ? '' : String(current[field])}
-                  onChange={(e) => setColumn(field, e.target.value)}
+                  id={`f-map-${field}`}
+                  {...form.register(`mapping.${field}`, { setValueAs: columnOf, onChange: recheck })}
                 >
                   <option value="">— not imported —</option>
                   {data.columns.map((c) => (
@@ -158,25 +163,7 @@ export function ImportWizard({ itemHref }: { itemHref: (id: string) => string })
               </label>
             </div>
             <div className="max-h-[32rem] overflow-auto">
-              <table className="w-full text-left text-sm" data-testid="import-preview">
-                <thead className="sticky top-0 border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
-                  <tr>
-                    <th className="px-3 py-2">Row</th>
-                    <th className="px-3 py-2">Result</th>
-                    <th className="px-3 py-2">Asset tag</th>
-                    <th className="px-3 py-2">Kind</th>
-                    <th className="px-3 py-2">Length</th>
-                    <th className="px-3 py-2">What happens</th>
-                  </tr>
-                </thead>
-                <tbody>
-                  {data.rows
-                    .filter((r) => !onlyProblems || r.action === 'error')
-                    .map((r) => (
-                      <PreviewRow key={r.row} r={r} />
-                    ))}
-                </tbody>
-              </table>
+              <PreviewTable rows={data.rows} onlyProblems={onlyProblems} />
             </div>
           </Card>
 
@@ -187,7 +174,7 @@ export function ImportWizard({ itemHref }: { itemHref: (id: string) => string })
               listed in the report.
             </p>
             <Button
-              onClick={() => file && run.mutate({ file, mapping: current, mode })}
+              onClick={form.handleSubmit((v) => file && run.mutate({ file, mapping: v.mapping, mode: v.mode }))}
               disabled={!file || run.isPending || data.summary.create + data.summary.update === 0 || run.isSuccess}
             >
               {run.isPending ? 'Importing…' : `Import ${data.summary.create} new and ${data.summary.update} updated`}
@@ -223,43 +210,92 @@ function Summary({ summary }: { summary: ImportPreview['summary'] }) {
   );
 }
 
-function PreviewRow({ r }: { r: ImportRowResult }) {
-  const [shape, tone, label] = ACTION_LOOK[r.action];
-  const bad = r.action === 'error';
-  return (
-    <tr className={`border-b border-line align-top last:border-0 ${bad ? 'bg-fail-soft' : ''}`} data-row={r.row} data-action={r.action}>
-      <td className="px-3 py-2 tabular-nums text-ink-soft">{r.row}</td>
-      <td className="px-3 py-2">
+const col = createColumnHelper<ImportRowResult>();
+const previewColumns = [
+  col.accessor('row', { header: 'Row', meta: { cellClassName: 'tabular-nums text-ink-soft' } }),
+  col.accessor('action', {
+    header: 'Result',
+    // "Only rows that will not be imported".
+    filterFn: (row, id, onlyProblems) => !onlyProblems || row.getValue(id) === 'error',
+    cell: (c) => {
+      const [shape, tone, label] = ACTION_LOOK[c.getValue()];
+      return (
         <span className="flex items-center gap-1 whitespace-nowrap font-medium">
           <MarkIcon shape={shape} tone={tone} /> {label}
         </span>
-      </td>
-      <td className="px-3 py-2 font-mono">{r.assetTag ?? '—'}</td>
-      <td className="px-3 py-2">{r.values.kind ? (EQUIPMENT_KIND_LABELS[r.values.kind as keyof typeof EQUIPMENT_KIND_LABELS] ?? r.values.kind) : '—'}</td>
-      <td className="whitespace-nowrap px-3 py-2 tabular-nums">{r.values.lengthM != null ? `${r.values.lengthM} m` : '—'}</td>
-      <td className="px-3 py-2">
-        {bad ? (
-          <ul className="list-disc pl-4 text-fail">
-            {r.errors.map((e, i) => (
-              <li key={i}>
-                <span className="font-medium">{e.field === 'row' ? 'Row' : IMPORT_FIELD_LABELS[e.field]}:</span> {e.message}
-              </li>
-            ))}
-          </ul>
-        ) : r.action === 'update' && r.changes ? (
-          <ul className="text-ink-soft">
-            {Object.entries(r.changes).map(([k, c]) => (
-              <li key={k}>
-                {CHANGE_LABELS[k] ?? k}: {show(c.from)} → <span className="font-medium text-ink">{show(c.to)}</span>
-              </li>
-            ))}
-          </ul>
-        ) : (
-          <span className="text-ink-soft">{r.message}</span>
-        )}
-      </td>
-    </tr>
+      );
+    },
+  }),
+  col.accessor('assetTag', { header: 'Asset tag', cell: (c) => c.getValue() ?? '—', meta: { cellClassName: 'font-mono' } }),
+  col.accessor((r) => r.values.kind, {
+    id: 'kind',
+    header: 'Kind',
+    cell: (c) => {
+      const kind = c.getValue();
+      return kind ? (EQUIPMENT_KIND_LABELS[kind as keyof typeof EQUIPMENT_KIND_LABELS] ?? kind) : '—';
+    },
+  }),
+  col.accessor((r) => r.values.lengthM, {
+    id: 'length',
+    header: 'Length',
+    cell: (c) => (c.getValue() != null ? `${c.getValue()} m` : '—'),
+    meta: { cellClassName: 'whitespace-nowrap tabular-nums' },
+  }),
+  col.display({ id: 'what', header: 'What happens', cell: (c) => <WhatHappens r={c.row.original} /> }),
+];
+const previewLook = {
+  table: 'w-full text-left text-sm',
+  head: 'sticky top-0 border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft',
+  th: 'px-3 py-2',
+  row: 'border-b border-line align-top last:border-0',
+  td: 'px-3 py-2',
+};
+
+function PreviewTable({ rows, onlyProblems }: { rows: ImportRowResult[]; onlyProblems: boolean }) {
+  // A new filter list on every render would make the table recompute and reset itself in a loop.
+  const columnFilters = useMemo(() => [{ id: 'action', value: onlyProblems }], [onlyProblems]);
+  const table = useReactTable({
+    data: rows,
+    columns: previewColumns,
+    state: { columnFilters },
+    getCoreRowModel: getCoreRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+    getRowId: (r) => String(r.row),
+  });
+  return (
+    <DataTable
+      table={table}
+      look={previewLook}
+      data-testid="import-preview"
+      rowProps={(row) => ({ className: row.original.action === 'error' ? 'bg-fail-soft' : undefined, 'data-row': row.original.row, 'data-action': row.original.action })}
+    />
   );
+}
+
+function WhatHappens({ r }: { r: ImportRowResult }) {
+  if (r.action === 'error') {
+    return (
+      <ul className="list-disc pl-4 text-fail">
+        {r.errors.map((e, i) => (
+          <li key={i}>
+            <span className="font-medium">{e.field === 'row' ? 'Row' : IMPORT_FIELD_LABELS[e.field]}:</span> {e.message}
+          </li>
+        ))}
+      </ul>
+    );
+  }
+  if (r.action === 'update' && r.changes) {
+    return (
+      <ul className="text-ink-soft">
+        {Object.entries(r.changes).map(([k, c]) => (
+          <li key={k}>
+            {CHANGE_LABELS[k] ?? k}: {show(c.from)} → <span className="font-medium text-ink">{show(c.to)}</span>
+          </li>
+        ))}
+      </ul>
+    );
+  }
+  return <span className="text-ink-soft">{r.message}</span>;
 }
 
 function ReportView({ report, itemHref }: { report: ImportReport; itemHref: (id: string) => string }) {

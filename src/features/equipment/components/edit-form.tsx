@@ -1,10 +1,13 @@
-import { useState } from 'react';
-import { EQUIPMENT_STATUS_LABELS, EQUIPMENT_STATUSES, type UpdateEquipmentInput } from '@shared/schemas/equipment';
+import { useMemo } from 'react';
+import { useForm } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import { EQUIPMENT_STATUS_LABELS, EQUIPMENT_STATUSES, updateEquipmentSchema, type UpdateEquipmentInput } from '@shared/schemas/equipment';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { ApiError } from '@/lib/api-client';
-import { fieldErrorOf } from '@/lib/form-errors';
+import { showServerErrors } from '@/lib/form-errors';
+import { decimalOrNull, keepTyped, textOrNull } from '@/lib/form-values';
 import type { EquipmentItem } from '../api/types';
 
 /**
@@ -20,64 +23,51 @@ export function EquipmentEditForm({
   onSave: (v: { version: number; patch: UpdateEquipmentInput }) => Promise<unknown>;
   onReload: () => void;
 }) {
-  const [draft, setDraft] = useState({
-    description: item.description,
-    lengthM: item.lengthM?.toString() ?? '',
-    cableType: item.cableType ?? '',
-    status: item.status,
-    notes: item.notes ?? '',
+  const values = useMemo(
+    () => ({ description: item.description, lengthM: item.lengthM, cableType: item.cableType, status: item.status, notes: item.notes }),
+    [item],
+  );
+  const form = useForm<UpdateEquipmentInput, unknown, z.output<typeof updateEquipmentSchema>>({
+    resolver: zodResolver(updateEquipmentSchema),
+    values,
+    resetOptions: keepTyped,
   });
-  const [error, setError] = useState<ApiError | Error | null>(null);
-  const [saved, setSaved] = useState(false);
-  const set = (k: keyof typeof draft) => (e: { target: { value: string } }) => setDraft({ ...draft, [k]: e.target.value });
-  const fieldError = (p: string) => fieldErrorOf(error, p);
+  const errors = form.formState.errors;
+  const root = errors.root;
 
   return (
     <form
       noValidate
       className="flex flex-col gap-3"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
-        setSaved(false);
+      onSubmit={form.handleSubmit(async (patch) => {
         try {
-          await onSave({
-            version: item.version,
-            patch: {
-              description: draft.description,
-              lengthM: draft.lengthM.trim() === '' ? null : Number(draft.lengthM.replace(',', '.')),
-              cableType: draft.cableType || null,
-              status: draft.status,
-              notes: draft.notes || null,
-            },
-          });
-          setSaved(true);
+          await onSave({ version: item.version, patch });
         } catch (err) {
-          setError(err as Error);
+          showServerErrors(form.setError, err, 'Could not save.');
         }
-      }}
+      })}
     >
-      <TextField label="Description" name="description" value={draft.description} onChange={set('description')} error={fieldError('description')} />
+      <TextField label="Description" {...form.register('description')} error={errors.description?.message} />
       <div className="grid grid-cols-2 gap-3">
-        <TextField label="Recorded length (m)" name="lengthM" inputMode="decimal" value={draft.lengthM} onChange={set('lengthM')} error={fieldError('lengthM')} />
-        <SelectField label="Status" name="status" value={draft.status} onChange={set('status')}>
+        <TextField label="Recorded length (m)" inputMode="decimal" {...form.register('lengthM', { setValueAs: decimalOrNull })} error={errors.lengthM?.message} />
+        <SelectField label="Status" {...form.register('status')}>
           {EQUIPMENT_STATUSES.map((s) => (
             <option key={s} value={s}>{EQUIPMENT_STATUS_LABELS[s]}</option>
           ))}
         </SelectField>
       </div>
-      <TextField label="Cable type" name="cableType" value={draft.cableType} onChange={set('cableType')} />
-      <TextField label="Notes" name="notes" value={draft.notes} onChange={set('notes')} />
-      {error instanceof ApiError && error.status === 412 ? (
+      <TextField label="Cable type" {...form.register('cableType', { setValueAs: textOrNull })} error={errors.cableType?.message} />
+      <TextField label="Notes" {...form.register('notes', { setValueAs: textOrNull })} error={errors.notes?.message} />
+      {root?.type === '412' ? (
         <Notice tone="caution">
           <p className="font-semibold">Changed meanwhile</p>
-          <p>{error.message}</p>
+          <p>{root.message}</p>
           <Button variant="secondary" className="mt-2" onClick={onReload}>Load the current version</Button>
         </Notice>
       ) : (
-        error && <Notice tone="error">{error.message}</Notice>
+        root && <Notice tone="error">{root.message}</Notice>
       )}
-      {saved && <Notice tone="success">Saved (version {item.version}).</Notice>}
+      {form.formState.isSubmitSuccessful && !root && <Notice tone="success">Saved (version {item.version}).</Notice>}
       <Button type="submit">Save changes</Button>
     </form>
   );

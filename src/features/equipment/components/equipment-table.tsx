@@ -1,6 +1,9 @@
+import { useMemo } from 'react';
 import { Link } from 'react-router';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import type { LengthSystem } from '@shared/domain/units';
 import { EQUIPMENT_KIND_LABELS, EQUIPMENT_STATUS_LABELS } from '@shared/schemas/equipment';
+import { DataTable, plainTableLook } from '@/components/ui/data-table';
 import { StatusMark } from '@/components/ui/status-mark';
 import type { EquipmentItem } from '../api/types';
 import { lengthText } from './labels';
@@ -11,34 +14,28 @@ export function EquipmentStatusMark({ status }: { status: EquipmentItem['status'
   return <StatusMark shape={shape} tone={tone} label={EQUIPMENT_STATUS_LABELS[status]} size="sm" />;
 }
 
+const col = createColumnHelper<EquipmentItem>();
+const look = { ...plainTableLook, td: 'px-4 py-1' };
+
 export function EquipmentTable({ items, itemHref, system }: { items: EquipmentItem[]; itemHref: (id: string) => string; system: LengthSystem }) {
-  if (items.length === 0) return <p className="p-5 text-ink-soft">No items match these filters.</p>;
-  return (
-    <table className="w-full text-left text-sm">
-      <thead className="border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
-        <tr>
-          <th className="px-4 py-3">Asset tag</th>
-          <th className="px-4 py-3">Kind</th>
-          <th className="px-4 py-3">Description</th>
-          <th className="px-4 py-3 text-right">Length</th>
-          <th className="px-4 py-3">Status</th>
-        </tr>
-      </thead>
-      <tbody>
-        {items.map((i) => (
-          <tr key={i.id} className="border-b border-line last:border-0">
-            <td className="px-4 py-1">
-              <Link to={itemHref(i.id)} className="inline-flex min-h-touch items-center font-mono font-semibold text-brand underline">
-                {i.assetTag}
-              </Link>
-            </td>
-            <td className="px-4 py-1">{EQUIPMENT_KIND_LABELS[i.kind]}</td>
-            <td className="px-4 py-1 text-ink-soft">{i.description || '—'}</td>
-            <td className="px-4 py-1 text-right tabular-nums">{lengthText(i.lengthM, system)}</td>
-            <td className="px-4 py-1"><EquipmentStatusMark status={i.status} /></td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
+  const columns = useMemo(
+    () => [
+      col.accessor('assetTag', {
+        header: 'Asset tag',
+        cell: (c) => (
+          <Link to={itemHref(c.row.original.id)} className="inline-flex min-h-touch items-center font-mono font-semibold text-brand underline">
+            {c.getValue()}
+          </Link>
+        ),
+      }),
+      col.accessor('kind', { header: 'Kind', cell: (c) => EQUIPMENT_KIND_LABELS[c.getValue()] }),
+      col.accessor('description', { header: 'Description', cell: (c) => c.getValue() || '—', meta: { cellClassName: 'text-ink-soft' } }),
+      col.accessor('lengthM', { header: 'Length', cell: (c) => lengthText(c.getValue(), system), meta: { className: 'text-right', cellClassName: 'tabular-nums' } }),
+      col.accessor('status', { header: 'Status', cell: (c) => <EquipmentStatusMark status={c.getValue()} /> }),
+    ],
+    [itemHref, system],
   );
+  const table = useReactTable({ data: items, columns, getCoreRowModel: getCoreRowModel(), getRowId: (i) => i.id });
+  if (items.length === 0) return <p className="p-5 text-ink-soft">No items match these filters.</p>;
+  return <DataTable table={table} look={look} />;
 }

@@ -57,6 +57,10 @@ export interface FaultDetail {
   openedAt: string;
   openedByName: string | null;
   closedAt: string | null;
+  /** Closed by the event's director as a typing mistake. */
+  dismissal: { at: string; by: string | null; byName: string | null; reason: string } | null;
+  /** The caller is the event's director and the fault can still be dismissed. */
+  canDismiss: boolean;
   lengthM: number | null;
   estimates: FaultEstimateDto[];
   combined: CombinedDto | null;

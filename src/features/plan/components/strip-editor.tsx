@@ -1,11 +1,26 @@
-import { useState } from 'react';
+import { useMemo, useState } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
 import { stepsForKind, TEST_KIND_LABELS } from '@shared/domain/checklist';
 import { EQUIPMENT_KINDS, TEST_KINDS, type EquipmentKind, type TestKind } from '@shared/domain/limits';
-import { addPositionSchema, CONDUCTORS_FOR_TEST, type AddPositionInput, type AddStepInput, type UpdateStripInput } from '@shared/schemas/plan';
+import {
+  addPositionSchema,
+  addStepSchema,
+  attachEquipmentSchema,
+  CONDUCTORS_FOR_TEST,
+  updateStripSchema,
+  withdrawStripSchema,
+  type AddPositionInput,
+  type AddStepInput,
+  type UpdateStripInput,
+} from '@shared/schemas/plan';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { StatusMark } from '@/components/ui/status-mark';
+import { bodyResolver } from '@/lib/form-resolver';
+import { keepTyped, typedUpperCase } from '@/lib/form-values';
 import type { PlanPosition, PlanStrip } from '../api/types';
 
 export interface StripEditorActions {
@@ -19,29 +34,40 @@ export interface StripEditorActions {
   removePosition: (positionId: string) => Promise<boolean>;
 }
 
+type StripForm = { label: string; zone: string; conductivePiste: boolean };
+
 function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: boolean; actions: StripEditorActions }) {
-  // Only what the person typed is held here; untouched fields follow the plan as it reloads.
-  const [draft, setDraft] = useState<{ label?: string; zone?: string; conductive?: boolean }>({});
-  const label = draft.label ?? strip.label;
-  const zone = draft.zone ?? strip.zone ?? '';
-  const conductive = draft.conductive ?? strip.conductivePiste;
+  // The form shows the strip as loaded; only what the person typed is kept when the plan reloads.
+  const values = useMemo(
+    () => ({ label: strip.label, zone: strip.zone ?? '', conductivePiste: strip.conductivePiste }),
+    [strip.label, strip.zone, strip.conductivePiste],
+  );
+  const form = useForm<StripForm, unknown, z.output<typeof updateStripSchema>>({
+    resolver: bodyResolver(updateStripSchema, (v: StripForm) => v),
+    values,
+    resetOptions: keepTyped,
+  });
+  const [label, zone, conductive] = useWatch({ control: form.control, name: ['label', 'zone', 'conductivePiste'] });
   const changed = label !== strip.label || zone !== (strip.zone ?? '') || conductive !== strip.conductivePiste;
+  const errors = form.formState.errors;
   return (
     <form
+      noValidate
       className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto_auto]"
-      onSubmit={async (e) => {
-        e.preventDefault();
+      onSubmit={form.handleSubmit(async (v) => {
         const patch: UpdateStripInput = {};
-        if (label !== strip.label) patch.label = label;
-        if (zone !== (strip.zone ?? '')) patch.zone = zone || null;
-        if (conductive !== strip.conductivePiste) patch.conductivePiste = conductive;
-        if (await actions.updateStrip(patch)) setDraft({});
-      }}
+        if (v.label !== undefined && v.label !== strip.label) patch.label = v.label;
+        if ((v.zone ?? '') !== (strip.zone ?? '')) patch.zone = v.zone || null;
+        if (v.conductivePiste !== undefined && v.conductivePiste !== strip.conductivePiste) patch.conductivePiste = v.conductivePiste;
+        if (await actions.updateStrip(patch)) {
+          form.reset({ label: patch.label ?? strip.label, zone: patch.zone === undefined ? (strip.zone ?? '') : (patch.zone ?? ''), conductivePiste: patch.conductivePiste ?? strip.conductivePiste });
+        }
+      })}
     >
-      <TextField label="Label" name="stripLabel" value={label} disabled={readOnly} onChange={(e) => setDraft({ ...draft, label: e.target.value })} />
-      <TextField label="Row or zone" name="stripZone" value={zone} disabled={readOnly} onChange={(e) => setDraft({ ...draft, zone: e.target.value })} />
+      <TextField label="Label" id="f-stripLabel" disabled={readOnly} {...form.register('label')} error={errors.label?.message} />
+      <TextField label="Row or zone" id="f-stripZone" disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
       <label className="flex min-h-touch items-center gap-2 text-sm">
-        <input type="checkbox" className="size-5 accent-brand" checked={conductive} disabled={readOnly} onChange={(e) => setDraft({ ...draft, conductive: e.target.checked })} />
+        <input type="checkbox" className="size-5 accent-brand" disabled={readOnly} {...form.register('conductivePiste')} />
         Conductive piste
       </label>
       {!readOnly && (
@@ -54,7 +80,11 @@ function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly
 }
 
 function Withdrawal({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: boolean; actions: StripEditorActions }) {
-  const [reason, setReason] = useState('');
+  const form = useForm<z.input<typeof withdrawStripSchema>, unknown, z.output<typeof withdrawStripSchema>>({
+    resolver: zodResolver(withdrawStripSchema),
+    defaultValues: { reason: '' },
+  });
+  const reason = useWatch({ control: form.control, name: 'reason' });
   if (strip.withdrawnAt) {
     return (
       <div className="flex flex-wrap items-center gap-3 rounded-lg border border-line bg-idle-soft px-4 py-2">
@@ -72,20 +102,20 @@ function Withdrawal({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: 
   return (
     <form
       className="flex flex-wrap items-end gap-3"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        if (await actions.withdraw(reason)) setReason('');
-      }}
+      noValidate
+      onSubmit={form.handleSubmit(async (v) => {
+        if (await actions.withdraw(v.reason)) form.reset();
+      })}
     >
       <TextField
         className="flex-1"
         label="Withdraw this strip (reason)"
-        name="withdrawReason"
+        id="f-withdrawReason"
         placeholder="e.g. not used this event"
-        value={reason}
-        onChange={(e) => setReason(e.target.value)}
+        {...form.register('reason')}
+        error={form.formState.errors.reason?.message}
       />
-      <Button type="submit" variant="secondary" disabled={reason.trim().length < 3}>
+      <Button type="submit" variant="secondary" disabled={!withdrawStripSchema.safeParse({ reason }).success}>
         Withdraw
       </Button>
       <p className="w-full text-xs text-ink-soft">A withdrawn strip is listed as an exception at sign-off.</p>
@@ -95,32 +125,33 @@ function Withdrawal({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: 
 
 function AddStep({ position, onAdd }: { position: PlanPosition; onAdd: StripEditorActions['addStep'] }) {
   const kinds: TestKind[] = position.equipmentKind === 'piste' ? ['piste-end-to-end', 'piste-earth'] : TEST_KINDS.filter((k) => !k.startsWith('piste'));
-  const [testKind, setTestKind] = useState<TestKind>(kinds[0]);
-  const [conductors, setConductors] = useState(CONDUCTORS_FOR_TEST[kinds[0]][0]);
+  const form = useForm<AddStepInput, unknown, z.output<typeof addStepSchema>>({
+    resolver: zodResolver(addStepSchema),
+    defaultValues: { testKind: kinds[0], conductors: CONDUCTORS_FOR_TEST[kinds[0]][0] },
+  });
+  const testKind = useWatch({ control: form.control, name: 'testKind' });
   return (
     <form
+      noValidate
       className="flex flex-wrap items-end gap-2"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        await onAdd(position.id, { testKind, conductors });
-      }}
+      onSubmit={form.handleSubmit(async (step) => {
+        await onAdd(position.id, step);
+      })}
     >
       <SelectField
         label="Add a step"
-        name={`testKind-${position.id}`}
         id={`testKind-${position.id}`}
-        value={testKind}
-        onChange={(e) => {
-          const k = e.target.value as TestKind;
-          setTestKind(k);
-          setConductors(CONDUCTORS_FOR_TEST[k][0]);
-        }}
+        {...form.register('testKind', {
+          // The lines a step names depend on its test: start from the first that fits.
+          onChange: (e) => form.setValue('conductors', CONDUCTORS_FOR_TEST[e.target.value as TestKind][0]),
+        })}
+        error={form.formState.errors.testKind?.message}
       >
         {kinds.map((k) => (
           <option key={k} value={k}>{TEST_KIND_LABELS[k]}</option>
         ))}
       </SelectField>
-      <SelectField label="Lines" name={`conductors-${position.id}`} id={`conductors-${position.id}`} value={conductors} onChange={(e) => setConductors(e.target.value)}>
+      <SelectField label="Lines" id={`conductors-${position.id}`} {...form.register('conductors')} error={form.formState.errors.conductors?.message}>
         {CONDUCTORS_FOR_TEST[testKind].map((c) => (
           <option key={c} value={c}>{c}</option>
         ))}
@@ -132,65 +163,57 @@ function AddStep({ position, onAdd }: { position: PlanPosition; onAdd: StripEdit
 
 /** One more position on this strip; it gets the test steps of its kind, and the item when a tag is given. */
 function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopRequired: readonly EquipmentKind[]; onAdd: StripEditorActions['addPosition'] }) {
-  const empty = { name: '', equipmentKind: EQUIPMENT_KINDS[0] as EquipmentKind, assetTag: '' };
-  const [draft, setDraft] = useState(empty);
-  const [errors, setErrors] = useState<Record<string, string>>({});
-  const planned = stepsForKind(draft.equipmentKind, { loopRequired: [...loopRequired] });
+  type PositionForm = { name: string; equipmentKind: EquipmentKind; assetTag: string };
+  const toBody = (v: PositionForm) => ({ name: v.name, equipmentKind: v.equipmentKind, ...(v.assetTag.trim() ? { assetTag: v.assetTag } : {}) });
+  const check = bodyResolver(addPositionSchema, toBody);
+  const form = useForm<PositionForm, unknown, z.output<typeof addPositionSchema>>({
+    // The shared schema, then one rule only the plan knows: a name is used once per strip.
+    resolver: async (values, context, options) => {
+      const result = await check(values, context, options);
+      const taken = strip.positions.find((p) => p.name.trim().toLowerCase() === values.name.trim().toLowerCase());
+      if (!taken || result.errors.name) return result;
+      return { values: {}, errors: { ...result.errors, name: { type: 'taken', message: `${taken.name} is already on ${strip.label}.` } } };
+    },
+    // A field's complaint goes as soon as the person edits that field (see `clear` below).
+    reValidateMode: 'onSubmit',
+    defaultValues: { name: '', equipmentKind: EQUIPMENT_KINDS[0], assetTag: '' },
+  });
+  const kind = useWatch({ control: form.control, name: 'equipmentKind' });
+  const planned = stepsForKind(kind, { loopRequired: [...loopRequired] });
   const fieldId = (f: string) => `new-position-${f}-${strip.id}`;
-  // A field's complaint goes as soon as the person edits that field.
-  const edit = (patch: Partial<typeof draft>) => {
-    setDraft({ ...draft, ...patch });
-    setErrors(Object.fromEntries(Object.entries(errors).filter(([k]) => !(k in patch))));
-  };
+  const clear = (name: keyof PositionForm) => ({ onChange: () => form.clearErrors(name) });
+  const errors = form.formState.errors;
   return (
     <form
+      noValidate
       className="flex flex-col gap-3"
       aria-label={`Add a position to ${strip.label}`}
-      onSubmit={async (e) => {
-        e.preventDefault();
-        const body = { name: draft.name, equipmentKind: draft.equipmentKind, ...(draft.assetTag.trim() ? { assetTag: draft.assetTag } : {}) };
-        const checked = addPositionSchema.safeParse(body);
-        const taken = strip.positions.find((p) => p.name.trim().toLowerCase() === draft.name.trim().toLowerCase());
-        const found: Record<string, string> = {};
-        if (!checked.success) for (const issue of checked.error.issues) found[String(issue.path[0])] ??= issue.message;
-        if (taken && !found.name) found.name = `${taken.name} is already on ${strip.label}.`;
-        setErrors(found);
-        if (Object.keys(found).length > 0) return;
+      onSubmit={form.handleSubmit(async (position) => {
         // What was typed stays in the form when the save is refused (a 412 among others).
-        if (await onAdd(body)) setDraft(empty);
-      }}
+        if (await onAdd(position)) form.reset();
+      })}
     >
       <div className="grid items-start gap-3 sm:grid-cols-[1fr_12rem_10rem]">
         <TextField
           label="Name"
-          name={fieldId('name')}
           id={fieldId('name')}
           placeholder="e.g. Spare reel"
           autoComplete="off"
-          value={draft.name}
-          error={errors.name}
-          onChange={(e) => edit({ name: e.target.value })}
+          {...form.register('name', clear('name'))}
+          error={errors.name?.message}
         />
-        <SelectField
-          label="Takes a"
-          name={fieldId('kind')}
-          id={fieldId('kind')}
-          value={draft.equipmentKind}
-          onChange={(e) => edit({ equipmentKind: e.target.value as EquipmentKind })}
-        >
+        <SelectField label="Takes a" id={fieldId('kind')} {...form.register('equipmentKind', clear('equipmentKind'))}>
           {EQUIPMENT_KINDS.map((k) => (
             <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>
           ))}
         </SelectField>
         <TextField
           label="Asset tag (optional)"
-          name={fieldId('tag')}
           id={fieldId('tag')}
           placeholder="none"
           autoComplete="off"
-          value={draft.assetTag}
-          error={errors.assetTag}
-          onChange={(e) => edit({ assetTag: e.target.value.toUpperCase() })}
+          {...typedUpperCase(form.register('assetTag', clear('assetTag')))}
+          error={errors.assetTag?.message}
         />
       </div>
       <p className="text-xs text-ink-soft">
@@ -234,8 +257,13 @@ function RemovePosition({ position, onRemove }: { position: PlanPosition; onRemo
 }
 
 function PositionCard({ position, readOnly, actions }: { position: PlanPosition; readOnly: boolean; actions: StripEditorActions }) {
-  const [typed, setTag] = useState<string | null>(null);
-  const tag = typed ?? position.equipment?.assetTag ?? '';
+  const attached = position.equipment?.assetTag ?? '';
+  const form = useForm<{ assetTag: string }, unknown, z.output<typeof attachEquipmentSchema>>({
+    resolver: bodyResolver(attachEquipmentSchema, (v: { assetTag: string }) => ({ assetTag: v.assetTag.trim() === '' ? null : v.assetTag.trim() })),
+    values: useMemo(() => ({ assetTag: attached }), [attached]),
+    resetOptions: keepTyped,
+  });
+  const tag = useWatch({ control: form.control, name: 'assetTag' }) ?? '';
   const active = position.steps.filter((s) => !s.removedAt);
   const dropped = position.steps.length - active.length;
   return (
@@ -246,22 +274,21 @@ function PositionCard({ position, readOnly, actions }: { position: PlanPosition;
           <p className="text-xs text-ink-soft">Takes a {EQUIPMENT_KIND_LABELS[position.equipmentKind].toLowerCase()}</p>
         </div>
         <form
+          noValidate
           className="flex items-end gap-2"
-          onSubmit={async (e) => {
-            e.preventDefault();
-            if (await actions.attach(position.id, tag.trim() === '' ? null : tag.trim())) setTag(null);
-          }}
+          onSubmit={form.handleSubmit(async ({ assetTag }) => {
+            if (await actions.attach(position.id, assetTag)) form.reset({ assetTag: assetTag ?? '' });
+          })}
         >
           <TextField
             label="Asset tag"
-            name={`tag-${position.id}`}
             id={`tag-${position.id}`}
             className="w-36"
             autoComplete="off"
             placeholder="none"
-            value={tag}
             disabled={readOnly}
-            onChange={(e) => setTag(e.target.value.toUpperCase())}
+            {...typedUpperCase(form.register('assetTag'))}
+            error={form.formState.errors.assetTag?.message}
           />
           {!readOnly && (
             <Button type="submit" variant="secondary" disabled={tag.trim() === (position.equipment?.assetTag ?? '')}>

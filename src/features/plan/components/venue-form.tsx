@@ -1,9 +1,13 @@
-import { useState } from 'react';
-import type { CreateVenueInput } from '@shared/schemas/plan';
+import { useMemo } from 'react';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
+import { createVenueSchema, type CreateVenueInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { fieldErrorOf } from '@/lib/form-errors';
+import { showServerErrors } from '@/lib/form-errors';
+import { keepTyped, textOrNull } from '@/lib/form-values';
 import type { ProfileChoice } from './venue-details-form';
 
 /** A new venue of the event, empty or cloned from an earlier venue (strips, positions, items, steps; no readings). */
@@ -16,38 +20,38 @@ export function VenueForm({
   cloneSources: { id: string; name: string; eventName: string }[];
   onCreate: (v: CreateVenueInput) => Promise<unknown>;
 }) {
-  const [name, setName] = useState('');
-  const [profileId, setProfileId] = useState('');
-  const [cloneFrom, setCloneFrom] = useState('');
-  const [copyTechnicians, setCopyTechnicians] = useState(false);
-  const [error, setError] = useState<unknown>(null);
-  const chosenProfile = profileId || profiles[0]?.versions[0]?.id || '';
-  const fieldError = (p: string) => fieldErrorOf(error, p);
+  // The first profile is chosen until the person picks one (the list arrives after the form).
+  const firstProfile = profiles[0]?.versions[0]?.id ?? '';
+  const values = useMemo(() => ({ name: '', profileId: firstProfile, cloneFromVenueId: null, copyTechnicians: false }), [firstProfile]);
+  const form = useForm<CreateVenueInput, unknown, z.output<typeof createVenueSchema>>({
+    resolver: zodResolver(createVenueSchema),
+    values,
+    resetOptions: keepTyped,
+  });
+  const errors = form.formState.errors;
+  const cloneFrom = useWatch({ control: form.control, name: 'cloneFromVenueId' });
   return (
     <form
       noValidate
       className="flex flex-col gap-3"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
+      onSubmit={form.handleSubmit(async (v) => {
         try {
-          await onCreate({ name, profileId: chosenProfile, cloneFromVenueId: cloneFrom || null, copyTechnicians: !!cloneFrom && copyTechnicians });
-          setName('');
-          setCloneFrom('');
+          await onCreate({ ...v, copyTechnicians: !!v.cloneFromVenueId && !!v.copyTechnicians });
+          form.reset(values);
         } catch (err) {
-          setError(err);
+          showServerErrors(form.setError, err, 'Could not add the venue.');
         }
-      }}
+      })}
     >
-      <TextField label="Venue name" name="newVenueName" value={name} onChange={(e) => setName(e.target.value)} error={fieldError('name')} />
-      <SelectField label="Limit profile" name="newVenueProfile" value={chosenProfile} onChange={(e) => setProfileId(e.target.value)} error={fieldError('profileId')}>
+      <TextField label="Venue name" id="f-newVenueName" {...form.register('name')} error={errors.name?.message} />
+      <SelectField label="Limit profile" id="f-newVenueProfile" {...form.register('profileId')} error={errors.profileId?.message}>
         {profiles.map((p) => (
           <option key={p.versions[0].id} value={p.versions[0].id}>
             {p.name} — version {p.versions[0].version}
           </option>
         ))}
       </SelectField>
-      <SelectField label="Start from" name="cloneFrom" value={cloneFrom} onChange={(e) => setCloneFrom(e.target.value)}>
+      <SelectField label="Start from" id="f-cloneFrom" {...form.register('cloneFromVenueId', { setValueAs: textOrNull })}>
         <option value="">An empty plan</option>
         {cloneSources.map((v) => (
           <option key={v.id} value={v.id}>
@@ -57,11 +61,11 @@ export function VenueForm({
       </SelectField>
       {cloneFrom && (
         <label className="flex min-h-touch items-center gap-3">
-          <input type="checkbox" className="size-5 accent-brand" checked={copyTechnicians} onChange={(e) => setCopyTechnicians(e.target.checked)} />
+          <input type="checkbox" className="size-5 accent-brand" {...form.register('copyTechnicians')} />
           Assign the same technicians
         </label>
       )}
-      {error instanceof Error && <Notice tone="error">{error.message}</Notice>}
+      {errors.root?.message && <Notice tone="error">{errors.root.message}</Notice>}
       <Button type="submit">Add venue</Button>
     </form>
   );

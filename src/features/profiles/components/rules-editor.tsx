@@ -1,11 +1,15 @@
-import { useState } from 'react';
+import { useMemo } from 'react';
+import { FormProvider, get, useFieldArray, useForm, useFormContext, useFormState, useWatch } from 'react-hook-form';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import { EQUIPMENT_KINDS, HOUSE_RULE_SOURCE, TEST_KINDS, type EquipmentKind, type LimitRule, type TestKind } from '@shared/domain/limits';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
-import type { UpdateProfileInput } from '@shared/schemas/limit-profile';
+import { updateProfileSchema, type UpdateProfileInput } from '@shared/schemas/limit-profile';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
-import { ApiError } from '@/lib/api-client';
+import { DataTable } from '@/components/ui/data-table';
+import { messagesUnder, showServerErrors } from '@/lib/form-errors';
+import { bodyResolver } from '@/lib/form-resolver';
 
 type LimitKind = 'max' | 'per-metre' | 'min';
 interface Row {
@@ -52,6 +56,150 @@ function toRule(r: Row): LimitRule {
 
 const cell = 'min-h-touch w-full rounded-md border border-line bg-card px-2 text-sm aria-[invalid=true]:border-fail';
 
+interface RulesForm {
+  rules: Row[];
+  notes: string;
+}
+/** What a save sends; the shared schema checks it, so its messages sit at `rules.N.<rule field>`. */
+const toBody = (v: RulesForm): UpdateProfileInput => ({ rules: v.rules.map(toRule), ...(v.notes.trim() ? { notes: v.notes.trim() } : {}) });
+
+/** The form's errors under one rule, and whether one of the rule's fields was named. */
+function useRuleErrors(i: number) {
+  const { errors } = useFormState<RulesForm>();
+  const own = get(errors, `rules.${i}`);
+  return { messages: messagesUnder(own), invalid: (...fields: string[]) => fields.some((f) => get(own, f)) || undefined };
+}
+
+function EquipmentCell({ i }: { i: number }) {
+  const { register, getValues, setValue } = useFormContext<RulesForm>();
+  return (
+    <select
+      aria-label={`Equipment of rule ${i + 1}`}
+      className={cell}
+      {...register(`rules.${i}.equipmentKind`, { onChange: (e) => setValue(`rules.${i}.id`, `${e.target.value}.${getValues(`rules.${i}.testKind`)}`) })}
+    >
+      {EQUIPMENT_KINDS.map((k) => <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>)}
+    </select>
+  );
+}
+
+function TestCell({ i }: { i: number }) {
+  const { register, getValues, setValue } = useFormContext<RulesForm>();
+  const { invalid } = useRuleErrors(i);
+  return (
+    <select
+      aria-label={`Test of rule ${i + 1}`}
+      aria-invalid={invalid('testKind')}
+      className={cell}
+      {...register(`rules.${i}.testKind`, {
+        onChange: (e) => {
+          const testKind = e.target.value as TestKind;
+          const limitKind = getValues(`rules.${i}.limitKind`);
+          setValue(`rules.${i}.id`, `${getValues(`rules.${i}.equipmentKind`)}.${testKind}`);
+          // Insulation sets a minimum; every other test a maximum.
+          setValue(`rules.${i}.limitKind`, testKind === 'insulation' ? 'min' : limitKind === 'min' ? 'max' : limitKind);
+        },
+      })}
+    >
+      {TEST_KINDS.map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k]}</option>)}
+    </select>
+  );
+}
+
+function LimitKindCell({ i }: { i: number }) {
+  const { register } = useFormContext<RulesForm>();
+  return (
+    <select aria-label={`Limit kind of rule ${i + 1}`} className={cell} {...register(`rules.${i}.limitKind`)}>
+      <option value="max">Maximum</option>
+      <option value="per-metre">Maximum per metre</option>
+      <option value="min">Minimum</option>
+    </select>
+  );
+}
+
+function ValueCell({ i }: { i: number }) {
+  const { register, control } = useFormContext<RulesForm>();
+  const limitKind = useWatch({ control, name: `rules.${i}.limitKind` });
+  const { invalid } = useRuleErrors(i);
+  return (
+    <>
+      <input aria-label={`Value of rule ${i + 1}`} aria-invalid={invalid('maxOhm', 'minOhm', 'maxOhmPerMetre')} inputMode="decimal" className={cell} {...register(`rules.${i}.value`)} />
+      {limitKind === 'per-metre' && (
+        <input aria-label={`Connector allowance of rule ${i + 1}`} placeholder="+ connectors Ω" inputMode="decimal" className={`${cell} mt-1`} {...register(`rules.${i}.allowance`)} />
+      )}
+    </>
+  );
+}
+
+function NearCell({ i }: { i: number }) {
+  const { register, control } = useFormContext<RulesForm>();
+  const limitKind = useWatch({ control, name: `rules.${i}.limitKind` });
+  return (
+    <input
+      aria-label={`Near limit of rule ${i + 1}`}
+      placeholder={limitKind === 'min' ? 'Ω, e.g. 1000000' : 'fraction, e.g. 0.9'}
+      inputMode="decimal"
+      className={cell}
+      {...register(`rules.${i}.near`)}
+    />
+  );
+}
+
+function SourceCell({ i }: { i: number }) {
+  const { register } = useFormContext<RulesForm>();
+  const { messages, invalid } = useRuleErrors(i);
+  return (
+    <>
+      <input aria-label={`Source of rule ${i + 1}`} aria-invalid={invalid('source')} className={cell} {...register(`rules.${i}.source`)} />
+      {messages.map((m) => (
+        <p key={m} role="alert" className="mt-1 text-xs font-medium text-fail">{m}</p>
+      ))}
+    </>
+  );
+}
+
+function HouseRuleCell({ i }: { i: number }) {
+  const { register, getValues, setValue } = useFormContext<RulesForm>();
+  return (
+    <input
+      type="checkbox"
+      aria-label={`Rule ${i + 1} is a house rule`}
+      className="size-5 accent-brass"
+      {...register(`rules.${i}.houseRule`, {
+        onChange: (e) => {
+          if (e.target.checked && !getValues(`rules.${i}.source`)) setValue(`rules.${i}.source`, HOUSE_RULE_SOURCE);
+        },
+      })}
+    />
+  );
+}
+
+type RowField = Row & { key: string };
+const col = createColumnHelper<RowField>();
+const editorColumns = (remove: (index: number) => void) => [
+  col.display({ id: 'equipment', header: 'Equipment', cell: (c) => <EquipmentCell i={c.row.index} /> }),
+  col.display({ id: 'test', header: 'Test', cell: (c) => <TestCell i={c.row.index} /> }),
+  col.display({ id: 'limit', header: 'Limit', cell: (c) => <LimitKindCell i={c.row.index} /> }),
+  col.display({ id: 'value', header: 'Value (Ω)', cell: (c) => <ValueCell i={c.row.index} /> }),
+  col.display({ id: 'near', header: 'Near limit', cell: (c) => <NearCell i={c.row.index} /> }),
+  col.display({ id: 'source', header: 'Source', cell: (c) => <SourceCell i={c.row.index} /> }),
+  col.display({ id: 'house', header: 'House rule', cell: (c) => <HouseRuleCell i={c.row.index} />, meta: { cellClassName: 'text-center' } }),
+  col.display({
+    id: 'remove',
+    header: () => <span className="sr-only">Remove</span>,
+    cell: (c) => (
+      <Button variant="ghost" aria-label={`Remove rule ${c.row.index + 1}`} onClick={() => remove(c.row.index)}>×</Button>
+    ),
+  }),
+];
+const editorLook = {
+  table: 'w-full min-w-[60rem] text-left text-sm',
+  head: 'border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft',
+  th: 'px-2 py-2',
+  row: 'border-b border-line align-top',
+  td: 'px-2 py-2',
+};
+
 /**
  * Edit the rules; saving stores a new version. On a refusal (412: someone saved a version first;
  * 422: a rule does not make sense) the rows stay as typed.
@@ -69,118 +217,62 @@ export function RulesEditor({
   onCancel: () => void;
   onReloadLatest: () => void;
 }) {
-  const [rows, setRows] = useState<Row[]>(rules.map(toRow));
-  const [notes, setNotes] = useState('');
-  const [error, setError] = useState<unknown>(null);
-  const set = (i: number, patch: Partial<Row>) => setRows(rows.map((r, k) => (k === i ? { ...r, ...patch } : r)));
-  const errorsOf = (i: number) => (error instanceof ApiError ? error.errors.filter((e) => e.path.startsWith(`rules.${i}.`) || e.path === `rules.${i}`) : []);
-  const invalid = (i: number, field: string) => errorsOf(i).some((e) => e.path === `rules.${i}.${field}`) || undefined;
+  const form = useForm<RulesForm, unknown, UpdateProfileInput>({
+    resolver: bodyResolver(updateProfileSchema, toBody),
+    defaultValues: { rules: rules.map(toRow), notes: '' },
+  });
+  const { fields, append, remove } = useFieldArray({ control: form.control, name: 'rules', keyName: 'key' });
+  const columns = useMemo(() => editorColumns(remove), [remove]);
+  const table = useReactTable({ data: fields, columns, getCoreRowModel: getCoreRowModel(), getRowId: (f) => f.key });
+  const errors = form.formState.errors;
+  const root = errors.root;
+  // A complaint about the list as a whole (e.g. no rule left).
+  const listError = errors.rules?.root?.message ?? errors.rules?.message;
 
   return (
-    <form
-      className="flex flex-col gap-4"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
-        try {
-          await onSave({ rules: rows.map(toRule), ...(notes.trim() ? { notes: notes.trim() } : {}) });
-        } catch (err) {
-          setError(err);
-        }
-      }}
-    >
-      <div className="overflow-x-auto">
-        <table className="w-full min-w-[60rem] text-left text-sm">
-          <thead className="border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
-            <tr>
-              <th className="px-2 py-2">Equipment</th>
-              <th className="px-2 py-2">Test</th>
-              <th className="px-2 py-2">Limit</th>
-              <th className="px-2 py-2">Value (Ω)</th>
-              <th className="px-2 py-2">Near limit</th>
-              <th className="px-2 py-2">Source</th>
-              <th className="px-2 py-2">House rule</th>
-              <th className="px-2 py-2"><span className="sr-only">Remove</span></th>
-            </tr>
-          </thead>
-          <tbody>
-            {rows.map((r, i) => (
-              <tr key={i} className="border-b border-line align-top">
-                <td className="px-2 py-2">
-                  <select aria-label={`Equipment of rule ${i + 1}`} className={cell} value={r.equipmentKind} onChange={(e) => set(i, { equipmentKind: e.target.value as EquipmentKind, id: `${e.target.value}.${r.testKind}` })}>
-                    {EQUIPMENT_KINDS.map((k) => <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>)}
-                  </select>
-                </td>
-                <td className="px-2 py-2">
-                  <select aria-label={`Test of rule ${i + 1}`} aria-invalid={invalid(i, 'testKind')} className={cell} value={r.testKind} onChange={(e) => set(i, { testKind: e.target.value as TestKind, id: `${r.equipmentKind}.${e.target.value}`, limitKind: e.target.value === 'insulation' ? 'min' : r.limitKind === 'min' ? 'max' : r.limitKind })}>
-                    {TEST_KINDS.map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k]}</option>)}
-                  </select>
-                </td>
-                <td className="px-2 py-2">
-                  <select aria-label={`Limit kind of rule ${i + 1}`} className={cell} value={r.limitKind} onChange={(e) => set(i, { limitKind: e.target.value as LimitKind })}>
-                    <option value="max">Maximum</option>
-                    <option value="per-metre">Maximum per metre</option>
-                    <option value="min">Minimum</option>
-                  </select>
-                </td>
-                <td className="px-2 py-2">
-                  <input aria-label={`Value of rule ${i + 1}`} aria-invalid={invalid(i, 'maxOhm') ?? invalid(i, 'minOhm') ?? invalid(i, 'maxOhmPerMetre')} inputMode="decimal" className={cell} value={r.value} onChange={(e) => set(i, { value: e.target.value })} />
-                  {r.limitKind === 'per-metre' && (
-                    <input aria-label={`Connector allowance of rule ${i + 1}`} placeholder="+ connectors Ω" inputMode="decimal" className={`${cell} mt-1`} value={r.allowance} onChange={(e) => set(i, { allowance: e.target.value })} />
-                  )}
-                </td>
-                <td className="px-2 py-2">
-                  <input aria-label={`Near limit of rule ${i + 1}`} placeholder={r.limitKind === 'min' ? 'Ω, e.g. 1000000' : 'fraction, e.g. 0.9'} inputMode="decimal" className={cell} value={r.near} onChange={(e) => set(i, { near: e.target.value })} />
-                </td>
-                <td className="px-2 py-2">
-                  <input aria-label={`Source of rule ${i + 1}`} aria-invalid={invalid(i, 'source')} className={cell} value={r.source} onChange={(e) => set(i, { source: e.target.value })} />
-                  {errorsOf(i).map((e) => (
-                    <p key={e.path + e.message} role="alert" className="mt-1 text-xs font-medium text-fail">{e.message}</p>
-                  ))}
-                </td>
-                <td className="px-2 py-2 text-center">
-                  <input
-                    type="checkbox"
-                    aria-label={`Rule ${i + 1} is a house rule`}
-                    className="size-5 accent-brass"
-                    checked={r.houseRule}
-                    onChange={(e) => set(i, { houseRule: e.target.checked, source: e.target.checked && !r.source ? HOUSE_RULE_SOURCE : r.source })}
-                  />
-                </td>
-                <td className="px-2 py-2">
-                  <Button variant="ghost" aria-label={`Remove rule ${i + 1}`} onClick={() => setRows(rows.filter((_, k) => k !== i))}>×</Button>
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
-      <div className="flex flex-wrap gap-2">
-        <Button
-          variant="secondary"
-          onClick={() => setRows([...rows, { id: `other.continuity.${rows.length + 1}`, equipmentKind: 'other', testKind: 'continuity', limitKind: 'max', value: '', allowance: '', near: '0.9', source: HOUSE_RULE_SOURCE, houseRule: true, note: '' }])}
-        >
-          Add a rule
-        </Button>
-      </div>
-      <div className="flex flex-col gap-1">
-        <label htmlFor="f-version-notes" className="text-sm font-medium">What changed (kept with the new version)</label>
-        <input id="f-version-notes" className={cell} value={notes} onChange={(e) => setNotes(e.target.value)} />
-      </div>
-      {error instanceof ApiError && error.status === 412 ? (
-        <Notice tone="caution">
-          <p className="font-semibold">Changed meanwhile — not saved</p>
-          <p>{error.message}</p>
-          <p className="mt-1">Your rows are kept here. Open the latest version to compare, then apply your changes there.</p>
-          <Button variant="secondary" className="mt-2" onClick={onReloadLatest}>Open the latest version</Button>
-        </Notice>
-      ) : (
-        error instanceof Error && <Notice tone="error">{error.message}</Notice>
-      )}
-      <div className="flex gap-2">
-        <Button type="submit">Save as version {version + 1}</Button>
-        <Button variant="secondary" onClick={onCancel}>Cancel</Button>
-      </div>
-    </form>
+    <FormProvider {...form}>
+      <form
+        noValidate
+        className="flex flex-col gap-4"
+        onSubmit={form.handleSubmit(async (body) => {
+          try {
+            await onSave(body);
+          } catch (err) {
+            showServerErrors(form.setError, err, 'The new version was not saved.');
+          }
+        })}
+      >
+        <div className="overflow-x-auto">
+          <DataTable table={table} look={editorLook} />
+        </div>
+        <div className="flex flex-wrap gap-2">
+          <Button
+            variant="secondary"
+            onClick={() => append({ id: `other.continuity.${fields.length + 1}`, equipmentKind: 'other', testKind: 'continuity', limitKind: 'max', value: '', allowance: '', near: '0.9', source: HOUSE_RULE_SOURCE, houseRule: true, note: '' })}
+          >
+            Add a rule
+          </Button>
+        </div>
+        <div className="flex flex-col gap-1">
+          <label htmlFor="f-version-notes" className="text-sm font-medium">What changed (kept with the new version)</label>
+          <input id="f-version-notes" className={cell} {...form.register('notes')} />
+        </div>
+        {listError && <Notice tone="error">{listError}</Notice>}
+        {root?.type === '412' ? (
+          <Notice tone="caution">
+            <p className="font-semibold">Changed meanwhile — not saved</p>
+            <p>{root.message}</p>
+            <p className="mt-1">Your rows are kept here. Open the latest version to compare, then apply your changes there.</p>
+            <Button variant="secondary" className="mt-2" onClick={onReloadLatest}>Open the latest version</Button>
+          </Notice>
+        ) : (
+          root && <Notice tone="error">{root.message}</Notice>
+        )}
+        <div className="flex gap-2">
+          <Button type="submit">Save as version {version + 1}</Button>
+          <Button variant="secondary" onClick={onCancel}>Cancel</Button>
+        </div>
+      </form>
+    </FormProvider>
   );
 }

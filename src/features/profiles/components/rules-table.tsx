@@ -2,6 +2,8 @@ import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import type { LimitRule } from '@shared/domain/limits';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
 import { formatOhm } from '@shared/domain/units';
+import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
+import { DataTable, plainTableLook } from '@/components/ui/data-table';
 import { StatusMark } from '@/components/ui/status-mark';
 
 export function limitText(r: LimitRule) {
@@ -20,36 +22,27 @@ export function HouseRuleMark({ house }: { house: boolean }) {
   return house ? <StatusMark shape="diamond" tone="brass" label="House rule" size="sm" /> : <StatusMark shape="square" tone="brand" label="Published" size="sm" />;
 }
 
+const col = createColumnHelper<LimitRule>();
+const columns = [
+  col.accessor('equipmentKind', { header: 'Equipment', cell: (c) => EQUIPMENT_KIND_LABELS[c.getValue()] }),
+  col.accessor('testKind', { header: 'Test', cell: (c) => TEST_KIND_LABELS[c.getValue()] }),
+  col.display({ id: 'limit', header: 'Limit', cell: (c) => limitText(c.row.original), meta: { cellClassName: 'font-semibold tabular-nums' } }),
+  col.display({ id: 'near', header: 'Near limit', cell: (c) => nearText(c.row.original), meta: { cellClassName: 'tabular-nums' } }),
+  col.accessor('source', {
+    header: 'Source',
+    cell: (c) => (
+      <div className="flex flex-col items-start gap-1">
+        <HouseRuleMark house={c.row.original.houseRule} />
+        <span>{c.getValue()}</span>
+        {c.row.original.note && <span className="text-xs text-ink-soft">{c.row.original.note}</span>}
+      </div>
+    ),
+  }),
+];
+const look = { ...plainTableLook, row: 'border-b border-line align-top last:border-0', td: 'px-4 py-3' };
+
 /** The rules of one profile version, read only, with their sources. */
 export function RulesTable({ rules }: { rules: LimitRule[] }) {
-  return (
-    <table className="w-full text-left text-sm">
-      <thead className="border-b border-line bg-paper text-xs uppercase tracking-wide text-ink-soft">
-        <tr>
-          <th className="px-4 py-3">Equipment</th>
-          <th className="px-4 py-3">Test</th>
-          <th className="px-4 py-3">Limit</th>
-          <th className="px-4 py-3">Near limit</th>
-          <th className="px-4 py-3">Source</th>
-        </tr>
-      </thead>
-      <tbody>
-        {rules.map((r) => (
-          <tr key={r.id} className="border-b border-line align-top last:border-0">
-            <td className="px-4 py-3">{EQUIPMENT_KIND_LABELS[r.equipmentKind]}</td>
-            <td className="px-4 py-3">{TEST_KIND_LABELS[r.testKind]}</td>
-            <td className="px-4 py-3 font-semibold tabular-nums">{limitText(r)}</td>
-            <td className="px-4 py-3 tabular-nums">{nearText(r)}</td>
-            <td className="px-4 py-3">
-              <div className="flex flex-col items-start gap-1">
-                <HouseRuleMark house={r.houseRule} />
-                <span>{r.source}</span>
-                {r.note && <span className="text-xs text-ink-soft">{r.note}</span>}
-              </div>
-            </td>
-          </tr>
-        ))}
-      </tbody>
-    </table>
-  );
+  const table = useReactTable({ data: rules, columns, getCoreRowModel: getCoreRowModel(), getRowId: (r) => r.id });
+  return <DataTable table={table} look={look} />;
 }

@@ -17,8 +17,13 @@ export interface ReadingRow {
   conductors: string;
   stepSort: number;
   valueText: string;
+  /** After the test-lead null was subtracted. */
   valueOhm: number | null;
   overRange: boolean;
+  /** The test-lead null subtracted, its record and the meter it was measured with. */
+  leadOffsetOhm: number | null;
+  leadNullId: string | null;
+  leadNullMeter: string | null;
   verdict: 'pass' | 'near-limit' | 'fail';
   limitOhm: number | null;
   limitKind: 'max' | 'min' | null;

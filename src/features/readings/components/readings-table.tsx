@@ -7,9 +7,14 @@ import {
   useReactTable,
   type SortingState,
 } from '@tanstack/react-table';
+import { useForm, useWatch } from 'react-hook-form';
+import { zodResolver } from '@hookform/resolvers/zod';
+import { z } from 'zod';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
+import { CORRECTION_REASON_MIN, createReadingSchema } from '@shared/schemas/readings';
 import { formatOhm } from '@shared/domain/units';
 import { matchesReadingsFilter, type ReadingsFilter } from '@shared/schemas/readings-table';
+import { readingValueView } from '@shared/domain/typed-reading';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
@@ -33,30 +38,41 @@ const fromLocalInput = (value: string) => {
   return value && !Number.isNaN(d.getTime()) ? d.toISOString() : undefined;
 };
 
+// A correction is a reading with a reason: the value and the reason as the reading's schema has them.
+const correctionSchema = z.object({
+  value: createReadingSchema.shape.value,
+  correctionReason: createReadingSchema.shape.correctionReason.unwrap().unwrap(),
+});
+
 function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrect: (v: CorrectionInput) => Promise<unknown>; onClose: () => void }) {
-  const [value, setValue] = useState('');
-  const [reason, setReason] = useState('');
-  const [error, setError] = useState<string | null>(null);
+  const form = useForm<z.input<typeof correctionSchema>, unknown, z.output<typeof correctionSchema>>({
+    resolver: zodResolver(correctionSchema),
+    defaultValues: { value: '', correctionReason: '' },
+  });
+  const typed = useWatch({ control: form.control });
+  const error = form.formState.errors.root?.message;
   return (
     <form
+      noValidate
       className="flex flex-wrap items-end gap-3 bg-brass-soft px-4 py-3"
-      onSubmit={async (e) => {
-        e.preventDefault();
-        setError(null);
+      onSubmit={form.handleSubmit(async (v) => {
         try {
-          await onCorrect({ stepId: row.stepId, value, supersedesId: row.id, correctionReason: reason });
+          await onCorrect({ stepId: row.stepId, supersedesId: row.id, leadNullId: row.leadNullId, ...v });
           onClose();
         } catch (err) {
-          setError(err instanceof Error ? err.message : 'The correction was not saved.');
+          form.setError('root', { message: err instanceof Error ? err.message : 'The correction was not saved.' });
         }
-      }}
+      })}
     >
       <p className="w-full text-sm">
-        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}. The old reading stays in the history.
+        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}
+        {row.leadOffsetOhm ? ` (typed with a ${formatOhm(row.leadOffsetOhm)} lead null, which the correction keeps)` : ''}. The old reading stays in the history. A
+        correction closes no fault: a fault opened by a typing mistake is dismissed by the technical director.
       </p>
-      <TextField label="Correct value" name={`fix-${row.id}`} id={`fix-${row.id}`} autoFocus inputMode="decimal" value={value} onChange={(e) => setValue(e.target.value)} className="w-36" />
-      <TextField label="Reason" name={`reason-${row.id}`} id={`reason-${row.id}`} value={reason} onChange={(e) => setReason(e.target.value)} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
-      <Button type="submit" disabled={!value.trim() || reason.trim().length < 3}>Save correction</Button>
+      <TextField label="Correct value" id={`fix-${row.id}`} autoFocus inputMode="decimal" {...form.register('value')} className="w-36" />
+      <TextField label="Reason" id={`reason-${row.id}`} {...form.register('correctionReason')} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
+      <Button type="submit" disabled={!correctionSchema.safeParse(typed).success}>Save correction</Button>
+      <p className="w-full text-xs text-ink-soft">The reason needs at least {CORRECTION_REASON_MIN} characters.</p>
       <Button variant="secondary" onClick={onClose}>Cancel</Button>
       {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
     </form>
@@ -101,7 +117,22 @@ export function ReadingsTable({
       col.accessor('valueText', {
         header: 'Value',
         sortingFn: (a, b) => (a.original.valueOhm ?? Infinity) - (b.original.valueOhm ?? Infinity),
-        cell: (c) => <span className="whitespace-nowrap font-mono font-semibold" data-value>{c.getValue()}</span>,
+        cell: (c) => {
+          // The value judged, with its unit; when a lead null was subtracted, what was typed too.
+          const v = readingValueView(c.row.original);
+          return (
+            <span>
+              <span className="whitespace-nowrap font-mono font-semibold" data-value>
+                {v.value}
+              </span>
+              {v.typed && (
+                <span className="block whitespace-nowrap text-xs text-ink-soft" data-testid="value-typed">
+                  typed {v.typed} − {v.leadNull} lead null{c.row.original.leadNullMeter ? ` (${c.row.original.leadNullMeter})` : ''}
+                </span>
+              )}
+            </span>
+          );
+        },
       }),
       col.accessor('verdict', {
         header: 'Verdict',

@@ -1,9 +1,9 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link } from 'react-router';
 import { z } from 'zod';
-import { signOffSchema } from '@shared/schemas/sign-off';
+import { signOffExceptionSchema, signOffSchema } from '@shared/schemas/sign-off';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { Card, Notice } from '@/components/ui/card';
@@ -20,18 +20,21 @@ type ConfirmInput = z.infer<typeof confirmSchema>;
 
 export const DEFAULT_STATEMENT_HINT = 'I have reviewed the readings listed in this certificate and sign the venue off for competition.';
 
-interface Exception {
-  stripId: string;
-  reason: string;
-}
+type Exception = z.output<typeof signOffExceptionSchema>;
 
 /** Readiness, the exceptions, a statement and the password: the whole sign-off on one screen. */
 export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; onSigned: (r: SignOffResult) => void }) {
   const venueId = readiness.venue.id;
   const signOff = useSignOffVenue(venueId);
   const [exceptions, setExceptions] = useState<Exception[]>([]);
-  const [draft, setDraft] = useState<Exception>({ stripId: '', reason: '' });
   const form = useForm<ConfirmInput>({ resolver: zodResolver(confirmSchema), defaultValues: { password: '', statement: '' } });
+  // "Leave it out": one strip and its reason, checked by the schema the sign-off request uses.
+  const exceptionForm = useForm<z.input<typeof signOffExceptionSchema>, unknown, Exception>({
+    resolver: zodResolver(signOffExceptionSchema),
+    defaultValues: { stripId: '', reason: '' },
+  });
+  const draft = useWatch({ control: exceptionForm.control });
+  const draftReady = signOffExceptionSchema.safeParse(draft).success;
 
   const leftOut = new Set(exceptions.map((e) => e.stripId));
   const blocking = readiness.strips.filter((s) => ['missing', 'failing', 'no-steps'].includes(s.state) && !leftOut.has(s.stripId));
@@ -40,12 +43,10 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
   const candidates = readiness.strips.filter((s) => s.state !== 'withdrawn' && !leftOut.has(s.stripId));
   const signedOff = readiness.venue.status === 'signed-off';
 
-  const addException = () => {
-    const reason = draft.reason.trim();
-    if (!draft.stripId || reason.length < 3) return;
-    setExceptions((list) => [...list, { stripId: draft.stripId, reason }]);
-    setDraft({ stripId: '', reason: '' });
-  };
+  const addException = exceptionForm.handleSubmit((exception) => {
+    setExceptions((list) => [...list, exception]);
+    exceptionForm.reset();
+  });
   const labelOf = (id: string) => readiness.strips.find((s) => s.stripId === id)?.label ?? id;
   const problem = signOff.error instanceof ApiError ? signOff.error : null;
   const problemIssues = (problem?.body.issues as { message: string }[] | undefined) ?? [];
@@ -65,7 +66,7 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
           <ReadinessList
             strips={readiness.strips}
             leftOut={leftOut}
-            onLeaveOut={readiness.canSignOff && !signedOff ? (stripId) => setDraft({ stripId, reason: '' }) : undefined}
+            onLeaveOut={readiness.canSignOff && !signedOff ? (stripId) => exceptionForm.reset({ stripId, reason: '' }) : undefined}
           />
         </Card>
 
@@ -119,7 +120,7 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
               </ul>
             )}
             <div className="mt-3 flex flex-col gap-3">
-              <SelectField label="Strip" name="exception-strip" value={draft.stripId} onChange={(e) => setDraft((d) => ({ ...d, stripId: e.target.value }))}>
+              <SelectField label="Strip" id="f-exception-strip" {...exceptionForm.register('stripId')}>
                 <option value="">Choose a strip…</option>
                 {candidates.map((s) => (
                   <option key={s.stripId} value={s.stripId}>
@@ -129,12 +130,12 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
               </SelectField>
               <TextField
                 label="Reason"
-                name="exception-reason"
-                value={draft.reason}
+                id="f-exception-reason"
                 placeholder="e.g. Reserve strip, not used at this event"
-                onChange={(e) => setDraft((d) => ({ ...d, reason: e.target.value }))}
+                {...exceptionForm.register('reason')}
+                error={exceptionForm.formState.errors.reason?.message}
               />
-              <Button variant="secondary" onClick={addException} disabled={!draft.stripId || draft.reason.trim().length < 3}>
+              <Button variant="secondary" onClick={addException} disabled={!draftReady}>
                 Leave it out
               </Button>
             </div>

@@ -1,7 +1,9 @@
 import { useRef, useState, type Ref } from 'react';
 import { Link } from 'react-router';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
-import type { ReadingDto } from '@shared/schemas/readings';
+import { CORRECTION_REASON_MIN, type ReadingDto } from '@shared/schemas/readings';
+import { readingValueView } from '@shared/domain/typed-reading';
+import { formatOhm } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
@@ -12,7 +14,7 @@ import { verdictLook } from '../utils/verdict-look';
 export interface ReadingInput {
   stepId: string;
   value: string;
-  leadOffsetOhm?: number | null;
+  leadNullId?: string | null;
   supersedesId?: string;
   correctionReason?: string;
 }
@@ -51,7 +53,7 @@ export function StepRow({
   index,
   step,
   ctx,
-  leadOffsetOhm,
+  leadNull,
   canWrite,
   faultId,
   highlight,
@@ -63,7 +65,8 @@ export function StepRow({
   index: number;
   step: StripStep;
   ctx: StepContext;
-  leadOffsetOhm: number | null;
+  /** The technician's test-lead null of this session (null: none set). */
+  leadNull: { id: string; valueOhm: number } | null;
   canWrite: boolean;
   faultId: string | null;
   highlight: boolean;
@@ -79,21 +82,34 @@ export function StepRow({
   const [correction, setCorrection] = useState({ value: '', reason: '' });
   const own = useRef<HTMLInputElement | null>(null);
 
-  const preview = previewReading(value, ctx, leadOffsetOhm);
+  const preview = previewReading(value, ctx, leadNull?.valueOhm ?? null);
   const limit = limitText(ctx);
   const latest = step.latest;
+  const latestView = latest ? readingValueView(latest) : null;
   const fieldId = `reading-${step.id}`;
   const title = stepTitle(step);
 
+  /**
+   * A new reading uses this session's null; a correction keeps the null of the reading it
+   * corrects (it fixes what was typed, not the measurement).
+   */
   async function record(extra: { supersedesId?: string; correctionReason?: string } = {}, typed = value) {
     if (busy) return;
-    const p = previewReading(typed, ctx, leadOffsetOhm);
+    const lead = extra.supersedesId
+      ? latest?.leadNullId
+        ? { id: latest.leadNullId, valueOhm: latest.leadOffsetOhm ?? 0 }
+        : null
+      : leadNull;
+    const p = previewReading(typed, ctx, lead?.valueOhm ?? null);
     if (p.state === 'empty') return setError('Type the reading first, or OL for over range.');
     if (p.state === 'invalid') return setError(p.message);
     setBusy(true);
     setError(null);
     try {
-      await submit({ stepId: step.id, value: typed, leadOffsetOhm, ...extra }, { verdict: p.verdict.verdict, display: p.display, explanation: p.verdict.explanation });
+      await submit(
+        { stepId: step.id, value: typed, ...(lead ? { leadNullId: lead.id } : {}), ...extra },
+        { verdict: p.verdict.verdict, display: p.display, explanation: p.verdict.explanation },
+      );
       setValue('');
       setCorrecting(false);
       setCorrection({ value: '', reason: '' });
@@ -145,7 +161,12 @@ export function StepRow({
         {latest && (
           <div className="mt-2 flex flex-wrap items-center gap-2 text-sm" data-testid="latest">
             <span className="text-ink-soft">Latest:</span>
-            <strong className="tabular-nums">{latest.overRange ? 'OL' : latest.valueText}</strong>
+            <strong className="tabular-nums">{latestView!.value}</strong>
+            {latestView!.typed && (
+              <span className="text-xs tabular-nums text-ink-soft" data-testid="latest-typed">
+                typed {latestView!.typed} − {latestView!.leadNull} lead null
+              </span>
+            )}
             <StatusMark {...verdictLook[latest.verdict]} size="sm" />
             <span className="text-xs text-ink-soft">
               {latest.takenByName ?? 'someone'}, {time(latest.takenAt)} · profile v{latest.profileVersion}
@@ -210,7 +231,8 @@ export function StepRow({
             <p className="flex flex-wrap items-start gap-2">
               <StatusMark {...verdictLook[preview.verdict.verdict]} />
               <span>
-                <strong>{preview.display}</strong> — {preview.verdict.explanation}
+                <strong>{preview.display}</strong>
+                {leadNull && leadNull.valueOhm > 0 && preview.display !== 'OL' ? ` (less the ${formatOhm(leadNull.valueOhm)} lead null)` : ''} — {preview.verdict.explanation}
               </span>
             </p>
           )}
@@ -240,7 +262,9 @@ export function StepRow({
             className="mt-3 flex flex-wrap items-end gap-2 rounded-lg border border-line bg-paper p-3"
             onSubmit={(e) => {
               e.preventDefault();
-              if (correction.reason.trim().length < 3) return setError('Say briefly why the reading is corrected.');
+              if (correction.reason.trim().length < CORRECTION_REASON_MIN) {
+                return setError(`Say what was wrong in at least ${CORRECTION_REASON_MIN} characters, e.g. “typed 3.4 for 0.34”. A correction does not close a fault.`);
+              }
               void record({ supersedesId: latest.id, correctionReason: correction.reason.trim() }, correction.value);
             }}
           >

@@ -1,11 +1,11 @@
-import { useState } from 'react';
+import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import type { BoardStrip } from '../api/get-board';
 
 /** Type a strip's number (or label) and press Enter to open it. */
 export function StripPicker({ strips, onPick }: { strips: BoardStrip[]; onPick: (s: BoardStrip) => void }) {
-  const [text, setText] = useState('');
-  const [error, setError] = useState<string | null>(null);
+  const form = useForm({ defaultValues: { text: '' } });
+  const error = form.formState.errors.text?.message;
   const find = (q: string) => {
     const t = q.trim().toLowerCase();
     if (!t) return undefined;
@@ -14,12 +14,11 @@ export function StripPicker({ strips, onPick }: { strips: BoardStrip[]; onPick: 
   return (
     <form
       className="flex flex-wrap items-center gap-2"
-      onSubmit={(e) => {
-        e.preventDefault();
+      onSubmit={form.handleSubmit(({ text }) => {
         const s = find(text);
         if (s) onPick(s);
-        else setError(`No strip “${text.trim()}” in this venue.`);
-      }}
+        else form.setError('text', { message: `No strip “${text.trim()}” in this venue.` });
+      })}
     >
       <label htmlFor="strip-number" className="text-sm font-medium">
         Go to strip number
@@ -29,11 +28,7 @@ export function StripPicker({ strips, onPick }: { strips: BoardStrip[]; onPick: 
         inputMode="numeric"
         autoComplete="off"
         className="min-h-touch w-24 rounded-lg border border-line bg-card px-3 text-lg"
-        value={text}
-        onChange={(e) => {
-          setText(e.target.value);
-          setError(null);
-        }}
+        {...form.register('text', { onChange: () => form.clearErrors('text') })}
       />
       <Button type="submit">Open</Button>
       {error && (

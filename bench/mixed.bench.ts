@@ -1,0 +1,236 @@
+// Readings while the server does large jobs: the p99 of reading writes at a steady rate, alone and
+// while a 2-million-sample trace is analysed and a 120-strip venue is signed off (its certificates
+// rendered) over and over. Those jobs run on the worker pool; the readings must barely notice.
+import autocannon from 'autocannon';
+import { v7 as uuidv7 } from 'uuid';
+import { signInCookie, startServer, type BenchResult } from './lib';
+
+const PORT = 4403;
+const SAMPLE_MS = 20;
+/** Each measured run, seconds; runs alone and mixed are taken in turns. */
+const RUN_SECONDS = 8;
+const ROUNDS = 2;
+/** Readings offered per second: many tablets at once, well below what the server sustains. */
+const RATE = 300;
+const STRIPS = 120;
+const TRACE_SAMPLES = 2_000_000;
+const PASSWORD = 'demo-strip-2026';
+
+/** A scope export with an incident edge and a short's reflection, as a CSV. */
+function syntheticCsv(samples: number): string {
+  const dt = 0.1e-9;
+  const lines: string[] = ['time,volts'];
+  let seed = 7;
+  const noise = () => {
+    seed = (seed * 1664525 + 1013904223) % 4294967296;
+    return (seed / 4294967296 - 0.5) * 0.01;
+  };
+  for (let i = 0; i < samples; i++) {
+    const t = i * dt;
+    lines.push(`${t.toExponential(6)},${((t > 5e-6 ? 0.5 : 0) + (t > 5.09e-6 ? -0.4 : 0) + noise()).toFixed(5)}`);
+  }
+  return lines.join('\n');
+}
+
+type Json = Record<string, unknown>;
+
+/**
+ * fetch, sent again once when the server had closed the idle keep-alive connection just as the
+ * request went out (undici: "other side closed", nothing read): the request never reached it.
+ */
+async function fetchOnce(url: string, init: RequestInit): Promise<Response> {
+  try {
+    return await fetch(url, init);
+  } catch (err) {
+    const cause = (err as { cause?: { code?: string; socket?: { bytesRead?: number } } }).cause;
+    if (cause?.code !== 'UND_ERR_SOCKET' || cause.socket?.bytesRead !== 0) throw err;
+    return fetch(url, init);
+  }
+}
+
+function client(base: string, cookie: string) {
+  const headers = { Cookie: cookie, Origin: base, 'Content-Type': 'application/json' };
+  const call = async (method: string, path: string, body?: unknown, extra: Record<string, string> = {}) => {
+    const res = await fetchOnce(`${base}${path}`, {
+      method,
+      headers: { ...headers, ...extra },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    });
+    const text = await res.text();
+    return { status: res.status, etag: res.headers.get('etag') ?? '', body: (text ? JSON.parse(text) : null) as Json & Json[] };
+  };
+  return { headers, call };
+}
+
+/** A new venue of the demo event with 120 strips, every step with a passing reading: ready to sign off. */
+async function readyVenue(base: string, marco: ReturnType<typeof client>) {
+  const events = (await marco.call('GET', '/api/events')).body as unknown as { id: string }[];
+  const profiles = (await marco.call('GET', '/api/profiles')).body as unknown as { id: string }[];
+  const venue = await marco.call('POST', `/api/events/${events[0]!.id}/venues`, { name: 'Bench Arena', profileId: profiles[0]!.id });
+  if (venue.status !== 201) throw new Error(`venue: ${venue.status} ${JSON.stringify(venue.body)}`);
+  const venueId = (venue.body.venue as { id: string }).id;
+  const bulk = await marco.call(
+    'POST',
+    `/api/venues/${venueId}/strips/bulk`,
+    { count: STRIPS, prefix: 'Strip ', startAt: 1 },
+    { 'If-Match': venue.etag },
+  );
+  if (bulk.status !== 201) throw new Error(`strips: ${bulk.status} ${JSON.stringify(bulk.body)}`);
+  const strips = bulk.body.strips as { positions: { steps: { id: string; testKind: string }[] }[] }[];
+  const steps = strips.flatMap((s) => s.positions.flatMap((p) => p.steps));
+  // The director records them (as a technician would), 32 at a time.
+  for (let i = 0; i < steps.length; i += 32) {
+    const batch = steps
+      .slice(i, i + 32)
+      .map((st) =>
+        marco.call('POST', '/api/readings', { id: uuidv7(), stepId: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' }),
+      );
+    for (const r of await Promise.all(batch)) if (r.status !== 201) throw new Error(`reading: ${r.status} ${JSON.stringify(r.body)}`);
+  }
+  return { venueId, steps };
+}
+
+export async function run(): Promise<BenchResult> {
+  const server = await startServer(PORT);
+  try {
+    const sam = client(server.base, await signInCookie(server.base, 'sam@lakeshore.example'));
+    const marco = client(server.base, await signInCookie(server.base, 'marco@lakeshore.example'));
+
+    // The readings load: the Sports Hall's steps, as the tablets send them.
+    const venues = (await sam.call('GET', '/api/venues')).body as unknown as { id: string; name: string }[];
+    const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!;
+    const hallStrips = (await sam.call('GET', `/api/venues/${hall.id}/strips`)).body as unknown as { id: string }[];
+    const hallSteps: { id: string; value: string }[] = [];
+    for (const s of hallStrips) {
+      const strip = (await sam.call('GET', `/api/strips/${s.id}`)).body as unknown as {
+        positions: { steps: { id: string; testKind: string }[] }[];
+      };
+      for (const p of strip.positions)
+        for (const st of p.steps) hallSteps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
+    }
+    let next = 0;
+    const readings = (seconds: number) =>
+      autocannon({
+        url: server.base,
+        connections: 16,
+        overallRate: RATE,
+        duration: seconds,
+        sampleInt: SAMPLE_MS,
+        requests: [
+          {
+            method: 'POST',
+            path: '/api/readings',
+            headers: sam.headers,
+            setupRequest: (req) => {
+              const step = hallSteps[next++ % hallSteps.length]!;
+              return {
+                ...req,
+                body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString() }),
+              };
+            },
+          },
+        ],
+      });
+
+    const arena = await readyVenue(server.base, marco);
+    const csv = syntheticCsv(TRACE_SAMPLES);
+    const jobs = { analyses: 0, signOffs: 0, analysisMs: [] as number[], signOffMs: [] as number[], refused: 0 };
+    const analyse = async () => {
+      const t0 = performance.now();
+      const res = await fetchOnce(`${server.base}/api/waveforms/analyse?velocityFactor=0.66`, {
+        method: 'POST',
+        headers: { ...sam.headers, 'Content-Type': 'text/csv' },
+        body: csv,
+      });
+      await res.arrayBuffer();
+      if (res.status === 503) jobs.refused++;
+      else if (res.status !== 200) throw new Error(`analysis: ${res.status}`);
+      else jobs.analysisMs.push(performance.now() - t0);
+    };
+    const signOffAndReopen = async () => {
+      const t0 = performance.now();
+      const res = await marco.call('POST', `/api/venues/${arena.venueId}/sign-off`, { password: PASSWORD });
+      if (res.status === 503) jobs.refused++;
+      else if (res.status !== 201) throw new Error(`sign-off: ${res.status} ${JSON.stringify(res.body)}`);
+      else {
+        jobs.signOffMs.push(performance.now() - t0);
+        const certificates = res.body.certificates as unknown[];
+        if (certificates.length !== STRIPS + 1) throw new Error(`sign-off issued ${certificates.length} certificates`);
+      }
+      // A new reading re-opens the venue for the next round.
+      const st = arena.steps[0]!;
+      const again = await marco.call('POST', '/api/readings', {
+        id: uuidv7(),
+        stepId: st.id,
+        value: st.testKind === 'insulation' ? 'OL' : '0.45',
+      });
+      if (again.status !== 201) throw new Error(`re-open: ${again.status}`);
+    };
+
+    // Warm-up: the JIT, the worker threads (they start on first use) and both jobs once.
+    await readings(2);
+    await analyse();
+    await signOffAndReopen();
+    jobs.analysisMs.length = 0;
+    jobs.signOffMs.length = 0;
+
+    const alone: autocannon.Result[] = [];
+    const mixed: autocannon.Result[] = [];
+    for (let round = 0; round < ROUNDS; round++) {
+      alone.push(await readings(RUN_SECONDS));
+      let stop = false;
+      const background = Promise.all([
+        (async () => {
+          while (!stop) {
+            await analyse();
+            jobs.analyses++;
+          }
+        })(),
+        (async () => {
+          while (!stop) {
+            await signOffAndReopen();
+            jobs.signOffs++;
+          }
+        })(),
+      ]);
+      mixed.push(await readings(RUN_SECONDS));
+      stop = true;
+      await background;
+    }
+    const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
+    const p99Alone = mean(alone.map((r) => r.latency.p99));
+    const p99Mixed = mean(mixed.map((r) => r.latency.p99));
+    const ratio = p99Mixed / p99Alone;
+    const failures = [...alone, ...mixed].reduce((n, r) => n + r.non2xx + r.errors, 0);
+    return {
+      name: 'Readings while a trace is analysed and a 120-strip venue is signed off',
+      ratio,
+      ratioMeaning: 'reading p99 with the large jobs running ÷ reading p99 alone (same rate, runs taken in turns)',
+      target: '≤ 1.5',
+      pass: ratio <= 1.5 && failures === 0,
+      figures: {
+        readingsPerSecondOffered: RATE,
+        runSeconds: RUN_SECONDS,
+        rounds: ROUNDS,
+        p99AloneMs: +p99Alone.toFixed(1),
+        p99MixedMs: +p99Mixed.toFixed(1),
+        p99AloneRunsMs: alone.map((r) => r.latency.p99).join(' / '),
+        p99MixedRunsMs: mixed.map((r) => r.latency.p99).join(' / '),
+        p50AloneMs: +mean(alone.map((r) => r.latency.p50)).toFixed(1),
+        p50MixedMs: +mean(mixed.map((r) => r.latency.p50)).toFixed(1),
+        readingFailures: failures,
+        traceSamples: TRACE_SAMPLES,
+        traceMiB: +(csv.length / 2 ** 20).toFixed(1),
+        analysesDone: jobs.analyses,
+        analysisMedianMs: Math.round([...jobs.analysisMs].sort((a, b) => a - b)[Math.floor(jobs.analysisMs.length / 2)] ?? NaN),
+        signOffsDone: jobs.signOffs,
+        signOffMedianMs: Math.round([...jobs.signOffMs].sort((a, b) => a - b)[Math.floor(jobs.signOffMs.length / 2)] ?? NaN),
+        certificatesPerSignOff: STRIPS + 1,
+        readingsCertified: arena.steps.length,
+        busyRefusals: jobs.refused,
+      },
+    };
+  } finally {
+    await server.stop();
+  }
+}
