@@ -37,15 +37,15 @@ test('a technician locates the demo short from both ends, sees it on the drawing
   await readings.getByRole('button', { name: 'Calculate' }).click();
   await expect(page.getByText('✓ Checked by the server')).toBeVisible();
 
-  // Feet: 7.4 m / 0.3048 = 24.28 ft; the typed 12 m is rewritten in feet (12 / 0.3048 = 39.37) and keeps its metres.
-  await page.getByRole('button', { name: /Lengths shown in metres/ }).click();
+  // Feet: 7.4 m / 0.3048 = 24.28 ft; the typed length keeps its metres.
+  await page.getByRole('group', { name: 'Lengths' }).getByText('ft', { exact: true }).click();
   await expect(distance).toHaveText('24.3 ft');
   await expect(readings.getByLabel(/^Cable length \(ft\)/)).toHaveValue('39.37');
   await expect(page.getByRole('img', { name: /fault about 24\.3 ft from the near end/ })).toBeVisible();
   await expect(page.getByText('✓ Checked by the server')).toBeVisible();
   await page.screenshot({ path: 'test-results/fault-locator-feet.png', fullPage: true });
   // Back to metres, so the preference is as the demo had it.
-  await page.getByRole('button', { name: /Lengths shown in feet/ }).click();
+  await page.getByRole('group', { name: 'Lengths' }).getByText('m', { exact: true }).click();
   await expect(distance).toHaveText('7.4 m');
   await expect(readings.getByLabel(/^Cable length \(m\)/)).toHaveValue('12');
 

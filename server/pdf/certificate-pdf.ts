@@ -232,7 +232,8 @@ class Writer {
     this.y += h + 12;
   }
 
-  signature(jws: string, keyId: string) {
+  /** The signature in plain words, with the code to scan; the technical details go to signatureAnnex(). */
+  signature(annexName: string) {
     const { frame: FRAME, width: WIDTH } = this;
     const qr = 86;
     const h = qr + 24;
@@ -243,25 +244,42 @@ class Writer {
     this.pen.line('SIGNED ELECTRONICALLY', left, top, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.8 });
     this.pen.line(this.p.signer.name, left, top + 11, { size: 13, weight: 600 });
     this.pen.line(`${this.p.signer.role}, ${formatUtc(this.p.signedAt)}`, left, top + 29, { size: 9, color: COLOURS.soft });
-    const mono: TextStyle = { size: 7, color: COLOURS.soft };
-    let y = top + 48;
+    const plain: TextStyle = { size: 8.5, color: COLOURS.ink };
+    const words = `${this.p.issuer.organisation.name} signed this certificate with its own digital key when the venue was signed off. To check that it is genuine, unaltered and still valid, scan the code or open ${this.p.verifyUrl}. Any change to the file or its record shows there. The technical details are in ${annexName}.`;
+    let y = top + 46;
+    for (const l of this.pen.wrap(words, textW, plain)) {
+      this.pen.line(l, left, y, plain);
+      y += 11;
+    }
+    const qx = FRAME.right - qr;
+    drawQr(this.pen, this.p.verifyUrl, qx, top - 2, qr);
+    this.pen.line('Scan to check this certificate', qx - 20, top + qr + 2, { size: 6.5, color: COLOURS.soft }, { width: qr + 20, align: 'right' });
+    this.y = Math.max(y, top + qr + 14) + 6;
+  }
+
+  /** The signature's technical details, for whoever checks it by hand. */
+  signatureAnnex(title: string, jws: string, keyId: string) {
+    const { frame: FRAME, width: WIDTH } = this;
+    this.need(120);
+    this.y += 14;
+    this.eyebrow(title);
+    this.pen.line('Signature details', FRAME.left, this.y, { size: 16, weight: 600 });
+    this.y += 25;
+    const mono: TextStyle = { size: 7.5, color: COLOURS.soft };
     const rows: [string, string][] = [
-      ['Signature', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
+      ['Algorithm', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
       ['Key id', keyId],
       ['JWS SHA-256', fingerprint(jws)],
       ['Full signature', `${this.p.issuer.origin}/api/verify/${this.p.number}`],
       ['Public keys', `${this.p.issuer.origin}/.well-known/jwks.json`],
     ];
     for (const [label, value] of rows) {
-      this.pen.line(label, left, y, { size: 7, weight: 600, color: COLOURS.ink });
-      const lines = this.pen.wrap(value, textW - 62, mono);
-      lines.forEach((l, i) => this.pen.line(l, left + 62, y + i * 9.4, mono));
-      y += lines.length * 9.4 + 1.5;
+      const lines = this.pen.wrap(value, WIDTH - 80, mono);
+      this.need(lines.length * 10 + 2);
+      this.pen.line(label, FRAME.left, this.y, { size: 7.5, weight: 600, color: COLOURS.ink });
+      lines.forEach((l, i) => this.pen.line(l, FRAME.left + 80, this.y + i * 10, mono));
+      this.y += lines.length * 10 + 3;
     }
-    const qx = FRAME.right - qr;
-    drawQr(this.pen, this.p.verifyUrl, qx, top - 2, qr);
-    this.pen.line('Scan to check this certificate', qx - 20, top + qr + 2, { size: 6.5, color: COLOURS.soft }, { width: qr + 20, align: 'right' });
-    this.y = Math.max(y, top + qr + 14) + 6;
   }
 }
 
@@ -404,7 +422,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.section('Statement of the technical director', 30);
   w.text(`“${p.statement}”`, { size: 9.5, color: COLOURS.ink }, 12);
   w.scope();
-  w.signature(doc.jws, doc.keyId);
+  w.signature('Annex D');
 
   // The annexes are landscape, so each rule and each reading fits on a line.
   w.newPage('landscape');
@@ -439,6 +457,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   leadNullsTable(w, p);
   w.section('Faults dismissed by the technical director as typing mistakes', 30);
   dismissedTable(w, p.dismissedFaults);
+  w.signatureAnnex('Annex D', doc.jws, doc.keyId);
 }
 
 // The strip certificate shows its readings as a grid: one row per item, one column per test, in
@@ -508,6 +527,18 @@ function readingGrid(readings: CertifiedReading[]) {
   return { rows: list, columns };
 }
 
+/**
+ * The venue with the strip's zone, unless the venue's name already says it: a zone "Annex" in
+ * "Riverside Annex" would read "Riverside Annex, Annex".
+ */
+export function placeOf(venueName: string, zone: string | null | undefined): string {
+  const z = zone?.trim();
+  if (!z) return venueName;
+  const words = (t: string) => t.toLocaleLowerCase().split(/[^\p{L}\p{N}]+/u).filter(Boolean);
+  const name = words(venueName).join(' ');
+  return ` ${name} `.includes(` ${words(z).join(' ')} `) ? venueName : `${venueName}, ${z}`;
+}
+
 function renderStrip(w: Writer, doc: CertificateDocument) {
   const { payload: p } = doc;
   const strip = p.strips[0];
@@ -520,7 +551,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
     10,
   );
   w.facts([
-    ['Venue', `${p.venue.name}${strip.zone ? `, ${strip.zone}` : ''}`],
+    ['Venue', placeOf(p.venue.name, strip.zone)],
     ['Items by asset tag', strip.items.map((i) => i.assetTag ?? i.position).join(', ')],
     ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
     ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),
@@ -544,7 +575,8 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   w.ruleList(p.profile.rules.filter((r) => used.has(r.id)).map((r) => [ruleLabel(r.id), `${r.limit} · ${r.source}`]));
   w.text(`Statement of the technical director: “${p.statement}”`, { size: 8, color: COLOURS.ink }, 10);
   w.scope();
-  w.signature(doc.jws, doc.keyId);
+  w.signature('the annex at the end');
+  w.signatureAnnex('Annex', doc.jws, doc.keyId);
 }
 
 export async function renderCertificatePdf(input: CertificateDocument): Promise<Buffer> {

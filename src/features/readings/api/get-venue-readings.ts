@@ -1,6 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import type { TestKind } from '@shared/domain/limits';
+import { readingsFilterQuery, type ReadingsFilter } from '@shared/schemas/readings-table';
 
 export interface ReadingRow {
   id: string;
@@ -30,6 +31,7 @@ export interface ReadingRow {
   explanation: string;
   profileName: string | null;
   profileVersion: number;
+  takenBy: string | null;
   takenByName: string | null;
   takenAt: string;
   /** When the server got it; later than takenAt for a reading typed offline. */
@@ -44,4 +46,5 @@ export const getVenueReadings = (venueId: string) => api.get<ReadingRow[]>(`/ven
 export const venueReadingsQueryOptions = (venueId: string) =>
   queryOptions({ queryKey: ['venues', venueId, 'readings'], queryFn: () => getVenueReadings(venueId) });
 export const useVenueReadings = (venueId: string) => useQuery(venueReadingsQueryOptions(venueId));
-export const venueReadingsCsvUrl = (venueId: string) => `/api/venues/${venueId}/readings.csv`;
+/** The export of what the table shows: the same filters as query parameters. */
+export const venueReadingsCsvUrl = (venueId: string, filter: ReadingsFilter = {}) => `/api/venues/${venueId}/readings.csv${readingsFilterQuery(filter)}`;

@@ -3,10 +3,8 @@ import {
   createColumnHelper,
   flexRender,
   getCoreRowModel,
-  getFilteredRowModel,
   getSortedRowModel,
   useReactTable,
-  type ColumnFiltersState,
   type SortingState,
 } from '@tanstack/react-table';
 import { useForm, useWatch } from 'react-hook-form';
@@ -15,6 +13,7 @@ import { z } from 'zod';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import { CORRECTION_REASON_MIN, createReadingSchema } from '@shared/schemas/readings';
 import { formatOhm } from '@shared/domain/units';
+import { matchesReadingsFilter, type ReadingsFilter } from '@shared/schemas/readings-table';
 import { readingValueView } from '@shared/domain/typed-reading';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
@@ -29,7 +28,16 @@ const col = createColumnHelper<ReadingRow>();
 const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' });
 /** A reading typed offline reached the server a while after it was taken: say when. */
 const sentLater = (r: ReadingRow) => r.receivedAt !== null && Date.parse(r.receivedAt) - Date.parse(r.takenAt) >= 60_000;
-const equals = (row: { getValue: (id: string) => unknown }, id: string, value: unknown) => value === '' || row.getValue(id) === value;
+/** An ISO instant as the value of a datetime-local input (the person's own clock), and back. */
+const toLocalInput = (iso: string | undefined) => {
+  if (!iso) return '';
+  const d = new Date(iso);
+  return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
+};
+const fromLocalInput = (value: string) => {
+  const d = new Date(value);
+  return value && !Number.isNaN(d.getTime()) ? d.toISOString() : undefined;
+};
 
 // A correction is a reading with a reason: the value and the reason as the reading's schema has them.
 const correctionSchema = z.object({
@@ -72,9 +80,21 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
   );
 }
 
-export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRow[]; canCorrect: boolean; onCorrect: (v: CorrectionInput) => Promise<unknown> }) {
+export function ReadingsTable({
+  rows,
+  canCorrect,
+  onCorrect,
+  filter,
+  onFilterChange,
+}: {
+  rows: ReadingRow[];
+  canCorrect: boolean;
+  onCorrect: (v: CorrectionInput) => Promise<unknown>;
+  /** The filters live with the page, which sends them with the export link too. */
+  filter: ReadingsFilter;
+  onFilterChange: (f: ReadingsFilter) => void;
+}) {
   const [sorting, setSorting] = useState<SortingState>([]);
-  const [filters, setFilters] = useState<ColumnFiltersState>([]);
   const [correcting, setCorrecting] = useState<string | null>(null);
   const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
 
@@ -82,7 +102,6 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
     () => [
       col.accessor('stripLabel', {
         header: 'Strip',
-        filterFn: (row, id, v) => equals(row, id, v),
         sortingFn: (a, b) => a.original.stripSort - b.original.stripSort || a.original.positionSort - b.original.positionSort || a.original.stepSort - b.original.stepSort,
         cell: (c) => (
           <span>
@@ -94,7 +113,6 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
       col.accessor('assetTag', { header: 'Tag', cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{c.getValue() ?? '—'}</span> }),
       col.accessor('testKind', {
         header: 'Test',
-        filterFn: (row, id, v) => equals(row, id, v),
         cell: (c) => `${TEST_KIND_LABELS[c.getValue()]} ${c.row.original.conductors}`,
       }),
       col.accessor('valueText', {
@@ -119,7 +137,6 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
       }),
       col.accessor('verdict', {
         header: 'Verdict',
-        filterFn: (row, id, v) => equals(row, id, v),
         cell: (c) => {
           const [shape, tone, label] = VERDICT[c.getValue()];
           return <StatusMark shape={shape} tone={tone} label={label} size="sm" />;
@@ -135,7 +152,6 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
         ),
       }),
       col.accessor((r) => `${r.profileName ?? '?'} v${r.profileVersion}`, { id: 'profile', header: 'Profile', cell: (c) => <span className="text-xs">{c.getValue()}</span> }),
-      col.accessor((r) => r.takenByName ?? '—', { id: 'who', header: 'Who', filterFn: (row, id, v) => equals(row, id, v) }),
       col.accessor('takenAt', {
         header: 'When, who',
         cell: (c) => (
@@ -173,44 +189,44 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
     [byId, canCorrect, correcting],
   );
 
+  const visible = useMemo(() => rows.filter((r) => matchesReadingsFilter(r, filter)), [rows, filter]);
   const table = useReactTable({
-    data: rows,
+    data: visible,
     columns,
-    // Who is filtered on but shown inside the When column.
-    state: { sorting, columnFilters: filters, columnVisibility: { who: false } },
+    state: { sorting },
     onSortingChange: setSorting,
-    onColumnFiltersChange: setFilters,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
-    getFilteredRowModel: getFilteredRowModel(),
   });
-  const filterValue = (id: string) => (filters.find((f) => f.id === id)?.value as string) ?? '';
-  const setFilter = (id: string, value: string) => setFilters([...filters.filter((f) => f.id !== id), ...(value ? [{ id, value }] : [])]);
+  const setFilter = <K extends keyof ReadingsFilter>(key: K, value: ReadingsFilter[K] | '') => onFilterChange({ ...filter, [key]: value || undefined });
   const distinct = (pick: (r: ReadingRow) => string) => [...new Set(rows.map(pick))];
-  const strips = [...new Map(rows.map((r) => [r.stripLabel, r.stripSort])).entries()].sort((a, b) => a[1] - b[1]).map(([l]) => l);
+  const strips = [...new Map(rows.map((r) => [r.stripId, r])).values()].sort((a, b) => a.stripSort - b.stripSort);
+  const people = [...new Map(rows.filter((r) => r.takenBy).map((r) => [r.takenBy!, r.takenByName ?? '—'])).entries()];
 
   return (
     <div>
-      <div className="grid gap-3 border-b border-line p-4 sm:grid-cols-4">
-        <SelectField label="Strip" name="fStrip" value={filterValue('stripLabel')} onChange={(e) => setFilter('stripLabel', e.target.value)}>
+      <div className="grid gap-3 border-b border-line p-4 sm:grid-cols-3 lg:grid-cols-6">
+        <SelectField label="Strip" name="fStrip" value={filter.strip ?? ''} onChange={(e) => setFilter('strip', e.target.value)}>
           <option value="">All strips</option>
-          {strips.map((s) => <option key={s} value={s}>{s}</option>)}
+          {strips.map((s) => <option key={s.stripId} value={s.stripId}>{s.stripLabel}</option>)}
         </SelectField>
-        <SelectField label="Verdict" name="fVerdict" value={filterValue('verdict')} onChange={(e) => setFilter('verdict', e.target.value)}>
+        <SelectField label="Verdict" name="fVerdict" value={filter.verdict ?? ''} onChange={(e) => setFilter('verdict', e.target.value as ReadingsFilter['verdict'])}>
           <option value="">Any verdict</option>
           {(['pass', 'near-limit', 'fail'] as const).map((v) => <option key={v} value={v}>{VERDICT[v][2]}</option>)}
         </SelectField>
-        <SelectField label="Test" name="fTest" value={filterValue('testKind')} onChange={(e) => setFilter('testKind', e.target.value)}>
+        <SelectField label="Test" name="fTest" value={filter.test ?? ''} onChange={(e) => setFilter('test', e.target.value as ReadingsFilter['test'])}>
           <option value="">Any test</option>
           {distinct((r) => r.testKind).map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k as ReadingRow['testKind']]}</option>)}
         </SelectField>
-        <SelectField label="Who" name="fWho" value={filterValue('who')} onChange={(e) => setFilter('who', e.target.value)}>
+        <SelectField label="Who" name="fWho" value={filter.who ?? ''} onChange={(e) => setFilter('who', e.target.value)}>
           <option value="">Anyone</option>
-          {distinct((r) => r.takenByName ?? '—').map((w) => <option key={w} value={w}>{w}</option>)}
+          {people.map(([id, name]) => <option key={id} value={id}>{name}</option>)}
         </SelectField>
+        <TextField label="Taken from" name="fFrom" type="datetime-local" value={toLocalInput(filter.from)} onChange={(e) => setFilter('from', fromLocalInput(e.target.value))} />
+        <TextField label="Taken until" name="fTo" type="datetime-local" value={toLocalInput(filter.to)} onChange={(e) => setFilter('to', fromLocalInput(e.target.value))} />
       </div>
       <p className="px-4 py-2 text-sm text-ink-soft" aria-live="polite">
-        {table.getRowModel().rows.length} of {rows.length} readings · superseded readings stay listed, struck through
+        {visible.length} of {rows.length} readings · superseded readings stay listed, struck through
       </p>
       <div className="overflow-x-auto">
         <table className="w-full text-left text-sm">
