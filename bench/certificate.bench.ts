@@ -6,15 +6,18 @@ import { join } from 'node:path';
 import { renderCertificatePdf, type CertificateDocument } from '../server/pdf/certificate-pdf';
 import { CERTIFICATE_FORMAT, SCOPE_SENTENCE, readingsDigest, type CertifiedReading } from '../server/signing/certificate-record';
 import { canonicalJson } from '../server/signing/signing-keys';
-import { DEFAULT_LIMIT_PROFILE, evaluateReading } from '../shared/domain/limits';
+import { DEFAULT_LIMIT_PROFILE } from '../shared/domain/limits';
 import { DEFAULT_POSITION_TEMPLATE, stepsForKind } from '../shared/domain/checklist';
-import { parseReading } from '../shared/domain/units';
+import { judgeTypedReading } from '../shared/domain/typed-reading';
 import { ruleLimitText } from '../server/services/sign-off-render';
 import { bestOfAsync, type BenchResult } from './lib';
 
 const STRIPS = 120;
 const FONT = join(import.meta.dirname, '../server/pdf/fonts/ibm-plex-sans-latin-400-normal.woff');
 const b64 = (s: string | Buffer) => Buffer.from(s).toString('base64url');
+
+/** The one test-lead null every reading of the benchmark venue was typed with. */
+const LEAD_NULL = { id: 'lead-1', valueOhm: 0.1 };
 
 /** A fully tested venue as the sign-off would certify it: every step of every strip, passing. */
 function venueDocument(): CertificateDocument {
@@ -34,18 +37,14 @@ function venueDocument(): CertificateDocument {
       items.push({ position: pos.name, kind: pos.equipmentKind, assetTag });
       for (const step of stepsForKind(pos.equipmentKind, DEFAULT_LIMIT_PROFILE)) {
         const valueText = step.testKind === 'insulation' ? 'OL' : step.testKind.startsWith('piste') ? '1.8' : '0.46';
-        const parsed = parseReading(valueText, 'resistance');
-        if (!parsed.ok) throw new Error(parsed.message);
         const lengthM = pos.equipmentKind === 'reel' ? 20 : pos.equipmentKind === 'floor-cable' ? 12 : 14;
-        const v = evaluateReading({
-          profile: DEFAULT_LIMIT_PROFILE,
-          equipmentKind: pos.equipmentKind,
-          testKind: step.testKind,
-          conductors: step.conductors,
-          valueOhm: parsed.value,
-          overRange: parsed.overRange,
-          lengthM,
-        });
+        const judged = judgeTypedReading(
+          valueText,
+          { profile: DEFAULT_LIMIT_PROFILE, equipmentKind: pos.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM },
+          LEAD_NULL.valueOhm,
+        );
+        if (!judged.ok) throw new Error(judged.message);
+        const v = judged.verdict;
         readings.push({
           readingId: randomUUID(),
           stripId,
@@ -56,8 +55,10 @@ function venueDocument(): CertificateDocument {
           testKind: step.testKind,
           conductors: step.conductors,
           valueText,
-          valueOhm: parsed.value,
-          overRange: parsed.overRange,
+          valueOhm: judged.valueOhm,
+          overRange: judged.overRange,
+          leadNullOhm: judged.leadNullOhm,
+          leadNullId: LEAD_NULL.id,
           limitOhm: v.limitOhm,
           limitKind: v.limitKind,
           verdict: v.verdict,
@@ -91,6 +92,8 @@ function venueDocument(): CertificateDocument {
       rules: DEFAULT_LIMIT_PROFILE.rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
     },
     testedBy: [{ id: 'tech-1', name: 'Sam Reyes' }],
+    leadNulls: [{ ...LEAD_NULL, takenById: 'tech-1', takenBy: 'Sam Reyes', takenAt: '2026-11-21T06:58:00.000Z', meter: 'Meter 2', readings: readings.length }],
+    dismissedFaults: [],
     testedFrom: readings[0].takenAt,
     testedTo: readings[readings.length - 1].takenAt,
     signer: { id: 'td', name: 'Marco Dal Bello', role: 'Technical director' },

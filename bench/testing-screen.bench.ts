@@ -11,7 +11,16 @@ const PORT = 4402;
 const RUNS = 3;
 const BUDGET_KB = 200;
 const BUDGET_MS = 1500;
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
+const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
 const READY = 'form input[inputmode="decimal"]';
 
 interface Script {
@@ -38,7 +47,13 @@ async function visit(browser: Browser, base: string, cookie: string, path: strin
     const body = await res.body().catch(() => null);
     if (!body) return;
     const encoded = !!res.headers()['content-encoding'];
-    scripts.push({ url: new URL(res.url()).pathname, bytes: body.length, gzip: gzipSync(body, { level: 9 }).length, encoded, at: Date.now() });
+    scripts.push({
+      url: new URL(res.url()).pathname,
+      bytes: body.length,
+      gzip: gzipSync(body, { level: 9 }).length,
+      encoded,
+      at: Date.now(),
+    });
   });
   const t0 = Date.now();
   await page.goto(`${base}${path}`, { waitUntil: ready ? 'commit' : 'load' });
@@ -66,6 +81,72 @@ async function visit(browser: Browser, base: string, cookie: string, path: strin
   return { ms, scripts: before };
 }
 
+/**
+ * A strip recorded in the entry grid at 1024 × 768, the usual mix of a cable strip (continuity
+ * numbers, insulation over range, the loop): once on the keyboard (O for one OL, A for all of an
+ * item's insulation with its confirmation), once on the keypad by taps. Counts what is pressed per
+ * reading; "non-digit" is every key but 0–9 and the decimal point of the value itself.
+ */
+async function scriptedStrip(browser: Browser, base: string, cookie: string, stripId: string, by: 'keyboard' | 'keypad') {
+  const context = await browser.newContext({ serviceWorkers: 'block', viewport: { width: 1024, height: 768 }, hasTouch: true });
+  const [name, value] = cookie.split('=');
+  await context.addCookies([{ name, value, url: base }]);
+  const page = await context.newPage();
+  await page.goto(`${base}/strips/${stripId}/test`);
+  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  await page.getByTestId('entry-grid').waitFor();
+  const rows = page.locator('[data-testid="entry-grid"] tbody tr');
+  let keys = 0;
+  let nonDigit = 0;
+  let taps = 0;
+  let readings = 0;
+  const press = async (k: string) => {
+    keys += 1;
+    if (!/^[0-9.]$/.test(k)) nonDigit += 1;
+    await page.keyboard.press(k);
+  };
+  const tap = async (k: string) => {
+    taps += 1;
+    if (!/^[0-9.]$/.test(k)) nonDigit += 1;
+    await page.locator(`[data-testid="keypad"] [data-key="${k}"]`).tap();
+  };
+  const confirmAllOl = page.getByRole('alertdialog', { name: 'All insulation OL?' }).getByRole('button');
+  for (let r = 0; r < (await rows.count()); r++) {
+    const steps = await rows
+      .nth(r)
+      .locator('[data-cell]')
+      .evaluateAll((els) => els.map((e) => e.getAttribute('data-cell')!));
+    const number = r < 2 ? '0.5' : '1.3';
+    for (const step of steps) {
+      // The whole item's insulation goes at once, from its first pair.
+      if (step.startsWith('insulation') && step !== 'insulation A-B') continue;
+      const input = rows.nth(r).locator(`[data-cell="${step}"] input`);
+      await input.waitFor();
+      await page.waitForFunction((el) => el === document.activeElement, await input.elementHandle());
+      if (step.startsWith('insulation')) {
+        if (by === 'keyboard') await press('a');
+        else await tap('all-ol');
+        await confirmAllOl.first().waitFor();
+        if (by === 'keyboard') await press('Enter');
+        else {
+          taps += 1;
+          nonDigit += 1;
+          await confirmAllOl.first().tap();
+        }
+        readings += steps.filter((s) => s.startsWith('insulation')).length;
+        continue;
+      }
+      const v = step.startsWith('loop') ? (r < 2 ? '1.0' : '2.5') : number;
+      for (const ch of v) await (by === 'keyboard' ? press(ch) : tap(ch));
+      await (by === 'keyboard' ? press('Enter') : tap('enter'));
+      readings += 1;
+    }
+  }
+  await page.getByRole('link', { name: /Strip complete/ }).waitFor();
+  await context.close();
+  return { readings, keysPerReading: (keys + taps) / readings, nonDigitPerReading: nonDigit / readings, tapsPerReading: taps / readings };
+}
+
 export async function run(): Promise<BenchResult> {
   execFileSync('npx', ['vite', 'build', '--logLevel', 'error'], { stdio: 'inherit' });
   const server = await startServer(PORT);
@@ -75,7 +156,10 @@ export async function run(): Promise<BenchResult> {
     const headers = { Cookie: cookie };
     const venues = (await (await fetch(`${server.base}/api/venues`, { headers })).json()) as { id: string; name: string }[];
     const hall = venues.find((v) => v.name === 'Riverside Sports Hall') ?? venues[0];
-    const strips = (await (await fetch(`${server.base}/api/venues/${hall.id}/strips`, { headers })).json()) as { id: string; label: string }[];
+    const strips = (await (await fetch(`${server.base}/api/venues/${hall.id}/strips`, { headers })).json()) as {
+      id: string;
+      label: string;
+    }[];
     // A strip not yet tested: the screen a technician opens next.
     const strip = strips.find((s) => s.label === 'Strip 12') ?? strips[0];
     const path = `/strips/${strip.id}/test`;
@@ -88,15 +172,20 @@ export async function run(): Promise<BenchResult> {
     const readyMs = median(runs.map((r) => r.ms));
     const floorMs = median(floors.map((r) => r.ms));
     const scripts = runs[0].scripts;
+    const byId = (label: string) => strips.find((s) => s.label === label)!.id;
+    const typed = await scriptedStrip(browser, server.base, cookie, byId('Strip 13'), 'keyboard');
+    const tapped = await scriptedStrip(browser, server.base, cookie, byId('Strip 14'), 'keypad');
+    const keysOk = typed.nonDigitPerReading <= 1 && tapped.nonDigitPerReading <= 1;
     const gzipKB = scripts.reduce((s, x) => s + x.gzip, 0) / 1000;
     const rawKB = scripts.reduce((s, x) => s + x.bytes, 0) / 1000;
-    const ratio = Math.max(gzipKB / BUDGET_KB, readyMs / BUDGET_MS);
+    const ratio = Math.max(gzipKB / BUDGET_KB, readyMs / BUDGET_MS, typed.nonDigitPerReading, tapped.nonDigitPerReading);
     return {
       name: 'Testing screen in Chromium, CPU throttled 4×',
       ratio,
-      ratioMeaning: 'the larger of (JS gzip ÷ 200 KB) and (time to first reading input ÷ 1.5 s)',
-      target: '≤ 1 (under 200 KB gzip and under 1.5 s)',
-      pass: gzipKB < BUDGET_KB && readyMs < BUDGET_MS,
+      ratioMeaning:
+        'the largest of (JS gzip ÷ 200 KB), (time to first reading input ÷ 1.5 s) and non-digit keys per reading in the grid (keyboard, keypad)',
+      target: '≤ 1 (under 200 KB gzip, under 1.5 s, at most one non-digit key or tap per reading)',
+      pass: gzipKB < BUDGET_KB && readyMs < BUDGET_MS && keysOk,
       figures: {
         scripts: scripts.length,
         jsKB: +rawKB.toFixed(1),
@@ -105,6 +194,11 @@ export async function run(): Promise<BenchResult> {
         readyMs: Math.round(readyMs),
         readyRunsMs: runs.map((r) => Math.round(r.ms)).join(' / '),
         staticNavigationMs: Math.round(floorMs),
+        gridReadings: typed.readings,
+        gridKeysPerReading: +typed.keysPerReading.toFixed(2),
+        gridNonDigitKeysPerReading: +typed.nonDigitPerReading.toFixed(2),
+        gridTapsPerReading: +tapped.tapsPerReading.toFixed(2),
+        gridNonDigitTapsPerReading: +tapped.nonDigitPerReading.toFixed(2),
         largest: [...scripts]
           .sort((a, b) => b.gzip - a.gzip)
           .slice(0, 4)

@@ -1,6 +1,6 @@
 // Verdict evaluation through the shared engine: readings per second (parse + judge).
-import { DEFAULT_LIMIT_PROFILE, evaluateReading } from '../shared/domain/limits';
-import { parseReading } from '../shared/domain/units';
+import { DEFAULT_LIMIT_PROFILE } from '../shared/domain/limits';
+import { judgeTypedReading } from '../shared/domain/typed-reading';
 import { bestOf, type BenchResult } from './lib';
 
 export async function run(): Promise<BenchResult> {
@@ -11,17 +11,16 @@ export async function run(): Promise<BenchResult> {
     for (let i = 0; i < n; i++) {
       const text = typed[i % typed.length];
       const insulation = i % 2 === 1;
-      const p = parseReading(text, 'resistance');
-      if (!p.ok) continue;
-      const v = evaluateReading({
+      // The same call the server makes for a reading typed with no test-lead null.
+      const j = judgeTypedReading(text, {
         profile: DEFAULT_LIMIT_PROFILE,
         equipmentKind: 'floor-cable',
         testKind: insulation ? 'insulation' : 'continuity',
         conductors: insulation ? 'A-B' : 'A',
-        valueOhm: p.value,
-        overRange: p.overRange,
         lengthM: 12,
       });
+      if (!j.ok) continue;
+      const v = j.verdict;
       if (v.verdict === 'fail') fails++;
     }
     return fails;

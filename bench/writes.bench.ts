@@ -69,6 +69,10 @@ export async function run(): Promise<BenchResult> {
       for (const p of strip.positions)
         for (const st of p.steps) steps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
     }
+    // The tablet nulls the test leads once and names that null in every reading.
+    const leadNullId = uuidv7();
+    const lead = await fetch(`${server.base}/api/lead-nulls`, { method: 'POST', headers, body: JSON.stringify({ id: leadNullId, value: '0.05', meter: 'Meter 1' }) });
+    if (!lead.ok) throw new Error(`the test-lead null was refused: ${lead.status}`);
     let i = 0;
     const load = (amount: number) => autocannon({
       url: server.base,
@@ -82,8 +86,8 @@ export async function run(): Promise<BenchResult> {
           headers,
           setupRequest: (req) => {
             const step = steps[i++ % steps.length];
-            // As the tablet sends it: its own id and the time it was typed.
-            return { ...req, body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString() }) };
+            // As the tablet sends it: its own id, the time it was typed and the lead null it used.
+            return { ...req, body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString(), leadNullId }) };
           },
         },
       ],

@@ -15,9 +15,12 @@ test('a technician locates the demo short from both ends, sees it on the drawing
   await expect(page.getByText(/high-voltage insulation tester/)).toBeVisible();
 
   const readings = page.getByRole('form', { name: 'Readings' });
-  await expect(readings.getByRole('radio', { name: 'Loop, both ends' })).toBeChecked();
-  await readings.getByLabel(/Loop reading at the near end/).fill('0.855');
-  await readings.getByLabel(/Loop reading at the far end/).fill('645m'); // as a meter shows it: 645 mΩ
+  await expect(readings.getByRole('radio', { name: 'Loop resistance from both ends' })).toBeChecked();
+  // A thousands separator is not guessed: both readings are offered.
+  await readings.getByLabel(/Loop reading from the near end/).fill('1,000');
+  await expect(readings.getByText('did you mean 1000 Ω or 1.000 Ω?', { exact: false })).toBeVisible();
+  await readings.getByLabel(/Loop reading from the near end/).fill('0.855');
+  await readings.getByLabel(/Loop reading from the far end/).fill('645m'); // as a meter shows it: 645 mΩ
   await readings.getByLabel(/^Cable length/).fill('12');
   await readings.getByLabel(/A sound conductor of this cable/).fill('0.45');
 
@@ -35,14 +38,32 @@ test('a technician locates the demo short from both ends, sees it on the drawing
   await expect(page.getByText('✓ Checked by the server')).toBeVisible();
 
   // Feet: 7.4 m / 0.3048 = 24.28 ft; the typed length keeps its metres.
-  await page.getByRole('button', { name: /Lengths shown in metres/ }).click();
+  await page.getByRole('group', { name: 'Lengths' }).getByText('ft', { exact: true }).click();
   await expect(distance).toHaveText('24.3 ft');
-  await expect(readings.getByLabel(/^Cable length/)).toHaveValue('12 m');
+  await expect(readings.getByLabel(/^Cable length \(ft\)/)).toHaveValue('39.37');
   await expect(page.getByRole('img', { name: /fault about 24\.3 ft from the near end/ })).toBeVisible();
   await expect(page.getByText('✓ Checked by the server')).toBeVisible();
+  await page.screenshot({ path: 'test-results/fault-locator-feet.png', fullPage: true });
   // Back to metres, so the preference is as the demo had it.
-  await page.getByRole('button', { name: /Lengths shown in feet/ }).click();
+  await page.getByRole('group', { name: 'Lengths' }).getByText('m', { exact: true }).click();
   await expect(distance).toHaveText('7.4 m');
+  await expect(readings.getByLabel(/^Cable length \(m\)/)).toHaveValue('12');
+
+  // Murray loop: the wiring sketch says which arm goes where; 600 m with the faulted line's arm at 1
+  // and the sound line's at 3 puts the fault at 2 · 600 · 1/4 = 300 m (x = 2L · a_faulted / (a_faulted + a_sound)).
+  await readings.getByText('Murray loop bridge').click();
+  await expect(page.getByRole('img', { name: /Wiring of the Murray loop: the bridge arm on the faulted line and the bridge arm on the sound line/ })).toBeVisible();
+  await readings.getByLabel(/^Cable length/).fill('600');
+  await readings.getByLabel(/^Bridge arm on the faulted line/).fill('3');
+  await readings.getByLabel(/^Bridge arm on the sound line/).fill('1');
+  // The arms the wrong way round would put the fault beyond the far end: refused on the faulted arm.
+  await expect(readings.locator('#locate-faultedArm-error')).toContainText('beyond the end');
+  await readings.getByLabel(/^Bridge arm on the faulted line/).fill('1');
+  await readings.getByLabel(/^Bridge arm on the sound line/).fill('3');
+  await expect(distance).toHaveText('300 m');
+  await readings.getByRole('button', { name: 'Calculate' }).click();
+  await expect(page.getByText('✓ Checked by the server')).toBeVisible();
+  await page.screenshot({ path: 'test-results/fault-locator-murray.png', fullPage: true });
 
   // A noisy trace with a short 96 ns after the incident edge, 1 ns per sample.
   const csv = traceCsv(synthesiseTrace({ samples: 2000, dtS: 1e-9, roundTripS: 96e-9, rho: -1, noiseV: 0.01, seed: 5 }));

@@ -1,7 +1,8 @@
-// The hall's Wi-Fi drops while Sam tests Strip 20: the readings are kept on the tablet with their
-// verdicts, survive a reload with no network, and reach the server exactly once, in one batch, when
-// the network is back (even when its answer is lost on the way). A reading whose step the director
-// removed meanwhile ends as a problem Sam can see and decide on, not as a loss.
+// The hall's Wi-Fi drops while Sam tests Strip 20: the test-lead null set offline and the readings
+// typed with it are kept on the tablet with their verdicts, survive a reload with no network, and
+// reach the server exactly once, in one batch, when the network is back (even when its answer is
+// lost on the way), each reading naming that null, which is sent before them. A reading whose step
+// the director removed meanwhile ends as a problem Sam can see and decide on, not as a loss.
 import type { Page } from '@playwright/test';
 import { apiAs, expect, signIn, test } from './fixtures';
 
@@ -23,6 +24,11 @@ interface TableRow {
   id: string;
   stripLabel: string;
   stepId: string;
+  valueText: string;
+  valueOhm: number | null;
+  leadOffsetOhm: number | null;
+  leadNullId: string | null;
+  leadNullMeter: string | null;
   takenAt: string;
   receivedAt: string | null;
 }
@@ -89,6 +95,13 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await context.setOffline(true);
   await expect(indicator(page)).toHaveAttribute('data-state', 'offline');
 
+  // Offline, Sam nulls the test leads: 0.1 Ω with the tips touching, subtracted from every reading.
+  await page.getByRole('button', { name: 'Null the leads' }).click();
+  await page.getByLabel('Leads with tips touching read (Ω)').fill('0.1');
+  await page.getByLabel('Meter (optional)').fill('Meter 1');
+  await page.keyboard.press('Enter');
+  await expect(page.getByTestId('lead-null')).toContainText('0.1 Ω');
+
   const rows = page.locator('li[data-step]');
   await expect(rows).toHaveCount(28);
   const positions = page.locator('section[aria-label]');
@@ -125,6 +138,10 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await expect(page.getByTestId('queued')).toHaveCount(28);
   await expect(page.getByTestId('queued').filter({ hasText: 'Pass' })).toHaveCount(28);
   await expect(indicator(page)).toHaveText('Offline · 28 readings waiting');
+  // The strip's own sticky bar says the same, and counts the readings still on the tablet.
+  await expect(page.getByTestId('strip-bar-sync')).toHaveAttribute('data-state', 'offline');
+  await expect(page.getByTestId('strip-bar-sync')).toHaveText('Offline · 28 readings waiting');
+  await expect(page.getByTestId('strip-bar-progress')).toHaveText('28 of 28 measured · 28 waiting to send');
   await page.screenshot({ path: test.info().outputPath('offline-after-reload.png'), fullPage: true });
   // Walking to the next strip works offline too.
   await page.goto(nextStripId);
@@ -136,8 +153,14 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   // know): the replay must not record them twice. 28 readings waiting go as one batch.
   let lost = 0;
   const sent = { single: 0, batch: 0 };
+  const order: string[] = [];
+  await context.route(/\/api\/lead-nulls$/, async (route) => {
+    if (route.request().method() === 'POST') order.push('lead-null');
+    return route.continue();
+  });
   await context.route(/\/api\/readings(\/batch)?$/, async (route) => {
     if (route.request().method() !== 'POST') return route.continue();
+    order.push('readings');
     if (route.request().url().endsWith('/batch')) sent.batch += 1;
     else sent.single += 1;
     if (lost === 0) {
@@ -158,6 +181,8 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   expect(lost).toBe(1);
   // The lost batch and its replay: two requests for 28 readings, none sent one by one.
   expect(sent).toEqual({ single: 0, batch: 2 });
+  // The null set offline went first, once (the server has it for the replay).
+  expect(order).toEqual(['lead-null', 'readings', 'readings']);
 
   // The server holds each reading exactly once: 27 readings of Strip 20, one per remaining step.
   const table = await apiAs<TableRow[]>(director, 'GET', `/api/venues/${venueId}/readings`);
@@ -172,7 +197,21 @@ test('readings typed offline survive a reload, reach the server exactly once, an
     expect(r.takenAt < backOnline, `${r.takenAt} taken before ${backOnline}`).toBe(true);
     expect(r.receivedAt! >= backOnline, `${r.receivedAt} received after ${backOnline}`).toBe(true);
   }
+  // Every one names the null set offline (recorded on the server before them) and has it subtracted.
+  const nullIds = new Set(strip20.map((r) => r.leadNullId));
+  expect(nullIds.size).toBe(1);
+  expect([...nullIds][0]).toBeTruthy();
+  for (const r of strip20) {
+    expect(r.leadOffsetOhm).toBe(0.1);
+    expect(r.leadNullMeter).toBe('Meter 1');
+    if (r.valueText !== 'OL') expect(r.valueOhm).toBeCloseTo(Number(r.valueText) - 0.1, 9);
+  }
   await expect(page.getByTestId('strip-status')).toContainText('Clear');
+  // Latest shows the value judged, with its unit, and what was typed.
+  const firstCable = page.locator('section[aria-label="Left floor cable"] li[data-step]').first();
+  await expect(firstCable.getByTestId('latest')).toContainText('0.4 Ω');
+  await expect(firstCable.getByTestId('latest-typed')).toHaveText('typed 0.5 Ω − 0.1 Ω lead null');
+  await page.screenshot({ path: test.info().outputPath('strip-after-sync.png'), fullPage: true });
 
   // The reading of the removed step is a problem with what to do, its value kept.
   await indicator(page).click();
@@ -182,7 +221,8 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await expect(problem).toHaveAttribute('data-kind', 'step-removed');
   await expect(problem).toContainText('Its step was taken off the checklist');
   await expect(problem).toContainText(STRIP);
-  await expect(problem.getByTestId('queued-value')).toHaveText('2.5 Ω');
+  // 2.5 Ω typed less the 0.1 Ω lead null.
+  await expect(problem.getByTestId('queued-value')).toHaveText('2.4 Ω');
   await expect(problem.getByLabel('Record it on')).toBeVisible();
   await page.screenshot({ path: test.info().outputPath('problem-list.png'), fullPage: true });
 
@@ -190,7 +230,7 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await problem.getByRole('button', { name: 'Set it aside…' }).click();
   await problem.getByRole('button', { name: 'Yes, do not send it' }).click();
   await expect(page.getByTestId('problem')).toHaveCount(0);
-  await expect(page.getByTestId('set-aside')).toContainText('2.5 Ω');
+  await expect(page.getByTestId('set-aside')).toContainText('2.4 Ω');
   await expect(indicator(page)).toHaveText('Online · all sent');
 
   // Still exactly once after everything settled.

@@ -78,7 +78,9 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   await expect(page.getByRole('heading', { name: `Fault on ${STRIP} · Left floor cable` })).toBeVisible();
   await expect(page.getByLabel('Loop resistance from both ends')).toBeChecked();
   await expect(page.getByLabel('Cable length (m)')).toHaveValue('12');
-  await page.getByLabel(/Loop reading from the apparatus end/).fill('0.917');
+  // The methods that fit an A–B short, the one to try first first, each with why.
+  await expect(page.getByTestId('method-reason')).toContainText('the short’s own resistance drops out');
+  await page.getByLabel(/Loop reading from the near end/).fill('0.917');
   await page.getByLabel(/Loop reading from the far end/).fill('0.683');
   await page.getByRole('button', { name: 'Estimate and save' }).click();
   // x = (R_A − R_B + 2rL) / (4r) with r = 0.5 Ω / 12 m: (0.917 − 0.683 + 1.0) / (1/6) ≈ 7.4 m
@@ -90,6 +92,12 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   await expect(page.getByTestId('new-length')).toHaveText('12 m now → 10.5 m after the cut');
   await page.getByRole('button', { name: 'Record the repair' }).click();
   await expect(page.getByText('Section cut out: 1.5 m removed, 12 m → 10.5 m')).toBeVisible();
+  // The estimate stays on the cable as it was when it was made, and says so.
+  await expect(page.getByTestId('shortened-since')).toHaveText('Located on the item as it was then, 12 m long; it is 10.5 m now, after a cut-out.');
+  await expect(page.getByTestId('estimate')).toContainText('from the far end of the 12 m it was then');
+  // Saved once: the form is disarmed, so a second tap cannot record the repair twice.
+  await expect(page.getByTestId('repair-disarmed')).toBeVisible();
+  await expect(page.getByRole('button', { name: 'Record the repair' })).toHaveCount(0);
 
   // Retest the cable: all seven steps again, keyboard only.
   await page.getByRole('link', { name: 'Retest the affected steps →' }).click();
@@ -100,8 +108,13 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
     const step = (await retestSteps.nth(s).getAttribute('data-step'))!;
     await typeAndRecord(page, retestSteps.nth(s).locator('input[id^="reading-"]'), step.startsWith('insulation') ? 'OL' : step.startsWith('loop') ? '0.9' : '0.45');
     await expect(retestSteps.nth(s).getByTestId('latest')).toContainText('Pass');
+    // Each step measured again since the repair is marked as its retest.
+    await expect(retestSteps.nth(s)).toHaveAttribute('data-retested', 'yes');
+    if (s < 6) await expect(page.getByTestId('retest-banner')).toBeVisible();
   }
   await expect(page.getByTestId('strip-status')).toContainText('Clear');
+  await expect(page.getByTestId('retest-done')).toHaveText('Fault closed · strip clear');
+  await expect(page.getByTestId('retest-banner')).toHaveCount(0);
 
   // The board follows on its own.
   await expect(tile).toHaveAttribute('data-status', 'clear', { timeout: 30_000 });

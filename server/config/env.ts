@@ -53,6 +53,8 @@ const envSchema = z
     // Every API answer checked against its contract (shared/contracts): on in tests, npm run dev and
     // the end-to-end run; off by default, so a venue's server does no extra work per request.
     CHECK_RESPONSES: z.enum(['on', 'off']).optional(),
+    // The longest result a fault-location method may give when no cable length is sent.
+    FAULT_MAX_CABLE_LENGTH_M: z.coerce.number().positive().max(1e6).default(2000),
   })
   .transform((e) => ({
     ...e,

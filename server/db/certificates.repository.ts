@@ -20,6 +20,15 @@ export function certificatesRepository(db: Db | Tx) {
         .where(eq(certificates.venueId, venueId))
         .orderBy(desc(certificates.issuedAt), asc(certificates.kind), asc(strips.sortOrder))
         .all(),
+    /** Every certificate of one sign-off (its venue certificate and strip certificates). */
+    ofSignOff: (signOffId: string) =>
+      db
+        .select({ certificate: certificates, stripLabel: strips.label })
+        .from(certificates)
+        .leftJoin(strips, eq(certificates.stripId, strips.id))
+        .where(eq(certificates.signOffId, signOffId))
+        .orderBy(asc(strips.sortOrder))
+        .all(),
     byNumber: (number: string) => db.select().from(certificates).where(eq(certificates.number, number)).get(),
     bySha: (sha256: string) => db.select().from(certificates).where(eq(certificates.pdfSha256, sha256)).all(),
     revoke: (id: string, v: { at: string; reason: string; by: string }) =>

@@ -121,8 +121,10 @@ function historyQueries(db: Db | Tx) {
         .all(),
     repairsOf: (equipmentId: string) =>
       db
-        .select({ repair: repairs, byName: users.name })
+        .select({ repair: repairs, byName: users.name, venueId: strips.venueId })
         .from(repairs)
+        .innerJoin(faults, eq(repairs.faultId, faults.id))
+        .innerJoin(strips, eq(faults.stripId, strips.id))
         .leftJoin(users, eq(repairs.createdBy, users.id))
         .where(or(eq(repairs.equipmentId, equipmentId), eq(repairs.replacementEquipmentId, equipmentId)))
         .orderBy(asc(repairs.createdAt))

@@ -1,4 +1,5 @@
-import { and, asc, desc, eq, inArray, ne, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, ne, sql } from 'drizzle-orm';
+import { alias } from 'drizzle-orm/sqlite-core';
 import type { Db, Tx } from './client';
 import { equipment, faultEstimates, faults, positions, repairs, strips, users } from './schema';
 import { prepared } from './prepared';
@@ -7,6 +8,8 @@ export type FaultRow = typeof faults.$inferSelect;
 export type FaultEstimateRow = typeof faultEstimates.$inferSelect;
 export type RepairRow = typeof repairs.$inferSelect;
 
+const dismissers = alias(users, 'dismissers');
+
 const listColumns = {
   fault: faults,
   stripLabel: strips.label,
@@ -14,18 +17,22 @@ const listColumns = {
   positionName: positions.name,
   equipment,
   openedByName: users.name,
+  dismissedByName: dismissers.name,
 };
 
-export function faultsRepository(db: Db | Tx) {
-  const base = () =>
-    db
-      .select(listColumns)
-      .from(faults)
-      .innerJoin(strips, eq(faults.stripId, strips.id))
-      .innerJoin(positions, eq(faults.positionId, positions.id))
-      .leftJoin(equipment, eq(faults.equipmentId, equipment.id))
-      .leftJoin(users, eq(faults.openedBy, users.id));
+/** Faults with what a list shows beside them: strip, position, item, who opened and dismissed them. */
+const listQuery = (db: Db | Tx) =>
+  db
+    .select(listColumns)
+    .from(faults)
+    .innerJoin(strips, eq(faults.stripId, strips.id))
+    .innerJoin(positions, eq(faults.positionId, positions.id))
+    .leftJoin(equipment, eq(faults.equipmentId, equipment.id))
+    .leftJoin(users, eq(faults.openedBy, users.id))
+    .leftJoin(dismissers, eq(faults.dismissedBy, dismissers.id));
 
+export function faultsRepository(db: Db | Tx) {
+  const base = () => listQuery(db);
   return {
     findById: (id: string) => base().where(eq(faults.id, id)).get(),
     ofVenue: (venueId: string) => base().where(eq(strips.venueId, venueId)).orderBy(desc(faults.openedAt), asc(strips.sortOrder)).all(),
@@ -45,7 +52,13 @@ export function faultsRepository(db: Db | Tx) {
           .prepare(),
       ).get({ stepId }),
     ofReading: (readingId: string) =>
-      prepared(db, 'faults.ofReading', (d) => d.select().from(faults).where(eq(faults.readingId, sql.placeholder('readingId'))).prepare()).get({
+      prepared(db, 'faults.ofReading', (d) =>
+        d
+          .select()
+          .from(faults)
+          .where(eq(faults.readingId, sql.placeholder('readingId')))
+          .prepare(),
+      ).get({
         readingId,
       }),
     repairedOfPosition: (positionId: string) =>
@@ -88,6 +101,13 @@ export function faultsRepository(db: Db | Tx) {
     latestRepairOf: (faultId: string) =>
       db.select().from(repairs).where(eq(repairs.faultId, faultId)).orderBy(desc(repairs.createdAt)).get(),
     insertRepair: (row: typeof repairs.$inferInsert) => db.insert(repairs).values(row).run(),
+
+    /** The venue's faults dismissed by its director, in strip order (for the certificate). */
+    dismissedOfVenue: (venueId: string) =>
+      base()
+        .where(and(eq(strips.venueId, venueId), isNotNull(faults.dismissedAt)))
+        .orderBy(asc(strips.sortOrder), asc(positions.sortOrder), asc(faults.dismissedAt))
+        .all(),
 
     /** Which strip of the venue (if any) has this item in one of its positions. */
     stripHoldingItem: (venueId: string, equipmentId: string) =>

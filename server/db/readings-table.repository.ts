@@ -1,6 +1,6 @@
 import { asc, eq, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
-import { equipment, limitProfiles, positions, readings, steps, strips, users } from './schema';
+import { equipment, leadNulls, limitProfiles, positions, readings, steps, strips, users } from './schema';
 
 // Every reading of a venue, flat, for the readings table and its CSV export.
 export function readingsTableRepository(db: Db | Tx) {
@@ -26,6 +26,8 @@ export function readingsTableRepository(db: Db | Tx) {
           valueOhm: readings.valueOhm,
           overRange: readings.overRange,
           leadOffsetOhm: readings.leadOffsetOhm,
+          leadNullId: readings.leadNullId,
+          leadNullMeter: leadNulls.meter,
           verdict: readings.verdict,
           limitOhm: readings.limitOhm,
           limitKind: readings.limitKind,
@@ -49,6 +51,7 @@ export function readingsTableRepository(db: Db | Tx) {
         .innerJoin(strips, eq(positions.stripId, strips.id))
         .leftJoin(equipment, eq(readings.equipmentId, equipment.id))
         .leftJoin(limitProfiles, eq(readings.profileId, limitProfiles.id))
+        .leftJoin(leadNulls, eq(readings.leadNullId, leadNulls.id))
         .leftJoin(users, eq(readings.takenBy, users.id))
         .where(eq(strips.venueId, venueId))
         .orderBy(asc(strips.sortOrder), asc(positions.sortOrder), asc(steps.sortOrder), asc(readings.takenAt), sql`${readings}.rowid`)

@@ -20,11 +20,12 @@ export function readingsRepository(db: Db | Tx) {
 
     /**
      * Everything recording a reading on a step needs, in one query: the step and where it sits, who
-     * may test it, whether this reading id was seen before, and the faults a verdict may change.
+     * may test it, whether this reading id was seen before, the faults a verdict may change and the
+     * technician's test-lead null.
      * Each separate look-up cost a statement and a row mapping on every write (profiled under
      * `npm run bench writes`); the columns are the ones the write uses, not whole rows.
      */
-    writeContext: (stepId: string, userId: string, readingId: string) =>
+    writeContext: (stepId: string, userId: string, readingId: string, leadNullId: string | null) =>
       prepared(db, 'readings.writeContext', (d) =>
         d
           .select({
@@ -38,6 +39,8 @@ export function readingsRepository(db: Db | Tx) {
             existingHash: sql<string | null>`(select r.request_hash from readings r where r.id = ${sql.placeholder('readingId')})`,
             unclosedFaultId: sql<string | null>`(select f.id from faults f where f.step_id = ${steps.id} and f.status <> 'closed' order by f.opened_at desc limit 1)`,
             hasRepairedFault: sql<boolean>`exists(select 1 from faults f where f.position_id = ${positions.id} and f.status = 'repaired')`.mapWith(Boolean),
+            // The test-lead null named by the reading, if it is this technician's own.
+            leadNullOhm: sql<number | null>`(select ln.value_ohm from lead_nulls ln where ln.id = ${sql.placeholder('leadNullId')} and ln.taken_by = ${sql.placeholder('userId')})`,
           })
           .from(steps)
           .innerJoin(positions, eq(steps.positionId, positions.id))
@@ -47,7 +50,7 @@ export function readingsRepository(db: Db | Tx) {
           .leftJoin(equipment, eq(positions.equipmentId, equipment.id))
           .where(eq(steps.id, sql.placeholder('stepId')))
           .prepare(),
-      ).get({ stepId, userId, readingId }),
+      ).get({ stepId, userId, readingId, leadNullId }),
 
     insert: (row: NewReading) =>
       prepared(db, `readings.insert:${columnsKey(row)}`, (d) => d.insert(readings).values(placeholdersOf(row)).prepare()).run(row),

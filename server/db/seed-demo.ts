@@ -6,8 +6,8 @@ import type { Db, Tx } from './client';
 import * as t from './schema';
 import { hashPassword, type ScryptParams } from '../auth/password';
 import { newId, sha256Hex } from '../lib/ids';
-import { DEFAULT_LIMIT_PROFILE, evaluateReading, type EquipmentKind } from '../../shared/domain/limits';
-import { parseReading } from '../../shared/domain/units';
+import { DEFAULT_LIMIT_PROFILE, type EquipmentKind } from '../../shared/domain/limits';
+import { judgeTypedReading } from '../../shared/domain/typed-reading';
 import { locateByLoopBothEnds } from '../../shared/domain/fault-location';
 import { FLOOR_CABLE_M, itemMaker, makeVenue, REEL_M, type SeedPosition } from './seed-demo-plan';
 
@@ -112,7 +112,7 @@ function build(tx: Tx, passwordHash: string) {
     makeItem,
   });
 
-  recordDemoReadings(tx, { hall, annex, profileId, sam: user.sam, lee: user.lee });
+  recordDemoReadings(tx, { orgId, hall, annex, profileId, sam: user.sam, lee: user.lee });
   tx.update(t.venues).set({ status: 'testing' }).where(eq(t.venues.id, hall.id)).run();
   tx.update(t.venues).set({ status: 'testing' }).where(eq(t.venues.id, annex.id)).run();
 }
@@ -120,7 +120,7 @@ function build(tx: Tx, passwordHash: string) {
 /** Sports Hall strips 1–10 tested (with the failures the faults come from), strip 11 half done; the annex all done. */
 function recordDemoReadings(
   tx: Tx,
-  v: { hall: ReturnType<typeof makeVenue>; annex: ReturnType<typeof makeVenue>; profileId: string; sam: string; lee: string },
+  v: { orgId: string; hall: ReturnType<typeof makeVenue>; annex: ReturnType<typeof makeVenue>; profileId: string; sam: string; lee: string },
 ) {
   const { hall, annex, profileId } = v;
   // Sports Hall: strips 1–10 tested, strip 11 half done, the rest not started.
@@ -139,7 +139,14 @@ function recordDemoReadings(
 
   let n = 0;
   const takenAt = (minutes: number) => new Date(Date.parse('2026-11-21T06:40:00Z') + minutes * 60_000).toISOString();
-  const record = (venue: typeof hall, stripFilter: (i: number) => boolean, plan: Plan, by: string, halfStrip?: number) => {
+  const record = (
+    venue: typeof hall,
+    stripFilter: (i: number) => boolean,
+    plan: Plan,
+    by: string,
+    halfStrip?: number,
+    leadNull?: { id: string; valueOhm: number },
+  ) => {
     venue.strips.forEach((strip, si) => {
       const partial = si === halfStrip;
       if (!stripFilter(si) && !partial) return;
@@ -158,6 +165,7 @@ function recordDemoReadings(
             profileId,
             takenBy: by,
             takenAt: takenAt(si * 9 + pi * 1.5 + n * 0.01),
+            leadNull,
           });
           if (plan[key] && step.testKind !== 'loop' && readingId.verdict === 'fail') {
             openFault(tx, { strip, pos, step, readingId: readingId.id, by, typed, near, far });
@@ -167,7 +175,12 @@ function recordDemoReadings(
     });
   };
   record(hall, (i) => i < 10, hallPlan, v.sam, 10);
-  record(annex, () => true, {}, v.lee);
+  // Lee nulled the test leads before testing the Annex; every Annex reading has it subtracted.
+  const leeNull = { id: newId(), valueOhm: 0.05 };
+  tx.insert(t.leadNulls)
+    .values({ ...leeNull, orgId: v.orgId, takenBy: v.lee, valueText: '0.05', meter: 'Meter 2', takenAt: takenAt(-5), receivedAt: takenAt(-5) })
+    .run();
+  record(annex, () => true, {}, v.lee, undefined, leeNull);
 }
 
 function typicalValue(kind: EquipmentKind, testKind: string, i: number): string {
@@ -200,19 +213,16 @@ function insertReading(
     profileId: string;
     takenBy: string;
     takenAt: string;
+    leadNull: { id: string; valueOhm: number } | undefined;
   },
 ) {
-  const parsed = parseReading(r.typed, 'resistance');
-  if (!parsed.ok) throw new Error(`demo reading "${r.typed}" does not parse: ${parsed.message}`);
-  const verdict = evaluateReading({
-    profile: DEFAULT_LIMIT_PROFILE,
-    equipmentKind: r.kind,
-    testKind: r.step.testKind,
-    conductors: r.step.conductors,
-    valueOhm: parsed.value,
-    overRange: parsed.overRange,
-    lengthM: r.lengthM,
-  });
+  const judged = judgeTypedReading(
+    r.typed,
+    { profile: DEFAULT_LIMIT_PROFILE, equipmentKind: r.kind, testKind: r.step.testKind, conductors: r.step.conductors, lengthM: r.lengthM },
+    r.leadNull?.valueOhm ?? null,
+  );
+  if (!judged.ok) throw new Error(`demo reading "${r.typed}" is refused: ${judged.message}`);
+  const verdict = judged.verdict;
   const id = newId();
   tx.insert(t.readings)
     .values({
@@ -220,8 +230,10 @@ function insertReading(
       stepId: r.step.id,
       equipmentId: r.equipmentId,
       valueText: r.typed,
-      valueOhm: parsed.value,
-      overRange: parsed.overRange,
+      valueOhm: judged.valueOhm,
+      overRange: judged.overRange,
+      leadOffsetOhm: judged.leadNullOhm,
+      leadNullId: r.leadNull?.id ?? null,
       verdict: verdict.verdict,
       limitOhm: verdict.limitOhm,
       limitKind: verdict.limitKind,
@@ -287,6 +299,7 @@ function openFault(
       distanceM: estimate.distanceM,
       uncertaintyM: estimate.uncertaintyM,
       resultJson: JSON.stringify(estimate),
+      itemLengthM: FLOOR_CABLE_M,
       createdBy: f.by,
       createdAt: '2026-11-21T07:48:00.000Z',
     })

@@ -6,6 +6,10 @@ import { prepared } from './prepared';
 export type VenueRow = typeof venues.$inferSelect;
 export type EventRow = typeof events.$inferSelect;
 
+// Venue lists in one stable order: newest event first, then the venue's name as people read it
+// (case-insensitive), then the event's name and the id so that equal names never swap.
+const VENUE_ORDER = [desc(events.startsOn), sql`${venues.name} collate nocase`, asc(events.name), asc(venues.id)] as const;
+
 export function venuesRepository(db: Db | Tx) {
   return {
     findVenue: (id: string) =>
@@ -34,7 +38,7 @@ export function venuesRepository(db: Db | Tx) {
         .from(venues)
         .innerJoin(events, eq(venues.eventId, events.id))
         .where(eq(events.orgId, orgId))
-        .orderBy(desc(events.startsOn), asc(venues.name))
+        .orderBy(...VENUE_ORDER)
         .all(),
     venuesAssignedTo: (userId: string) =>
       db
@@ -43,7 +47,7 @@ export function venuesRepository(db: Db | Tx) {
         .innerJoin(events, eq(venues.eventId, events.id))
         .innerJoin(venueTechnicians, eq(venueTechnicians.venueId, venues.id))
         .where(eq(venueTechnicians.userId, userId))
-        .orderBy(desc(events.startsOn), asc(venues.name))
+        .orderBy(...VENUE_ORDER)
         .all(),
     stripsOf: (venueId: string) =>
       db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder)).all(),

@@ -6,17 +6,9 @@ import type { CertificatePayload, CertifiedReading } from '../signing/certificat
 import { formatOhm } from '../../shared/domain/units';
 import { stepsForKind } from '../../shared/domain/checklist';
 import type { TestKind } from '../../shared/domain/limits';
-import {
-  formatDateRange,
-  formatUtc,
-  limitText,
-  ruleLabel,
-  testLabel,
-  timeUtc,
-  verdictLabel,
-  verdictMark,
-  Writer,
-} from './certificate-writer';
+import { legendText } from '../../shared/domain/symbols';
+import { timeUtc, formatDateRange, testLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
+import { valueText, readingColumns, commonFacts, limitsTable, leadNullsTable, dismissedTable } from './certificate-blocks';
 
 export interface CertificateDocument {
   payload: CertificatePayload;
@@ -24,61 +16,6 @@ export interface CertificateDocument {
   keyId: string;
   /** Venue: all certified readings; strip: that strip's. */
   readings: CertifiedReading[];
-}
-
-const shortSource = (source: string) =>
-  source.replace(/^FIE Material Rules, art\. /, 'FIE art. ').replace(/^House rule \(no published value\)$/, 'House rule');
-const valueText = (r: CertifiedReading) => (r.overRange ? 'OL' : r.valueOhm === null ? r.valueText : formatOhm(r.valueOhm));
-const verdictColour = (v: CertifiedReading['verdict']) => (v === 'pass' ? COLOURS.pass : v === 'near-limit' ? COLOURS.near : COLOURS.fail);
-
-function readingColumns(): Column<CertifiedReading>[] {
-  return [
-    { header: 'Strip', width: 52, value: (r) => r.stripLabel, style: () => ({ weight: 500 }) },
-    { header: 'Position', width: 74, value: (r) => r.position },
-    { header: 'Asset tag', width: 50, value: (r) => r.assetTag ?? '—', nowrap: true },
-    { header: 'Test', width: 76, value: (r) => testLabel(r.testKind) },
-    { header: 'Wires', width: 40, value: (r) => (r.conductors.startsWith('piste') ? '—' : r.conductors), nowrap: true },
-    { header: 'Value', width: 48, align: 'right', value: valueText, nowrap: true, style: () => ({ weight: 500 }) },
-    { header: 'Limit', width: 62, value: limitText, nowrap: true },
-    {
-      header: 'Verdict',
-      width: 60,
-      value: (r) => verdictLabel(r.verdict),
-      nowrap: true,
-      style: (r) => ({ color: verdictColour(r.verdict), weight: 500 }),
-      mark: (r, pen, x, y, size) => verdictMark(pen, r.verdict, x, y, size),
-    },
-    { header: 'Source', width: 84, value: (r) => shortSource(r.source), nowrap: true },
-    { header: 'Tester', width: 70, value: (r) => r.takenBy },
-    { header: 'Taken (UTC)', width: 62, value: (r) => timeUtc(r.takenAt), nowrap: true },
-  ];
-}
-
-function testedLine(p: CertificatePayload) {
-  const [a, b] = [formatUtc(p.testedFrom), formatUtc(p.testedTo)];
-  if (a.slice(0, -10) === b.slice(0, -10)) return `${a.slice(0, -4)}–${b.slice(-9)}`;
-  return `${a} to ${b}`;
-}
-
-function commonFacts(p: CertificatePayload): [string, string][] {
-  return [
-    ['Limit profile', `${p.profile.name}, version ${p.profile.version}`],
-    ['Tested by', p.testedBy.map((t) => t.name).join(', ') || '—'],
-    ['Testing', testedLine(p)],
-    ['Signed by', `${p.signer.name}, ${p.signer.role}`],
-    ['Signed', formatUtc(p.signedAt)],
-  ];
-}
-
-function limitsTable(w: Writer, rules: CertificatePayload['profile']['rules'], size = 7.5, withNotes = false, padY = 2.4) {
-  type Rule = CertificatePayload['profile']['rules'][number];
-  const columns: Column<Rule>[] = [
-    { header: 'Equipment and test', width: 130, value: (r) => ruleLabel(r.id), style: () => ({ weight: 500 }) },
-    { header: 'Limit', width: 150, value: (r) => r.limit },
-    { header: 'Source', width: 170, value: (r) => r.source },
-  ];
-  if (withNotes) columns.push({ header: 'Note', width: 330, value: (r) => r.note ?? '', style: () => ({ color: COLOURS.soft }) });
-  w.table(rules, columns, { size, headerSize: 6, padY });
 }
 
 function renderVenue(w: Writer, doc: CertificateDocument) {
@@ -89,7 +26,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   const certified = p.strips.length;
   const total = certified + p.exceptions.length;
   w.text(
-    `This certifies that the competition equipment of the ${certified === 1 ? 'strip' : `${certified} strips`} listed below was tested strip by strip, and that the latest reading of every required test was within the limits of the profile named here when the venue was signed off. The limits and their sources are in Annex A, every reading in Annex B.`,
+    `This certifies that the competition equipment of the ${certified === 1 ? 'strip' : `${certified} strips`} listed below was tested strip by strip, and that the latest reading of every required test was within the limits of the profile named here when the venue was signed off. The limits and their sources are in Annex A, every reading in Annex B, the test-lead nulls and any fault dismissed as a typing mistake in Annex C.`,
     { size: 9.5 },
     12,
   );
@@ -127,7 +64,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.section('Statement of the technical director', 30);
   w.text(`“${p.statement}”`, { size: 9.5, color: COLOURS.ink }, 12);
   w.scope();
-  w.signature(doc.jws, doc.keyId);
+  w.signature('Annex D');
 
   // The annexes are landscape, so each rule and each reading fits on a line.
   w.newPage('landscape');
@@ -147,11 +84,22 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.pen.line('Readings', w.frame.left, w.y, { size: 16, weight: 600 });
   w.y += 25;
   w.text(
-    `The latest reading of every required test on the certified strips, as signed: ${p.readings.count} readings. SHA-256 of the list in canonical JSON (RFC 8785): ${p.readings.digest}.`,
+    `The latest reading of every required test on the certified strips, as signed: ${p.readings.count} readings. Values are in ohms after the tester's test-lead null (the Lead null column, recorded in Annex C) was subtracted from what the meter showed. SHA-256 of the list in canonical JSON (RFC 8785): ${p.readings.digest}.`,
     { size: 8, color: COLOURS.soft },
     8,
   );
   w.table(doc.readings, readingColumns(), { size: 7.5, headerSize: 6, padY: 2.6, zebra: true });
+
+  w.need(90);
+  w.y += 14;
+  w.eyebrow('Annex C');
+  w.pen.line('Test-lead nulls and dismissed faults', w.frame.left, w.y, { size: 16, weight: 600 });
+  w.y += 25;
+  w.section('Test-lead nulls used', 30);
+  leadNullsTable(w, p);
+  w.section('Faults dismissed by the technical director as typing mistakes', 30);
+  dismissedTable(w, p.dismissedFaults);
+  w.signatureAnnex('Annex D', doc.jws, doc.keyId);
 }
 
 // The strip certificate shows its readings as a grid: one row per item, one column per test, in
@@ -219,6 +167,22 @@ function readingGrid(readings: CertifiedReading[]) {
   return { rows: list, columns };
 }
 
+/**
+ * The venue with the strip's zone, unless the venue's name already says it: a zone "Annex" in
+ * "Riverside Annex" would read "Riverside Annex, Annex".
+ */
+export function placeOf(venueName: string, zone: string | null | undefined): string {
+  const z = zone?.trim();
+  if (!z) return venueName;
+  const words = (t: string) =>
+    t
+      .toLocaleLowerCase()
+      .split(/[^\p{L}\p{N}]+/u)
+      .filter(Boolean);
+  const name = words(venueName).join(' ');
+  return ` ${name} `.includes(` ${words(z).join(' ')} `) ? venueName : `${venueName}, ${z}`;
+}
+
 function renderStrip(w: Writer, doc: CertificateDocument) {
   const { payload: p } = doc;
   const strip = p.strips[0];
@@ -232,7 +196,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   );
   w.facts(
     [
-      ['Venue', `${p.venue.name}${strip.zone ? `, ${strip.zone}` : ''}`],
+      ['Venue', placeOf(p.venue.name, strip.zone)],
       ['Items by asset tag', strip.items.map((i) => i.assetTag ?? i.position).join(', ')],
       ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
       ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),
@@ -243,17 +207,25 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   w.section('Readings', 40);
   const grid = readingGrid(doc.readings);
   w.table(grid.rows, grid.columns, { size: 7.5, headerSize: 6, padY: 3.4 });
+  const nulls = p.leadNulls.map(
+    (n) => `${formatOhm(n.valueOhm)} (${n.takenBy}, ${timeUtc(n.takenAt)} UTC${n.meter ? `, ${n.meter}` : ''})`,
+  );
   w.text(
-    `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. A tick is a pass, a triangle a pass near the limit.`,
+    `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. Marks: ${legendText()}. ${nulls.length ? `The test-lead null was subtracted from what the meter showed: ${nulls.join('; ')}.` : 'No test-lead null was subtracted.'}`,
     { size: 7, color: COLOURS.soft },
     6,
   );
+  if (p.dismissedFaults.length > 0) {
+    w.section('Faults dismissed by the technical director as typing mistakes', 30);
+    dismissedTable(w, p.dismissedFaults, false);
+  }
   w.section(`Limits applied: ${p.profile.name}, version ${p.profile.version}`, 30);
   const used = new Set(doc.readings.map((r) => r.ruleId));
   w.ruleList(p.profile.rules.filter((r) => used.has(r.id)).map((r) => [ruleLabel(r.id), `${r.limit} · ${r.source}`]));
   w.text(`Statement of the technical director: “${p.statement}”`, { size: 8, color: COLOURS.ink }, 10);
   w.scope();
-  w.signature(doc.jws, doc.keyId);
+  w.signature('the annex at the end');
+  w.signatureAnnex('Annex', doc.jws, doc.keyId);
 }
 
 export async function renderCertificatePdf(input: CertificateDocument): Promise<Buffer> {

@@ -7,6 +7,8 @@ import { A4, COLOURS, Pen, table, type Column, type Frame, type TextStyle } from
 import type { CertificatePayload, CertifiedReading } from '../signing/certificate-record';
 import { formatOhm } from '../../shared/domain/units';
 import { TEST_KIND_LABELS } from '../../shared/domain/checklist';
+import { READING_SYMBOLS } from '../../shared/domain/symbols';
+import { drawSymbol } from './symbol-mark';
 
 export const MARGIN_X = 56;
 export type Orientation = 'portrait' | 'landscape';
@@ -51,45 +53,19 @@ export function formatDateRange(startsOn: string, endsOn: string): string {
 export const limitText = (r: CertifiedReading) =>
   r.limitOhm === null ? '—' : `${r.limitKind === 'min' ? 'min' : 'max'} ${formatOhm(r.limitOhm)}`;
 export const testLabel = (kind: string) => TEST_KIND_LABELS[kind as keyof typeof TEST_KIND_LABELS] ?? kind;
-export const verdictLabel = (v: CertifiedReading['verdict']) => (v === 'pass' ? 'Pass' : v === 'near-limit' ? 'Near limit' : 'Fail');
+export const verdictLabel = (v: CertifiedReading['verdict']) => READING_SYMBOLS[v].label;
 export const ruleLabel = (id: string) => {
   const [kind, test] = id.split('.');
   const k = kind.replace(/-/g, ' ');
   return `${k.charAt(0).toUpperCase()}${k.slice(1)}, ${testLabel(test === 'end-to-end' ? 'piste-end-to-end' : test === 'earth' ? 'piste-earth' : test).toLowerCase()}`;
 };
+export const verdictColour = (v: CertifiedReading['verdict']) =>
+  v === 'pass' ? COLOURS.pass : v === 'near-limit' ? COLOURS.near : COLOURS.fail;
 export const fingerprint = (jws: string) => createHash('sha256').update(jws).digest('hex').toUpperCase().match(/.{4}/g)!.join(' ');
 
-/** A small shape beside the word: a tick for pass, a triangle for near limit, a cross for fail. */
+/** The verdict's shape from the one symbol module (fail ▲, near limit ◆, pass ●), drawn as vectors. */
 export function verdictMark(pen: Pen, verdict: CertifiedReading['verdict'], x: number, y: number, size: number) {
-  const s = size * 0.78;
-  const doc = pen.doc.save();
-  if (verdict === 'pass') {
-    doc
-      .moveTo(x, y + s * 0.55)
-      .lineTo(x + s * 0.38, y + s * 0.92)
-      .lineTo(x + s, y + s * 0.12)
-      .lineWidth(1.1)
-      .strokeColor(COLOURS.pass)
-      .stroke();
-  } else if (verdict === 'near-limit') {
-    doc
-      .moveTo(x + s / 2, y + s * 0.05)
-      .lineTo(x + s, y + s * 0.95)
-      .lineTo(x, y + s * 0.95)
-      .closePath()
-      .fill(COLOURS.near);
-  } else {
-    doc
-      .moveTo(x, y)
-      .lineTo(x + s, y + s)
-      .moveTo(x + s, y)
-      .lineTo(x, y + s)
-      .lineWidth(1.1)
-      .strokeColor(COLOURS.fail)
-      .stroke();
-  }
-  doc.restore();
-  return s;
+  return drawSymbol(pen.doc, READING_SYMBOLS[verdict], x, y, size * 0.78, verdictColour(verdict));
 }
 
 export function drawQr(pen: Pen, text: string, x: number, y: number, size: number) {
@@ -274,7 +250,8 @@ export class Writer {
     this.y += h + 12;
   }
 
-  signature(jws: string, keyId: string) {
+  /** The signature in plain words, with the code to scan; the technical details go to signatureAnnex(). */
+  signature(annexName: string) {
     const { frame: FRAME, width: WIDTH } = this;
     const qr = 86;
     const h = qr + 24;
@@ -285,20 +262,12 @@ export class Writer {
     this.pen.line('SIGNED ELECTRONICALLY', left, top, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.8 });
     this.pen.line(this.p.signer.name, left, top + 11, { size: 13, weight: 600 });
     this.pen.line(`${this.p.signer.role}, ${formatUtc(this.p.signedAt)}`, left, top + 29, { size: 9, color: COLOURS.soft });
-    const mono: TextStyle = { size: 7, color: COLOURS.soft };
-    let y = top + 48;
-    const rows: [string, string][] = [
-      ['Signature', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
-      ['Key id', keyId],
-      ['JWS SHA-256', fingerprint(jws)],
-      ['Full signature', `${this.p.issuer.origin}/api/verify/${this.p.number}`],
-      ['Public keys', `${this.p.issuer.origin}/.well-known/jwks.json`],
-    ];
-    for (const [label, value] of rows) {
-      this.pen.line(label, left, y, { size: 7, weight: 600, color: COLOURS.ink });
-      const lines = this.pen.wrap(value, textW - 62, mono);
-      lines.forEach((l, i) => this.pen.line(l, left + 62, y + i * 9.4, mono));
-      y += lines.length * 9.4 + 1.5;
+    const plain: TextStyle = { size: 8.5, color: COLOURS.ink };
+    const words = `${this.p.issuer.organisation.name} signed this certificate with its own digital key when the venue was signed off. To check that it is genuine, unaltered and still valid, scan the code or open ${this.p.verifyUrl}. Any change to the file or its record shows there. The technical details are in ${annexName}.`;
+    let y = top + 46;
+    for (const l of this.pen.wrap(words, textW, plain)) {
+      this.pen.line(l, left, y, plain);
+      y += 11;
     }
     const qx = FRAME.right - qr;
     drawQr(this.pen, this.p.verifyUrl, qx, top - 2, qr);
@@ -310,5 +279,30 @@ export class Writer {
       { width: qr + 20, align: 'right' },
     );
     this.y = Math.max(y, top + qr + 14) + 6;
+  }
+
+  /** The signature's technical details, for whoever checks it by hand. */
+  signatureAnnex(title: string, jws: string, keyId: string) {
+    const { frame: FRAME, width: WIDTH } = this;
+    this.need(120);
+    this.y += 14;
+    this.eyebrow(title);
+    this.pen.line('Signature details', FRAME.left, this.y, { size: 16, weight: 600 });
+    this.y += 25;
+    const mono: TextStyle = { size: 7.5, color: COLOURS.soft };
+    const rows: [string, string][] = [
+      ['Algorithm', 'Ed25519, compact JWS (RFC 7515, RFC 8037) over the RFC 8785 canonical record'],
+      ['Key id', keyId],
+      ['JWS SHA-256', fingerprint(jws)],
+      ['Full signature', `${this.p.issuer.origin}/api/verify/${this.p.number}`],
+      ['Public keys', `${this.p.issuer.origin}/.well-known/jwks.json`],
+    ];
+    for (const [label, value] of rows) {
+      const lines = this.pen.wrap(value, WIDTH - 80, mono);
+      this.need(lines.length * 10 + 2);
+      this.pen.line(label, FRAME.left, this.y, { size: 7.5, weight: 600, color: COLOURS.ink });
+      lines.forEach((l, i) => this.pen.line(l, FRAME.left + 80, this.y + i * 10, mono));
+      this.y += lines.length * 10 + 3;
+    }
   }
 }

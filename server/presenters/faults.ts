@@ -4,13 +4,8 @@ import type { Db, Tx } from '../db/client';
 import { faultsRepository, type FaultEstimateRow, type FaultListRow } from '../db/faults.repository';
 import type { stripsRepository } from '../db/strips.repository';
 import type { EquipmentRow } from '../db/equipment.repository';
-import {
-  combineEstimates,
-  FaultLocationError,
-  ohmPerMetreFromConductorSize,
-  runFaultLocation,
-  type FaultEstimate,
-} from '../../shared/domain/fault-location';
+import { FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation } from '../../shared/domain/fault-location';
+import { combineSavedEstimates } from '../../shared/domain/fault-estimates';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
 import type { LengthSystem } from '../../shared/domain/units';
 
@@ -47,25 +42,31 @@ function explanationFor(row: FaultEstimateRow, saved: string, units: LengthSyste
 }
 
 // `units` undefined keeps the saved words: lists (the board every few seconds) do not show them.
+// Lengths are those of the item when the estimate was made (a later cut-out does not move it);
+// `lengthNowM` only says whether the item has been shortened since.
 export function presentEstimate(
   row: FaultEstimateRow,
-  lengthM: number | null,
+  lengthNowM: number | null,
   createdByName: string | null | undefined,
   units?: LengthSystem,
 ) {
   const result = JSON.parse(row.resultJson) as { explanation?: string; fromOtherEndM?: number; faultOhm?: number; velocityFactor?: number };
+  const itemLengthM = row.itemLengthM;
   return {
     id: row.id,
     method: row.method,
     fromEnd: row.fromEnd as 'near' | 'far',
     distanceM: row.distanceM,
-    fromOtherEndM: result.fromOtherEndM ?? (lengthM !== null ? lengthM - row.distanceM : null),
+    fromOtherEndM: result.fromOtherEndM ?? (itemLengthM !== null ? itemLengthM - row.distanceM : null),
     uncertaintyM: row.uncertaintyM,
     /** From the near (apparatus) end, whichever end it was measured from, when the length is known. */
-    distanceFromNearM: row.fromEnd === 'far' ? (lengthM !== null ? lengthM - row.distanceM : null) : row.distanceM,
+    distanceFromNearM: row.fromEnd === 'far' ? (itemLengthM !== null ? itemLengthM - row.distanceM : null) : row.distanceM,
     faultOhm: result.faultOhm ?? null,
     explanation: units ? explanationFor(row, result.explanation ?? '', units) : (result.explanation ?? ''),
     inputs: JSON.parse(row.inputsJson) as Record<string, number>,
+    /** The item's recorded length when this estimate was made. */
+    itemLengthM,
+    itemShortenedSince: itemLengthM !== null && lengthNowM !== null && lengthNowM < itemLengthM,
     createdAt: row.createdAt,
     createdBy: row.createdBy,
     createdByName: createdByName ?? null,
@@ -74,21 +75,21 @@ export function presentEstimate(
 type EstimateDto = ReturnType<typeof presentEstimate>;
 
 /**
- * All estimates of a fault, brought to the near end and weighed together, with the disagreement
- * flag. Worked out on each read, so its explanation is in the reader's units.
+ * The estimates of a fault weighed together where their readings are independent, brought to
+ * the near end, with the disagreement flag and the ones kept apart and why. Worked out on each
+ * read, so its words are in the reader's units.
  */
 export function combine(estimates: EstimateDto[], units: LengthSystem = 'metric') {
-  const usable = estimates.filter((e) => e.distanceFromNearM !== null && e.uncertaintyM > 0);
-  if (usable.length === 0) return null;
-  const asDomain: FaultEstimate[] = usable.map((e) => ({
-    method: e.method,
-    distanceM: e.distanceFromNearM as number,
-    uncertaintyM: e.uncertaintyM,
-    explanation: e.explanation,
-    inputs: e.inputs,
-  }));
-  const c = combineEstimates(asDomain, units);
-  return { ...c, count: usable.length, fromEnd: 'near' as const };
+  const { combined, used, apart, itemLengthM } = combineSavedEstimates(estimates, units);
+  if (!combined) return null;
+  return {
+    ...combined,
+    count: used.length,
+    fromEnd: 'near' as const,
+    itemLengthM,
+    estimateIds: used.map((i) => estimates[i]!.id),
+    apart: apart.map((a) => ({ estimateId: estimates[a.index]!.id, kind: a.kind, reason: a.reason })),
+  };
 }
 
 /** The one estimate shown in lists: the combination when there are several, else the latest. */
@@ -145,6 +146,10 @@ export function presentFaultList(db: Db | Tx, rows: FaultListRow[], units?: Leng
     openedBy: r.fault.openedBy,
     openedByName: r.openedByName,
     closedAt: r.fault.closedAt,
+    // Closed by the director as a typing mistake (null when it closed by a retest, or is open).
+    dismissal: r.fault.dismissedAt
+      ? { at: r.fault.dismissedAt, by: r.fault.dismissedBy, byName: r.dismissedByName, reason: r.fault.dismissedReason ?? '' }
+      : null,
   }));
 }
 

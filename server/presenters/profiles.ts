@@ -9,6 +9,7 @@ export function toLimitProfile(row: ProfileRow): LimitProfile {
     version: row.version,
     rules: JSON.parse(row.rulesJson) as LimitRule[],
     loopRequired: JSON.parse(row.loopRequiredJson) as EquipmentKind[],
+    temperatureReferenceC: row.temperatureReferenceC,
   };
 }
 
@@ -21,6 +22,7 @@ export function presentProfile(row: ProfileRow) {
     version: row.version,
     rules: p.rules,
     loopRequired: p.loopRequired ?? [],
+    temperatureReferenceC: row.temperatureReferenceC,
     notes: row.notes,
     createdAt: row.createdAt,
     createdBy: row.createdBy,

@@ -11,6 +11,7 @@ export function presentReading(r: ReadingRow, takenByName: string | null, faultI
     valueOhm: r.valueOhm,
     overRange: r.overRange,
     leadOffsetOhm: r.leadOffsetOhm,
+    leadNullId: r.leadNullId,
     temperatureC: r.temperatureC,
     verdict: r.verdict,
     limitOhm: r.limitOhm,

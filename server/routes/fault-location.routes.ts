@@ -5,7 +5,7 @@ import { faultLocationService } from '../services/fault-location.service';
 
 export function faultLocationRoutes(deps: AppDeps) {
   const api = apiRouter(deps);
-  const service = faultLocationService(deps.workers);
+  const service = faultLocationService(deps.workers, deps.env);
   api.route(c.locate, ({ user, body }) => service.locate(user, body));
   api.route(c.analyse, async ({ user, body, query, req }) => {
     const charset = /;\s*charset="?([^";\s]+)"?/i.exec(req.get('content-type') ?? '')?.[1];

@@ -32,5 +32,11 @@ export function faultsRoutes(deps: AppDeps) {
     res.set('ETag', faultEtag(out.fault.version));
     return out;
   });
+  // The event's director only (checked on the fault's venue); If-Match like any fault edit.
+  api.route(c.dismiss, ({ user, params, body, req, res }) => {
+    const fault = faults.dismiss(user, params.id, req.get('If-Match'), body);
+    res.set('ETag', faultEtag(fault.version));
+    return fault;
+  });
   return api;
 }

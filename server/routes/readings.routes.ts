@@ -4,6 +4,7 @@ import { problemBody, problemFor, SERVER_ERROR } from '../middleware/error-handl
 import { readingsContracts as c } from '../../shared/contracts/readings';
 import { createReadingSchema, type CreateReadingInput, type ReadingBatchResult } from '../../shared/schemas/readings';
 import { readingsService } from '../services/readings.service';
+import { leadNullsService } from '../services/lead-nulls.service';
 
 /** 200 readings with long correction reasons fit; the API's usual 100 kB would refuse them whole (app.ts). */
 export const READINGS_BATCH_BODY_LIMIT = '1mb';
@@ -11,6 +12,7 @@ export const READINGS_BATCH_BODY_LIMIT = '1mb';
 export function readingsRoutes(deps: AppDeps) {
   const api = apiRouter(deps);
   const readings = readingsService(deps);
+  const leadNulls = leadNullsService(deps);
   api.route(c.record, async ({ user, body, res }) => {
     const { replayed, reading } = await readings.create(user, body);
     res.status(replayed ? 200 : 201).location(`/api/readings/${reading.id}`);
@@ -39,5 +41,11 @@ export function readingsRoutes(deps: AppDeps) {
     return { results };
   });
   api.route(c.get, ({ user, params }) => readings.get(user, params.id));
+  // The caller's own test-lead null: there is no venue to check, only who measured it.
+  api.route(c.leadNull, ({ user, body, req, res }) => {
+    const { replayed, leadNull } = leadNulls.create(user, req.sessionId, body);
+    res.status(replayed ? 200 : 201);
+    return leadNull;
+  });
   return api;
 }

@@ -4,7 +4,8 @@ import { venuesRepository } from '../db/venues.repository';
 import type { AuthUser } from '../auth/types';
 import { forbidden, notFound } from '../lib/app-error';
 
-export type VenueAccessMode = 'read' | 'test' | 'plan' | 'sign-off';
+// 'direct': what only the event's own technical director decides (sign-off, dismissing a fault).
+export type VenueAccessMode = 'read' | 'test' | 'plan' | 'sign-off' | 'direct';
 
 /** What an access decision needs of a venue and its event (a whole row, or the columns a query brought). */
 export interface VenueAccessRow {
@@ -28,6 +29,7 @@ export function accessService(db: Db | Tx) {
       case 'plan':
         return user.role === 'director';
       case 'sign-off':
+      case 'direct':
         return user.role === 'director' && row.event.directorId === user.id;
     }
   }
@@ -39,9 +41,11 @@ export function accessService(db: Db | Tx) {
       const why =
         mode === 'sign-off'
           ? 'Only the technical director of this event can sign the venue off.'
-          : mode === 'plan'
-            ? 'Only a technical director can change the venue plan.'
-            : 'You are not assigned to this venue.';
+          : mode === 'direct'
+            ? 'Only the technical director of this event can do this.'
+            : mode === 'plan'
+              ? 'Only a technical director can change the venue plan.'
+              : 'You are not assigned to this venue.';
       throw forbidden(why);
     }
     return row;

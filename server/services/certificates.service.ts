@@ -1,11 +1,14 @@
 // Issued certificates: the organiser's list and downloads, revocation, and the public checks
-// (by number, or by the PDF file itself). Public answers only ever describe the one certificate
-// asked about.
+// (by number, or by the PDF file itself). Public answers describe the one certificate asked about;
+// a venue certificate's answer also says which of its strips it no longer covers (their numbers
+// are in its signed record already).
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { accessService } from './access.service';
 import { certificatesRepository, type CertificateRow } from '../db/certificates.repository';
+import { signOffRepository } from '../db/sign-off.repository';
 import { recordAudit } from '../db/audit.repository';
+import { reopenIfSignedOff } from './venue-lifecycle';
 import { conflict, forbidden, notFound } from '../lib/app-error';
 import { sha256Hex } from '../lib/ids';
 import { certificateFiles } from '../storage/certificate-files';
@@ -22,7 +25,24 @@ function scopeOf(deps: AppDeps) {
 }
 type Scope = ReturnType<typeof scopeOf>;
 
-function publicView({ deps }: Scope, c: CertificateRow) {
+/** The strips a venue certificate no longer covers: their strip certificates were revoked. */
+function notCovering({ repo }: Scope, c: CertificateRow, p: CertificatePayload) {
+  if (c.kind !== 'venue') return [];
+  const revoked = new Map(
+    repo
+      .ofSignOff(c.signOffId)
+      .filter((x) => x.certificate.kind === 'strip' && x.certificate.status === 'revoked')
+      .map((x) => [x.certificate.number, x.certificate]),
+  );
+  // Labels as certified (the strip may have been renamed since).
+  return p.related.stripCertificates.flatMap((s) => {
+    const r = revoked.get(s.number);
+    return r ? [{ strip: s.label, number: s.number, revokedAt: r.revokedAt, revokedReason: r.revokedReason }] : [];
+  });
+}
+
+function publicView(scope: Scope, c: CertificateRow) {
+  const { deps } = scope;
   const p = JSON.parse(c.payloadJson) as CertificatePayload;
   return {
     status: c.status,
@@ -32,6 +52,7 @@ function publicView({ deps }: Scope, c: CertificateRow) {
     eventDates: { startsOn: p.event.startsOn, endsOn: p.event.endsOn },
     venue: p.venue.name,
     strips: p.strips.map((s) => s.label),
+    notCovering: notCovering(scope, c, p),
     organisation: p.issuer.organisation.name,
     issuedAt: c.issuedAt,
     signedBy: p.signer.name,
@@ -119,6 +140,12 @@ function zipEntries(scope: Scope, user: AuthUser, venueId: string) {
   };
 }
 
+/**
+ * Revokes a certificate. A venue certificate takes its strip certificates with it and, when it
+ * is the venue's current sign-off, re-opens the venue (a new sign-off issues new ones). A strip
+ * certificate alone leaves the venue certificate standing, which then says it no longer covers
+ * that strip.
+ */
 function revoke(scope: Scope, user: AuthUser, number: string, reason: string) {
   const { deps, repo } = scope;
   const { c, row } = readable(scope, user, number);
@@ -128,8 +155,29 @@ function revoke(scope: Scope, user: AuthUser, number: string, reason: string) {
   if (c.status === 'revoked') throw conflict('already-revoked', 'This certificate is already revoked.');
   const at = new Date().toISOString();
   deps.db.transaction((tx) => {
-    certificatesRepository(tx).revoke(c.id, { at, reason, by: user.id });
-    recordAudit(tx, user, 'certificate.revoked', 'certificate', c.id, { number: c.number, reason, previousStatus: c.status });
+    const txRepo = certificatesRepository(tx);
+    const revokeOne = (cert: CertificateRow, why: string, extra: Record<string, unknown> = {}) => {
+      txRepo.revoke(cert.id, { at, reason: why, by: user.id });
+      recordAudit(tx, user, 'certificate.revoked', 'certificate', cert.id, {
+        number: cert.number,
+        reason: why,
+        previousStatus: cert.status,
+        ...extra,
+      });
+    };
+    revokeOne(c, reason);
+    if (c.kind !== 'venue') return;
+    const strips = txRepo.ofSignOff(c.signOffId).filter((x) => x.certificate.kind === 'strip' && x.certificate.status !== 'revoked');
+    for (const s of strips)
+      revokeOne(s.certificate, `The venue certificate ${c.number} was revoked: ${reason}`, { withVenueCertificate: c.number });
+    if (signOffRepository(tx).activeSignOff(c.venueId)?.id === c.signOffId) {
+      reopenIfSignedOff(tx, {
+        venueId: c.venueId,
+        orgId: user.orgId,
+        actorId: user.id,
+        reason: `Venue certificate ${c.number} revoked: ${reason}`,
+      });
+    }
   });
   return publicView(scope, repo.byNumber(c.number)!);
 }

@@ -6,6 +6,7 @@ import { recordAudit } from '../db/audit.repository';
 import type { Tx } from '../db/client';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { requireVersion } from '../http/etag';
+import { accessService } from './access.service';
 import { newId, nowIso } from '../lib/ids';
 import { calibrateVelocityFactor, FaultLocationError } from '../../shared/domain/fault-location';
 import type { CalibrationInput, CreateEquipmentInput, UpdateEquipmentInput } from '../../shared/schemas/equipment';
@@ -155,64 +156,90 @@ function calibrate(scope: Scope, user: AuthUser, id: string, input: CalibrationI
   return { id: calibrationId, ...result, item: repo.findById(id)! };
 }
 
-/** The item with everything that happened to it, across events. */
+/**
+ * The item with everything that happened to it, across events. A technician sees its history
+ * only on the venues they are assigned to (OWASP ASVS 8.2.2): the register is shared, the
+ * readings and fault notes of other venues are not.
+ */
 function detail(scope: Scope, user: AuthUser, id: string) {
-  const { repo } = scope;
+  const { deps, repo } = scope;
   const item = requireItem(scope, user, id);
-  const repairs = repo.repairsOf(id).map(({ repair, byName }) => ({
-    ...repair,
-    byName,
-    role: repair.equipmentId === id ? ('repaired' as const) : ('replacement' as const),
-    lengthAfterM:
-      repair.action === 'cut-out' && repair.lengthBeforeM != null && repair.lengthRemovedM != null
-        ? Math.round((repair.lengthBeforeM - repair.lengthRemovedM) * 1000) / 1000
-        : null,
-  }));
-  const cutOuts = repairs.filter((r) => r.role === 'repaired' && r.action === 'cut-out');
+  const visible =
+    user.role === 'technician'
+      ? new Set(
+          accessService(deps.db)
+            .visibleVenues(user)
+            .map((v) => v.venue.id),
+        )
+      : null;
+  const mayShow = (venueId: string) => visible === null || visible.has(venueId);
+  const allRepairs = repo.repairsOf(id);
+  const repairs = allRepairs
+    .filter((r) => mayShow(r.venueId))
+    .map(({ repair, byName }) => ({
+      ...repair,
+      byName,
+      role: repair.equipmentId === id ? ('repaired' as const) : ('replacement' as const),
+      lengthAfterM:
+        repair.action === 'cut-out' && repair.lengthBeforeM != null && repair.lengthRemovedM != null
+          ? Math.round((repair.lengthBeforeM - repair.lengthRemovedM) * 1000) / 1000
+          : null,
+    }));
+  // The item's own length story counts every cut, wherever it was made (the length is the register's).
+  const cutOuts = allRepairs.map((r) => r.repair).filter((r) => r.equipmentId === id && r.action === 'cut-out');
   return {
     item,
     // The length before the first section was cut out; null when nothing was ever cut.
     originalLengthM: cutOuts.find((r) => r.lengthBeforeM != null)?.lengthBeforeM ?? null,
     lengthRemovedM: cutOuts.reduce((sum, r) => sum + (r.lengthRemovedM ?? 0), 0),
-    readings: repo.readingsOf(id).map((r) => ({
-      id: r.reading.id,
-      valueText: r.reading.valueText,
-      valueOhm: r.reading.valueOhm,
-      verdict: r.reading.verdict,
-      limitOhm: r.reading.limitOhm,
-      testKind: r.testKind,
-      conductors: r.conductors,
-      positionName: r.positionName,
-      stripId: r.stripId,
-      stripLabel: r.stripLabel,
-      venueId: r.venueId,
-      venueName: r.venueName,
-      eventName: r.eventName,
-      takenAt: r.reading.takenAt,
-      takenByName: r.takenByName,
-      supersedesId: r.reading.supersedesId,
-    })),
-    faults: repo.faultsOf(id).map((f) => ({
-      ...f.fault,
-      positionName: f.positionName,
-      stripLabel: f.stripLabel,
-      venueId: f.venueId,
-      venueName: f.venueName,
-      eventName: f.eventName,
-    })),
+    readings: repo
+      .readingsOf(id)
+      .filter((r) => mayShow(r.venueId))
+      .map((r) => ({
+        id: r.reading.id,
+        valueText: r.reading.valueText,
+        valueOhm: r.reading.valueOhm,
+        verdict: r.reading.verdict,
+        limitOhm: r.reading.limitOhm,
+        testKind: r.testKind,
+        conductors: r.conductors,
+        positionName: r.positionName,
+        stripId: r.stripId,
+        stripLabel: r.stripLabel,
+        venueId: r.venueId,
+        venueName: r.venueName,
+        eventName: r.eventName,
+        takenAt: r.reading.takenAt,
+        takenByName: r.takenByName,
+        supersedesId: r.reading.supersedesId,
+      })),
+    faults: repo
+      .faultsOf(id)
+      .filter((f) => mayShow(f.venueId))
+      .map((f) => ({
+        ...f.fault,
+        positionName: f.positionName,
+        stripLabel: f.stripLabel,
+        venueId: f.venueId,
+        venueName: f.venueName,
+        eventName: f.eventName,
+      })),
     repairs,
-    placements: repo.assignmentsOf(id).map((a) => ({
-      id: a.assignment.id,
-      assignedAt: a.assignment.assignedAt,
-      removedAt: a.assignment.removedAt,
-      positionName: a.positionName,
-      stripId: a.stripId,
-      stripLabel: a.stripLabel,
-      venueId: a.venueId,
-      venueName: a.venueName,
-      eventId: a.eventId,
-      eventName: a.eventName,
-    })),
+    placements: repo
+      .assignmentsOf(id)
+      .filter((a) => mayShow(a.venueId))
+      .map((a) => ({
+        id: a.assignment.id,
+        assignedAt: a.assignment.assignedAt,
+        removedAt: a.assignment.removedAt,
+        positionName: a.positionName,
+        stripId: a.stripId,
+        stripLabel: a.stripLabel,
+        venueId: a.venueId,
+        venueName: a.venueName,
+        eventId: a.eventId,
+        eventName: a.eventName,
+      })),
     calibrations: repo.calibrationsOf(id).map((c) => ({ ...c.calibration, byName: c.byName })),
   };
 }

@@ -5,17 +5,18 @@ import type { WaveformAnswer } from '../../shared/contracts/fault-location';
 import type { AuthUser } from '../auth/types';
 import { unprocessable } from '../lib/app-error';
 import { ownBytes, type WorkerPool } from '../workers/pool';
+import type { Env } from '../config/env';
 
 /**
  * Pure computation, no database: any signed-in user may ask where a fault is. The engine in
  * shared/domain is the authority; this service turns its refusals into 422 with the field named.
  */
-export function faultLocationService(workers: WorkerPool) {
+export function faultLocationService(workers: WorkerPool, env: Pick<Env, 'FAULT_MAX_CABLE_LENGTH_M'>) {
   /** The explanation is worded in the asker's units (metres or feet); the numbers are always metres. */
   function locate(user: AuthUser, request: FaultLocationRequest): FaultLocationAnswer {
     let answer: FaultLocationAnswer;
     try {
-      answer = runFaultLocation(request, user.unitSystem);
+      answer = runFaultLocation(request, user.unitSystem, { maxCableLengthM: env.FAULT_MAX_CABLE_LENGTH_M });
     } catch (err) {
       throw asUnprocessable(err);
     }

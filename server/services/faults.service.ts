@@ -4,8 +4,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { faultsRepository } from '../db/faults.repository';
 import { stripsRepository } from '../db/strips.repository';
-import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
-import type { Tx } from '../db/client';
+import { equipmentRepository } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
 import { reopenIfSignedOff } from './venue-lifecycle';
@@ -13,13 +12,18 @@ import { conflict, notFound, preconditionFailed, unprocessable, AppError } from 
 import { newId, nowIso } from '../lib/ids';
 import { FaultLocationError, runFaultLocation } from '../../shared/domain/fault-location';
 import { faultLocationRequestSchema } from '../../shared/schemas/fault-location';
-import { formatLength } from '../../shared/domain/units';
-import { fromEndSchema, type CreateFaultInput, type CreateRepairInput, type UpdateFaultInput } from '../../shared/schemas/faults';
+import { LOCATE_METHODS } from '../../shared/domain/fault-methods';
 import { combine, prefillFor, presentEquipment, presentEstimate, presentFaultList } from '../presenters/faults';
 import { presentReading } from '../presenters/readings';
+import {
+  fromEndSchema,
+  type CreateFaultInput,
+  type CreateRepairInput,
+  type DismissFaultInput,
+  type UpdateFaultInput,
+} from '../../shared/schemas/faults';
 import { bindScope } from './bind';
-
-type PositionContext = NonNullable<ReturnType<ReturnType<typeof stripsRepository>['positionContext']>>;
+import { cutOut, swapIn } from './item-repairs';
 
 export const faultEtag = (version: number) => `"${version}"`;
 
@@ -45,11 +49,11 @@ function scopeOf(deps: AppDeps) {
 }
 type Scope = ReturnType<typeof scopeOf>;
 
-function load({ deps, access }: Scope, user: AuthUser, id: string, mode: 'read' | 'test') {
+function load({ deps, access }: Scope, user: AuthUser, id: string, mode: 'read' | 'test' | 'direct') {
   const row = faultsRepository(deps.db).findById(id);
   if (!row) throw notFound('That fault');
-  access.requireVenue(user, row.venueId, mode);
-  return row;
+  const venue = access.requireVenue(user, row.venueId, mode);
+  return { ...row, event: venue.event };
 }
 
 function detail(scope: Scope, user: AuthUser, id: string) {
@@ -65,6 +69,9 @@ function detail(scope: Scope, user: AuthUser, id: string) {
   const position = strips.positionContext(row.fault.positionId);
   return {
     ...listItem!,
+    // Only the event's own director may dismiss a fault that was a typing mistake.
+    canDismiss:
+      user.role === 'director' && row.event.directorId === user.id && row.fault.status !== 'closed' && row.fault.status !== 'repaired',
     lengthM,
     currentEquipment: presentEquipment(position?.equipment ?? null),
     estimates,
@@ -120,6 +127,13 @@ function create(scope: Scope, user: AuthUser, body: CreateFaultInput) {
       openedAt: nowIso(),
     });
     recordAudit(tx, user, 'fault.opened', 'fault', id, { kind: body.kind, conductors: body.conductors, automatic: false });
+    // A fault on a signed-off venue: its certificates no longer say all of it.
+    reopenIfSignedOff(tx, {
+      venueId: ctx.venue.id,
+      orgId: user.orgId,
+      actorId: user.id,
+      reason: `Fault opened on ${ctx.strip.label}, ${ctx.position.name}`,
+    });
   });
   return detail(scope, user, id);
 }
@@ -133,14 +147,24 @@ function update(scope: Scope, user: AuthUser, id: string, ifMatch: string | unde
     if (body.notes !== undefined) patch.notes = body.notes;
     if (body.kind !== undefined) patch.kind = body.kind;
     if (body.status !== undefined) {
+      // Only open or located: an edit never closes a fault. Re-opening one that was closed
+      // takes its dismissal off the fault (the audit entry below keeps it).
       patch.status = body.status;
-      patch.closedAt = body.status === 'closed' ? nowIso() : null;
+      patch.closedAt = null;
+      if (row.fault.dismissedAt) Object.assign(patch, { dismissedAt: null, dismissedBy: null, dismissedReason: null });
     }
     if (!faultsRepository(tx).update(id, row.fault.version, patch)) {
       throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and make your change again.');
     }
     recordAudit(tx, user, 'fault.updated', 'fault', id, {
-      before: { notes: row.fault.notes, kind: row.fault.kind, status: row.fault.status },
+      before: {
+        notes: row.fault.notes,
+        kind: row.fault.kind,
+        status: row.fault.status,
+        ...(row.fault.dismissedAt
+          ? { dismissedAt: row.fault.dismissedAt, dismissedBy: row.fault.dismissedBy, dismissedReason: row.fault.dismissedReason }
+          : {}),
+      },
       after: body,
     });
   });
@@ -159,13 +183,13 @@ function addEstimate(scope: Scope, user: AuthUser, id: string, raw: unknown) {
   const request = faultLocationRequestSchema.parse(rest);
   if (request.method === 'vf-calibration') {
     throw unprocessable('not-a-location', 'Velocity-factor calibration is done on a good cable, not on a fault.', {
-      errors: [{ path: 'method', message: 'Use tdr, loop-one-end, loop-both-ends, murray, capacitance or flex' }],
+      errors: [{ path: 'method', message: `Use ${LOCATE_METHODS.join(', ')}` }],
     });
   }
   let answer;
   try {
     // Saved in the saver's units; readers see it worded in theirs (explanationFor).
-    answer = runFaultLocation(request, user.unitSystem);
+    answer = runFaultLocation(request, user.unitSystem, { maxCableLengthM: deps.env.FAULT_MAX_CABLE_LENGTH_M });
   } catch (err) {
     if (err instanceof FaultLocationError) {
       throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
@@ -184,6 +208,7 @@ function addEstimate(scope: Scope, user: AuthUser, id: string, raw: unknown) {
       distanceM: answer.distanceM,
       uncertaintyM: answer.uncertaintyM,
       resultJson: JSON.stringify(answer),
+      itemLengthM: lengthM,
       createdBy: user.id,
       createdAt: nowIso(),
     });
@@ -199,43 +224,6 @@ function addEstimate(scope: Scope, user: AuthUser, id: string, raw: unknown) {
   });
   const fault = detail(scope, user, id);
   return { estimate: fault.estimates.find((e) => e.id === estimateId)!, combined: fault.combined, fault };
-}
-
-/** A section cut out of the item: its length goes down by what was removed (mm resolution). Answers the length before. */
-function cutOut(tx: Tx, user: AuthUser, item: EquipmentRow, lengthRemovedM: number): number {
-  const before = item.lengthM;
-  if (before === null) {
-    throw unprocessable('no-length', `The length of ${item.assetTag} is not recorded; record it in the equipment register first.`, {
-      errors: [{ path: 'lengthRemovedM', message: 'The item has no recorded length' }],
-    });
-  }
-  if (lengthRemovedM >= before) {
-    // Worded in the person's units: the form shows this under the field they typed in.
-    const [cut, whole] = [formatLength(lengthRemovedM, user.unitSystem), formatLength(before, user.unitSystem)];
-    throw unprocessable('cut-too-long', `${cut} is not less than the ${whole} of ${item.assetTag}; retire the item instead.`, {
-      errors: [{ path: 'lengthRemovedM', message: `Must be less than the item's ${whole}` }],
-    });
-  }
-  // Millimetre resolution: 12 − 1.5 stays 10.5, not 10.499999999999998.
-  const after = Math.round((before - lengthRemovedM) * 1000) / 1000;
-  equipmentRepository(tx).update(item.id, { lengthM: after, version: item.version + 1 });
-  return before;
-}
-
-/** Another item of the same kind, in service and on no other strip of the venue, goes in the position. Answers its id. */
-function swapIn(tx: Tx, user: AuthUser, position: PositionContext, item: EquipmentRow, replacementAssetTag: string, at: string): string {
-  const equipment = equipmentRepository(tx);
-  const replacement = equipment.findByTag(user.orgId, replacementAssetTag);
-  const refuse = (message: string) => unprocessable('bad-replacement', message, { errors: [{ path: 'replacementAssetTag', message }] });
-  if (!replacement) throw refuse(`No item with asset tag ${replacementAssetTag} in the register.`);
-  if (replacement.id === item.id) throw refuse('The replacement is the same item.');
-  if (replacement.kind !== item.kind) throw refuse(`${replacement.assetTag} is a ${replacement.kind}, not a ${item.kind}.`);
-  if (replacement.status !== 'in-service') throw refuse(`${replacement.assetTag} is not in service (${replacement.status}).`);
-  const holder = faultsRepository(tx).stripHoldingItem(position.venue.id, replacement.id);
-  if (holder) throw refuse(`${replacement.assetTag} is already on ${holder.stripLabel} of this venue.`);
-  equipment.assignToPosition(position.position.id, replacement.id, user.id, at);
-  equipment.update(item.id, { status: 'under-repair', version: item.version + 1 });
-  return replacement.id;
 }
 
 function addRepair(scope: Scope, user: AuthUser, id: string, body: CreateRepairInput) {
@@ -299,6 +287,46 @@ function addRepair(scope: Scope, user: AuthUser, id: string, body: CreateRepairI
   return { repair: fault.repairs.find((r) => r.id === repairId)!, fault };
 }
 
+/**
+ * The event's director closes a fault that was a typing mistake, with a reason of at least a
+ * sentence: kept on the fault, in the audit trail and on the certificate. Any other fault closes
+ * by a repair and a passing retest. A repaired fault waits for its retest, so it is not dismissed.
+ */
+function dismiss(scope: Scope, user: AuthUser, id: string, ifMatch: string | undefined, body: DismissFaultInput) {
+  const { deps } = scope;
+  const row = load(scope, user, id, 'direct');
+  checkIfMatch(ifMatch, row.fault.version);
+  if (row.fault.status === 'closed') throw conflict('fault-closed', 'This fault is closed already.');
+  if (row.fault.status === 'repaired') {
+    throw conflict('fault-repaired', 'A repair was recorded on this fault: it closes when the retest passes, not by a dismissal.');
+  }
+  const at = nowIso();
+  deps.db.transaction((tx) => {
+    const changed = faultsRepository(tx).update(id, row.fault.version, {
+      status: 'closed',
+      closedAt: at,
+      dismissedAt: at,
+      dismissedBy: user.id,
+      dismissedReason: body.reason,
+    });
+    if (!changed) throw preconditionFailed('This fault was changed by someone else since you loaded it. Reload it and decide again.');
+    recordAudit(tx, user, 'fault.dismissed', 'fault', id, {
+      reason: body.reason,
+      previousStatus: row.fault.status,
+      readingId: row.fault.readingId,
+      stripId: row.fault.stripId,
+    });
+    // The record of a signed-off venue changed: its certificates no longer say all of it.
+    reopenIfSignedOff(tx, {
+      venueId: row.venueId,
+      orgId: user.orgId,
+      actorId: user.id,
+      reason: `Fault dismissed on ${row.stripLabel}, ${row.positionName}`,
+    });
+  });
+  return detail(scope, user, id);
+}
+
 export function faultsService(deps: AppDeps) {
-  return bindScope(scopeOf(deps), { list, detail, create, update, addEstimate, addRepair });
+  return bindScope(scopeOf(deps), { list, detail, create, update, addEstimate, addRepair, dismiss });
 }

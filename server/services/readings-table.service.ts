@@ -4,6 +4,7 @@ import type { AuthUser } from '../auth/types';
 import { readingsTableRepository } from '../db/readings-table.repository';
 import { accessService } from './access.service';
 import { csvCell, safeFileName } from '../lib/spreadsheet';
+import { matchesReadingsFilter, type ReadingsFilter } from '../../shared/schemas/readings-table';
 
 const CSV_COLUMNS = [
   ['Strip', 'stripLabel'],
@@ -12,6 +13,8 @@ const CSV_COLUMNS = [
   ['Test', 'testKind'],
   ['Conductors', 'conductors'],
   ['Value as typed', 'valueText'],
+  // What the meter showed, less the technician's test-lead null, is the value that was judged.
+  ['Lead null (ohm)', 'leadOffsetOhm'],
   ['Value (ohm)', 'valueOhm'],
   ['Over range', 'overRange'],
   ['Verdict', 'verdict'],
@@ -26,6 +29,8 @@ const CSV_COLUMNS = [
   ['Corrects reading', 'supersedesId'],
   ['Correction reason', 'correctionReason'],
   ['Superseded by', 'supersededBy'],
+  ['Lead null meter', 'leadNullMeter'],
+  ['Lead null id', 'leadNullId'],
   ['Reading id', 'id'],
 ] as const;
 
@@ -33,15 +38,16 @@ export function readingsTableService(deps: AppDeps) {
   const repo = readingsTableRepository(deps.db);
   const access = accessService(deps.db);
 
-  function rows(user: AuthUser, venueId: string) {
+  function rows(user: AuthUser, venueId: string, filter: ReadingsFilter) {
     const { venue } = access.requireVenue(user, venueId, 'read');
-    return { venue, rows: repo.ofVenue(venueId).map((r) => ({ ...r, superseded: r.supersededBy !== null })) };
+    const list = repo.ofVenue(venueId).map((r) => ({ ...r, superseded: r.supersededBy !== null }));
+    return { venue, rows: list.filter((r) => matchesReadingsFilter(r, filter)) };
   }
 
   return {
-    list: (user: AuthUser, venueId: string) => rows(user, venueId).rows,
-    csv(user: AuthUser, venueId: string) {
-      const { venue, rows: list } = rows(user, venueId);
+    list: (user: AuthUser, venueId: string, filter: ReadingsFilter = {}) => rows(user, venueId, filter).rows,
+    csv(user: AuthUser, venueId: string, filter: ReadingsFilter = {}) {
+      const { venue, rows: list } = rows(user, venueId, filter);
       const lines = [CSV_COLUMNS.map(([h]) => csvCell(h)).join(',')];
       for (const r of list) lines.push(CSV_COLUMNS.map(([, k]) => csvCell(r[k])).join(','));
       return { fileName: `${safeFileName(venue.name)}-readings.csv`, body: `${lines.join('\r\n')}\r\n` };

@@ -1,6 +1,7 @@
 // Recording a reading: the server is the authority. It parses what was typed, judges it against the
 // venue's limit profile, stores the verdict with the profile version, opens a fault on a failure
-// and closes a repaired fault once its retest passes.
+// and closes a repaired fault once its retest passes. A correction never closes a fault: a fault
+// that was a typing mistake is dismissed by the event's director (faults.service.ts).
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import type { Db, Tx } from '../db/client';
@@ -14,9 +15,8 @@ import { reopenIfSignedOff } from './venue-lifecycle';
 import { limitProfileById } from './profiles.service';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
-import { parseReading } from '../../shared/domain/units';
 import { decideTakenAt } from '../../shared/domain/reading-time';
-import { evaluateReading, NoRuleError, ReadingInputError } from '../../shared/domain/limits';
+import { judgeTypedReading } from '../../shared/domain/typed-reading';
 import type { CreateReadingInput, ReadingDto } from '../../shared/schemas/readings';
 import type { FaultKind } from '../../shared/schemas/faults';
 import { presentReading } from '../presenters/readings';
@@ -30,10 +30,13 @@ function requestHash(body: CreateReadingInput): string {
     JSON.stringify({
       stepId: body.stepId,
       value: body.value.trim(),
-      leadOffsetOhm: body.leadOffsetOhm ?? null,
+      // Readings once carried the offset itself (always null now): kept so a reading stored before
+      // lead nulls were records still replays as itself.
+      leadOffsetOhm: null,
       temperatureC: body.temperatureC ?? null,
       supersedesId: body.supersedesId ?? null,
       correctionReason: body.correctionReason ?? null,
+      ...(body.leadNullId ? { leadNullId: body.leadNullId } : {}),
     }),
   );
 }
@@ -81,8 +84,11 @@ function replay(db: Db, body: CreateReadingInput, hash: string, storedHash: stri
   return { replayed: true, reading: presentReading(existing.reading, existing.takenByName, faultIdFor(db, existing.reading)) };
 }
 
-/** A step taken off the checklist takes no reading (409); a correction names an earlier reading of the same step (422). */
-function refuseUnwritable(db: Db, ctx: ReadingWriteContext, body: CreateReadingInput) {
+/**
+ * A step taken off the checklist takes no reading (409); a correction names an earlier reading of
+ * the same step, and a test-lead null is one the caller recorded (422). Answers the null's ohms.
+ */
+function checkWritable(db: Db, ctx: ReadingWriteContext, body: CreateReadingInput, leadNullId: string | null): number | null {
   if (ctx.step.removedAt) {
     throw conflict(
       'step-removed',
@@ -90,6 +96,7 @@ function refuseUnwritable(db: Db, ctx: ReadingWriteContext, body: CreateReadingI
       { stepId: ctx.step.id },
     );
   }
+  let leadNullOhm = leadNullId === null ? null : ctx.leadNullOhm;
   if (body.supersedesId) {
     const old = readingsRepository(db).findById(body.supersedesId);
     if (!old || old.reading.stepId !== body.stepId) {
@@ -97,35 +104,40 @@ function refuseUnwritable(db: Db, ctx: ReadingWriteContext, body: CreateReadingI
         errors: [{ path: 'supersedesId', message: 'Not a reading of this step' }],
       });
     }
+    // A correction fixes what was typed, not the measurement: it may keep the null the
+    // corrected reading used, whoever measured it.
+    if (leadNullId !== null && leadNullOhm === null && old.reading.leadNullId === leadNullId) leadNullOhm = old.reading.leadOffsetOhm;
   }
+  if (leadNullId !== null && leadNullOhm === null) {
+    throw unprocessable(
+      'unknown-lead-null',
+      'That test-lead null is not one you recorded. Null the leads again on the testing screen, then record the reading.',
+      {
+        errors: [{ path: 'leadNullId', message: 'Not a test-lead null of yours' }],
+      },
+    );
+  }
+  return leadNullOhm;
 }
 
-/** What was typed, parsed, and its verdict against the venue's limit profile; refusals are 422 / 409. */
-function judge(db: Db, ctx: ReadingWriteContext, body: CreateReadingInput) {
-  const parsedValue = parseReading(body.value, 'resistance', { leadOffsetOhm: body.leadOffsetOhm ?? 0 });
-  if (!parsedValue.ok) {
-    throw unprocessable('invalid-reading', parsedValue.message, { errors: [{ path: 'value', message: parsedValue.message }] });
-  }
+/** What was typed, less the test-lead null, and its verdict against the venue's limit profile; refusals are 422 / 409. */
+function judge(db: Db, ctx: ReadingWriteContext, body: CreateReadingInput, leadNullOhm: number | null) {
   const profile = limitProfileById(db, ctx.venue.profileId);
   if (!profile) throw conflict('no-limit-profile', 'This venue has no limit profile; the technical director must choose one.');
-  try {
-    const verdict = evaluateReading({
+  const judged = judgeTypedReading(
+    body.value,
+    {
       profile,
       equipmentKind: ctx.position.equipmentKind,
       testKind: ctx.step.testKind,
       conductors: ctx.step.conductors,
-      valueOhm: parsedValue.value,
-      overRange: parsedValue.overRange,
       lengthM: ctx.lengthM,
       temperatureC: body.temperatureC ?? null,
-    });
-    return { parsedValue, profile, verdict };
-  } catch (err) {
-    if (err instanceof NoRuleError) throw unprocessable(err.code, err.message, { errors: [{ path: 'stepId', message: err.message }] });
-    if (err instanceof ReadingInputError)
-      throw unprocessable(err.code, err.message, { errors: [{ path: err.field, message: err.message }] });
-    throw err;
-  }
+    },
+    leadNullOhm,
+  );
+  if (!judged.ok) throw unprocessable(judged.code, judged.message, { errors: [{ path: judged.field, message: judged.message }] });
+  return { profile, judged, verdict: judged.verdict };
 }
 
 /** The reading row, written with its audit entry; takenAt as the tablet stamped it, within limits. */
@@ -135,9 +147,10 @@ function storeReading(
   ctx: ReadingWriteContext,
   body: CreateReadingInput,
   hash: string,
-  judged: ReturnType<typeof judge>,
+  judgement: ReturnType<typeof judge>,
+  lead: { id: string | null; ohm: number | null },
 ) {
-  const { parsedValue, profile, verdict } = judged;
+  const { judged, profile, verdict } = judgement;
   const receivedAt = nowIso();
   const time = decideTakenAt(body.takenAt, receivedAt);
   const takenAt = time.takenAt;
@@ -146,9 +159,10 @@ function storeReading(
     stepId: body.stepId,
     equipmentId: ctx.position.equipmentId,
     valueText: body.value,
-    valueOhm: parsedValue.value,
-    overRange: parsedValue.overRange,
-    leadOffsetOhm: body.leadOffsetOhm ?? null,
+    valueOhm: judged.valueOhm,
+    overRange: judged.overRange,
+    leadOffsetOhm: judged.leadNullOhm,
+    leadNullId: lead.id,
     temperatureC: body.temperatureC ?? null,
     verdict: verdict.verdict,
     limitOhm: verdict.limitOhm,
@@ -170,6 +184,7 @@ function storeReading(
     stepId: body.stepId,
     stripId: ctx.strip.id,
     value: body.value,
+    ...(lead.id ? { leadNullId: lead.id, leadNullOhm: lead.ohm } : {}),
     verdict: verdict.verdict,
     profileVersion: profile.version,
     ...(body.supersedesId ? { supersedesId: body.supersedesId, reason: body.correctionReason } : {}),
@@ -196,13 +211,14 @@ function create(
   const hash = requestHash(body);
   return queue.run(() => {
     const db = deps.db;
-    const ctx = readingsRepository(db).writeContext(body.stepId, user.id, body.id);
+    const leadNullId = body.leadNullId ?? null;
+    const ctx = readingsRepository(db).writeContext(body.stepId, user.id, body.id, leadNullId);
     if (!ctx) throw notFound('That step');
     access.requireLoadedVenue(user, ctx, 'test', ctx.assigned);
     if (ctx.existingHash !== null) return replay(db, body, hash, ctx.existingHash);
-    refuseUnwritable(db, ctx, body);
-    const judged = judge(db, ctx, body);
-    const row = storeReading(db, user, ctx, body, hash, judged);
+    const leadNullOhm = checkWritable(db, ctx, body, leadNullId);
+    const judgement = judge(db, ctx, body, leadNullOhm);
+    const row = storeReading(db, user, ctx, body, hash, judgement, { id: leadNullId, ohm: leadNullOhm });
     // The venue's status was read in this transaction: only a signed-off venue is touched.
     const venueReopened =
       ctx.venue.status === 'signed-off' &&
@@ -213,8 +229,8 @@ function create(
         reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
       });
     const faultId =
-      judged.verdict.verdict === 'fail'
-        ? onFailure(db, user, ctx, body.id, judged.parsedValue.overRange, row.takenAt)
+      judgement.verdict.verdict === 'fail'
+        ? onFailure(db, user, ctx, body.id, judgement.judged.overRange, row.takenAt)
         : onPass(db, user, ctx, body, row.takenAt);
     // Answered from the row just inserted (every column is set above), not read back.
     const reading = presentReading(row, user.name, faultId);
@@ -269,26 +285,17 @@ function onFailure(tx: Db, user: AuthUser, ctx: ReadingWriteContext, readingId: 
 
 /**
  * A passing reading may finish a retest: a repaired fault closes when every active step of its
- * position has a passing reading taken since the repair. A correction that turns the reading
- * that opened a fault into a pass closes that fault too (it was a mistyped value).
+ * position has a passing reading taken since the repair. A correction closes nothing, and is no
+ * retest either (it is typed now but fixes a value measured before): the reading that opened a
+ * fault may be corrected to a pass, but the fault stays open until it is repaired and measured
+ * again, or dismissed by the event's director.
  */
 function onPass(tx: Db, user: AuthUser, ctx: ReadingWriteContext, body: CreateReadingInput, at: string): string | null {
   const positionId = ctx.position.id;
   const faults = faultsRepository(tx);
   const strips = stripsRepository(tx);
-  if (body.supersedesId) {
-    const opened = faults.ofReading(body.supersedesId);
-    if (opened && opened.status === 'open') {
-      faults.update(opened.id, opened.version, { status: 'closed', closedAt: at });
-      recordAudit(tx, user, 'fault.closed', 'fault', opened.id, {
-        why: 'the reading that opened it was corrected',
-        readingId: body.id,
-        reason: body.correctionReason,
-      });
-    }
-  }
   // Most passes finish no retest: the context already says whether a repaired fault waits here.
-  if (!ctx.hasRepairedFault) return null;
+  if (!ctx.hasRepairedFault || body.supersedesId) return null;
   const repaired = faults.repairedOfPosition(positionId);
   if (repaired.length === 0) return null;
   const steps = strips.activeStepsOf([positionId]);
@@ -297,7 +304,7 @@ function onPass(tx: Db, user: AuthUser, ctx: ReadingWriteContext, body: CreateRe
     const repairedAt = faults.latestRepairOf(fault.id)?.createdAt ?? fault.openedAt;
     const allPass = steps.every((s) => {
       const r = latest.get(s.id)?.reading;
-      return !!r && r.verdict !== 'fail' && r.takenAt >= repairedAt;
+      return !!r && r.verdict !== 'fail' && r.supersedesId === null && r.takenAt >= repairedAt;
     });
     if (!allPass) continue;
     faults.update(fault.id, fault.version, { status: 'closed', closedAt: at });

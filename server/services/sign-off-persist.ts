@@ -10,7 +10,8 @@ import { conflict } from '../lib/app-error';
 import { newId } from '../lib/ids';
 import { readingsDigest } from '../signing/certificate-record';
 import { certificateFiles } from '../storage/certificate-files';
-import { certifiedReadings, readinessOf } from './sign-off-readiness';
+import { certifiedReadings, dismissedFaultsOf, readinessOf } from './sign-off-readiness';
+import type { DismissedFault } from '../signing/certificate-record';
 import type { IssuedCertificate } from './sign-off-render';
 import type { ExceptionInput, VenueReadiness } from '../../shared/domain/readiness';
 
@@ -25,6 +26,9 @@ export interface SignOffRecord {
   digest: string;
   keyId: string;
   issued: IssuedCertificate[];
+  /** The dismissed faults the certificates name, and the strips they were looked up on. */
+  dismissed: DismissedFault[];
+  certifiedStripIds: Set<string>;
 }
 
 export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
@@ -47,6 +51,15 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
       const again = readinessOf(tx, s.venueId, s.exceptions);
       if (!again.readiness.ready || readingsDigest(certifiedReadings(again.snap, again.readiness)) !== s.digest) {
         throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
+      }
+      const dismissedAgain = dismissedFaultsOf(tx, s.venueId, s.certifiedStripIds)
+        .map((f) => f.faultId)
+        .join();
+      if (dismissedAgain !== s.dismissed.map((f) => f.faultId).join()) {
+        throw conflict(
+          'changed-meanwhile',
+          'A fault was dismissed while the certificates were being made. Check the venue and sign again.',
+        );
       }
       repo.insertSignOff({
         id: signOffId,

@@ -4,7 +4,8 @@ import type { Db, Tx } from '../db/client';
 import { venuesRepository } from '../db/venues.repository';
 import { signOffRepository } from '../db/sign-off.repository';
 import { conflict, unprocessable } from '../lib/app-error';
-import type { CertifiedReading } from '../signing/certificate-record';
+import type { CertifiedReading, DismissedFault } from '../signing/certificate-record';
+import { faultsRepository } from '../db/faults.repository';
 import {
   describeIssue,
   venueReadiness,
@@ -77,6 +78,8 @@ export function certifiedReadings(snap: ReturnType<typeof snapshot>, readiness: 
         valueText: reading.valueText,
         valueOhm: reading.valueOhm,
         overRange: reading.overRange,
+        leadNullOhm: reading.leadOffsetOhm,
+        leadNullId: reading.leadNullId,
         limitOhm: reading.limitOhm,
         limitKind: reading.limitKind,
         verdict: reading.verdict,
@@ -107,6 +110,26 @@ function issuesProblem(readiness: VenueReadiness) {
 }
 
 export type Snapshot = ReturnType<typeof snapshot>;
+
+/** The faults of the venue its director dismissed as typing mistakes, on the given strips. */
+export function dismissedFaultsOf(db: Db | Tx, venueId: string, stripIds: Set<string>): DismissedFault[] {
+  return faultsRepository(db)
+    .dismissedOfVenue(venueId)
+    .filter((r) => stripIds.has(r.fault.stripId))
+    .map((r) => ({
+      faultId: r.fault.id,
+      stripId: r.fault.stripId,
+      stripLabel: r.stripLabel,
+      position: r.positionName,
+      kind: r.fault.kind,
+      conductors: r.fault.conductors,
+      openedAt: r.fault.openedAt,
+      dismissedById: r.fault.dismissedBy,
+      dismissedBy: r.dismissedByName ?? '',
+      dismissedAt: r.fault.dismissedAt!,
+      reason: r.fault.dismissedReason ?? '',
+    }));
+}
 
 /** The snapshot and its readiness, with the strips left out at sign-off. */
 export function readinessOf(db: Db | Tx, venueId: string, exceptions: ExceptionInput[] = []) {

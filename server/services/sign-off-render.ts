@@ -15,10 +15,13 @@ import {
   readingsDigest,
   verifyUrlFor,
   type CertificatePayload,
+  type CertifiedLeadNull,
   type CertifiedReading,
+  type DismissedFault,
 } from '../signing/certificate-record';
+import { leadNullsRepository } from '../db/lead-nulls.repository';
 import type { Snapshot } from './sign-off-readiness';
-import type { LimitRule } from '../../shared/domain/limits';
+import { temperatureRuleText, type LimitRule } from '../../shared/domain/limits';
 import type { VenueReadiness } from '../../shared/domain/readiness';
 import { formatOhm } from '../../shared/domain/units';
 import type { CertificateKind } from '../../shared/domain/certificate-number';
@@ -46,6 +49,26 @@ export interface SigningContext {
   signedAt: string;
   statement: string;
   origin: string;
+  /** Faults of the certified strips the director dismissed as typing mistakes. */
+  dismissed: DismissedFault[];
+}
+
+/** The test-lead nulls the readings used, each with who measured it, when and how many readings used it. */
+function leadNullsOf(db: Db, list: CertifiedReading[]): CertifiedLeadNull[] {
+  const uses = new Map<string, number>();
+  for (const r of list) if (r.leadNullId) uses.set(r.leadNullId, (uses.get(r.leadNullId) ?? 0) + 1);
+  return leadNullsRepository(db)
+    .byIds([...uses.keys()])
+    .map(({ leadNull: n, takenByName }) => ({
+      id: n.id,
+      valueOhm: n.valueOhm,
+      takenById: n.takenBy,
+      takenBy: takenByName ?? '',
+      takenAt: n.takenAt,
+      meter: n.meter,
+      readings: uses.get(n.id) ?? 0,
+    }))
+    .sort((a, b) => a.takenAt.localeCompare(b.takenAt) || a.id.localeCompare(b.id));
 }
 
 export interface Draft {
@@ -83,7 +106,7 @@ function allocateNumbers(db: Db, year: number, readiness: VenueReadiness) {
 type PayloadBase = Omit<CertificatePayload, 'number' | 'kind' | 'exceptions' | 'related' | 'verifyUrl'>;
 
 /** What a certificate says about its readings: strips, items, testers, the digest, the profile. */
-function payloadBase(ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<string, string | null>): PayloadBase {
+function payloadBase(db: Db, ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<string, string | null>): PayloadBase {
   const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
   const times = list.map((r) => r.takenAt).sort();
   const strips = [...new Set(list.map((r) => r.stripId))].map((stripId) => {
@@ -119,8 +142,11 @@ function payloadBase(ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<
       name: profile.name,
       version: profile.version,
       rules: rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
+      temperature: temperatureRuleText(profile),
     },
     testedBy: [...testers].map(([id, name]) => ({ id, name })).sort((a, b) => a.name.localeCompare(b.name)),
+    leadNulls: leadNullsOf(db, list),
+    dismissedFaults: ctx.dismissed.filter((f) => strips.some((s) => s.id === f.stripId)),
     testedFrom: times[0],
     testedTo: times[times.length - 1],
     signer: { id: ctx.signer.id, name: ctx.signer.displayName, role: 'Technical director' as const },
@@ -142,7 +168,7 @@ export function draftCertificates(
   const zoneOf = new Map(snap.stripRows.map((s) => [s.id, s.zone]));
   const venue: Draft = {
     payload: {
-      ...payloadBase(ctx, readings, zoneOf),
+      ...payloadBase(db, ctx, readings, zoneOf),
       number: venueNumber,
       kind: 'venue',
       exceptions: readiness.exceptions,
@@ -156,7 +182,7 @@ export function draftCertificates(
     const own = readings.filter((r) => r.stripId === s.stripId);
     return {
       payload: {
-        ...payloadBase(ctx, own, zoneOf),
+        ...payloadBase(db, ctx, own, zoneOf),
         number: s.number,
         kind: 'strip',
         exceptions: [],

@@ -10,7 +10,7 @@ import { signOffRepository } from '../db/sign-off.repository';
 import { AppError, conflict } from '../lib/app-error';
 import { currentSigningKey } from '../signing/signing-keys';
 import { readingsDigest, verifyUrlFor } from '../signing/certificate-record';
-import { certifiedReadings, describedIssues, readinessOf, requireReady } from './sign-off-readiness';
+import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessOf, requireReady } from './sign-off-readiness';
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
 import { persistSignOff, yieldToEventLoop } from './sign-off-persist';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
@@ -66,6 +66,8 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
   await yieldToEventLoop();
 
   const readings = certifiedReadings(snap, readiness);
+  const certifiedStripIds = new Set(readiness.strips.filter((s) => s.state === 'ready').map((s) => s.stripId));
+  const dismissed = dismissedFaultsOf(deps.db, venueId, certifiedStripIds);
   const key = await currentSigningKey(deps.db, deps.env);
   const org = repo.organisation(row.event.orgId)!;
   const ctx: SigningContext = {
@@ -76,6 +78,7 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     signedAt: new Date().toISOString(),
     statement: input.statement?.trim() || DEFAULT_STATEMENT,
     origin: deps.env.APP_ORIGIN,
+    dismissed,
   };
   // Sign and render everything first; only then write, so a failure leaves nothing behind.
   const issued = await renderCertificates(deps.workers, key, draftCertificates(deps.db, ctx, snap, readiness, readings));
@@ -91,6 +94,8 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     digest,
     keyId: key.kid,
     issued,
+    dismissed,
+    certifiedStripIds,
   });
   await notify(deps, ctx, issued);
   return {

@@ -26,7 +26,12 @@ export function stripsService(deps: AppDeps) {
     const positionRows = repo.positionsWithEquipment(strip.id);
     const steps = repo.activeStepsOf(positionRows.map((p) => p.position.id));
     const latest = latestByStep(repo.readingsOfSteps(steps.map((s) => s.id)));
-    const openFaults = presentFaultList(deps.db, faultsRepository(deps.db).unclosedOfStrip(strip.id));
+    const faultsRepo = faultsRepository(deps.db);
+    // A repaired fault carries the time of its repair: readings taken since then are its retest.
+    const openFaults = presentFaultList(deps.db, faultsRepo.unclosedOfStrip(strip.id)).map((f) => ({
+      ...f,
+      repairedAt: f.status === 'repaired' ? (faultsRepo.latestRepairOf(f.id)?.createdAt ?? null) : null,
+    }));
     const profile = limitProfileById(deps.db, venue.profileId);
 
     const positions = positionRows.map(({ position, equipment }) => ({
@@ -66,7 +71,14 @@ export function stripsService(deps: AppDeps) {
       venueName: venue.name,
       venueStatus: venue.status,
       profile: profile
-        ? { id: venue.profileId, name: profile.name, version: profile.version, rules: profile.rules, loopRequired: profile.loopRequired ?? [] }
+        ? {
+            id: venue.profileId,
+            name: profile.name,
+            version: profile.version,
+            rules: profile.rules,
+            loopRequired: profile.loopRequired ?? [],
+            temperatureReferenceC: profile.temperatureReferenceC ?? null,
+          }
         : null,
       counts,
       venueProgress: {

@@ -5,7 +5,8 @@ import { sha256Hex } from '../lib/ids';
 import { canonicalJson } from './signing-keys';
 import { makeCertificateNumber, type CertificateKind } from '../../shared/domain/certificate-number';
 
-export const CERTIFICATE_FORMAT = 'stripwarden-certificate/1';
+// Version 2 added the test-lead null of each reading, the nulls used and the dismissed faults.
+export const CERTIFICATE_FORMAT = 'stripwarden-certificate/2';
 export const SCOPE_SENTENCE =
   "This certificate covers the competition equipment listed and tested, not the building's electrical installation: the mains supply and the earthing of the hall are for licensed electricians under local codes.";
 
@@ -19,8 +20,12 @@ export interface CertifiedReading {
   testKind: string;
   conductors: string;
   valueText: string;
+  /** After the test-lead null was subtracted. */
   valueOhm: number | null;
   overRange: boolean;
+  /** The test-lead null subtracted (null: none) and its record. */
+  leadNullOhm: number | null;
+  leadNullId: string | null;
   limitOhm: number | null;
   limitKind: 'max' | 'min' | null;
   verdict: 'pass' | 'near-limit' | 'fail';
@@ -38,6 +43,32 @@ export interface CertificateItem {
   assetTag: string | null;
 }
 
+/** A test-lead null that certified readings used: who measured it, when, with which meter. */
+export interface CertifiedLeadNull {
+  id: string;
+  valueOhm: number;
+  takenById: string;
+  takenBy: string;
+  takenAt: string;
+  meter: string | null;
+  readings: number;
+}
+
+/** A fault the event's director closed as a typing mistake, with the reason given. */
+export interface DismissedFault {
+  faultId: string;
+  stripId: string;
+  stripLabel: string;
+  position: string;
+  kind: string;
+  conductors: string;
+  openedAt: string;
+  dismissedById: string | null;
+  dismissedBy: string;
+  dismissedAt: string;
+  reason: string;
+}
+
 export interface CertificatePayload {
   format: typeof CERTIFICATE_FORMAT;
   number: string;
@@ -50,8 +81,17 @@ export interface CertificatePayload {
   /** Asset tags of every item certified, sorted. */
   items: string[];
   readings: { count: number; nearLimit: number; digestAlg: 'SHA-256'; digest: string };
-  profile: { id: string; name: string; version: number; rules: { id: string; source: string; limit: string; note: string | null }[] };
+  profile: {
+    id: string;
+    name: string;
+    version: number;
+    rules: { id: string; source: string; limit: string; note: string | null }[];
+    /** How a cable's temperature was treated (judged as measured, or corrected: a house rule). */
+    temperature?: string;
+  };
   testedBy: { id: string; name: string }[];
+  leadNulls: CertifiedLeadNull[];
+  dismissedFaults: DismissedFault[];
   testedFrom: string;
   testedTo: string;
   signer: { id: string; name: string; role: 'Technical director' };

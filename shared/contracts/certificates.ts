@@ -44,6 +44,10 @@ export const verificationSchema = z.strictObject({
   eventDates: z.strictObject({ startsOn: z.string(), endsOn: z.string() }),
   venue: z.string(),
   strips: z.array(z.string()),
+  /** A venue certificate's strips whose own certificates were revoked: it no longer covers them. */
+  notCovering: z.array(
+    z.strictObject({ strip: z.string(), number: z.string(), revokedAt: z.string().nullable(), revokedReason: z.string().nullable() }),
+  ),
   organisation: z.string(),
   issuedAt: z.string(),
   signedBy: z.string(),

@@ -97,6 +97,8 @@ export const faultListItem = z.strictObject({
   openedBy: z.string(),
   openedByName: z.string().nullable(),
   closedAt: z.string().nullable(),
+  /** Closed by the event's director as a typing mistake (null when it closed by a retest, or is open). */
+  dismissal: z.strictObject({ at: z.string(), by: z.string().nullable(), byName: z.string().nullable(), reason: z.string() }).nullable(),
 });
 export type FaultListItem = z.infer<typeof faultListItem>;
 

@@ -3,7 +3,7 @@ import { contract, json, STAFF, TESTERS } from './contract';
 import { equipmentRef, faultListItem, fromEnd, testKind } from './common';
 import { idParams } from '../schemas/params';
 import { readingDtoSchema } from '../schemas/readings';
-import { createFaultSchema, createRepairSchema, REPAIR_ACTIONS, updateFaultSchema } from '../schemas/faults';
+import { createFaultSchema, createRepairSchema, dismissFaultSchema, REPAIR_ACTIONS, updateFaultSchema } from '../schemas/faults';
 
 /** A saved location estimate, with the distance brought to the near end when the length is known. */
 export const faultEstimateSchema = z.strictObject({
@@ -19,6 +19,9 @@ export const faultEstimateSchema = z.strictObject({
   explanation: z.string(),
   /** The request as saved (its method and numbers). */
   inputs: z.record(z.string(), z.union([z.number(), z.string()])),
+  /** The item's recorded length when this estimate was made. */
+  itemLengthM: z.number().nullable(),
+  itemShortenedSince: z.boolean(),
   createdAt: z.string(),
   createdBy: z.string(),
   createdByName: z.string().nullable(),
@@ -34,6 +37,11 @@ export const combinedEstimateSchema = z.strictObject({
   explanation: z.string(),
   count: z.number().int(),
   fromEnd: z.literal('near'),
+  /** The item's length the weighed estimates were made against. */
+  itemLengthM: z.number().nullable(),
+  estimateIds: z.array(z.string()),
+  /** Estimates shown beside the combination, not weighed in, and why. */
+  apart: z.array(z.strictObject({ estimateId: z.string(), kind: z.string(), reason: z.string() })),
 });
 
 export const repairSchema = z.strictObject({
@@ -52,6 +60,8 @@ export const repairSchema = z.strictObject({
 
 export const faultDetailSchema = z.strictObject({
   ...faultListItem.shape,
+  /** The caller is the event's director and the fault can still be dismissed. */
+  canDismiss: z.boolean(),
   lengthM: z.number().nullable(),
   /** The item in the position now (another one after a swap). */
   currentEquipment: equipmentRef.nullable(),
@@ -116,5 +126,14 @@ export const faultsContracts = {
     params: idParams,
     body: createRepairSchema,
     answer: json(z.strictObject({ repair: repairSchema, fault: faultDetailSchema }), 201),
+  }),
+  /** The event's director closes a fault that was a typing mistake, with a reason; If-Match with its ETag. */
+  dismiss: contract({
+    method: 'POST',
+    path: '/faults/:id/dismiss',
+    access: ['director'],
+    params: idParams,
+    body: dismissFaultSchema,
+    answer: json(faultDetailSchema),
   }),
 };

@@ -11,6 +11,8 @@ const profileShape = {
   version: z.number().int(),
   rules: z.array(limitRuleDto),
   loopRequired: z.array(equipmentKind),
+  /** Copper readings are corrected to this °C (a house rule); null: judged as measured. */
+  temperatureReferenceC: z.number().nullable(),
   notes: z.string().nullable(),
   createdAt: z.string(),
   createdBy: z.string().nullable(),

@@ -3,6 +3,7 @@ import { contract, file, json, STAFF } from './contract';
 import { equipmentKind, testKind } from './common';
 import { idParams } from '../schemas/params';
 import { VERDICTS } from '../schemas/readings';
+import { readingsFilterSchema } from '../schemas/readings-table';
 
 /** Every reading of a venue, flat: corrections and the readings they superseded. */
 export const readingRowSchema = z.strictObject({
@@ -24,6 +25,8 @@ export const readingRowSchema = z.strictObject({
   valueOhm: z.number().nullable(),
   overRange: z.boolean(),
   leadOffsetOhm: z.number().nullable(),
+  leadNullId: z.string().nullable(),
+  leadNullMeter: z.string().nullable(),
   verdict: z.enum(VERDICTS),
   limitOhm: z.number().nullable(),
   limitKind: z.enum(['max', 'min']).nullable(),
@@ -46,6 +49,21 @@ export const readingRowSchema = z.strictObject({
 export type ReadingRow = z.infer<typeof readingRowSchema>;
 
 export const readingsTableContracts = {
-  list: contract({ method: 'GET', path: '/venues/:id/readings', access: STAFF, params: idParams, answer: json(z.array(readingRowSchema)) }),
-  csv: contract({ method: 'GET', path: '/venues/:id/readings.csv', access: STAFF, params: idParams, answer: file('text/csv') }),
+  /** Filtered by verdict, strip, who, test and time (query); the CSV takes the same filters. */
+  list: contract({
+    method: 'GET',
+    path: '/venues/:id/readings',
+    access: STAFF,
+    params: idParams,
+    query: readingsFilterSchema,
+    answer: json(z.array(readingRowSchema)),
+  }),
+  csv: contract({
+    method: 'GET',
+    path: '/venues/:id/readings.csv',
+    access: STAFF,
+    params: idParams,
+    query: readingsFilterSchema,
+    answer: file('text/csv'),
+  }),
 };

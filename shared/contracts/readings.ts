@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { contract, json, STAFF, TESTERS } from './contract';
 import { idParams } from '../schemas/params';
 import { createReadingSchema, readingBatchResultSchema, readingDtoSchema, readingsBatchSchema } from '../schemas/readings';
+import { createLeadNullSchema, leadNullDtoSchema } from '../schemas/lead-nulls';
 
 export const readingsContracts = {
   /** 201 the first time, 200 with the stored reading when the same id and body come again. */
@@ -25,4 +26,12 @@ export const readingsContracts = {
     answer: json(z.strictObject({ results: z.array(readingBatchResultSchema) })),
   }),
   get: contract({ method: 'GET', path: '/readings/:id', access: STAFF, params: idParams, answer: json(readingDtoSchema) }),
+  /** The caller's own test-lead null (201, or 200 with the stored one when the same id and content come again). */
+  leadNull: contract({
+    method: 'POST',
+    path: '/lead-nulls',
+    access: TESTERS,
+    body: createLeadNullSchema,
+    answer: json(leadNullDtoSchema, 201, 200),
+  }),
 };

@@ -23,6 +23,7 @@ export const stripDetailSchema = z.strictObject({
       version: z.number().int(),
       rules: z.array(limitRuleDto),
       loopRequired: z.array(equipmentKind),
+      temperatureReferenceC: z.number().nullable(),
     })
     .nullable(),
   counts: z.strictObject(stepCountsShape),
@@ -52,7 +53,8 @@ export const stripDetailSchema = z.strictObject({
       ),
     }),
   ),
-  openFaults: z.array(faultListItem),
+  /** A repaired fault carries the time of its repair: readings taken since then are its retest. */
+  openFaults: z.array(z.strictObject({ ...faultListItem.shape, repairedAt: z.string().nullable() })),
 });
 export type StripDetail = z.infer<typeof stripDetailSchema>;
 

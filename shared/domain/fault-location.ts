@@ -76,6 +76,18 @@ export const DEFAULT_FLEX_TEST_UNCERTAINTY_M = 0.1;
 /** No ordinary cable is slower than this; a lower value is a wrong marker or a wrong length. */
 export const MIN_VELOCITY_FACTOR = 0.3;
 
+/**
+ * Without a cable length nothing bounds a result, so one longer than the longest cable these
+ * methods are meant for is refused as a typo: floor cables, reels and pistes are tens of metres,
+ * and 2 km leaves room for long runs (common practice). The server takes its own setting.
+ */
+export const DEFAULT_MAX_CABLE_LENGTH_M = 2000;
+
+export type LocateOptions = {
+  /** The longest result accepted when no cable length is given. */
+  maxCableLengthM?: number | undefined;
+};
+
 // ---------------------------------------------------------------------------------------------
 // Small helpers
 
@@ -167,6 +179,17 @@ function checkInsideCable(
   return '';
 }
 
+/** With no length to check against, a result beyond any cable these methods are meant for is refused. */
+function checkPlausible(distanceM: number, lengthM: number | undefined, field: string, options: LocateOptions | undefined, f: LengthWords): void {
+  const maxM = options?.maxCableLengthM ?? DEFAULT_MAX_CABLE_LENGTH_M;
+  if (lengthM === undefined && distanceM > maxM) {
+    throw new FaultLocationError(
+      field,
+      `These readings put the fault ${f.m(distanceM)} away, further than the longest cable these methods are meant for (${f.m(maxM)}). Check the reading for a missing decimal point or a wrong prefix, or give the cable length.`,
+    );
+  }
+}
+
 function withLength(estimate: Omit<FaultEstimate, 'fromOtherEndM'>, lengthM: number | undefined): FaultEstimate {
   if (lengthM === undefined) return estimate;
   return { ...estimate, fromOtherEndM: lengthM - estimate.distanceM };
@@ -245,7 +268,7 @@ export type TdrInput = {
  * point is found to within half the distance at which two edges would merge) and the velocity
  * factor's own uncertainty, which scales with the distance.
  */
-export function locateByTdr(input: TdrInput, units: LengthSystem = 'metric'): FaultEstimate {
+export function locateByTdr(input: TdrInput, units: LengthSystem = 'metric', options?: LocateOptions): FaultEstimate {
   const f = lengthWords(units);
   const roundTripNs = requirePositive('roundTripNs', input.roundTripNs, 'a round-trip time in ns');
   const vf = requireVelocityFactor('velocityFactor', input.velocityFactor);
@@ -265,6 +288,7 @@ export function locateByTdr(input: TdrInput, units: LengthSystem = 'metric'): Fa
   const timingM = resolutionM / 2;
   const vfPartM = (distanceM * vfUncertainty) / vf;
   const uncertaintyM = Math.hypot(timingM, vfPartM);
+  checkPlausible(distanceM, lengthM, 'roundTripNs', options, f);
 
   const edgeNote = checkInsideCable(
     distanceM,
@@ -401,7 +425,7 @@ export type LoopOneEndInput = {
 };
 
 /** R_loop = 2 r d + R_f → d = (R_loop − R_f) / (2r). */
-export function locateByLoopOneEnd(input: LoopOneEndInput, units: LengthSystem = 'metric'): FaultEstimate {
+export function locateByLoopOneEnd(input: LoopOneEndInput, units: LengthSystem = 'metric', options?: LocateOptions): FaultEstimate {
   const f = lengthWords(units);
   const accuracy = input.meterAccuracy ?? DEFAULT_METER_ACCURACY;
   const loopOhm = requireNonNegative('loopOhm', input.loopOhm, 'a loop resistance in Ω');
@@ -426,6 +450,7 @@ export function locateByLoopOneEnd(input: LoopOneEndInput, units: LengthSystem =
   const loopPartM = meterUncertaintyOhm(loopOhm, accuracy) / (2 * r.ohmPerMetre);
   const faultPartM = faultOhm === undefined ? 0 : meterUncertaintyOhm(faultOhm, accuracy) / (2 * r.ohmPerMetre);
   const uncertaintyM = Math.hypot(loopPartM, faultPartM, distanceM * r.relUncertainty);
+  checkPlausible(distanceM, lengthM, 'loopOhm', options, f);
   const wholeLoop = lengthM === undefined ? '' : ` (the whole cable's loop would be ${formatOhm(2 * r.ohmPerMetre * lengthM)})`;
   const edgeNote = checkInsideCable(
     distanceM,
@@ -534,33 +559,37 @@ export function locateByLoopBothEnds(input: LoopBothEndsInput, units: LengthSyst
 
 export type MurrayLoopInput = {
   lengthM: number;
-  /** Bridge arm on the faulty conductor's side at balance. */
-  ratioP: number;
-  /** Bridge arm on the sound conductor's side at balance. */
-  ratioQ: number;
+  /** The bridge arm joined to the faulted conductor, at balance (any unit: only the ratio counts). */
+  faultedArm: number;
+  /** The bridge arm joined to the sound conductor, at balance. */
+  soundArm: number;
   ratioRelUncertainty?: number | undefined;
 };
 
 /**
- * Murray loop: faulty and sound conductors (equal) bridged at the far end, bridge at the near
- * end between them and the earth/screen fault. At balance x = 2L · Q / (P + Q).
+ * Murray loop: the faulted conductor and a sound one of the same size joined at the far end; at
+ * the near end one bridge arm on each, the supply between the arms' junction and the earth (or
+ * screen) the fault leaks to, the detector between the two conductors. At balance the arms divide
+ * as the loop either side of the fault: a_faulted / a_sound = x / (2L − x), so
+ * x = 2L · a_faulted / (a_faulted + a_sound). The fault's own resistance is in the supply's lead
+ * and drops out.
  */
 export function locateByMurrayLoop(input: MurrayLoopInput, units: LengthSystem = 'metric'): FaultEstimate {
   const f = lengthWords(units);
   const lengthM = requirePositive('lengthM', input.lengthM, 'a length in m');
-  const p = requirePositive('ratioP', input.ratioP, 'a bridge arm value');
-  const q = requirePositive('ratioQ', input.ratioQ, 'a bridge arm value');
+  const faulted = requirePositive('faultedArm', input.faultedArm, 'a bridge arm value');
+  const sound = requirePositive('soundArm', input.soundArm, 'a bridge arm value');
   const eps = requireNonNegative('ratioRelUncertainty', input.ratioRelUncertainty ?? DEFAULT_RATIO_REL_UNCERTAINTY, 'a fraction');
-  const k = p / q;
-  const distanceM = (2 * lengthM) / (1 + k);
-  // dx/dk = −2L / (1 + k)², with σ_k = k · ε
+  const k = faulted / sound;
+  const distanceM = (2 * lengthM * k) / (1 + k);
+  // dx/dk = 2L / (1 + k)², with σ_k = k · ε
   const uncertaintyM = ((2 * lengthM) / (1 + k) ** 2) * k * eps;
   const edgeNote = checkInsideCable(
     distanceM,
     uncertaintyM,
     lengthM,
-    'ratioQ',
-    'At balance P must be at least Q (the fault is on the P side). Check which arm is connected to the faulty conductor, and that the far-end bridge is in place.',
+    'faultedArm',
+    'At balance the arm on the faulted line is at most the arm on the sound line (equal puts the fault at the far end). Check that the faulted line is on the faulted arm and the sound line on the other, and that the far-end link is in place.',
     f,
   );
   return {
@@ -569,9 +598,9 @@ export function locateByMurrayLoop(input: MurrayLoopInput, units: LengthSystem =
     fromOtherEndM: lengthM - distanceM,
     uncertaintyM,
     explanation:
-      `The bridge balances at P:Q = ${num(p)}:${num(q)}. With the faulty and a sound conductor joined at the far end, the fault is ` +
+      `The bridge balances with ${num(faulted)} on the faulted line’s arm and ${num(sound)} on the sound line’s arm. With the two lines joined at the far end, the fault is ` +
       `${f.where(distanceM, uncertaintyM, lengthM, 'the bridge end')} (the ratio read to ±${num(eps * 100, 2)} %).${edgeNote}`,
-    inputs: inputsOf({ lengthM, ratioP: p, ratioQ: q }),
+    inputs: inputsOf({ lengthM, faultedArm: faulted, soundArm: sound }),
   };
 }
 
@@ -663,6 +692,7 @@ export function locateByCapacitance(input: CapacitanceInput, units: LengthSystem
 export function recordFlexTest(
   input: { distanceM: number; lengthM?: number | undefined; uncertaintyM?: number | undefined },
   units: LengthSystem = 'metric',
+  options?: LocateOptions,
 ): FaultEstimate {
   const f = lengthWords(units);
   const distanceM = requireNonNegative('distanceM', input.distanceM, 'a distance in m');
@@ -674,6 +704,7 @@ export function recordFlexTest(
   if (lengthM !== undefined && distanceM > lengthM) {
     throw new FaultLocationError('distanceM', `${f.m(distanceM)} is beyond the end of this ${f.m(lengthM)} cable; measure from the named end again.`);
   }
+  checkPlausible(distanceM, lengthM, 'distanceM', options, f);
   return withLength(
     {
       method: 'flex',
@@ -813,10 +844,10 @@ export function ohmPerMetreFromConductorSize(input: {
 // HTTP request → estimate
 
 /** The engine behind POST /api/fault-location; `units` words the explanation for the reader. */
-export function runFaultLocation(request: FaultLocationRequest, units: LengthSystem = 'metric'): FaultLocationAnswer {
+export function runFaultLocation(request: FaultLocationRequest, units: LengthSystem = 'metric', options?: LocateOptions): FaultLocationAnswer {
   switch (request.method) {
     case 'tdr':
-      return answer(locateByTdr(request, units));
+      return answer(locateByTdr(request, units, options));
     case 'vf-calibration': {
       const calibration = calibrateVelocityFactor(request, units);
       // The far end of the known-good cable is where the reflection comes from.
@@ -830,7 +861,7 @@ export function runFaultLocation(request: FaultLocationRequest, units: LengthSys
       };
     }
     case 'loop-one-end':
-      return answer(locateByLoopOneEnd(request, units));
+      return answer(locateByLoopOneEnd(request, units, options));
     case 'loop-both-ends':
       return answer(locateByLoopBothEnds(request, units));
     case 'murray':
@@ -838,7 +869,7 @@ export function runFaultLocation(request: FaultLocationRequest, units: LengthSys
     case 'capacitance':
       return answer(locateByCapacitance(request, units));
     case 'flex':
-      return answer(recordFlexTest(request, units));
+      return answer(recordFlexTest(request, units, options));
   }
 }
 

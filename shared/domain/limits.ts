@@ -38,6 +38,12 @@ export type LimitProfile = {
   rules: LimitRule[];
   /** Kinds whose checklist includes loop steps. */
   loopRequired?: EquipmentKind[];
+  /**
+   * Copper readings taken with a cable temperature are corrected to this temperature before they
+   * are judged: a house rule, since the FIE Material Rules give no reference temperature. Null
+   * or absent (the default): readings are judged as measured.
+   */
+  temperatureReferenceC?: number | null | undefined;
 };
 
 export type Verdict = {
@@ -47,7 +53,7 @@ export type Verdict = {
   source: string;
   ruleId: string | null;
   explanation: string;
-  /** The reading corrected to 20 °C, when a temperature was given. */
+  /** The reading corrected to the profile's reference temperature, when it has one and a temperature was given. */
   correctedOhm?: number;
 };
 
@@ -96,6 +102,8 @@ export const DEFAULT_LIMIT_PROFILE: LimitProfile = {
   name: 'Competition default',
   version: 1,
   loopRequired: ['floor-cable', 'reel'],
+  // The rules give no reference temperature, so readings are judged as measured.
+  temperatureReferenceC: null,
   rules: [
     {
       id: 'floor-cable.continuity',
@@ -192,16 +200,26 @@ export function findRule(profile: LimitProfile, equipmentKind: EquipmentKind, te
   return profile.rules.find((r) => r.equipmentKind === equipmentKind && r.testKind === testKind) ?? null;
 }
 
-/** IEC 60228 Annex B, copper: k_t = 254.5 / (234.5 + t), multiplies a reading at t °C. */
-export function temperatureCorrectionFactor(temperatureC: number): number {
+/**
+ * IEC 60228 Annex B, copper: k_t = 254.5 / (234.5 + t) multiplies a reading at t °C to give it
+ * at 20 °C; to another reference T the same law gives (234.5 + T) / (234.5 + t).
+ */
+export function temperatureCorrectionFactor(temperatureC: number, referenceC = 20): number {
   if (!Number.isFinite(temperatureC) || temperatureC <= -234.5) {
     throw new RangeError(`A conductor temperature of ${temperatureC} °C is not physical.`);
   }
-  return 254.5 / (234.5 + temperatureC);
+  return (234.5 + referenceC) / (234.5 + temperatureC);
 }
 
 export function correctTo20C(resistanceOhm: number, temperatureC: number): number {
   return resistanceOhm * temperatureCorrectionFactor(temperatureC);
+}
+
+/** How the profile treats a cable's temperature, in a few words, as a certificate prints it. */
+export function temperatureRuleText(profile: Pick<LimitProfile, 'temperatureReferenceC'>): string {
+  const referenceC = profile.temperatureReferenceC;
+  if (referenceC === null || referenceC === undefined) return 'Judged as measured (no correction)';
+  return `Copper corrected to ${referenceC} °C (IEC 60228 Annex B): house rule`;
 }
 
 /** Indoor venues; outside this the thermometer reading is a typo. */
@@ -318,9 +336,14 @@ function evaluateMaximum(rule: LimitRule, input: ReadingToEvaluate, conductors: 
         `The cable temperature must be between ${TEMPERATURE_RANGE_C.min} and ${TEMPERATURE_RANGE_C.max} °C (got ${temperatureC}).`,
       );
     }
-    correctedOhm = roundSignificant(correctTo20C(readOhm, temperatureC), 12);
-    comparedOhm = correctedOhm;
-    prefix = `Read ${formatOhm(readOhm)} at ${temperatureC} °C, which is ${formatOhm(correctedOhm)} corrected to 20 °C (IEC 60228 Annex B, copper). `;
+    const referenceC = input.profile.temperatureReferenceC;
+    if (referenceC === null || referenceC === undefined) {
+      prefix = `Read ${formatOhm(readOhm)} at ${temperatureC} °C and judged as measured (the FIE Material Rules give no reference temperature). `;
+    } else {
+      correctedOhm = roundSignificant(readOhm * temperatureCorrectionFactor(temperatureC, referenceC), 12);
+      comparedOhm = correctedOhm;
+      prefix = `Read ${formatOhm(readOhm)} at ${temperatureC} °C, which is ${formatOhm(correctedOhm)} corrected to ${referenceC} °C (house rule of this profile, the FIE Material Rules give none; IEC 60228 Annex B, copper). `;
+    }
   }
 
   const value = formatOhm(comparedOhm);

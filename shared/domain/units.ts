@@ -3,7 +3,8 @@
 // Prefix case matters, as on the meter's display: `m` is milli and `M` is mega, so `800m` is
 // 0.8 Ω and `22M` is 22 MΩ. `k` and `K` both mean kilo (meters print either), `meg` means mega.
 // `u`, `µ` (micro sign U+00B5) and `μ` (Greek mu U+03BC) all mean micro.
-// A comma is a decimal separator (`0,8` = 0.8); there is no thousands separator.
+// A comma is a decimal separator (`0,8` = 0.8); there is no thousands separator, so a number that
+// reads as well with one ("1,000", "2.500") is refused with both readings offered.
 
 export type Quantity = 'resistance' | 'capacitance' | 'time';
 
@@ -30,8 +31,12 @@ export const READING_BOUNDS: Record<Quantity, { min: number; max: number }> = {
   time: { min: 1e-10, max: 10 },
 };
 
-/** Test leads measure well under 1 Ω; more than 10 Ω of "lead offset" is a mistake. */
-export const LEAD_OFFSET_MAX_OHM = 10;
+/**
+ * The most a test-lead null may be. Good leads with their tips touching read a few tenths of an
+ * ohm at most; leads that read more than 1 Ω are worn and must be replaced, not nulled away
+ * (common practice, no published value). A null above this is refused.
+ */
+export const LEAD_NULL_MAX_OHM = 1;
 
 const UNIT_SYMBOL: Record<Quantity, string> = { resistance: 'Ω', capacitance: 'F', time: 's' };
 
@@ -94,9 +99,9 @@ export function parseReading(
 ): ParsedReading {
   const leadOffsetOhm = opts?.leadOffsetOhm ?? 0;
   if (quantity === 'resistance' || opts?.leadOffsetOhm !== undefined) {
-    if (!Number.isFinite(leadOffsetOhm) || leadOffsetOhm < 0 || leadOffsetOhm > LEAD_OFFSET_MAX_OHM) {
+    if (!Number.isFinite(leadOffsetOhm) || leadOffsetOhm < 0 || leadOffsetOhm > LEAD_NULL_MAX_OHM) {
       return fail(
-        `The test-lead offset must be between 0 and ${LEAD_OFFSET_MAX_OHM} Ω (got ${String(leadOffsetOhm)}); null the leads again with their tips touching.`,
+        `The test-lead offset must be between 0 and ${LEAD_NULL_MAX_OHM} Ω (got ${String(leadOffsetOhm)}); null the leads again with their tips touching.`,
       );
     }
   }
@@ -122,11 +127,25 @@ export function parseReading(
   const unit = splitUnit(unitText.trim(), quantity, trimmed);
   if (!unit.ok) return unit;
 
+  // A point before a unit prefix is kept: "1.000k" is how a meter on its kΩ range shows 1 kΩ.
+  const ambiguous = exponentText === undefined && !(unit.prefix !== '' && mantissaText.includes('.')) ? thousandsReadings(mantissaText) : null;
+  if (ambiguous) {
+    const u = `${unit.prefix}${UNIT_SYMBOL[quantity]}`;
+    const typed = (digits: string) => `${sign}${digits}${unit.prefix}`;
+    return fail(
+      `“${trimmed}” could be read two ways: did you mean ${sign}${ambiguous.thousands} ${u} or ${sign}${ambiguous.decimal} ${u}? ` +
+        `Type ${typed(ambiguous.thousands)} for the first, ${typed(ambiguous.decimalTyped)} for the second.`,
+    );
+  }
+
   const exponent = Number(exponentText ?? '0') + unit.exponent;
   // Rebuilding a decimal string keeps 800m exactly 0.8 (800 * 0.001 would not always be).
   const magnitude = Number(`${mantissaText.replace(',', '.')}e${exponent}`);
   if (!Number.isFinite(magnitude)) {
-    return fail(`“${trimmed}” is too large to be a reading; ${EXAMPLES[quantity]}.`);
+    return fail(`“${trimmed}” is too large to be a reading (the exponent overflows); ${EXAMPLES[quantity]}.`);
+  }
+  if (underflows(mantissaText, magnitude)) {
+    return fail(`“${trimmed}” is too small to be a reading (the exponent underflows, so it would read as 0); check the exponent. ${EXAMPLES[quantity]}.`);
   }
   const value = sign === '-' ? -magnitude : magnitude;
   const symbol = UNIT_SYMBOL[quantity];
@@ -172,7 +191,7 @@ function splitUnit(
   unitText: string,
   quantity: Quantity,
   reading: string,
-): { ok: true; exponent: number } | { ok: false; message: string } {
+): { ok: true; exponent: number; prefix: string } | { ok: false; message: string } {
   let prefix = unitText;
   let kind: UnitKind | null = null;
   for (const candidate of UNIT_SUFFIXES) {
@@ -198,7 +217,30 @@ function splitUnit(
   if (kind === null && normalisedPrefix === '' && quantity !== 'resistance') {
     return fail(`Add the unit: ${EXPECTED[quantity]}, ${EXAMPLES[quantity]}.`);
   }
-  return { ok: true, exponent };
+  return { ok: true, exponent, prefix: normalisedPrefix };
+}
+
+/** The smallest normal double: below it a typed number has lost its digits (1e-400 reads as 0). */
+const SMALLEST_NORMAL = 2.2250738585072014e-308;
+
+/** A mantissa with a digit other than 0 that came out as (nearly) nothing. */
+function underflows(mantissaText: string, magnitude: number): boolean {
+  return /[1-9]/.test(mantissaText) && Math.abs(magnitude) < SMALLEST_NORMAL;
+}
+
+/**
+ * "1,000", "2.500", "12,500": one to three digits (not a lone 0), one separator, exactly three
+ * digits. A thousands separator or a decimal one? Both readings, or null when the text can only
+ * be a decimal ("1,5", "0,250", "1,2345", "1234,567").
+ */
+export function thousandsReadings(mantissaText: string): { thousands: string; decimal: string; decimalTyped: string } | null {
+  const m = /^([1-9]\d{0,2})[.,](\d{3})$/.exec(mantissaText);
+  if (!m) return null;
+  const [, whole, part] = m as unknown as [string, string, string];
+  const decimal = `${whole}.${part}`;
+  // The decimal reading typed so it cannot be taken for thousands: trailing zeros off, else one more.
+  const trimmed = decimal.replace(/0+$/, '').replace(/\.$/, '');
+  return { thousands: `${whole}${part}`, decimal, decimalTyped: trimmed === decimal ? `${decimal}0` : trimmed };
 }
 
 function article(word: string): string {
@@ -321,12 +363,30 @@ export function fromOhmPerMetre(ohmPerMetre: number, unit: PerLengthUnit): numbe
   return ohmPerMetre * METRES_PER_LENGTH_UNIT[unit];
 }
 
-const DECIMAL = /^[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE][+-]?\d+)?$/;
+const DECIMAL = /^([+-]?)(\d+(?:[.,]\d*)?|[.,]\d+)([eE][+-]?\d+)?$/;
 
-/** A plain number as typed in a form field: `12`, `1.5`, `0,8` (comma decimal), `.5`; null otherwise. */
+/**
+ * A plain number as typed in a form field: `12`, `1.5`, `0,8` (comma decimal), `.5`; null otherwise,
+ * and null for a number that could be read with a thousands separator (`1,000`) or whose exponent
+ * overflows or underflows (`1e309`, `1e-400`). `decimalProblem` says why.
+ */
 export function parseDecimal(text: string): number | null {
+  return decimalProblem(text) === null ? Number(text.trim().replace(',', '.')) : null;
+}
+
+/** Why a form field's text is not a plain number, in a sentence; null when it is one. */
+export function decimalProblem(text: string, unit = ''): string | null {
   const trimmed = text.trim();
-  if (!DECIMAL.test(trimmed)) return null;
+  const match = DECIMAL.exec(trimmed);
+  if (!match) return 'Type a number.';
+  const [, sign, mantissa, exponent] = match as unknown as [string, string, string, string | undefined];
+  const ambiguous = exponent === undefined ? thousandsReadings(mantissa) : null;
+  const u = unit ? ` ${unit}` : '';
+  if (ambiguous) {
+    return `“${trimmed}” could be read two ways: did you mean ${sign}${ambiguous.thousands}${u} or ${sign}${ambiguous.decimal}${u}? Type ${sign}${ambiguous.thousands} for the first, ${sign}${ambiguous.decimalTyped} for the second.`;
+  }
   const value = Number(trimmed.replace(',', '.'));
-  return Number.isFinite(value) ? value : null;
+  if (!Number.isFinite(value)) return `“${trimmed}” is too large (the exponent overflows).`;
+  if (underflows(mantissa, value)) return `“${trimmed}” is too small (the exponent underflows, so it would read as 0).`;
+  return null;
 }

@@ -1,7 +1,9 @@
-// Body of POST /api/fault-location: one object per method, told apart by `method`.
+// Body of POST /api/fault-location: one object per method, told apart by `method`, its fields
+// built from the one definition of each method's inputs (shared/domain/fault-methods.ts).
 // Objects are strict so a mistyped field name is reported rather than silently ignored.
 
 import { z } from 'zod';
+import { METHOD_DEFINITIONS, VF_CALIBRATION_INPUTS, type MethodInput } from '../domain/fault-methods';
 
 const FAULT_LOCATION_METHODS = ['tdr', 'vf-calibration', 'loop-one-end', 'loop-both-ends', 'murray', 'capacitance', 'flex'] as const;
 
@@ -27,85 +29,55 @@ function nonNegative(field: string, what: string) {
     .max(MAX_INPUT, { error: `${field} is too large to be a real reading (${what})` });
 }
 
-const velocityFactor = positive('velocityFactor', 'the cable’s velocity factor, e.g. 0.66').max(1, {
-  error: 'velocityFactor cannot be more than 1: nothing travels faster than light',
+type NumberInput = Pick<MethodInput, 'name' | 'required' | 'zeroAllowed' | 'quantity' | 'describe'>;
+type Field<I extends NumberInput> = I['required'] extends true ? z.ZodNumber : z.ZodOptional<z.ZodNumber>;
+type ShapeOf<Inputs extends readonly NumberInput[]> = { [I in Inputs[number] as I['name']]: Field<I> };
+
+/** One input of shared/domain/fault-methods.ts as a zod number, with its name and sentence in every message. */
+function fieldOf(input: NumberInput) {
+  let field = input.zeroAllowed ? nonNegative(input.name, input.describe) : positive(input.name, input.describe);
+  if (input.quantity === 'velocity-factor') {
+    field = field.max(1, { error: `${input.name} cannot be more than 1: nothing travels faster than light` });
+  }
+  return input.required ? field : field.optional();
+}
+
+function shapeOf<const Inputs extends readonly NumberInput[]>(inputs: Inputs): ShapeOf<Inputs> {
+  return Object.fromEntries(inputs.map((input) => [input.name, fieldOf(input)])) as ShapeOf<Inputs>;
+}
+
+export const tdrRequestSchema = z.strictObject({ method: z.literal('tdr'), ...shapeOf(METHOD_DEFINITIONS.tdr.inputs) });
+
+export const vfCalibrationRequestSchema = z.strictObject({ method: z.literal('vf-calibration'), ...shapeOf(VF_CALIBRATION_INPUTS) });
+
+export const loopOneEndRequestSchema = z.strictObject({ method: z.literal('loop-one-end'), ...shapeOf(METHOD_DEFINITIONS['loop-one-end'].inputs) }).superRefine((body, ctx) => {
+  if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
+    ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
+  } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
+    ctx.addIssue({
+      code: 'custom',
+      path: ['ohmPerMetre'],
+      message: 'Give ohmPerMetre, or conductorOhm (a sound conductor end to end) with lengthM',
+    });
+  } else if (body.conductorOhm !== undefined && body.lengthM === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['lengthM'], message: 'lengthM is required with conductorOhm' });
+  }
 });
 
-export const tdrRequestSchema = z.strictObject({
-  method: z.literal('tdr'),
-  roundTripNs: positive('roundTripNs', 'time from the incident edge to the reflection, in ns'),
-  velocityFactor,
-  riseTimeNs: nonNegative('riseTimeNs', 'rise time of the incident edge, in ns').optional(),
-  lengthM: positive('lengthM', 'cable length in metres').optional(),
+export const loopBothEndsRequestSchema = z.strictObject({ method: z.literal('loop-both-ends'), ...shapeOf(METHOD_DEFINITIONS['loop-both-ends'].inputs) }).superRefine((body, ctx) => {
+  if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
+    ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
+  } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
+    ctx.addIssue({ code: 'custom', path: ['ohmPerMetre'], message: 'Give ohmPerMetre or conductorOhm (a sound conductor end to end)' });
+  }
 });
 
-export const vfCalibrationRequestSchema = z.strictObject({
-  method: z.literal('vf-calibration'),
-  roundTripNs: positive('roundTripNs', 'time from the incident edge to the far-end reflection, in ns'),
-  lengthM: positive('lengthM', 'length of the known-good cable in metres'),
-});
+/** The arm joined to the faulted line and the arm joined to the sound line: named so the wiring cannot be misread. */
+export const murrayRequestSchema = z.strictObject({ method: z.literal('murray'), ...shapeOf(METHOD_DEFINITIONS.murray.inputs) });
 
-export const loopOneEndRequestSchema = z
-  .strictObject({
-    method: z.literal('loop-one-end'),
-    loopOhm: nonNegative('loopOhm', 'loop reading through the short, in Ω'),
-    ohmPerMetre: positive('ohmPerMetre', 'resistance of one conductor per metre, in Ω/m').optional(),
-    conductorOhm: positive('conductorOhm', 'end-to-end reading of one sound conductor, in Ω').optional(),
-    faultOhm: nonNegative('faultOhm', 'the short’s own resistance, in Ω').optional(),
-    lengthM: positive('lengthM', 'cable length in metres').optional(),
-  })
-  .superRefine((body, ctx) => {
-    if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
-      ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
-    } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
-      ctx.addIssue({
-        code: 'custom',
-        path: ['ohmPerMetre'],
-        message: 'Give ohmPerMetre, or conductorOhm (a sound conductor end to end) with lengthM',
-      });
-    } else if (body.conductorOhm !== undefined && body.lengthM === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['lengthM'], message: 'lengthM is required with conductorOhm' });
-    }
-  });
+export const capacitanceRequestSchema = z.strictObject({ method: z.literal('capacitance'), ...shapeOf(METHOD_DEFINITIONS.capacitance.inputs) });
 
-export const loopBothEndsRequestSchema = z
-  .strictObject({
-    method: z.literal('loop-both-ends'),
-    nearOhm: nonNegative('nearOhm', 'loop reading from the near end, far end open, in Ω'),
-    farOhm: nonNegative('farOhm', 'loop reading from the far end, near end open, in Ω'),
-    lengthM: positive('lengthM', 'cable length in metres'),
-    ohmPerMetre: positive('ohmPerMetre', 'resistance of one conductor per metre, in Ω/m').optional(),
-    conductorOhm: positive('conductorOhm', 'end-to-end reading of one sound conductor, in Ω').optional(),
-  })
-  .superRefine((body, ctx) => {
-    if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
-      ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
-    } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['ohmPerMetre'], message: 'Give ohmPerMetre or conductorOhm (a sound conductor end to end)' });
-    }
-  });
-
-export const murrayRequestSchema = z.strictObject({
-  method: z.literal('murray'),
-  lengthM: positive('lengthM', 'cable length in metres'),
-  ratioP: positive('ratioP', 'bridge arm on the faulty conductor’s side at balance'),
-  ratioQ: positive('ratioQ', 'bridge arm on the sound conductor’s side at balance'),
-});
-
-export const capacitanceRequestSchema = z.strictObject({
-  method: z.literal('capacitance'),
-  lengthM: positive('lengthM', 'cable length in metres'),
-  faultedNf: positive('faultedNf', 'broken conductor from the near end, in nF'),
-  soundNf: positive('soundNf', 'a sound conductor over the whole length, in nF'),
-  farFaultedNf: positive('farFaultedNf', 'broken conductor from the far end, in nF').optional(),
-});
-
-export const flexRequestSchema = z.strictObject({
-  method: z.literal('flex'),
-  distanceM: nonNegative('distanceM', 'distance from the named end, in metres'),
-  lengthM: positive('lengthM', 'cable length in metres').optional(),
-  uncertaintyM: positive('uncertaintyM', 'how precisely the spot was found, in metres').optional(),
-});
+export const flexRequestSchema = z.strictObject({ method: z.literal('flex'), ...shapeOf(METHOD_DEFINITIONS.flex.inputs) });
 
 export const faultLocationRequestSchema = z.discriminatedUnion(
   'method',

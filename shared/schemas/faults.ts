@@ -38,11 +38,19 @@ export const createFaultSchema = z.strictObject({
 });
 export type CreateFaultInput = z.infer<typeof createFaultSchema>;
 
+// By hand a fault is only marked open or located: it becomes repaired by recording a repair, and
+// closes by a passing retest or the director's dismissal, never by an edit.
+const EDITABLE_STATUSES = ['open', 'located'] as const;
+
 export const updateFaultSchema = z
   .strictObject({
     notes: notes.nullable().optional(),
     kind: faultKind.optional(),
-    status: z.enum(FAULT_STATUSES, { error: `status must be one of: ${FAULT_STATUSES.join(', ')}` }).optional(),
+    status: z
+      .enum(EDITABLE_STATUSES, {
+        error: 'status can be set to open or located; a fault is repaired by recording a repair, and closes when its retest passes or the technical director dismisses it',
+      })
+      .optional(),
   })
   .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change: give notes, kind or status.' });
 export type UpdateFaultInput = z.infer<typeof updateFaultSchema>;
@@ -71,3 +79,17 @@ export const createRepairSchema = z
     }
   });
 export type CreateRepairInput = z.infer<typeof createRepairSchema>;
+
+/** A dismissal must say why in at least a sentence: it is printed on the certificate. */
+export const DISMISSAL_REASON_MIN = 20;
+
+export const dismissFaultSchema = z.strictObject({
+  reason: z
+    .string({ error: 'reason is required: why this fault was a typing mistake' })
+    .trim()
+    .min(DISMISSAL_REASON_MIN, {
+      error: `reason needs at least ${DISMISSAL_REASON_MIN} characters: say in a sentence why this fault was a typing mistake (it is kept in the audit trail and printed on the certificate)`,
+    })
+    .max(1000, { error: 'reason must be under 1000 characters' }),
+});
+export type DismissFaultInput = z.infer<typeof dismissFaultSchema>;

@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { EQUIPMENT_KINDS, TEST_KINDS } from '../domain/limits';
+import { EQUIPMENT_KINDS, TEMPERATURE_RANGE_C, TEST_KINDS } from '../domain/limits';
 import { typedName } from './common';
 
 const profileName = typedName({ required: 'A limit profile needs a name', max: 120, tooLong: 'Keep the profile name under 120 characters' });
@@ -73,11 +73,19 @@ export const limitProfileRulesSchema = z
     });
   });
 
+/** The reference temperature copper readings are corrected to (a house rule); null: judged as measured. */
+export const temperatureReferenceSchema = z
+  .number({ error: 'temperatureReferenceC must be a number of °C, or null to judge readings as measured' })
+  .min(TEMPERATURE_RANGE_C.min, { error: `temperatureReferenceC must be at least ${TEMPERATURE_RANGE_C.min} °C` })
+  .max(TEMPERATURE_RANGE_C.max, { error: `temperatureReferenceC must be at most ${TEMPERATURE_RANGE_C.max} °C` })
+  .nullable();
+
 export const limitProfileSchema = z.strictObject({
   name: profileName,
   version: z.number().int().positive(),
   rules: limitProfileRulesSchema,
   loopRequired: z.array(z.enum(EQUIPMENT_KINDS)).optional(),
+  temperatureReferenceC: temperatureReferenceSchema.optional(),
 });
 
 export type LimitRuleInput = z.infer<typeof limitRuleSchema>;
@@ -93,6 +101,7 @@ export const updateProfileSchema = z.strictObject({
   name: profileName.optional(),
   rules: limitProfileRulesSchema,
   loopRequired: z.array(z.enum(EQUIPMENT_KINDS, { error: `loopRequired lists equipment kinds: ${EQUIPMENT_KINDS.join(', ')}` })).optional(),
+  temperatureReferenceC: temperatureReferenceSchema.optional(),
   notes: z.string().trim().max(2000).nullable().optional(),
 });
 export type UpdateProfileInput = z.input<typeof updateProfileSchema>;

@@ -1,8 +1,10 @@
 // Body of POST /api/readings. The client makes the id (a UUID) so a retry is recognised.
 import { z } from 'zod';
 import { idField } from './common';
-import { LEAD_OFFSET_MAX_OHM } from '../domain/units';
 import { TEMPERATURE_RANGE_C } from '../domain/limits';
+
+/** A correction must say what was wrong in a few words (e.g. “typed 3.4 for 0.34”). */
+export const CORRECTION_REASON_MIN = 10;
 
 export const createReadingSchema = z
   .strictObject({
@@ -13,12 +15,12 @@ export const createReadingSchema = z
       .trim()
       .min(1, { error: 'value is required: the reading as the meter shows it, e.g. 0.8, 22 MΩ or OL' })
       .max(40, { error: 'value is too long for a meter reading' }),
-    leadOffsetOhm: z
-      .number({ error: 'leadOffsetOhm must be a number of ohms' })
-      .min(0, { error: 'leadOffsetOhm cannot be negative' })
-      .max(LEAD_OFFSET_MAX_OHM, { error: `leadOffsetOhm must be at most ${LEAD_OFFSET_MAX_OHM} Ω; null the leads again` })
-      .nullable()
-      .optional(),
+    // The test-lead null this reading was typed with (POST /api/lead-nulls); its value is
+    // subtracted. Null or absent: nothing is subtracted.
+    leadNullId: idField.nullable().optional(),
+    // Readings once carried the offset itself. Refused when it is a number, so no reading is judged
+    // with an offset nobody recorded; null (no offset) is accepted from older tablets.
+    leadOffsetOhm: z.unknown().optional(),
     temperatureC: z
       .number({ error: 'temperatureC must be a number of °C' })
       .min(TEMPERATURE_RANGE_C.min, { error: `temperatureC must be at least ${TEMPERATURE_RANGE_C.min} °C` })
@@ -32,9 +34,22 @@ export const createReadingSchema = z
       .nullable()
       .optional(),
     supersedesId: idField.nullable().optional(),
-    correctionReason: z.string().trim().min(3, { error: 'correctionReason needs a few words' }).max(500).nullable().optional(),
+    correctionReason: z
+      .string({ error: 'correctionReason must be text' })
+      .trim()
+      .min(CORRECTION_REASON_MIN, { error: `correctionReason needs at least ${CORRECTION_REASON_MIN} characters: say what was wrong, e.g. “typed 3.4 for 0.34”` })
+      .max(500, { error: 'correctionReason must be under 500 characters' })
+      .nullable()
+      .optional(),
   })
   .superRefine((body, ctx) => {
+    if (body.leadOffsetOhm !== undefined && body.leadOffsetOhm !== null) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['leadOffsetOhm'],
+        message: 'leadOffsetOhm is no longer taken with a reading: record the test-lead null (POST /api/lead-nulls) and send its id as leadNullId',
+      });
+    }
     const hasSupersedes = body.supersedesId != null;
     const hasReason = body.correctionReason != null;
     if (hasSupersedes && !hasReason) {
@@ -71,7 +86,9 @@ export const readingDtoSchema = z.strictObject({
   valueText: z.string(),
   valueOhm: z.number().nullable(),
   overRange: z.boolean(),
+  /** The test-lead null subtracted from what was typed (0 or null: none). */
   leadOffsetOhm: z.number().nullable(),
+  leadNullId: z.string().nullable(),
   temperatureC: z.number().nullable(),
   verdict: z.enum(VERDICTS),
   limitOhm: z.number().nullable(),

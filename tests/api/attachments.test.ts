@@ -378,7 +378,7 @@ describe('GET /api/attachments/:id/analysis', () => {
     expect(Math.abs(a.incidentTimeS - trace.incidentS)).toBeLessThan(trace.sampleIntervalS);
     expect(Math.abs(a.reflectionTimeS - trace.reflectionS)).toBeLessThan(trace.sampleIntervalS);
     expect(a.polarity).toBe('short');
-    // TDR distance d = VF · c · Δt / 2 (Ulaby, Fundamentals of Applied Electromagnetics, TDR section).
+    // TDR distance d = VF · c · Δt / 2 (formula: Ulaby, Fundamentals of Applied Electromagnetics, TDR section; the trace is ours).
     expect(a.distanceM).toBeCloseTo(7.4, 1);
     expect(res.body.points.timeS.length).toBe(res.body.points.volts.length);
     expect(res.body.points.timeS.length).toBeLessThanOrEqual(4000);

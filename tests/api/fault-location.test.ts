@@ -25,7 +25,7 @@ function expectProblem(res: { status: number; headers: Record<string, string>; b
 }
 
 describe('POST /api/fault-location', () => {
-  test('tdr: d = VF·c·Δt/2 (Ulaby, Fundamentals of Applied Electromagnetics, TDR section), with c from mathjs', async () => {
+  test('tdr: d = VF·c·Δt/2 (formula: Ulaby, Fundamentals of Applied Electromagnetics, TDR section; the numbers are ours), with c from mathjs', async () => {
     const res = await locate({ method: 'tdr', roundTripNs: 100, velocityFactor: 0.66, riseTimeNs: 2, lengthM: 12 });
     expect(res.status).toBe(200);
     const expected = (0.66 * C * 100e-9) / 2;
@@ -53,7 +53,7 @@ describe('POST /api/fault-location', () => {
     expect(res.body.distanceM).toBe(10);
   });
 
-  test('loop-both-ends: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω (Halliday/Resnick/Walker-type textbook problem; attribution from memory, the arithmetic is exact)', async () => {
+  test('loop-both-ends: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω (an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, loop both ends); the arithmetic is exact)', async () => {
     const res = await locate({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
@@ -61,14 +61,14 @@ describe('POST /api/fault-location', () => {
     expect(res.body.faultOhm).toBeCloseTo(25, 9);
   });
 
-  test('loop-both-ends: the same textbook problem with r from a sound conductor reading end to end (110 Ω over 10 km)', async () => {
+  test('loop-both-ends: the same example with r from a sound conductor reading end to end (110 Ω over 10 km)', async () => {
     const res = await locate({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, conductorOhm: 110 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
     expect(res.body.faultOhm).toBeCloseTo(25, 9);
   });
 
-  test('loop-one-end: d = (R_loop − R_f)/(2r); the textbook problem from end A with its 25 Ω fault known gives 3.864 km again', async () => {
+  test('loop-one-end: d = (R_loop − R_f)/(2r); the same example from end A with its 25 Ω fault known gives 3.864 km again', async () => {
     const res = await locate({ method: 'loop-one-end', loopOhm: 110, faultOhm: 25, ohmPerMetre: 0.011, lengthM: 10_000 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM / 1000).toBeCloseTo(3.864, 3);
@@ -76,11 +76,22 @@ describe('POST /api/fault-location', () => {
     expect(res.body.fromOtherEndM / 1000).toBeCloseTo(10 - 3.864, 3);
   });
 
-  test('murray: 600 m cable, P:Q = 3:1 → x = 300 m (exam example)', async () => {
-    const res = await locate({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 });
+  test('murray: x = 2L · a_faulted / (a_faulted + a_sound); 600 m cable, faulted arm : sound arm = 1 : 3 → x = 300 m (REFERENCES.md, Murray loop: worked example, no published source)', async () => {
+    const res = await locate({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 });
     expect(res.status).toBe(200);
     expect(res.body.distanceM).toBeCloseTo(300, 9);
     expect(res.body.fromOtherEndM).toBeCloseTo(300, 9);
+    // The same balance read in ohms or in kilohms: only the ratio counts.
+    const kilo = await locate({ method: 'murray', lengthM: 600, faultedArm: 1000, soundArm: 3000 });
+    expect(kilo.body.distanceM).toBeCloseTo(300, 9);
+    // Nearer the bridge: 1 : 5 → 2 · 600 · 1/6 = 200 m.
+    expect((await locate({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 5 })).body.distanceM).toBeCloseTo(200, 9);
+  });
+
+  test('murray: the old arm names are not accepted, so a body written for the old labels cannot be misread', async () => {
+    const res = await locate({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 });
+    expectProblem(res, 'faultedArm');
+    expect(res.body.errors.map((e: { path: string }) => e.path)).toContain('soundArm');
   });
 
   test('capacitance: x = L·C_x/C_sound, one end and both ends (standard method; no worked example confirmed, so plain arithmetic)', async () => {
@@ -93,7 +104,7 @@ describe('POST /api/fault-location', () => {
   });
 
   test('when a field is missing, then 422 names it', async () => {
-    expectProblem(await locate({ method: 'murray', lengthM: 600, ratioP: 3 }), 'ratioQ');
+    expectProblem(await locate({ method: 'murray', lengthM: 600, faultedArm: 1 }), 'soundArm');
     expectProblem(await locate({ method: 'loop-both-ends', nearOhm: 1, farOhm: 1, lengthM: 12 }), 'ohmPerMetre');
     expectProblem(await locate({}), 'method');
   });
@@ -105,27 +116,27 @@ describe('POST /api/fault-location', () => {
   });
 
   test('when a number is negative or zero, then 422 names it', async () => {
-    expectProblem(await locate({ method: 'murray', lengthM: 600, ratioP: -3, ratioQ: 1 }), 'ratioP');
-    expectProblem(await locate({ method: 'murray', lengthM: 0, ratioP: 3, ratioQ: 1 }), 'lengthM');
+    expectProblem(await locate({ method: 'murray', lengthM: 600, faultedArm: -1, soundArm: 3 }), 'faultedArm');
+    expectProblem(await locate({ method: 'murray', lengthM: 0, faultedArm: 1, soundArm: 3 }), 'lengthM');
     expectProblem(await locate({ method: 'loop-one-end', loopOhm: -0.5, ohmPerMetre: 0.01 }), 'loopOhm');
   });
 
   test('when a number is sent as a string, then 422 names it', async () => {
-    const res = await locate({ method: 'murray', lengthM: '600', ratioP: 3, ratioQ: 1 });
+    const res = await locate({ method: 'murray', lengthM: '600', faultedArm: 1, soundArm: 3 });
     expectProblem(res, 'lengthM');
     expect(res.body.errors[0].message).toMatch(/must be a number/);
   });
 
   test('when a field is not part of the method, then 422 says which', async () => {
-    const res = await locate({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1, colour: 'red' });
+    const res = await locate({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3, colour: 'red' });
     expectProblem(res);
     expect(res.body.errors[0].message).toMatch(/colour/);
   });
 
   test('when the readings put the fault outside the cable, then 422 names the field and nothing is clamped', async () => {
-    // Murray with Q > P: x = 2 · 600 · 3/4 = 900 m on a 600 m cable.
-    const murray = await locate({ method: 'murray', lengthM: 600, ratioP: 1, ratioQ: 3 });
-    expectProblem(murray, 'ratioQ');
+    // Murray with the faulted line's arm above the sound line's: x = 2 · 600 · 3/4 = 900 m on a 600 m cable.
+    const murray = await locate({ method: 'murray', lengthM: 600, faultedArm: 3, soundArm: 1 });
+    expectProblem(murray, 'faultedArm');
     expect(murray.body.detail).toMatch(/beyond the end/);
     // A TDR reflection from beyond a 12 m cable.
     expectProblem(await locate({ method: 'tdr', roundTripNs: 500, velocityFactor: 0.66, lengthM: 12 }), 'roundTripNs');
@@ -136,9 +147,29 @@ describe('POST /api/fault-location', () => {
   });
 
   test('when a number is too large to be a real reading (it would overflow the distance), then 422 naming it', async () => {
-    const res = await locate({ method: 'murray', lengthM: Number.MAX_VALUE, ratioP: 1, ratioQ: 1 });
+    const res = await locate({ method: 'murray', lengthM: Number.MAX_VALUE, faultedArm: 1, soundArm: 1 });
     expectProblem(res, 'lengthM');
     expect(res.body.detail).toMatch(/too large/);
+  });
+
+  test('when no cable length is given and the result is longer than any cable the methods are for, then 422 naming the reading', async () => {
+    // d = VF · c · Δt / 2 (formula: Ulaby, TDR section; the numbers are ours): 10⁹ ns at VF 0.66 is 98 932 km, with c from mathjs
+    const res = await locate({ method: 'tdr', roundTripNs: 1e9, velocityFactor: 0.66 });
+    expectProblem(res, 'roundTripNs');
+    expect(res.body.detail).toMatch(/further than the longest cable these methods are meant for \(2 km\)/);
+    const at = (metres: number) => ({ method: 'tdr', roundTripNs: ((2 * metres) / (0.66 * C)) * 1e9, velocityFactor: 0.66 });
+    expect((await locate(at(1900))).body.distanceM).toBeCloseTo(1900, 6);
+    expectProblem(await locate(at(3000)), 'roundTripNs');
+    // The longest cable is the server's setting, FAULT_MAX_CABLE_LENGTH_M (default 2000 m).
+    const longer = await createTestApp({ env: { FAULT_MAX_CABLE_LENGTH_M: '5000' } });
+    try {
+      const agent = await longer.agentFor(DEMO.technician);
+      const res3km = await agent.post('/api/fault-location').send(at(3000));
+      expect(res3km.status).toBe(200);
+      expect(res3km.body.distanceM).toBeCloseTo(3000, 6);
+    } finally {
+      await longer.close();
+    }
   });
 
   test('when the body is not JSON, then a problem, not a server error', async () => {
@@ -173,8 +204,8 @@ describe('POST /api/fault-location', () => {
         ohmPerMetre: number,
         nearOhm: number,
         farOhm: number,
-        ratioP: number,
-        ratioQ: number,
+        faultedArm: number,
+        soundArm: number,
         faultedNf: number,
         soundNf: number,
       },
@@ -213,14 +244,14 @@ describe('POST /api/fault-location', () => {
   });
 
   test('anonymous callers get 401', async () => {
-    const res = await t.request.post('/api/fault-location').set('Origin', ORIGIN).send({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 });
+    const res = await t.request.post('/api/fault-location').set('Origin', ORIGIN).send({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 });
     expect(res.status).toBe(401);
   });
 
   test('every role may use it', async () => {
     for (const who of [DEMO.admin, DEMO.organiser, DEMO.director, DEMO.annexTechnician]) {
       const agent = await t.agentFor(who);
-      expect((await agent.post('/api/fault-location').send({ method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 })).status).toBe(200);
+      expect((await agent.post('/api/fault-location').send({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 })).status).toBe(200);
     }
   });
 });

@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { randomUUID } from 'node:crypto';
+import { readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
 import { equipment, faultEstimates, faults, organisations, positions, venues } from '../../server/db/schema';
@@ -92,7 +93,7 @@ describe('GET /api/faults/:id', () => {
 });
 
 describe('POST /api/faults/:id/estimates', () => {
-  test('locates the Strip 6 short by loop resistance from both ends, saves it and combines it with the earlier estimate', async () => {
+  test('the Strip 6 short worked out again from the same two readings is saved, but not weighed with the earlier estimate: the band stays as wide', async () => {
     const f = await faultOn('Strip 6');
     const sam = await t.agentFor(DEMO.technician);
     const res = await sam.post(`/api/faults/${f.id}/estimates`).send({ method: 'loop-both-ends', nearOhm: STRIP6.nearOhm, farOhm: STRIP6.farOhm, ohmPerMetre: STRIP6.ohmPerMetre });
@@ -100,22 +101,28 @@ describe('POST /api/faults/:id/estimates', () => {
     const expected = loopBothEnds(STRIP6.nearOhm, STRIP6.farOhm, STRIP6.ohmPerMetre, 12);
     expect(res.body.estimate.method).toBe('loop-both-ends');
     expect(res.body.estimate.distanceM).toBeCloseTo(expected, 9);
-    // The cable's length was filled in from the register (12 m).
+    // The cable's length was filled in from the register (12 m), and kept with the estimate.
     expect(res.body.estimate.inputs.lengthM).toBe(12);
+    expect(res.body.estimate.itemLengthM).toBe(12);
     expect(res.body.estimate.fromOtherEndM).toBeCloseTo(12 - expected, 9);
     expect(res.body.estimate.uncertaintyM).toBeGreaterThan(0);
     expect(res.body.estimate.explanation).toMatch(/both ends/);
-    expect(res.body.combined).toMatchObject({ count: 2, agree: true });
+    // The demo's saved estimate used the same 0.855 Ω and 0.645 Ω: one of them stands for both.
+    expect(res.body.combined).toMatchObject({ count: 1, estimateIds: [res.body.estimate.id] });
+    expect(res.body.combined.uncertaintyM).toBe(res.body.estimate.uncertaintyM);
+    expect(res.body.combined.apart).toEqual([
+      { estimateId: res.body.fault.estimates[0].id, kind: 'same-readings', reason: expect.stringMatching(/same readings \(0\.855 Ω, 0\.645 Ω\)/) },
+    ]);
     expect(res.body.combined.distanceM).toBeCloseTo(expected, 6);
     expect(res.body.fault.status).toBe('located');
   });
 
-  test('the textbook case: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω puts the fault 3.864 km from A', async () => {
-    // Halliday/Resnick/Walker-type textbook problem (REFERENCES.md; attribution from memory, arithmetic exact)
+  test('the worked example: L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω puts the fault 3.864 km from A', async () => {
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const strip = await stripByLabel(t, hall, 'Strip 15');
     const { position } = stepOf(strip, 'Right floor cable', 'insulation', 'A-B');
     const sam = await t.agentFor(DEMO.technician);
-    const made = await sam.post('/api/faults').send({ positionId: position.id, kind: 'short', conductors: 'A-B', notes: 'textbook check' });
+    const made = await sam.post('/api/faults').send({ positionId: position.id, kind: 'short', conductors: 'A-B', notes: 'worked-example check' });
     expect(made.status).toBe(201);
     const res = await sam.post(`/api/faults/${made.body.id}/estimates`).send({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(res.status).toBe(201);
@@ -253,6 +260,41 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     expect(res.body.fault.status).toBe('repaired');
     // Common practice: after cutting out a damaged section the cable is shorter by the length removed.
     expect(t.db.select().from(equipment).where(eq(equipment.id, f.equipment!.id)).get()!.lengthM).toBe(10.5);
+  });
+
+  test('after the cut-out, each saved estimate is shown against the 12 m the cable had when it was made, and says it has been shortened since', async () => {
+    const f = await faultOn('Strip 6');
+    const sam = await t.agentFor(DEMO.technician);
+    const before = (await sam.get(`/api/faults/${f.id}`)).body;
+    expect(before.lengthM).toBe(10.5);
+    for (const e of before.estimates) {
+      expect(e).toMatchObject({ itemLengthM: 12, itemShortenedSince: true });
+      // From the far end of the 12 m cable as it was, not of the 10.5 m one it is now.
+      expect(e.fromOtherEndM).toBeCloseTo(12 - e.distanceM, 9);
+    }
+    expect(before.combined.itemLengthM).toBe(12);
+
+    // Found again by hand on the shortened cable, from its far end: placed with the 10.5 m, and
+    // the estimates of the 12 m cable are shown apart.
+    const res = await sam.post(`/api/faults/${f.id}/estimates`).send({ method: 'flex', distanceM: 4, fromEnd: 'far' });
+    expect(res.status).toBe(201);
+    expect(res.body.estimate).toMatchObject({ itemLengthM: 10.5, itemShortenedSince: false, distanceFromNearM: 6.5 });
+    expect(res.body.combined).toMatchObject({ count: 1, itemLengthM: 10.5, distanceM: 6.5 });
+    expect(res.body.combined.apart.map((a: { kind: string }) => a.kind)).toEqual(['other-length', 'other-length']);
+    expect(res.body.combined.apart[0].reason).toBe('Worked out when the item was 12 m long, not the 10.5 m of the latest estimate: not measured on the same cable.');
+  });
+
+  test('estimates saved before lengths were kept get the length the item had then (the migration’s backfill)', async () => {
+    const f = await faultOn('Strip 6');
+    const sql = readFileSync('migrations/0005_estimate_item_length_temperature_rule.sql', 'utf8');
+    const backfill = sql.slice(sql.indexOf('UPDATE `fault_estimates`'));
+    const lengths = () => t.db.select().from(faultEstimates).where(eq(faultEstimates.faultId, f.id)).all().map((e) => e.itemLengthM);
+    const kept = lengths();
+    expect(kept).toEqual([12, 12, 10.5]);
+    t.sqlite.prepare('update fault_estimates set item_length_m = null where fault_id = ?').run(f.id);
+    t.sqlite.exec(backfill);
+    // Made before the cut-out: 12 m (the length before it); made after: the 10.5 m of now.
+    expect(lengths()).toEqual(kept);
   });
 
   test('the strip stays fault-open until every step of the repaired cable passes again; then the fault closes and the strip is clear', async () => {

@@ -106,6 +106,42 @@ describe('PUT /api/profiles/:id', () => {
   });
 });
 
+describe('the cable-temperature setting of a profile', () => {
+  test('judged as measured by default; a new version that corrects to 20 °C (a house rule) passes the warm cable the first one failed', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const copy = (await marco.post(`/api/profiles/${defaultId}/copy`).send({ name: 'Warm hall' })).body as Profile & { temperatureReferenceC: number | null };
+    expect(copy.temperatureReferenceC).toBeNull();
+    let plan = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Warm Hall', profileId: copy.id });
+    plan = await marco.post(`/api/venues/${plan.body.venue.id}/strips/bulk`).set('If-Match', plan.headers.etag).send({ count: 1 });
+    const venueId = plan.body.venue.id as string;
+    const cable = plan.body.strips[0].positions.find((p: { equipmentKind: string }) => p.equipmentKind === 'floor-cable');
+    const [stepA, stepB] = cable.steps as { id: string }[];
+
+    // FIE Material Rules, art. m.55.5: ≤ 2.5 Ω per wire. 2.55 Ω at 35 °C, as measured, is over it.
+    const asMeasured = await marco.post('/api/readings').send({ id: crypto.randomUUID(), stepId: stepA.id, value: '2.55', temperatureC: 35 });
+    expect(asMeasured.body).toMatchObject({ verdict: 'fail', profileVersion: 1 });
+    expect(asMeasured.body.explanation).toMatch(/judged as measured/);
+
+    const v2 = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"1"').send({ rules: copy.rules, temperatureReferenceC: 20 });
+    expect(v2.status).toBe(201);
+    expect(v2.body).toMatchObject({ version: 2, temperatureReferenceC: 20 });
+    expect((await marco.patch(`/api/venues/${venueId}`).set('If-Match', plan.headers.etag).send({ profileId: v2.body.id })).status).toBe(200);
+    // IEC 60228 Annex B: 2.55 Ω × 254.5 / 269.5 = 2.408 Ω at 20 °C, within the limit but above 90 % of it.
+    const corrected = await marco.post('/api/readings').send({ id: crypto.randomUUID(), stepId: stepB.id, value: '2.55', temperatureC: 35 });
+    expect(corrected.body).toMatchObject({ verdict: 'near-limit', profileVersion: 2 });
+    expect(corrected.body.explanation).toMatch(/2\.408 Ω corrected to 20 °C \(house rule/);
+
+    // A rule edit keeps the setting; null turns it off again; nonsense is 422.
+    const v3 = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"2"').send({ rules: copy.rules });
+    expect(v3.body).toMatchObject({ version: 3, temperatureReferenceC: 20 });
+    const v4 = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"3"').send({ rules: copy.rules, temperatureReferenceC: null });
+    expect(v4.body).toMatchObject({ version: 4, temperatureReferenceC: null });
+    const bad = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"4"').send({ rules: copy.rules, temperatureReferenceC: 300 });
+    expect(bad.status).toBe(422);
+    expect(bad.body.errors[0].path).toBe('temperatureReferenceC');
+  });
+});
+
 describe('readings keep the version they were checked with', () => {
   test('a reading taken under version 1 still shows version 1 after the profile is edited and the venue moves to version 2', async () => {
     const marco = await t.agentFor(DEMO.director);

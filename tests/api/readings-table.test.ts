@@ -101,12 +101,15 @@ describe('GET /api/venues/:id/readings.csv', () => {
     expect(res.headers['content-type']).toMatch(/^text\/csv/);
     expect(res.headers['content-disposition']).toBe('attachment; filename="Riverside-Annex-readings.csv"');
     const rows = parseCsv(res.body as string);
-    expect(rows[0].slice(0, 9)).toEqual(['Strip', 'Position', 'Asset tag', 'Test', 'Conductors', 'Value as typed', 'Value (ohm)', 'Over range', 'Verdict']);
+    expect(rows[0].slice(0, 10)).toEqual(['Strip', 'Position', 'Asset tag', 'Test', 'Conductors', 'Value as typed', 'Lead null (ohm)', 'Value (ohm)', 'Over range', 'Verdict']);
     expect(rows[0]).toContain('Profile version');
     expect(rows.length - 1).toBe(((await marco.get(`/api/venues/${annexId}/readings`)).body as Row[]).length);
     const header = rows[0];
     const first = Object.fromEntries(header.map((h, i) => [h, rows[1][i]]));
     expect(first).toMatchObject({ Strip: 'Annex 1', Position: 'Left floor cable', Profile: 'Competition default', 'Profile version': '1', 'Taken by': 'Lee Varga' });
+    // Lee's demo readings were typed with a 0.05 Ω test-lead null: typed − null = the value judged.
+    expect(first).toMatchObject({ 'Lead null (ohm)': '0.05', 'Lead null meter': 'Meter 2' });
+    expect(Number(first['Value as typed']) - 0.05).toBeCloseTo(Number(first['Value (ohm)']), 9);
   });
 
   test('cells that a spreadsheet would run as a formula are defused with a leading apostrophe', async () => {
@@ -143,5 +146,82 @@ describe('GET /api/venues/:id/readings.csv', () => {
     expect(csvCell(null)).toBe('');
     expect(safeFileName('Salle Étoile / "Nord"\r\n')).toBe('Salle-Etoile-Nord');
     expect(safeFileName('../../')).toBe('venue');
+  });
+});
+
+describe('GET /api/venues/:id/readings.csv with the table’s filters', () => {
+  const csvOf = async (agent: Awaited<ReturnType<TestApp['agentFor']>>, url: string) => {
+    const res = await agent.get(url).buffer(true).parse((r, cb) => {
+      let data = '';
+      r.setEncoding('utf8');
+      r.on('data', (c: string) => (data += c));
+      r.on('end', () => cb(null, data));
+    });
+    expect(res.status).toBe(200);
+    const [header, ...lines] = parseCsv(res.body as string);
+    return lines.map((l) => Object.fromEntries(header.map((h, i) => [h, l[i]])));
+  };
+  // Expected counts come straight from the database, not from the service under test.
+  const countInHall = (where: string, ...args: unknown[]) =>
+    (t.sqlite
+      .prepare(`select count(*) as n from readings r join steps st on r.step_id = st.id join positions p on st.position_id = p.id join strips x on p.strip_id = x.id where x.venue_id = ? and ${where}`)
+      .get(hallId, ...args) as { n: number }).n;
+
+  test('verdict and strip: only the failed readings of that strip', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const strip3 = t.sqlite.prepare("select id from strips where venue_id = ? and label = 'Strip 3'").get(hallId) as { id: string };
+    const rows = await csvOf(marco, `/api/venues/${hallId}/readings.csv?verdict=fail&strip=${strip3.id}`);
+    const expected = countInHall("r.verdict = 'fail' and x.id = ?", strip3.id);
+    expect(expected).toBeGreaterThan(0);
+    expect(rows).toHaveLength(expected);
+    for (const r of rows) expect(r).toMatchObject({ Strip: 'Strip 3', Verdict: 'fail' });
+  });
+
+  test('who and a from–to window: only that person’s readings taken inside it', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const sam = t.sqlite.prepare('select id from users where email = ?').get(DEMO.technician) as { id: string };
+    const times = (t.sqlite.prepare('select taken_at as at from readings order by julianday(taken_at)').all() as { at: string }[]).map((r) => r.at);
+    const from = new Date(Date.parse(times[Math.floor(times.length / 4)])).toISOString();
+    const to = new Date(Date.parse(times[Math.floor((times.length * 3) / 4)])).toISOString();
+    const url = `/api/venues/${hallId}/readings.csv?who=${sam.id}&from=${encodeURIComponent(from)}&to=${encodeURIComponent(to)}`;
+    const rows = await csvOf(marco, url);
+    const expected = countInHall('r.taken_by = ? and julianday(r.taken_at) >= julianday(?) and julianday(r.taken_at) <= julianday(?)', sam.id, from, to);
+    expect(expected).toBeGreaterThan(0);
+    expect(expected).toBeLessThan(countInHall('r.taken_by = ?', sam.id));
+    expect(rows).toHaveLength(expected);
+    for (const r of rows) {
+      expect(r['Taken by']).toBe('Sam Reyes');
+      expect(Date.parse(r['Taken at (UTC)'])).toBeGreaterThanOrEqual(Date.parse(from));
+      expect(Date.parse(r['Taken at (UTC)'])).toBeLessThanOrEqual(Date.parse(to));
+    }
+    // The same time written with another zone is the same instant.
+    const shifted = new Date(Date.parse(from) + 2 * 3600_000).toISOString().replace('Z', '+02:00');
+    const again = await csvOf(marco, `/api/venues/${hallId}/readings.csv?who=${sam.id}&from=${encodeURIComponent(shifted)}&to=${encodeURIComponent(to)}`);
+    expect(again).toHaveLength(expected);
+  });
+
+  test('the JSON list takes the same filters', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const res = await marco.get(`/api/venues/${hallId}/readings?verdict=near-limit&test=continuity`);
+    expect(res.status).toBe(200);
+    expect(res.body).toHaveLength(countInHall("r.verdict = 'near-limit' and st.test_kind = 'continuity'"));
+    for (const r of res.body as Row[]) expect(r).toMatchObject({ verdict: 'near-limit', testKind: 'continuity' });
+  });
+
+  test.each([
+    ['verdict=broken', 'verdict'],
+    ['strip=strip-3', 'strip'],
+    ['who=1', 'who'],
+    ['from=yesterday', 'from'],
+    ['from=2026-03-14T09:00:00', 'from'],
+    ['from=2026-03-14T10:00:00Z&to=2026-03-14T09:00:00Z', 'to'],
+    ['verdict=fail&verdict=pass', 'verdict'],
+    ['colour=red', ''],
+  ])('a bad filter (%s) is 422 problem+json that names it', async (query, field) => {
+    const marco = await t.agentFor(DEMO.director);
+    const res = await marco.get(`/api/venues/${hallId}/readings.csv?${query}`);
+    expect(res.status).toBe(422);
+    expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
+    expect(res.body.detail).toContain(field);
   });
 });

@@ -72,12 +72,16 @@ describe('POST /api/readings', () => {
     expect(low.body.explanation).toMatch(/500 Ω/);
   });
 
-  test('when a lead offset is sent, then it is subtracted and stored', async () => {
+  test('when the reading names the technician’s test-lead null, then its value is subtracted and both are stored', async () => {
     const sam = await t.agentFor(DEMO.technician);
+    const lead = await sam.post('/api/lead-nulls').send({ id: randomUUID(), value: '0.3' });
+    expect(lead.status).toBe(201);
     const { step } = stepOf(strip, 'Right floor cable', 'continuity', 'C');
-    const res = await sam.post('/api/readings').send(newReading(step.id, '0.8', { leadOffsetOhm: 0.3 }));
+    const res = await sam.post('/api/readings').send(newReading(step.id, '0.8', { leadNullId: lead.body.id }));
     expect(res.status).toBe(201);
-    expect(res.body).toMatchObject({ valueOhm: 0.5, leadOffsetOhm: 0.3, valueText: '0.8' });
+    expect(res.body).toMatchObject({ valueOhm: 0.5, leadOffsetOhm: 0.3, leadNullId: lead.body.id, valueText: '0.8' });
+    const stored = t.db.select().from(readings).where(eq(readings.id, res.body.id)).get()!;
+    expect(stored).toMatchObject({ valueOhm: 0.5, leadOffsetOhm: 0.3, leadNullId: lead.body.id });
   });
 
   test('when the same id and body come again, then it answers 200 with the stored reading and stores one row', async () => {
@@ -115,6 +119,24 @@ describe('POST /api/readings', () => {
     expect(neg.body.detail).toMatch(/cannot be negative/);
   });
 
+  test('when a continuity reading could carry a thousands separator ("2,500"), then it is refused offering both readings, and nothing is stored', async () => {
+    // SI Brochure §5.4.4: a comma or a point is a decimal marker, never a thousands separator; "2,500" read as 2.5 Ω would pass
+    // near the 2.5 Ω floor-cable limit (FIE Material Rules, art. m.55.5), read as 2500 Ω it fails
+    const sam = await t.agentFor(DEMO.technician);
+    const stepId = stepOf(strip, 'Left floor cable', 'continuity', 'B').step.id;
+    const reading = newReading(stepId, '2,500');
+    const res = await sam.post('/api/readings').send(reading);
+    expect(res.status).toBe(422);
+    expect(res.body.errors).toEqual([expect.objectContaining({ path: 'value', message: expect.stringContaining('did you mean 2500 Ω or 2.500 Ω?') })]);
+    expect(countReadings(reading.id)).toBe(0);
+    const underflow = await sam.post('/api/readings').send(newReading(stepId, '1e-400'));
+    expect(underflow.status).toBe(422);
+    expect(underflow.body.detail).toMatch(/underflows/);
+    // As the meter shows it on its kΩ range, a point before the prefix is a decimal.
+    const kilo = await sam.post('/api/readings').send(newReading(stepId, '2.500k'));
+    expect(kilo.body).toMatchObject({ valueOhm: 2500, verdict: 'fail' });
+  });
+
   test('when fields are missing or wrong, then it answers 422 naming them, never 500', async () => {
     const sam = await t.agentFor(DEMO.technician);
     const res = await sam.post('/api/readings').send({ id: 'nope', value: '' , extra: 1});
@@ -124,10 +146,13 @@ describe('POST /api/readings', () => {
     const unknownStep = await sam.post('/api/readings').send(newReading(randomUUID(), '1'));
     expect(unknownStep.status).toBe(404);
     const stepId = stepOf(strip, 'Left reel', 'insulation', 'A-B').step.id;
-    const badLead = await sam.post('/api/readings').send(newReading(stepId, '1', { leadOffsetOhm: 50 }));
+    const badLead = await sam.post('/api/readings').send(newReading(stepId, '1', { leadOffsetOhm: 0.2 }));
     expect(badLead.status).toBe(422);
     expect(badLead.body.errors[0].path).toBe('leadOffsetOhm');
-    const reasonOnly = await sam.post('/api/readings').send(newReading(stepId, '1', { correctionReason: 'typo' }));
+    const unknownLead = await sam.post('/api/readings').send(newReading(stepId, '1', { leadNullId: randomUUID() }));
+    expect(unknownLead.status).toBe(422);
+    expect(unknownLead.body.errors[0].path).toBe('leadNullId');
+    const reasonOnly = await sam.post('/api/readings').send(newReading(stepId, '1', { correctionReason: 'Typed the wrong line' }));
     expect(reasonOnly.status).toBe(422);
     expect(reasonOnly.body.errors[0].path).toBe('supersedesId');
   });
@@ -187,7 +212,7 @@ describe('POST /api/readings — corrections', () => {
     expect(res.body.errors[0].path).toBe('supersedesId');
   });
 
-  test('when a mistyped failure is corrected to a pass, then the fault it opened closes', async () => {
+  test('when a mistyped failure is corrected to a pass, then the fault it opened stays open for the director to dismiss', async () => {
     const sam = await t.agentFor(DEMO.technician);
     const strip = await stripByLabel(t, hall, 'Strip 21');
     const { step } = stepOf(strip, 'Right floor cable', 'continuity', 'A');
@@ -195,7 +220,22 @@ describe('POST /api/readings — corrections', () => {
     expect(typo.body.verdict).toBe('fail');
     expect(typo.body.faultId).toBeTruthy();
     await sam.post('/api/readings').send(newReading(step.id, '0.55', { supersedesId: typo.body.id, correctionReason: 'Missed the decimal point' }));
-    expect(t.db.select().from(faults).where(eq(faults.id, typo.body.faultId)).get()!.status).toBe('closed');
+    expect(t.db.select().from(faults).where(eq(faults.id, typo.body.faultId)).get()!.status).toBe('open');
+  });
+
+  test('when the correction keeps the corrected reading’s lead null, then it is subtracted even for the director', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const marco = await t.agentFor(DEMO.director);
+    const strip = await stripByLabel(t, hall, 'Strip 21');
+    const { step } = stepOf(strip, 'Right floor cable', 'continuity', 'B');
+    const lead = await sam.post('/api/lead-nulls').send({ id: randomUUID(), value: '0.1' });
+    const first = await sam.post('/api/readings').send(newReading(step.id, '6.5', { leadNullId: lead.body.id }));
+    const fix = await marco.post('/api/readings').send(newReading(step.id, '0.65', { leadNullId: lead.body.id, supersedesId: first.body.id, correctionReason: 'Typed 6.5 for 0.65' }));
+    expect(fix.status).toBe(201);
+    expect(fix.body).toMatchObject({ valueOhm: 0.55, leadOffsetOhm: 0.1, leadNullId: lead.body.id });
+    // Not on a new reading of the director's own.
+    const own = await marco.post('/api/readings').send(newReading(step.id, '0.65', { leadNullId: lead.body.id }));
+    expect(own.status).toBe(422);
   });
 });
 

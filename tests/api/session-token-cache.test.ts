@@ -55,8 +55,10 @@ describe('POST /api/readings answer', () => {
     const all = strip.positions.flatMap((p) => p.steps);
     const continuity = all.filter((s) => s.testKind === 'continuity');
     const insulation = all.find((s) => s.testKind === 'insulation')!;
+    const lead = await sam.post('/api/lead-nulls').send({ id: crypto.randomUUID(), value: '0.05' });
+    expect(lead.status).toBe(201);
     const made = [
-      await sam.post('/api/readings').send(newReading(continuity[0].id, '0.45', { leadOffsetOhm: 0.05, temperatureC: 21.5 })),
+      await sam.post('/api/readings').send(newReading(continuity[0].id, '0.45', { leadNullId: lead.body.id, temperatureC: 21.5 })),
       await sam.post('/api/readings').send(newReading(continuity[1].id, '250')),
       await sam.post('/api/readings').send(newReading(insulation.id, 'OL')),
     ];

@@ -12,7 +12,7 @@ import { venueIds } from './testing-helpers';
 import { capturedMail, certificates, events, signOffs, users, venues } from '../../server/db/schema';
 import { hashPassword, TEST_SCRYPT } from '../../server/auth/password';
 import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
-import { renderCertificatePdf } from '../../server/pdf/certificate-pdf';
+import { placeOf, renderCertificatePdf } from '../../server/pdf/certificate-pdf';
 import type { CertificatePayload } from '../../server/signing/certificate-record';
 import { keyIdOf, newPrivateJwk, privateKeyFromText, publicJwkOf, writeKeyFile } from '../../server/signing/signing-keys';
 
@@ -241,12 +241,43 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     // The fonts ship with the app and travel inside the file: nothing is left to the reader's machine.
     expect(fonts.length).toBeGreaterThan(0);
     for (const f of fonts) expect(f, f.name).toEqual({ name: expect.stringMatching(/^[A-Z]{6}\+IBMPlexSans-/), embedded: true });
+    // The profile's temperature choice: the demo profile judges readings as measured.
+    expect(text).toContain('Judged as measured (no correction)');
     for (const strip of issued.filter((c) => c.kind === 'strip')) {
       const s = await pdfText((await download(nina, `/api/certificates/${strip.number}/pdf`)).body);
       expect(s).toContain(strip.number);
       expect(s).toContain('Riverside Annex');
       expect(s).toContain(venue.number);
+      expect(s).toContain('Judged as measured');
+      // The annex strips' zone is "Annex": said once, not "Riverside Annex, Annex".
+      expect(s).not.toMatch(/Riverside Annex[\s,]+Annex\b/);
     }
+  });
+
+  test('page 1 says who signed in plain words; the algorithm, key id and links are in the last annex (PDF.js)', async () => {
+    const nina = await t.agentFor(DEMO.organiser);
+    for (const c of issued) {
+      const res = await download(nina, `/api/certificates/${c.number}/pdf`);
+      const { pages } = await readPdf(res.body, { fonts: false });
+      const row = t.db.select().from(certificates).where(eq(certificates.number, c.number)).get()!;
+      const first = pages[0].replace(/\s+/g, ' ');
+      expect(first).toContain('signed this certificate with its own digital key');
+      expect(first).toMatch(/scan the code or open/);
+      for (const technical of ['Ed25519', 'JWS', 'Key id', row.keyId, '/.well-known/jwks.json']) expect(first, c.number).not.toContain(technical);
+      const last = pages.at(-1)!.replace(/\s+/g, ' ');
+      expect(last).toContain('Signature details');
+      expect(last).toContain('Ed25519');
+      expect(last).toContain(row.keyId);
+      expect(last).toContain('/.well-known/jwks.json');
+    }
+  });
+
+  test('the place of a strip names its zone once', () => {
+    expect(placeOf('Riverside Annex', 'Annex')).toBe('Riverside Annex');
+    expect(placeOf('Riverside Sports Hall', 'Row A')).toBe('Riverside Sports Hall, Row A');
+    expect(placeOf('Riverside Sports Hall', 'sports hall')).toBe('Riverside Sports Hall');
+    expect(placeOf('Annexe Hall', 'Annex')).toBe('Annexe Hall, Annex');
+    expect(placeOf('Riverside Annex', null)).toBe('Riverside Annex');
   });
 
   test('rendering the same record twice gives the same bytes', async () => {

@@ -58,3 +58,26 @@ describe('GET /api/venues/:id/strips', () => {
     expect((await lee.get('/api/venues/not-a-uuid/strips')).status).toBe(422);
   });
 });
+
+describe('GET /api/venues order', () => {
+  test('newest event first, then the venue name as people read it (case-insensitive), the same on every call', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const profileId = (await marco.get('/api/profiles')).body[0].id as string;
+    const addEvent = async (name: string, startsOn: string) => {
+      const res = await marco.post('/api/events').send({ name, startsOn, endsOn: startsOn });
+      expect(res.status).toBe(201);
+      return res.body.id as string;
+    };
+    const addVenue = async (eventId: string, name: string) => expect((await marco.post(`/api/events/${eventId}/venues`).send({ name, profileId })).status).toBe(201);
+    const later = await addEvent('Spring Open 2027', '2027-04-10');
+    const earlier = await addEvent('Winter Trophy 2026', '2026-12-12');
+    await addVenue(earlier, 'north gym');
+    await addVenue(later, 'beta court');
+    await addVenue(later, 'Charlie court');
+    await addVenue(earlier, 'Main hall');
+    const names = (await marco.get('/api/venues')).body.map((v: { name: string }) => v.name);
+    // Autumn Cup 2026 (2026-11-21) is the demo event, the oldest here.
+    expect(names).toEqual(['beta court', 'Charlie court', 'Main hall', 'north gym', 'Riverside Annex', 'Riverside Sports Hall']);
+    for (let i = 0; i < 3; i++) expect((await marco.get('/api/venues')).body.map((v: { name: string }) => v.name)).toEqual(names);
+  });
+});

@@ -25,6 +25,7 @@ function storedReading(body: FakeServer['readings'][number]): ReadingDto {
     valueOhm: Number(body.value),
     overRange: false,
     leadOffsetOhm: null,
+    leadNullId: null,
     temperatureC: null,
     verdict: 'pass',
     limitOhm: 2.5,

@@ -10,6 +10,7 @@ import {
   planSend,
   retryDelayMs,
   summarize,
+  upgradeLegacyItems,
   type QueuedReading,
 } from '../../src/features/offline/utils/queue';
 import { shouldPersistQuery, shouldPersistQueryKey } from '../../src/features/offline/utils/persist-filter';
@@ -231,5 +232,30 @@ describe('shouldPersistQuery', () => {
     expect(shouldPersistQuery(['auth', 'me'], { id: 'u1', name: 'Sam Reyes' })).toBe(true);
     expect(shouldPersistQuery(['strips', 's1'], { id: 's1' })).toBe(true);
     expect(shouldPersistQuery(['faults', 'f1'], { id: 'f1' })).toBe(false);
+  });
+});
+
+describe('upgradeLegacyItems', () => {
+  test('readings queued with the offset itself get one test-lead null record per person and offset; none is dropped', () => {
+    let k = 0;
+    const makeId = () => `lead-${++k}`;
+    const a = item({ body: { id: 'a', stepId: 's1', value: '0.5', leadOffsetOhm: 0.1 } });
+    const b = item({ body: { id: 'b', stepId: 's2', value: '0.6', leadOffsetOhm: 0.1 } });
+    const c = item({ body: { id: 'c', stepId: 's3', value: '0.7', leadOffsetOhm: 0.2 } });
+    const d = item({ userId: 'user-lee', body: { id: 'd', stepId: 's4', value: '0.8', leadOffsetOhm: 0.1 } });
+    const none = item({ body: { id: 'e', stepId: 's5', value: 'OL', leadOffsetOhm: null } });
+    const current = item({ body: { id: 'f', stepId: 's6', value: '0.4', leadNullId: 'already' } });
+    const out = new Map(upgradeLegacyItems([a, b, c, d, none, current], makeId).map((i) => [i.body.id, i]));
+    expect(out.size).toBe(5);
+    expect(out.has('f')).toBe(false);
+    expect(out.get('a')!.body).toEqual({ id: 'a', stepId: 's1', value: '0.5', leadNullId: 'lead-1' });
+    expect(out.get('b')!.leadNull).toEqual(out.get('a')!.leadNull);
+    expect(out.get('a')!.leadNull).toMatchObject({ id: 'lead-1', value: '0.1', valueOhm: 0.1, userId: SAM });
+    expect(out.get('c')!.body.leadNullId).toBe('lead-2');
+    expect(out.get('d')!.body.leadNullId).toBe('lead-3');
+    expect(out.get('e')!.body).toEqual({ id: 'e', stepId: 's5', value: 'OL' });
+    expect(out.get('e')!.leadNull).toBeUndefined();
+    // Upgraded items are left alone the next time.
+    expect(upgradeLegacyItems([...out.values()], makeId)).toEqual([]);
   });
 });

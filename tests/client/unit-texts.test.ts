@@ -1,9 +1,9 @@
-// The fault page's form texts in metres or feet (src/features/faults/utils/unit-texts.ts): typed in
+// The fault page's form texts in metres or feet (src/lib/unit-texts.ts): typed in
 // the person's unit, sent in metres and Ω per metre. Conversions checked with mathjs unit
 // conversion (1 ft = 0.3048 m, NIST SP 811).
 import { describe, expect, test } from 'vitest';
 import { unit } from 'mathjs';
-import { fromSiValues, siOf, switchUnits, typeText } from '../../src/features/faults/utils/unit-texts';
+import { fromSiValues, siOf, switchUnits, typeText } from '../../src/lib/unit-texts';
 
 const dims = { lengthM: 'length', ohmPerMetre: 'per-length', nearOhm: undefined } as const;
 

@@ -8,6 +8,7 @@ import {
   combineEstimates,
   COPPER_RESISTIVITY_OHM_M,
   DEFAULT_METER_ACCURACY,
+  DEFAULT_MAX_CABLE_LENGTH_M,
   delayNsPerMetre,
   FaultLocationError,
   IEC_60228_OHM_PER_KM,
@@ -53,7 +54,7 @@ describe('speed of light and TDR', () => {
   });
 
   test('d = VF · c · Δt / 2', () => {
-    // Ulaby, Fundamentals of Applied Electromagnetics, TDR section
+    // formula: Ulaby, Fundamentals of Applied Electromagnetics, TDR section (the numbers are ours, not the book's)
     const e = locateByTdr({ roundTripNs: 100, velocityFactor: 0.66 });
     expect(e.distanceM).toBeCloseTo((0.66 * C * 100e-9) / 2, 9); // 9.893 m
     expect(e.method).toBe('tdr');
@@ -62,7 +63,7 @@ describe('speed of light and TDR', () => {
   });
 
   test('VF = 1/√εr: εr = 2.25 → u_p = 2.0 × 10⁸ m/s (VF 0.667)', () => {
-    // Ulaby problem 2.18
+    // Ulaby problem 2.18 (the book's own numbers, as REFERENCES.md gives them)
     const vf = velocityFactorFromPermittivity(2.25);
     expect(vf).toBeCloseTo(0.667, 3);
     expect((vf * C) / 2.0e8).toBeCloseTo(1, 2);
@@ -228,7 +229,7 @@ describe('loop resistance from one end', () => {
   });
 
   test('meter accuracy ±(1 % + 2 digits) at 0.01 Ω propagates into the band (common practice, from memory)', () => {
-    // common practice (no published source)
+    // common practice, from memory (no published source; a meter's data sheet gives its own)
     expect(DEFAULT_METER_ACCURACY).toEqual({ percentOfReading: 1, digits: 2, resolutionOhm: 0.01 });
     expect(meterUncertaintyOhm(1.63)).toBeCloseTo(0.0163 + 0.02, 12);
     // r from a sound conductor (1.2 Ω ± meter) and R_loop (2 Ω ± meter)
@@ -301,7 +302,7 @@ describe('loop resistance from one end', () => {
 
 describe('loop resistance from both ends', () => {
   test('L = 10 km, r = 11 Ω/km, R_A = 110 Ω, R_B = 160 Ω → x = 3.864 km, R_f = 25 Ω', () => {
-    // Halliday/Resnick/Walker-type textbook problem (attribution from memory; the arithmetic is exact)
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const e = locateByLoopBothEnds({ nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(e.distanceM / 1000).toBeCloseTo(3.864, 3);
     expect(e.faultOhm).toBeCloseTo(25, 9);
@@ -310,7 +311,7 @@ describe('loop resistance from both ends', () => {
   });
 
   test('the same with r from a sound conductor: 110 Ω over 10 km', () => {
-    // Halliday/Resnick/Walker-type textbook problem (attribution from memory; the arithmetic is exact)
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const e = locateByLoopBothEnds({ nearOhm: 110, farOhm: 160, lengthM: 10_000, conductorOhm: 110 });
     expect(e.distanceM / 1000).toBeCloseTo(3.864, 3);
     expect(e.faultOhm).toBeCloseTo(25, 9);
@@ -369,39 +370,97 @@ describe('loop resistance from both ends', () => {
 });
 
 describe('Murray loop', () => {
-  test('600 m cable, P:Q = 3:1 → x = 300 m', () => {
-    // exam example
-    const e = locateByMurrayLoop({ lengthM: 600, ratioP: 3, ratioQ: 1 });
+  /**
+   * The bridge as a circuit, solved by mathjs (lusolve) from Kirchhoff's current law alone: supply
+   * V between the arms' junction and earth, arm `faultedArm` to the faulted conductor's near end
+   * (a), arm `soundArm` to the sound conductor's near end (b), the conductors r Ω/m joined at the
+   * far end, the fault R_f from x metres along the faulted conductor to earth. Returns V_a − V_b,
+   * what the detector between the two conductors reads.
+   */
+  function detectorVolts(p: { lengthM: number; xM: number; ohmPerMetre: number; faultOhm: number; faultedArm: number; soundArm: number }): number {
+    const V = 10;
+    const near = p.ohmPerMetre * p.xM; // a → fault
+    const beyond = p.ohmPerMetre * (2 * p.lengthM - p.xM); // fault → far end → back along the sound conductor to b
+    const g = (ohm: number) => 1 / ohm;
+    // Unknowns [V_a, V_b, V_F]; rows: current out of a, b and F is 0.
+    const A = [
+      [g(p.faultedArm) + g(near), 0, -g(near)],
+      [0, g(p.soundArm) + g(beyond), -g(beyond)],
+      [-g(near), -g(beyond), g(near) + g(beyond) + g(p.faultOhm)],
+    ];
+    const b = [[V * g(p.faultedArm)], [V * g(p.soundArm)], [0]];
+    const [va, vb] = (math.lusolve(A, b) as number[][]).map((row) => row[0]!);
+    return va! - vb!;
+  }
+
+  /** Turns the faulted line's arm until the detector reads 0 (bisection on the circuit above). */
+  function balance(p: { lengthM: number; xM: number; ohmPerMetre: number; faultOhm: number; soundArm: number }): number {
+    let lo = 1e-6 * p.soundArm;
+    let hi = p.soundArm;
+    const sign = (arm: number) => Math.sign(detectorVolts({ ...p, faultedArm: arm }));
+    for (let i = 0; i < 80; i++) {
+      const mid = (lo + hi) / 2;
+      if (sign(mid) === sign(lo)) lo = mid;
+      else hi = mid;
+    }
+    return (lo + hi) / 2;
+  }
+
+  test('600 m cable, faulted arm : sound arm = 1 : 3 → x = 300 m; 3 : 1 would put it beyond the far end', () => {
+    // REFERENCES.md, Murray loop: worked example, no published source (600 m, a_faulted : a_sound = 1 : 3 → X = 300 m)
+    const e = locateByMurrayLoop({ lengthM: 600, faultedArm: 1, soundArm: 3 });
     expect(e.distanceM).toBeCloseTo(300, 9);
     expect(e.fromOtherEndM).toBeCloseTo(300, 9);
+    expect(e.explanation).toMatch(/1 on the faulted line’s arm and 3 on the sound line’s arm/);
+    const beyond = refusal(() => locateByMurrayLoop({ lengthM: 600, faultedArm: 3, soundArm: 1 }));
+    expect(beyond.field).toBe('faultedArm');
+    expect(beyond.message).toMatch(/beyond the end/);
   });
 
-  test('property: bridge balanced on a fault at x (P/Q = (2L − x)/x) gives x back', () => {
+  test('the bridge balanced by Kirchhoff’s laws on a fault at 37 m of a 100 m cable is read back at 37 m, whatever the fault’s resistance', () => {
+    // Kirchhoff's current law, solved by mathjs: an independent check of the balance condition
+    for (const faultOhm of [0.5, 50, 5000]) {
+      const faultedArm = balance({ lengthM: 100, xM: 37, ohmPerMetre: 0.0195, faultOhm, soundArm: 1000 });
+      expect(faultedArm / 1000).toBeCloseTo(37 / (200 - 37), 9);
+      expect(locateByMurrayLoop({ lengthM: 100, faultedArm, soundArm: 1000 }).distanceM).toBeCloseTo(37, 6);
+    }
+  });
+
+  test('property: a bridge balanced by Kirchhoff’s laws on a fault at x gives x back', () => {
+    // Kirchhoff's current law, solved by mathjs
     fc.assert(
-      fc.property(fc.double({ min: 1, max: 1000, noNaN: true }), fc.double({ min: 0.01, max: 1, noNaN: true }), fc.double({ min: 0.1, max: 1000, noNaN: true }), (lengthM, fraction, scale) => {
-        const x = lengthM * fraction;
-        // At balance the arms divide as the loop resistances either side of the fault.
-        const ratioP = scale * (2 * lengthM - x);
-        const ratioQ = scale * x;
-        expect(locateByMurrayLoop({ lengthM, ratioP, ratioQ }).distanceM).toBeCloseTo(x, 6);
-      }),
+      fc.property(
+        fc.double({ min: 1, max: 1000, noNaN: true }),
+        fc.double({ min: 0.01, max: 0.99, noNaN: true }),
+        fc.double({ min: 0.005, max: 0.1, noNaN: true }),
+        fc.double({ min: 0.1, max: 1e4, noNaN: true }),
+        (lengthM, fraction, ohmPerMetre, faultOhm) => {
+          const xM = lengthM * fraction;
+          const faultedArm = balance({ lengthM, xM, ohmPerMetre, faultOhm, soundArm: 1000 });
+          expect(locateByMurrayLoop({ lengthM, faultedArm, soundArm: 1000 }).distanceM).toBeCloseTo(xM, 4);
+        },
+      ),
+      { numRuns: 40 },
     );
   });
 
-  test('property: nearer as P/Q grows', () => {
+  test('property: only the ratio of the arms counts, and the fault moves away as the faulted line’s arm grows', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 100, max: 10_000 }), fc.integer({ min: 100, max: 10_000 }), (a, b) => {
+      fc.property(fc.integer({ min: 1, max: 1000 }), fc.integer({ min: 1, max: 1000 }), fc.double({ min: 0.001, max: 1000, noNaN: true }), (a, b, scale) => {
         fc.pre(a !== b);
-        const [lo, hi] = a < b ? [a / 100, b / 100] : [b / 100, a / 100];
-        expect(locateByMurrayLoop({ lengthM: 100, ratioP: hi, ratioQ: 1 }).distanceM).toBeLessThan(locateByMurrayLoop({ lengthM: 100, ratioP: lo, ratioQ: 1 }).distanceM);
+        const [lo, hi] = a < b ? [a, b] : [b, a];
+        const at = (faultedArm: number) => locateByMurrayLoop({ lengthM: 100, faultedArm, soundArm: 1000 }).distanceM;
+        expect(at(lo)).toBeLessThan(at(hi));
+        expect(locateByMurrayLoop({ lengthM: 100, faultedArm: lo * scale, soundArm: 1000 * scale }).distanceM).toBeCloseTo(at(lo), 9);
       }),
     );
   });
 
-  test('x > L (Q clearly above P) is refused', () => {
-    const error = refusal(() => locateByMurrayLoop({ lengthM: 600, ratioP: 1, ratioQ: 3 }));
-    expect(error.field).toBe('ratioQ');
-    expect(error.message).toMatch(/beyond the end/);
+  test('equal arms put the fault at the far end; the faulted line’s arm clearly above the sound line’s is refused naming faultedArm', () => {
+    expect(locateByMurrayLoop({ lengthM: 600, faultedArm: 1, soundArm: 1 }).distanceM).toBeCloseTo(600, 9);
+    const error = refusal(() => locateByMurrayLoop({ lengthM: 600, faultedArm: 1.1, soundArm: 1 }));
+    expect(error.field).toBe('faultedArm');
+    expect(error.message).toMatch(/faulted line is on the faulted arm/);
   });
 });
 
@@ -458,6 +517,34 @@ describe('flex test', () => {
   test('beyond the cable is refused', () => {
     expect(refusal(() => recordFlexTest({ distanceM: 13, lengthM: 12 })).field).toBe('distanceM');
     expect(refusal(() => recordFlexTest({ distanceM: -1 })).field).toBe('distanceM');
+  });
+});
+
+describe('results with no cable length to check them against', () => {
+  test('a TDR round trip of 10⁹ ns with no length (98 932 km at VF 0.66) is refused naming roundTripNs; with the length given, the length decides', () => {
+    // d = VF · c · Δt / 2 (formula: Ulaby, TDR section; the numbers are ours): 0.66 · c · 1 s / 2 = 98 932 km, with c from mathjs
+    expect(Math.round((0.66 * C * 1) / 2 / 1000)).toBe(98_932);
+    const error = refusal(() => locateByTdr({ roundTripNs: 1e9, velocityFactor: 0.66 }));
+    expect(error.field).toBe('roundTripNs');
+    expect(error.message).toMatch(/^These readings put the fault 98931.511 km away, further than the longest cable these methods are meant for \(2 km\)/);
+    expect(error.message).toMatch(/give the cable length/);
+    expect(refusal(() => locateByTdr({ roundTripNs: 1e9, velocityFactor: 0.66, lengthM: 12 })).message).toMatch(/beyond the end of this 12 m cable/);
+  });
+
+  test('the longest cable is a setting: 2 km by default (common practice), another value when given', () => {
+    // common practice (no published source): floor cables, reels and pistes are tens of metres
+    expect(DEFAULT_MAX_CABLE_LENGTH_M).toBe(2000);
+    const roundTripNs = ((2 * 3000) / (0.66 * C)) * 1e9; // 3 km there and back
+    expect(refusal(() => locateByTdr({ roundTripNs, velocityFactor: 0.66 })).field).toBe('roundTripNs');
+    expect(locateByTdr({ roundTripNs, velocityFactor: 0.66 }, 'metric', { maxCableLengthM: 5000 }).distanceM).toBeCloseTo(3000, 6);
+  });
+
+  test('loop from one end and the flex test are held to it as well, in the reader’s units', () => {
+    expect(refusal(() => locateByLoopOneEnd({ loopOhm: 500, ohmPerMetre: 0.0375 })).field).toBe('loopOhm'); // 6.67 km
+    expect(locateByLoopOneEnd({ loopOhm: 50, ohmPerMetre: 0.0375 }).distanceM).toBeCloseTo(50 / 0.075, 9); // 667 m
+    expect(refusal(() => recordFlexTest({ distanceM: 2500 })).field).toBe('distanceM');
+    expect(refusal(() => locateByLoopOneEnd({ loopOhm: 500, ohmPerMetre: 0.0375 }, 'imperial')).message).toMatch(/\(6562 ft\)/);
+    expect(runFaultLocation(faultLocationRequestSchema.parse({ method: 'flex', distanceM: 1500 })).distanceM).toBe(1500);
   });
 });
 
@@ -584,7 +671,7 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
     { method: 'loop-one-end', loopOhm: 1.6, conductorOhm: 1.3, lengthM: 12, faultOhm: 0.1 },
     { method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10000, ohmPerMetre: 0.011 },
     { method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10000, conductorOhm: 110 },
-    { method: 'murray', lengthM: 600, ratioP: 3, ratioQ: 1 },
+    { method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 },
     { method: 'capacitance', lengthM: 20, faultedNf: 0.6, soundNf: 1.2 },
     { method: 'capacitance', lengthM: 20, faultedNf: 0.6, soundNf: 1.2, farFaultedNf: 0.6 },
     { method: 'flex', distanceM: 3, lengthM: 12 },
@@ -599,7 +686,7 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
   });
 
   test('loop-both-ends via the API: 3.864 km, 25 Ω', () => {
-    // Halliday/Resnick/Walker-type textbook problem (attribution from memory; the arithmetic is exact)
+    // an example of the form used in introductory physics texts, not any book’s own numbers (REFERENCES.md, "loop, both ends"); the arithmetic is exact
     const answer = runFaultLocation(
       faultLocationRequestSchema.parse({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10000, ohmPerMetre: 0.011 }),
     );
@@ -623,7 +710,8 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
     [{ method: 'loop-one-end', loopOhm: 1, ohmPerMetre: 0.1, conductorOhm: 1, lengthM: 10 }, /not both/],
     [{ method: 'loop-one-end', loopOhm: 1, conductorOhm: 1 }, /lengthM is required with conductorOhm/],
     [{ method: 'loop-both-ends', nearOhm: 1, farOhm: 1, lengthM: 10 }, /Give ohmPerMetre or conductorOhm/],
-    [{ method: 'murray', lengthM: 600, ratioP: 0, ratioQ: 1 }, /ratioP must be greater than 0/],
+    [{ method: 'murray', lengthM: 600, faultedArm: 0, soundArm: 1 }, /faultedArm must be greater than 0 \(the bridge arm joined to the faulted line/],
+    [{ method: 'murray', lengthM: 600, ratioP: 1, ratioQ: 3 }, /Unrecognized keys/],
     [{ method: 'capacitance', lengthM: 20, faultedNf: 0.6 }, /soundNf is required/],
     [{ method: 'sonar', lengthM: 20 }, /method must be one of: tdr, vf-calibration/],
     [{ lengthM: 20 }, /method must be one of/],
@@ -634,7 +722,7 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
   });
 
   test('a schema-valid but physically impossible request is refused by the domain (→ 422)', () => {
-    const request = faultLocationRequestSchema.parse({ method: 'murray', lengthM: 600, ratioP: 1, ratioQ: 5 });
+    const request = faultLocationRequestSchema.parse({ method: 'murray', lengthM: 600, faultedArm: 5, soundArm: 1 });
     expect(() => runFaultLocation(request)).toThrow(FaultLocationError);
   });
 });

@@ -12,6 +12,7 @@ import {
   ReadingInputError,
   TEST_KINDS,
   temperatureCorrectionFactor,
+  temperatureRuleText,
   type EquipmentKind,
   type LimitProfile,
   type ReadingToEvaluate,
@@ -316,12 +317,41 @@ describe('temperature correction', () => {
     expect(correctTo20C(2.6, 30)).toBeCloseTo(2.6 * 0.9622, 3);
   });
 
-  test('a warm cable that reads over the limit can pass once corrected, and the explanation says so', () => {
+  test('by default a reading is judged as measured: 2.55 Ω at 35 °C fails the 2.5 Ω floor-cable limit, and the explanation says why it was not corrected', () => {
+    // FIE Material Rules, art. m.55.5: ≤ 2.5 Ω per wire; the rules give no reference temperature
+    expect(DEFAULT_LIMIT_PROFILE.temperatureReferenceC).toBeNull();
     const v = evaluate({ equipmentKind: 'floor-cable', testKind: 'continuity', valueOhm: 2.55, temperatureC: 35 });
+    expect(v.verdict).toBe('fail');
+    expect(v.correctedOhm).toBeUndefined();
+    expect(v.explanation).toMatch(/^Read 2\.55 Ω at 35 °C and judged as measured \(the FIE Material Rules give no reference temperature\)\. 2\.55 Ω is over/);
+  });
+
+  test('a profile that corrects to 20 °C passes the same warm cable once corrected, and calls the correction a house rule', () => {
+    const correcting: LimitProfile = { ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 20 };
+    const v = evaluateReading({ profile: correcting, equipmentKind: 'floor-cable', testKind: 'continuity', conductors: 'A', valueOhm: 2.55, overRange: false, temperatureC: 35 });
     // 2.55 × 254.5 / 269.5 = 2.408 Ω (IEC 60228 Annex B)
     expect(v.correctedOhm).toBeCloseTo((2.55 * 254.5) / 269.5, 9);
     expect(v.verdict).toBe('near-limit');
-    expect(v.explanation).toMatch(/Read 2\.55 Ω at 35 °C, which is 2\.408 Ω corrected to 20 °C/);
+    expect(v.explanation).toMatch(/Read 2\.55 Ω at 35 °C, which is 2\.408 Ω corrected to 20 °C \(house rule of this profile/);
+  });
+
+  test('to another reference temperature the same copper law: k(35 → 25 °C) is k_t(35) / k_t(25)', () => {
+    // IEC 60228 Annex B: both corrections to 20 °C, chained
+    expect(temperatureCorrectionFactor(35, 25)).toBeCloseTo(temperatureCorrectionFactor(35) / temperatureCorrectionFactor(25), 12);
+    const v = evaluateReading({ profile: { ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 25 }, equipmentKind: 'reel', testKind: 'continuity', conductors: 'B', valueOhm: 3.05, overRange: false, temperatureC: 35 });
+    expect(v.correctedOhm).toBeCloseTo(3.05 * (259.5 / 269.5), 9);
+    expect(v.explanation).toMatch(/corrected to 25 °C/);
+  });
+
+  test('the choice in one sentence, as the certificate prints it', () => {
+    expect(temperatureRuleText(DEFAULT_LIMIT_PROFILE)).toBe('Judged as measured (no correction)');
+    expect(temperatureRuleText({ temperatureReferenceC: 20 })).toBe('Copper corrected to 20 °C (IEC 60228 Annex B): house rule');
+  });
+
+  test('the reference temperature is checked like a reading’s: −40 … 70 °C or null', () => {
+    expect(limitProfileSchema.safeParse({ ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 20 }).success).toBe(true);
+    expect(limitProfileSchema.safeParse({ ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: null }).success).toBe(true);
+    expect(limitProfileSchema.safeParse({ ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 200 }).success).toBe(false);
   });
 
   test('pistes and insulation are not corrected', () => {

@@ -64,7 +64,7 @@ describe('analyseWaveform', () => {
   });
 
   test('with a velocity factor, a distance from the rise time and VF (TDR formula)', () => {
-    // Ulaby, Fundamentals of Applied Electromagnetics, TDR section: d = VF · c · Δt / 2
+    // formula: Ulaby, Fundamentals of Applied Electromagnetics, TDR section, d = VF · c · Δt / 2 (the trace is ours)
     const roundTripS = 120e-9;
     const a = analyseWaveform(synthesiseTrace({ roundTripS, rho: -1, noiseV: 0.003, seed: 5 }), { velocityFactor: 0.66 });
     const expected = (0.66 * C * roundTripS) / 2;

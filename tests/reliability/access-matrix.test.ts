@@ -36,6 +36,8 @@ interface Ctx {
   /** An untested position added to the spare strip in the setup, for DELETE /api/positions/:id. */
   removablePositionId: string;
   faultId: string;
+  /** An open fault of the hall opened by hand in the setup, for its director to dismiss. */
+  dismissableFaultId: string;
   readingId: string;
   repairId: string;
   equipmentId: string;
@@ -127,11 +129,20 @@ function rows(): Row[] {
     // The batch is let in for testers; each reading in it meets the same per-venue check as alone.
     { route: 'POST /api/readings/batch', path: () => '/api/readings/batch', body: (c) => ({ readings: [{ id: id(), stepId: c.stepId, value: '0.5' }] }), expect: [401, 200, 200, 200, 200, 403, 403], results: TEST_VENUE(201) },
     { route: 'GET /api/readings/:id', path: (c) => `/api/readings/${c.readingId}`, expect: READ_VENUE() },
+    // A technician's or director's own test-lead null: no venue involved, any tester records one.
+    { route: 'POST /api/lead-nulls', path: () => '/api/lead-nulls', body: () => ({ id: id(), value: '0.12' }), expect: [401, 201, 201, 201, 201, 403, 403] },
     { route: 'GET /api/venues/:id/faults', path: (c) => `/api/venues/${c.hall}/faults`, expect: READ_VENUE() },
     { route: 'GET /api/faults/:id', path: (c) => `/api/faults/${c.faultId}`, expect: READ_VENUE() },
     { route: 'POST /api/faults', path: () => '/api/faults', body: (c) => ({ positionId: c.positionId, kind: 'intermittent', conductors: 'B' }), expect: TEST_VENUE(201) },
     { route: 'PATCH /api/faults/:id', path: (c) => `/api/faults/${c.faultId}`, headers: faultTag, body: () => ({ notes: 'Checked again at the connector.' }), expect: TEST_VENUE(200) },
     { route: 'POST /api/faults/:id/estimates', path: (c) => `/api/faults/${c.faultId}/estimates`, body: () => ({ method: 'flex', distanceM: 3, uncertaintyM: 0.2, fromEnd: 'near' }), expect: TEST_VENUE(201) },
+    {
+      route: 'POST /api/faults/:id/dismiss',
+      path: (c) => `/api/faults/${c.dismissableFaultId}/dismiss`,
+      headers: async (c) => ({ 'If-Match': (await director().get(`/api/faults/${c.dismissableFaultId}`)).headers.etag as string }),
+      body: () => ({ reason: 'Opened by mistake on the wrong cable; nothing was measured.' }),
+      expect: [401, 403, 403, 200, 404, 403, 403],
+    },
     { route: 'POST /api/faults/:id/repairs', path: (c) => `/api/faults/${c.faultId}/repairs`, body: () => ({ action: 'connector-remade', notes: 'Remade the plug.' }), expect: TEST_VENUE(201) },
     { route: 'GET /api/venues/:id/board', path: (c) => `/api/venues/${c.hall}/board`, expect: READ_VENUE() },
     { route: 'GET /api/equipment', path: () => '/api/equipment', expect: SIGNED_IN(200) },
@@ -242,6 +253,7 @@ beforeAll(async () => {
   const rightCable = strip.positions.find((p) => p.name === 'Right floor cable')!;
   const fault2 = await sam.post('/api/faults').send({ positionId: rightCable.id, kind: 'open', conductors: 'C' }).expect(201);
   const repair = await sam.post(`/api/faults/${fault2.body.id}/repairs`).send({ action: 'connector-remade' }).expect(201);
+  const dismissable = await sam.post('/api/faults').send({ positionId: rightCable.id, kind: 'intermittent', conductors: 'A' }).expect(201);
   const png = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#2266aa' } }).png().toBuffer();
   const openFault = faults.find((f) => f.status !== 'closed')!;
   const photo = await sam.post(`/api/faults/${openFault.id}/attachments`).attach('file', png, 'short.png').expect(201);
@@ -280,6 +292,7 @@ beforeAll(async () => {
     sparePositionId: spare.positions.find((p) => p.name === 'Right reel')!.id,
     removablePositionId: removablePosition.id,
     faultId: openFault.id,
+    dismissableFaultId: dismissable.body.id,
     readingId: reading.body.id,
     repairId: repair.body.repair?.id ?? repair.body.id,
     equipmentId: register.find((e) => e.kind === 'floor-cable')!.id,
@@ -330,5 +343,5 @@ describe('access matrix', () => {
       }
     }
     expect(wrong, wrong.join('\n')).toEqual([]);
-  });
+  }, 240_000); // ~650 sequential requests: 54 s were seen at load average 20; an upper bound only
 });

@@ -8,6 +8,7 @@ import { randomUUID } from 'node:crypto';
 import { createTestApp, DEMO, ORIGIN, type TestApp } from '../setup/test-app';
 import { stripByLabel, venueIds } from '../api/testing-helpers';
 import { parseReading, type Quantity } from '../../shared/domain/units';
+import { judgeTypedReading, parseLeadNull } from '../../shared/domain/typed-reading';
 import { parseTraceCsv, WaveformError } from '../../shared/domain/waveform';
 import {
   normaliseHeader,
@@ -75,12 +76,14 @@ function validBody(route: string): Record<string, unknown> | null {
     'POST /api/auth/set-password/:token': { password: 'a long new password 2026' },
     'POST /api/users': { email: 'someone@lakeshore.example', name: 'Someone', role: 'technician' },
     'PATCH /api/users/:id': { name: 'Fuzz Target' },
-    'POST /api/readings': { id: randomUUID(), stepId: params.steps, value: '0.5' },
-    'POST /api/readings/batch': { readings: [{ id: randomUUID(), stepId: params.steps, value: '0.5' }] },
+    'POST /api/readings': { id: randomUUID(), stepId: params.steps, value: '0.5', leadNullId: null },
+    'POST /api/readings/batch': { readings: [{ id: randomUUID(), stepId: params.steps, value: '0.5', leadNullId: null }] },
     'POST /api/faults': { positionId: params.positions, kind: 'open', conductors: 'A' },
     'PATCH /api/faults/:id': { notes: 'x' },
     'POST /api/faults/:id/estimates': { method: 'flex', distanceM: 3, uncertaintyM: 0.2, fromEnd: 'near' },
     'POST /api/faults/:id/repairs': { action: 'connector-remade' },
+    'POST /api/faults/:id/dismiss': { reason: 'Opened on the wrong cable, nothing was measured.' },
+    'POST /api/lead-nulls': { id: randomUUID(), value: '0.12', meter: 'Meter 1' },
     'POST /api/equipment': { assetTag: 'FZ-1', kind: 'floor-cable', lengthM: 12 },
     'PATCH /api/equipment/:id': { notes: 'x' },
     'POST /api/equipment/:id/calibrations': { roundTripNs: 120, lengthM: 12 },
@@ -204,6 +207,26 @@ describe('bad input to the parsers', () => {
         const r = parseReading(s, q, lead === undefined ? undefined : { leadOffsetOhm: lead });
         if (r.ok) expect(Number.isFinite(r.value) || r.overRange).toBe(true);
         else expect(typeof r.message).toBe('string');
+      }),
+      { numRuns: 2000 },
+    );
+  });
+
+  test('judgeTypedReading and parseLeadNull answer a verdict or a refusal for any text and any null, and never throw', () => {
+    const ctx = fc.record({
+      equipmentKind: fc.constantFrom('floor-cable', 'reel', 'piste', 'body-wire', 'apparatus', 'other' as const),
+      testKind: fc.constantFrom('continuity', 'insulation', 'loop', 'piste-end-to-end', 'piste-earth' as const),
+      conductors: fc.oneof(fc.constantFrom('A', 'B-C', 'piste'), fc.string({ maxLength: 4 })),
+      lengthM: fc.option(fc.double(), { nil: null }),
+      temperatureC: fc.option(fc.double(), { nil: null }),
+    });
+    fc.assert(
+      fc.property(text, ctx, fc.option(fc.double(), { nil: null }), (s, c, lead) => {
+        const r = judgeTypedReading(s, { profile: DEFAULT_LIMIT_PROFILE, ...c }, lead);
+        if (r.ok) expect(['pass', 'near-limit', 'fail']).toContain(r.verdict.verdict);
+        else expect(typeof r.message).toBe('string');
+        const n = parseLeadNull(s);
+        if (n.ok) expect(n.valueOhm >= 0 && n.valueOhm <= 1).toBe(true);
       }),
       { numRuns: 2000 },
     );

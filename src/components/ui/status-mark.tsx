@@ -1,6 +1,9 @@
 // A status shown three ways at once: a shape, a word and a colour, so it reads without colour too.
-export type MarkShape = 'circle' | 'ring' | 'triangle' | 'square' | 'diamond' | 'dash' | 'half';
-export type MarkTone = 'pass' | 'near' | 'fail' | 'idle' | 'brand' | 'brass';
+// The shapes are drawn from the one symbol module the certificates use too.
+import { SHAPE_PATHS, type SymbolLook, type SymbolShape, type SymbolTone } from '@shared/domain/symbols';
+
+export type MarkShape = SymbolShape;
+export type MarkTone = SymbolTone;
 
 const fill: Record<MarkTone, string> = {
   pass: 'fill-pass stroke-pass',
@@ -20,22 +23,18 @@ const chip: Record<MarkTone, string> = {
 };
 
 export function MarkIcon({ shape, tone, className = 'size-4' }: { shape: MarkShape; tone: MarkTone; className?: string }) {
+  const p = SHAPE_PATHS[shape];
   return (
-    <svg aria-hidden viewBox="0 0 16 16" className={`shrink-0 ${fill[tone]} ${className}`}>
-      {shape === 'circle' && <circle cx="8" cy="8" r="6.5" />}
-      {shape === 'ring' && <circle cx="8" cy="8" r="5.5" fill="none" strokeWidth="2.5" />}
-      {shape === 'triangle' && <path d="M8 1.5 15 14.5H1z" />}
-      {shape === 'square' && <rect x="2" y="2" width="12" height="12" rx="1" />}
-      {shape === 'diamond' && <path d="M8 1 15 8 8 15 1 8z" />}
-      {shape === 'dash' && <rect x="1.5" y="6" width="13" height="4" rx="1" />}
-      {shape === 'half' && (
-        <>
-          <circle cx="8" cy="8" r="5.75" fill="none" strokeWidth="2" />
-          <path d="M8 2.25a5.75 5.75 0 0 1 0 11.5z" stroke="none" />
-        </>
-      )}
+    <svg aria-hidden viewBox="0 0 16 16" className={`shrink-0 ${fill[tone]} ${className}`} data-shape={shape}>
+      {p.stroke && <path d={p.stroke} fill="none" strokeWidth="2" />}
+      {p.fill && <path d={p.fill} stroke="none" />}
     </svg>
   );
+}
+
+/** A look from the symbol module, as a chip: `<Symbol look={READING_SYMBOLS.fail} />`. */
+export function SymbolMark({ look, label, size = 'md' }: { look: SymbolLook; label?: string; size?: 'sm' | 'md' | 'lg' }) {
+  return <StatusMark shape={look.shape} tone={look.tone} label={label ?? look.label} size={size} />;
 }
 
 export function StatusMark({

@@ -13,11 +13,12 @@ import { CalibrateForm } from '@/features/equipment/components/calibrate-form';
 import { dateTime, lengthText } from '@/features/equipment/components/labels';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { DataTable, plainTableLook } from '@/components/ui/data-table';
-import { StatusMark } from '@/components/ui/status-mark';
+import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 
-const VERDICT = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['triangle', 'near', 'Near limit'], fail: ['square', 'fail', 'Fail'] } as const;
+const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const REPAIR_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped for another item', retired: 'Retired' } as const;
 
 function Section({ title, count, children }: { title: string; count: number; children: React.ReactNode }) {

@@ -41,7 +41,7 @@ export default function EventPage() {
                   <span className="ml-2 text-sm text-ink-soft">{v.stripCount} strips · {v.status}</span>
                 </span>
                 <Link className={linkClass} to={paths.venue(v.id)}>Venue</Link>
-                <Link className={linkClass} to={paths.venuePlan(v.id)}>Plan</Link>
+                {isDirector && <Link className={linkClass} to={paths.venuePlan(v.id)}>Plan</Link>}
                 <Link className={linkClass} to={paths.venueReadings(v.id)}>Readings</Link>
                 {me.data?.role !== 'technician' && <Link className={linkClass} to={paths.venueAudit(v.id)}>Audit trail</Link>}
               </li>

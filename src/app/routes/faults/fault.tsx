@@ -1,3 +1,4 @@
+import { useEffect, useRef } from 'react';
 import { Link, useParams } from 'react-router';
 import { createColumnHelper, getCoreRowModel, useReactTable } from '@tanstack/react-table';
 import { formatLength, formatOhm } from '@shared/domain/units';
@@ -7,23 +8,21 @@ import { useMe } from '@/features/auth/api/get-me';
 import { faultQueryOptions, useFault } from '@/features/faults/api/get-fault';
 import { useQueryClient } from '@tanstack/react-query';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
+import { useAddEstimate } from '@/features/faults/api/add-estimate';
 import { FaultNotes } from '@/features/faults/components/fault-notes';
-import { LocateForm } from '@/features/faults/components/locate-form';
 import { RepairForm } from '@/features/faults/components/repair-form';
-import { METHOD_LABELS, type LocateMethod } from '@/features/faults/utils/methods';
+import { LocateForm } from '@/features/fault-locator/components/locate-form';
+import { METHOD_DEFINITIONS, methodsForFault, type LocateMethod } from '@shared/domain/fault-methods';
+import { DismissForm } from '@/features/faults/components/dismiss-form';
 import { CableDrawing } from '@/components/ui/cable-drawing';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { DataTable } from '@/components/ui/data-table';
-import { StatusMark } from '@/components/ui/status-mark';
+import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { FAULT_SYMBOLS, READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 
-const statusLook = {
-  open: { shape: 'triangle', tone: 'fail' },
-  located: { shape: 'diamond', tone: 'fail' },
-  repaired: { shape: 'half', tone: 'near' },
-  closed: { shape: 'circle', tone: 'pass' },
-} as const;
-const verdictLook = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['diamond', 'near', 'Near limit'], fail: ['triangle', 'fail', 'Fail'] } as const;
+const statusLook = FAULT_SYMBOLS;
+const verdictLook = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const ACTION_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped', retired: 'Retired' } as const;
 
 type FaultStep = NonNullable<ReturnType<typeof useFault>['data']>['steps'][number];
@@ -67,6 +66,14 @@ export default function FaultPage() {
   const fault = useFault(faultId);
   const me = useMe();
   const qc = useQueryClient();
+  const add = useAddEstimate(faultId);
+  // The server words the saved estimates in the reader's units: after an m ↔ ft switch, read them again.
+  const wordsIn = useRef(me.data?.unitSystem);
+  useEffect(() => {
+    const now = me.data?.unitSystem;
+    if (wordsIn.current !== undefined && now !== undefined && now !== wordsIn.current) void qc.invalidateQueries({ queryKey: faultQueryOptions(faultId).queryKey });
+    wordsIn.current = now;
+  }, [me.data?.unitSystem, qc, faultId]);
   if (fault.isPending) return <Loading />;
   if (fault.isError) return <Notice tone="error">{fault.error.message}</Notice>;
   const f = fault.data;
@@ -76,8 +83,16 @@ export default function FaultPage() {
   const lengthM = f.equipment?.lengthM ?? f.lengthM;
   const retest = `${paths.stripTest(f.stripId)}?position=${f.positionId}`;
 
-  const single = f.estimates.flatMap((e) => (e.distanceFromNearM !== null ? [{ distanceM: e.distanceFromNearM, uncertaintyM: e.uncertaintyM }] : []));
   const shown = f.combined ?? null;
+  // Estimates are shown against the item's length when they were made: a cut-out since does not move them.
+  const latest = f.estimates[f.estimates.length - 1];
+  const locatedOnM = shown ? shown.itemLengthM : (latest?.itemLengthM ?? null);
+  const drawnM = locatedOnM ?? lengthM;
+  const shortenedSince = locatedOnM !== null && lengthM !== null && lengthM < locatedOnM;
+  const used = new Set(shown?.estimateIds ?? []);
+  const single = f.estimates.flatMap((e) => (used.has(e.id) && e.distanceFromNearM !== null ? [{ distanceM: e.distanceFromNearM, uncertaintyM: e.uncertaintyM }] : []));
+  const apartOf = new Map((shown?.apart ?? []).map((a) => [a.estimateId, a.reason]));
+  const title = (method: string) => METHOD_DEFINITIONS[method as LocateMethod]?.title ?? method;
 
   return (
     <>
@@ -104,17 +119,28 @@ export default function FaultPage() {
         </div>
       )}
       {f.status === 'closed' && (
-        <div className="mb-4">
-          <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+        <div className="mb-4" data-testid="fault-closed">
+          {f.dismissal ? (
+            <Notice tone="info">
+              Dismissed as a typing mistake {new Date(f.dismissal.at).toLocaleString()} by {f.dismissal.byName ?? 'the technical director'}: “{f.dismissal.reason}”
+            </Notice>
+          ) : (
+            <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+          )}
         </div>
       )}
 
       <Card className="mb-4">
         <h2 className="text-lg font-semibold">Where it is</h2>
-        {lengthM !== null ? (
+        {shortenedSince && (
+          <p className="mt-1 text-sm" data-testid="shortened-since">
+            Located on the item as it was then, {formatLength(locatedOnM, unit)} long; it is {formatLength(lengthM, unit)} now, after a cut-out.
+          </p>
+        )}
+        {drawnM !== null ? (
           <>
             <CableDrawing
-              lengthM={lengthM}
+              lengthM={drawnM}
               distanceM={shown?.distanceM}
               uncertaintyM={shown?.uncertaintyM}
               others={single.length > 1 ? single : []}
@@ -132,11 +158,11 @@ export default function FaultPage() {
             <p className="flex flex-wrap items-center gap-2 text-base">
               <strong>
                 About {formatLength(shown.distanceM, unit)} ±{formatLength(shown.uncertaintyM, unit)} from the apparatus end
-                {lengthM !== null ? ` (${formatLength(lengthM - shown.distanceM, unit)} from the far end)` : ''}
+                {drawnM !== null ? ` (${formatLength(drawnM - shown.distanceM, unit)} from the far end${shortenedSince ? ` of the ${formatLength(drawnM, unit)} it was then` : ''})` : ''}
               </strong>
-              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'triangle'} tone={shown.agree ? 'pass' : 'near'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
+              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'octagon'} tone={shown.agree ? 'pass' : 'brass'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
             </p>
-            <p>{shown.count > 1 ? shown.explanation : f.estimates[f.estimates.length - 1]?.explanation}</p>
+            <p>{shown.count > 1 || shown.apart.length > 0 ? shown.explanation : f.estimates.find((e) => used.has(e.id))?.explanation}</p>
           </div>
         ) : (
           <p className="mt-2 text-sm text-ink-soft">Not located yet. Choose a method below.</p>
@@ -144,15 +170,20 @@ export default function FaultPage() {
         {f.estimates.length > 0 && (
           <details className="mt-3 text-sm">
             <summary className="min-h-touch cursor-pointer py-2 font-medium">Saved estimates ({f.estimates.length})</summary>
-            <ul className="divide-y divide-line">
-              {f.estimates.map((e) => (
-                <li key={e.id} className="py-2">
-                  <strong>{METHOD_LABELS[e.method as LocateMethod] ?? e.method}</strong>: {formatLength(e.distanceM, unit)} ±{formatLength(e.uncertaintyM, unit)} from the{' '}
-                  {e.fromEnd === 'near' ? 'apparatus end' : 'far end'} · {e.createdByName ?? ''}, {new Date(e.createdAt).toLocaleString()}
+            <ol className="divide-y divide-line">
+              {f.estimates.map((e, i) => (
+                <li key={e.id} className="py-2" data-testid="saved-estimate">
+                  <strong>
+                    {i + 1}. {title(e.method)}
+                  </strong>
+                  : {formatLength(e.distanceM, unit)} ±{formatLength(e.uncertaintyM, unit)} from the {e.fromEnd === 'near' ? 'apparatus end' : 'far end'}
+                  {e.itemLengthM !== null ? ` of the ${formatLength(e.itemLengthM, unit)} item` : ''} · {e.createdByName ?? ''}, {new Date(e.createdAt).toLocaleString()}
+                  {e.itemShortenedSince && <p className="font-medium">Worked out when the item was {formatLength(e.itemLengthM!, unit)} long; it has been shortened since.</p>}
+                  {apartOf.has(e.id) && <p className="font-medium">Not weighed in with the others: {apartOf.get(e.id)}</p>}
                   <p className="text-ink-soft">{e.explanation}</p>
                 </li>
               ))}
-            </ul>
+            </ol>
           </details>
         )}
       </Card>
@@ -161,7 +192,30 @@ export default function FaultPage() {
         {canWrite && active && (
           <Card>
             <h2 className="mb-3 text-lg font-semibold">Locate</h2>
-            <LocateForm key={f.kind + f.conductors} fault={f} unitSystem={unit} />
+            {/* A new kind, pair or length (after a cut-out) starts the form again from what is known. */}
+            <LocateForm
+              key={`${f.kind} ${f.conductors} ${f.prefill.lengthM ?? ''}`}
+              unitSystem={unit}
+              methods={methodsForFault(f.kind, f.conductors)}
+              prefill={f.prefill}
+              conductors={f.conductors}
+              askFromEnd
+              layout="narrow"
+              submitLabel="Estimate and save"
+              pendingLabel="Working out…"
+              answeredNote="Saved."
+              onSubmit={async (request, fromEnd) => {
+                const { estimate } = await add.mutateAsync({ ...request, fromEnd });
+                return {
+                  method: estimate.method,
+                  distanceM: estimate.distanceM,
+                  uncertaintyM: estimate.uncertaintyM,
+                  explanation: estimate.explanation,
+                  ...(estimate.fromOtherEndM !== null ? { fromOtherEndM: estimate.fromOtherEndM } : {}),
+                  ...(estimate.faultOhm !== null ? { faultOhm: estimate.faultOhm } : {}),
+                };
+              }}
+            />
           </Card>
         )}
         {canWrite && active && (
@@ -176,6 +230,13 @@ export default function FaultPage() {
           </Card>
         )}
       </div>
+
+      {f.canDismiss && (
+        <Card className="mt-4">
+          <h2 className="mb-2 text-lg font-semibold">A typing mistake?</h2>
+          <DismissForm fault={f} />
+        </Card>
+      )}
 
       <Card className="mt-4">
         <h2 className="mb-3 text-lg font-semibold">Photos, scope traces and files</h2>

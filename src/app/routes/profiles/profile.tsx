@@ -11,6 +11,7 @@ import { useCopyProfile } from '@/features/profiles/api/copy-profile';
 import { useUpdateProfile } from '@/features/profiles/api/update-profile';
 import { RulesTable } from '@/features/profiles/components/rules-table';
 import { RulesEditor } from '@/features/profiles/components/rules-editor';
+import { TemperatureSetting } from '@/features/profiles/components/temperature-setting';
 import { Button } from '@/components/ui/button';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
@@ -100,6 +101,22 @@ export default function ProfilePage() {
               Loop resistance is asked for: {p.loopRequired.length ? p.loopRequired.map((k) => EQUIPMENT_KIND_LABELS[k].toLowerCase()).join(', ') : 'nothing'}.
             </p>
             {p.notes && <p className="mt-2 text-sm text-ink-soft">{p.notes}</p>}
+          </Card>
+          <Card>
+            <h2 className="text-lg font-semibold">Cable temperature</h2>
+            <TemperatureSetting
+              key={p.id}
+              referenceC={p.temperatureReferenceC}
+              canEdit={canManage && isLatest && !editing}
+              onSave={async ({ temperatureReferenceC }) => {
+                const saved = await update.mutateAsync({
+                  id: p.id,
+                  version: p.latestVersion,
+                  body: { rules: p.rules, loopRequired: p.loopRequired, temperatureReferenceC },
+                });
+                navigate(paths.profile(saved.id));
+              }}
+            />
           </Card>
           <Card>
             <h2 className="text-lg font-semibold">Versions</h2>

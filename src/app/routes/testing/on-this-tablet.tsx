@@ -29,7 +29,7 @@ function MoveToStep({ item }: { item: QueuedReading }) {
         e.preventDefault();
         const c = choices.find((x) => x.step.id === stepId);
         if (!c) return setError('Choose the step the value belongs to.');
-        const p = previewReading(item.body.value, { profile, equipmentKind: c.position.equipmentKind, testKind: c.step.testKind, conductors: c.step.conductors, lengthM: c.position.equipment?.lengthM ?? null }, item.body.leadOffsetOhm ?? null);
+        const p = previewReading(item.body.value, { profile, equipmentKind: c.position.equipmentKind, testKind: c.step.testKind, conductors: c.step.conductors, lengthM: c.position.equipment?.lengthM ?? null }, item.leadNull?.valueOhm ?? null);
         if (p.state !== 'judged') return setError(p.state === 'invalid' ? p.message : 'The value cannot be judged on that step.');
         void moveToStep(item.id, {
           stepId: c.step.id,

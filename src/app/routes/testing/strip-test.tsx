@@ -1,25 +1,30 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { FAULT_SYMBOLS, STRIP_SYMBOLS } from '@shared/domain/symbols';
 import { Link, useParams, useSearchParams } from 'react-router';
 import { formatLength } from '@shared/domain/units';
 import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
-import { STRIP_STATUS_LABELS } from '@shared/domain/progress';
 import { useMe } from '@/features/auth/api/get-me';
 import { useStrip } from '@/features/testing/api/get-strip';
-import { StepRow, stepTitle, type QueuedView } from '@/features/testing/components/step-row';
+import { StepRow, stepTitle, type JudgedPreview, type QueuedView, type ReadingInput } from '@/features/testing/components/step-row';
+import { EntryGrid } from '@/features/testing/components/entry-grid';
+import { StripBar } from '@/features/testing/components/strip-bar';
+import { readView, saveView, type TestingView } from '@/features/testing/utils/view-preference';
+import type { StripPosition, StripStep } from '@/features/testing/api/get-strip';
+import { useSyncSummary } from '@/features/offline/hooks/use-outbox';
+import { syncLook, syncWords } from '@/features/offline/components/sync-indicator';
 import { useOutbox } from '@/features/offline/hooks/use-outbox';
-import { enqueueReading } from '@/features/offline/stores/outbox';
+import { enqueueReading, recordLeadNull } from '@/features/offline/stores/outbox';
 import { newReadingId } from '@/features/offline/utils/reading-id';
 import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
-import { readLeadOffset, safetyAcknowledged, saveLeadOffset } from '@/features/testing/utils/session';
+import { readLeadNull, safetyAcknowledged, saveLeadNull } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
+import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
 
-const statusTone = { 'not-started': 'idle', 'in-progress': 'brand', clear: 'pass', 'fault-open': 'fail', withdrawn: 'idle' } as const;
-const statusShape = { 'not-started': 'ring', 'in-progress': 'half', clear: 'circle', 'fault-open': 'triangle', withdrawn: 'dash' } as const;
 
 /** The testing screen: walk a strip's positions and steps with the keyboard alone. */
 export default function StripTestPage() {
@@ -29,11 +34,20 @@ export default function StripTestPage() {
   const strip = useStrip(stripId);
   const me = useMe();
   const outbox = useOutbox();
-  const [lead, setLead] = useState<number | null>(() => readLeadOffset());
+  const [lead, setLead] = useState<LeadNullRecord | null>(null);
+  // This person's null of this session (kept in the tab; a shared tablet never uses another's).
+  useEffect(() => setLead(readLeadNull(me.data?.id)), [me.data?.id]);
   const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
   const nextStripLink = useRef<HTMLAnchorElement>(null);
   const [ready, setReady] = useState(() => safetyAcknowledged());
   const focusedFor = useRef<string | null>(null);
+  const sync = useSyncSummary();
+  const [chosenView, setChosenView] = useState<TestingView | null>(null);
+  const view = chosenView ?? readView(me.data?.id);
+  const [focusRequest, setFocusRequest] = useState(0);
+  // The repaired fault being retested here, kept once seen: when it closes it leaves the strip's
+  // list of unclosed faults, and the screen must still say so.
+  const [retestFault, setRetestFault] = useState<{ id: string; positionId: string; since: string | null } | null>(null);
 
   const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
   const data = strip.data;
@@ -53,6 +67,30 @@ export default function StripTestPage() {
     return byStep;
   }, [outbox.items, outbox.syncing, stripId, me.data?.id]);
   const waitingHere = [...queued.values()].filter((q) => q.status === 'waiting' || q.status === 'sending').length;
+  const measuredHere = flat.filter((f) => f.step.latest || queued.has(f.step.id)).length;
+
+  const seenRepaired = data?.openFaults.find((f) => f.positionId === retestPosition && f.status === 'repaired');
+  if (seenRepaired && retestFault?.id !== seenRepaired.id) setRetestFault({ id: seenRepaired.id, positionId: seenRepaired.positionId, since: seenRepaired.repairedAt });
+  const retestClosed = !!retestFault && !!data && !data.openFaults.some((f) => f.id === retestFault.id);
+  const retestSince = retestFault?.positionId === retestPosition ? (retestFault?.since ?? null) : null;
+  const isRetested = (positionId: string, step: StripStep) => positionId === retestPosition && !!retestSince && !!step.latest && step.latest.takenAt >= retestSince;
+
+  const submitReading = useCallback(
+    async (position: StripPosition, step: StripStep, input: ReadingInput, preview: JudgedPreview) => {
+      if (!me.data || !data) throw new Error('not signed in');
+      await enqueueReading({
+        body: { id: newReadingId(), takenAt: new Date().toISOString(), ...input },
+        userId: me.data.id,
+        venueId: data.venueId,
+        stripId: data.id,
+        where: `${data.label} · ${position.name} · ${stepTitle(step)}`,
+        preview,
+        // The null goes with the reading until the server is known to have it.
+        ...(lead && input.leadNullId === lead.id ? { leadNull: lead } : {}),
+      });
+    },
+    [me.data, data, lead],
+  );
 
   const focusStep = useCallback((stepId: string | undefined) => {
     if (!stepId) return nextStripLink.current?.focus();
@@ -63,14 +101,14 @@ export default function StripTestPage() {
 
   // On arrival (after the safety notice): the first step of the retest, else the first not yet measured.
   useEffect(() => {
-    if (!data || !ready || !canWrite || focusedFor.current === data.id + (retestPosition ?? '')) return;
+    if (view === 'grid' || !data || !ready || !canWrite || focusedFor.current === data.id + (retestPosition ?? '')) return;
     focusedFor.current = data.id + (retestPosition ?? '');
     const target = retestPosition
       ? flat.find((f) => f.position.id === retestPosition)
       : (flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0]);
     // Wait a frame so the inputs are mounted.
     requestAnimationFrame(() => focusStep(target?.step.id));
-  }, [data, ready, canWrite, retestPosition, flat, focusStep, queued]);
+  }, [view, data, ready, canWrite, retestPosition, flat, focusStep, queued]);
 
   if ((strip.isPending && strip.fetchStatus === 'paused') || (strip.isError && !strip.data && !(strip.error instanceof ApiError))) {
     return (
@@ -88,10 +126,150 @@ export default function StripTestPage() {
   const profile = { name: data.profile.name, version: data.profile.version, rules: data.profile.rules, loopRequired: data.profile.loopRequired };
   const unit = me.data?.unitSystem ?? 'metric';
   let n = 0;
+  // Each caution once per item kind: on the first step of its kind on this strip.
+  const cautionSteps = new Set<string>();
+  const cautionSeen = new Set<string>();
+  for (const f of flat) {
+    const k = `${f.position.equipmentKind} ${f.step.testKind}`;
+    if ((f.step.testKind === 'insulation' || f.step.testKind === 'piste-earth') && !cautionSeen.has(k)) {
+      cautionSeen.add(k);
+      cautionSteps.add(f.step.id);
+    }
+  }
+  const stripLook = STRIP_SYMBOLS[data.status];
+  const syncShown = { state: sync.state, words: syncWords(sync), ...syncLook[sync.state] };
+  const switchView = (v: TestingView) => {
+    if (me.data) saveView(me.data.id, v);
+    setChosenView(v);
+    setFocusRequest((x) => x + 1);
+  };
+  // The grid links each fault from its cell, so its list of faults would only cost a screen's height.
+  const notices = (faultList: boolean) => (
+    <>
+      {stale && (
+        <div className="mb-4">
+          <Notice tone="caution">
+            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of {new Date(strip.dataUpdatedAt).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}. Keep testing; readings are kept and sent later.
+          </Notice>
+        </div>
+      )}
+      {waitingHere > 0 && (
+        <div className="mb-4">
+          <Notice tone="info">
+            {waitingHere} reading{waitingHere === 1 ? '' : 's'} of this strip {waitingHere === 1 ? 'is' : 'are'} kept on this tablet, waiting to send
+            {outbox.online ? '' : ' (offline: they go when the network is back)'}. Their verdicts come from this tablet until the server confirms them.
+          </Notice>
+        </div>
+      )}
+      {data.withdrawnReason && <Notice tone="caution">This strip is withdrawn: {data.withdrawnReason}</Notice>}
+      {retestPosition && !retestClosed && (
+        <div className="mb-4" data-testid="retest-banner">
+          <Notice tone="caution">
+            Retest after a repair: measure every step of the highlighted item again. The fault closes, and the strip can be clear, only when they all pass.
+          </Notice>
+        </div>
+      )}
+      {retestClosed && (
+        <div className="mb-4" data-testid="retest-done">
+          <Notice tone="success">{data.status === 'clear' ? 'Fault closed · strip clear' : 'Fault closed'}</Notice>
+        </div>
+      )}
+      {faultList && data.openFaults.length > 0 && (
+        <Card className="mb-4 border-fail/40">
+          <h2 className="text-lg font-semibold">Faults on this strip</h2>
+          <ul className="mt-2 divide-y divide-line">
+            {data.openFaults.map((f) => (
+              <li key={f.id} className="flex flex-wrap items-center gap-3 py-2">
+                <StatusMark shape={FAULT_SYMBOLS[f.status].shape} tone={FAULT_SYMBOLS[f.status].tone} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
+                <span>
+                  {f.positionName}: {FAULT_KIND_LABELS[f.kind]} ({f.conductors}){f.equipment ? ` · ${f.equipment.assetTag}` : ''}
+                </span>
+                <Link to={paths.fault(f.id)} className="inline-flex min-h-touch items-center font-medium text-brand underline">
+                  {f.status === 'repaired' ? 'See the repair' : 'Locate and repair'}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </Card>
+      )}
+
+    </>
+  );
+  const viewToggle = (
+    <span role="group" aria-label="Layout" className="inline-flex overflow-hidden rounded-lg border border-line">
+      {(['grid', 'list'] as const).map((v) => (
+        <button key={v} type="button" aria-pressed={view === v} onClick={() => switchView(v)} className={`min-h-touch px-3 text-sm font-medium ${view === v ? 'bg-brand text-white' : 'bg-card'}`}>
+          {v === 'grid' ? 'Grid' : 'Step list'}
+        </button>
+      ))}
+    </span>
+  );
+  const leadNull = canWrite && me.data && (
+    <LeadNull
+      leadNull={lead}
+      userId={me.data.id}
+      onChange={(next) => {
+        saveLeadNull(next);
+        setLead(next);
+        if (next) void recordLeadNull(next);
+        // Back to the first step not measured: the lead null is usually done before the strip.
+        setFocusRequest((x) => x + 1);
+        if (view === 'list') requestAnimationFrame(() => focusStep((flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0])?.step.id));
+      }}
+    />
+  );
 
   return (
     <>
       {canWrite && <SafetyNotice onAcknowledged={() => setReady(true)} />}
+      <StripBar label={data.label} done={measuredHere} total={data.counts.total} waiting={waitingHere} sync={syncShown}>
+        {viewToggle}
+      </StripBar>
+      {view === 'grid' ? (
+        <>
+          <div className="mb-2 flex flex-wrap items-center gap-x-3 gap-y-2">
+            <h1 className="text-lg font-semibold">{data.label} — testing</h1>
+            <span data-testid="strip-status">
+              <StatusMark shape={stripLook.shape} tone={stripLook.tone} label={stripLook.label} />
+            </span>
+            <span className="text-sm text-ink-soft">
+              <Link to={paths.venue(data.venueId)} className="underline">
+                {data.venueName}
+              </Link>
+            </span>
+            <span className="ml-auto flex flex-wrap items-center gap-2">
+              {leadNull}
+              {data.previousStripId && (
+                <Link to={paths.stripTest(data.previousStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium">
+                  ← Previous
+                </Link>
+              )}
+              {data.nextStripId && (
+                <Link to={paths.stripTest(data.nextStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium">
+                  Next strip →
+                </Link>
+              )}
+            </span>
+          </div>
+          {notices(false)}
+          <EntryGrid
+            limitsName={`${data.profile.name} v${data.profile.version}`}
+            positions={data.positions}
+            profile={profile}
+            leadNull={lead}
+            canWrite={canWrite}
+            faults={data.openFaults}
+            queued={queued}
+            retest={retestPosition ? { positionId: retestPosition, since: retestSince } : null}
+            ready={ready}
+            focusRequest={focusRequest}
+            nextStripId={data.nextStripId}
+            boardHref={paths.venueBoard(data.venueId)}
+            submit={submitReading}
+          />
+        </>
+      ) : (
+      <>
       <PageHeader
         title={`${data.label} — testing`}
         subtitle={
@@ -123,65 +301,14 @@ export default function StripTestPage() {
 
       <Card className="mb-4 grid gap-4 md:grid-cols-[auto_1fr_1fr] md:items-center">
         <div data-testid="strip-status">
-          <StatusMark shape={statusShape[data.status]} tone={statusTone[data.status]} label={STRIP_STATUS_LABELS[data.status]} size="lg" />
+          <StatusMark shape={stripLook.shape} tone={stripLook.tone} label={stripLook.label} size="lg" />
         </div>
         <ProgressBar done={data.counts.done} total={data.counts.total} label="This strip: steps measured" />
         <ProgressBar done={data.venueProgress.stepsDone} total={data.venueProgress.stepsTotal} label={`This venue: steps measured (${data.venueProgress.stripsClear} of ${data.venueProgress.stripCount} strips clear)`} />
-        {canWrite && (
-          <div className="md:col-span-3">
-            <LeadNull
-              valueOhm={lead}
-              onChange={(v) => {
-                saveLeadOffset(v);
-                setLead(v);
-              }}
-            />
-          </div>
-        )}
+        {canWrite && <div className="md:col-span-3">{leadNull}</div>}
       </Card>
 
-      {stale && (
-        <div className="mb-4">
-          <Notice tone="caution">
-            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of {new Date(strip.dataUpdatedAt).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}. Keep testing; readings are kept and sent later.
-          </Notice>
-        </div>
-      )}
-      {waitingHere > 0 && (
-        <div className="mb-4">
-          <Notice tone="info">
-            {waitingHere} reading{waitingHere === 1 ? '' : 's'} of this strip {waitingHere === 1 ? 'is' : 'are'} kept on this tablet, waiting to send
-            {outbox.online ? '' : ' (offline: they go when the network is back)'}. Their verdicts come from this tablet until the server confirms them.
-          </Notice>
-        </div>
-      )}
-      {data.withdrawnReason && <Notice tone="caution">This strip is withdrawn: {data.withdrawnReason}</Notice>}
-      {retestPosition && (
-        <div className="mb-4">
-          <Notice tone="caution">
-            Retest after a repair: measure every step of the highlighted item again. The fault closes, and the strip can be clear, only when they all pass.
-          </Notice>
-        </div>
-      )}
-      {data.openFaults.length > 0 && (
-        <Card className="mb-4 border-fail/40">
-          <h2 className="text-lg font-semibold">Faults on this strip</h2>
-          <ul className="mt-2 divide-y divide-line">
-            {data.openFaults.map((f) => (
-              <li key={f.id} className="flex flex-wrap items-center gap-3 py-2">
-                <StatusMark shape="triangle" tone={f.status === 'repaired' ? 'near' : 'fail'} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
-                <span>
-                  {f.positionName}: {FAULT_KIND_LABELS[f.kind]} ({f.conductors}){f.equipment ? ` · ${f.equipment.assetTag}` : ''}
-                </span>
-                <Link to={paths.fault(f.id)} className="inline-flex min-h-touch items-center font-medium text-brand underline">
-                  {f.status === 'repaired' ? 'See the repair' : 'Locate and repair'}
-                </Link>
-              </li>
-            ))}
-          </ul>
-        </Card>
-      )}
-
+      {notices(true)}
       <div className="flex flex-col gap-4">
         {data.positions.map((position) => (
           <section key={position.id} aria-label={position.name} className={`overflow-hidden rounded-card border border-line bg-card shadow-sm ${retestPosition === position.id ? 'ring-2 ring-brass' : ''}`}>
@@ -207,26 +334,18 @@ export default function StripTestPage() {
                       index={n}
                       step={step}
                       ctx={{ profile, equipmentKind: position.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM: position.equipment?.lengthM ?? null }}
-                      leadOffsetOhm={lead}
+                      leadNull={lead}
                       canWrite={canWrite}
                       faultId={fault?.id ?? null}
                       highlight={retestPosition === position.id}
+                      retested={isRetested(position.id, step)}
+                      showCaution={cautionSteps.has(step.id)}
                       queued={queued.get(step.id) ?? null}
                       inputRef={(el) => {
                         if (el) inputs.current.set(step.id, el);
                         else inputs.current.delete(step.id);
                       }}
-                      submit={async (input, preview) => {
-                        if (!me.data) throw new Error('not signed in');
-                        await enqueueReading({
-                          body: { id: newReadingId(), takenAt: new Date().toISOString(), ...input },
-                          userId: me.data.id,
-                          venueId: data.venueId,
-                          stripId: data.id,
-                          where: `${data.label} · ${position.name} · ${stepTitle(step)}`,
-                          preview,
-                        });
-                      }}
+                      submit={(input, preview) => submitReading(position, step, input, preview)}
                       onRecorded={() => focusStep(flat[at + 1]?.step.id)}
                     />
                   );
@@ -236,6 +355,8 @@ export default function StripTestPage() {
           </section>
         ))}
       </div>
+      </>
+      )}
     </>
   );
 }

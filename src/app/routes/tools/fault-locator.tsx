@@ -1,5 +1,6 @@
 import { useState } from 'react';
 import { useMe } from '@/features/auth/api/get-me';
+import { useLocateFault } from '@/features/fault-locator/api/locate-fault';
 import { LocateForm, type LocatorPreset } from '@/features/fault-locator/components/locate-form';
 import { VfCalibrationForm } from '@/features/fault-locator/components/vf-calibration-form';
 import { WaveformSection } from '@/features/fault-locator/components/waveform-section';
@@ -11,6 +12,7 @@ export default function FaultLocatorPage() {
   const unitSystem = me.data?.unitSystem ?? 'metric';
   const [preset, setPreset] = useState<LocatorPreset | undefined>(undefined);
   const [traceVf, setTraceVf] = useState('');
+  const locate = useLocateFault();
 
   const toTdr = (texts: Record<string, string>) => {
     setPreset((p) => ({ id: (p?.id ?? 0) + 1, method: 'tdr', texts }));
@@ -33,7 +35,14 @@ export default function FaultLocatorPage() {
 
         <Card id="where-is-the-fault" className="scroll-mt-4">
           <h2 className="mb-4 text-lg font-semibold">Where is the fault?</h2>
-          <LocateForm unitSystem={unitSystem} preset={preset} />
+          <LocateForm
+            unitSystem={unitSystem}
+            preset={preset}
+            submitLabel="Calculate"
+            pendingLabel="Checking…"
+            recheckOnUnitSwitch
+            onSubmit={(request) => locate.mutateAsync({ request, unitSystem })}
+          />
         </Card>
 
         <div className="grid grid-cols-1 gap-6 lg:grid-cols-[minmax(0,1fr)_minmax(0,2fr)]">

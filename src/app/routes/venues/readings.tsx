@@ -1,4 +1,6 @@
+import { useState } from 'react';
 import { Link, useParams } from 'react-router';
+import type { ReadingsFilter } from '@shared/schemas/readings-table';
 import { useMe } from '@/features/auth/api/get-me';
 import { useVenueReadings, venueReadingsCsvUrl } from '@/features/readings/api/get-venue-readings';
 import { useCorrectReading } from '@/features/readings/api/correct-reading';
@@ -13,6 +15,7 @@ export default function VenueReadingsPage() {
   const readings = useVenueReadings(venueId);
   const plan = usePlan(venueId);
   const correct = useCorrectReading(venueId);
+  const [filter, setFilter] = useState<ReadingsFilter>({});
   // Directors and the venue's technicians may correct (the server checks the assignment).
   const canCorrect = me.data?.role === 'director' || me.data?.role === 'technician';
   return (
@@ -26,15 +29,15 @@ export default function VenueReadingsPage() {
           </>
         }
         actions={
-          <a className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white" href={venueReadingsCsvUrl(venueId)} download>
-            Export CSV
+          <a className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white" href={venueReadingsCsvUrl(venueId, filter)} download>
+            {Object.values(filter).some(Boolean) ? 'Export CSV (filtered)' : 'Export CSV'}
           </a>
         }
       />
       <Card className="p-0!">
         {readings.isPending && <Loading />}
         {readings.isError && <Notice tone="error">{readings.error.message}</Notice>}
-        {readings.data && <ReadingsTable rows={readings.data} canCorrect={canCorrect} onCorrect={(v) => correct.mutateAsync(v)} />}
+        {readings.data && <ReadingsTable rows={readings.data} canCorrect={canCorrect} onCorrect={(v) => correct.mutateAsync(v)} filter={filter} onFilterChange={setFilter} />}
       </Card>
     </>
   );

@@ -50,9 +50,12 @@ export default function VenuePage() {
                 <Link to={paths.venueAudit(venue.id)} className={linkClass}>
                   Audit trail
                 </Link>
-                <Link to={paths.venueSignOff(venue.id)} className={linkClass}>
-                  Sign-off
-                </Link>
+                {/* Signing off is the director's; an organiser is told by e-mail and reads the certificates. */}
+                {role !== 'organiser' && (
+                  <Link to={paths.venueSignOff(venue.id)} className={linkClass}>
+                    Sign-off
+                  </Link>
+                )}
                 <Link to={paths.venueCertificates(venue.id)} className={linkClass}>
                   Certificates
                 </Link>
@@ -63,12 +66,13 @@ export default function VenuePage() {
       />
       <Card className="mb-4 grid gap-4 md:grid-cols-2 md:items-center">
         <ProgressBar done={progress.stepsDone} total={progress.stepsTotal} label="Steps measured in this venue" />
-        <StripPicker strips={board.data.strips} onPick={(s) => navigate(paths.stripTest(s.id))} />
+        {tests && <StripPicker strips={board.data.strips} onPick={(s) => navigate(paths.stripTest(s.id))} />}
       </Card>
       <div className="mb-4">
         <StripFilters filters={filters} counts={counts} />
       </div>
-      <StripGrid strips={filters.shown} linkTo={(s) => paths.stripTest(s.id)} />
+      {/* Only those who test open a strip's testing screen. */}
+      <StripGrid strips={filters.shown} linkTo={tests ? (s) => paths.stripTest(s.id) : undefined} />
       <Card className="mt-6">
         <h2 className="mb-2 text-lg font-semibold">Open faults</h2>
         <OpenFaultsList faults={openFaults} unitSystem={me.data?.unitSystem ?? 'metric'} />

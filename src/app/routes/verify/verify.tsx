@@ -85,9 +85,27 @@ function Details({ number }: { number: string }) {
       : v.status === 'superseded' && v.supersededAt
         ? `Superseded ${when(v.supersededAt)}.`
         : `Issued ${when(v.issuedAt)}.`;
+  const notCovering = v.notCovering ?? [];
   return (
     <div className="flex flex-col gap-6">
       <VerificationVerdict status={v.status} detail={detail} />
+      {notCovering.length > 0 && (
+        <div data-testid="not-covering">
+          <Notice tone="caution">
+            <strong>
+              This venue certificate no longer covers {notCovering.length === 1 ? 'one of its strips' : `${notCovering.length} of its strips`}:
+            </strong>{' '}
+            {notCovering.map((s, i) => (
+              <span key={s.number}>
+                {i > 0 ? '; ' : ''}
+                {s.strip} (its strip certificate <span className="font-mono">{s.number}</span> was revoked{s.revokedAt ? ` ${when(s.revokedAt)}` : ''}
+                {s.revokedReason ? `: ${s.revokedReason.replace(/[.!]+$/, '')}` : ''})
+              </span>
+            ))}
+            . Do not rely on it for {notCovering.length === 1 ? 'that strip' : 'those strips'}.
+          </Notice>
+        </div>
+      )}
       <Card>
         <dl className="grid gap-x-6 gap-y-3 sm:grid-cols-[12rem_1fr]">
           {rows.map(([k, val]) => (

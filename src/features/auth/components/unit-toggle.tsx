@@ -1,19 +1,38 @@
 import { useMe } from '../api/get-me';
 import { useUpdatePreferences } from '../api/update-preferences';
 
-/** Metric or imperial display, kept as the user's preference. */
+const CHOICES = [
+  { system: 'metric', short: 'm', long: 'metres' },
+  { system: 'imperial', short: 'ft', long: 'feet' },
+] as const;
+
+/** Metric or imperial display, kept as the user's preference: a labelled pair of radio buttons. */
 export function UnitToggle() {
   const me = useMe();
   const update = useUpdatePreferences();
-  const system = me.data?.unitSystem ?? 'metric';
+  const current = me.data?.unitSystem ?? 'metric';
   return (
-    <button
-      type="button"
-      className="min-h-touch rounded-md border border-white/30 px-3 text-xs font-medium hover:bg-white/10"
-      aria-label={`Lengths shown in ${system === 'metric' ? 'metres' : 'feet'}; switch`}
-      onClick={() => update.mutate({ unitSystem: system === 'metric' ? 'imperial' : 'metric' })}
-    >
-      {system === 'metric' ? 'm' : 'ft'}
-    </button>
+    <fieldset className="flex items-center gap-2 text-sm">
+      <legend className="float-left mr-2 font-medium">Lengths</legend>
+      <div className="flex rounded-md border border-white/40">
+        {CHOICES.map((c) => (
+          <label
+            key={c.system}
+            className="flex min-h-touch min-w-11 cursor-pointer items-center justify-center px-2 font-semibold first:rounded-l-md last:rounded-r-md has-checked:bg-white has-checked:text-brand has-focus-visible:outline-2 has-focus-visible:outline-brass"
+          >
+            <input
+              type="radio"
+              name="unit-system"
+              className="sr-only"
+              value={c.system}
+              checked={current === c.system}
+              aria-label={c.long}
+              onChange={() => update.mutate({ unitSystem: c.system })}
+            />
+            <span aria-hidden>{c.short}</span>
+          </label>
+        ))}
+      </div>
+    </fieldset>
   );
 }

@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { FAULT_SYMBOLS } from '@shared/domain/symbols';
 import { formatLength, type LengthSystem } from '@shared/domain/units';
 import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
 import { StatusMark } from '@/components/ui/status-mark';
@@ -11,7 +12,7 @@ export function OpenFaultsList({ faults, unitSystem }: { faults: BoardFault[]; u
     <ul className="divide-y divide-line">
       {faults.map((f) => (
         <li key={f.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
-          <StatusMark shape="triangle" tone={f.status === 'repaired' ? 'near' : 'fail'} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
+          <StatusMark shape={FAULT_SYMBOLS[f.status].shape} tone={FAULT_SYMBOLS[f.status].tone} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
           <Link to={paths.fault(f.id)} className="min-h-touch inline-flex items-center font-medium text-brand underline">
             {f.stripLabel} · {f.positionName}
           </Link>

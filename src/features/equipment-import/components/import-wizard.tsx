@@ -42,10 +42,10 @@ const show = (v: unknown) => (v === null || v === undefined || v === '' ? '—' 
 
 const ACTION_LOOK: Record<ImportAction, [MarkShape, MarkTone, string]> = {
   create: ['circle', 'pass', 'New'],
-  update: ['diamond', 'brand', 'Update'],
+  update: ['square', 'brand', 'Update'],
   unchanged: ['dash', 'idle', 'No change'],
   skip: ['dash', 'idle', 'Skipped'],
-  error: ['triangle', 'fail', 'Not imported'],
+  error: ['octagon', 'fail', 'Not imported'],
 };
 
 // The options sent beside the file, as the form holds them: the mapping already parsed.

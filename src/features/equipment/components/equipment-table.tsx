@@ -9,7 +9,7 @@ import type { EquipmentItem } from '../api/types';
 import { lengthText } from './labels';
 
 export function EquipmentStatusMark({ status }: { status: EquipmentItem['status'] }) {
-  const look = { 'in-service': ['circle', 'pass'], 'under-repair': ['triangle', 'near'], retired: ['dash', 'idle'] } as const;
+  const look = { 'in-service': ['circle', 'pass'], 'under-repair': ['half', 'near'], retired: ['dash', 'idle'] } as const;
   const [shape, tone] = look[status];
   return <StatusMark shape={shape} tone={tone} label={EQUIPMENT_STATUS_LABELS[status]} size="sm" />;
 }

@@ -9,10 +9,12 @@ export interface EstimateResultProps {
   /** Whether the numbers were worked out in this browser or confirmed by the server. */
   source: 'browser' | 'server';
   nearLabel?: string;
+  /** Words and numbers only, no drawing (where the page draws the cable already). */
+  compact?: boolean;
 }
 
 /** The estimate in words and numbers, on a drawing of the cable to scale. */
-export function EstimateResult({ answer, lengthM, unitSystem, source, nearLabel = 'near end' }: EstimateResultProps) {
+export function EstimateResult({ answer, lengthM, unitSystem, source, nearLabel = 'near end', compact = false }: EstimateResultProps) {
   const fmt = (m: number) => formatLength(m, unitSystem);
   const cableLengthM = lengthM ?? (answer.fromOtherEndM !== undefined ? answer.distanceM + answer.fromOtherEndM : undefined);
   return (
@@ -53,8 +55,8 @@ export function EstimateResult({ answer, lengthM, unitSystem, source, nearLabel 
           </div>
         )}
       </dl>
-      <CableDrawing distanceM={answer.distanceM} uncertaintyM={answer.uncertaintyM} lengthM={cableLengthM} unitSystem={unitSystem} />
-      <p className="text-sm leading-relaxed text-ink">{answer.explanation}</p>
+      {!compact && <CableDrawing distanceM={answer.distanceM} uncertaintyM={answer.uncertaintyM} lengthM={cableLengthM} unitSystem={unitSystem} />}
+      {!(compact && source === 'server') && <p className="text-sm leading-relaxed text-ink">{answer.explanation}</p>}
     </section>
   );
 }

@@ -1,5 +1,6 @@
 import { useEffect, useMemo, useState } from 'react';
 import { delayNsPerMetre, FaultLocationError, runFaultLocation, type FaultLocationAnswer } from '@shared/domain/fault-location';
+import { VF_CALIBRATION_INPUTS } from '@shared/domain/fault-methods';
 import { METRES_PER_FOOT, type LengthSystem } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
@@ -7,6 +8,8 @@ import { TextField } from '@/components/ui/field';
 import { ApiError } from '@/lib/api-client';
 import { useLocateFault } from '../api/locate-fault';
 import { parseLength, parseQuantity, pinLengthUnit } from '../utils/parse-inputs';
+
+const [ROUND_TRIP, LENGTH] = VF_CALIBRATION_INPUTS;
 
 type Result = { request: { method: 'vf-calibration'; lengthM: number; roundTripNs: number } | null; answer: FaultLocationAnswer | null; errors: Record<string, string> };
 
@@ -66,22 +69,22 @@ export function VfCalibrationForm({ unitSystem, onUse }: { unitSystem: LengthSys
     >
       <TextField
         id="vf-lengthM"
-        label={`Length of the good cable (${unitSystem === 'imperial' ? 'ft' : 'm'})`}
+        label={`${LENGTH.label} (${unitSystem === 'imperial' ? 'ft' : 'm'})`}
         value={lengthText}
         onChange={(e) => setLengthText(e.target.value)}
         inputMode="decimal"
         autoComplete="off"
-        placeholder="e.g. 12"
+        placeholder={`e.g. ${LENGTH.placeholder}`}
         error={serverErrors.lengthM ?? result.errors.lengthM}
       />
       <TextField
         id="vf-roundTripNs"
-        label="Round trip to its far-end reflection (ns)"
+        label={`${ROUND_TRIP.label} (ns)`}
         value={timeText}
         onChange={(e) => setTimeText(e.target.value)}
         inputMode="decimal"
         autoComplete="off"
-        placeholder="e.g. 121 ns"
+        placeholder={`e.g. ${ROUND_TRIP.placeholder}`}
         error={serverErrors.roundTripNs ?? result.errors.roundTripNs}
       />
       {answer && vf !== undefined && (

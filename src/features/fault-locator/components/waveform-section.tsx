@@ -177,7 +177,7 @@ function WaveformResult({
         <Stat
           label="Polarity"
           testId="trace-polarity"
-          value={!shown?.polarity || !found ? '—' : shown.polarity === 'open' ? '▲ open (steps up)' : '▼ short (steps down)'}
+          value={!shown?.polarity || !found ? '—' : shown.polarity === 'open' ? '↑ open (steps up)' : '↓ short (steps down)'}
         />
         <Stat label="Reflection coefficient" value={rho == null ? '—' : `${rho >= 0 ? '+' : ''}${rho.toFixed(2)}`} />
         <Stat label="Rise time (10–90 %)" value={ns(data.riseTimeNs)} />

@@ -2,7 +2,7 @@
 // times go through the shared reading parser; lengths are read here (in metres or feet, the
 // user's preference when no unit is typed).
 
-import { feetToMetres, formatLength, parseReading, type LengthSystem, type Quantity } from '@shared/domain/units';
+import { decimalProblem, feetToMetres, formatLength, parseReading, thousandsReadings, type LengthSystem, type Quantity } from '@shared/domain/units';
 
 export type Parsed = { ok: true; value: number; display: string } | { ok: false; message: string };
 
@@ -54,8 +54,18 @@ export function parseLength(text: string, system: LengthSystem): Parsed {
   const unit = unitText === '' ? (system === 'imperial' ? 'ft' : 'm') : unitText.toLowerCase();
   const factor = LENGTH_UNITS[unit];
   if (factor === undefined) return { ok: false, message: `“${unitText}” is not a length unit here; use m, km or ft (${example}).` };
+  // As in the reading parser: "1,500" may be a thousands separator; a point before km is a decimal.
+  const ambiguous = exponent === undefined && !(unit === 'km' && mantissa.includes('.')) ? thousandsReadings(mantissa) : null;
+  if (ambiguous) {
+    const u = unitText === '' ? unit : unitText;
+    return {
+      ok: false,
+      message: `“${trimmed}” could be read two ways: did you mean ${ambiguous.thousands} ${u} or ${ambiguous.decimal} ${u}? Type ${ambiguous.thousands} for the first, ${ambiguous.decimalTyped} for the second.`,
+    };
+  }
   const value = Number(`${mantissa.replace(',', '.')}e${exponent ?? 0}`) * factor * (sign === '-' ? -1 : 1);
   if (!Number.isFinite(value)) return { ok: false, message: `“${trimmed}” is too large for a cable length.` };
+  if (value === 0 && /[1-9]/.test(mantissa)) return { ok: false, message: `“${trimmed}” is too small for a cable length (the exponent underflows).` };
   if (value <= 0) return { ok: false, message: 'A length must be greater than 0.' };
   if (value > MAX_LENGTH_M) return { ok: false, message: `${formatLength(value, system)} is longer than any cable here; check the unit.` };
   return { ok: true, value, display: formatLength(value, system) };
@@ -65,6 +75,8 @@ export function parseLength(text: string, system: LengthSystem): Parsed {
 export function parsePositiveNumber(text: string): Parsed {
   const trimmed = text.trim();
   if (!BARE_NUMBER.test(trimmed)) return { ok: false, message: `“${trimmed}” is not a number; e.g. 3 or 1.25.` };
+  const problem = decimalProblem(trimmed);
+  if (problem) return { ok: false, message: problem };
   const value = Number(trimmed.replace(',', '.'));
   if (!(value > 0) || !Number.isFinite(value)) return { ok: false, message: 'Must be a number greater than 0.' };
   return { ok: true, value, display: String(value) };

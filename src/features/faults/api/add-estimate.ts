@@ -2,9 +2,10 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { call } from '@/lib/api-client';
 import { faultsContracts } from '@shared/contracts/faults';
 import { faultQueryOptions } from './get-fault';
+import type { FaultLocationRequest } from '@shared/schemas/fault-location';
 
-/** One fault-location request plus fromEnd, as the locate form builds it (the server checks it). */
-export type EstimateBody = Record<string, number | string>;
+/** The body of POST /api/fault-location, and the end the readings were taken from. */
+export type EstimateBody = FaultLocationRequest & { fromEnd?: 'near' | 'far' };
 
 export const addEstimate = ({ faultId, body }: { faultId: string; body: EstimateBody }) =>
   call(faultsContracts.addEstimate, { params: { id: faultId }, body });

@@ -2,11 +2,11 @@ import { useState } from 'react';
 import { formatLength, lengthUnitSymbol, lengthUnitWord, type LengthSystem } from '@shared/domain/units';
 import type { CreateRepairInput, RepairAction } from '@shared/schemas/faults';
 import { ApiError } from '@/lib/api-client';
+import { siOf, switchUnits, typeText, type UnitTexts } from '@/lib/unit-texts';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import type { FaultDetail } from '../api/get-fault';
 import { useAddRepair } from '../api/add-repair';
-import { siOf, switchUnits, typeText, type UnitTexts } from '../utils/unit-texts';
 
 const ACTIONS: { value: RepairAction; label: string; hint: string }[] = [
   { value: 'cut-out', label: 'Cut out a section', hint: 'The damaged length is cut away and the cable re-joined; its recorded length shrinks.' },
@@ -27,6 +27,9 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
   const [notes, setNotes] = useState('');
   const [fieldErrors, setFieldErrors] = useState<Record<string, string>>({});
   const repair = useAddRepair(fault.id);
+  // Disarmed once a repair is saved (and on a fault already repaired): a second tap on the same
+  // button must not record the repair twice. Another repair is a deliberate choice.
+  const [armed, setArmed] = useState(fault.status !== 'repaired');
 
   // Adjusting state while rendering when the person switches m ↔ ft: the typed length is converted.
   if (seenSystem !== unitSystem) {
@@ -39,6 +42,19 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
   const removedText = (removed.texts[REMOVED] ?? '').trim();
   const removedM = siOf(removed, REMOVED, 'length', unitSystem);
   const newLength = lengthM !== null && removedM !== null && removedM > 0 ? lengthM - removedM : null;
+
+  if (!armed) {
+    return (
+      <div className="flex flex-col gap-3" data-testid="repair-disarmed">
+        <Notice tone="success">Repair recorded. Now retest the item: every step must pass before the strip is clear.</Notice>
+        <div>
+          <Button variant="secondary" onClick={() => { repair.reset(); setArmed(true); }}>
+            Record another repair…
+          </Button>
+        </div>
+      </div>
+    );
+  }
 
   return (
     <form
@@ -64,6 +80,7 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
           setRemoved(NO_LENGTH);
           setTag('');
           setNotes('');
+          setArmed(false);
         } catch (err) {
           if (err instanceof ApiError) setFieldErrors(Object.fromEntries(err.errors.map((x) => [x.path, x.message])));
         }
@@ -114,7 +131,6 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
         <textarea id="rep-notes" rows={2} value={notes} onChange={(e) => setNotes(e.target.value)} className="rounded-lg border border-line bg-card px-3 py-2 text-base" />
       </div>
       {repair.isError && <Notice tone="error">{repair.error.message}</Notice>}
-      {repair.isSuccess && <Notice tone="success">Repair recorded. Now retest the item: every step must pass before the strip is clear.</Notice>}
       <div>
         <Button type="submit" disabled={repair.isPending}>
           {repair.isPending ? 'Saving…' : 'Record the repair'}

@@ -3,14 +3,15 @@ import { Link } from 'react-router';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 import { acknowledge, flush, setAside, tryAgain } from '../stores/outbox';
 import type { ProblemKind, QueuedReading } from '../utils/queue';
 
 const verdictLook: Record<string, { shape: MarkShape; tone: MarkTone; label: string }> = {
-  pass: { shape: 'circle', tone: 'pass', label: 'Pass (this tablet)' },
-  'near-limit': { shape: 'diamond', tone: 'near', label: 'Near limit (this tablet)' },
-  fail: { shape: 'triangle', tone: 'fail', label: 'Fail (this tablet)' },
+  pass: { shape: READING_SYMBOLS.pass.shape, tone: 'pass', label: 'Pass (this tablet)' },
+  'near-limit': { shape: READING_SYMBOLS['near-limit'].shape, tone: 'near', label: 'Near limit (this tablet)' },
+  fail: { shape: READING_SYMBOLS.fail.shape, tone: 'fail', label: 'Fail (this tablet)' },
 };
 
 /** What happened, and what the technician can do about it. */
@@ -93,7 +94,7 @@ export function ProblemCard({ item, moveTo }: { item: QueuedReading; moveTo?: Re
   return (
     <li data-testid="problem" data-kind={kind} className={`rounded-card border-2 bg-card p-4 ${notice ? 'border-brass' : 'border-fail/50'}`}>
       <p className="mb-2 flex flex-wrap items-center gap-2">
-        <StatusMark shape="triangle" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded yet — needs you'} size="sm" />
+        <StatusMark shape="octagon" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded yet — needs you'} size="sm" />
         <strong>{help.title}</strong>
       </p>
       <ItemHead item={item} />

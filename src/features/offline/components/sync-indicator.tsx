@@ -4,12 +4,12 @@ import { paths } from '@/config/paths';
 import { useSyncSummary } from '../hooks/use-outbox';
 import type { SyncState } from '../utils/queue';
 
-const look: Record<SyncState, { shape: MarkShape; tone: MarkTone; pill: string }> = {
+export const syncLook: Record<SyncState, { shape: MarkShape; tone: MarkTone; pill: string }> = {
   'up-to-date': { shape: 'circle', tone: 'pass', pill: 'border-white/30' },
   syncing: { shape: 'half', tone: 'brass', pill: 'border-white/30' },
-  waiting: { shape: 'diamond', tone: 'brass', pill: 'border-brass' },
-  offline: { shape: 'ring', tone: 'idle', pill: 'border-white/60 border-dashed' },
-  'needs-you': { shape: 'triangle', tone: 'fail', pill: 'border-brass bg-brass text-ink hover:bg-brass/90' },
+  waiting: { shape: 'hourglass', tone: 'brass', pill: 'border-brass' },
+  offline: { shape: 'box', tone: 'idle', pill: 'border-white/60 border-dashed' },
+  'needs-you': { shape: 'octagon', tone: 'fail', pill: 'border-brass bg-brass text-ink hover:bg-brass/90' },
 };
 
 const readings = (n: number) => `${n} reading${n === 1 ? '' : 's'}`;
@@ -32,7 +32,7 @@ export function syncWords(s: { state: SyncState; waiting: number; needsYou: numb
 /** Always in the header: is everything on the server, and if not, why. Shape and words, not colour alone. */
 export function SyncIndicator() {
   const s = useSyncSummary();
-  const l = look[s.state];
+  const l = syncLook[s.state];
   return (
     <Link
       to={paths.onThisTablet}

@@ -6,6 +6,7 @@
 import { createStore, del, delMany, entries, set, setMany } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
 import { sendReadingBatch } from '../api/send-reading-batch';
+import { sendLeadNull } from '../api/send-lead-null';
 import { connectionStore, serverAnswered, serverDidNotAnswer, startConnectionWatch } from './connection';
 import {
   addToQueue,
@@ -16,7 +17,10 @@ import {
   makeSeq,
   nextDueAt,
   planSend,
+  upgradeLegacyItems,
+  type Answer,
   type BatchAnswer,
+  type LeadNullRecord,
   type QueuedReading,
   type ReadingBody,
 } from '../utils/queue';
@@ -61,6 +65,8 @@ let again = false;
 let timer: ReturnType<typeof setTimeout> | undefined;
 let channel: BroadcastChannel | null = null;
 let started = false;
+/** Test-lead nulls the server is known to have (this page's life): readings using them go alone. */
+const nullsOnServer = new Set<string>();
 
 function setState(patch: Partial<OutboxState>) {
   state = { ...state, ...patch };
@@ -82,7 +88,13 @@ export function setOutboxHandlers(h: OutboxHandlers) {
 async function load() {
   if (!db) return setState({ loaded: true });
   const all = await entries<string, QueuedReading>(db);
-  const items = all.map(([, v]) => v).sort(byTypingOrder);
+  let items = all.map(([, v]) => v).sort(byTypingOrder);
+  const upgraded = upgradeLegacyItems(items, newReadingId);
+  if (upgraded.length > 0) {
+    for (const u of upgraded) await set(u.id, u, db);
+    const byId = new Map(upgraded.map((u) => [u.id, u]));
+    items = items.map((i) => byId.get(i.id) ?? i);
+  }
   lastSeq = Math.max(lastSeq, ...items.map((i) => i.seq), 0);
   setState({ items, loaded: true });
 }
@@ -126,6 +138,8 @@ export interface NewQueuedReading {
   stripId: string;
   where: string;
   preview: QueuedReading['preview'];
+  /** The null named by body.leadNullId: sent first unless the server is known to have it. */
+  leadNull?: LeadNullRecord;
 }
 
 /** Keeps a typed reading on the tablet (on disk before it resolves), then tries to send it. */
@@ -148,6 +162,7 @@ export async function enqueueReading(r: NewQueuedReading): Promise<QueuedReading
     status: 'waiting',
     attempts: 0,
     nextAttemptAt: 0,
+    ...(r.leadNull ? { leadNull: r.leadNull } : {}),
   };
   if (db) await set(item.id, item, db);
   setState({ items: addToQueue(state.items, item) });
@@ -199,6 +214,26 @@ async function settle(items: QueuedReading[], answers: BatchAnswer[], touched: {
   return stop;
 }
 
+/**
+ * Sends the test-lead nulls these readings use that the server may not have yet (a replay when it
+ * has), in typing order. Answers the refusal, or the missing answer, of each null that did not go.
+ */
+async function sendNullsOf(chunk: QueuedReading[]): Promise<Map<string, Answer>> {
+  const failed = new Map<string, Answer>();
+  const tried = new Set<string>();
+  for (const { leadNull: n } of chunk) {
+    if (!n || nullsOnServer.has(n.id) || tried.has(n.id)) continue;
+    tried.add(n.id);
+    const answer = await sendLeadNull(n);
+    if (answer.kind === 'http' && answer.status < 300) nullsOnServer.add(n.id);
+    else {
+      failed.set(n.id, answer);
+      if (classifyAnswer(answer).kind === 'retry') break;
+    }
+  }
+  return failed;
+}
+
 async function pass(force: boolean) {
   const userId = state.userId;
   if (!userId) return;
@@ -214,11 +249,22 @@ async function pass(force: boolean) {
     let progressed = false;
     // One reading alone as before; more go in batches, each result read by the same rules.
     for (const chunk of send.length === 1 ? [send] : inBatches(send)) {
-      const answers: BatchAnswer[] = chunk.length === 1 ? [await sendReading(chunk[0].body)] : await sendReadingBatch(chunk.map((i) => i.body));
+      // The test-lead nulls the readings use go first; a reading whose null is refused is refused too.
+      const failed = await sendNullsOf(chunk);
+      const lost = [...failed.values()].find((a) => classifyAnswer(a).kind === 'retry');
+      if (lost) {
+        if (lost.kind === 'network') serverDidNotAnswer();
+        stop = await settle(chunk, chunk.map(() => ({ answer: lost })), touched);
+        break;
+      }
+      const blocked = chunk.filter((i) => i.leadNull && failed.has(i.leadNull.id));
+      const ready = chunk.filter((i) => !blocked.includes(i));
+      const answers: BatchAnswer[] =
+        ready.length === 0 ? [] : ready.length === 1 ? [await sendReading(ready[0].body)] : await sendReadingBatch(ready.map((i) => i.body));
       // No answer at all means offline, whatever the browser says (./connection.ts).
       if (answers.some((a) => a.answer.kind === 'network')) serverDidNotAnswer();
       else serverAnswered();
-      stop = await settle(chunk, answers, touched);
+      stop = await settle([...blocked, ...ready], [...blocked.map((i) => ({ answer: failed.get(i.leadNull!.id)! })), ...answers], touched);
       if (stop) break;
       progressed = true;
     }
@@ -250,6 +296,16 @@ export function flush(opts: { force?: boolean; evenOffline?: boolean } = {}): Pr
       }
     });
   return running;
+}
+
+/**
+ * A test-lead null was just set: send it at once when the network is there, so it is on record
+ * even before a reading uses it. If it cannot go now, the readings that use it carry it.
+ */
+export async function recordLeadNull(n: LeadNullRecord): Promise<void> {
+  if (typeof navigator !== 'undefined' && !navigator.onLine) return;
+  const sent = await sendLeadNull(n);
+  if (sent.kind === 'http' && sent.status < 300) nullsOnServer.add(n.id);
 }
 
 /** Whose readings to send: only the signed-in person's own (a shared tablet keeps the others'). */

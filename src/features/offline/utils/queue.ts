@@ -1,6 +1,9 @@
 // The rules of the tablet's outbox, without storage or network: what to send next, how to read
 // the server's answer, and what the sync indicator says. Pure, so it is tested on its own.
 import { READINGS_BATCH_MAX, type ReadingBatchResult, type ReadingDto, type VerdictName } from '@shared/schemas/readings';
+import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
+
+export type { LeadNullRecord };
 
 /**
  * waiting: to be sent; problem: the server refused it and the technician decides;
@@ -23,6 +26,9 @@ export interface ReadingBody {
   id: string;
   stepId: string;
   value: string;
+  /** The technician's test-lead null (its record travels with the queued reading, see leadNull). */
+  leadNullId?: string | null;
+  /** Only on readings queued by an older version of the app, which sent the offset itself. */
   leadOffsetOhm?: number | null;
   /** When it was typed (the tablet's clock): a reading sent later still counts at that time. */
   takenAt?: string;
@@ -52,6 +58,8 @@ export interface QueuedReading {
   problem?: Problem;
   /** Where the value was typed first, when the technician moved it to another step. */
   movedFrom?: string;
+  /** The test-lead null named by body.leadNullId, set on this tablet: sent before the reading. */
+  leadNull?: LeadNullRecord;
 }
 
 /** What came back from one send: nothing at all, or an HTTP answer. */
@@ -220,4 +228,31 @@ export function summarize(items: QueuedReading[], opts: { userId: string | null;
 /** Makes a typing-order number that grows even for two readings in the same millisecond. */
 export function makeSeq(nowMs: number, last: number): number {
   return Math.max(nowMs, last + 1);
+}
+
+/**
+ * Readings queued by an older version of the app carry the lead offset itself, which the server
+ * no longer takes. Each distinct offset of a person becomes a test-lead null record (sent before
+ * the readings, as any queued null), so no queued reading is lost to the change. Pure: returns
+ * the items that changed.
+ */
+export function upgradeLegacyItems(items: QueuedReading[], makeId: () => string): QueuedReading[] {
+  const made = new Map<string, LeadNullRecord>();
+  const changed: QueuedReading[] = [];
+  for (const item of [...items].sort(byTypingOrder)) {
+    if (!('leadOffsetOhm' in item.body)) continue;
+    const { leadOffsetOhm, ...body } = item.body;
+    if (leadOffsetOhm === null || leadOffsetOhm === undefined || body.leadNullId) {
+      changed.push({ ...item, body });
+      continue;
+    }
+    const key = `${item.userId}|${leadOffsetOhm}`;
+    let record = made.get(key);
+    if (!record) {
+      record = { id: makeId(), value: String(leadOffsetOhm), valueOhm: leadOffsetOhm, meter: null, takenAt: item.createdAt, userId: item.userId };
+      made.set(key, record);
+    }
+    changed.push({ ...item, body: { ...body, leadNullId: record.id }, leadNull: record });
+  }
+  return changed;
 }

@@ -19,7 +19,7 @@ function nearText(r: LimitRule) {
 }
 
 export function HouseRuleMark({ house }: { house: boolean }) {
-  return house ? <StatusMark shape="diamond" tone="brass" label="House rule" size="sm" /> : <StatusMark shape="square" tone="brand" label="Published" size="sm" />;
+  return house ? <StatusMark shape="box" tone="brass" label="House rule" size="sm" /> : <StatusMark shape="square" tone="brand" label="Published" size="sm" />;
 }
 
 const col = createColumnHelper<LimitRule>();

@@ -9,6 +9,8 @@ export interface CorrectionInput {
   value: string;
   supersedesId: string;
   correctionReason: string;
+  /** The corrected reading's test-lead null: a correction fixes what was typed, not the measurement. */
+  leadNullId?: string | null;
 }
 
 /**

@@ -3,31 +3,41 @@ import {
   createColumnHelper,
   flexRender,
   getCoreRowModel,
-  getFilteredRowModel,
   getSortedRowModel,
   useReactTable,
-  type ColumnFiltersState,
   type SortingState,
 } from '@tanstack/react-table';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
-import { createReadingSchema } from '@shared/schemas/readings';
+import { CORRECTION_REASON_MIN, createReadingSchema } from '@shared/schemas/readings';
 import { formatOhm } from '@shared/domain/units';
+import { matchesReadingsFilter, type ReadingsFilter } from '@shared/schemas/readings-table';
+import { readingValueView } from '@shared/domain/typed-reading';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { SelectField, TextField } from '@/components/ui/field';
-import { StatusMark } from '@/components/ui/status-mark';
+import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
+import { READING_SYMBOLS } from '@shared/domain/symbols';
 import type { ReadingRow } from '../api/get-venue-readings';
 import type { CorrectionInput } from '../api/correct-reading';
 
-const VERDICT = { pass: ['circle', 'pass', 'Pass'], 'near-limit': ['triangle', 'near', 'Near limit'], fail: ['square', 'fail', 'Fail'] } as const;
+const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const col = createColumnHelper<ReadingRow>();
 const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' });
 /** A reading typed offline reached the server a while after it was taken: say when. */
 const sentLater = (r: ReadingRow) => r.receivedAt !== null && Date.parse(r.receivedAt) - Date.parse(r.takenAt) >= 60_000;
-const equals = (row: { getValue: (id: string) => unknown }, id: string, value: unknown) => value === '' || row.getValue(id) === value;
+/** An ISO instant as the value of a datetime-local input (the person's own clock), and back. */
+const toLocalInput = (iso: string | undefined) => {
+  if (!iso) return '';
+  const d = new Date(iso);
+  return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
+};
+const fromLocalInput = (value: string) => {
+  const d = new Date(value);
+  return value && !Number.isNaN(d.getTime()) ? d.toISOString() : undefined;
+};
 
 // A correction is a reading with a reason: the value and the reason as the reading's schema has them.
 const correctionSchema = z.object({
@@ -48,7 +58,7 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
       className="flex flex-wrap items-end gap-3 bg-brass-soft px-4 py-3"
       onSubmit={form.handleSubmit(async (v) => {
         try {
-          await onCorrect({ stepId: row.stepId, supersedesId: row.id, ...v });
+          await onCorrect({ stepId: row.stepId, supersedesId: row.id, leadNullId: row.leadNullId, ...v });
           onClose();
         } catch (err) {
           form.setError('root', { message: err instanceof Error ? err.message : 'The correction was not saved.' });
@@ -56,20 +66,35 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
       })}
     >
       <p className="w-full text-sm">
-        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}. The old reading stays in the history.
+        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}
+        {row.leadOffsetOhm ? ` (typed with a ${formatOhm(row.leadOffsetOhm)} lead null, which the correction keeps)` : ''}. The old reading stays in the history. A
+        correction closes no fault: a fault opened by a typing mistake is dismissed by the technical director.
       </p>
       <TextField label="Correct value" id={`fix-${row.id}`} autoFocus inputMode="decimal" {...form.register('value')} className="w-36" />
       <TextField label="Reason" id={`reason-${row.id}`} {...form.register('correctionReason')} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
       <Button type="submit" disabled={!correctionSchema.safeParse(typed).success}>Save correction</Button>
+      <p className="w-full text-xs text-ink-soft">The reason needs at least {CORRECTION_REASON_MIN} characters.</p>
       <Button variant="secondary" onClick={onClose}>Cancel</Button>
       {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
     </form>
   );
 }
 
-export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRow[]; canCorrect: boolean; onCorrect: (v: CorrectionInput) => Promise<unknown> }) {
+export function ReadingsTable({
+  rows,
+  canCorrect,
+  onCorrect,
+  filter,
+  onFilterChange,
+}: {
+  rows: ReadingRow[];
+  canCorrect: boolean;
+  onCorrect: (v: CorrectionInput) => Promise<unknown>;
+  /** The filters live with the page, which sends them with the export link too. */
+  filter: ReadingsFilter;
+  onFilterChange: (f: ReadingsFilter) => void;
+}) {
   const [sorting, setSorting] = useState<SortingState>([]);
-  const [filters, setFilters] = useState<ColumnFiltersState>([]);
   const [correcting, setCorrecting] = useState<string | null>(null);
   const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
 
@@ -77,7 +102,6 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
     () => [
       col.accessor('stripLabel', {
         header: 'Strip',
-        filterFn: (row, id, v) => equals(row, id, v),
         sortingFn: (a, b) => a.original.stripSort - b.original.stripSort || a.original.positionSort - b.original.positionSort || a.original.stepSort - b.original.stepSort,
         cell: (c) => (
           <span>
@@ -89,17 +113,30 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
       col.accessor('assetTag', { header: 'Tag', cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{c.getValue() ?? '—'}</span> }),
       col.accessor('testKind', {
         header: 'Test',
-        filterFn: (row, id, v) => equals(row, id, v),
         cell: (c) => `${TEST_KIND_LABELS[c.getValue()]} ${c.row.original.conductors}`,
       }),
       col.accessor('valueText', {
         header: 'Value',
         sortingFn: (a, b) => (a.original.valueOhm ?? Infinity) - (b.original.valueOhm ?? Infinity),
-        cell: (c) => <span className="whitespace-nowrap font-mono font-semibold" data-value>{c.getValue()}</span>,
+        cell: (c) => {
+          // The value judged, with its unit; when a lead null was subtracted, what was typed too.
+          const v = readingValueView(c.row.original);
+          return (
+            <span>
+              <span className="whitespace-nowrap font-mono font-semibold" data-value>
+                {v.value}
+              </span>
+              {v.typed && (
+                <span className="block whitespace-nowrap text-xs text-ink-soft" data-testid="value-typed">
+                  typed {v.typed} − {v.leadNull} lead null{c.row.original.leadNullMeter ? ` (${c.row.original.leadNullMeter})` : ''}
+                </span>
+              )}
+            </span>
+          );
+        },
       }),
       col.accessor('verdict', {
         header: 'Verdict',
-        filterFn: (row, id, v) => equals(row, id, v),
         cell: (c) => {
           const [shape, tone, label] = VERDICT[c.getValue()];
           return <StatusMark shape={shape} tone={tone} label={label} size="sm" />;
@@ -115,7 +152,6 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
         ),
       }),
       col.accessor((r) => `${r.profileName ?? '?'} v${r.profileVersion}`, { id: 'profile', header: 'Profile', cell: (c) => <span className="text-xs">{c.getValue()}</span> }),
-      col.accessor((r) => r.takenByName ?? '—', { id: 'who', header: 'Who', filterFn: (row, id, v) => equals(row, id, v) }),
       col.accessor('takenAt', {
         header: 'When, who',
         cell: (c) => (
@@ -153,44 +189,44 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
     [byId, canCorrect, correcting],
   );
 
+  const visible = useMemo(() => rows.filter((r) => matchesReadingsFilter(r, filter)), [rows, filter]);
   const table = useReactTable({
-    data: rows,
+    data: visible,
     columns,
-    // Who is filtered on but shown inside the When column.
-    state: { sorting, columnFilters: filters, columnVisibility: { who: false } },
+    state: { sorting },
     onSortingChange: setSorting,
-    onColumnFiltersChange: setFilters,
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
-    getFilteredRowModel: getFilteredRowModel(),
   });
-  const filterValue = (id: string) => (filters.find((f) => f.id === id)?.value as string) ?? '';
-  const setFilter = (id: string, value: string) => setFilters([...filters.filter((f) => f.id !== id), ...(value ? [{ id, value }] : [])]);
+  const setFilter = <K extends keyof ReadingsFilter>(key: K, value: ReadingsFilter[K] | '') => onFilterChange({ ...filter, [key]: value || undefined });
   const distinct = (pick: (r: ReadingRow) => string) => [...new Set(rows.map(pick))];
-  const strips = [...new Map(rows.map((r) => [r.stripLabel, r.stripSort])).entries()].sort((a, b) => a[1] - b[1]).map(([l]) => l);
+  const strips = [...new Map(rows.map((r) => [r.stripId, r])).values()].sort((a, b) => a.stripSort - b.stripSort);
+  const people = [...new Map(rows.filter((r) => r.takenBy).map((r) => [r.takenBy!, r.takenByName ?? '—'])).entries()];
 
   return (
     <div>
-      <div className="grid gap-3 border-b border-line p-4 sm:grid-cols-4">
-        <SelectField label="Strip" name="fStrip" value={filterValue('stripLabel')} onChange={(e) => setFilter('stripLabel', e.target.value)}>
+      <div className="grid gap-3 border-b border-line p-4 sm:grid-cols-3 lg:grid-cols-6">
+        <SelectField label="Strip" name="fStrip" value={filter.strip ?? ''} onChange={(e) => setFilter('strip', e.target.value)}>
           <option value="">All strips</option>
-          {strips.map((s) => <option key={s} value={s}>{s}</option>)}
+          {strips.map((s) => <option key={s.stripId} value={s.stripId}>{s.stripLabel}</option>)}
         </SelectField>
-        <SelectField label="Verdict" name="fVerdict" value={filterValue('verdict')} onChange={(e) => setFilter('verdict', e.target.value)}>
+        <SelectField label="Verdict" name="fVerdict" value={filter.verdict ?? ''} onChange={(e) => setFilter('verdict', e.target.value as ReadingsFilter['verdict'])}>
           <option value="">Any verdict</option>
           {(['pass', 'near-limit', 'fail'] as const).map((v) => <option key={v} value={v}>{VERDICT[v][2]}</option>)}
         </SelectField>
-        <SelectField label="Test" name="fTest" value={filterValue('testKind')} onChange={(e) => setFilter('testKind', e.target.value)}>
+        <SelectField label="Test" name="fTest" value={filter.test ?? ''} onChange={(e) => setFilter('test', e.target.value as ReadingsFilter['test'])}>
           <option value="">Any test</option>
           {distinct((r) => r.testKind).map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k as ReadingRow['testKind']]}</option>)}
         </SelectField>
-        <SelectField label="Who" name="fWho" value={filterValue('who')} onChange={(e) => setFilter('who', e.target.value)}>
+        <SelectField label="Who" name="fWho" value={filter.who ?? ''} onChange={(e) => setFilter('who', e.target.value)}>
           <option value="">Anyone</option>
-          {distinct((r) => r.takenByName ?? '—').map((w) => <option key={w} value={w}>{w}</option>)}
+          {people.map(([id, name]) => <option key={id} value={id}>{name}</option>)}
         </SelectField>
+        <TextField label="Taken from" name="fFrom" type="datetime-local" value={toLocalInput(filter.from)} onChange={(e) => setFilter('from', fromLocalInput(e.target.value))} />
+        <TextField label="Taken until" name="fTo" type="datetime-local" value={toLocalInput(filter.to)} onChange={(e) => setFilter('to', fromLocalInput(e.target.value))} />
       </div>
       <p className="px-4 py-2 text-sm text-ink-soft" aria-live="polite">
-        {table.getRowModel().rows.length} of {rows.length} readings · superseded readings stay listed, struck through
+        {visible.length} of {rows.length} readings · superseded readings stay listed, struck through
       </p>
       <div className="overflow-x-auto">
         <table className="w-full text-left text-sm">
@@ -204,7 +240,7 @@ export function ReadingsTable({ rows, canCorrect, onCorrect }: { rows: ReadingRo
                       {h.column.getCanSort() ? (
                         <button type="button" className="inline-flex min-h-touch items-center gap-1 font-semibold uppercase" onClick={h.column.getToggleSortingHandler()}>
                           {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden>{sorted === 'asc' ? '▲' : sorted === 'desc' ? '▼' : '↕'}</span>
+                          <span aria-hidden>{sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '↕'}</span>
                         </button>
                       ) : (
                         flexRender(h.column.columnDef.header, h.getContext())

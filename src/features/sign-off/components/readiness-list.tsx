@@ -1,4 +1,5 @@
 import { Link } from 'react-router';
+import { FAULT_SYMBOLS, READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 import { READINESS_STATE_LABELS, type StripReadiness, type StripReadinessState } from '@shared/domain/readiness';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
@@ -73,7 +74,7 @@ export function ReadinessList({
                 {s.failing.map((f) => (
                   <li key={f.stepId}>
                     <Link to={paths.stripTest(s.stripId)} className="inline-flex min-h-touch items-center gap-2 text-fail underline">
-                      ✗ {f.positionName} · {testLabel(f.testKind)}
+                      {READING_SYMBOLS.fail.glyph} {f.positionName} · {testLabel(f.testKind)}
                       {wires(f.conductors)}: {f.valueText}
                       {f.limitOhm !== null && ` (limit ${f.limitKind === 'min' ? 'min' : 'max'} ${formatOhm(f.limitOhm)})`}
                     </Link>
@@ -82,14 +83,14 @@ export function ReadinessList({
                 {s.openFaults.map((f) => (
                   <li key={f.faultId}>
                     <Link to={paths.fault(f.faultId)} className="inline-flex min-h-touch items-center gap-2 text-fail underline">
-                      ✗ {f.positionName}: {f.kind} fault on {f.conductors}, still {f.status}
+                      {FAULT_SYMBOLS.open.glyph} {f.positionName}: {f.kind} fault on {f.conductors}, still {f.status}
                     </Link>
                   </li>
                 ))}
                 {s.missing.length > 0 && (
                   <li>
                     <Link to={paths.stripTest(s.stripId)} className="inline-flex min-h-touch items-center gap-2 text-near underline">
-                      ○ {s.missing.length} {s.missing.length === 1 ? 'test' : 'tests'} without a reading
+                      {READING_SYMBOLS['not-measured'].glyph} {s.missing.length} {s.missing.length === 1 ? 'test' : 'tests'} without a reading
                       {s.missing.some((m) => m.why === 'item-swapped') && ' (some items were swapped after testing)'}:{' '}
                       {s.missing
                         .slice(0, 4)

@@ -1,4 +1,5 @@
 import { useState } from 'react';
+import { READING_SYMBOLS } from '@shared/domain/symbols';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Link } from 'react-router';
@@ -59,8 +60,8 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
             <h2 className="text-lg font-semibold">Strip by strip</h2>
             <p className={`text-sm font-medium ${readyNow ? 'text-pass' : 'text-near'}`} role="status">
               {readyNow
-                ? `✓ Ready: ${certified.length} ${certified.length === 1 ? 'strip' : 'strips'} to certify`
-                : `○ Not ready: ${blocking.length} ${blocking.length === 1 ? 'strip needs' : 'strips need'} attention`}
+                ? `${READING_SYMBOLS.pass.glyph} Ready: ${certified.length} ${certified.length === 1 ? 'strip' : 'strips'} to certify`
+                : `${READING_SYMBOLS['not-measured'].glyph} Not ready: ${blocking.length} ${blocking.length === 1 ? 'strip needs' : 'strips need'} attention`}
             </p>
           </div>
           <ReadinessList
@@ -81,7 +82,7 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
                 {readiness.nearLimit.map((n) => (
                   <li key={n.stepId}>
                     <Link className="inline-flex min-h-touch items-center gap-2 text-near underline" to={paths.stripTest(n.stripId)}>
-                      ▲ {n.stripLabel}, {n.positionName} {n.assetTag ? `(${n.assetTag})` : ''} · {TEST_KIND_LABELS[n.testKind as keyof typeof TEST_KIND_LABELS] ?? n.testKind}{' '}
+                      {READING_SYMBOLS['near-limit'].glyph} {n.stripLabel}, {n.positionName} {n.assetTag ? `(${n.assetTag})` : ''} · {TEST_KIND_LABELS[n.testKind as keyof typeof TEST_KIND_LABELS] ?? n.testKind}{' '}
                       {n.conductors.startsWith('piste') ? '' : n.conductors}: {n.valueText}
                       {n.limitOhm !== null && ` of max ${formatOhm(n.limitOhm)}`}
                     </Link>

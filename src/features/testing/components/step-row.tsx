@@ -1,7 +1,9 @@
 import { useRef, useState, type Ref } from 'react';
 import { Link } from 'react-router';
 import { TEST_KIND_LABELS } from '@shared/domain/checklist';
-import type { ReadingDto } from '@shared/schemas/readings';
+import { CORRECTION_REASON_MIN, type ReadingDto } from '@shared/schemas/readings';
+import { readingValueView } from '@shared/domain/typed-reading';
+import { formatOhm } from '@shared/domain/units';
 import { Button } from '@/components/ui/button';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
@@ -12,7 +14,7 @@ import { verdictLook } from '../utils/verdict-look';
 export interface ReadingInput {
   stepId: string;
   value: string;
-  leadOffsetOhm?: number | null;
+  leadNullId?: string | null;
   supersedesId?: string;
   correctionReason?: string;
 }
@@ -51,10 +53,12 @@ export function StepRow({
   index,
   step,
   ctx,
-  leadOffsetOhm,
+  leadNull,
   canWrite,
   faultId,
   highlight,
+  retested = false,
+  showCaution = true,
   queued,
   inputRef,
   submit,
@@ -63,10 +67,15 @@ export function StepRow({
   index: number;
   step: StripStep;
   ctx: StepContext;
-  leadOffsetOhm: number | null;
+  /** The technician's test-lead null of this session (null: none set). */
+  leadNull: { id: string; valueOhm: number } | null;
   canWrite: boolean;
   faultId: string | null;
   highlight: boolean;
+  /** Measured again since the repair of its item's fault. */
+  retested?: boolean;
+  /** The caution of its kind is shown once per item kind, on its first step. */
+  showCaution?: boolean;
   queued: QueuedView | null;
   inputRef: Ref<HTMLInputElement>;
   submit: Submit;
@@ -79,21 +88,34 @@ export function StepRow({
   const [correction, setCorrection] = useState({ value: '', reason: '' });
   const own = useRef<HTMLInputElement | null>(null);
 
-  const preview = previewReading(value, ctx, leadOffsetOhm);
+  const preview = previewReading(value, ctx, leadNull?.valueOhm ?? null);
   const limit = limitText(ctx);
   const latest = step.latest;
+  const latestView = latest ? readingValueView(latest) : null;
   const fieldId = `reading-${step.id}`;
   const title = stepTitle(step);
 
+  /**
+   * A new reading uses this session's null; a correction keeps the null of the reading it
+   * corrects (it fixes what was typed, not the measurement).
+   */
   async function record(extra: { supersedesId?: string; correctionReason?: string } = {}, typed = value) {
     if (busy) return;
-    const p = previewReading(typed, ctx, leadOffsetOhm);
+    const lead = extra.supersedesId
+      ? latest?.leadNullId
+        ? { id: latest.leadNullId, valueOhm: latest.leadOffsetOhm ?? 0 }
+        : null
+      : leadNull;
+    const p = previewReading(typed, ctx, lead?.valueOhm ?? null);
     if (p.state === 'empty') return setError('Type the reading first, or OL for over range.');
     if (p.state === 'invalid') return setError(p.message);
     setBusy(true);
     setError(null);
     try {
-      await submit({ stepId: step.id, value: typed, leadOffsetOhm, ...extra }, { verdict: p.verdict.verdict, display: p.display, explanation: p.verdict.explanation });
+      await submit(
+        { stepId: step.id, value: typed, ...(lead ? { leadNullId: lead.id } : {}), ...extra },
+        { verdict: p.verdict.verdict, display: p.display, explanation: p.verdict.explanation },
+      );
       setValue('');
       setCorrecting(false);
       setCorrection({ value: '', reason: '' });
@@ -116,6 +138,7 @@ export function StepRow({
     <li
       className={`grid gap-3 border-b border-line px-4 py-4 last:border-0 lg:grid-cols-[minmax(0,1fr)_minmax(0,1.15fr)] ${highlight ? 'bg-brass-soft/60' : ''}`}
       data-step={`${step.testKind} ${step.conductors}`}
+      data-retested={retested ? 'yes' : undefined}
     >
       <div className="min-w-0">
         <div className="flex items-baseline gap-2">
@@ -124,6 +147,11 @@ export function StepRow({
             {title}
           </label>
           {!step.required && <span className="text-xs text-ink-soft">(optional)</span>}
+          {retested && (
+            <span data-testid="retested" className="rounded-full border border-brand/40 bg-brand-soft px-2 text-xs font-semibold text-brand">
+              Retested after the repair
+            </span>
+          )}
         </div>
         <p className="mt-1 text-sm text-ink">{step.instruction}</p>
         {limit && (
@@ -131,12 +159,12 @@ export function StepRow({
             Limit: <strong className="text-ink">{limit.text}</strong> — {limit.source}
           </p>
         )}
-        {step.testKind === 'insulation' && (
+        {showCaution && step.testKind === 'insulation' && (
           <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
             <strong>Caution:</strong> use the multimeter’s resistance range. Never use a high-voltage insulation tester on a cable still connected to a scoring apparatus or any electronics.
           </p>
         )}
-        {step.testKind === 'piste-earth' && (
+        {showCaution && step.testKind === 'piste-earth' && (
           <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
             <strong>Note:</strong> this checks the piste’s link to the apparatus earth only. The hall’s own earthing and mains installation are the business of a licensed electrician under local codes.
           </p>
@@ -145,7 +173,12 @@ export function StepRow({
         {latest && (
           <div className="mt-2 flex flex-wrap items-center gap-2 text-sm" data-testid="latest">
             <span className="text-ink-soft">Latest:</span>
-            <strong className="tabular-nums">{latest.overRange ? 'OL' : latest.valueText}</strong>
+            <strong className="tabular-nums">{latestView!.value}</strong>
+            {latestView!.typed && (
+              <span className="text-xs tabular-nums text-ink-soft" data-testid="latest-typed">
+                typed {latestView!.typed} − {latestView!.leadNull} lead null
+              </span>
+            )}
             <StatusMark {...verdictLook[latest.verdict]} size="sm" />
             <span className="text-xs text-ink-soft">
               {latest.takenByName ?? 'someone'}, {time(latest.takenAt)} · profile v{latest.profileVersion}
@@ -210,7 +243,8 @@ export function StepRow({
             <p className="flex flex-wrap items-start gap-2">
               <StatusMark {...verdictLook[preview.verdict.verdict]} />
               <span>
-                <strong>{preview.display}</strong> — {preview.verdict.explanation}
+                <strong>{preview.display}</strong>
+                {leadNull && leadNull.valueOhm > 0 && preview.display !== 'OL' ? ` (less the ${formatOhm(leadNull.valueOhm)} lead null)` : ''} — {preview.verdict.explanation}
               </span>
             </p>
           )}
@@ -240,7 +274,9 @@ export function StepRow({
             className="mt-3 flex flex-wrap items-end gap-2 rounded-lg border border-line bg-paper p-3"
             onSubmit={(e) => {
               e.preventDefault();
-              if (correction.reason.trim().length < 3) return setError('Say briefly why the reading is corrected.');
+              if (correction.reason.trim().length < CORRECTION_REASON_MIN) {
+                return setError(`Say what was wrong in at least ${CORRECTION_REASON_MIN} characters, e.g. “typed 3.4 for 0.34”. A correction does not close a fault.`);
+              }
               void record({ supersedesId: latest.id, correctionReason: correction.reason.trim() }, correction.value);
             }}
           >
@@ -270,7 +306,7 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
     const notice = queued.status === 'notice';
     return (
       <div data-testid="queued" data-status={queued.status} className={`mt-2 flex flex-wrap items-center gap-2 rounded-md border-2 px-2 py-1 text-sm ${notice ? 'border-brass bg-brass-soft' : 'border-fail/50 bg-fail-soft'}`}>
-        <StatusMark shape="triangle" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
+        <StatusMark shape="octagon" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
         <strong className="tabular-nums">{queued.display}</strong>
         <span>{queued.title}</span>
         <Link to={paths.onThisTablet} className="inline-flex min-h-touch items-center font-medium text-brand underline">
@@ -281,7 +317,7 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
   }
   return (
     <div data-testid="queued" data-status={queued.status} className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-soft/50 bg-paper px-2 py-1 text-sm">
-      <StatusMark shape={queued.status === 'sending' ? 'half' : 'ring'} tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
+      <StatusMark shape="hourglass" tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
       <strong className="tabular-nums">{queued.display}</strong>
       {queued.verdict && <StatusMark {...verdictLook[queued.verdict]} size="sm" />}
       <span className="text-xs text-ink-soft">

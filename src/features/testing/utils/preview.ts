@@ -1,30 +1,21 @@
 // The browser runs the same engine as the server, so a verdict shows while the value is typed.
-import { evaluateReading, type EquipmentKind, type LimitProfile, type TestKind, type Verdict } from '@shared/domain/limits';
-import { formatOhm, parseReading } from '@shared/domain/units';
+import { evaluateReading, type Verdict } from '@shared/domain/limits';
+import { formatOhm } from '@shared/domain/units';
+import { judgeTypedReading, type TypedReadingContext } from '@shared/domain/typed-reading';
 
 export type Preview =
   | { state: 'empty' }
   | { state: 'invalid'; message: string }
   | { state: 'judged'; display: string; verdict: Verdict };
 
-export interface StepContext {
-  profile: LimitProfile;
-  equipmentKind: EquipmentKind;
-  testKind: TestKind;
-  conductors: string;
-  lengthM: number | null;
-}
+export type StepContext = Omit<TypedReadingContext, 'temperatureC'>;
 
-export function previewReading(text: string, ctx: StepContext, leadOffsetOhm: number | null): Preview {
+/** `leadNullOhm`: the test-lead null the reading will be sent with (null: none). */
+export function previewReading(text: string, ctx: StepContext, leadNullOhm: number | null): Preview {
   if (text.trim() === '') return { state: 'empty' };
-  const parsed = parseReading(text, 'resistance', leadOffsetOhm === null ? undefined : { leadOffsetOhm });
-  if (!parsed.ok) return { state: 'invalid', message: parsed.message };
-  try {
-    const verdict = evaluateReading({ ...ctx, valueOhm: parsed.value, overRange: parsed.overRange });
-    return { state: 'judged', display: parsed.display, verdict };
-  } catch (err) {
-    return { state: 'invalid', message: err instanceof Error ? err.message : String(err) };
-  }
+  const judged = judgeTypedReading(text, ctx, leadNullOhm);
+  if (!judged.ok) return { state: 'invalid', message: judged.message };
+  return { state: 'judged', display: judged.display, verdict: judged.verdict };
 }
 
 /** "at most 2.5 Ω" / "at least 100 kΩ", with its source, before anything is typed. */

@@ -1,7 +1,7 @@
-import type { MarkShape, MarkTone } from '@/components/ui/status-mark';
+import { READING_SYMBOLS } from '@shared/domain/symbols';
 
-export const verdictLook: Record<'pass' | 'near-limit' | 'fail', { shape: MarkShape; tone: MarkTone; label: string }> = {
-  pass: { shape: 'circle', tone: 'pass', label: 'Pass' },
-  'near-limit': { shape: 'diamond', tone: 'near', label: 'Near limit' },
-  fail: { shape: 'triangle', tone: 'fail', label: 'Fail' },
-};
+export const verdictLook = {
+  pass: READING_SYMBOLS.pass,
+  'near-limit': READING_SYMBOLS['near-limit'],
+  fail: READING_SYMBOLS.fail,
+} as const;

@@ -1,5 +1,5 @@
-// Form texts for lengths and resistances per length, typed in the user's units and sent in SI
-// (metres, Ω per metre). A text filled in from a value in metres (a prefill, or a unit switch)
+// Form texts for lengths and resistances per length, typed in the user's units (m or ft; Ω per km
+// or per 1000 ft) and sent in SI (metres, Ω per metre). A text filled in from a value in metres (a prefill, or a unit switch)
 // remembers that value, so switching m ↔ ft and back, or sending, never drifts by rounding.
 
 import {
@@ -16,9 +16,9 @@ import {
 
 export type Dimension = 'length' | 'per-length';
 
-/** Per metre in metric; per 1000 ft in feet, as the fault locator has it (per foot is a tiny number). */
+/** Per km in metric, per 1000 ft in feet, as wire tables give it (per metre or foot is a tiny number). */
 export function perLengthUnit(system: LengthSystem): PerLengthUnit {
-  return system === 'imperial' ? 'Ω/1000 ft' : 'Ω/m';
+  return system === 'imperial' ? 'Ω/1000 ft' : 'Ω/km';
 }
 
 export function unitOf(dimension: Dimension, system: LengthSystem): string {
