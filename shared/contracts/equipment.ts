@@ -66,6 +66,10 @@ export const equipmentDetailSchema = z.strictObject({
       openedBy: z.string(),
       openedAt: z.string(),
       closedAt: z.string().nullable(),
+      /** Closed by the event's director as a typing mistake. */
+      dismissedAt: z.string().nullable(),
+      dismissedBy: z.string().nullable(),
+      dismissedReason: z.string().nullable(),
       positionName: z.string(),
       ...where,
     }),
