@@ -3,7 +3,10 @@
 // with no network once the worker had been restarted (and fires no event), and a hall's Wi-Fi with
 // no route to the server is "online" too. So the server decides: any answer means online, none
 // means offline, and while offline a small request asks again, less often each time.
-const PROBE_URL = '/api/health';
+import { urlOf } from '@/lib/api-client';
+import { healthContracts } from '@shared/contracts/health';
+
+const PROBE_URL = urlOf(healthContracts.get);
 const PROBE_FIRST_MS = 1_000;
 const PROBE_MAX_MS = 5_000;
 
