@@ -1,9 +1,8 @@
 import { defineConfig } from '@playwright/test';
-import { findChromium } from './scripts/chromium';
+import { CHROMIUM_ARGS, chromiumPath } from './scripts/chromium';
 
 // Debian's Chromium, never a downloaded browser (scripts/chromium.ts says where it is looked for).
-const chromium = findChromium();
-if (!chromium.found) throw new Error(chromium.problem);
+const executablePath = chromiumPath();
 
 const PORT = Number(process.env.E2E_PORT ?? 4173);
 const baseURL = process.env.PLAYWRIGHT_BASE_URL ?? `http://localhost:${PORT}`;
@@ -24,17 +23,8 @@ export default defineConfig({
     trace: 'retain-on-failure',
     screenshot: 'only-on-failure',
     launchOptions: {
-      executablePath: chromium.path,
-      args: [
-        '--headless',
-        '--no-sandbox',
-        '--disable-gpu',
-        '--disable-quic',
-        '--no-first-run',
-        '--disable-background-networking',
-        '--disable-component-update',
-        '--disable-sync',
-      ],
+      executablePath,
+      args: CHROMIUM_ARGS,
     },
   },
   // The built app with a fresh, seeded database of its own.

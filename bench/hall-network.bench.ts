@@ -14,14 +14,14 @@ import { execFileSync } from 'node:child_process';
 import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { v7 as uuidv7 } from 'uuid';
-import { signInCookie, startServer, type BenchResult } from './lib';
+import { msUntilInputReady, signInCookie, startServer, type BenchResult } from './lib';
+import { CHROMIUM_ARGS, chromiumPath } from '../scripts/chromium';
 
 const PORT = 4453;
 const RUNS = 3;
 const QUEUE = 300;
 const LOAD_TARGET_MS = 4000;
 const DRAIN_TARGET_MS = 5000;
-const CHROMIUM_ARGS = ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'];
 const READY = 'form input[inputmode="decimal"]';
 
 /** DevTools takes bytes per second and a latency added to each request (the round trip). */
@@ -55,17 +55,7 @@ async function firstLoad(browser: Browser, base: string, cookie: string, path: s
     requests += 1;
   });
   await page.goto(`${base}${path}`, { waitUntil: 'commit' });
-  // performance.now() in the page counts from the start of the navigation.
-  const ms = (await (
-    await page.waitForFunction(
-      (sel) => {
-        const el = document.querySelector<HTMLInputElement>(sel);
-        return el && !el.disabled && el.offsetParent !== null ? performance.now() : false;
-      },
-      READY,
-      { polling: 'raf', timeout: 60_000 },
-    )
-  ).jsonValue()) as number;
+  const ms = await msUntilInputReady(page, READY, 60_000);
   done = true;
   await context.close();
   return { ms, wireKB: wireBytes / 1000, requests };
@@ -164,7 +154,7 @@ function precacheKB(): number {
 export async function run(): Promise<BenchResult> {
   execFileSync('npx', ['vite', 'build', '--logLevel', 'error'], { stdio: 'inherit' });
   const server = await startServer(PORT);
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  const browser = await chromium.launch({ executablePath: chromiumPath(), args: CHROMIUM_ARGS });
   try {
     const cookie = await signInCookie(server.base, 'sam@lakeshore.example');
     const headers = { Cookie: cookie };

@@ -3,6 +3,7 @@ import { spawn, type ChildProcess } from 'node:child_process';
 import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
+import type { Page } from '@playwright/test';
 
 export interface BenchResult {
   name: string;
@@ -100,4 +101,18 @@ export async function signInCookie(base: string, email: string, password = 'demo
   });
   if (!res.ok) throw new Error(`sign-in failed: ${res.status}`);
   return res.headers.get('set-cookie')!.split(';')[0];
+}
+
+/** Milliseconds from the start of the page's navigation until `selector` is an enabled, visible input
+ * (performance.now() in the page counts from the navigation), polled every frame. */
+export async function msUntilInputReady(page: Page, selector: string, timeoutMs: number): Promise<number> {
+  const handle = await page.waitForFunction(
+    (sel) => {
+      const el = document.querySelector<HTMLInputElement>(sel);
+      return el && !el.disabled && el.offsetParent !== null ? performance.now() : false;
+    },
+    selector,
+    { polling: 'raf', timeout: timeoutMs },
+  );
+  return (await handle.jsonValue()) as number;
 }

@@ -5,22 +5,13 @@
 import { chromium, type Browser } from '@playwright/test';
 import { execFileSync } from 'node:child_process';
 import { gzipSync } from 'node:zlib';
-import { signInCookie, startServer, type BenchResult } from './lib';
+import { msUntilInputReady, signInCookie, startServer, type BenchResult } from './lib';
+import { CHROMIUM_ARGS, chromiumPath } from '../scripts/chromium';
 
 const PORT = 4402;
 const RUNS = 3;
 const BUDGET_KB = 200;
 const BUDGET_MS = 1500;
-const CHROMIUM_ARGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
 const READY = 'form input[inputmode="decimal"]';
 
 interface Script {
@@ -59,17 +50,7 @@ async function visit(browser: Browser, base: string, cookie: string, path: strin
   await page.goto(`${base}${path}`, { waitUntil: ready ? 'commit' : 'load' });
   let ms: number;
   if (ready) {
-    // performance.now() in the page counts from the start of the navigation.
-    ms = (await (
-      await page.waitForFunction(
-        (sel) => {
-          const el = document.querySelector<HTMLInputElement>(sel);
-          return el && !el.disabled && el.offsetParent !== null ? performance.now() : false;
-        },
-        ready,
-        { polling: 'raf', timeout: 30_000 },
-      )
-    ).jsonValue()) as number;
+    ms = await msUntilInputReady(page, ready, 30_000);
     readyAt = t0 + ms;
   } else {
     ms = await page.evaluate(() => performance.getEntriesByType('navigation')[0]?.duration ?? performance.now());
@@ -150,7 +131,7 @@ async function scriptedStrip(browser: Browser, base: string, cookie: string, str
 export async function run(): Promise<BenchResult> {
   execFileSync('npx', ['vite', 'build', '--logLevel', 'error'], { stdio: 'inherit' });
   const server = await startServer(PORT);
-  const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS });
+  const browser = await chromium.launch({ executablePath: chromiumPath(), args: CHROMIUM_ARGS });
   try {
     const cookie = await signInCookie(server.base, 'sam@lakeshore.example');
     const headers = { Cookie: cookie };

@@ -1,5 +1,6 @@
-// Where Debian's Chromium is, for the end-to-end tests: CHROMIUM_PATH, or `chromium` on PATH. One
-// definition, used by playwright.config.ts and by the check `npm test` runs first.
+// Where Debian's Chromium is, for the end-to-end tests and the browser benchmarks: CHROMIUM_PATH, or
+// `chromium` on PATH. One definition, used by playwright.config.ts, the benchmarks and the check
+// `npm test` runs first.
 import { accessSync, constants } from 'node:fs';
 import { delimiter, join } from 'node:path';
 
@@ -30,3 +31,22 @@ export function findChromium(env: NodeJS.ProcessEnv = process.env): ChromiumLook
   }
   return { found: false, problem: `Chromium was not found, and the end-to-end tests need it: ${INSTALL}.` };
 }
+
+/** The path, or an error saying what to install. */
+export function chromiumPath(env: NodeJS.ProcessEnv = process.env): string {
+  const lookup = findChromium(env);
+  if (!lookup.found) throw new Error(lookup.problem);
+  return lookup.path;
+}
+
+// Without the networking flags Chromium keeps trying hosts this closed network refuses (STACK.md).
+export const CHROMIUM_ARGS = [
+  '--headless',
+  '--no-sandbox',
+  '--disable-gpu',
+  '--disable-quic',
+  '--no-first-run',
+  '--disable-background-networking',
+  '--disable-component-update',
+  '--disable-sync',
+];
