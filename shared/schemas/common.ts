@@ -40,6 +40,17 @@ export const nameField = typedName({ required: 'A name is required.', max: 120, 
 
 export const idField = z.uuid({ error: 'That is not a valid id.' });
 
+/** A meter reading as typed (parsed later by shared/domain/units.ts); `required` says what to type. */
+export function meterValueField(required: string) {
+  return z.string({ error: required }).trim().min(1, { error: required }).max(40, { error: 'value is too long for a meter reading' });
+}
+
+/** When the tablet says something was done (its clock, ISO 8601 with an offset); absent: on arrival. */
+export const takenAtField = z.iso
+  .datetime({ offset: true, error: 'takenAt must be a date and time in ISO 8601, e.g. 2026-11-14T07:05:00Z' })
+  .nullable()
+  .optional();
+
 export const ROLES = ['admin', 'organiser', 'director', 'technician'] as const;
 export const roleField = z.enum(ROLES, { error: 'The role must be admin, organiser, director or technician.' });
 export type Role = z.infer<typeof roleField>;

@@ -1,6 +1,6 @@
 // Body of POST /api/readings. The client makes the id (a UUID) so a retry is recognised.
 import { z } from 'zod';
-import { idField } from './common';
+import { idField, meterValueField, takenAtField } from './common';
 import { TEMPERATURE_RANGE_C } from '../domain/limits';
 
 /** A correction must say what was wrong in a few words (e.g. “typed 3.4 for 0.34”). */
@@ -10,11 +10,7 @@ export const createReadingSchema = z
   .strictObject({
     id: idField,
     stepId: idField,
-    value: z
-      .string({ error: 'value is required: the reading as the meter shows it, e.g. 0.8, 22 MΩ or OL' })
-      .trim()
-      .min(1, { error: 'value is required: the reading as the meter shows it, e.g. 0.8, 22 MΩ or OL' })
-      .max(40, { error: 'value is too long for a meter reading' }),
+    value: meterValueField('value is required: the reading as the meter shows it, e.g. 0.8, 22 MΩ or OL'),
     // The test-lead null this reading was typed with (POST /api/lead-nulls); its value is
     // subtracted. Null or absent: nothing is subtracted.
     leadNullId: idField.nullable().optional(),
@@ -29,10 +25,7 @@ export const createReadingSchema = z
       .optional(),
     // When the technician typed it (the tablet's clock, ISO 8601): a reading sent later from the
     // offline queue still counts at that time, within limits (shared/domain/reading-time.ts).
-    takenAt: z.iso
-      .datetime({ offset: true, error: 'takenAt must be a date and time in ISO 8601, e.g. 2026-11-14T07:05:00Z' })
-      .nullable()
-      .optional(),
+    takenAt: takenAtField,
     supersedesId: idField.nullable().optional(),
     correctionReason: z
       .string({ error: 'correctionReason must be text' })
