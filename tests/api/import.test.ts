@@ -89,7 +89,7 @@ describe('POST /api/equipment/import/preview', () => {
     ws.addRow(['RL-301', 'Reel', 20, '0,5 mm²']);
     const bytes = Buffer.from(await wb.xlsx.writeBuffer());
     const res = await preview(bytes, 'register.xlsx');
-    expect(res.status).toBe(200);
+    expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.format).toBe('xlsx');
     expect(res.body.rows.map((r: { action: string; values: unknown }) => [r.action, r.values])).toEqual([
       ['create', { assetTag: 'FC-300', kind: 'floor-cable', lengthM: 12, conductorMm2: 0.75 }],
