@@ -125,3 +125,37 @@ export const addStepSchema = z
     }
   });
 export type AddStepInput = z.input<typeof addStepSchema>;
+
+/**
+ * Asset tags for many positions of one venue at once (a strip, a row, or any set): one entry per
+ * position, null takes the item off. A tag or a position listed twice is refused before anything
+ * is looked up, so a pasted column with a repeated tag says which rows repeat it.
+ */
+export const assetTagsSchema = z
+  .strictObject({
+    positions: z
+      .array(z.strictObject({ positionId: idField, assetTag: assetTagField.nullable() }), { error: 'positions must be a list.' })
+      .min(1, 'Give at least one position.')
+      .max(500, 'Give at most 500 positions at once.'),
+  })
+  .superRefine((v, ctx) => {
+    const byTag = new Map<string, number>();
+    const byPosition = new Set<string>();
+    v.positions.forEach((p, i) => {
+      if (byPosition.has(p.positionId)) {
+        ctx.addIssue({ code: 'custom', path: ['positions', i, 'positionId'], message: `Row ${i + 1} names a position that is listed already.` });
+      }
+      byPosition.add(p.positionId);
+      if (p.assetTag === null) return;
+      const first = byTag.get(p.assetTag);
+      if (first !== undefined) {
+        ctx.addIssue({
+          code: 'custom',
+          path: ['positions', i, 'assetTag'],
+          message: `${p.assetTag} is given twice (rows ${first + 1} and ${i + 1}); one item can sit in one position only.`,
+        });
+      } else byTag.set(p.assetTag, i);
+    });
+  });
+export type AssetTagsInput = z.input<typeof assetTagsSchema>;
+export type AssetTagsValues = z.output<typeof assetTagsSchema>;
