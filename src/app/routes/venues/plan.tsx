@@ -8,7 +8,7 @@ import { useAddStrips } from '@/features/plan/api/add-strips';
 import { useUpdateStrip } from '@/features/plan/api/update-strip';
 import { useWithdrawStrip } from '@/features/plan/api/withdraw-strip';
 import { useReinstateStrip } from '@/features/plan/api/reinstate-strip';
-import { useAttachEquipment } from '@/features/plan/api/attach-equipment';
+import { useSetAssetTags } from '@/features/plan/api/set-asset-tags';
 import { useSetTechnicians } from '@/features/plan/api/set-technicians';
 import { useAddStep } from '@/features/plan/api/add-step';
 import { useDropStep } from '@/features/plan/api/drop-step';
@@ -23,6 +23,7 @@ import { useProfiles } from '@/features/profiles/api/get-profiles';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
+import { ApiError } from '@/lib/api-client';
 
 const STATUS = { planning: ['ring', 'idle', 'Planning'], testing: ['half', 'brand', 'Testing'], 'signed-off': ['circle', 'pass', 'Signed off'] } as const;
 
@@ -42,7 +43,7 @@ export default function VenuePlanPage() {
   const updateStrip = useUpdateStrip(venueId);
   const withdraw = useWithdrawStrip(venueId);
   const reinstate = useReinstateStrip(venueId);
-  const attach = useAttachEquipment(venueId);
+  const setTags = useSetAssetTags(venueId);
   const setTechs = useSetTechnicians(venueId);
   const addStep = useAddStep(venueId);
   const dropStep = useDropStep(venueId);
@@ -74,7 +75,17 @@ export default function VenuePlanPage() {
         updateStrip: (patch) => run(`${patch.label ?? strip.label}`, () => updateStrip.mutateAsync({ stripId: strip.id, patch, version })),
         withdraw: (reason) => run(`${strip.label} withdrawn`, () => withdraw.mutateAsync({ stripId: strip.id, reason, version })),
         reinstate: () => run(`${strip.label} reinstated`, () => reinstate.mutateAsync({ stripId: strip.id, version })),
-        attach: (positionId, assetTag) => run(assetTag ? `${assetTag} attached` : 'Item taken off', () => attach.mutateAsync({ positionId, assetTag, version })),
+        setAssetTags: async (positions) => {
+          let refused: { path: string; message: string }[] = [];
+          const what = `Asset tags of ${positions.length} position${positions.length === 1 ? '' : 's'}`;
+          const ok = await run(what, () =>
+            setTags.mutateAsync({ positions, version }).catch((error: unknown) => {
+              if (error instanceof ApiError) refused = error.errors;
+              throw error;
+            }),
+          );
+          return ok || refused;
+        },
         addStep: (positionId, step) => run('Step added', () => addStep.mutateAsync({ positionId, step, version })),
         dropStep: (stepId) => run('Step dropped', () => dropStep.mutateAsync({ stepId, version })),
         addPosition: (position) => run(`${position.name.trim()} added to ${strip.label}`, () => addPosition.mutateAsync({ stripId: strip.id, position, version })),
@@ -177,7 +188,7 @@ export default function VenuePlanPage() {
                     {strip.label}
                     {strip.zone && <span className="ml-2 text-base font-normal text-ink-soft">{strip.zone}</span>}
                   </h2>
-                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} loopRequired={p.profile.loopRequired} />
+                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} strips={p.strips} loopRequired={p.profile.loopRequired} />
                 </Card>
               )}
             </>

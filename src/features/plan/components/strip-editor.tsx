@@ -7,11 +7,11 @@ import { EQUIPMENT_KINDS, TEST_KINDS, type EquipmentKind, type TestKind } from '
 import {
   addPositionSchema,
   addStepSchema,
-  attachEquipmentSchema,
   CONDUCTORS_FOR_TEST,
   updateStripSchema,
   withdrawStripSchema,
   type AddPositionInput,
+  type AssetTagsInput,
   type AddStepInput,
   type UpdateStripInput,
 } from '@shared/schemas/plan';
@@ -22,12 +22,13 @@ import { StatusMark } from '@/components/ui/status-mark';
 import { bodyResolver } from '@/lib/form-resolver';
 import { keepTyped, typedUpperCase } from '@/lib/form-values';
 import type { PlanPosition, PlanStrip } from '../api/types';
+import { AssetTagsForm, type FieldProblem } from './asset-tags-form';
 
 export interface StripEditorActions {
   updateStrip: (patch: UpdateStripInput) => Promise<boolean>;
   withdraw: (reason: string) => Promise<boolean>;
   reinstate: () => Promise<boolean>;
-  attach: (positionId: string, assetTag: string | null) => Promise<boolean>;
+  setAssetTags: (positions: AssetTagsInput['positions']) => Promise<true | FieldProblem[]>;
   addStep: (positionId: string, step: AddStepInput) => Promise<boolean>;
   dropStep: (stepId: string) => Promise<boolean>;
   addPosition: (position: AddPositionInput) => Promise<boolean>;
@@ -65,7 +66,7 @@ function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly
       })}
     >
       <TextField label="Label" id="f-stripLabel" disabled={readOnly} {...form.register('label')} error={errors.label?.message} />
-      <TextField label="Row or zone" id="f-stripZone" disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
+      <TextField label="Row or zone" id="f-stripZone" hint={readOnly ? undefined : 'Empty: in no row.'} disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
       <label className="flex min-h-touch items-center gap-2 text-sm">
         <input type="checkbox" className="size-5 accent-brand" disabled={readOnly} {...form.register('conductivePiste')} />
         Conductive piste
@@ -111,14 +112,13 @@ function Withdrawal({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: 
         className="flex-1"
         label="Withdraw this strip (reason)"
         id="f-withdrawReason"
-        placeholder="e.g. not used this event"
+        hint="For example: not used at this event. A withdrawn strip is listed as an exception at sign-off."
         {...form.register('reason')}
         error={form.formState.errors.reason?.message}
       />
       <Button type="submit" variant="secondary" disabled={!withdrawStripSchema.safeParse({ reason }).success}>
         Withdraw
       </Button>
-      <p className="w-full text-xs text-ink-soft">A withdrawn strip is listed as an exception at sign-off.</p>
     </form>
   );
 }
@@ -197,7 +197,7 @@ function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopReq
         <TextField
           label="Name"
           id={fieldId('name')}
-          placeholder="e.g. Spare reel"
+          hint="For example Spare reel."
           autoComplete="off"
           {...form.register('name', clear('name'))}
           error={errors.name?.message}
@@ -210,7 +210,7 @@ function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopReq
         <TextField
           label="Asset tag (optional)"
           id={fieldId('tag')}
-          placeholder="none"
+          hint="Leave empty to add the position without an item."
           autoComplete="off"
           {...typedUpperCase(form.register('assetTag', clear('assetTag')))}
           error={errors.assetTag?.message}
@@ -257,13 +257,6 @@ function RemovePosition({ position, onRemove }: { position: PlanPosition; onRemo
 }
 
 function PositionCard({ position, readOnly, actions }: { position: PlanPosition; readOnly: boolean; actions: StripEditorActions }) {
-  const attached = position.equipment?.assetTag ?? '';
-  const form = useForm<{ assetTag: string }, unknown, z.output<typeof attachEquipmentSchema>>({
-    resolver: bodyResolver(attachEquipmentSchema, (v: { assetTag: string }) => ({ assetTag: v.assetTag.trim() === '' ? null : v.assetTag.trim() })),
-    values: useMemo(() => ({ assetTag: attached }), [attached]),
-    resetOptions: keepTyped,
-  });
-  const tag = useWatch({ control: form.control, name: 'assetTag' }) ?? '';
   const active = position.steps.filter((s) => !s.removedAt);
   const dropped = position.steps.length - active.length;
   return (
@@ -273,36 +266,18 @@ function PositionCard({ position, readOnly, actions }: { position: PlanPosition;
           <p className="font-semibold">{position.name}</p>
           <p className="text-xs text-ink-soft">Takes a {EQUIPMENT_KIND_LABELS[position.equipmentKind].toLowerCase()}</p>
         </div>
-        <form
-          noValidate
-          className="flex items-end gap-2"
-          onSubmit={form.handleSubmit(async ({ assetTag }) => {
-            if (await actions.attach(position.id, assetTag)) form.reset({ assetTag: assetTag ?? '' });
-          })}
-        >
-          <TextField
-            label="Asset tag"
-            id={`tag-${position.id}`}
-            className="w-36"
-            autoComplete="off"
-            placeholder="none"
-            disabled={readOnly}
-            {...typedUpperCase(form.register('assetTag'))}
-            error={form.formState.errors.assetTag?.message}
-          />
-          {!readOnly && (
-            <Button type="submit" variant="secondary" disabled={tag.trim() === (position.equipment?.assetTag ?? '')}>
-              {tag.trim() === '' && position.equipment ? 'Take off' : 'Attach'}
-            </Button>
+        <p className="text-sm">
+          {position.equipment ? (
+            <>
+              Asset tag <span className="font-mono font-semibold">{position.equipment.assetTag}</span>
+            </>
+          ) : (
+            <span className="text-ink-soft">No item in this position yet</span>
           )}
-        </form>
+        </p>
         {!readOnly && !position.tested && <RemovePosition position={position} onRemove={actions.removePosition} />}
       </div>
-      {position.equipment && (
-        <p className="mt-1 text-xs text-ink-soft">
-          {position.equipment.assetTag}: {position.equipment.description || EQUIPMENT_KIND_LABELS[position.equipment.kind]}
-        </p>
-      )}
+      {position.equipment?.description && <p className="mt-1 text-xs text-ink-soft">{position.equipment.description}</p>}
       <ul className="mt-3 flex flex-wrap gap-2" aria-label={`Steps for ${position.name}`}>
         {active.length === 0 && <li className="text-sm text-ink-soft">No test steps for this position.</li>}
         {active.map((s) => (
@@ -338,9 +313,12 @@ export function StripEditor({
   strip,
   readOnly,
   actions,
+  strips,
   loopRequired = [],
 }: {
   strip: PlanStrip;
+  /** Every strip of the venue: the asset tags can be set for the strip's whole row. */
+  strips: PlanStrip[];
   readOnly: boolean;
   actions: StripEditorActions;
   /** The venue profile's kinds that get a loop step, to say which steps a new position gets. */
@@ -355,6 +333,12 @@ export function StripEditor({
           <PositionCard key={p.id} position={p} readOnly={readOnly} actions={actions} />
         ))}
       </ul>
+      {!readOnly && (
+        <section aria-labelledby={`tags-${strip.id}`} className="rounded-lg border border-line p-4">
+          <h3 id={`tags-${strip.id}`} className="mb-2 font-semibold">Asset tags</h3>
+          <AssetTagsForm strip={strip} strips={strips} onSave={actions.setAssetTags} />
+        </section>
+      )}
       {!readOnly && !strip.withdrawnAt && (
         <details className="rounded-lg border border-dashed border-line p-4">
           <summary className="inline-flex min-h-touch cursor-pointer items-center font-medium text-brand">Add a position to {strip.label}…</summary>
