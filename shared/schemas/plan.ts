@@ -32,9 +32,14 @@ export const createVenueSchema = z.strictObject({
 });
 export type CreateVenueInput = z.input<typeof createVenueSchema>;
 
+const technicianIds = z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' });
+
+/** The venue's details; with technicianIds also who tests it, so the venue form saves once. */
 export const updateVenueSchema = z
-  .strictObject({ name: nameField.optional(), profileId: idField.optional() })
-  .refine((v) => v.name !== undefined || v.profileId !== undefined, { message: 'Nothing to change: give name or profileId.' });
+  .strictObject({ name: nameField.optional(), profileId: idField.optional(), technicianIds: technicianIds.optional() })
+  .refine((v) => v.name !== undefined || v.profileId !== undefined || v.technicianIds !== undefined, {
+    message: 'Nothing to change: give name, profileId or technicianIds.',
+  });
 export type UpdateVenueInput = z.input<typeof updateVenueSchema>;
 
 const positionName = typedName({ required: 'A position needs a name.', max: 60, tooLong: 'Keep position names under 60 characters.' });
@@ -99,9 +104,7 @@ export const addPositionSchema = z.strictObject({
 export type AddPositionInput = z.input<typeof addPositionSchema>;
 export type AddPositionValues = z.output<typeof addPositionSchema>;
 
-export const venueTechniciansSchema = z.strictObject({
-  userIds: z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' }),
-});
+export const venueTechniciansSchema = z.strictObject({ userIds: technicianIds });
 
 /** Which conductors a step of each test kind names. */
 export const CONDUCTORS_FOR_TEST: Record<TestKind, readonly string[]> = {

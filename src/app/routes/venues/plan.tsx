@@ -9,14 +9,12 @@ import { useUpdateStrip } from '@/features/plan/api/update-strip';
 import { useWithdrawStrip } from '@/features/plan/api/withdraw-strip';
 import { useReinstateStrip } from '@/features/plan/api/reinstate-strip';
 import { useSetAssetTags } from '@/features/plan/api/set-asset-tags';
-import { useSetTechnicians } from '@/features/plan/api/set-technicians';
 import { useAddStep } from '@/features/plan/api/add-step';
 import { useDropStep } from '@/features/plan/api/drop-step';
 import { useAddPosition } from '@/features/plan/api/add-position';
 import { useRemovePosition } from '@/features/plan/api/remove-position';
 import { EditProblem } from '@/features/plan/components/conflict-notice';
 import { VenueDetailsForm } from '@/features/plan/components/venue-details-form';
-import { TechniciansForm } from '@/features/plan/components/technicians-form';
 import { BulkStripsForm } from '@/features/plan/components/bulk-strips-form';
 import { StripEditor, type StripEditorActions } from '@/features/plan/components/strip-editor';
 import { useProfiles } from '@/features/profiles/api/get-profiles';
@@ -44,7 +42,6 @@ export default function VenuePlanPage() {
   const withdraw = useWithdrawStrip(venueId);
   const reinstate = useReinstateStrip(venueId);
   const setTags = useSetAssetTags(venueId);
-  const setTechs = useSetTechnicians(venueId);
   const addStep = useAddStep(venueId);
   const dropStep = useDropStep(venueId);
   const addPosition = useAddPosition(venueId);
@@ -143,16 +140,9 @@ export default function VenuePlanPage() {
               plan={p}
               readOnly={!canEdit}
               profiles={profiles.data ?? [{ name: p.profile.name, lineageId: p.profile.lineageId, versions: [{ id: p.profile.id, version: p.profile.version }] }]}
-              onSave={(v) => run('Venue details', () => updateVenue.mutateAsync({ ...v, version }))}
+              people={canEdit ? people.data?.technicians : undefined}
+              onSave={(v) => run('Venue', () => updateVenue.mutateAsync({ ...v, version }))}
             />
-          </Card>
-          <Card>
-            <h2 className="mb-2 text-lg font-semibold">Technicians</h2>
-            {canEdit && people.data ? (
-              <TechniciansForm plan={p} people={people.data.technicians} onSave={(userIds) => run('Technicians', () => setTechs.mutateAsync({ userIds, version }))} />
-            ) : (
-              <ul className="text-sm">{p.technicians.length ? p.technicians.map((t) => <li key={t.id}>{t.name}</li>) : <li className="text-ink-soft">Nobody assigned yet.</li>}</ul>
-            )}
           </Card>
           {canEdit && (
             <Card>
