@@ -23,6 +23,14 @@ test('the asset tags of a whole row: a pasted column fills down, a repeated tag 
   for (const assetTag of tags) expect((await apiAs(page, 'POST', '/api/equipment', { assetTag, kind: 'floor-cable', lengthM: 12 })).status).toBe(201);
 
   await page.goto(`/venues/${venueId}/plan`);
+  // The venue's details and technicians are one form with one save.
+  await expect(page.getByRole('button', { name: 'Save venue' })).toHaveCount(1);
+  await expect(page.getByRole('button', { name: /Save technicians|Save venue details/ })).toHaveCount(0);
+  // The empty "Row or zone" of the add-strips form shows no example text that could pass for a value.
+  const newZone = page.getByRole('textbox', { name: 'Row or zone' }).first();
+  await expect(newZone).toHaveAttribute('id', 'f-zone');
+  await expect(newZone).toHaveValue('');
+  await expect(newZone).not.toHaveAttribute('placeholder');
   const form = page.getByRole('form', { name: 'Asset tags' });
   await expect(form).toBeVisible();
   await page.getByRole('radio', { name: 'the whole of Row A (2 strips)' }).check();

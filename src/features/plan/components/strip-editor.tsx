@@ -66,7 +66,7 @@ function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly
       })}
     >
       <TextField label="Label" id="f-stripLabel" disabled={readOnly} {...form.register('label')} error={errors.label?.message} />
-      <TextField label="Row or zone" id="f-stripZone" hint={readOnly ? undefined : 'Empty: in no row.'} disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
+      <TextField label="Row or zone" id="f-stripZone" hint={readOnly ? undefined : 'Leave it empty when the strip is in no row.'} disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
       <label className="flex min-h-touch items-center gap-2 text-sm">
         <input type="checkbox" className="size-5 accent-brand" disabled={readOnly} {...form.register('conductivePiste')} />
         Conductive piste
