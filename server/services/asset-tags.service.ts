@@ -20,7 +20,7 @@ type Change = { entry: Entry; position: { id: string; name: string }; stripLabel
 const kindWord = (k: keyof typeof EQUIPMENT_KIND_LABELS) => EQUIPMENT_KIND_LABELS[k].toLowerCase();
 
 /** The positions whose item changes, with the item each takes; problems instead where a tag cannot go. */
-function plan(tx: Tx, user: AuthUser, venueId: string, entries: Entry[]) {
+function plan(tx: Tx, user: AuthUser, venueId: string, entries: Entry[], field: string) {
   const r = planRepository(tx);
   const eq = equipmentRepository(tx);
   const problems: Problem[] = [];
@@ -30,9 +30,9 @@ function plan(tx: Tx, user: AuthUser, venueId: string, entries: Entry[]) {
   const listed = new Set(entries.map((e) => e.positionId));
   entries.forEach((entry, i) => {
     const at = found[i];
-    const path = `positions.${i}.assetTag`;
+    const path = `${field}.${i}.assetTag`;
     if (!at || at.strip.venueId !== venueId) {
-      problems.push({ path: `positions.${i}.positionId`, message: `Row ${i + 1} is not a position of this venue.` });
+      problems.push({ path: `${field}.${i}.positionId`, message: `Row ${i + 1} is not a position of this venue.` });
       return;
     }
     const where = `${at.strip.label}, ${at.position.name}`;
@@ -76,26 +76,32 @@ function refuse(problems: Problem[]): never {
   });
 }
 
+/**
+ * The tags of the list put in place inside a plan edit's transaction, or all refused. `field` is
+ * where the list sits in the request body, so each problem names its row there.
+ */
+export function applyAssetTags(tx: Tx, user: AuthUser, venueId: string, entries: Entry[], field = 'positions') {
+  const { problems, changes } = plan(tx, user, venueId, entries, field);
+  if (problems.length > 0) refuse(problems);
+  const eq = equipmentRepository(tx);
+  const at = nowIso();
+  // Everything changing comes off first, so an item moved within the list is never in two places.
+  for (const c of changes) eq.assignToPosition(c.position.id, null, user.id, at);
+  for (const c of changes) {
+    if (c.itemId) eq.assignToPosition(c.position.id, c.itemId, user.id, at);
+    recordAudit(tx, user, c.itemId ? 'position.equipment-attached' : 'position.equipment-removed', 'position', c.position.id, {
+      venueId,
+      strip: c.stripLabel,
+      position: c.position.name,
+      assetTag: c.entry.assetTag,
+      previousAssetTag: c.before,
+      inList: entries.length,
+    });
+  }
+}
+
 function setAssetTags(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: string | undefined, entries: Entry[]) {
-  return editPlan(deps, user, venueId, ifMatch, `asset tags of ${entries.length} positions`, (tx) => {
-    const { problems, changes } = plan(tx, user, venueId, entries);
-    if (problems.length > 0) refuse(problems);
-    const eq = equipmentRepository(tx);
-    const at = nowIso();
-    // Everything changing comes off first, so an item moved within the list is never in two places.
-    for (const c of changes) eq.assignToPosition(c.position.id, null, user.id, at);
-    for (const c of changes) {
-      if (c.itemId) eq.assignToPosition(c.position.id, c.itemId, user.id, at);
-      recordAudit(tx, user, c.itemId ? 'position.equipment-attached' : 'position.equipment-removed', 'position', c.position.id, {
-        venueId,
-        strip: c.stripLabel,
-        position: c.position.name,
-        assetTag: c.entry.assetTag,
-        previousAssetTag: c.before,
-        inList: entries.length,
-      });
-    }
-  });
+  return editPlan(deps, user, venueId, ifMatch, `asset tags of ${entries.length} positions`, (tx) => applyAssetTags(tx, user, venueId, entries));
 }
 
 export function assetTagsService(deps: AppDeps) {

@@ -213,3 +213,25 @@ describe('PUT /api/venues/:id/equipment', () => {
     expect(tagsOf(strip(now.plan, 'Strip 18'))).toEqual(tagsOf(strip(plan, 'Strip 18')));
   });
 });
+
+describe('PATCH /api/strips/:id with assetTags (the strip card saves once)', () => {
+  test('the strip’s details and its tags change in one edit; a refused tag keeps the details unchanged too', async () => {
+    await newItems('reel', ['CARD-RL-1']);
+    const { plan, etag } = await loadPlan();
+    const st = strip(plan, 'Strip 17');
+    const reel = st.positions.find((p) => p.equipmentKind === 'reel')!;
+    const marco = await director();
+    const refused = await marco.patch(`/api/strips/${st.id}`).set('If-Match', etag).send({ label: 'Strip 17b', assetTags: [{ positionId: reel.id, assetTag: 'NOPE-1' }] });
+    expect(refused.status).toBe(422);
+    expect(refused.body.errors).toEqual([{ path: 'assetTags.0.assetTag', message: expect.stringContaining('no item with the asset tag NOPE-1') }]);
+    const between = await loadPlan();
+    expect(between.plan.venue.version).toBe(plan.venue.version);
+    expect(strip(between.plan, 'Strip 17')).toBeDefined();
+
+    const ok = await marco.patch(`/api/strips/${st.id}`).set('If-Match', etag).send({ label: 'Strip 17b', assetTags: [{ positionId: reel.id, assetTag: 'CARD-RL-1' }] });
+    expect(ok.status).toBe(200);
+    expect((ok.body as Plan).venue.version).toBe(plan.venue.version + 1);
+    const after = strip(ok.body as Plan, 'Strip 17b');
+    expect(after.positions.find((p) => p.id === reel.id)!.equipment!.assetTag).toBe('CARD-RL-1');
+  });
+});
