@@ -5,7 +5,7 @@ type Plan = { venue: { id: string; version: number }; strips: { id: string; labe
 
 test.use({ viewport: { width: 1024, height: 768 } });
 
-test('the asset tags of a whole row: a pasted column fills down, a repeated tag is named before sending, one save attaches all', async ({ page }) => {
+test('the asset tags of a whole row: a pasted column fills down, a repeated tag is named before sending, the card\'s one save attaches all', async ({ page }) => {
   await signIn(page, 'director');
   const stamp = Date.now().toString(36).toUpperCase();
   const events = await apiAs<{ id: string }[]>(page, 'GET', '/api/events');
@@ -50,17 +50,22 @@ test('the asset tags of a whole row: a pasted column fills down, a repeated tag 
   // The repeated tag is refused on the tablet with the rows named; nothing is sent.
   let sent = 0;
   page.on('request', (r) => {
-    if (r.method() === 'PUT' && r.url().endsWith(`/api/venues/${venueId}/equipment`)) sent += 1;
+    if (r.method() === 'PATCH' && r.url().includes('/api/strips/')) sent += 1;
   });
-  await form.getByRole('button', { name: 'Save asset tags' }).click();
+  // One save on the strip's card: its details and the table together.
+  const save = page.getByRole('button', { name: 'Save strip' });
+  await expect(save).toHaveCount(1);
+  await save.click();
   await expect(form.getByRole('alert')).toHaveText(`${tags[1]} is given twice (rows 2 and 4); one item can sit in one position only.`);
   expect(sent).toBe(0);
 
   await cells.nth(3).fill(tags[3]);
-  const saved = page.waitForResponse((r) => r.request().method() === 'PUT' && r.url().endsWith(`/api/venues/${venueId}/equipment`));
-  await form.getByRole('button', { name: 'Save asset tags' }).click();
-  expect((await saved).status()).toBe(200);
-  await expect(page.getByText('Asset tags of 4 positions: saved.')).toBeVisible();
+  const saved = page.waitForResponse((r) => r.request().method() === 'PATCH' && r.url().includes('/api/strips/'));
+  await save.click();
+  const answer = await saved;
+  expect(answer.status()).toBe(200);
+  expect(answer.request().postDataJSON().assetTags).toHaveLength(4);
+  await expect(page.getByText('Strip 1: saved.')).toBeVisible();
   await expect(page.getByText('plan version 3')).toBeVisible();
 
   const now = await apiAs<Plan>(page, 'GET', `/api/venues/${venueId}`);

@@ -8,7 +8,6 @@ import { useAddStrips } from '@/features/plan/api/add-strips';
 import { useUpdateStrip } from '@/features/plan/api/update-strip';
 import { useWithdrawStrip } from '@/features/plan/api/withdraw-strip';
 import { useReinstateStrip } from '@/features/plan/api/reinstate-strip';
-import { useSetAssetTags } from '@/features/plan/api/set-asset-tags';
 import { useAddStep } from '@/features/plan/api/add-step';
 import { useDropStep } from '@/features/plan/api/drop-step';
 import { useAddPosition } from '@/features/plan/api/add-position';
@@ -41,7 +40,6 @@ export default function VenuePlanPage() {
   const updateStrip = useUpdateStrip(venueId);
   const withdraw = useWithdrawStrip(venueId);
   const reinstate = useReinstateStrip(venueId);
-  const setTags = useSetAssetTags(venueId);
   const addStep = useAddStep(venueId);
   const dropStep = useDropStep(venueId);
   const addPosition = useAddPosition(venueId);
@@ -69,20 +67,18 @@ export default function VenuePlanPage() {
   const strip = p.strips.find((s) => s.id === selected) ?? p.strips[0];
   const actions: StripEditorActions | null = strip
     ? {
-        updateStrip: (patch) => run(`${patch.label ?? strip.label}`, () => updateStrip.mutateAsync({ stripId: strip.id, patch, version })),
-        withdraw: (reason) => run(`${strip.label} withdrawn`, () => withdraw.mutateAsync({ stripId: strip.id, reason, version })),
-        reinstate: () => run(`${strip.label} reinstated`, () => reinstate.mutateAsync({ stripId: strip.id, version })),
-        setAssetTags: async (positions) => {
+        updateStrip: async (patch) => {
           let refused: { path: string; message: string }[] = [];
-          const what = `Asset tags of ${positions.length} position${positions.length === 1 ? '' : 's'}`;
-          const ok = await run(what, () =>
-            setTags.mutateAsync({ positions, version }).catch((error: unknown) => {
+          const ok = await run(`${patch.label ?? strip.label}`, () =>
+            updateStrip.mutateAsync({ stripId: strip.id, patch, version }).catch((error: unknown) => {
               if (error instanceof ApiError) refused = error.errors;
               throw error;
             }),
           );
           return ok || refused;
         },
+        withdraw: (reason) => run(`${strip.label} withdrawn`, () => withdraw.mutateAsync({ stripId: strip.id, reason, version })),
+        reinstate: () => run(`${strip.label} reinstated`, () => reinstate.mutateAsync({ stripId: strip.id, version })),
         addStep: (positionId, step) => run('Step added', () => addStep.mutateAsync({ positionId, step, version })),
         dropStep: (stepId) => run('Step dropped', () => dropStep.mutateAsync({ stepId, version })),
         addPosition: (position) => run(`${position.name.trim()} added to ${strip.label}`, () => addPosition.mutateAsync({ stripId: strip.id, position, version })),

@@ -1,10 +1,9 @@
-import { useMemo, useRef, useState, type ClipboardEvent, type KeyboardEvent } from 'react';
+import { useEffect, useImperativeHandle, useMemo, useRef, useState, type ClipboardEvent, type KeyboardEvent, type Ref } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { assetTagsSchema, type AssetTagsInput } from '@shared/schemas/plan';
 import { EQUIPMENT_KIND_LABELS } from '@shared/schemas/equipment';
 import type { EquipmentKind } from '@shared/domain/limits';
-import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/card';
 import { bodyResolver } from '@/lib/form-resolver';
 import type { PlanPosition, PlanStrip } from '../api/types';
@@ -12,6 +11,15 @@ import type { PlanPosition, PlanStrip } from '../api/types';
 type Row = { strip: PlanStrip; position: PlanPosition };
 type TagsForm = { positions: { positionId: string; assetTag: string }[] };
 export type FieldProblem = { path: string; message: string };
+type Rows = AssetTagsInput['positions'];
+
+/** What the strip card asks of the table when it saves: the changed rows, and where a refusal points. */
+export interface TagsHandle {
+  /** The rows whose tag changed ([] when none), or null when the table shows a problem to fix first. */
+  collect: () => Promise<Rows | null>;
+  /** Puts the server's messages (paths `<field>.<n>.assetTag` of the rows sent) beside their rows. */
+  showProblems: (problems: FieldProblem[], sent: Rows) => void;
+}
 
 /** Cells of a pasted block: one per line, the first column when the block has several (tab-separated). */
 export function pastedColumn(text: string): string[] {
@@ -27,10 +35,10 @@ const toBody = (v: TagsForm): AssetTagsInput => ({
 /**
  * The asset tags of every position of a strip, or of a whole row, in one table and one save. A
  * column pasted from a spreadsheet fills down from the cell it lands in; Enter moves down (a
- * scanner ends each code with Enter). Only the rows that changed are sent; the server saves all
- * of them or none.
+ * scanner ends each code with Enter). The strip card saves it with its details: only the rows that
+ * changed are sent, and the server saves all of them or none.
  */
-function TagsTable({ rows, onSave }: { rows: Row[]; onSave: (positions: AssetTagsInput['positions']) => Promise<true | FieldProblem[]> }) {
+function TagsTable({ rows, handle, onSubmit, onDirty }: { rows: Row[]; handle: Ref<TagsHandle>; onSubmit: () => void; onDirty: (dirty: boolean) => void }) {
   const shown = useMemo<TagsForm>(
     () => ({ positions: rows.map(({ position }) => ({ positionId: position.id, assetTag: position.equipment?.assetTag ?? '' })) }),
     [rows],
@@ -59,29 +67,33 @@ function TagsTable({ rows, onSave }: { rows: Row[]; onSave: (positions: AssetTag
     inputs.current[i + 1]?.focus();
   }
   const dirty = form.formState.isDirty;
+  useEffect(() => onDirty(dirty), [dirty, onDirty]);
+  useImperativeHandle(handle, () => ({
+    collect: () =>
+      new Promise<Rows | null>((resolve) => {
+        void form.handleSubmit(
+          (body) => resolve(body.positions.filter((p, i) => p.assetTag !== (rows[i].position.equipment?.assetTag ?? null))),
+          () => resolve(null),
+        )();
+      }),
+    showProblems: (problems, sent) => {
+      for (const problem of problems) {
+        const m = /\.(\d+)\.(assetTag|positionId)$/.exec(problem.path);
+        const row = m ? rows.findIndex((r) => r.position.id === sent[Number(m[1])]?.positionId) : -1;
+        if (row >= 0) form.setError(`positions.${row}.assetTag`, { type: 'server', message: problem.message });
+      }
+    },
+  }));
 
   return (
     <form
       noValidate
       aria-label="Asset tags"
       className="flex flex-col gap-3"
-      onSubmit={form.handleSubmit(async (body) => {
-        const changed = body.positions.filter((p, i) => p.assetTag !== (rows[i].position.equipment?.assetTag ?? null));
-        if (changed.length === 0) return;
-        const answer = await onSave(changed);
-        if (answer === true) {
-          form.reset(form.getValues());
-          setOverflow([]);
-          return;
-        }
-        // The server names rows of what was sent: point each message at its row of the table.
-        for (const problem of answer) {
-          const m = /^positions\.(\d+)\.(assetTag|positionId)$/.exec(problem.path);
-          const sent = m ? changed[Number(m[1])] : undefined;
-          const row = sent ? rows.findIndex((r) => r.position.id === sent.positionId) : -1;
-          if (row >= 0) form.setError(`positions.${row}.assetTag`, { type: 'server', message: problem.message });
-        }
-      })}
+      onSubmit={(e) => {
+        e.preventDefault();
+        onSubmit();
+      }}
     >
       <div className="overflow-x-auto">
         <table className="w-full border-collapse text-sm">
@@ -139,13 +151,8 @@ function TagsTable({ rows, onSave }: { rows: Row[]; onSave: (positions: AssetTag
         </Notice>
       )}
       <p className="text-xs text-ink-soft">
-        An empty cell takes the item off. Paste a column from a spreadsheet into a cell to fill the cells below it. Nothing is saved until you save, and then all rows are saved together or none.
+        An empty cell takes the item off. Paste a column from a spreadsheet into a cell to fill the cells below it. Save strip saves the tags with the strip's details: all together or none.
       </p>
-      <div>
-        <Button type="submit" disabled={!dirty || form.formState.isSubmitting}>
-          {form.formState.isSubmitting ? 'Saving…' : 'Save asset tags'}
-        </Button>
-      </div>
     </form>
   );
 }
@@ -156,12 +163,16 @@ type Scope = 'strip' | 'row';
 export function AssetTagsForm({
   strip,
   strips,
-  onSave,
+  handle,
+  onSubmit,
+  onDirty,
 }: {
   strip: PlanStrip;
   /** Every strip of the venue, for the row choice. */
   strips: PlanStrip[];
-  onSave: (positions: AssetTagsInput['positions']) => Promise<true | FieldProblem[]>;
+  handle: Ref<TagsHandle>;
+  onSubmit: () => void;
+  onDirty: (dirty: boolean) => void;
 }) {
   const row = strip.zone ? strips.filter((s) => s.zone === strip.zone) : [strip];
   const [scope, setScope] = useState<Scope>('strip');
@@ -197,7 +208,7 @@ export function AssetTagsForm({
           </select>
         </label>
       </div>
-      {rows.length === 0 ? <p className="text-sm text-ink-soft">No positions to show.</p> : <TagsTable key={key} rows={rows} onSave={onSave} />}
+      {rows.length === 0 ? <p className="text-sm text-ink-soft">No positions to show.</p> : <TagsTable key={key} rows={rows} handle={handle} onSubmit={onSubmit} onDirty={onDirty} />}
     </div>
   );
 }

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type RefObject } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -11,7 +11,6 @@ import {
   updateStripSchema,
   withdrawStripSchema,
   type AddPositionInput,
-  type AssetTagsInput,
   type AddStepInput,
   type UpdateStripInput,
 } from '@shared/schemas/plan';
@@ -22,13 +21,13 @@ import { StatusMark } from '@/components/ui/status-mark';
 import { bodyResolver } from '@/lib/form-resolver';
 import { keepTyped, typedUpperCase } from '@/lib/form-values';
 import type { PlanPosition, PlanStrip } from '../api/types';
-import { AssetTagsForm, type FieldProblem } from './asset-tags-form';
+import { AssetTagsForm, type FieldProblem, type TagsHandle } from './asset-tags-form';
 
 export interface StripEditorActions {
-  updateStrip: (patch: UpdateStripInput) => Promise<boolean>;
+  /** The card's one save: details and asset tags in one edit; a refusal answers the messages by field. */
+  updateStrip: (patch: UpdateStripInput) => Promise<true | FieldProblem[]>;
   withdraw: (reason: string) => Promise<boolean>;
   reinstate: () => Promise<boolean>;
-  setAssetTags: (positions: AssetTagsInput['positions']) => Promise<true | FieldProblem[]>;
   addStep: (positionId: string, step: AddStepInput) => Promise<boolean>;
   dropStep: (stepId: string) => Promise<boolean>;
   addPosition: (position: AddPositionInput) => Promise<boolean>;
@@ -37,7 +36,25 @@ export interface StripEditorActions {
 
 type StripForm = { label: string; zone: string; conductivePiste: boolean };
 
-function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: boolean; actions: StripEditorActions }) {
+/**
+ * The strip's details; its form is the card's one save, which also sends the asset-tag table's
+ * changed rows (`tags`) in the same edit. The Save button sits at the card's foot (form attribute).
+ */
+function StripDetails({
+  strip,
+  readOnly,
+  actions,
+  formId,
+  tags,
+  onDirty,
+}: {
+  strip: PlanStrip;
+  readOnly: boolean;
+  actions: StripEditorActions;
+  formId: string;
+  tags: RefObject<TagsHandle | null>;
+  onDirty: (dirty: boolean) => void;
+}) {
   // The form shows the strip as loaded; only what the person typed is kept when the plan reloads.
   const values = useMemo(
     () => ({ label: strip.label, zone: strip.zone ?? '', conductivePiste: strip.conductivePiste }),
@@ -50,32 +67,37 @@ function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly
   });
   const [label, zone, conductive] = useWatch({ control: form.control, name: ['label', 'zone', 'conductivePiste'] });
   const changed = label !== strip.label || zone !== (strip.zone ?? '') || conductive !== strip.conductivePiste;
+  useEffect(() => onDirty(changed), [changed, onDirty]);
   const errors = form.formState.errors;
   return (
     <form
+      id={formId}
       noValidate
-      className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto_auto]"
+      className="grid items-start gap-3 sm:grid-cols-[1fr_1fr_auto]"
       onSubmit={form.handleSubmit(async (v) => {
+        const rows = tags.current ? await tags.current.collect() : [];
+        if (rows === null) return; // the table shows what to fix
         const patch: UpdateStripInput = {};
         if (v.label !== undefined && v.label !== strip.label) patch.label = v.label;
         if ((v.zone ?? '') !== (strip.zone ?? '')) patch.zone = v.zone || null;
         if (v.conductivePiste !== undefined && v.conductivePiste !== strip.conductivePiste) patch.conductivePiste = v.conductivePiste;
-        if (await actions.updateStrip(patch)) {
+        if (rows.length > 0) patch.assetTags = rows;
+        if (Object.keys(patch).length === 0) return;
+        const answer = await actions.updateStrip(patch);
+        if (answer === true) {
           form.reset({ label: patch.label ?? strip.label, zone: patch.zone === undefined ? (strip.zone ?? '') : (patch.zone ?? ''), conductivePiste: patch.conductivePiste ?? strip.conductivePiste });
+          return;
         }
+        tags.current?.showProblems(answer.filter((p) => p.path.startsWith('assetTags.')), rows);
+        for (const p of answer) if (p.path === 'label' || p.path === 'zone') form.setError(p.path, { type: 'server', message: p.message });
       })}
     >
       <TextField label="Label" id="f-stripLabel" disabled={readOnly} {...form.register('label')} error={errors.label?.message} />
       <TextField label="Row or zone" id="f-stripZone" hint={readOnly ? undefined : 'Leave it empty when the strip is in no row.'} disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
-      <label className="flex min-h-touch items-center gap-2 text-sm">
+      <label className="flex min-h-touch items-center gap-2 self-end text-sm">
         <input type="checkbox" className="size-5 accent-brand" disabled={readOnly} {...form.register('conductivePiste')} />
         Conductive piste
       </label>
-      {!readOnly && (
-        <Button type="submit" variant="secondary" disabled={!changed}>
-          Save strip
-        </Button>
-      )}
     </form>
   );
 }
@@ -324,9 +346,16 @@ export function StripEditor({
   /** The venue profile's kinds that get a loop step, to say which steps a new position gets. */
   loopRequired?: readonly EquipmentKind[];
 }) {
+  const tags = useRef<TagsHandle | null>(null);
+  const [detailsDirty, setDetailsDirty] = useState(false);
+  const [tagsDirty, setTagsDirty] = useState(false);
+  const onTagsDirty = useCallback((d: boolean) => setTagsDirty(d), []);
+  const onDetailsDirty = useCallback((d: boolean) => setDetailsDirty(d), []);
+  const formId = `strip-form-${strip.id}`;
+  const submit = () => (document.getElementById(formId) as HTMLFormElement | null)?.requestSubmit();
   return (
     <div className="flex flex-col gap-4">
-      <StripDetails strip={strip} readOnly={readOnly} actions={actions} />
+      <StripDetails strip={strip} readOnly={readOnly} actions={actions} formId={formId} tags={tags} onDirty={onDetailsDirty} />
       <Withdrawal strip={strip} readOnly={readOnly} actions={actions} />
       <ul className="flex flex-col gap-3">
         {strip.positions.map((p) => (
@@ -336,8 +365,16 @@ export function StripEditor({
       {!readOnly && (
         <section aria-labelledby={`tags-${strip.id}`} className="rounded-lg border border-line p-4">
           <h3 id={`tags-${strip.id}`} className="mb-2 font-semibold">Asset tags</h3>
-          <AssetTagsForm strip={strip} strips={strips} onSave={actions.setAssetTags} />
+          <AssetTagsForm strip={strip} strips={strips} handle={tags} onSubmit={submit} onDirty={onTagsDirty} />
         </section>
+      )}
+      {!readOnly && (
+        <div className="flex flex-wrap items-center gap-3">
+          <Button type="submit" form={formId} disabled={!detailsDirty && !tagsDirty}>
+            Save strip
+          </Button>
+          <span className="text-sm text-ink-soft">Saves the label, row, piste and asset tags above together.</span>
+        </div>
       )}
       {!readOnly && !strip.withdrawnAt && (
         <details className="rounded-lg border border-dashed border-line p-4">
