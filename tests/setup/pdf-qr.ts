@@ -20,6 +20,8 @@ export interface PdfQr {
   box: { x: number; y: number; width: number; height: number };
   /** What jsQR read, or null when it could not. */
   text: string | null;
+  /** The picture as drawn in the PDF, RGBA. */
+  image: { width: number; height: number; rgba: Uint8ClampedArray };
 }
 export interface PdfTextItem {
   page: number;
@@ -71,7 +73,8 @@ export async function readPdfQrCodes(pdf: Uint8Array): Promise<{ codes: PdfQr[];
         else if (fn === OPS.transform) ctm = times(ctm, args as Matrix);
         else if (fn === OPS.paintImageXObject) {
           const img = (await new Promise((resolve) => page.objs.get(args[0] as string, resolve))) as DecodedImage;
-          const found = jsQR(toRgba(img), img.width, img.height);
+          const rgba = toRgba(img);
+          const found = jsQR(rgba, img.width, img.height);
           // The unit square mapped by the current matrix (images are drawn upright here).
           const xs = [ctm[4], ctm[4] + ctm[0]];
           const ys = [ctm[5], ctm[5] + ctm[3]];
@@ -79,6 +82,7 @@ export async function readPdfQrCodes(pdf: Uint8Array): Promise<{ codes: PdfQr[];
             page: n,
             box: { x: Math.min(...xs), y: Math.min(...ys), width: Math.abs(ctm[0]), height: Math.abs(ctm[3]) },
             text: found?.data ?? null,
+            image: { width: img.width, height: img.height, rgba },
           });
         }
       }

@@ -1,0 +1,112 @@
+// A strip's printed label scanned by the tablet's camera opens its testing screen. The camera is
+// Chromium's fake one, playing a picture made here from the QR code taken out of the label sheet
+// PDF itself (read back with PDF.js and jsQR), so the whole path is covered: PDF → code → camera →
+// the app's decoder (barcode-detector, ZXing wasm from our own build) → the strip.
+import { chromium, type Page } from '@playwright/test';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { apiAs, expect, signIn, test } from './fixtures';
+import { CHROMIUM_ARGS, chromiumPath } from '../scripts/chromium';
+import { readPdfQrCodes, type PdfQr } from '../tests/setup/pdf-qr';
+
+const W = 640;
+const H = 480;
+
+/**
+ * A one-frame YUV4MPEG2 video (the format Chromium's fake camera plays, looping): the code's
+ * picture, grey only, centred on white, each pixel of it drawn `k` times over.
+ */
+function y4mOf(code: PdfQr['image'], k: number): Buffer {
+  const y = Buffer.alloc(W * H, 235);
+  const left = Math.floor((W - code.width * k) / 2);
+  const top = Math.floor((H - code.height * k) / 2);
+  for (let r = 0; r < code.height * k; r++)
+    for (let c = 0; c < code.width * k; c++) {
+      const i = (Math.floor(r / k) * code.width + Math.floor(c / k)) * 4;
+      y[(top + r) * W + left + c] = code.rgba[i]! < 128 ? 16 : 235;
+    }
+  const chroma = Buffer.alloc((W / 2) * (H / 2) * 2, 128);
+  const frame = Buffer.concat([Buffer.from('FRAME\n'), y, chroma]);
+  return Buffer.concat([Buffer.from(`YUV4MPEG2 W${W} H${H} F10:1 Ip A1:1 C420jpeg\n`), frame, frame]);
+}
+
+async function acknowledgeSafety(page: Page) {
+  const notice = page.getByRole('alertdialog');
+  await notice.getByRole('button', { name: 'I understand — start testing' }).click();
+  await expect(notice).toBeHidden();
+}
+
+test('a strip label from the printed sheet, shown to the camera, opens that strip’s testing screen', async ({ page }) => {
+  const baseURL = test.info().project.use.baseURL!;
+  await signIn(page, 'technician');
+  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
+  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
+  const plan = (await apiAs<{ strips: { id: string; label: string }[] }>(page, 'GET', `/api/venues/${hall}`)).body;
+  const target = plan.strips.find((s) => s.label === 'Strip 7')!;
+
+  // The sheet as the technician prints it, and the code on Strip 7's label.
+  const sheet = await page.request.get(`/api/venues/${hall}/labels.pdf`);
+  expect(sheet.status()).toBe(200);
+  const { codes } = await readPdfQrCodes(await sheet.body());
+  const label = codes.find((c) => c.text === `${baseURL}/s/${target.id}`);
+  expect(label, 'Strip 7 has a label whose code links to it').toBeDefined();
+
+  // 360 px of code at 1 camera pixel each: about the size a label is held at.
+  const dir = resolve('.tmp/e2e-camera');
+  mkdirSync(dir, { recursive: true });
+  const video = resolve(dir, 'strip-7-label.y4m');
+  writeFileSync(video, y4mOf(label!.image, 1));
+
+  const browser = await chromium.launch({
+    executablePath: chromiumPath(),
+    args: [...CHROMIUM_ARGS, '--use-fake-device-for-media-stream', `--use-file-for-fake-video-capture=${video}`],
+  });
+  try {
+    const context = await browser.newContext({ baseURL, viewport: { width: 1024, height: 768 }, permissions: ['camera'] });
+    const tablet = await context.newPage();
+    const outside: string[] = [];
+    tablet.on('request', (r) => {
+      if (!r.url().startsWith(baseURL) && !r.url().startsWith('data:') && !r.url().startsWith('blob:')) outside.push(r.url());
+    });
+    await signIn(tablet, 'technician');
+    const first = plan.strips.find((s) => s.label === 'Strip 1')!;
+    await tablet.goto(`/strips/${first.id}/test`);
+    await acknowledgeSafety(tablet);
+    await tablet.getByRole('button', { name: 'Scan a label' }).click();
+    const scanner = tablet.getByRole('dialog', { name: 'Open a strip by its label' });
+    await expect(scanner).toBeVisible();
+    await tablet.screenshot({ path: 'test-results/labels-scanner.png' });
+    await expect(tablet).toHaveURL(new RegExp(`/strips/${target.id}/test$`));
+    await expect(tablet.getByRole('heading', { name: 'Strip 7 — testing' })).toBeVisible();
+    await expect(scanner).toBeHidden();
+    // The reader's wasm came from our own server, nothing from elsewhere.
+    expect(outside).toEqual([]);
+    await context.close();
+  } finally {
+    await browser.close();
+  }
+});
+
+test('without a camera the scanner says so, and a typed item tag opens the strip the item is on', async ({ page }) => {
+  await signIn(page, 'technician');
+  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
+  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
+  const plan = (await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(page, 'GET', `/api/venues/${hall}`)).body;
+  const strip9 = plan.strips.find((s) => s.label === 'Strip 9')!;
+  const tag = strip9.positions.find((p) => p.equipment)!.equipment!.assetTag;
+
+  await page.goto(`/strips/${plan.strips[0]!.id}/test`);
+  await acknowledgeSafety(page);
+  await page.getByRole('button', { name: 'Scan a label' }).click();
+  const scanner = page.getByRole('dialog', { name: 'Open a strip by its label' });
+  // This browser has no camera and was given no permission: a sentence, not a blank picture.
+  await expect(scanner.getByText(/No camera was found|The camera is blocked/)).toBeVisible();
+  await page.screenshot({ path: 'test-results/labels-no-camera.png' });
+  await scanner.getByLabel('Or type the asset tag').fill('no such tag!');
+  await scanner.getByRole('button', { name: 'Open' }).click();
+  await expect(scanner.getByText('Type an asset tag such as FC-014, or the link on a label.')).toBeVisible();
+  await scanner.getByLabel('Or type the asset tag').fill(tag.toLowerCase());
+  await scanner.getByRole('button', { name: 'Open' }).click();
+  await expect(page).toHaveURL(new RegExp(`/strips/${strip9.id}/test$`));
+  await expect(page.getByRole('heading', { name: 'Strip 9 — testing' })).toBeVisible();
+});
