@@ -110,3 +110,40 @@ test('without a camera the scanner says so, and a typed item tag opens the strip
   await expect(page).toHaveURL(new RegExp(`/strips/${strip9.id}/test$`));
   await expect(page.getByRole('heading', { name: 'Strip 9 — testing' })).toBeVisible();
 });
+
+test('on the register a known tag opens its item and a new one is put in the form to register it', async ({ page }) => {
+  await signIn(page, 'admin');
+  const register = (await apiAs<{ id: string; assetTag: string; kind: string }[]>(page, 'GET', '/api/equipment?kind=reel')).body;
+  const reel = register[0]!;
+  await page.goto('/equipment');
+  await expect(page.getByRole('link', { name: 'Print labels' })).toHaveAttribute('href', '/api/equipment/labels.pdf');
+  await page.getByRole('button', { name: 'Scan a label' }).click();
+  const scanner = page.getByRole('dialog', { name: 'Find an item by its label' });
+  await scanner.getByLabel('Or type the asset tag').fill('new-777');
+  await scanner.getByRole('button', { name: 'Open' }).click();
+  await expect(scanner).toBeHidden();
+  await expect(page.getByText('No item has the tag NEW-777 yet: it is filled in below to register it.')).toBeVisible();
+  await expect(page.getByLabel('Asset tag')).toHaveValue('NEW-777');
+  // The form's kind is next to choose (by its form: the register's filter has a "Kind" too).
+  await expect(page.locator('form select[name="kind"]')).toBeFocused();
+  await page.screenshot({ path: 'test-results/labels-register.png' });
+
+  await page.getByRole('button', { name: 'Scan a label' }).click();
+  await scanner.getByLabel('Or type the asset tag').fill(`${test.info().project.use.baseURL}/t/${encodeURIComponent(reel.assetTag)}`);
+  await scanner.getByRole('button', { name: 'Open' }).click();
+  await expect(page).toHaveURL(new RegExp(`/equipment/${reel.id}$`));
+});
+
+test('a label’s link opened by any camera app: the strip’s testing screen, or the strip its item is on', async ({ page }) => {
+  await signIn(page, 'technician');
+  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
+  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
+  const plan = (await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(page, 'GET', `/api/venues/${hall}`)).body;
+  const strip4 = plan.strips.find((s) => s.label === 'Strip 4')!;
+  await page.goto(`/s/${strip4.id}`);
+  await expect(page).toHaveURL(new RegExp(`/strips/${strip4.id}/test$`));
+  const tag = strip4.positions.find((p) => p.equipment)!.equipment!.assetTag;
+  await page.goto('/');
+  await page.goto(`/t/${encodeURIComponent(tag)}`);
+  await expect(page).toHaveURL(new RegExp(`/strips/${strip4.id}/test$`));
+});

@@ -7,7 +7,7 @@ import { qrPng } from './qr-png';
 export interface Label {
   /** The strip's name or the item's asset tag: the largest text on the label. */
   title: string;
-  /** Two short lines at most: the venue and zone of a strip, the kind and description of an item. */
+  /** Short lines, wrapped: the venue and zone of a strip, the kind and description of an item. */
   lines: string[];
   /** What a scan opens, said in small print. */
   caption: string;
@@ -54,16 +54,27 @@ function drawLabel(pen: Pen, label: Label, png: Buffer, x: number, y: number) {
   pen.doc.image(png, x + pad, y + pad, { width: qr, height: qr });
   const tx = x + pad + qr + 2.5 * MM;
   const tw = x + LABEL_GRID.widthMm * MM - pad - tx;
-  const titleStyle = { size: 12, weight: 700 as const, color: COLOURS.ink };
-  const titleLines = pen.wrap(label.title, tw, titleStyle).slice(0, 2);
+  // The title is printed whole (a tag is typed from it): smaller type for a long one.
+  let titleStyle = { size: 12, weight: 700 as const, color: COLOURS.ink };
+  let titleLines = pen.wrap(label.title, tw, titleStyle);
+  for (const size of [10, 8]) {
+    if (titleLines.length <= 2) break;
+    titleStyle = { ...titleStyle, size };
+    titleLines = pen.wrap(label.title, tw, titleStyle);
+  }
   let ty = y + pad + 1;
   for (const l of titleLines) {
     pen.line(l, tx, ty, titleStyle, { width: tw });
-    ty += 14;
+    ty += titleStyle.size * 1.17;
   }
   ty += 2;
-  for (const text of label.lines.slice(0, 2)) {
-    pen.line(text, tx, ty, { size: 8, weight: 500, color: COLOURS.soft }, { width: tw });
+  // The smaller lines wrap, the first to two lines at most so the next still shows (a strip's zone).
+  const small = { size: 8, weight: 500 as const, color: COLOURS.soft };
+  const room = Math.max(1, 4 - titleLines.length);
+  const clip = (lines: string[], n: number) => (lines.length <= n ? lines : [...lines.slice(0, n - 1), `${lines[n - 1]}…`]);
+  const wrapped = clip(label.lines.flatMap((text, i) => clip(pen.wrap(text, tw, small), i === 0 ? 2 : room)), room);
+  for (const text of wrapped) {
+    pen.line(text, tx, ty, small, { width: tw });
     ty += 10.5;
   }
   pen.line(label.caption, tx, y + h - pad - 7, { size: 6.5, color: COLOURS.faint }, { width: tw });
