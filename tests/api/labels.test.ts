@@ -130,6 +130,17 @@ describe('GET /api/equipment/labels.pdf', () => {
     for (const c of codes) expect(wordsBeside(c, text)).toContain('Reel');
   });
 
+  test('a tag of the longest kind the register takes (40 characters) is printed whole, and its code reads back', async () => {
+    const ada = await t.agentFor(DEMO.admin);
+    const tag = 'LONG-TAG/0123456789-0123456789-012345678';
+    expect(tag).toHaveLength(40);
+    expect((await ada.post('/api/equipment').send({ assetTag: tag, kind: 'reel', lengthM: 20 })).status).toBe(201);
+    const { codes, text } = await sheetOf(ada, `/api/equipment/labels.pdf?q=${encodeURIComponent('LONG-TAG/')}`);
+    expect(codes.map((c) => c.text)).toEqual([`${ORIGIN}/t/LONG-TAG%2F0123456789-0123456789-012345678`]);
+    // Wrapped over lines, but every character there in order.
+    expect(wordsBeside(codes[0]!, text).replace(/\s+/g, '')).toContain(tag);
+  });
+
   test('nothing matching is a 422 that says so; technicians and organisers may not print the register', async () => {
     const ada = await t.agentFor(DEMO.admin);
     const none = await ada.get('/api/equipment/labels.pdf?q=NO-SUCH-TAG-ANYWHERE');
