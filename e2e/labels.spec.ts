@@ -147,3 +147,17 @@ test('a label’s link opened by any camera app: the strip’s testing screen, o
   await page.goto(`/t/${encodeURIComponent(tag)}`);
   await expect(page).toHaveURL(new RegExp(`/strips/${strip4.id}/test$`));
 });
+
+test('the venue page offers the label sheet to its technician, not to the organiser', async ({ page, browser }) => {
+  await signIn(page, 'technician');
+  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
+  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
+  await page.goto(`/venues/${hall}`);
+  const link = page.getByRole('navigation', { name: 'Venue pages' }).getByRole('link', { name: 'Print labels' });
+  await expect(link).toHaveAttribute('href', `/api/venues/${hall}/labels.pdf`);
+  const organiser = await (await browser.newContext()).newPage();
+  await signIn(organiser, 'organiser');
+  await organiser.goto(`/venues/${hall}`);
+  await expect(organiser.getByRole('navigation', { name: 'Venue pages' }).getByRole('link', { name: 'Certificates' })).toBeVisible();
+  await expect(organiser.getByRole('link', { name: 'Print labels' })).toHaveCount(0);
+});
