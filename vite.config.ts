@@ -36,7 +36,8 @@ export default defineConfig({
         ],
       },
       workbox: {
-        globPatterns: ['**/*.{js,css,html,svg,png,woff2}'],
+        // wasm: the label scanner's QR reader, so scanning works offline too.
+        globPatterns: ['**/*.{js,css,html,svg,png,woff2,wasm}'],
         navigateFallback: '/index.html',
         navigateFallbackDenylist: [/^\/api\//, /^\/\.well-known\//],
         cleanupOutdatedCaches: true,
@@ -47,7 +48,7 @@ export default defineConfig({
     // Brotli and gzip copies of every text asset, made once at build time at the highest levels, so
     // the server sends a hall's slow Wi-Fi a fraction of the bytes without compressing per request
     // (served by express-static-gzip in server/http/static-files.ts).
-    compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|json|svg|webmanifest|txt)$/, threshold: 1024 }),
+    compression({ algorithms: ['brotliCompress', 'gzip'], include: /\.(html|css|js|mjs|json|svg|webmanifest|txt|wasm)$/, threshold: 1024 }),
   ],
   define: { __APP_VERSION__: JSON.stringify(appVersion) },
   resolve: {

@@ -24,6 +24,7 @@ import { READINGS_BATCH_BODY_LIMIT, readingsRoutes } from './routes/readings.rou
 import { faultsRoutes } from './routes/faults.routes';
 import { boardRoutes } from './routes/board.routes';
 import { equipmentRoutes } from './routes/equipment.routes';
+import { labelsRoutes } from './routes/labels.routes';
 import { planRoutes } from './routes/plan.routes';
 import { profilesRoutes } from './routes/profiles.routes';
 import { readingsTableRoutes } from './routes/readings-table.routes';
@@ -46,7 +47,8 @@ function securityHeaders(appOrigin: string) {
       useDefaults: false,
       directives: {
         defaultSrc: ["'self'"],
-        scriptSrc: ["'self'"],
+        // WebAssembly compiled from our own files only: the label scanner's QR reader (no JS eval).
+        scriptSrc: ["'self'", "'wasm-unsafe-eval'"],
         styleSrc: ["'self'"],
         imgSrc: ["'self'", 'data:', 'blob:'],
         fontSrc: ["'self'"],
@@ -97,6 +99,7 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
     stripsRoutes(deps),
     faultsRoutes(deps),
     boardRoutes(deps),
+    labelsRoutes(deps),
     equipmentRoutes(deps),
     planRoutes(deps),
     profilesRoutes(deps),

@@ -6,13 +6,19 @@ import type { AuthUser } from '../auth/types';
 import type { Db, Tx } from '../db/client';
 import { equipmentRepository, type EquipmentRow } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
-import { csvCell, type SheetLimits } from '../lib/spreadsheet';
+import type { SheetLimits } from '../lib/spreadsheet';
+import { registerCsv } from './equipment-csv';
 import type { WorkerPool } from '../workers/pool';
 import { conflict, unprocessable } from '../lib/app-error';
 import { nowIso } from '../lib/ids';
 import { insertEquipmentItem } from './equipment.service';
 import type { UploadedFile } from '../http/upload';
-import { createEquipmentSchema, updateEquipmentSchema, EQUIPMENT_KIND_LABELS, EQUIPMENT_STATUS_LABELS } from '../../shared/schemas/equipment';
+import {
+  createEquipmentSchema,
+  updateEquipmentSchema,
+  EQUIPMENT_KIND_LABELS,
+  EQUIPMENT_STATUS_LABELS,
+} from '../../shared/schemas/equipment';
 import {
   IMPORT_FIELDS,
   IMPORT_LIMITS,
@@ -85,7 +91,13 @@ async function readRegisterFile(workers: WorkerPool, file: UploadedFile): Promis
   const [headers, ...rest] = sheet.rows;
   const data = rest.map((cells, i) => ({ row: sheet.rowNumbers[i + 1]!, cells: cells.map(unguardCell) }));
   if (data.length === 0) throw unprocessable('no-rows', 'The file has a header row but no items under it.');
-  return { fileName: file.originalname, format: sheet.format, headerRow: sheet.rowNumbers[0]!, headers: headers!.map((h) => h.trim()), data };
+  return {
+    fileName: file.originalname,
+    format: sheet.format,
+    headerRow: sheet.rowNumbers[0]!,
+    headers: headers!.map((h) => h.trim()),
+    data,
+  };
 }
 
 function readRow(cells: string[], mapping: ImportMapping, headers: string[]) {
@@ -101,7 +113,11 @@ function readRow(cells: string[], mapping: ImportMapping, headers: string[]) {
   if (kindText) {
     const kind = parseKind(kindText);
     if (kind) values.kind = kind;
-    else errors.push({ field: 'kind', message: `Unknown kind “${kindText}”; use one of: ${Object.values(EQUIPMENT_KIND_LABELS).join(', ')}.` });
+    else
+      errors.push({
+        field: 'kind',
+        message: `Unknown kind “${kindText}”; use one of: ${Object.values(EQUIPMENT_KIND_LABELS).join(', ')}.`,
+      });
   }
   if (cell('description')) values.description = cell('description');
   const lengthText = cell('length');
@@ -130,7 +146,11 @@ function readRow(cells: string[], mapping: ImportMapping, headers: string[]) {
   if (statusText) {
     const status = parseStatus(statusText);
     if (status) values.status = status;
-    else errors.push({ field: 'status', message: `Unknown status “${statusText}”; use one of: ${Object.values(EQUIPMENT_STATUS_LABELS).join(', ')}.` });
+    else
+      errors.push({
+        field: 'status',
+        message: `Unknown status “${statusText}”; use one of: ${Object.values(EQUIPMENT_STATUS_LABELS).join(', ')}.`,
+      });
   }
   if (cell('notes')) values.notes = cell('notes');
   return { values, errors };
@@ -175,7 +195,10 @@ function plan(db: Db | Tx, user: AuthUser, file: ReadFile, mapping: ImportMappin
       ...extra,
     });
     if (!tag) {
-      errors.push({ field: 'assetTag', message: mapping.assetTag == null ? 'No column is mapped to the asset tag.' : 'The asset tag is empty.' });
+      errors.push({
+        field: 'assetTag',
+        message: mapping.assetTag == null ? 'No column is mapped to the asset tag.' : 'The asset tag is empty.',
+      });
       return result('error', 'Not imported: no asset tag.');
     }
     const others = rowsOfTag.get(tag)!.filter((n) => n !== r.row);
@@ -214,18 +237,58 @@ function summaryOf(rows: ImportRowResult[]): Record<ImportAction, number> {
   return s;
 }
 
-const EXPORT_COLUMNS: [string, (e: EquipmentRow) => unknown][] = [
-  ['Asset tag', (e) => e.assetTag],
-  ['Kind', (e) => e.kind],
-  ['Description', (e) => e.description],
-  ['Length (m)', (e) => e.lengthM],
-  ['Conductor (mm²)', (e) => e.conductorMm2],
-  ['AWG', (e) => e.awg],
-  ['Cable type', (e) => e.cableType],
-  ['Velocity factor', (e) => e.velocityFactor],
-  ['Status', (e) => e.status],
-  ['Notes', (e) => e.notes],
-];
+/** Writes the import: the good rows go in together or not at all (one transaction). */
+function writeImport(db: Db, user: AuthUser, file: ReadFile, mapping: ImportMapping, mode: ImportMode, report: ImportReport) {
+  const at = nowIso();
+  try {
+    db.transaction((tx) => {
+      const rows = plan(tx, user, file, mapping, mode);
+      const repo = equipmentRepository(tx);
+      for (const r of rows) {
+        if (r.action === 'create') {
+          const v = createEquipmentSchema.parse(r.values);
+          const id = insertEquipmentItem(tx, user, v, { createdAt: at, auditDetail: { via: 'import', file: file.fileName, row: r.row } });
+          report.created.push({ row: r.row, assetTag: v.assetTag, id });
+        } else if (r.action === 'update') {
+          const item = repo.findByTag(user.orgId, r.assetTag!)!;
+          const patch = Object.fromEntries(Object.entries(r.changes!).map(([k, c]) => [k, c.to]));
+          if (!repo.updateIfVersion(item.id, item.version, patch)) throw new Error(`version moved under the import for ${item.assetTag}`);
+          recordAudit(tx, user, 'equipment.updated', 'equipment', item.id, {
+            assetTag: item.assetTag,
+            changed: r.changes,
+            via: 'import',
+            file: file.fileName,
+            row: r.row,
+          });
+          report.updated.push({ row: r.row, assetTag: item.assetTag, id: item.id, changes: r.changes! });
+        } else {
+          const reason = r.action === 'error' ? r.errors.map((e) => e.message).join(' ') : r.message;
+          report.skipped.push({ row: r.row, assetTag: r.assetTag, reason });
+        }
+      }
+      if (rows.every((r) => r.action === 'error')) {
+        throw unprocessable('nothing-to-import', 'No row of the file can be imported; fix the rows marked in the preview.', { report });
+      }
+      recordAudit(tx, user, 'equipment.imported', 'equipment-register', user.orgId, {
+        file: file.fileName,
+        mode,
+        created: report.created.length,
+        updated: report.updated.length,
+        skipped: report.skipped.length,
+      });
+    });
+  } catch (err) {
+    // A constraint that fails while writing (e.g. the same tag added meanwhile) undoes the whole import.
+    const code = (err as { code?: unknown }).code;
+    if (typeof code === 'string' && code.startsWith('SQLITE_CONSTRAINT')) {
+      throw conflict(
+        'import-failed',
+        `The import was not written, nothing was changed: ${(err as Error).message}. Preview the file again and retry.`,
+      );
+    }
+    throw err;
+  }
+}
 
 export function equipmentImportService(deps: AppDeps) {
   return {
@@ -263,51 +326,13 @@ export function equipmentImportService(deps: AppDeps) {
         if (!(IMPORT_FIELDS as readonly string[]).includes(f)) throw unprocessable('bad-mapping', `Unknown field ${f} in the mapping.`);
       }
       const report: ImportReport = { mode: options.mode, created: [], updated: [], skipped: [] };
-      const at = nowIso();
-      // One transaction: the good rows go in together or not at all.
-      try {
-        deps.db.transaction((tx) => {
-        const rows = plan(tx, user, file, mapping, options.mode);
-        const repo = equipmentRepository(tx);
-        for (const r of rows) {
-          if (r.action === 'create') {
-            const v = createEquipmentSchema.parse(r.values);
-            const id = insertEquipmentItem(tx, user, v, { createdAt: at, auditDetail: { via: 'import', file: file.fileName, row: r.row } });
-            report.created.push({ row: r.row, assetTag: v.assetTag, id });
-          } else if (r.action === 'update') {
-            const item = repo.findByTag(user.orgId, r.assetTag!)!;
-            const patch = Object.fromEntries(Object.entries(r.changes!).map(([k, c]) => [k, c.to]));
-            if (!repo.updateIfVersion(item.id, item.version, patch)) throw new Error(`version moved under the import for ${item.assetTag}`);
-            recordAudit(tx, user, 'equipment.updated', 'equipment', item.id, { assetTag: item.assetTag, changed: r.changes, via: 'import', file: file.fileName, row: r.row });
-            report.updated.push({ row: r.row, assetTag: item.assetTag, id: item.id, changes: r.changes! });
-          } else {
-            const reason = r.action === 'error' ? r.errors.map((e) => e.message).join(' ') : r.message;
-            report.skipped.push({ row: r.row, assetTag: r.assetTag, reason });
-          }
-        }
-        if (rows.every((r) => r.action === 'error')) {
-          throw unprocessable('nothing-to-import', 'No row of the file can be imported; fix the rows marked in the preview.', { report });
-        }
-        recordAudit(tx, user, 'equipment.imported', 'equipment-register', user.orgId, { file: file.fileName, mode: options.mode, created: report.created.length, updated: report.updated.length, skipped: report.skipped.length });
-        });
-      } catch (err) {
-        // A constraint that fails while writing (e.g. the same tag added meanwhile) undoes the whole import.
-        const code = (err as { code?: unknown }).code;
-        if (typeof code === 'string' && code.startsWith('SQLITE_CONSTRAINT')) {
-          throw conflict('import-failed', `The import was not written, nothing was changed: ${(err as Error).message}. Preview the file again and retry.`);
-        }
-        throw err;
-      }
+      writeImport(deps.db, user, file, mapping, options.mode, report);
       return report;
     },
 
-    /** The register as CSV; cells a spreadsheet would run as a formula are guarded (see csvCell). */
+    /** The register as CSV, in the columns the import reads back. */
     csv(user: AuthUser) {
-      const items = equipmentRepository(deps.db).list(user.orgId, {});
-      const lines = [EXPORT_COLUMNS.map(([h]) => csvCell(h)).join(',')];
-      for (const e of items) lines.push(EXPORT_COLUMNS.map(([, get]) => csvCell(get(e))).join(','));
-      // The BOM lets spreadsheet programs read the file as UTF-8 (mm², names with accents).
-      return { fileName: 'equipment-register.csv', body: `\ufeff${lines.join('\r\n')}\r\n` };
+      return registerCsv(equipmentRepository(deps.db).list(user.orgId, {}));
     },
   };
 }

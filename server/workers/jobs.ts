@@ -1,5 +1,5 @@
 // The CPU-heavy work of a request, as plain functions of their inputs: trace analysis, spreadsheet
-// reading and certificate rendering. They run on the worker threads (task-worker.ts) so a large
+// reading, certificate and label sheet rendering. They run on the worker threads (task-worker.ts) so a large
 // trace or a 120-strip certificate never holds up the readings; each throws an AppError for what a
 // person must be told, which the pool carries back to the request.
 import { FaultLocationError, type FaultLocationAnswer } from '../../shared/domain/fault-location';
@@ -12,6 +12,7 @@ import type { TraceAnalysisDto } from '../../shared/schemas/attachments';
 import { AppError, unprocessable } from '../lib/app-error';
 import type { Sheet, SheetLimits } from '../lib/spreadsheet';
 import type { CertificateDocument } from '../pdf/certificate-pdf';
+import type { LabelSheetDocument } from '../pdf/label-sheet';
 
 function asUnprocessable(err: unknown): unknown {
   if (err instanceof FaultLocationError) {
@@ -141,6 +142,10 @@ export const jobs = {
   renderCertificatePdf: async (a: CertificateDocument): Promise<Uint8Array> => {
     const { renderCertificatePdf } = await import('../pdf/certificate-pdf');
     return renderCertificatePdf(a);
+  },
+  renderLabelSheet: async (a: LabelSheetDocument): Promise<Uint8Array> => {
+    const { renderLabelSheet } = await import('../pdf/label-sheet');
+    return renderLabelSheet(a);
   },
 };
 export type Jobs = typeof jobs;

@@ -30,6 +30,8 @@ const FaultLocator = lazy(() => import('./routes/tools/fault-locator'));
 const SignOff = lazy(() => import('./routes/venues/sign-off'));
 const Certificates = lazy(() => import('./routes/venues/certificates'));
 const Verify = lazy(() => import('./routes/verify/verify'));
+const ScannedTag = lazy(() => import('./routes/labels/scanned-tag'));
+const ScannedStrip = lazy(() => import('./routes/labels/scanned-strip'));
 
 const page = (node: ReactNode) => <Suspense fallback={<Loading />}>{node}</Suspense>;
 
@@ -49,6 +51,8 @@ export const router = createBrowserRouter([
       { path: paths.venue(), element: page(<Venue />), errorElement: <RouteErrorBoundary /> },
       { path: paths.venueBoard(), element: page(<VenueBoard />), errorElement: <RouteErrorBoundary /> },
       { path: paths.stripTest(), element: page(<StripTest />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.scannedStrip, element: page(<ScannedStrip />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.scannedTag, element: page(<ScannedTag />), errorElement: <RouteErrorBoundary /> },
       { path: paths.onThisTablet, element: page(<OnThisTablet />), errorElement: <RouteErrorBoundary /> },
       { path: paths.fault(), element: page(<Fault />), errorElement: <RouteErrorBoundary /> },
       { path: paths.equipment, element: page(<EquipmentRegister />), errorElement: <RouteErrorBoundary /> },

@@ -1,6 +1,7 @@
 // Every client route path in one place.
 import { fullPath } from '@shared/contracts/contract';
 import { equipmentImportContracts } from '@shared/contracts/equipment-import';
+import { ITEM_LABEL_PREFIX, STRIP_LABEL_PREFIX } from '@shared/domain/label-codes';
 
 export const paths = {
   home: '/',
@@ -20,6 +21,10 @@ export const paths = {
   stripTest: (stripId = ':stripId') => `/strips/${stripId}/test`,
   /** Readings on this tablet: waiting to send, or needing the technician. */
   onThisTablet: '/on-this-tablet',
+  /** What a strip's printed label links to (shared/domain/label-codes.ts): it opens the testing screen. */
+  scannedStrip: `${STRIP_LABEL_PREFIX}:stripId`,
+  /** What an item's printed label links to: the strip it sits on, or the item. */
+  scannedTag: `${ITEM_LABEL_PREFIX}:tag`,
   fault: (faultId = ':faultId') => `/faults/${faultId}`,
   equipment: '/equipment',
   equipmentItem: (equipmentId = ':equipmentId') => `/equipment/${equipmentId}`,

@@ -41,6 +41,8 @@ interface Ctx {
   readingId: string;
   repairId: string;
   equipmentId: string;
+  /** That item's asset tag, for GET /api/tags/:tag. */
+  assetTag: string;
   profileId: string;
   profileCopyId: string;
   attachmentId: string;
@@ -188,6 +190,11 @@ function rows(): Row[] {
     { route: 'POST /api/equipment/import/preview', path: () => '/api/equipment/import/preview', attach: () => ({ field: 'file', data: Buffer.from('Asset tag,Kind,Length (m)\nIMP-001,Floor cable,12\n'), filename: 'register.csv' }), expect: [401, 403, 403, 200, 200, 403, 200] },
     { route: 'POST /api/equipment/import', path: () => '/api/equipment/import', attach: (_c, a) => ({ field: 'file', data: Buffer.from(`Asset tag,Kind,Length (m)\nIMP-${ACTORS.indexOf(a)},Floor cable,12\n`), filename: 'register.csv', fields: { mapping: JSON.stringify({ assetTag: 0, kind: 1, length: 2 }) } }), expect: [401, 403, 403, 200, 200, 403, 200] },
     { route: 'GET /api/equipment.csv', path: () => '/api/equipment.csv', expect: SIGNED_IN(200) },
+    // Labels: who may see the venue, but not the organiser; the register's sheet for its keepers
+    // (another organisation's director prints their own register); a tag of another organisation is not found.
+    { route: 'GET /api/venues/:id/labels.pdf', path: (c) => `/api/venues/${c.hall}/labels.pdf`, expect: [401, 200, 403, 200, 404, 403, 200] },
+    { route: 'GET /api/equipment/labels.pdf', path: (c, a) => `/api/equipment/labels.pdf?q=${a === 'otherOrgDirector' ? 'HB-001' : c.assetTag}`, expect: [401, 403, 403, 200, 200, 403, 200] },
+    { route: 'GET /api/tags/:tag', path: (c) => `/api/tags/${encodeURIComponent(c.assetTag)}`, expect: [401, 200, 200, 200, 404, 200, 200] },
     { route: 'POST /api/fault-location', path: () => '/api/fault-location', body: () => ({ method: 'tdr', roundTripNs: 100, velocityFactor: 0.66 }), expect: SIGNED_IN(200) },
     { route: 'POST /api/waveforms/analyse', path: () => '/api/waveforms/analyse', text: (c) => ({ type: 'text/csv', data: c.trace }), expect: SIGNED_IN(200) },
     { route: 'GET /api/venues/:id/readiness', path: (c) => `/api/venues/${c.hall}/readiness`, expect: READ_VENUE() },
@@ -260,7 +267,7 @@ beforeAll(async () => {
   const photo = await sam.post(`/api/faults/${openFault.id}/attachments`).attach('file', png, 'short.png').expect(201);
   const trace = syntheticTdrTrace({ roundTripNs: 60 }).csv;
   const traceUp = await sam.post(`/api/faults/${openFault.id}/attachments`).attach('file', Buffer.from(trace), 'scope.csv').expect(201);
-  const register = (await marco.get('/api/equipment')).body as { id: string; kind: string }[];
+  const register = (await marco.get('/api/equipment')).body as { id: string; kind: string; assetTag: string }[];
   const profiles = (await marco.get('/api/profiles')).body as { id: string }[];
   const events = (await marco.get('/api/events')).body as { id: string }[];
   const copy = await agents.admin.post(`/api/profiles/${profiles[0].id}/copy`).send({ name: 'Club rules' }).expect(201);
@@ -297,6 +304,7 @@ beforeAll(async () => {
     readingId: reading.body.id,
     repairId: repair.body.repair?.id ?? repair.body.id,
     equipmentId: register.find((e) => e.kind === 'floor-cable')!.id,
+    assetTag: register.find((e) => e.kind === 'floor-cable')!.assetTag,
     profileId: profiles[0].id,
     profileCopyId: copy.body.id,
     attachmentId: photo.body.id,

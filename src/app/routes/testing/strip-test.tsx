@@ -1,6 +1,6 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { FAULT_SYMBOLS, STRIP_SYMBOLS } from '@shared/domain/symbols';
-import { Link, useParams, useSearchParams } from 'react-router';
+import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
 import { formatLength } from '@shared/domain/units';
 import { FAULT_KIND_LABELS, FAULT_STATUS_LABELS } from '@shared/schemas/faults';
 import { useMe } from '@/features/auth/api/get-me';
@@ -18,6 +18,8 @@ import { newReadingId } from '@/features/offline/utils/reading-id';
 import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
+import { LabelScanner } from '@/features/labels/components/label-scanner';
+import { stripForCode } from '@/features/labels/utils/strip-for-code';
 import { readLeadNull, safetyAcknowledged, saveLeadNull } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
@@ -49,6 +51,8 @@ export default function StripTestPage() {
   // list of unclosed faults, and the screen must still say so.
   const [retestFault, setRetestFault] = useState<{ id: string; positionId: string; since: string | null } | null>(null);
 
+  const navigate = useNavigate();
+  const [scanning, setScanning] = useState(false);
   const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
   const data = strip.data;
   const flat = useMemo(() => (data ? data.positions.flatMap((p) => p.steps.map((s) => ({ step: s, position: p }))) : []), [data]);
@@ -219,8 +223,30 @@ export default function StripTestPage() {
     />
   );
 
+  // Another strip by its label, or by an item's label (the strip that item sits on, in this venue first).
+  const scanButton = (
+    <button type="button" onClick={() => setScanning(true)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 font-medium">
+      Scan a label
+    </button>
+  );
+  const scanner = scanning && (
+    <LabelScanner
+      title="Open a strip by its label"
+      hint="Point the camera at the code on a strip’s label, or on the label of an item on it."
+      onClose={() => setScanning(false)}
+      onCode={async (code) => {
+        const found = await stripForCode(code, data.venueId);
+        if ('message' in found) return found.message;
+        setScanning(false);
+        navigate(paths.stripTest(found.stripId));
+        return undefined;
+      }}
+    />
+  );
+
   return (
     <>
+      {scanner}
       {canWrite && <SafetyNotice onAcknowledged={() => setReady(true)} />}
       <StripBar label={data.label} done={measuredHere} total={data.counts.total} waiting={waitingHere} sync={syncShown}>
         {viewToggle}
@@ -238,6 +264,7 @@ export default function StripTestPage() {
               </Link>
             </span>
             <span className="ml-auto flex flex-wrap items-center gap-2">
+              {scanButton}
               {leadNull}
               {data.previousStripId && (
                 <Link to={paths.stripTest(data.previousStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium">
@@ -282,6 +309,7 @@ export default function StripTestPage() {
         }
         actions={
           <>
+            {scanButton}
             {data.previousStripId && (
               <Link to={paths.stripTest(data.previousStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
                 ← Previous strip

@@ -21,6 +21,7 @@ import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
+import { venueLabelsUrl } from '@/features/labels/api/label-sheets';
 
 const STATUS = { planning: ['ring', 'idle', 'Planning'], testing: ['half', 'brand', 'Testing'], 'signed-off': ['circle', 'pass', 'Signed off'] } as const;
 
@@ -108,6 +109,9 @@ export default function VenuePlanPage() {
             <Link className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" to={paths.venueReadings(venueId)}>Readings</Link>
             {me.data?.role !== 'technician' && (
               <Link className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" to={paths.venueAudit(venueId)}>Audit trail</Link>
+            )}
+            {me.data?.role !== 'organiser' && (
+              <a className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" href={venueLabelsUrl(venueId)} target="_blank" rel="noreferrer">Print labels</a>
             )}
           </>
         }

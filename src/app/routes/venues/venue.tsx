@@ -9,6 +9,7 @@ import { VENUE_STATUS_LABELS } from '@/features/board/utils/strip-status';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
+import { venueLabelsUrl } from '@/features/labels/api/label-sheets';
 
 const linkClass = 'inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper';
 
@@ -41,6 +42,12 @@ export default function VenuePage() {
               <Link to={paths.venuePlan(venue.id)} className={linkClass}>
                 Plan
               </Link>
+            )}
+            {/* Labels for the strips and their items: those who plan, keep the register or test here. */}
+            {role !== 'organiser' && (
+              <a href={venueLabelsUrl(venue.id)} target="_blank" rel="noreferrer" className={linkClass}>
+                Print labels
+              </a>
             )}
             {role !== 'technician' && (
               <>

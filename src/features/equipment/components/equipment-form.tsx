@@ -1,3 +1,4 @@
+import { useEffect } from 'react';
 import { useForm } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { EQUIPMENT_KINDS } from '@shared/domain/limits';
@@ -15,11 +16,17 @@ import { saveThenReset } from '@/lib/form-errors';
 import { numberOrNull } from './labels';
 
 /** Register a new item. Field errors from the server (e.g. a duplicate tag) land on their field. */
-export function EquipmentCreateForm({ onCreate }: { onCreate: (v: CreateEquipmentInput) => Promise<unknown> }) {
+/** `scannedTag`: a tag read from a label that is not in the register yet, put in the form to register it. */
+export function EquipmentCreateForm({ onCreate, scannedTag }: { onCreate: (v: CreateEquipmentInput) => Promise<unknown>; scannedTag?: string }) {
   const form = useForm<CreateEquipmentInput>({
     resolver: zodResolver(createEquipmentSchema),
     defaultValues: { assetTag: '', kind: 'floor-cable', description: '', lengthM: null, conductorMm2: null, cableType: null, status: 'in-service' },
   });
+  useEffect(() => {
+    if (!scannedTag) return;
+    form.setValue('assetTag', scannedTag, { shouldDirty: true });
+    form.setFocus('kind');
+  }, [scannedTag, form]);
   const errors = form.formState.errors;
   const root = errors.root?.message;
   return (
