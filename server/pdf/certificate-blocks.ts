@@ -119,3 +119,50 @@ export function dismissedTable(w: Writer, faults: DismissedFault[], withStrip = 
   if (withStrip) columns.unshift({ header: 'Strip', width: 52, value: (f) => f.stripLabel, style: () => ({ weight: 500 }) });
   w.table(faults, columns, { size: 7.5, headerSize: 6, padY: 2.6 });
 }
+
+// The strip's equipment by kind, the scoring apparatus first, in the order a strip is wired.
+const KIND_ORDER = ['apparatus', 'floor-cable', 'reel', 'piste', 'body-wire', 'other'];
+const KIND_WORDS: Record<string, [string, string]> = {
+  apparatus: ['Scoring apparatus', 'Scoring apparatus'],
+  'floor-cable': ['Floor cable', 'Floor cables'],
+  reel: ['Reel', 'Reels'],
+  piste: ['Piste', 'Pistes'],
+  'body-wire': ['Body wire', 'Body wires'],
+  other: ['Other item', 'Other items'],
+};
+type Item = CertificatePayload['strips'][number]['items'][number];
+
+function byKind(items: Item[]): [string, Item[]][] {
+  const rank = (k: string) => (KIND_ORDER.includes(k) ? KIND_ORDER.indexOf(k) : KIND_ORDER.length);
+  const kinds = [...new Set(items.map((i) => i.kind))].sort((a, b) => rank(a) - rank(b));
+  return kinds.map((k) => {
+    const list = items.filter((i) => i.kind === k);
+    const [one, many] = KIND_WORDS[k] ?? [k, k];
+    return [list.length === 1 ? one : many, list];
+  });
+}
+
+/** One item in words: its tag, the position when the kind alone does not say it, and "not measured". */
+function itemWords(i: Item, kindWord: string) {
+  const where = i.position.trim().toLowerCase() === kindWord.toLowerCase() ? '' : ` (${i.position})`;
+  return `${i.assetTag ?? 'no asset tag recorded'}${where}${i.measured === false ? ', not measured' : ''}`;
+}
+
+/** The strip certificate's facts: one line per kind, the scoring apparatus first. */
+export function equipmentFacts(items: Item[]): [string, string][] {
+  return byKind(items).map(([word, list]) => [word, list.map((i) => itemWords(i, word)).join(', ')]);
+}
+
+/**
+ * The venue certificate's cell, in the column order its header names: the scoring apparatus, the
+ * floor cables, the reels, then the piste and any other item where the strip has one
+ * ("APP-001 · FC-001, FC-002 · RL-001, RL-002"). A dash holds the place of a kind the strip lacks.
+ */
+export function equipmentSummary(items: Item[]): string {
+  const tags = (kind: string) => items.filter((i) => i.kind === kind).map((i) => i.assetTag ?? 'no tag');
+  const slot = (kind: string) => tags(kind).join(', ') || '—';
+  const rest = byKind(items.filter((i) => !['apparatus', 'floor-cable', 'reel', 'piste'].includes(i.kind))).map(
+    ([word, list]) => `${word.toLowerCase()} ${list.map((i) => i.assetTag ?? 'no tag').join(', ')}`,
+  );
+  return [slot('apparatus'), slot('floor-cable'), slot('reel'), ...(tags('piste').length ? [slot('piste')] : []), ...rest].join(' · ');
+}

@@ -8,7 +8,7 @@ import { stepsForKind } from '../../shared/domain/checklist';
 import type { TestKind } from '../../shared/domain/limits';
 import { legendText } from '../../shared/domain/symbols';
 import { timeUtc, formatDateRange, testLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
-import { valueText, readingColumns, commonFacts, limitsTable, leadNullsTable, dismissedTable } from './certificate-blocks';
+import { valueText, readingColumns, commonFacts, limitsTable, leadNullsTable, dismissedTable, equipmentFacts, equipmentSummary } from './certificate-blocks';
 
 export interface CertificateDocument {
   payload: CertificatePayload;
@@ -44,11 +44,11 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
   w.section('Strips certified');
   const stripNo = new Map(p.related.stripCertificates.map((s) => [s.stripId, s.number]));
   w.table(p.strips, [
-    { header: 'Strip', width: 58, value: (s) => s.label, style: () => ({ weight: 500 }) },
-    { header: 'Zone', width: 46, value: (s) => s.zone ?? '—' },
-    { header: 'Items by asset tag', width: 150, value: (s) => s.items.map((i) => i.assetTag ?? i.position).join(', ') },
+    { header: 'Strip', width: 54, value: (s) => s.label, style: () => ({ weight: 500 }) },
+    { header: 'Zone', width: 40, value: (s) => s.zone ?? '—' },
+    { header: 'Scoring apparatus · floor cables · reels · piste', width: 166, value: (s) => equipmentSummary(s.items) },
     { header: 'Readings', width: 46, align: 'right', value: (s) => String(s.readings) },
-    { header: 'Near limit', width: 46, align: 'right', value: (s) => String(s.nearLimit) },
+    { header: 'Near limit', width: 40, align: 'right', value: (s) => String(s.nearLimit) },
     { header: 'Strip certificate', width: 104, value: (s) => stripNo.get(s.id) ?? '—', nowrap: true },
   ]);
 
@@ -197,7 +197,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   w.facts(
     [
       ['Venue', placeOf(p.venue.name, strip.zone)],
-      ['Items by asset tag', strip.items.map((i) => i.assetTag ?? i.position).join(', ')],
+      ...equipmentFacts(strip.items),
       ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
       ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),
       ['Venue certificate', p.related.venueCertificate ?? '—'],

@@ -6,6 +6,7 @@ import { planContracts as c, type VenuePlan } from '../../shared/contracts/plan'
 import { eventsService } from '../services/events.service';
 import { venuePlanService } from '../services/venue-plan.service';
 import { stripPlanService } from '../services/strip-plan.service';
+import { assetTagsService } from '../services/asset-tags.service';
 
 // Events, venues and the venue plan. Plan answers carry ETag = the venue's version; every plan
 // edit needs If-Match with it (412 when someone else changed the plan meanwhile, 428 without).
@@ -14,6 +15,7 @@ export function planRoutes(deps: AppDeps) {
   const events = eventsService(deps);
   const venue = venuePlanService(deps);
   const strip = stripPlanService(deps);
+  const tags = assetTagsService(deps);
   const tagged = (res: Response, plan: VenuePlan) => {
     setVersionTag(res, plan.venue.version);
     return plan;
@@ -28,6 +30,9 @@ export function planRoutes(deps: AppDeps) {
   api.route(c.getPlan, ({ user, params, res }) => tagged(res, venue.plan(user, params.id)));
   api.route(c.updateVenue, ({ user, params, body, req, res }) => tagged(res, venue.updateVenue(user, params.id, ifMatchOf(req), body)));
   api.route(c.addStrips, ({ user, params, body, req, res }) => tagged(res, venue.addStrips(user, params.id, ifMatchOf(req), body)));
+  api.route(c.setAssetTags, ({ user, params, body, req, res }) =>
+    tagged(res, tags.setAssetTags(user, params.id, ifMatchOf(req), body.positions)),
+  );
   api.route(c.setTechnicians, ({ user, params, body, req, res }) =>
     tagged(res, venue.setTechnicians(user, params.id, ifMatchOf(req), body.userIds)),
   );

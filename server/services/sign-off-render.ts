@@ -14,12 +14,14 @@ import {
   newCertificateNumber,
   readingsDigest,
   verifyUrlFor,
+  type CertificateItem,
   type CertificatePayload,
   type CertifiedLeadNull,
   type CertifiedReading,
   type DismissedFault,
 } from '../signing/certificate-record';
 import { leadNullsRepository } from '../db/lead-nulls.repository';
+import { venuesRepository } from '../db/venues.repository';
 import type { Snapshot } from './sign-off-readiness';
 import { temperatureRuleText, type LimitRule } from '../../shared/domain/limits';
 import type { VenueReadiness } from '../../shared/domain/readiness';
@@ -104,20 +106,41 @@ function allocateNumbers(db: Db, year: number, readiness: VenueReadiness) {
 }
 
 type PayloadBase = Omit<CertificatePayload, 'number' | 'kind' | 'exceptions' | 'related' | 'verifyUrl'>;
+type Planned = Map<string, { position: string; kind: string; assetTag: string | null }[]>;
+
+/** Each strip's positions in plan order with the item in each, measured or not (the apparatus is not). */
+function plannedItems(db: Db, stripIds: string[]): Planned {
+  const out: Planned = new Map();
+  for (const { position, equipment } of venuesRepository(db).positionsOf(stripIds)) {
+    const list = out.get(position.stripId) ?? [];
+    list.push({ position: position.name, kind: position.equipmentKind, assetTag: equipment?.assetTag ?? null });
+    out.set(position.stripId, list);
+  }
+  return out;
+}
+
+/** The strip's items: every planned position, marked measured when certified readings name it. */
+function itemsOf(own: CertifiedReading[], planned: ReturnType<Planned['get']>): CertificateItem[] {
+  const key = (position: string, assetTag: string | null) => `${position}|${assetTag}`;
+  const measured = new Map<string, CertificateItem>();
+  for (const r of own) measured.set(key(r.position, r.assetTag), { position: r.position, kind: r.equipmentKind, assetTag: r.assetTag, measured: true });
+  const items = (planned ?? []).map((p) => measured.get(key(p.position, p.assetTag)) ?? { ...p, measured: false });
+  // A certified reading always names a planned position; kept here too should the plan say otherwise.
+  for (const [k, item] of measured) if (!items.some((i) => key(i.position, i.assetTag) === k)) items.push(item);
+  return items;
+}
 
 /** What a certificate says about its readings: strips, items, testers, the digest, the profile. */
-function payloadBase(db: Db, ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<string, string | null>): PayloadBase {
+function payloadBase(db: Db, ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<string, string | null>, planned: Planned): PayloadBase {
   const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
   const times = list.map((r) => r.takenAt).sort();
   const strips = [...new Set(list.map((r) => r.stripId))].map((stripId) => {
     const own = list.filter((r) => r.stripId === stripId);
-    const items = new Map<string, { position: string; kind: string; assetTag: string | null }>();
-    for (const r of own) items.set(`${r.position}|${r.assetTag}`, { position: r.position, kind: r.equipmentKind, assetTag: r.assetTag });
     return {
       id: stripId,
       label: own[0].stripLabel,
       zone: zoneOf.get(stripId) ?? null,
-      items: [...items.values()],
+      items: itemsOf(own, planned.get(stripId)),
       readings: own.length,
       nearLimit: own.filter((r) => r.verdict === 'near-limit').length,
     };
@@ -166,9 +189,10 @@ export function draftCertificates(
 ): Draft[] {
   const { venueNumber, stripNumbers } = allocateNumbers(db, new Date(ctx.signedAt).getUTCFullYear(), readiness);
   const zoneOf = new Map(snap.stripRows.map((s) => [s.id, s.zone]));
+  const planned = plannedItems(db, snap.stripRows.map((s) => s.id));
   const venue: Draft = {
     payload: {
-      ...payloadBase(db, ctx, readings, zoneOf),
+      ...payloadBase(db, ctx, readings, zoneOf, planned),
       number: venueNumber,
       kind: 'venue',
       exceptions: readiness.exceptions,
@@ -182,7 +206,7 @@ export function draftCertificates(
     const own = readings.filter((r) => r.stripId === s.stripId);
     return {
       payload: {
-        ...payloadBase(db, ctx, own, zoneOf),
+        ...payloadBase(db, ctx, own, zoneOf, planned),
         number: s.number,
         kind: 'strip',
         exceptions: [],

@@ -6,15 +6,17 @@ import { planRepository } from '../db/plan.repository';
 import { equipmentRepository } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
 import { attachableItem, editPlan, insertPosition, profileOf, requirePosition, requireStrip } from './plan-edit';
+import { applyAssetTags } from './asset-tags.service';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
 import { DEFAULT_POSITION_TEMPLATE, stepsForKind } from '../../shared/domain/checklist';
 import { findRule, type EquipmentKind } from '../../shared/domain/limits';
 import { EQUIPMENT_KIND_LABELS } from '../../shared/schemas/equipment';
-import type { AddPositionValues, AddStepInput, UpdateStripInput } from '../../shared/schemas/plan';
+import type { AddPositionValues, AddStepInput, UpdateStripValues } from '../../shared/schemas/plan';
 
-function updateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: string | undefined, input: UpdateStripInput) {
+function updateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: string | undefined, body: UpdateStripValues) {
   const strip = requireStrip(deps.db, stripId);
+  const { assetTags, ...input } = body;
   return editPlan(deps, user, strip.venueId, ifMatch, `strip ${strip.label} changed`, (tx, { venue }) => {
     const r = planRepository(tx);
     if (input.label !== undefined && input.label !== strip.label && r.stripByLabel(strip.venueId, input.label)) {
@@ -22,7 +24,10 @@ function updateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: st
         errors: [{ path: 'label', message: `${input.label} is already used in this venue.` }],
       });
     }
-    const patch = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) as UpdateStripInput;
+    const patch = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) as Omit<UpdateStripValues, 'assetTags'>;
+    // The card's asset-tag table goes in the same edit; all its rows are checked first.
+    if (assetTags) applyAssetTags(tx, user, strip.venueId, assetTags, 'assetTags');
+    if (Object.keys(patch).length === 0) return;
     r.updateStrip(stripId, patch);
     if (input.conductivePiste !== undefined && input.conductivePiste !== strip.conductivePiste) {
       const pistes = r.positionsOfStrip(stripId).filter((p) => p.equipmentKind === 'piste');

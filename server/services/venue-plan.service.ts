@@ -100,6 +100,7 @@ function updateVenue(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: st
       patch.profileId = row.id;
       syncLoopSteps(tx, venueId, toLimitProfile(row), nowIso());
     }
+    if (input.technicianIds !== undefined) applyTechnicians(tx, user, venueId, input.technicianIds, 'technicianIds');
     // Saving the details unchanged is not an error; there is just nothing to write.
     if (Object.keys(patch).length === 0) return;
     planRepository(tx).updateVenue(venueId, patch);
@@ -152,30 +153,35 @@ function addStrips(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: stri
   });
 }
 
-function setTechnicians(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: string | undefined, userIds: string[]) {
-  return editPlan(deps, user, venueId, ifMatch, 'technicians', (tx) => {
-    const r = planRepository(tx);
-    const people = r.usersByIds(userIds);
-    const invalid = userIds.filter((id) => {
-      const p = people.find((x) => x.id === id);
-      return !p || p.orgId !== user.orgId || p.role !== 'technician' || p.disabled;
-    });
-    if (invalid.length) {
-      throw unprocessable('not-a-technician', 'Only active technicians of your organisation can be assigned to a venue.', {
-        errors: invalid.map((id) => ({
-          path: `userIds.${userIds.indexOf(id)}`,
-          message: 'Not an active technician of your organisation.',
-        })),
-      });
-    }
-    const before = r.techniciansOf(venueId);
-    r.setTechnicians(venueId, userIds);
-    recordAudit(tx, user, 'venue.technicians-set', 'venue', venueId, {
-      venueId,
-      added: people.filter((p) => !before.some((b) => b.id === p.id)).map((p) => p.name),
-      removed: before.filter((b) => !userIds.includes(b.id)).map((b) => b.name),
-    });
+/** Who tests the venue, in the edit's transaction: active technicians of the organisation only. */
+function applyTechnicians(tx: Tx, user: AuthUser, venueId: string, userIds: string[], field: string) {
+  const r = planRepository(tx);
+  const people = r.usersByIds(userIds);
+  const invalid = userIds.filter((id) => {
+    const p = people.find((x) => x.id === id);
+    return !p || p.orgId !== user.orgId || p.role !== 'technician' || p.disabled;
   });
+  if (invalid.length) {
+    throw unprocessable('not-a-technician', 'Only active technicians of your organisation can be assigned to a venue.', {
+      errors: invalid.map((id) => ({
+        path: `${field}.${userIds.indexOf(id)}`,
+        message: 'Not an active technician of your organisation.',
+      })),
+    });
+  }
+  const before = r.techniciansOf(venueId);
+  const same = before.length === userIds.length && before.every((b) => userIds.includes(b.id));
+  if (same && field === 'technicianIds') return; // unchanged in the venue form: nothing to write
+  r.setTechnicians(venueId, userIds);
+  recordAudit(tx, user, 'venue.technicians-set', 'venue', venueId, {
+    venueId,
+    added: people.filter((p) => !before.some((b) => b.id === p.id)).map((p) => p.name),
+    removed: before.filter((b) => !userIds.includes(b.id)).map((b) => b.name),
+  });
+}
+
+function setTechnicians(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: string | undefined, userIds: string[]) {
+  return editPlan(deps, user, venueId, ifMatch, 'technicians', (tx) => applyTechnicians(tx, user, venueId, userIds, 'userIds'));
 }
 
 export function venuePlanService(deps: AppDeps) {

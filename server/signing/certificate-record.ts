@@ -6,7 +6,9 @@ import { canonicalJson } from './signing-keys';
 import { makeCertificateNumber, type CertificateKind } from '../../shared/domain/certificate-number';
 
 // Version 2 added the test-lead null of each reading, the nulls used and the dismissed faults.
-export const CERTIFICATE_FORMAT = 'stripwarden-certificate/2';
+// Version 3: a strip's items are every position of its plan, the scoring apparatus too (it has no
+// readings of its own), each saying whether it was measured.
+export const CERTIFICATE_FORMAT = 'stripwarden-certificate/3';
 export const SCOPE_SENTENCE =
   "This certificate covers the competition equipment listed and tested, not the building's electrical installation: the mains supply and the earthing of the hall are for licensed electricians under local codes.";
 
@@ -41,6 +43,8 @@ export interface CertificateItem {
   position: string;
   kind: string;
   assetTag: string | null;
+  /** Certified readings were taken on it (absent in version 2 records, where every item listed was). */
+  measured?: boolean;
 }
 
 /** A test-lead null that certified readings used: who measured it, when, with which meter. */

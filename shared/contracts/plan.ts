@@ -6,6 +6,7 @@ import { roleField } from '../schemas/common';
 import {
   addPositionSchema,
   addStepSchema,
+  assetTagsSchema,
   attachEquipmentSchema,
   bulkStripsSchema,
   createEventSchema,
@@ -163,6 +164,15 @@ export const planContracts = {
     params: idParams,
     body: bulkStripsSchema,
     answer: planCreated,
+  }),
+  /** Asset tags for many positions of the venue in one transaction (a strip, a row). */
+  setAssetTags: contract({
+    method: 'PUT',
+    path: '/venues/:id/equipment',
+    access: PLANNERS,
+    params: idParams,
+    body: assetTagsSchema,
+    answer: plan,
   }),
   setTechnicians: contract({
     method: 'PUT',

@@ -32,9 +32,14 @@ export const createVenueSchema = z.strictObject({
 });
 export type CreateVenueInput = z.input<typeof createVenueSchema>;
 
+const technicianIds = z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' });
+
+/** The venue's details; with technicianIds also who tests it, so the venue form saves once. */
 export const updateVenueSchema = z
-  .strictObject({ name: nameField.optional(), profileId: idField.optional() })
-  .refine((v) => v.name !== undefined || v.profileId !== undefined, { message: 'Nothing to change: give name or profileId.' });
+  .strictObject({ name: nameField.optional(), profileId: idField.optional(), technicianIds: technicianIds.optional() })
+  .refine((v) => v.name !== undefined || v.profileId !== undefined || v.technicianIds !== undefined, {
+    message: 'Nothing to change: give name, profileId or technicianIds.',
+  });
 export type UpdateVenueInput = z.input<typeof updateVenueSchema>;
 
 const positionName = typedName({ required: 'A position needs a name.', max: 60, tooLong: 'Keep position names under 60 characters.' });
@@ -74,15 +79,50 @@ export const bulkStripsSchema = z
   });
 export type BulkStripsInput = z.input<typeof bulkStripsSchema>;
 
+/**
+ * Asset tags for many positions of one venue at once (a strip, a row, or any set): one entry per
+ * position, null takes the item off. A tag or a position listed twice is refused before anything
+ * is looked up, so a pasted column with a repeated tag says which rows repeat it.
+ */
+export const assetTagRows = z
+  .array(z.strictObject({ positionId: idField, assetTag: assetTagField.nullable() }), { error: 'Give a list of positions and tags.' })
+  .min(1, 'Give at least one position.')
+  .max(500, 'Give at most 500 positions at once.')
+  .superRefine((rows, ctx) => {
+    const byTag = new Map<string, number>();
+    const byPosition = new Set<string>();
+    rows.forEach((p, i) => {
+      if (byPosition.has(p.positionId)) {
+        ctx.addIssue({ code: 'custom', path: [i, 'positionId'], message: `Row ${i + 1} names a position that is listed already.` });
+      }
+      byPosition.add(p.positionId);
+      if (p.assetTag === null) return;
+      const first = byTag.get(p.assetTag);
+      if (first !== undefined) {
+        ctx.addIssue({
+          code: 'custom',
+          path: [i, 'assetTag'],
+          message: `${p.assetTag} is given twice (rows ${first + 1} and ${i + 1}); one item can sit in one position only.`,
+        });
+      } else byTag.set(p.assetTag, i);
+    });
+  });
+export const assetTagsSchema = z.strictObject({ positions: assetTagRows });
+export type AssetTagsInput = z.input<typeof assetTagsSchema>;
+export type AssetTagsValues = z.output<typeof assetTagsSchema>;
+
 export const updateStripSchema = z
   .strictObject({
     label: stripLabel.optional(),
     zone: zoneName.nullable().optional(),
     sortOrder: z.number().int().min(0).max(100000).optional(),
     conductivePiste: z.boolean().optional(),
+    /** The strip card saves its details and its asset-tag table in one edit. */
+    assetTags: assetTagRows.optional(),
   })
   .refine((v) => Object.keys(v).length > 0, { message: 'Nothing to change.' });
 export type UpdateStripInput = z.input<typeof updateStripSchema>;
+export type UpdateStripValues = z.output<typeof updateStripSchema>;
 
 export const withdrawStripSchema = z.strictObject({
   reason: z.string({ error: 'Give a reason for withdrawing the strip.' }).trim().min(3, 'Give a reason for withdrawing the strip.').max(500),
@@ -99,9 +139,7 @@ export const addPositionSchema = z.strictObject({
 export type AddPositionInput = z.input<typeof addPositionSchema>;
 export type AddPositionValues = z.output<typeof addPositionSchema>;
 
-export const venueTechniciansSchema = z.strictObject({
-  userIds: z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' }),
-});
+export const venueTechniciansSchema = z.strictObject({ userIds: technicianIds });
 
 /** Which conductors a step of each test kind names. */
 export const CONDUCTORS_FOR_TEST: Record<TestKind, readonly string[]> = {

@@ -335,6 +335,31 @@ describe('PUT /api/venues/:id/technicians', () => {
   });
 });
 
+describe('PATCH /api/venues/:id with technicianIds (the venue form saves once)', () => {
+  test('name and technicians change in one edit: one version step, both audited; a wrong person refuses the whole edit', async () => {
+    const venue = await newVenue('One-save hall');
+    const marco = await t.agentFor(DEMO.director);
+    const sam = t.db.select().from(s.users).where(eq(s.users.email, DEMO.technician)).get()!;
+    const nina = t.db.select().from(s.users).where(eq(s.users.email, DEMO.organiser)).get()!;
+    let plan = await marco.get(`/api/venues/${venue.venue.id}`);
+    const bad = await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ name: 'Renamed hall', technicianIds: [sam.id, nina.id] });
+    expect(bad.status).toBe(422);
+    expect(bad.body.errors).toEqual([{ path: 'technicianIds.1', message: 'Not an active technician of your organisation.' }]);
+    const unchanged = (await marco.get(`/api/venues/${venue.venue.id}`)).body as Plan;
+    expect(unchanged.venue).toMatchObject({ name: 'One-save hall', version: venue.venue.version });
+    expect(unchanged.technicians).toEqual([]);
+
+    plan = await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ name: 'Renamed hall', technicianIds: [sam.id] });
+    expect(plan.status).toBe(200);
+    expect(plan.body).toMatchObject({ venue: { name: 'Renamed hall', version: venue.venue.version + 1 }, technicians: [{ name: 'Sam Reyes' }] });
+    const actions = t.db.select().from(s.auditLog).all().filter((a) => a.entityId === venue.venue.id).map((a) => a.action);
+    expect(actions).toEqual(expect.arrayContaining(['venue.updated', 'venue.technicians-set']));
+    // The same technicians again write nothing to the trail.
+    await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ technicianIds: [sam.id] }).expect(200);
+    expect(t.db.select().from(s.auditLog).all().filter((a) => a.entityId === venue.venue.id && a.action === 'venue.technicians-set')).toHaveLength(1);
+  });
+});
+
 describe('checklist steps', () => {
   test('a director adds a step and drops one; the dropped step is kept with its readings but no longer asked for', async () => {
     const marco = await t.agentFor(DEMO.director);

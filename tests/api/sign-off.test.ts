@@ -272,6 +272,34 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     }
   });
 
+  test('each strip lists its scoring apparatus with its floor cables, reels and piste by asset tag, on the strip and the venue certificates (PDF.js)', async () => {
+    // The outside source is the venue plan as the planning screen loads it: what sits in each position.
+    const nina = await t.agentFor(DEMO.organiser);
+    const plan = (await nina.get(`/api/venues/${annexId}`)).body as {
+      strips: { id: string; label: string; positions: { name: string; equipmentKind: string; equipment: { assetTag: string } | null }[] }[];
+    };
+    const flat = (text: string) => text.replace(/\s+/g, ' ');
+    const bare = (text: string) => text.replace(/\s+/g, '').toUpperCase();
+    const venuePdf = (await download(nina, `/api/certificates/${issued.find((c) => c.kind === 'venue')!.number}/pdf`)).body;
+    const venueText = flat(await pdfText(venuePdf));
+    expect(bare(venueText)).toContain(bare('SCORING APPARATUS · FLOOR CABLES · REELS · PISTE'));
+    for (const strip of plan.strips) {
+      const tagOf = (kind: string) => strip.positions.filter((p) => p.equipmentKind === kind).map((p) => p.equipment!.assetTag);
+      const [apparatus] = tagOf('apparatus');
+      expect(apparatus, `${strip.label} has a scoring apparatus in the plan`).toBeTruthy();
+      const number = issued.find((c) => c.kind === 'strip' && c.stripId === strip.id)!.number;
+      const stripPdf = (await download(nina, `/api/certificates/${number}/pdf`)).body;
+      const first = flat((await readPdf(stripPdf, { fonts: false })).pages[0]);
+      // Labels are drawn in spaced capitals: compare without spaces. The apparatus has no readings of
+      // its own (common practice: its electronics are never metered), and the certificate says so.
+      expect(bare(first)).toContain(bare(`SCORING APPARATUS ${apparatus}, not measured`));
+      for (const tag of [...tagOf('floor-cable'), ...tagOf('reel'), ...tagOf('piste')]) expect(first).toContain(tag);
+      expect(bare(first)).toContain(bare(`FLOOR CABLES ${tagOf('floor-cable').map((tag, i) => `${tag} (${i === 0 ? 'Left' : 'Right'} floor cable)`).join(', ')}`));
+      // On the venue certificate, the strip's row gives its apparatus, then its floor cables and reels, as the header says.
+      expect(venueText).toContain(`${strip.label} Annex ${apparatus} · ${tagOf('floor-cable').join(', ')} · ${tagOf('reel').join(', ')}`);
+    }
+  });
+
   test('the place of a strip names its zone once', () => {
     expect(placeOf('Riverside Annex', 'Annex')).toBe('Riverside Annex');
     expect(placeOf('Riverside Sports Hall', 'Row A')).toBe('Riverside Sports Hall, Row A');

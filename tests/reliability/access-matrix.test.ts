@@ -160,6 +160,7 @@ function rows(): Row[] {
     { route: 'GET /api/venues/:id', path: (c) => `/api/venues/${c.hall}`, expect: READ_VENUE() },
     { route: 'PATCH /api/venues/:id', path: (c) => `/api/venues/${c.hall}`, headers: planTag, body: () => ({ name: 'Riverside Sports Hall, main floor' }), expect: PLAN_VENUE(200) },
     { route: 'POST /api/venues/:id/strips/bulk', path: (c) => `/api/venues/${c.hall}/strips/bulk`, headers: planTag, body: (_c, a) => ({ labels: [`Extra ${a}`] }), expect: PLAN_VENUE(201) },
+    { route: 'PUT /api/venues/:id/equipment', path: (c) => `/api/venues/${c.hall}/equipment`, headers: planTag, body: (c) => ({ positions: [{ positionId: c.sparePositionId, assetTag: null }] }), expect: PLAN_VENUE(200) },
     { route: 'PUT /api/venues/:id/technicians', path: (c) => `/api/venues/${c.hall}/technicians`, headers: planTag, body: (c) => ({ userIds: [c.samId] }), expect: PLAN_VENUE(200) },
     { route: 'PATCH /api/strips/:id', path: (c) => `/api/strips/${c.spareStripId}`, headers: planTag, body: () => ({ zone: 'Row C' }), expect: PLAN_VENUE(200) },
     { route: 'POST /api/strips/:id/withdraw', path: (c) => `/api/strips/${c.spareStripId}/withdraw`, headers: planTag, body: () => ({ reason: 'Leaking roof above it' }), expect: PLAN_VENUE(200) },

@@ -92,6 +92,7 @@ function validBody(route: string): Record<string, unknown> | null {
     'PATCH /api/venues/:id': { name: 'Riverside Sports Hall' },
     'POST /api/venues/:id/strips/bulk': { count: 1 },
     'PUT /api/venues/:id/technicians': { userIds: [] },
+    'PUT /api/venues/:id/equipment': { positions: [{ positionId: params.positions, assetTag: null }] },
     'PATCH /api/strips/:id': { zone: 'Row B' },
     'POST /api/strips/:id/withdraw': { reason: 'Fuzz reason' },
     'POST /api/strips/:id/positions': { name: 'Fuzz reel', equipmentKind: 'reel' },

@@ -251,7 +251,7 @@ describe('the certificate carries the record', () => {
     const venueNumber = (signed.body.certificates as { number: string; kind: string }[]).find((c) => c.kind === 'venue')!.number;
     const row = t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!;
     const payload = JSON.parse(row.payloadJson) as CertificatePayload;
-    expect(payload.format).toBe('stripwarden-certificate/2');
+    expect(payload.format).toBe('stripwarden-certificate/3');
     expect(payload.dismissedFaults.map((f) => [f.stripLabel, f.reason, f.dismissedBy])).toContainEqual([
       'Annex 3',
       reason,

@@ -21,11 +21,15 @@ export const TextField = forwardRef<HTMLInputElement, FieldProps & InputHTMLAttr
           ref={ref}
           id={fieldId}
           aria-invalid={error ? true : undefined}
-          aria-describedby={error ? `${fieldId}-error` : undefined}
+          aria-describedby={error ? `${fieldId}-error` : hint ? `${fieldId}-hint` : undefined}
           className={inputClass}
           {...props}
         />
-        {hint && !error && <p className="text-xs text-ink-soft">{hint}</p>}
+        {hint && !error && (
+          <p id={`${fieldId}-hint`} className="text-xs text-ink-soft">
+            {hint}
+          </p>
+        )}
         {error && (
           <p id={`${fieldId}-error`} role="alert" className="text-xs font-medium text-fail">
             {error}

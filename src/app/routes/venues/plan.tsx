@@ -8,21 +8,19 @@ import { useAddStrips } from '@/features/plan/api/add-strips';
 import { useUpdateStrip } from '@/features/plan/api/update-strip';
 import { useWithdrawStrip } from '@/features/plan/api/withdraw-strip';
 import { useReinstateStrip } from '@/features/plan/api/reinstate-strip';
-import { useAttachEquipment } from '@/features/plan/api/attach-equipment';
-import { useSetTechnicians } from '@/features/plan/api/set-technicians';
 import { useAddStep } from '@/features/plan/api/add-step';
 import { useDropStep } from '@/features/plan/api/drop-step';
 import { useAddPosition } from '@/features/plan/api/add-position';
 import { useRemovePosition } from '@/features/plan/api/remove-position';
 import { EditProblem } from '@/features/plan/components/conflict-notice';
 import { VenueDetailsForm } from '@/features/plan/components/venue-details-form';
-import { TechniciansForm } from '@/features/plan/components/technicians-form';
 import { BulkStripsForm } from '@/features/plan/components/bulk-strips-form';
 import { StripEditor, type StripEditorActions } from '@/features/plan/components/strip-editor';
 import { useProfiles } from '@/features/profiles/api/get-profiles';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
+import { ApiError } from '@/lib/api-client';
 import { venueLabelsUrl } from '@/features/labels/api/label-sheets';
 
 const STATUS = { planning: ['ring', 'idle', 'Planning'], testing: ['half', 'brand', 'Testing'], 'signed-off': ['circle', 'pass', 'Signed off'] } as const;
@@ -43,8 +41,6 @@ export default function VenuePlanPage() {
   const updateStrip = useUpdateStrip(venueId);
   const withdraw = useWithdrawStrip(venueId);
   const reinstate = useReinstateStrip(venueId);
-  const attach = useAttachEquipment(venueId);
-  const setTechs = useSetTechnicians(venueId);
   const addStep = useAddStep(venueId);
   const dropStep = useDropStep(venueId);
   const addPosition = useAddPosition(venueId);
@@ -72,10 +68,18 @@ export default function VenuePlanPage() {
   const strip = p.strips.find((s) => s.id === selected) ?? p.strips[0];
   const actions: StripEditorActions | null = strip
     ? {
-        updateStrip: (patch) => run(`${patch.label ?? strip.label}`, () => updateStrip.mutateAsync({ stripId: strip.id, patch, version })),
+        updateStrip: async (patch) => {
+          let refused: { path: string; message: string }[] = [];
+          const ok = await run(`${patch.label ?? strip.label}`, () =>
+            updateStrip.mutateAsync({ stripId: strip.id, patch, version }).catch((error: unknown) => {
+              if (error instanceof ApiError) refused = error.errors;
+              throw error;
+            }),
+          );
+          return ok || refused;
+        },
         withdraw: (reason) => run(`${strip.label} withdrawn`, () => withdraw.mutateAsync({ stripId: strip.id, reason, version })),
         reinstate: () => run(`${strip.label} reinstated`, () => reinstate.mutateAsync({ stripId: strip.id, version })),
-        attach: (positionId, assetTag) => run(assetTag ? `${assetTag} attached` : 'Item taken off', () => attach.mutateAsync({ positionId, assetTag, version })),
         addStep: (positionId, step) => run('Step added', () => addStep.mutateAsync({ positionId, step, version })),
         dropStep: (stepId) => run('Step dropped', () => dropStep.mutateAsync({ stepId, version })),
         addPosition: (position) => run(`${position.name.trim()} added to ${strip.label}`, () => addPosition.mutateAsync({ stripId: strip.id, position, version })),
@@ -136,16 +140,9 @@ export default function VenuePlanPage() {
               plan={p}
               readOnly={!canEdit}
               profiles={profiles.data ?? [{ name: p.profile.name, lineageId: p.profile.lineageId, versions: [{ id: p.profile.id, version: p.profile.version }] }]}
-              onSave={(v) => run('Venue details', () => updateVenue.mutateAsync({ ...v, version }))}
+              people={canEdit ? people.data?.technicians : undefined}
+              onSave={(v) => run('Venue', () => updateVenue.mutateAsync({ ...v, version }))}
             />
-          </Card>
-          <Card>
-            <h2 className="mb-2 text-lg font-semibold">Technicians</h2>
-            {canEdit && people.data ? (
-              <TechniciansForm plan={p} people={people.data.technicians} onSave={(userIds) => run('Technicians', () => setTechs.mutateAsync({ userIds, version }))} />
-            ) : (
-              <ul className="text-sm">{p.technicians.length ? p.technicians.map((t) => <li key={t.id}>{t.name}</li>) : <li className="text-ink-soft">Nobody assigned yet.</li>}</ul>
-            )}
           </Card>
           {canEdit && (
             <Card>
@@ -181,7 +178,7 @@ export default function VenuePlanPage() {
                     {strip.label}
                     {strip.zone && <span className="ml-2 text-base font-normal text-ink-soft">{strip.zone}</span>}
                   </h2>
-                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} loopRequired={p.profile.loopRequired} />
+                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} strips={p.strips} loopRequired={p.profile.loopRequired} />
                 </Card>
               )}
             </>

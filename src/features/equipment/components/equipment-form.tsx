@@ -35,7 +35,7 @@ export function EquipmentCreateForm({ onCreate, scannedTag }: { onCreate: (v: Cr
       className="flex flex-col gap-3"
       onSubmit={form.handleSubmit(saveThenReset(form, onCreate, 'Could not save.'))}
     >
-      <TextField label="Asset tag" placeholder="FC-025" autoComplete="off" {...form.register('assetTag')} error={errors.assetTag?.message} />
+      <TextField label="Asset tag" hint="As written on the item's label, for example FC-025." autoComplete="off" {...form.register('assetTag')} error={errors.assetTag?.message} />
       <SelectField label="Kind" {...form.register('kind')} error={errors.kind?.message}>
         {EQUIPMENT_KINDS.map((k) => (
           <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>

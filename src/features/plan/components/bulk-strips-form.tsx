@@ -28,7 +28,8 @@ const toBody = (v: BulkForm, nextNumber: number): BulkStripsInput => {
 export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAdd: (v: BulkStripsInput) => Promise<boolean> }) {
   const form = useForm<BulkForm, unknown, BulkStripsInput>({
     resolver: bodyResolver(bulkStripsSchema, (v: BulkForm) => toBody(v, nextNumber)),
-    defaultValues: { mode: 'count', count: '8', prefix: 'Strip ', startAt: '', labels: '', zone: '', conductivePiste: false },
+    // Every field holds a real value or stays empty: no example text that could pass for one.
+    defaultValues: { mode: 'count', count: '8', prefix: 'Strip ', startAt: String(nextNumber), labels: '', zone: '', conductivePiste: false },
   });
   const [mode, conductive] = useWatch({ control: form.control, name: ['mode', 'conductivePiste'] });
   const errors = form.formState.errors;
@@ -39,7 +40,8 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
       noValidate
       className="flex flex-col gap-3"
       onSubmit={form.handleSubmit(async (body) => {
-        if (await onAdd(body)) form.reset({ ...form.getValues(), labels: '', startAt: '' });
+        const added = body.count ?? body.labels?.length ?? 0;
+        if (await onAdd(body)) form.reset({ ...form.getValues(), labels: '', startAt: String(nextNumber + added) });
       })}
     >
       <div role="radiogroup" aria-label="How to name the strips" className="flex gap-2">
@@ -54,7 +56,7 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
         <div className="grid grid-cols-3 gap-3">
           <TextField label="How many" inputMode="numeric" {...form.register('count')} error={errors.count?.message} />
           <TextField label="Prefix" {...form.register('prefix')} error={errors.prefix?.message} />
-          <TextField label="Start at" inputMode="numeric" placeholder={String(nextNumber)} {...form.register('startAt')} error={errors.startAt?.message} />
+          <TextField label="Start at" inputMode="numeric" {...form.register('startAt')} error={errors.startAt?.message} />
         </div>
       ) : (
         <div className="flex flex-col gap-1">
@@ -63,11 +65,15 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
             id="f-labels"
             rows={3}
             className="rounded-lg border border-line bg-card p-3 aria-[invalid=true]:border-fail"
-            placeholder={'Final\nRed\nGreen'}
             aria-invalid={labelsError ? true : undefined}
-            aria-describedby={labelsError ? 'f-labels-error' : undefined}
+            aria-describedby={labelsError ? 'f-labels-error' : 'f-labels-hint'}
             {...form.register('labels')}
           />
+          {!labelsError && (
+            <p id="f-labels-hint" className="text-xs text-ink-soft">
+              For example Final, Red, Green.
+            </p>
+          )}
           {labelsError && (
             <p id="f-labels-error" role="alert" className="text-xs font-medium text-fail">
               {labelsError}
@@ -75,7 +81,7 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
           )}
         </div>
       )}
-      <TextField label="Row or zone" placeholder="Row A" {...form.register('zone')} error={errors.zone?.message} />
+      <TextField label="Row or zone" hint="Optional, for example Row A. Left empty, the strips belong to no row." {...form.register('zone')} error={errors.zone?.message} />
       <label className="flex min-h-touch items-center gap-3">
         <input type="checkbox" className="size-5 accent-brand" {...form.register('conductivePiste')} />
         Conductive (metal) pistes

@@ -1,4 +1,4 @@
-import { useMemo, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type RefObject } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import type { z } from 'zod';
@@ -7,7 +7,6 @@ import { EQUIPMENT_KINDS, TEST_KINDS, type EquipmentKind, type TestKind } from '
 import {
   addPositionSchema,
   addStepSchema,
-  attachEquipmentSchema,
   CONDUCTORS_FOR_TEST,
   updateStripSchema,
   withdrawStripSchema,
@@ -22,12 +21,13 @@ import { StatusMark } from '@/components/ui/status-mark';
 import { bodyResolver } from '@/lib/form-resolver';
 import { keepTyped, typedUpperCase } from '@/lib/form-values';
 import type { PlanPosition, PlanStrip } from '../api/types';
+import { AssetTagsForm, type FieldProblem, type TagsHandle } from './asset-tags-form';
 
 export interface StripEditorActions {
-  updateStrip: (patch: UpdateStripInput) => Promise<boolean>;
+  /** The card's one save: details and asset tags in one edit; a refusal answers the messages by field. */
+  updateStrip: (patch: UpdateStripInput) => Promise<true | FieldProblem[]>;
   withdraw: (reason: string) => Promise<boolean>;
   reinstate: () => Promise<boolean>;
-  attach: (positionId: string, assetTag: string | null) => Promise<boolean>;
   addStep: (positionId: string, step: AddStepInput) => Promise<boolean>;
   dropStep: (stepId: string) => Promise<boolean>;
   addPosition: (position: AddPositionInput) => Promise<boolean>;
@@ -36,7 +36,25 @@ export interface StripEditorActions {
 
 type StripForm = { label: string; zone: string; conductivePiste: boolean };
 
-function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: boolean; actions: StripEditorActions }) {
+/**
+ * The strip's details; its form is the card's one save, which also sends the asset-tag table's
+ * changed rows (`tags`) in the same edit. The Save button sits at the card's foot (form attribute).
+ */
+function StripDetails({
+  strip,
+  readOnly,
+  actions,
+  formId,
+  tags,
+  onDirty,
+}: {
+  strip: PlanStrip;
+  readOnly: boolean;
+  actions: StripEditorActions;
+  formId: string;
+  tags: RefObject<TagsHandle | null>;
+  onDirty: (dirty: boolean) => void;
+}) {
   // The form shows the strip as loaded; only what the person typed is kept when the plan reloads.
   const values = useMemo(
     () => ({ label: strip.label, zone: strip.zone ?? '', conductivePiste: strip.conductivePiste }),
@@ -49,32 +67,37 @@ function StripDetails({ strip, readOnly, actions }: { strip: PlanStrip; readOnly
   });
   const [label, zone, conductive] = useWatch({ control: form.control, name: ['label', 'zone', 'conductivePiste'] });
   const changed = label !== strip.label || zone !== (strip.zone ?? '') || conductive !== strip.conductivePiste;
+  useEffect(() => onDirty(changed), [changed, onDirty]);
   const errors = form.formState.errors;
   return (
     <form
+      id={formId}
       noValidate
-      className="grid items-end gap-3 sm:grid-cols-[1fr_1fr_auto_auto]"
+      className="grid items-start gap-3 sm:grid-cols-[1fr_1fr_auto]"
       onSubmit={form.handleSubmit(async (v) => {
+        const rows = tags.current ? await tags.current.collect() : [];
+        if (rows === null) return; // the table shows what to fix
         const patch: UpdateStripInput = {};
         if (v.label !== undefined && v.label !== strip.label) patch.label = v.label;
         if ((v.zone ?? '') !== (strip.zone ?? '')) patch.zone = v.zone || null;
         if (v.conductivePiste !== undefined && v.conductivePiste !== strip.conductivePiste) patch.conductivePiste = v.conductivePiste;
-        if (await actions.updateStrip(patch)) {
+        if (rows.length > 0) patch.assetTags = rows;
+        if (Object.keys(patch).length === 0) return;
+        const answer = await actions.updateStrip(patch);
+        if (answer === true) {
           form.reset({ label: patch.label ?? strip.label, zone: patch.zone === undefined ? (strip.zone ?? '') : (patch.zone ?? ''), conductivePiste: patch.conductivePiste ?? strip.conductivePiste });
+          return;
         }
+        tags.current?.showProblems(answer.filter((p) => p.path.startsWith('assetTags.')), rows);
+        for (const p of answer) if (p.path === 'label' || p.path === 'zone') form.setError(p.path, { type: 'server', message: p.message });
       })}
     >
       <TextField label="Label" id="f-stripLabel" disabled={readOnly} {...form.register('label')} error={errors.label?.message} />
-      <TextField label="Row or zone" id="f-stripZone" disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
-      <label className="flex min-h-touch items-center gap-2 text-sm">
+      <TextField label="Row or zone" id="f-stripZone" hint={readOnly ? undefined : 'Leave it empty when the strip is in no row.'} disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
+      <label className="flex min-h-touch items-center gap-2 self-end text-sm">
         <input type="checkbox" className="size-5 accent-brand" disabled={readOnly} {...form.register('conductivePiste')} />
         Conductive piste
       </label>
-      {!readOnly && (
-        <Button type="submit" variant="secondary" disabled={!changed}>
-          Save strip
-        </Button>
-      )}
     </form>
   );
 }
@@ -111,14 +134,13 @@ function Withdrawal({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: 
         className="flex-1"
         label="Withdraw this strip (reason)"
         id="f-withdrawReason"
-        placeholder="e.g. not used this event"
+        hint="For example: not used at this event. A withdrawn strip is listed as an exception at sign-off."
         {...form.register('reason')}
         error={form.formState.errors.reason?.message}
       />
       <Button type="submit" variant="secondary" disabled={!withdrawStripSchema.safeParse({ reason }).success}>
         Withdraw
       </Button>
-      <p className="w-full text-xs text-ink-soft">A withdrawn strip is listed as an exception at sign-off.</p>
     </form>
   );
 }
@@ -197,7 +219,7 @@ function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopReq
         <TextField
           label="Name"
           id={fieldId('name')}
-          placeholder="e.g. Spare reel"
+          hint="For example Spare reel."
           autoComplete="off"
           {...form.register('name', clear('name'))}
           error={errors.name?.message}
@@ -210,7 +232,7 @@ function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopReq
         <TextField
           label="Asset tag (optional)"
           id={fieldId('tag')}
-          placeholder="none"
+          hint="Leave empty to add the position without an item."
           autoComplete="off"
           {...typedUpperCase(form.register('assetTag', clear('assetTag')))}
           error={errors.assetTag?.message}
@@ -257,13 +279,6 @@ function RemovePosition({ position, onRemove }: { position: PlanPosition; onRemo
 }
 
 function PositionCard({ position, readOnly, actions }: { position: PlanPosition; readOnly: boolean; actions: StripEditorActions }) {
-  const attached = position.equipment?.assetTag ?? '';
-  const form = useForm<{ assetTag: string }, unknown, z.output<typeof attachEquipmentSchema>>({
-    resolver: bodyResolver(attachEquipmentSchema, (v: { assetTag: string }) => ({ assetTag: v.assetTag.trim() === '' ? null : v.assetTag.trim() })),
-    values: useMemo(() => ({ assetTag: attached }), [attached]),
-    resetOptions: keepTyped,
-  });
-  const tag = useWatch({ control: form.control, name: 'assetTag' }) ?? '';
   const active = position.steps.filter((s) => !s.removedAt);
   const dropped = position.steps.length - active.length;
   return (
@@ -273,36 +288,18 @@ function PositionCard({ position, readOnly, actions }: { position: PlanPosition;
           <p className="font-semibold">{position.name}</p>
           <p className="text-xs text-ink-soft">Takes a {EQUIPMENT_KIND_LABELS[position.equipmentKind].toLowerCase()}</p>
         </div>
-        <form
-          noValidate
-          className="flex items-end gap-2"
-          onSubmit={form.handleSubmit(async ({ assetTag }) => {
-            if (await actions.attach(position.id, assetTag)) form.reset({ assetTag: assetTag ?? '' });
-          })}
-        >
-          <TextField
-            label="Asset tag"
-            id={`tag-${position.id}`}
-            className="w-36"
-            autoComplete="off"
-            placeholder="none"
-            disabled={readOnly}
-            {...typedUpperCase(form.register('assetTag'))}
-            error={form.formState.errors.assetTag?.message}
-          />
-          {!readOnly && (
-            <Button type="submit" variant="secondary" disabled={tag.trim() === (position.equipment?.assetTag ?? '')}>
-              {tag.trim() === '' && position.equipment ? 'Take off' : 'Attach'}
-            </Button>
+        <p className="text-sm">
+          {position.equipment ? (
+            <>
+              Asset tag <span className="font-mono font-semibold">{position.equipment.assetTag}</span>
+            </>
+          ) : (
+            <span className="text-ink-soft">No item in this position yet</span>
           )}
-        </form>
+        </p>
         {!readOnly && !position.tested && <RemovePosition position={position} onRemove={actions.removePosition} />}
       </div>
-      {position.equipment && (
-        <p className="mt-1 text-xs text-ink-soft">
-          {position.equipment.assetTag}: {position.equipment.description || EQUIPMENT_KIND_LABELS[position.equipment.kind]}
-        </p>
-      )}
+      {position.equipment?.description && <p className="mt-1 text-xs text-ink-soft">{position.equipment.description}</p>}
       <ul className="mt-3 flex flex-wrap gap-2" aria-label={`Steps for ${position.name}`}>
         {active.length === 0 && <li className="text-sm text-ink-soft">No test steps for this position.</li>}
         {active.map((s) => (
@@ -338,23 +335,47 @@ export function StripEditor({
   strip,
   readOnly,
   actions,
+  strips,
   loopRequired = [],
 }: {
   strip: PlanStrip;
+  /** Every strip of the venue: the asset tags can be set for the strip's whole row. */
+  strips: PlanStrip[];
   readOnly: boolean;
   actions: StripEditorActions;
   /** The venue profile's kinds that get a loop step, to say which steps a new position gets. */
   loopRequired?: readonly EquipmentKind[];
 }) {
+  const tags = useRef<TagsHandle | null>(null);
+  const [detailsDirty, setDetailsDirty] = useState(false);
+  const [tagsDirty, setTagsDirty] = useState(false);
+  const onTagsDirty = useCallback((d: boolean) => setTagsDirty(d), []);
+  const onDetailsDirty = useCallback((d: boolean) => setDetailsDirty(d), []);
+  const formId = `strip-form-${strip.id}`;
+  const submit = () => (document.getElementById(formId) as HTMLFormElement | null)?.requestSubmit();
   return (
     <div className="flex flex-col gap-4">
-      <StripDetails strip={strip} readOnly={readOnly} actions={actions} />
+      <StripDetails strip={strip} readOnly={readOnly} actions={actions} formId={formId} tags={tags} onDirty={onDetailsDirty} />
       <Withdrawal strip={strip} readOnly={readOnly} actions={actions} />
       <ul className="flex flex-col gap-3">
         {strip.positions.map((p) => (
           <PositionCard key={p.id} position={p} readOnly={readOnly} actions={actions} />
         ))}
       </ul>
+      {!readOnly && (
+        <section aria-labelledby={`tags-${strip.id}`} className="rounded-lg border border-line p-4">
+          <h3 id={`tags-${strip.id}`} className="mb-2 font-semibold">Asset tags</h3>
+          <AssetTagsForm strip={strip} strips={strips} handle={tags} onSubmit={submit} onDirty={onTagsDirty} />
+        </section>
+      )}
+      {!readOnly && (
+        <div className="flex flex-wrap items-center gap-3">
+          <Button type="submit" form={formId} disabled={!detailsDirty && !tagsDirty}>
+            Save strip
+          </Button>
+          <span className="text-sm text-ink-soft">Saves the label, row, piste and asset tags above together.</span>
+        </div>
+      )}
       {!readOnly && !strip.withdrawnAt && (
         <details className="rounded-lg border border-dashed border-line p-4">
           <summary className="inline-flex min-h-touch cursor-pointer items-center font-medium text-brand">Add a position to {strip.label}…</summary>

@@ -6,7 +6,7 @@ import { updateVenueSchema, type UpdateVenueInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { keepTyped } from '@/lib/form-values';
-import type { VenuePlan } from '../api/types';
+import type { PlanningPeople, VenuePlan } from '../api/types';
 
 export interface ProfileChoice {
   name: string;
@@ -14,32 +14,49 @@ export interface ProfileChoice {
   versions: { id: string; version: number }[];
 }
 
+const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.includes(x));
+
+/**
+ * The venue's name, limit profile and technicians in one form with one save (one edit on the
+ * server). Without `people` (a role that cannot plan) the technicians are listed, not chosen.
+ */
 export function VenueDetailsForm({
   plan,
   profiles,
+  people,
   readOnly,
   onSave,
 }: {
   plan: VenuePlan;
   profiles: ProfileChoice[];
+  people: PlanningPeople['technicians'] | undefined;
   readOnly: boolean;
-  onSave: (v: { name?: string; profileId?: string }) => Promise<boolean>;
+  onSave: (v: UpdateVenueInput) => Promise<boolean>;
 }) {
+  const assigned = useMemo(() => plan.technicians.map((t) => t.id), [plan.technicians]);
   // The form shows the plan as loaded; only what the person typed is kept when the plan reloads.
-  const values = useMemo(() => ({ name: plan.venue.name, profileId: plan.venue.profileId }), [plan.venue.name, plan.venue.profileId]);
+  const values = useMemo(
+    () => ({ name: plan.venue.name, profileId: plan.venue.profileId, technicianIds: assigned }),
+    [plan.venue.name, plan.venue.profileId, assigned],
+  );
   const form = useForm<UpdateVenueInput, unknown, z.output<typeof updateVenueSchema>>({ resolver: zodResolver(updateVenueSchema), values, resetOptions: keepTyped });
-  const [name, profileId] = useWatch({ control: form.control, name: ['name', 'profileId'] });
+  const [name, profileId, chosen = []] = useWatch({ control: form.control, name: ['name', 'profileId', 'technicianIds'] });
   const newer = plan.profile.latestVersion > plan.profile.version;
+  const choosing = !readOnly && people !== undefined;
+  const changed = name !== plan.venue.name || profileId !== plan.venue.profileId || (choosing && !sameSet(chosen, assigned));
   return (
     <form
       noValidate
       className="flex flex-col gap-3"
       onSubmit={form.handleSubmit(async (v) => {
-        const patch = {
+        const patch: UpdateVenueInput = {
           ...(v.name !== undefined && v.name !== plan.venue.name ? { name: v.name } : {}),
           ...(v.profileId !== undefined && v.profileId !== plan.venue.profileId ? { profileId: v.profileId } : {}),
+          ...(choosing && v.technicianIds && !sameSet(v.technicianIds, assigned) ? { technicianIds: v.technicianIds } : {}),
         };
-        if (await onSave(patch)) form.reset({ name: patch.name ?? plan.venue.name, profileId: patch.profileId ?? plan.venue.profileId });
+        if (await onSave(patch)) {
+          form.reset({ name: patch.name ?? plan.venue.name, profileId: patch.profileId ?? plan.venue.profileId, technicianIds: patch.technicianIds ?? assigned });
+        }
       })}
     >
       <TextField label="Venue name" id="f-venueName" disabled={readOnly} {...form.register('name')} error={form.formState.errors.name?.message} />
@@ -57,9 +74,35 @@ export function VenueDetailsForm({
           “{plan.profile.name}” has a newer version ({plan.profile.latestVersion}). Readings already taken keep version {plan.profile.version}.
         </p>
       )}
+      {choosing ? (
+        <fieldset>
+          <legend className="mb-1 text-sm font-medium">Technicians who test this venue</legend>
+          {people.length === 0 && <p className="text-sm text-ink-soft">Your organisation has no active technicians yet.</p>}
+          {people.map((p) => (
+            <label key={p.id} className="flex min-h-touch items-center gap-3">
+              <input type="checkbox" className="size-5 accent-brand" value={p.id} {...form.register('technicianIds')} />
+              <span>
+                {p.name} <span className="text-sm text-ink-soft">{p.email}</span>
+              </span>
+            </label>
+          ))}
+          {form.formState.errors.technicianIds?.message && (
+            <p role="alert" className="text-xs font-medium text-fail">
+              {form.formState.errors.technicianIds.message}
+            </p>
+          )}
+        </fieldset>
+      ) : (
+        <div>
+          <p className="mb-1 text-sm font-medium">Technicians who test this venue</p>
+          <ul className="text-sm">
+            {plan.technicians.length ? plan.technicians.map((t) => <li key={t.id}>{t.name}</li>) : <li className="text-ink-soft">Nobody assigned yet.</li>}
+          </ul>
+        </div>
+      )}
       {!readOnly && (
-        <Button type="submit" variant="secondary" disabled={name === plan.venue.name && profileId === plan.venue.profileId}>
-          Save venue details
+        <Button type="submit" variant="secondary" disabled={!changed}>
+          Save venue
         </Button>
       )}
     </form>
