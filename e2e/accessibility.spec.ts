@@ -143,6 +143,12 @@ async function visitAll(browser: Browser, role: DemoRole) {
       await page.getByLabel('Strip').selectOption({ label: 'Strip 6' });
       await expect(page.getByText(/^\d+ of \d+ readings/)).toBeVisible();
       if (!(await alreadyAudited(page, route))) findings.push(...(await audit(page, `${role} ${path} (Strip 6)`)));
+    } else if (route === '/equipment') {
+      // The same for the whole register: its reels show the table, filters and status marks.
+      await page.getByLabel('Kind').selectOption({ label: 'Reel' });
+      await expect(page.getByRole('row').filter({ hasText: /FC-\d/ })).toHaveCount(0);
+      await expect(page.getByRole('row').filter({ hasText: /RL-\d/ }).first()).toBeVisible();
+      if (!(await alreadyAudited(page, route))) findings.push(...(await audit(page, `${role} ${path} (reels)`)));
     } else if (!(await alreadyAudited(page, route))) {
       findings.push(...(await audit(page, `${role} ${path}`)));
     }
