@@ -34,6 +34,9 @@ export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType
               accept="image/*"
               capture="environment"
               className="sr-only"
+              // Reached through the button beside it: out of the tab order, named the same.
+              tabIndex={-1}
+              aria-label="Take a photo"
               onChange={(e) => pick(e.currentTarget)}
               disabled={busy}
               data-testid="camera-input"
@@ -49,6 +52,8 @@ export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType
           type="file"
           accept={`${ATTACHMENT_ACCEPT},image/*`}
           className="sr-only"
+          tabIndex={-1}
+          aria-label="Attach a file"
           onChange={(e) => pick(e.currentTarget)}
           disabled={busy}
           data-testid="file-input"

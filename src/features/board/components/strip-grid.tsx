@@ -70,7 +70,7 @@ export function StripGrid({ strips, linkTo, compact = false }: { strips: BoardSt
         return (
           <li key={s.id} data-strip={s.label} data-status={s.status}>
             {linkTo ? (
-              <Link to={linkTo(s)} className={`${cls} hover:bg-paper`} aria-label={`${s.label}: ${look.label}, ${s.done} of ${s.total} steps`}>
+              <Link to={linkTo(s)} className={`${cls} hover:bg-paper`}>
                 {body}
               </Link>
             ) : (

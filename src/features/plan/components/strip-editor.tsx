@@ -257,7 +257,7 @@ function RemovePosition({ position, onRemove }: { position: PlanPosition; onRemo
   const steps = position.steps.filter((s) => !s.removedAt).length;
   if (!asking) {
     return (
-      <Button variant="secondary" onClick={() => setAsking(true)} aria-label={`Remove ${position.name} from the strip`}>
+      <Button variant="secondary" onClick={() => setAsking(true)} aria-label={`Remove position: ${position.name}`}>
         Remove position
       </Button>
     );
