@@ -6,7 +6,10 @@ import { updateVenueSchema, type UpdateVenueInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { keepTyped } from '@/lib/form-values';
+import { timeZoneChoices } from '@shared/format/date-time';
 import type { VenuePlan } from '../api/types';
+
+const ZONES = timeZoneChoices();
 
 export interface ProfileChoice {
   name: string;
@@ -23,12 +26,13 @@ export function VenueDetailsForm({
   plan: VenuePlan;
   profiles: ProfileChoice[];
   readOnly: boolean;
-  onSave: (v: { name?: string; profileId?: string }) => Promise<boolean>;
+  onSave: (v: { name?: string; profileId?: string; timeZone?: string }) => Promise<boolean>;
 }) {
   // The form shows the plan as loaded; only what the person typed is kept when the plan reloads.
-  const values = useMemo(() => ({ name: plan.venue.name, profileId: plan.venue.profileId }), [plan.venue.name, plan.venue.profileId]);
+  const { name: savedName, profileId: savedProfileId, timeZone: savedZone } = plan.venue;
+  const values = useMemo(() => ({ name: savedName, profileId: savedProfileId, timeZone: savedZone }), [savedName, savedProfileId, savedZone]);
   const form = useForm<UpdateVenueInput, unknown, z.output<typeof updateVenueSchema>>({ resolver: zodResolver(updateVenueSchema), values, resetOptions: keepTyped });
-  const [name, profileId] = useWatch({ control: form.control, name: ['name', 'profileId'] });
+  const [name, profileId, timeZone] = useWatch({ control: form.control, name: ['name', 'profileId', 'timeZone'] });
   const newer = plan.profile.latestVersion > plan.profile.version;
   return (
     <form
@@ -38,8 +42,9 @@ export function VenueDetailsForm({
         const patch = {
           ...(v.name !== undefined && v.name !== plan.venue.name ? { name: v.name } : {}),
           ...(v.profileId !== undefined && v.profileId !== plan.venue.profileId ? { profileId: v.profileId } : {}),
+          ...(v.timeZone !== undefined && v.timeZone !== savedZone ? { timeZone: v.timeZone } : {}),
         };
-        if (await onSave(patch)) form.reset({ name: patch.name ?? plan.venue.name, profileId: patch.profileId ?? plan.venue.profileId });
+        if (await onSave(patch)) form.reset({ name: patch.name ?? savedName, profileId: patch.profileId ?? savedProfileId, timeZone: patch.timeZone ?? savedZone });
       })}
     >
       <TextField label="Venue name" id="f-venueName" disabled={readOnly} {...form.register('name')} error={form.formState.errors.name?.message} />
@@ -52,13 +57,21 @@ export function VenueDetailsForm({
           )),
         )}
       </SelectField>
+      <SelectField label="Time zone of the hall" disabled={readOnly} {...form.register('timeZone')} error={form.formState.errors.timeZone?.message}>
+        {(ZONES.includes(savedZone) ? ZONES : [savedZone, ...ZONES]).map((z) => (
+          <option key={z} value={z}>
+            {z.replace(/_/g, ' ')}
+          </option>
+        ))}
+      </SelectField>
+      <p className="-mt-2 text-sm text-ink-soft">Every time of this venue (screens, exports, e-mails, certificates) is given in this zone.</p>
       {newer && (
         <p className="text-sm text-near">
           “{plan.profile.name}” has a newer version ({plan.profile.latestVersion}). Readings already taken keep version {plan.profile.version}.
         </p>
       )}
       {!readOnly && (
-        <Button type="submit" variant="secondary" disabled={name === plan.venue.name && profileId === plan.venue.profileId}>
+        <Button type="submit" variant="secondary" disabled={name === savedName && profileId === savedProfileId && timeZone === savedZone}>
           Save venue details
         </Button>
       )}
