@@ -75,6 +75,9 @@ export const formatTime = (at: Instant, ctx: DateContext = {}) => write(at, 'p',
 /** "02/12/2026, 07:14": for dense tables. */
 export const formatShortDateTime = (at: Instant, ctx: DateContext = {}) => write(at, 'P, p', ctx);
 
+/** "21 Nov, 07:40": for narrow columns where the year is given elsewhere. */
+export const formatCompactDateTime = (at: Instant, ctx: DateContext = {}) => write(at, 'd MMM, p', ctx);
+
 /** "UTC+01:00": the zone's offset from UTC at that instant (it changes with summer time). */
 export const utcOffsetLabel = (at: Instant, timeZone: string) => `UTC${format(zoned(at, timeZone), 'xxx')}`;
 
