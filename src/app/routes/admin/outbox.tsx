@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { useMessages } from '@/features/mail/api/get-messages';
 import { useMessage } from '@/features/mail/api/get-message';
+import { MessageText } from '@/features/mail/components/message-text';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { useDates } from '@/lib/date-format';
 
@@ -44,7 +45,7 @@ export default function OutboxPage() {
             <article>
               <h2 className="text-lg font-semibold">{message.data.subject}</h2>
               <p className="text-xs text-ink-soft">From {message.data.fromAddress} to {message.data.toAddresses}</p>
-              <pre className="mt-4 whitespace-pre-wrap break-words font-sans text-sm">{message.data.text}</pre>
+              <MessageText text={message.data.text} />
             </article>
           )}
         </Card>
