@@ -8,7 +8,10 @@ test('the director sets the venue time zone in its details and it is kept', asyn
   await signIn(page, 'director');
   const events = await apiAs<{ id: string }[]>(page, 'GET', '/api/events');
   const profiles = await apiAs<{ id: string }[]>(page, 'GET', '/api/profiles');
-  const created = await apiAs<Plan>(page, 'POST', `/api/events/${events.body[0].id}/venues`, { name: `Zone Hall ${Date.now()}`, profileId: profiles.body[0].id });
+  const created = await apiAs<Plan>(page, 'POST', `/api/events/${events.body[0].id}/venues`, {
+    name: `Zone Hall ${Date.now()}`,
+    profileId: profiles.body[0].id,
+  });
   expect(created.status).toBe(201);
   expect(created.body.venue.timeZone).toBe('Europe/London');
 

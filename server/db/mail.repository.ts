@@ -5,7 +5,8 @@ import { capturedMail, organisations, users } from './schema';
 export function mailRepository(db: Db) {
   return {
     /** What every message names: the organisation it is sent for. */
-    organisationName: (orgId: string) => db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, orgId)).get()?.name ?? '',
+    organisationName: (orgId: string) =>
+      db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, orgId)).get()?.name ?? '',
     /** Whom a reset message names to ask: the organisation's longest-serving enabled admin. */
     firstAdmin: (orgId: string) =>
       db

@@ -3,16 +3,7 @@
 import { COLOURS, type Column } from './layout';
 import type { CertificatePayload, CertifiedReading, DismissedFault } from '../signing/certificate-record';
 import { formatOhm } from '../../shared/domain/units';
-import {
-  type Clock,
-  limitText,
-  testLabel,
-  verdictLabel,
-  ruleLabel,
-  verdictColour,
-  verdictMark,
-  Writer,
-} from './certificate-writer';
+import { type Clock, limitText, testLabel, verdictLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
 
 export const shortSource = (source: string) =>
   source.replace(/^FIE Material Rules, art\. /, 'FIE art. ').replace(/^House rule \(no published value\)$/, 'House rule');

@@ -67,7 +67,9 @@ async function sendLink(scope: Scope, user: UserRow, purpose: 'invite' | 'reset'
     recipientName: user.name,
     subject: purpose === 'invite' ? `Your Stripwarden invitation from ${orgName}` : 'Reset your Stripwarden password',
     blocks,
-    contact: admin ? { name: admin.name, email: admin.email, role: invitedBy ? 'the administrator who invited you' : 'an administrator' } : null,
+    contact: admin
+      ? { name: admin.name, email: admin.email, role: invitedBy ? 'the administrator who invited you' : 'an administrator' }
+      : null,
   });
   await deps.mailer.send({ orgId: user.orgId, to: user.email, ...composed });
 }

@@ -86,7 +86,12 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     dismissed,
   };
   // Sign and render everything first; only then write, so a failure leaves nothing behind.
-  const issued = await renderCertificates(deps.workers, key, draftCertificates(deps.db, ctx, snap, readiness, readings), row.venue.timeZone);
+  const issued = await renderCertificates(
+    deps.workers,
+    key,
+    draftCertificates(deps.db, ctx, snap, readiness, readings),
+    row.venue.timeZone,
+  );
   const digest = readingsDigest(readings);
   const signOffId = await persistSignOff(deps, {
     user,

@@ -64,7 +64,8 @@ function zoned(at: Instant, timeZone: string | undefined): TZDate {
   return new TZDate(ms, timeZone ?? ownZone());
 }
 
-const write = (at: Instant, pattern: string, ctx: DateContext) => format(zoned(at, ctx.timeZone), pattern, { locale: localeFor(ctx.locale) });
+const write = (at: Instant, pattern: string, ctx: DateContext) =>
+  format(zoned(at, ctx.timeZone), pattern, { locale: localeFor(ctx.locale) });
 
 /** "2 Dec 2026, 07:14" (en-GB), "Dec 2, 2026, 7:14 AM" (en-US), "2 déc. 2026, 07:14" (fr). */
 export const formatDateTime = (at: Instant, ctx: DateContext = {}) => write(at, 'PP, p', ctx);

@@ -47,9 +47,33 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: page(<Home />), errorElement: <RouteErrorBoundary /> },
       { path: paths.notAllowed, element: <NotAllowed /> },
-      { path: paths.venue(), element: page(<VenueClock><Venue /></VenueClock>), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueBoard(), element: page(<VenueClock><VenueBoard /></VenueClock>), errorElement: <RouteErrorBoundary /> },
-      { path: paths.stripTest(), element: page(<StripClock><StripTest /></StripClock>), errorElement: <RouteErrorBoundary /> },
+      {
+        path: paths.venue(),
+        element: page(
+          <VenueClock>
+            <Venue />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueBoard(),
+        element: page(
+          <VenueClock>
+            <VenueBoard />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.stripTest(),
+        element: page(
+          <StripClock>
+            <StripTest />
+          </StripClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
       { path: paths.onThisTablet, element: page(<OnThisTablet />), errorElement: <RouteErrorBoundary /> },
       { path: paths.fault(), element: page(<Fault />), errorElement: <RouteErrorBoundary /> },
       { path: paths.equipment, element: page(<EquipmentRegister />), errorElement: <RouteErrorBoundary /> },
@@ -60,16 +84,58 @@ export const router = createBrowserRouter([
       },
       { path: paths.events, element: page(<Events />), errorElement: <RouteErrorBoundary /> },
       { path: paths.event(), element: page(<EventPage />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venuePlan(), element: page(<VenueClock><VenuePlan /></VenueClock>), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueReadings(), element: page(<VenueClock><VenueReadings /></VenueClock>), errorElement: <RouteErrorBoundary /> },
+      {
+        path: paths.venuePlan(),
+        element: page(
+          <VenueClock>
+            <VenuePlan />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueReadings(),
+        element: page(
+          <VenueClock>
+            <VenueReadings />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
       { path: paths.profiles, element: page(<Profiles />), errorElement: <RouteErrorBoundary /> },
       { path: paths.profile(), element: page(<Profile />), errorElement: <RouteErrorBoundary /> },
       { path: paths.faultLocator, element: page(<FaultLocator />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueSignOff(), element: page(<VenueClock><SignOff /></VenueClock>), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueCertificates(), element: page(<VenueClock><Certificates /></VenueClock>), errorElement: <RouteErrorBoundary /> },
+      {
+        path: paths.venueSignOff(),
+        element: page(
+          <VenueClock>
+            <SignOff />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueCertificates(),
+        element: page(
+          <VenueClock>
+            <Certificates />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
       {
         element: <RequireRole roles={['admin', 'director', 'organiser']} />,
-        children: [{ path: paths.venueAudit(), element: page(<VenueClock><VenueAudit /></VenueClock>), errorElement: <RouteErrorBoundary /> }],
+        children: [
+          {
+            path: paths.venueAudit(),
+            element: page(
+              <VenueClock>
+                <VenueAudit />
+              </VenueClock>,
+            ),
+            errorElement: <RouteErrorBoundary />,
+          },
+        ],
       },
       {
         element: <RequireRole roles={['admin']} />,

@@ -25,7 +25,12 @@ afterAll(() => t.close());
 const lastMailTo = async (to: string) => {
   // A reset is sent after its answer: wait for the message itself (no fixed delay).
   for (let i = 0; i < 500; i++) {
-    const m = t.db.select().from(capturedMail).all().filter((x) => x.toAddresses.includes(to)).at(-1);
+    const m = t.db
+      .select()
+      .from(capturedMail)
+      .all()
+      .filter((x) => x.toAddresses.includes(to))
+      .at(-1);
     if (m) return m;
     await new Promise((r) => setTimeout(r, 20));
   }

@@ -10,7 +10,9 @@ const render = (text: string) => renderToStaticMarkup(createElement(MessageText,
 
 describe('outbox message text', () => {
   test('an address on its own line and one ending a sentence become links; the sentence keeps its full stop', () => {
-    const html = render('Download them:\nhttp://localhost:3000/venues/abc/certificates\n\nOr see https://hall.example/verify/SW-2026-AB12-CD34-V.');
+    const html = render(
+      'Download them:\nhttp://localhost:3000/venues/abc/certificates\n\nOr see https://hall.example/verify/SW-2026-AB12-CD34-V.',
+    );
     expect(html).toContain('<a href="http://localhost:3000/venues/abc/certificates" target="_blank" rel="noopener noreferrer"');
     expect(html).toContain('<a href="https://hall.example/verify/SW-2026-AB12-CD34-V" target="_blank" rel="noopener noreferrer"');
     expect(html).toContain('>https://hall.example/verify/SW-2026-AB12-CD34-V</a><span>.</span>');
@@ -18,7 +20,11 @@ describe('outbox message text', () => {
 
   test('the parts put together are the text again', () => {
     const text = 'Ask Ada at ada@lakeshore.example.\nSign in: http://localhost:3000/sign-in\n';
-    expect(linkParts(text).map((p) => p.text).join('')).toBe(text);
+    expect(
+      linkParts(text)
+        .map((p) => p.text)
+        .join(''),
+    ).toBe(text);
   });
 
   test('markup in the text stays text, and other schemes never become links', () => {
