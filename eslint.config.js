@@ -80,6 +80,24 @@ export default tseslint.config(
       ],
     },
   },
+  // The one date module may use date-fns and its time-zone package as well (both run in the browser and Node).
+  {
+    files: ['shared/format/**/*.ts'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        {
+          patterns: [
+            {
+              regex: '^(?!zod$|date-fns$|date-fns/locale/[a-zA-Z-]+$|@date-fns/tz$|\\.{1,2}/).*',
+              message: 'shared/format imports only zod, date-fns (and its locales) and @date-fns/tz.',
+            },
+            { group: ['**/server/**', '**/src/**'], message: 'shared/ imports neither the client nor the server.' },
+          ],
+        },
+      ],
+    },
+  },
   // Size limits for the server (issue 14): a file over 350 lines or a function over 80 lines of code
   // is a sign that it does several jobs. A factory counts with the functions it holds.
   {

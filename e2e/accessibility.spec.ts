@@ -193,6 +193,7 @@ test('the screens before signing in have no serious or critical WCAG 2.2 AA viol
       event: 'Autumn Cup 2026',
       eventDates: { startsOn: '2026-10-10', endsOn: '2026-10-11' },
       venue: 'Riverside Annex',
+      timeZone: 'Europe/London',
       strips: ['Strip A1', 'Strip A2'],
       notCovering:
         status === 'valid'

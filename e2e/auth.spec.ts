@@ -69,6 +69,10 @@ test('an invitation e-mail reaches the local SMTP fake, its link sets a password
   expect(body).toContain('Robin Hale');
   expect(body).toContain('one-time link withheld');
   expect(body).not.toMatch(/\/set-password\//);
+  // The text part's sign-in address is a link that opens apart from the app; the withheld note is not.
+  const signInLink = page.locator('article pre a', { hasText: /\/sign-in$/ });
+  await expect(signInLink).toHaveAttribute('rel', 'noopener noreferrer');
+  await expect(page.locator('article pre a', { hasText: /withheld/ })).toHaveCount(0);
   await page.screenshot({ path: test.info().outputPath('outbox-withheld.png') });
   // The link reaches the person (here: the server's console, as with the local SMTP fake).
   const link = await oneTimeLinkFor('robin@lakeshore.example');

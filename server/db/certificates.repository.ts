@@ -1,13 +1,15 @@
 // Issued certificates: written by the sign-off, listed, looked up by number or by file hash, revoked.
 import { asc, desc, eq } from 'drizzle-orm';
 import type { Db, Tx } from './client';
-import { certificates, signOffs, strips, users } from './schema';
+import { certificates, signOffs, strips, users, venues } from './schema';
 
 export type CertificateRow = typeof certificates.$inferSelect;
 
 export function certificatesRepository(db: Db | Tx) {
   return {
     insert: (row: typeof certificates.$inferInsert) => db.insert(certificates).values(row).run(),
+    /** The venue's clock, for showing a certificate's times. */
+    venueTimeZone: (venueId: string) => db.select({ timeZone: venues.timeZone }).from(venues).where(eq(venues.id, venueId)).get()?.timeZone,
     numberTaken: (number: string) => !!db.select({ id: certificates.id }).from(certificates).where(eq(certificates.number, number)).get(),
 
     ofVenue: (venueId: string) =>

@@ -1,9 +1,20 @@
-import { and, desc, eq } from 'drizzle-orm';
+import { and, asc, desc, eq } from 'drizzle-orm';
 import type { Db } from './client';
-import { capturedMail } from './schema';
+import { capturedMail, organisations, users } from './schema';
 
 export function mailRepository(db: Db) {
   return {
+    /** What every message names: the organisation it is sent for. */
+    organisationName: (orgId: string) =>
+      db.select({ name: organisations.name }).from(organisations).where(eq(organisations.id, orgId)).get()?.name ?? '',
+    /** Whom a reset message names to ask: the organisation's longest-serving enabled admin. */
+    firstAdmin: (orgId: string) =>
+      db
+        .select({ name: users.name, email: users.email })
+        .from(users)
+        .where(and(eq(users.orgId, orgId), eq(users.role, 'admin'), eq(users.disabled, false)))
+        .orderBy(asc(users.createdAt), asc(users.id))
+        .get(),
     list: (orgId: string, limit = 200) =>
       db
         .select({

@@ -3,17 +3,7 @@
 import { COLOURS, type Column } from './layout';
 import type { CertificatePayload, CertifiedReading, DismissedFault } from '../signing/certificate-record';
 import { formatOhm } from '../../shared/domain/units';
-import {
-  formatUtc,
-  timeUtc,
-  limitText,
-  testLabel,
-  verdictLabel,
-  ruleLabel,
-  verdictColour,
-  verdictMark,
-  Writer,
-} from './certificate-writer';
+import { type Clock, limitText, testLabel, verdictLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
 
 export const shortSource = (source: string) =>
   source.replace(/^FIE Material Rules, art\. /, 'FIE art. ').replace(/^House rule \(no published value\)$/, 'House rule');
@@ -27,7 +17,7 @@ export const FAULT_KIND: Record<string, string> = {
   intermittent: 'Intermittent',
 };
 
-export function readingColumns(): Column<CertifiedReading>[] {
+export function readingColumns(clock: Clock): Column<CertifiedReading>[] {
   return [
     { header: 'Strip', width: 52, value: (r) => r.stripLabel, style: () => ({ weight: 500 }) },
     { header: 'Position', width: 74, value: (r) => r.position },
@@ -47,24 +37,25 @@ export function readingColumns(): Column<CertifiedReading>[] {
     },
     { header: 'Source', width: 84, value: (r) => shortSource(r.source), nowrap: true },
     { header: 'Tester', width: 70, value: (r) => r.takenBy },
-    { header: 'Taken (UTC)', width: 62, value: (r) => timeUtc(r.takenAt), nowrap: true },
+    { header: `Taken (${clock.offset})`, width: 62, value: (r) => clock.short(r.takenAt), nowrap: true },
   ];
 }
 
-export function testedLine(p: CertificatePayload) {
-  const [a, b] = [formatUtc(p.testedFrom), formatUtc(p.testedTo)];
-  if (a.slice(0, -10) === b.slice(0, -10)) return `${a.slice(0, -4)}–${b.slice(-9)}`;
-  return `${a} to ${b}`;
+export function testedLine(p: CertificatePayload, clock: Clock) {
+  const [a, b] = [p.testedFrom, p.testedTo];
+  // One day: one line (the offset is on the Signed line beside it).
+  if (clock.day(a) === clock.day(b)) return `${clock.day(a)}, ${clock.time(a)}–${clock.time(b)}`;
+  return `${clock.dateTime(a)} to ${clock.dateTime(b)}`;
 }
 
-export function commonFacts(p: CertificatePayload): [string, string][] {
+export function commonFacts(p: CertificatePayload, clock: Clock): [string, string][] {
   return [
     ['Limit profile', `${p.profile.name}, version ${p.profile.version}`],
     ...(p.profile.temperature ? ([['Temperature', p.profile.temperature]] as [string, string][]) : []),
     ['Tested by', p.testedBy.map((t) => t.name).join(', ') || '—'],
-    ['Testing', testedLine(p)],
+    ['Testing', testedLine(p, clock)],
     ['Signed by', `${p.signer.name}, ${p.signer.role}`],
-    ['Signed', formatUtc(p.signedAt)],
+    ['Signed', clock.dateTime(p.signedAt)],
   ];
 }
 
@@ -90,7 +81,7 @@ export function leadNullsTable(w: Writer, p: CertificatePayload) {
     p.leadNulls,
     [
       { header: 'Measured by', width: 120, value: (n) => n.takenBy, style: () => ({ weight: 500 }) },
-      { header: 'When (UTC)', width: 90, value: (n) => timeUtc(n.takenAt), nowrap: true },
+      { header: `When (${w.clock.offset})`, width: 90, value: (n) => w.clock.short(n.takenAt), nowrap: true },
       { header: 'Leads read', width: 60, align: 'right', value: (n) => formatOhm(n.valueOhm), nowrap: true },
       { header: 'Meter', width: 140, value: (n) => n.meter ?? '—' },
       { header: 'Readings using it', width: 70, align: 'right', value: (n) => String(n.readings) },
@@ -112,8 +103,8 @@ export function dismissedTable(w: Writer, faults: DismissedFault[], withStrip = 
       width: 90,
       value: (f) => `${FAULT_KIND[f.kind] ?? f.kind} ${f.conductors.startsWith('piste') ? '' : f.conductors}`.trim(),
     },
-    { header: 'Opened (UTC)', width: 62, value: (f) => timeUtc(f.openedAt) },
-    { header: 'Dismissed by', width: 90, value: (f) => `${f.dismissedBy}, ${timeUtc(f.dismissedAt)}` },
+    { header: `Opened (${w.clock.offset})`, width: 62, value: (f) => w.clock.short(f.openedAt) },
+    { header: 'Dismissed by', width: 90, value: (f) => `${f.dismissedBy}, ${w.clock.short(f.dismissedAt)}` },
     { header: 'Reason', width: withStrip ? 300 : 220, value: (f) => f.reason },
   ];
   if (withStrip) columns.unshift({ header: 'Strip', width: 52, value: (f) => f.stripLabel, style: () => ({ weight: 500 }) });

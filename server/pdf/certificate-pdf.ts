@@ -7,7 +7,8 @@ import { formatOhm } from '../../shared/domain/units';
 import { stepsForKind } from '../../shared/domain/checklist';
 import type { TestKind } from '../../shared/domain/limits';
 import { legendText } from '../../shared/domain/symbols';
-import { timeUtc, formatDateRange, testLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
+import { clockFor, formatDateRange, testLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
+import { DEFAULT_TIME_ZONE } from '../../shared/format/date-time';
 import { valueText, readingColumns, commonFacts, limitsTable, leadNullsTable, dismissedTable, equipmentFacts, equipmentSummary } from './certificate-blocks';
 
 export interface CertificateDocument {
@@ -16,6 +17,8 @@ export interface CertificateDocument {
   keyId: string;
   /** Venue: all certified readings; strip: that strip's. */
   readings: CertifiedReading[];
+  /** The venue's IANA zone, the document's clock (DEFAULT_TIME_ZONE when absent). */
+  timeZone?: string;
 }
 
 function renderVenue(w: Writer, doc: CertificateDocument) {
@@ -37,7 +40,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
     ['Strips certified', `${certified} of ${total}`],
     ['Items tested', String(p.items.length)],
     ['Readings', `${p.readings.count}${p.readings.nearLimit ? `, ${p.readings.nearLimit} near limit` : ', none near limit'}`],
-    ...commonFacts(p),
+    ...commonFacts(p, w.clock),
     ['Organisation', p.issuer.organisation.name],
   ]);
 
@@ -88,7 +91,7 @@ function renderVenue(w: Writer, doc: CertificateDocument) {
     { size: 8, color: COLOURS.soft },
     8,
   );
-  w.table(doc.readings, readingColumns(), { size: 7.5, headerSize: 6, padY: 2.6, zebra: true });
+  w.table(doc.readings, readingColumns(w.clock), { size: 7.5, headerSize: 6, padY: 2.6, zebra: true });
 
   w.need(90);
   w.y += 14;
@@ -199,7 +202,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
       ['Venue', placeOf(p.venue.name, strip.zone)],
       ...equipmentFacts(strip.items),
       ['Readings', `${strip.readings}${strip.nearLimit ? `, ${strip.nearLimit} near limit` : ', none near limit'}`],
-      ...commonFacts(p).filter(([k]) => k !== 'Limit profile'),
+      ...commonFacts(p, w.clock).filter(([k]) => k !== 'Limit profile'),
       ['Venue certificate', p.related.venueCertificate ?? '—'],
     ],
     4,
@@ -208,7 +211,7 @@ function renderStrip(w: Writer, doc: CertificateDocument) {
   const grid = readingGrid(doc.readings);
   w.table(grid.rows, grid.columns, { size: 7.5, headerSize: 6, padY: 3.4 });
   const nulls = p.leadNulls.map(
-    (n) => `${formatOhm(n.valueOhm)} (${n.takenBy}, ${timeUtc(n.takenAt)} UTC${n.meter ? `, ${n.meter}` : ''})`,
+    (n) => `${formatOhm(n.valueOhm)} (${n.takenBy}, ${w.clock.dateTime(n.takenAt)}${n.meter ? `, ${n.meter}` : ''})`,
   );
   w.text(
     `Values are the latest reading of each test, in ohms; OL is over range (open), which passes for insulation. Marks: ${legendText()}. ${nulls.length ? `The test-lead null was subtracted from what the meter showed: ${nulls.join('; ')}.` : 'No test-lead null was subtracted.'}`,
@@ -238,7 +241,7 @@ export async function renderCertificatePdf(input: CertificateDocument): Promise<
     keywords: ['Stripwarden', 'certificate', p.number, p.event.name, p.venue.name, ...p.strips.map((s) => s.label)].join(', '),
     creationDate: new Date(p.signedAt),
   });
-  const w = new Writer(doc, p, `${what} · ${p.event.name} · ${p.venue.name}`);
+  const w = new Writer(doc, p, `${what} · ${p.event.name} · ${p.venue.name}`, clockFor(input.timeZone ?? DEFAULT_TIME_ZONE, p.signedAt));
   if (p.kind === 'venue') renderVenue(w, input);
   else renderStrip(w, input);
   w.footers();

@@ -9,6 +9,15 @@ import { formatOhm } from '../../shared/domain/units';
 import { TEST_KIND_LABELS } from '../../shared/domain/checklist';
 import { READING_SYMBOLS } from '../../shared/domain/symbols';
 import { drawSymbol } from './symbol-mark';
+import {
+  formatCalendarRange,
+  formatCompactDateTime,
+  formatDate,
+  formatDateTimeWithOffset,
+  formatTime,
+  SERVER_LOCALE,
+  utcOffsetLabel,
+} from '../../shared/format/date-time';
 
 export const MARGIN_X = 56;
 export type Orientation = 'portrait' | 'landscape';
@@ -17,38 +26,34 @@ export const frameFor = (o: Orientation): Frame => {
   return { left: MARGIN_X, right: w - MARGIN_X, top: 78, bottom: h - 62 };
 };
 
-export const MONTHS = [
-  'January',
-  'February',
-  'March',
-  'April',
-  'May',
-  'June',
-  'July',
-  'August',
-  'September',
-  'October',
-  'November',
-  'December',
-];
-export const pad = (n: number) => String(n).padStart(2, '0');
-/** UTC, spelled out, so the document reads the same wherever it is rendered. */
-export function formatUtc(iso: string): string {
-  const d = new Date(iso);
-  return `${d.getUTCDate()} ${MONTHS[d.getUTCMonth()].slice(0, 3)} ${d.getUTCFullYear()}, ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())} UTC`;
+/**
+ * The venue's clock, as every time in the document is written (shared/format/date-time): the
+ * zone is fixed at rendering, so the same record and zone always give the same bytes.
+ */
+export interface Clock {
+  timeZone: string;
+  /** "21 Nov 2026, 07:40 (UTC+01:00)" */
+  dateTime(iso: string): string;
+  /** "21 Nov, 07:40", for table cells under a header that gives the offset. */
+  short(iso: string): string;
+  day(iso: string): string;
+  time(iso: string): string;
+  /** The zone's offset when the venue was signed off ("UTC+01:00"), for the column headers. */
+  offset: string;
 }
-export const timeUtc = (iso: string) => {
-  const d = new Date(iso);
-  return `${pad(d.getUTCDate())}/${pad(d.getUTCMonth() + 1)} ${pad(d.getUTCHours())}:${pad(d.getUTCMinutes())}`;
-};
-export function formatDateRange(startsOn: string, endsOn: string): string {
-  const [a, b] = [new Date(`${startsOn}T00:00:00Z`), new Date(`${endsOn}T00:00:00Z`)];
-  const month = (d: Date) => MONTHS[d.getUTCMonth()];
-  if (startsOn === endsOn) return `${a.getUTCDate()} ${month(a)} ${a.getUTCFullYear()}`;
-  if (a.getUTCFullYear() === b.getUTCFullYear() && a.getUTCMonth() === b.getUTCMonth())
-    return `${a.getUTCDate()}–${b.getUTCDate()} ${month(b)} ${b.getUTCFullYear()}`;
-  return `${a.getUTCDate()} ${month(a)} ${a.getUTCFullYear()} – ${b.getUTCDate()} ${month(b)} ${b.getUTCFullYear()}`;
+export function clockFor(timeZone: string, signedAt: string): Clock {
+  const ctx = { timeZone, locale: SERVER_LOCALE };
+  return {
+    timeZone,
+    dateTime: (iso) => formatDateTimeWithOffset(iso, ctx),
+    short: (iso) => formatCompactDateTime(iso, ctx),
+    day: (iso) => formatDate(iso, ctx),
+    time: (iso) => formatTime(iso, ctx),
+    offset: utcOffsetLabel(signedAt, timeZone),
+  };
 }
+/** The event's days (calendar days: no zone). */
+export const formatDateRange = (startsOn: string, endsOn: string) => formatCalendarRange(startsOn, endsOn, { locale: SERVER_LOCALE });
 
 export const limitText = (r: CertifiedReading) =>
   r.limitOhm === null ? '—' : `${r.limitKind === 'min' ? 'min' : 'max'} ${formatOhm(r.limitOhm)}`;
@@ -94,6 +99,7 @@ export class Writer {
     readonly doc: PDFKit.PDFDocument,
     readonly p: CertificatePayload,
     private readonly runningTitle: string,
+    readonly clock: Clock,
   ) {
     this.pen = new Pen(doc);
   }
@@ -261,7 +267,7 @@ export class Writer {
     const textW = WIDTH - qr - 12;
     this.pen.line('SIGNED ELECTRONICALLY', left, top, { size: 6.5, weight: 600, color: COLOURS.soft, tracking: 0.8 });
     this.pen.line(this.p.signer.name, left, top + 11, { size: 13, weight: 600 });
-    this.pen.line(`${this.p.signer.role}, ${formatUtc(this.p.signedAt)}`, left, top + 29, { size: 9, color: COLOURS.soft });
+    this.pen.line(`${this.p.signer.role}, ${this.clock.dateTime(this.p.signedAt)}`, left, top + 29, { size: 9, color: COLOURS.soft });
     const plain: TextStyle = { size: 8.5, color: COLOURS.ink };
     const words = `${this.p.issuer.organisation.name} signed this certificate with its own digital key when the venue was signed off. To check that it is genuine, unaltered and still valid, scan the code or open ${this.p.verifyUrl}. Any change to the file or its record shows there. The technical details are in ${annexName}.`;
     let y = top + 46;

@@ -11,6 +11,8 @@ import { newId, nowIso, sha256Hex } from '../lib/ids';
 import type { InviteUserInput, UpdateUserInput } from '../../shared/schemas/auth';
 import { publicUser, toAuthUser } from '../presenters/users';
 import { bindScope } from './bind';
+import { mailRepository } from '../db/mail.repository';
+import { composeMail, link, p } from '../mail/compose';
 
 const TOKEN_TTL_HOURS = { invite: 72, reset: 2 } as const;
 const TOUCH_EVERY_MS = 60_000;
@@ -39,21 +41,37 @@ async function issueToken({ repo }: Scope, user: UserRow, purpose: 'invite' | 'r
   return token;
 }
 
-async function sendLink(scope: Scope, user: UserRow, purpose: 'invite' | 'reset', invitedBy?: string) {
+/** An invitation names the admin who sent it; a reset, the organisation's first admin. */
+async function sendLink(scope: Scope, user: UserRow, purpose: 'invite' | 'reset', invitedBy?: AuthUser) {
   const { deps } = scope;
   const token = await issueToken(scope, user, purpose);
-  const link = `${deps.env.APP_ORIGIN}/set-password/${token}`;
+  const url = `${deps.env.APP_ORIGIN}/set-password/${token}`;
   const hours = TOKEN_TTL_HOURS[purpose];
-  const text =
+  const mail = mailRepository(deps.db);
+  const orgName = mail.organisationName(user.orgId);
+  const admin = invitedBy ?? mail.firstAdmin(user.orgId);
+  const blocks =
     purpose === 'invite'
-      ? `Hello ${user.name},\n\n${invitedBy ?? 'An administrator'} has invited you to Stripwarden as ${user.role}.\n\nChoose your password here (the link works once and expires in ${hours} hours):\n${link}\n`
-      : `Hello ${user.name},\n\nSomeone asked to reset your Stripwarden password. If it was you, choose a new one here (the link works once and expires in ${hours} hours):\n${link}\n\nIf it was not you, ignore this message.\n`;
-  await deps.mailer.send({
-    orgId: user.orgId,
-    to: user.email,
-    subject: purpose === 'invite' ? 'Your Stripwarden invitation' : 'Reset your Stripwarden password',
-    text,
+      ? [
+          p(`${invitedBy?.name ?? 'An administrator'} has invited you to ${orgName}'s Stripwarden as ${user.role}.`),
+          link(`Choose your password (the link works once and expires in ${hours} hours)`, url),
+        ]
+      : [
+          p(`Someone asked to reset your Stripwarden password at ${orgName}. If it was you, choose a new one.`),
+          link(`Choose a new password (the link works once and expires in ${hours} hours)`, url),
+          p('If it was not you, ignore this message: your password stays as it is.'),
+        ];
+  const composed = composeMail({
+    orgName,
+    origin: deps.env.APP_ORIGIN,
+    recipientName: user.name,
+    subject: purpose === 'invite' ? `Your Stripwarden invitation from ${orgName}` : 'Reset your Stripwarden password',
+    blocks,
+    contact: admin
+      ? { name: admin.name, email: admin.email, role: invitedBy ? 'the administrator who invited you' : 'an administrator' }
+      : null,
   });
+  await deps.mailer.send({ orgId: user.orgId, to: user.email, ...composed });
 }
 
 /** Null on any failure: the caller answers one message whether the e-mail exists or not. */
@@ -114,7 +132,7 @@ async function invite(scope: Scope, actor: AuthUser, input: InviteUserInput) {
     recordAudit(tx, actor, 'user.invited', 'user', id, { role: input.role });
   });
   const user = repo.findUserById(id)!;
-  await sendLink(scope, user, 'invite', actor.name);
+  await sendLink(scope, user, 'invite', actor);
   return { ...publicUser(user), disabled: false, invited: true };
 }
 

@@ -16,6 +16,7 @@ import { verifyUrlFor, type CertificatePayload } from '../signing/certificate-re
 import { currentSigningKey, publicJwks } from '../signing/signing-keys';
 import { isCertificateNumber, normaliseCertificateNumber } from '../../shared/domain/certificate-number';
 import { bindScope } from './bind';
+import { DEFAULT_TIME_ZONE } from '../../shared/format/date-time';
 
 function scopeOf(deps: AppDeps) {
   const access = accessService(deps.db);
@@ -51,6 +52,7 @@ function publicView(scope: Scope, c: CertificateRow) {
     event: p.event.name,
     eventDates: { startsOn: p.event.startsOn, endsOn: p.event.endsOn },
     venue: p.venue.name,
+    timeZone: scope.repo.venueTimeZone(c.venueId) ?? DEFAULT_TIME_ZONE,
     strips: p.strips.map((s) => s.label),
     notCovering: notCovering(scope, c, p),
     organisation: p.issuer.organisation.name,

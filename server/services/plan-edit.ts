@@ -73,6 +73,7 @@ export function readPlan(db: Db, user: AuthUser, venueId: string): VenuePlan {
       profileId: venue.profileId,
       clonedFromId: venue.clonedFromId,
       eventId: venue.eventId,
+      timeZone: venue.timeZone,
     },
     event: { id: event.id, name: event.name, startsOn: event.startsOn, endsOn: event.endsOn, directorId: event.directorId },
     profile: {

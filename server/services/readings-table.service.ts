@@ -5,6 +5,7 @@ import { readingsTableRepository } from '../db/readings-table.repository';
 import { accessService } from './access.service';
 import { csvCell, safeFileName } from '../lib/spreadsheet';
 import { matchesReadingsFilter, type ReadingsFilter } from '../../shared/schemas/readings-table';
+import { isoWithOffset } from '../../shared/format/date-time';
 
 const CSV_COLUMNS = [
   ['Strip', 'stripLabel'],
@@ -24,8 +25,9 @@ const CSV_COLUMNS = [
   ['Profile', 'profileName'],
   ['Profile version', 'profileVersion'],
   ['Taken by', 'takenByName'],
-  ['Taken at (UTC)', 'takenAt'],
-  ['Received at (UTC)', 'receivedAt'],
+  // ISO 8601 with the venue's offset: the hall's clock, and still one exact instant.
+  ['Taken at', 'takenAt'],
+  ['Received at', 'receivedAt'],
   ['Corrects reading', 'supersedesId'],
   ['Correction reason', 'correctionReason'],
   ['Superseded by', 'supersededBy'],
@@ -49,7 +51,11 @@ export function readingsTableService(deps: AppDeps) {
     csv(user: AuthUser, venueId: string, filter: ReadingsFilter = {}) {
       const { venue, rows: list } = rows(user, venueId, filter);
       const lines = [CSV_COLUMNS.map(([h]) => csvCell(h)).join(',')];
-      for (const r of list) lines.push(CSV_COLUMNS.map(([, k]) => csvCell(r[k])).join(','));
+      const at = (iso: string | null) => (iso ? isoWithOffset(iso, venue.timeZone) : null);
+      for (const r of list) {
+        const row = { ...r, takenAt: at(r.takenAt), receivedAt: at(r.receivedAt) };
+        lines.push(CSV_COLUMNS.map(([, k]) => csvCell(row[k])).join(','));
+      }
       return { fileName: `${safeFileName(venue.name)}-readings.csv`, body: `${lines.join('\r\n')}\r\n` };
     },
   };

@@ -221,12 +221,12 @@ export function draftCertificates(
 }
 
 /** Each draft signed and rendered to PDF, in memory. */
-export async function renderCertificates(workers: AppDeps['workers'], key: SigningKey, drafts: Draft[]): Promise<IssuedCertificate[]> {
+export async function renderCertificates(workers: AppDeps['workers'], key: SigningKey, drafts: Draft[], timeZone: string): Promise<IssuedCertificate[]> {
   const issued: IssuedCertificate[] = [];
   for (const d of drafts) {
     const { canonical, jws } = await signCertificatePayload(key, d.payload);
     // Rendered on a worker thread: a 120-strip venue's annex is seconds of CPU.
-    const rendered = await workers.run('renderCertificatePdf', { payload: d.payload, jws, keyId: key.kid, readings: d.readings });
+    const rendered = await workers.run('renderCertificatePdf', { payload: d.payload, jws, keyId: key.kid, readings: d.readings, timeZone });
     const pdf = Buffer.from(rendered.buffer, rendered.byteOffset, rendered.byteLength);
     issued.push({ ...d, canonical, jws, pdf, sha256: sha256Hex(pdf) });
   }

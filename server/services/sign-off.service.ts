@@ -14,6 +14,8 @@ import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessOf, req
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
 import { persistSignOff, yieldToEventLoop } from './sign-off-persist';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
+import { composeMail, link, p } from '../mail/compose';
+import { formatDateTimeWithOffset, SERVER_LOCALE } from '../../shared/format/date-time';
 
 /** The signed-off e-mail to the organiser and the director: the certificates page and each check link. */
 async function notify(deps: AppDeps, ctx: SigningContext, issued: IssuedCertificate[]) {
@@ -21,26 +23,29 @@ async function notify(deps: AppDeps, ctx: SigningContext, issued: IssuedCertific
   const recipients = [row.event.organiserId, row.event.directorId].filter((x): x is string => !!x);
   const people = signOffRepository(deps.db).usersByIds([...new Set(recipients)]);
   const origin = deps.env.APP_ORIGIN;
-  const list = issued
-    .map(
-      (c) =>
-        `  ${c.payload.kind === 'venue' ? 'Venue' : c.payload.strips[0].label}: ${c.payload.number}\n  ${verifyUrlFor(origin, c.payload.number)}`,
-    )
-    .join('\n\n');
+  const items = issued.map((c) => ({
+    label: `${c.payload.kind === 'venue' ? 'Venue' : c.payload.strips[0].label}: ${c.payload.number}`,
+    url: verifyUrlFor(origin, c.payload.number),
+  }));
+  const when = formatDateTimeWithOffset(ctx.signedAt, { timeZone: row.venue.timeZone, locale: SERVER_LOCALE });
   for (const person of people) {
-    const text =
-      `Hello ${person.name},\n\n` +
-      `${ctx.signer.displayName} has signed off ${row.venue.name} for ${row.event.name}. The signed certificates are ready.\n\n` +
-      `Download them (one PDF each, or all as a ZIP):\n${origin}/venues/${row.venue.id}/certificates\n\n` +
-      `Anyone can check a certificate, without signing in, on its verification page:\n\n${list}\n\n` +
-      `The certificates cover the competition equipment tested, not the building's electrical installation.\n`;
+    const mail = composeMail({
+      orgName: ctx.organisation.name,
+      origin,
+      recipientName: person.name,
+      subject: `Signed off: ${row.venue.name}, ${row.event.name}`,
+      blocks: [
+        p(`${ctx.signer.displayName} signed off ${row.venue.name} for ${row.event.name} on ${when}. The signed certificates are ready.`),
+        link('Download them (one PDF each, or all as a ZIP)', `${origin}/venues/${row.venue.id}/certificates`),
+        p('Anyone can check a certificate, without signing in, on its verification page:'),
+        { kind: 'links', items },
+        p("The certificates cover the competition equipment tested, not the building's electrical installation."),
+      ],
+      // The event's director, who signed.
+      contact: { name: ctx.signer.displayName, email: ctx.signer.email, role: 'the technical director of the event' },
+    });
     try {
-      await deps.mailer.send({
-        orgId: row.event.orgId,
-        to: person.email,
-        subject: `Signed off: ${row.venue.name}, ${row.event.name}`,
-        text,
-      });
+      await deps.mailer.send({ orgId: row.event.orgId, to: person.email, ...mail });
     } catch (err) {
       // The sign-off stands; the certificates page has everything the e-mail links to.
       deps.log.error(`sign-off e-mail to ${person.email} failed`, err);
@@ -81,7 +86,12 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     dismissed,
   };
   // Sign and render everything first; only then write, so a failure leaves nothing behind.
-  const issued = await renderCertificates(deps.workers, key, draftCertificates(deps.db, ctx, snap, readiness, readings));
+  const issued = await renderCertificates(
+    deps.workers,
+    key,
+    draftCertificates(deps.db, ctx, snap, readiness, readings),
+    row.venue.timeZone,
+  );
   const digest = readingsDigest(readings);
   const signOffId = await persistSignOff(deps, {
     user,

@@ -77,6 +77,8 @@ function createVenue(deps: AppDeps, user: AuthUser, eventId: string, input: Crea
       name: input.name,
       profileId: profileRow.id,
       clonedFromId: source?.venue.id ?? null,
+      // A clone is usually the same hall or the same city; otherwise the column's default.
+      ...(input.timeZone || source ? { timeZone: input.timeZone ?? source!.venue.timeZone } : {}),
     });
     const copied = source ? copyVenue(tx, user, source, venueId, input, at) : null;
     // The checklist follows the new venue's profile (loop steps where it asks for them).
@@ -93,8 +95,9 @@ function createVenue(deps: AppDeps, user: AuthUser, eventId: string, input: Crea
 
 function updateVenue(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: string | undefined, input: UpdateVenueInput) {
   return editPlan(deps, user, venueId, ifMatch, 'venue details', (tx, { venue }) => {
-    const patch: { name?: string; profileId?: string } = {};
+    const patch: { name?: string; profileId?: string; timeZone?: string } = {};
     if (input.name !== undefined && input.name !== venue.name) patch.name = input.name;
+    if (input.timeZone !== undefined && input.timeZone !== venue.timeZone) patch.timeZone = input.timeZone;
     if (input.profileId !== undefined && input.profileId !== venue.profileId) {
       const row = requireProfileOfOrg(tx, user, input.profileId);
       patch.profileId = row.id;

@@ -53,6 +53,7 @@ export function venuesService(deps: AppDeps) {
         return {
           id: venue.id,
           name: venue.name,
+          timeZone: venue.timeZone,
           eventId: event.id,
           eventName: event.name,
           startsOn: event.startsOn,

@@ -43,6 +43,8 @@ export const verificationSchema = z.strictObject({
   event: z.string(),
   eventDates: z.strictObject({ startsOn: z.string(), endsOn: z.string() }),
   venue: z.string(),
+  /** The venue's IANA time zone: the page shows the times in it. */
+  timeZone: z.string(),
   strips: z.array(z.string()),
   /** A venue certificate's strips whose own certificates were revoked: it no longer covers them. */
   notCovering: z.array(

@@ -70,6 +70,8 @@ export const venuePlanSchema = z.strictObject({
     profileId: z.string(),
     clonedFromId: z.string().nullable(),
     eventId: z.string(),
+    /** IANA name: the venue's times are shown in it. */
+    timeZone: z.string(),
   }),
   event: z.strictObject({ id: z.string(), name: z.string(), startsOn: z.string(), endsOn: z.string(), directorId: z.string().nullable() }),
   profile: z.strictObject({

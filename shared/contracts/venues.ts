@@ -7,6 +7,8 @@ import { idParams } from '../schemas/params';
 export const venueSummarySchema = z.strictObject({
   id: z.string(),
   name: z.string(),
+  /** IANA name: the venue's times are shown in it. */
+  timeZone: z.string(),
   eventId: z.string(),
   eventName: z.string(),
   startsOn: z.string(),

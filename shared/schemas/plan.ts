@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { EQUIPMENT_KINDS, TEST_KINDS, type TestKind } from '../domain/limits';
 import { cleanTypedName, idField, nameField, typedName } from './common';
 import { assetTagField } from './equipment';
+import { canonicalTimeZone } from '../format/date-time';
 
 const isoDate = (field: string) =>
   z
@@ -21,9 +22,22 @@ export const createEventSchema = z
   .refine((v) => v.endsOn >= v.startsOn, { path: ['endsOn'], message: 'The event cannot end before it starts.' });
 export type CreateEventInput = z.input<typeof createEventSchema>;
 
+/** An IANA time zone the engine knows ("Europe/Paris"), kept as Intl spells it. */
+export const timeZoneField = z
+  .string({ error: 'timeZone is required, as an IANA name like Europe/Paris.' })
+  .trim()
+  .transform((v, ctx) => {
+    const zone = canonicalTimeZone(v);
+    if (zone) return zone;
+    ctx.addIssue({ code: 'custom', message: `${v.slice(0, 64)} is not a time zone this server knows; give an IANA name like Europe/Paris.` });
+    return z.NEVER;
+  });
+
 export const createVenueSchema = z.strictObject({
   name: nameField,
   profileId: idField,
+  /** Absent: the cloned venue's, else DEFAULT_TIME_ZONE. */
+  timeZone: timeZoneField.optional(),
   cloneFromVenueId: idField.nullable().optional(),
   /** With a clone: also assign the same technicians. */
   copyTechnicians: z.boolean().optional(),
@@ -36,9 +50,9 @@ const technicianIds = z.array(idField).max(100).refine((ids) => new Set(ids).siz
 
 /** The venue's details; with technicianIds also who tests it, so the venue form saves once. */
 export const updateVenueSchema = z
-  .strictObject({ name: nameField.optional(), profileId: idField.optional(), technicianIds: technicianIds.optional() })
-  .refine((v) => v.name !== undefined || v.profileId !== undefined || v.technicianIds !== undefined, {
-    message: 'Nothing to change: give name, profileId or technicianIds.',
+  .strictObject({ name: nameField.optional(), profileId: idField.optional(), timeZone: timeZoneField.optional(), technicianIds: technicianIds.optional() })
+  .refine((v) => v.name !== undefined || v.profileId !== undefined || v.timeZone !== undefined || v.technicianIds !== undefined, {
+    message: 'Nothing to change: give name, profileId, timeZone or technicianIds.',
   });
 export type UpdateVenueInput = z.input<typeof updateVenueSchema>;
 

@@ -4,6 +4,7 @@ import { RouteErrorBoundary, ErrorView } from '@/components/errors/error-view';
 import { Loading } from '@/components/ui/card';
 import { RequireAuth, RequireRole, NotAllowed } from './routes/auth/require-auth';
 import { paths } from '@/config/paths';
+import { StripClock, VenueClock } from './venue-clock';
 
 const SignIn = lazy(() => import('./routes/auth/sign-in'));
 const SetPassword = lazy(() => import('./routes/auth/set-password'));
@@ -48,9 +49,33 @@ export const router = createBrowserRouter([
     children: [
       { index: true, element: page(<Home />), errorElement: <RouteErrorBoundary /> },
       { path: paths.notAllowed, element: <NotAllowed /> },
-      { path: paths.venue(), element: page(<Venue />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueBoard(), element: page(<VenueBoard />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.stripTest(), element: page(<StripTest />), errorElement: <RouteErrorBoundary /> },
+      {
+        path: paths.venue(),
+        element: page(
+          <VenueClock>
+            <Venue />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueBoard(),
+        element: page(
+          <VenueClock>
+            <VenueBoard />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.stripTest(),
+        element: page(
+          <StripClock>
+            <StripTest />
+          </StripClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
       { path: paths.scannedStrip, element: page(<ScannedStrip />), errorElement: <RouteErrorBoundary /> },
       { path: paths.scannedTag, element: page(<ScannedTag />), errorElement: <RouteErrorBoundary /> },
       { path: paths.onThisTablet, element: page(<OnThisTablet />), errorElement: <RouteErrorBoundary /> },
@@ -63,16 +88,58 @@ export const router = createBrowserRouter([
       },
       { path: paths.events, element: page(<Events />), errorElement: <RouteErrorBoundary /> },
       { path: paths.event(), element: page(<EventPage />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venuePlan(), element: page(<VenuePlan />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueReadings(), element: page(<VenueReadings />), errorElement: <RouteErrorBoundary /> },
+      {
+        path: paths.venuePlan(),
+        element: page(
+          <VenueClock>
+            <VenuePlan />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueReadings(),
+        element: page(
+          <VenueClock>
+            <VenueReadings />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
       { path: paths.profiles, element: page(<Profiles />), errorElement: <RouteErrorBoundary /> },
       { path: paths.profile(), element: page(<Profile />), errorElement: <RouteErrorBoundary /> },
       { path: paths.faultLocator, element: page(<FaultLocator />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueSignOff(), element: page(<SignOff />), errorElement: <RouteErrorBoundary /> },
-      { path: paths.venueCertificates(), element: page(<Certificates />), errorElement: <RouteErrorBoundary /> },
+      {
+        path: paths.venueSignOff(),
+        element: page(
+          <VenueClock>
+            <SignOff />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueCertificates(),
+        element: page(
+          <VenueClock>
+            <Certificates />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
       {
         element: <RequireRole roles={['admin', 'director', 'organiser']} />,
-        children: [{ path: paths.venueAudit(), element: page(<VenueAudit />), errorElement: <RouteErrorBoundary /> }],
+        children: [
+          {
+            path: paths.venueAudit(),
+            element: page(
+              <VenueClock>
+                <VenueAudit />
+              </VenueClock>,
+            ),
+            errorElement: <RouteErrorBoundary />,
+          },
+        ],
       },
       {
         element: <RequireRole roles={['admin']} />,

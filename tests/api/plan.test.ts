@@ -417,6 +417,22 @@ describe('cloning a venue', () => {
     expect(noTechs.body.technicians).toEqual([]);
   });
 
+  test('a venue\'s time zone: Europe/London unless given; a clone takes its source\'s; an unknown name is 422 and nothing is made', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const plain = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone default', profileId });
+    expect(plain.status).toBe(201);
+    expect(plain.body.venue.timeZone).toBe('Europe/London');
+    const given = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone given', profileId, timeZone: 'america/new_york' });
+    expect(given.body.venue.timeZone).toBe('America/New_York');
+    const clone = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone clone', profileId, cloneFromVenueId: given.body.venue.id });
+    expect(clone.body.venue.timeZone).toBe('America/New_York');
+    const venuesBefore = t.sqlite.prepare('select count(*) as n from venues').get() as { n: number };
+    const bad = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone bad', profileId, timeZone: 'Atlantis/Central' });
+    expect(bad.status).toBe(422);
+    expect(bad.body.errors[0].path).toBe('timeZone');
+    expect(t.sqlite.prepare('select count(*) as n from venues').get()).toEqual(venuesBefore);
+  });
+
   test('cloning another organisation’s venue is 404; using its profile is 422', async () => {
     const marco = await t.agentFor(DEMO.director);
     expect((await marco.post(`/api/events/${eventId}/venues`).send({ name: 'X', profileId, cloneFromVenueId: other.venueId })).status).toBe(404);

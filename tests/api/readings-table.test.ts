@@ -149,6 +149,39 @@ describe('GET /api/venues/:id/readings.csv', () => {
   });
 });
 
+describe('GET /api/venues/:id/readings.csv times', () => {
+  test('taken and received at are ISO 8601 with the venue offset, the same instant as stored', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    let plan = await marco.get(`/api/venues/${annexId}`);
+    plan = await marco.patch(`/api/venues/${annexId}`).set('If-Match', plan.headers.etag).send({ timeZone: 'Europe/Paris' });
+    expect(plan.status).toBe(200);
+    expect(plan.body.venue.timeZone).toBe('Europe/Paris');
+    const res = await marco.get(`/api/venues/${annexId}/readings.csv`).buffer(true).parse((r, cb) => {
+      let data = '';
+      r.setEncoding('utf8');
+      r.on('data', (c: string) => (data += c));
+      r.on('end', () => cb(null, data));
+    });
+    const [header, ...lines] = parseCsv(res.body as string);
+    const taken = header.indexOf('Taken at');
+    const received = header.indexOf('Received at');
+    expect(lines.length).toBeGreaterThan(0);
+    const stored = new Map((t.sqlite.prepare('select id, taken_at as at from readings').all() as { id: string; at: string }[]).map((r) => [r.id, r.at]));
+    for (const l of lines) {
+      // The demo's readings are in November: Paris is on CET, UTC+01:00 (IANA tz database, Rule EU: summer time ends on the last Sunday of October).
+      expect(l[taken]).toMatch(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}\+01:00$/);
+      expect(Math.floor(Date.parse(l[taken]) / 1000)).toBe(Math.floor(Date.parse(stored.get(l[header.indexOf('Reading id')])!) / 1000));
+      if (l[received]) expect(l[received]).toMatch(/\+01:00$/);
+    }
+    // A name Intl does not know is refused and changes nothing (422, the field named).
+    plan = await marco.get(`/api/venues/${annexId}`);
+    const bad = await marco.patch(`/api/venues/${annexId}`).set('If-Match', plan.headers.etag).send({ timeZone: 'Mars/Olympus_Mons' });
+    expect(bad.status).toBe(422);
+    expect(bad.headers['content-type']).toMatch(/problem\+json/);
+    expect((await marco.get(`/api/venues/${annexId}`)).body.venue.timeZone).toBe('Europe/Paris');
+  });
+});
+
 describe('GET /api/venues/:id/readings.csv with the table’s filters', () => {
   const csvOf = async (agent: Awaited<ReturnType<TestApp['agentFor']>>, url: string) => {
     const res = await agent.get(url).buffer(true).parse((r, cb) => {
@@ -191,8 +224,9 @@ describe('GET /api/venues/:id/readings.csv with the table’s filters', () => {
     expect(rows).toHaveLength(expected);
     for (const r of rows) {
       expect(r['Taken by']).toBe('Sam Reyes');
-      expect(Date.parse(r['Taken at (UTC)'])).toBeGreaterThanOrEqual(Date.parse(from));
-      expect(Date.parse(r['Taken at (UTC)'])).toBeLessThanOrEqual(Date.parse(to));
+      // The CSV gives times to the second (ISO 8601 with the venue's offset).
+      expect(Date.parse(r['Taken at'])).toBeGreaterThanOrEqual(Math.floor(Date.parse(from) / 1000) * 1000);
+      expect(Date.parse(r['Taken at'])).toBeLessThanOrEqual(Date.parse(to));
     }
     // The same time written with another zone is the same instant.
     const shifted = new Date(Date.parse(from) + 2 * 3600_000).toISOString().replace('Z', '+02:00');

@@ -315,6 +315,19 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     expect(a.equals(b)).toBe(true);
   });
 
+  test('the PDF writes its times in the venue zone with the offset (IANA tz database: Paris on CET, New York on EST in November)', async () => {
+    const row = t.db.select().from(certificates).where(eq(certificates.number, issued[0].number)).get()!;
+    const payload = { ...(JSON.parse(row.payloadJson) as CertificatePayload), signedAt: '2026-11-21T09:30:00.000Z' };
+    const doc = { payload, jws: row.jws, keyId: row.keyId, readings: [] };
+    const text = async (timeZone: string) => (await readPdf(await renderCertificatePdf({ ...doc, timeZone }), { fonts: false })).pages.join(' ').replace(/\s+/g, ' ');
+    // 09:30 UTC is 10:30 in Paris (UTC+01:00) and 04:30 in New York (UTC−05:00).
+    const paris = await text('Europe/Paris');
+    expect(paris).toContain('21 Nov 2026, 10:30 (UTC+01:00)');
+    const ny = await text('America/New_York');
+    expect(ny).toContain('21 Nov 2026, 04:30 (UTC-05:00)');
+    expect(ny).not.toContain('UTC+01:00');
+  });
+
   test('the organiser and the director got the e-mail with the verification and certificates links (fake SMTP)', async () => {
     const mail = t.db.select().from(capturedMail).all().filter((m) => m.subject.startsWith('Signed off: Riverside Annex'));
     expect(mail.map((m) => m.toAddresses).sort()).toEqual([DEMO.director, DEMO.organiser]);

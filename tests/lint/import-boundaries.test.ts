@@ -27,6 +27,7 @@ const forbidden: [string, string, string, string][] = [
   ['shared/ imports the server', 'shared/domain/probe.ts', '../../server/app', 'no-restricted-imports'],
   ['shared/ imports the client', 'shared/domain/probe.ts', '../../src/config/paths', 'no-restricted-imports'],
   ['shared/ imports a package other than zod', 'shared/domain/probe.ts', 'date-fns', 'no-restricted-imports'],
+  ['shared/format imports a package other than zod and date-fns', 'shared/format/probe.ts', 'mathjs', 'no-restricted-imports'],
 ];
 
 // The first lint loads the TypeScript resolver and parses the imported modules for no-cycle: slow on a busy machine.

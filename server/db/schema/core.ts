@@ -2,6 +2,7 @@
 // Times are ISO-8601 strings (UTC); ids are random UUIDs unless a table says otherwise.
 import { createdAt, id, now } from './columns';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
+import { DEFAULT_TIME_ZONE } from '../../../shared/format/date-time';
 
 
 export const organisations = sqliteTable('organisations', {
@@ -94,6 +95,8 @@ export const venues = sqliteTable(
     // Optimistic concurrency for plan edits (ETag / If-Match).
     version: integer('version').notNull().default(1),
     clonedFromId: text('cloned_from_id'),
+    // The hall's clock (IANA name): every time of the venue is shown in it, whoever reads it.
+    timeZone: text('time_zone').notNull().default(DEFAULT_TIME_ZONE),
     createdAt: createdAt(),
   },
   (t) => [index('venues_event_idx').on(t.eventId)],

@@ -1,14 +1,16 @@
 import { useState } from 'react';
-import { format } from 'date-fns';
 import { useMessages } from '@/features/mail/api/get-messages';
 import { useMessage } from '@/features/mail/api/get-message';
+import { MessageText } from '@/features/mail/components/message-text';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
+import { useDates } from '@/lib/date-format';
 
 /** What the app has sent through the local SMTP fake (demo, development and tests). */
 export default function OutboxPage() {
   const list = useMessages();
   const [selected, setSelected] = useState<number | null>(null);
   const message = useMessage(selected);
+  const dates = useDates();
   return (
     <>
       <PageHeader
@@ -30,7 +32,7 @@ export default function OutboxPage() {
                 >
                   <div className="font-medium">{m.subject}</div>
                   <div className="text-xs text-ink-soft">
-                    To {m.toAddresses} · {format(new Date(m.receivedAt), 'd MMM yyyy HH:mm')}
+                    To {m.toAddresses} · <time dateTime={m.receivedAt}>{dates.dateTime(m.receivedAt)}</time>
                   </div>
                 </button>
               </li>
@@ -43,7 +45,7 @@ export default function OutboxPage() {
             <article>
               <h2 className="text-lg font-semibold">{message.data.subject}</h2>
               <p className="text-xs text-ink-soft">From {message.data.fromAddress} to {message.data.toAddresses}</p>
-              <pre className="mt-4 whitespace-pre-wrap break-words font-sans text-sm">{message.data.text}</pre>
+              <MessageText text={message.data.text} />
             </article>
           )}
         </Card>

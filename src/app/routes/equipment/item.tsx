@@ -10,7 +10,8 @@ import { useCalibrateEquipment } from '@/features/equipment/api/calibrate-equipm
 import { EquipmentStatusMark } from '@/features/equipment/components/equipment-table';
 import { EquipmentEditForm } from '@/features/equipment/components/edit-form';
 import { CalibrateForm } from '@/features/equipment/components/calibrate-form';
-import { dateTime, lengthText } from '@/features/equipment/components/labels';
+import { lengthText } from '@/features/equipment/components/labels';
+import { useDates } from '@/lib/date-format';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { DataTable, plainTableLook } from '@/components/ui/data-table';
 import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
@@ -32,10 +33,15 @@ function Section({ title, count, children }: { title: string; count: number; chi
   );
 }
 
+/** An instant in the reader's clock and locale (the item moves between venues). */
+function When({ at }: { at: string }) {
+  return <>{useDates().dateTime(at)}</>;
+}
+
 type ItemReading = NonNullable<ReturnType<typeof useEquipmentItem>['data']>['readings'][number];
 const col = createColumnHelper<ItemReading>();
 const readingColumns = [
-  col.accessor('takenAt', { header: 'When', cell: (c) => dateTime(c.getValue()), meta: { cellClassName: 'text-ink-soft' } }),
+  col.accessor('takenAt', { header: 'When', cell: (c) => <When at={c.getValue()} />, meta: { cellClassName: 'text-ink-soft' } }),
   col.display({ id: 'where', header: 'Where', cell: (c) => `${c.row.original.stripLabel} · ${c.row.original.venueName}` }),
   col.accessor('testKind', { header: 'Test', cell: (c) => `${TEST_KIND_LABELS[c.getValue() as TestKind] ?? c.getValue()} ${c.row.original.conductors}` }),
   col.accessor('valueText', { header: 'Value', meta: { cellClassName: 'font-mono' } }),
@@ -128,7 +134,7 @@ export default function EquipmentItemPage() {
                     <span className="font-semibold">{p.stripLabel}</span>, {p.positionName} · {p.venueName} · {p.eventName}
                   </span>
                   <span className="text-ink-soft">
-                    {dateTime(p.assignedAt)} → {p.removedAt ? dateTime(p.removedAt) : <strong className="text-ink">there now</strong>}
+                    <When at={p.assignedAt} /> → {p.removedAt ? <When at={p.removedAt} /> : <strong className="text-ink">there now</strong>}
                   </span>
                 </li>
               ))}
@@ -142,7 +148,7 @@ export default function EquipmentItemPage() {
                     {f.kind} on {f.conductors}
                   </Link>
                   <span>{f.stripLabel}, {f.positionName} · {f.venueName}</span>
-                  <span className="text-ink-soft">{f.status} · {dateTime(f.openedAt)}</span>
+                  <span className="text-ink-soft">{f.status} · <When at={f.openedAt} /></span>
                 </li>
               ))}
             </ul>
@@ -155,7 +161,7 @@ export default function EquipmentItemPage() {
                   {r.action === 'cut-out' && r.lengthRemovedM != null && (
                     <span> · {lengthText(r.lengthRemovedM, system)} removed{r.lengthBeforeM != null && r.lengthAfterM != null && `: ${lengthText(r.lengthBeforeM, system)} → ${lengthText(r.lengthAfterM, system)}`}</span>
                   )}
-                  <span className="block text-ink-soft">{r.byName ?? '—'} · {dateTime(r.createdAt)}{r.notes ? ` · ${r.notes}` : ''}</span>
+                  <span className="block text-ink-soft">{r.byName ?? '—'} · <When at={r.createdAt} />{r.notes ? ` · ${r.notes}` : ''}</span>
                 </li>
               ))}
             </ul>
@@ -166,7 +172,7 @@ export default function EquipmentItemPage() {
                 <li key={c.id} className="flex flex-wrap justify-between gap-2 px-5 py-3">
                   <span className="font-semibold tabular-nums">VF {c.velocityFactor.toFixed(3)}</span>
                   <span>{c.roundTripNs} ns over {lengthText(c.lengthM, system)}</span>
-                  <span className="text-ink-soft">{c.byName ?? '—'} · {dateTime(c.createdAt)}</span>
+                  <span className="text-ink-soft">{c.byName ?? '—'} · <When at={c.createdAt} /></span>
                 </li>
               ))}
             </ul>

@@ -7,6 +7,7 @@ import { VenueForm } from '@/features/plan/components/venue-form';
 import { useProfiles } from '@/features/profiles/api/get-profiles';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { paths } from '@/config/paths';
+import { useDates } from '@/lib/date-format';
 
 const linkClass = 'inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium hover:bg-brand-soft';
 
@@ -15,6 +16,7 @@ export default function EventPage() {
   const me = useMe();
   const navigate = useNavigate();
   const event = useEvent(eventId);
+  const dates = useDates();
   const isDirector = me.data?.role === 'director';
   const profiles = useProfiles();
   const allEvents = useEvents();
@@ -27,7 +29,7 @@ export default function EventPage() {
     <>
       <PageHeader
         title={e.name}
-        subtitle={`${e.startsOn} – ${e.endsOn} · technical director ${e.directorName ?? '—'} · organiser ${e.organiserName ?? 'not chosen'}`}
+        subtitle={`${dates.calendarRange(e.startsOn, e.endsOn)} · technical director ${e.directorName ?? '—'} · organiser ${e.organiserName ?? 'not chosen'}`}
       />
       <div className={`grid gap-6 ${isDirector ? 'lg:grid-cols-[2fr_1fr]' : ''}`}>
         <Card className="p-0!">

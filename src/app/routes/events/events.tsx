@@ -6,12 +6,12 @@ import { usePlanningPeople } from '@/features/plan/api/get-planning-people';
 import { EventForm } from '@/features/plan/components/event-form';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { paths } from '@/config/paths';
-
-const dateRange = (a: string, b: string) => (a === b ? a : `${a} – ${b}`);
+import { useDates } from '@/lib/date-format';
 
 export default function EventsPage() {
   const me = useMe();
   const events = useEvents();
+  const { calendarRange: dateRange } = useDates();
   const isDirector = me.data?.role === 'director';
   const people = usePlanningPeople(isDirector);
   const create = useCreateEvent();

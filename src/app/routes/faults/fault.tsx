@@ -20,6 +20,8 @@ import { DataTable } from '@/components/ui/data-table';
 import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
 import { FAULT_SYMBOLS, READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
+import { TimeZoneProvider, useDates } from '@/lib/date-format';
+import { useVenueTimeZone } from '@/app/venue-clock';
 
 const statusLook = FAULT_SYMBOLS;
 const verdictLook = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
@@ -67,6 +69,8 @@ export default function FaultPage() {
   const me = useMe();
   const qc = useQueryClient();
   const add = useAddEstimate(faultId);
+  const zone = useVenueTimeZone(fault.data?.venueId);
+  const dates = useDates(zone);
   // The server words the saved estimates in the reader's units: after an m ↔ ft switch, read them again.
   const wordsIn = useRef(me.data?.unitSystem);
   useEffect(() => {
@@ -95,13 +99,13 @@ export default function FaultPage() {
   const title = (method: string) => METHOD_DEFINITIONS[method as LocateMethod]?.title ?? method;
 
   return (
-    <>
+    <TimeZoneProvider timeZone={zone}>
       <PageHeader
         title={`Fault on ${f.stripLabel} · ${f.positionName}`}
         subtitle={
           <>
             {FAULT_KIND_LABELS[f.kind]} ({f.conductors.replace('-', '–')}) · {f.equipment ? `${f.equipment.assetTag}, ${lengthM !== null ? formatLength(lengthM, unit) : 'length not recorded'}` : 'no item recorded'} · opened{' '}
-            {new Date(f.openedAt).toLocaleString()} by {f.openedByName ?? 'someone'}
+            {dates.dateTime(f.openedAt)} by {f.openedByName ?? 'someone'}
           </>
         }
         actions={
@@ -122,10 +126,10 @@ export default function FaultPage() {
         <div className="mb-4" data-testid="fault-closed">
           {f.dismissal ? (
             <Notice tone="info">
-              Dismissed as a typing mistake {new Date(f.dismissal.at).toLocaleString()} by {f.dismissal.byName ?? 'the technical director'}: “{f.dismissal.reason}”
+              Dismissed as a typing mistake {dates.dateTime(f.dismissal.at)} by {f.dismissal.byName ?? 'the technical director'}: “{f.dismissal.reason}”
             </Notice>
           ) : (
-            <Notice tone="success">Closed {f.closedAt ? new Date(f.closedAt).toLocaleString() : ''}: the retest passed.</Notice>
+            <Notice tone="success">Closed {f.closedAt ? dates.dateTime(f.closedAt) : ''}: the retest passed.</Notice>
           )}
         </div>
       )}
@@ -177,7 +181,7 @@ export default function FaultPage() {
                     {i + 1}. {title(e.method)}
                   </strong>
                   : {formatLength(e.distanceM, unit)} ±{formatLength(e.uncertaintyM, unit)} from the {e.fromEnd === 'near' ? 'apparatus end' : 'far end'}
-                  {e.itemLengthM !== null ? ` of the ${formatLength(e.itemLengthM, unit)} item` : ''} · {e.createdByName ?? ''}, {new Date(e.createdAt).toLocaleString()}
+                  {e.itemLengthM !== null ? ` of the ${formatLength(e.itemLengthM, unit)} item` : ''} · {e.createdByName ?? ''}, {dates.dateTime(e.createdAt)}
                   {e.itemShortenedSince && <p className="font-medium">Worked out when the item was {formatLength(e.itemLengthM!, unit)} long; it has been shortened since.</p>}
                   {apartOf.has(e.id) && <p className="font-medium">Not weighed in with the others: {apartOf.get(e.id)}</p>}
                   <p className="text-ink-soft">{e.explanation}</p>
@@ -261,7 +265,7 @@ export default function FaultPage() {
                 {r.action === 'cut-out' && r.lengthBeforeM !== null && r.lengthRemovedM !== null
                   ? `: ${formatLength(r.lengthRemovedM, unit)} removed, ${formatLength(r.lengthBeforeM, unit)} → ${formatLength(r.lengthBeforeM - r.lengthRemovedM, unit)}`
                   : ''}
-                {r.action === 'swapped' && f.currentEquipment ? `: ${f.currentEquipment.assetTag} put in` : ''} · {r.createdByName ?? ''}, {new Date(r.createdAt).toLocaleString()}
+                {r.action === 'swapped' && f.currentEquipment ? `: ${f.currentEquipment.assetTag} put in` : ''} · {r.createdByName ?? ''}, {dates.dateTime(r.createdAt)}
                 {r.notes && <p className="text-ink-soft">{r.notes}</p>}
                 <div className="mt-3 rounded-lg border border-line p-3">
                   <h3 className="mb-2 font-medium">Photos and files of this repair</h3>
@@ -282,6 +286,6 @@ export default function FaultPage() {
         <h2 className="mb-2 text-lg font-semibold">Notes</h2>
         <FaultNotes fault={f} canWrite={canWrite} />
       </Card>
-    </>
+    </TimeZoneProvider>
   );
 }

@@ -16,6 +16,7 @@ import { Button } from '@/components/ui/button';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { TextField } from '@/components/ui/field';
 import { paths } from '@/config/paths';
+import { useDates } from '@/lib/date-format';
 
 /** A copy of this version under a new name, as version 1 of a new profile. */
 function CopyForm({ onCopy, onCopied, error }: { onCopy: (name: string) => Promise<{ id: string }>; onCopied: (id: string) => void; error: string | null }) {
@@ -48,6 +49,7 @@ export default function ProfilePage() {
   const copy = useCopyProfile();
   const update = useUpdateProfile();
   const [editing, setEditing] = useState(false);
+  const dates = useDates();
   const canManage = me.data?.role === 'admin' || me.data?.role === 'director';
 
   if (profile.isPending) return <Loading />;
@@ -124,7 +126,7 @@ export default function ProfilePage() {
               {p.versions.map((v) => (
                 <li key={v.id} className="py-1">
                   {v.id === p.id ? <strong>Version {v.version}</strong> : <Link className="text-brand underline" to={paths.profile(v.id)}>Version {v.version}</Link>}
-                  <span className="text-ink-soft"> · {new Date(v.createdAt).toLocaleDateString()}{v.byName ? ` · ${v.byName}` : ''}</span>
+                  <span className="text-ink-soft"> · {dates.date(v.createdAt)}{v.byName ? ` · ${v.byName}` : ''}</span>
                 </li>
               ))}
             </ul>

@@ -26,6 +26,7 @@ import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
 import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
+import { useDates } from '@/lib/date-format';
 
 
 /** The testing screen: walk a strip's positions and steps with the keyboard alone. */
@@ -36,6 +37,7 @@ export default function StripTestPage() {
   const strip = useStrip(stripId);
   const me = useMe();
   const outbox = useOutbox();
+  const dates = useDates();
   const [lead, setLead] = useState<LeadNullRecord | null>(null);
   // This person's null of this session (kept in the tab; a shared tablet never uses another's).
   useEffect(() => setLead(readLeadNull(me.data?.id)), [me.data?.id]);
@@ -153,7 +155,7 @@ export default function StripTestPage() {
       {stale && (
         <div className="mb-4">
           <Notice tone="caution">
-            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of {new Date(strip.dataUpdatedAt).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' })}. Keep testing; readings are kept and sent later.
+            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of {dates.time(strip.dataUpdatedAt)}. Keep testing; readings are kept and sent later.
           </Notice>
         </div>
       )}

@@ -7,12 +7,14 @@ import { STRIP_STATUSES, stripStatusLook, VENUE_STATUS_LABELS } from '@/features
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { MarkIcon, ProgressBar } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
+import { useDates } from '@/lib/date-format';
 
 /** Every strip of a venue at a glance; it polls, so it follows the technicians without a reload. */
 export default function BoardPage() {
   const { venueId = '' } = useParams();
   const me = useMe();
   const board = useBoard(venueId);
+  const dates = useDates();
   const filters = useStripFilters(board.data?.strips ?? []);
   if (board.isPending) return <Loading />;
   if (board.isError && !board.data) return <Notice tone="error">{board.error.message}</Notice>;
@@ -26,7 +28,7 @@ export default function BoardPage() {
         subtitle={
           <>
             {venue.eventName} · {VENUE_STATUS_LABELS[venue.status] ?? venue.status} · updated{' '}
-            <time dateTime={generatedAt}>{new Date(generatedAt).toLocaleTimeString()}</time>, refreshes every {BOARD_REFRESH_MS / 1000} s
+            <time dateTime={generatedAt}>{dates.time(generatedAt)}</time>, refreshes every {BOARD_REFRESH_MS / 1000} s
             {board.isRefetchError ? ' · cannot reach the server, showing the last answer' : ''}
           </>
         }

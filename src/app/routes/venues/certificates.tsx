@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
-import { format } from 'date-fns';
+import { useDates } from '@/lib/date-format';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { revokeCertificateSchema, type RevokeCertificateInput } from '@shared/schemas/sign-off';
@@ -44,6 +44,7 @@ function RevokeForm({ venueId, number, onDone }: { venueId: string; number: stri
 
 function CertificateRow({ c, venueId, canRevoke }: { c: CertificateSummary; venueId: string; canRevoke: boolean }) {
   const [revoking, setRevoking] = useState(false);
+  const dates = useDates();
   return (
     <li className="py-3" data-testid={`certificate-${c.number}`}>
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
@@ -64,7 +65,7 @@ function CertificateRow({ c, venueId, canRevoke }: { c: CertificateSummary; venu
           )}
         </span>
       </div>
-      {c.status === 'revoked' && <p className="mt-1 text-sm text-fail">Revoked {c.revokedAt && format(new Date(c.revokedAt), 'd MMM yyyy, HH:mm')}: {c.revokedReason}</p>}
+      {c.status === 'revoked' && <p className="mt-1 text-sm text-fail">Revoked {c.revokedAt && dates.dateTime(c.revokedAt)}: {c.revokedReason}</p>}
       {revoking && <RevokeForm venueId={venueId} number={c.number} onDone={() => setRevoking(false)} />}
     </li>
   );
@@ -74,6 +75,7 @@ function CertificateRow({ c, venueId, canRevoke }: { c: CertificateSummary; venu
 export default function CertificatesPage() {
   const { venueId = '' } = useParams();
   const q = useCertificates(venueId);
+  const dates = useDates();
   if (q.isPending) return <Loading />;
   if (q.isError) return <Notice tone="error">{q.error.message}</Notice>;
   const { venue, event, certificates, canRevoke } = q.data;
@@ -112,7 +114,7 @@ export default function CertificatesPage() {
       {latest && (
         <Card>
           <h2 className="text-lg font-semibold">
-            Signed by {latest[0].signedBy} on {format(new Date(latest[0].signedAt), 'd MMM yyyy, HH:mm')}
+            Signed by {latest[0].signedBy} on {dates.dateTime(latest[0].signedAt)}
           </h2>
           {venue.status !== 'signed-off' && (
             <p className="mt-1 text-sm text-ink-soft">The venue changed after this sign-off, so these certificates are superseded until it is signed off again.</p>
@@ -130,7 +132,7 @@ export default function CertificatesPage() {
           {earlier.map((g) => (
             <div key={g[0].signOffId} className="mt-4">
               <h3 className="font-medium">
-                {g[0].signedBy}, {format(new Date(g[0].signedAt), 'd MMM yyyy, HH:mm')}
+                {g[0].signedBy}, {dates.dateTime(g[0].signedAt)}
               </h3>
               <ul className="divide-y divide-line">
                 {g.map((c) => (

@@ -1,6 +1,6 @@
 import { useState } from 'react';
 import { Link, useParams } from 'react-router';
-import { format } from 'date-fns';
+import { useDates } from '@/lib/date-format';
 import { useReadiness } from '@/features/sign-off/api/get-readiness';
 import type { SignOffResult } from '@/features/sign-off/api/sign-off-venue';
 import { SignOffForm } from '@/features/sign-off/components/sign-off-form';
@@ -13,6 +13,7 @@ const linkClass = 'inline-flex min-h-touch items-center rounded-lg border border
 export default function SignOffPage() {
   const { venueId = '' } = useParams();
   const readiness = useReadiness(venueId);
+  const dates = useDates();
   const [signed, setSigned] = useState<SignOffResult | null>(null);
   if (readiness.isPending) return <Loading />;
   if (readiness.isError) return <Notice tone="error">{readiness.error.message}</Notice>;
@@ -21,7 +22,7 @@ export default function SignOffPage() {
     <>
       <PageHeader
         title={`Sign-off: ${r.venue.name}`}
-        subtitle={`${r.event.name} · ${format(new Date(r.event.startsOn), 'd MMM yyyy')} – ${format(new Date(r.event.endsOn), 'd MMM yyyy')}`}
+        subtitle={`${r.event.name} · ${dates.calendarRange(r.event.startsOn, r.event.endsOn)}`}
         actions={
           <>
             <Link className={linkClass} to={paths.venue(venueId)}>
@@ -57,7 +58,7 @@ export default function SignOffPage() {
       {!signed && r.venue.status === 'signed-off' && (
         <div className="mb-6">
           <Notice tone="success">
-            This venue was signed off{r.signedOff ? ` on ${format(new Date(r.signedOff.signedAt), 'd MMM yyyy, HH:mm')}` : ''}. It stays frozen until a new reading,
+            This venue was signed off{r.signedOff ? ` on ${dates.dateTime(r.signedOff.signedAt)}` : ''}. It stays frozen until a new reading,
             repair or swap re-opens it. <Link className="font-medium underline" to={paths.venueCertificates(venueId)}>See its certificates</Link>.
           </Notice>
         </div>

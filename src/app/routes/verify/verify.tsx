@@ -1,7 +1,7 @@
 import type { ReactNode } from 'react';
 import { useForm } from 'react-hook-form';
 import { Link, useNavigate, useParams } from 'react-router';
-import { format } from 'date-fns';
+import { useDates } from '@/lib/date-format';
 import { useVerification } from '@/features/certificates/api/get-verification';
 import { VerificationVerdict } from '@/features/certificates/components/certificate-status';
 import { VerifyFileCheck } from '@/features/certificates/components/verify-file-check';
@@ -54,10 +54,11 @@ function NumberForm({ initial = '' }: { initial?: string }) {
   );
 }
 
-const when = (iso: string) => format(new Date(iso), 'd MMM yyyy, HH:mm');
-
 function Details({ number }: { number: string }) {
   const q = useVerification(number);
+  // Read anywhere: the venue's clock with its offset.
+  const dates = useDates(q.data?.timeZone);
+  const when = dates.dateTimeWithOffset;
   if (q.isPending) return <Loading label="Checking…" />;
   if (q.isError) return <Notice tone="error">{q.error.message}</Notice>;
   const v = q.data;
@@ -70,7 +71,7 @@ function Details({ number }: { number: string }) {
   const rows: [string, ReactNode][] = [
     ['Certificate number', <span className="font-mono">{v.number}</span>],
     ['Covers', v.kind === 'venue' ? `The venue (${v.strips.length} ${v.strips.length === 1 ? 'strip' : 'strips'}: ${v.strips.join(', ')})` : `One strip: ${v.strips.join(', ')}`],
-    ['Event', `${v.event}, ${format(new Date(v.eventDates.startsOn), 'd MMM')} – ${format(new Date(v.eventDates.endsOn), 'd MMM yyyy')}`],
+    ['Event', `${v.event}, ${dates.calendarRange(v.eventDates.startsOn, v.eventDates.endsOn)}`],
     ['Venue', v.venue],
     ['Organisation', v.organisation],
     ['Signed by', `${v.signedBy}, technical director, ${when(v.signedAt)}`],

@@ -7,9 +7,9 @@ import { useAttachments } from '../api/get-attachments';
 import { formatBytes } from '../utils/idempotency-key';
 import { TraceViewer } from './trace-viewer';
 import { UploadControl } from './upload-control';
+import { useDates } from '@/lib/date-format';
 
 const KIND_LABEL = { photo: 'Photo', trace: 'Scope trace', pdf: 'PDF' } as const;
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { dateStyle: 'medium', timeStyle: 'short' });
 
 /**
  * Photos, scope traces and PDFs of a fault, a repair or a register item: upload (with the camera on
@@ -37,6 +37,7 @@ export function AttachmentsPanel({
   label?: string;
 }) {
   const list = useAttachments(ownerType, ownerId);
+  const { dateTime: when } = useDates();
   const [openTrace, setOpenTrace] = useState<string | null>(null);
   const items = list.data ?? [];
   const photos = items.filter((a) => a.kind === 'photo');
@@ -96,6 +97,7 @@ export function AttachmentsPanel({
 }
 
 function FileRow({ a, open, onToggle }: { a: AttachmentDto; open: boolean; onToggle?: (() => void) | undefined }) {
+  const { dateTime: when } = useDates();
   return (
     <li className="flex flex-wrap items-center justify-between gap-2 px-3 py-2 text-sm">
       <span className="min-w-0">

@@ -1,4 +1,5 @@
 import type { AuditEntry } from '../api/get-venue-audit';
+import { useDates } from '@/lib/date-format';
 
 const ACTIONS: Record<string, string> = {
   'venue.created': 'created the venue',
@@ -48,13 +49,14 @@ function summary(e: AuditEntry): string {
 }
 
 export function AuditList({ entries }: { entries: AuditEntry[] }) {
+  const dates = useDates();
   if (entries.length === 0) return <p className="p-5 text-ink-soft">Nothing recorded yet.</p>;
   return (
     <ol className="divide-y divide-line">
       {entries.map((e) => (
         <li key={e.id} className="grid gap-1 px-5 py-3 sm:grid-cols-[11rem_1fr]">
           <time dateTime={e.at} className="text-sm text-ink-soft">
-            {new Date(e.at).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' })}
+            {dates.dateTime(e.at)}
           </time>
           <div>
             <p>

@@ -5,11 +5,13 @@ import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
 import { paths } from '@/config/paths';
 import { useVenues } from '../api/get-venues';
 import { STRIP_STATUSES, stripStatusLook, VENUE_STATUS_LABELS } from '../utils/strip-status';
+import { useDates } from '@/lib/date-format';
 
 /** The venues the signed-in person may see, with how far testing has got. */
 /** `actions` lets a page add links of other features (sign-off, certificates) to each card. */
 export function VenueList({ actions }: { actions?: (venue: { id: string; status: string }) => ReactNode } = {}) {
   const venues = useVenues();
+  const dates = useDates();
   if (venues.isPending) return <Loading />;
   if (venues.isError && !venues.data) return <Notice tone="error">{venues.error.message}</Notice>;
   if (venues.data.length === 0) {
@@ -32,7 +34,7 @@ export function VenueList({ actions }: { actions?: (venue: { id: string; status:
                   </Link>
                 </h2>
                 <p className="text-sm text-ink-soft">
-                  {v.eventName} · {v.startsOn === v.endsOn ? v.startsOn : `${v.startsOn} – ${v.endsOn}`} · {v.stripCount} strips
+                  {v.eventName} · {dates.calendarRange(v.startsOn, v.endsOn)} · {v.stripCount} strips
                 </p>
               </div>
               <span className="rounded-md bg-brand-soft px-2 py-1 text-xs font-semibold text-brand">{VENUE_STATUS_LABELS[v.status] ?? v.status}</span>

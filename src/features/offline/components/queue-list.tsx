@@ -7,6 +7,7 @@ import { READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
 import { acknowledge, flush, setAside, tryAgain } from '../stores/outbox';
 import type { ProblemKind, QueuedReading } from '../utils/queue';
+import { useDates } from '@/lib/date-format';
 
 const verdictLook: Record<string, { shape: MarkShape; tone: MarkTone; label: string }> = {
   pass: { shape: READING_SYMBOLS.pass.shape, tone: 'pass', label: 'Pass (this tablet)' },
@@ -38,12 +39,9 @@ export const PROBLEM_HELP: Record<ProblemKind, { title: string; todo: string }> 
   },
 };
 
-function clock(iso: string) {
-  return new Date(iso).toLocaleString([], { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
-}
-
 function ItemHead({ item }: { item: QueuedReading }) {
   const v = item.preview ? verdictLook[item.preview.verdict] : null;
+  const { shortDateTime: clock } = useDates();
   return (
     <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
       <Link to={paths.stripTest(item.stripId)} className="font-semibold text-brand underline">

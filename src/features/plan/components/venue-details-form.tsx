@@ -6,7 +6,10 @@ import { updateVenueSchema, type UpdateVenueInput } from '@shared/schemas/plan';
 import { Button } from '@/components/ui/button';
 import { SelectField, TextField } from '@/components/ui/field';
 import { keepTyped } from '@/lib/form-values';
+import { timeZoneChoices } from '@shared/format/date-time';
 import type { PlanningPeople, VenuePlan } from '../api/types';
+
+const ZONES = timeZoneChoices();
 
 export interface ProfileChoice {
   name: string;
@@ -17,7 +20,7 @@ export interface ProfileChoice {
 const sameSet = (a: readonly string[], b: readonly string[]) => a.length === b.length && a.every((x) => b.includes(x));
 
 /**
- * The venue's name, limit profile and technicians in one form with one save (one edit on the
+ * The venue's name, limit profile, time zone and technicians in one form with one save (one edit on the
  * server). Without `people` (a role that cannot plan) the technicians are listed, not chosen.
  */
 export function VenueDetailsForm({
@@ -35,15 +38,16 @@ export function VenueDetailsForm({
 }) {
   const assigned = useMemo(() => plan.technicians.map((t) => t.id), [plan.technicians]);
   // The form shows the plan as loaded; only what the person typed is kept when the plan reloads.
+  const { name: savedName, profileId: savedProfileId, timeZone: savedZone } = plan.venue;
   const values = useMemo(
-    () => ({ name: plan.venue.name, profileId: plan.venue.profileId, technicianIds: assigned }),
-    [plan.venue.name, plan.venue.profileId, assigned],
+    () => ({ name: savedName, profileId: savedProfileId, timeZone: savedZone, technicianIds: assigned }),
+    [savedName, savedProfileId, savedZone, assigned],
   );
   const form = useForm<UpdateVenueInput, unknown, z.output<typeof updateVenueSchema>>({ resolver: zodResolver(updateVenueSchema), values, resetOptions: keepTyped });
-  const [name, profileId, chosen = []] = useWatch({ control: form.control, name: ['name', 'profileId', 'technicianIds'] });
+  const [name, profileId, timeZone, chosen = []] = useWatch({ control: form.control, name: ['name', 'profileId', 'timeZone', 'technicianIds'] });
   const newer = plan.profile.latestVersion > plan.profile.version;
   const choosing = !readOnly && people !== undefined;
-  const changed = name !== plan.venue.name || profileId !== plan.venue.profileId || (choosing && !sameSet(chosen, assigned));
+  const changed = name !== savedName || profileId !== savedProfileId || timeZone !== savedZone || (choosing && !sameSet(chosen, assigned));
   return (
     <form
       noValidate
@@ -52,10 +56,16 @@ export function VenueDetailsForm({
         const patch: UpdateVenueInput = {
           ...(v.name !== undefined && v.name !== plan.venue.name ? { name: v.name } : {}),
           ...(v.profileId !== undefined && v.profileId !== plan.venue.profileId ? { profileId: v.profileId } : {}),
+          ...(v.timeZone !== undefined && v.timeZone !== savedZone ? { timeZone: v.timeZone } : {}),
           ...(choosing && v.technicianIds && !sameSet(v.technicianIds, assigned) ? { technicianIds: v.technicianIds } : {}),
         };
         if (await onSave(patch)) {
-          form.reset({ name: patch.name ?? plan.venue.name, profileId: patch.profileId ?? plan.venue.profileId, technicianIds: patch.technicianIds ?? assigned });
+          form.reset({
+            name: patch.name ?? savedName,
+            profileId: patch.profileId ?? savedProfileId,
+            timeZone: patch.timeZone ?? savedZone,
+            technicianIds: patch.technicianIds ?? assigned,
+          });
         }
       })}
     >
@@ -69,6 +79,14 @@ export function VenueDetailsForm({
           )),
         )}
       </SelectField>
+      <SelectField label="Time zone of the hall" disabled={readOnly} {...form.register('timeZone')} error={form.formState.errors.timeZone?.message}>
+        {(ZONES.includes(savedZone) ? ZONES : [savedZone, ...ZONES]).map((z) => (
+          <option key={z} value={z}>
+            {z.replace(/_/g, ' ')}
+          </option>
+        ))}
+      </SelectField>
+      <p className="-mt-2 text-sm text-ink-soft">Every time of this venue (screens, exports, e-mails, certificates) is given in this zone.</p>
       {newer && (
         <p className="text-sm text-near">
           “{plan.profile.name}” has a newer version ({plan.profile.latestVersion}). Readings already taken keep version {plan.profile.version}.

@@ -22,22 +22,12 @@ import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/statu
 import { READING_SYMBOLS } from '@shared/domain/symbols';
 import type { ReadingRow } from '../api/get-venue-readings';
 import type { CorrectionInput } from '../api/correct-reading';
+import { useDates } from '@/lib/date-format';
 
 const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const col = createColumnHelper<ReadingRow>();
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' });
 /** A reading typed offline reached the server a while after it was taken: say when. */
 const sentLater = (r: ReadingRow) => r.receivedAt !== null && Date.parse(r.receivedAt) - Date.parse(r.takenAt) >= 60_000;
-/** An ISO instant as the value of a datetime-local input (the person's own clock), and back. */
-const toLocalInput = (iso: string | undefined) => {
-  if (!iso) return '';
-  const d = new Date(iso);
-  return new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
-};
-const fromLocalInput = (value: string) => {
-  const d = new Date(value);
-  return value && !Number.isNaN(d.getTime()) ? d.toISOString() : undefined;
-};
 
 // A correction is a reading with a reason: the value and the reason as the reading's schema has them.
 const correctionSchema = z.object({
@@ -97,6 +87,11 @@ export function ReadingsTable({
   const [sorting, setSorting] = useState<SortingState>([]);
   const [correcting, setCorrecting] = useState<string | null>(null);
   const byId = useMemo(() => new Map(rows.map((r) => [r.id, r])), [rows]);
+  // The venue's clock, in the table and in the from/until inputs alike.
+  const dates = useDates();
+  const when = dates.shortDateTime;
+  const toLocalInput = (iso: string | undefined) => (iso ? dates.toInput(iso) : '');
+  const fromLocalInput = dates.fromInput;
 
   const columns = useMemo(
     () => [
@@ -186,7 +181,7 @@ export function ReadingsTable({
         },
       }),
     ],
-    [byId, canCorrect, correcting],
+    [byId, canCorrect, correcting, when],
   );
 
   const visible = useMemo(() => rows.filter((r) => matchesReadingsFilter(r, filter)), [rows, filter]);

@@ -4,8 +4,7 @@ import { formatOhm, LEAD_NULL_MAX_OHM } from '@shared/domain/units';
 import { parseLeadNull } from '@shared/domain/typed-reading';
 import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
 import { Button } from '@/components/ui/button';
-
-const clock = (iso: string) => new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
+import { useDates } from '@/lib/date-format';
 
 /**
  * The test leads' own resistance, measured tips together once per session and subtracted from this
@@ -21,6 +20,7 @@ export function LeadNull({
   onChange: (n: LeadNullRecord | null) => void;
 }) {
   const [editing, setEditing] = useState(false);
+  const { time: clock } = useDates();
   const [text, setText] = useState('');
   const [meter, setMeter] = useState(leadNull?.meter ?? '');
   const [error, setError] = useState<string | null>(null);

@@ -10,6 +10,7 @@ import { paths } from '@/config/paths';
 import type { StripStep } from '../api/get-strip';
 import { limitText, previewReading, type StepContext } from '../utils/preview';
 import { verdictLook } from '../utils/verdict-look';
+import { useDates } from '@/lib/date-format';
 
 export interface ReadingInput {
   stepId: string;
@@ -45,10 +46,6 @@ export function stepTitle(step: Pick<StripStep, 'testKind' | 'conductors'>) {
   return [TEST_KIND_LABELS[step.testKind], conductorsLabel(step)].filter(Boolean).join(' · ');
 }
 
-function time(iso: string) {
-  return new Date(iso).toLocaleTimeString([], { hour: '2-digit', minute: '2-digit' });
-}
-
 export function StepRow({
   index,
   step,
@@ -82,6 +79,7 @@ export function StepRow({
   onRecorded: () => void;
 }) {
   const [value, setValue] = useState('');
+  const { time } = useDates();
   const [error, setError] = useState<string | null>(null);
   const [busy, setBusy] = useState(false);
   const [correcting, setCorrecting] = useState(false);

@@ -1,0 +1,2 @@
+-- Venues made before this had no time zone: they take Europe/London (DEFAULT_TIME_ZONE in shared/format/date-time.ts) until the director sets the hall's own in the venue's details.
+ALTER TABLE `venues` ADD `time_zone` text DEFAULT 'Europe/London' NOT NULL;
