@@ -15,7 +15,7 @@ export function boardService(deps: AppDeps) {
     board(user: AuthUser, venueId: string) {
       const { venue, event } = access.requireVenue(user, venueId, 'read');
       const progress = venues.stripProgress(venueId);
-      const byStatus: Record<StripStatus, number> = { 'not-started': 0, 'in-progress': 0, clear: 0, 'fault-open': 0, withdrawn: 0 };
+      const byStatus: Record<StripStatus, number> = { 'not-started': 0, 'in-progress': 0, clear: 0, 'fault-open': 0, withdrawn: 0, 'out-of-service': 0 };
       let stepsDone = 0;
       let stepsTotal = 0;
       for (const p of progress) {
@@ -37,6 +37,9 @@ export function boardService(deps: AppDeps) {
           withdrawnReason: p.strip.withdrawnReason,
           openFaults: p.openFaults,
           ...p.counts,
+          outOfServiceSince: p.strip.outOfServiceSince,
+          minutesSinceIncident: null,
+          openIncidents: 0,
         })),
         openFaults,
         generatedAt: new Date().toISOString(),

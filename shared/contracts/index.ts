@@ -10,6 +10,7 @@ import { equipmentImportContracts } from './equipment-import';
 import { faultLocationContracts } from './fault-location';
 import { faultsContracts } from './faults';
 import { healthContracts } from './health';
+import { incidentsContracts } from './incidents';
 import { mailContracts } from './mail';
 import { planContracts } from './plan';
 import { profilesContracts } from './profiles';
@@ -31,6 +32,7 @@ export const contractsByArea = {
   faultLocation: faultLocationContracts,
   faults: faultsContracts,
   health: healthContracts,
+  incidents: incidentsContracts,
   mail: mailContracts,
   plan: planContracts,
   profiles: profilesContracts,
