@@ -34,7 +34,12 @@ function detail(scope: Scope, user: AuthUser, id: string) {
   const { row, venue, deps } = load(scope, user, id, 'read');
   const [incident] = presentIncidents(deps.db, [row]);
   const retest = retestOf(deps.db, row.incident, scope.repo.swapsOf([id]).map((s) => s.swap));
-  const mayTest = user.role === 'director' ? venue.event.orgId === user.orgId : user.role === 'technician';
+  let mayTest = true;
+  try {
+    scope.access.requireLoadedVenue(user, venue, 'test');
+  } catch {
+    mayTest = false;
+  }
   return { incident, retest, canResolve: incident.status === 'open' && retest.complete && mayTest };
 }
 

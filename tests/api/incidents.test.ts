@@ -9,7 +9,7 @@ import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-
 import { addOtherOrg, OTHER_ADMIN, OTHER_PASSWORD } from '../setup/other-org';
 import { pdfText } from '../setup/pdf-read';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from './testing-helpers';
-import { auditLog, incidents, venues } from '../../server/db/schema';
+import { auditLog, certificates, incidents, strips, venues } from '../../server/db/schema';
 
 let t: TestApp;
 let annex: string;
@@ -184,6 +184,22 @@ describe('an incident from opening to the amended certificate', () => {
     expect(zip.status).toBe(200);
     expect((zip.body as Buffer).includes(Buffer.from('incidents-'))).toBe(true);
     expect((zip.body as Buffer).includes(Buffer.from(state.newStrip!))).toBe(true);
+  });
+});
+
+describe('a plan change after the amendment', () => {
+  test('still re-opens the whole venue: every certificate superseded, no strip left suspended', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const lee = await t.agentFor(DEMO.annexTechnician);
+    const strip = await stripByLabel(t, annex, 'Annex 4');
+    await lee.post(`/api/venues/${annex}/incidents`).send({ stripId: strip.id, symptom: 'Floor cable trodden flat' }).expect(201);
+    expect(t.db.select().from(strips).where(eq(strips.id, strip.id)).get()!.outOfServiceSince).not.toBeNull();
+    const tag = (await marco.get(`/api/venues/${annex}`)).headers.etag as string;
+    const added = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag).send({ name: 'Second apparatus', equipmentKind: 'apparatus' });
+    expect(added.status, JSON.stringify(added.body)).toBe(201);
+    expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('testing');
+    expect(t.db.select().from(certificates).where(eq(certificates.venueId, annex)).all().filter((c) => c.status === 'valid')).toEqual([]);
+    expect(t.db.select().from(strips).where(eq(strips.venueId, annex)).all().filter((x) => x.outOfServiceSince)).toEqual([]);
   });
 });
 
