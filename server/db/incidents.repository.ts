@@ -11,6 +11,26 @@ const removed = alias(equipment, 'removed_equipment');
 const replacement = alias(equipment, 'replacement_equipment');
 const resolver = alias(users, 'resolver');
 
+/** The venue's pool of spares and its strips out of service. */
+function poolQueries(db: Db | Tx) {
+  return {
+    poolStrip: (venueId: string) =>
+      db
+        .select()
+        .from(strips)
+        .where(and(eq(strips.venueId, venueId), eq(strips.sparePool, true)))
+        .get(),
+    /** The venue's strips out of service now. */
+    outOfService: (venueId: string) =>
+      db
+        .select({ stripId: strips.id, strip: strips.label, since: strips.outOfServiceSince })
+        .from(strips)
+        .where(and(eq(strips.venueId, venueId), isNotNull(strips.outOfServiceSince)))
+        .orderBy(asc(strips.sortOrder))
+        .all(),
+  };
+}
+
 export function incidentsRepository(db: Db | Tx) {
   const base = () =>
     db
@@ -37,8 +57,13 @@ export function incidentsRepository(db: Db | Tx) {
     ofEquipment: (equipmentIds: string[]) =>
       equipmentIds.length === 0 ? [] : base().where(inArray(incidents.equipmentId, equipmentIds)).orderBy(desc(incidents.openedAt)).all(),
     openOfStrip: (stripId: string) =>
-      db.select().from(incidents).where(and(eq(incidents.stripId, stripId), eq(incidents.status, 'open'))).all(),
-    update: (id: string, patch: Partial<typeof incidents.$inferInsert>) => db.update(incidents).set(patch).where(eq(incidents.id, id)).run(),
+      db
+        .select()
+        .from(incidents)
+        .where(and(eq(incidents.stripId, stripId), eq(incidents.status, 'open')))
+        .all(),
+    update: (id: string, patch: Partial<typeof incidents.$inferInsert>) =>
+      db.update(incidents).set(patch).where(eq(incidents.id, id)).run(),
 
     insertSwap: (row: typeof incidentSwaps.$inferInsert) => db.insert(incidentSwaps).values(row).run(),
     swapsOf: (incidentIds: string[]) =>
@@ -57,11 +82,18 @@ export function incidentsRepository(db: Db | Tx) {
     /** The latest swap into each of these positions (a later swap replaces an earlier one). */
     latestSwapsInto: (positionIds: string[]) => {
       if (positionIds.length === 0) return new Map<string, SwapRow>();
-      const rows = db.select().from(incidentSwaps).where(inArray(incidentSwaps.positionId, positionIds)).orderBy(asc(incidentSwaps.createdAt)).all();
+      const rows = db
+        .select()
+        .from(incidentSwaps)
+        .where(inArray(incidentSwaps.positionId, positionIds))
+        .orderBy(asc(incidentSwaps.createdAt))
+        .all();
       return new Map(rows.map((r) => [r.positionId, r]));
     },
     swapsOfVenueSpares: (sparePositionIds: string[]) =>
-      sparePositionIds.length === 0 ? [] : db.select().from(incidentSwaps).where(inArray(incidentSwaps.sparePositionId, sparePositionIds)).all(),
+      sparePositionIds.length === 0
+        ? []
+        : db.select().from(incidentSwaps).where(inArray(incidentSwaps.sparePositionId, sparePositionIds)).all(),
 
     insertAmendment: (row: typeof amendments.$inferInsert) => db.insert(amendments).values(row).run(),
     /** The strip certificates amendments issued under one sign-off, oldest first. */
@@ -75,15 +107,7 @@ export function incidentsRepository(db: Db | Tx) {
         .orderBy(asc(amendments.amendedAt), asc(strips.sortOrder))
         .all(),
 
-    poolStrip: (venueId: string) => db.select().from(strips).where(and(eq(strips.venueId, venueId), eq(strips.sparePool, true))).get(),
-    /** The venue's strips out of service now. */
-    outOfService: (venueId: string) =>
-      db
-        .select({ stripId: strips.id, strip: strips.label, since: strips.outOfServiceSince })
-        .from(strips)
-        .where(and(eq(strips.venueId, venueId), isNotNull(strips.outOfServiceSince)))
-        .orderBy(asc(strips.sortOrder))
-        .all(),
+    ...poolQueries(db),
   };
 }
 export type IncidentsRepository = ReturnType<typeof incidentsRepository>;

@@ -26,7 +26,12 @@ export interface IncidentReportInput {
 }
 
 export async function renderIncidentReport(r: IncidentReportInput): Promise<Buffer> {
-  const doc = createDocument({ title: `Incidents: ${r.venue}`, subject: `Incident report, ${r.event}`, keywords: 'incidents, strips, competition', creationDate: new Date(r.generatedAt) });
+  const doc = createDocument({
+    title: `Incidents: ${r.venue}`,
+    subject: `Incident report, ${r.event}`,
+    keywords: 'incidents, strips, competition',
+    creationDate: new Date(r.generatedAt),
+  });
   const pen = new Pen(doc);
   const frame = frameFor('landscape');
   const newPage = () => {

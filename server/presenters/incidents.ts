@@ -3,7 +3,12 @@ import type { Db, Tx } from '../db/client';
 import { incidentsRepository, type IncidentListRow } from '../db/incidents.repository';
 import { certificatesRepository } from '../db/certificates.repository';
 
-type Item = { id: string; assetTag: string; kind: 'floor-cable' | 'reel' | 'piste' | 'body-wire' | 'apparatus' | 'other'; description: string };
+type Item = {
+  id: string;
+  assetTag: string;
+  kind: 'floor-cable' | 'reel' | 'piste' | 'body-wire' | 'apparatus' | 'other';
+  description: string;
+};
 const itemRef = (e: Item | null) => (e ? { id: e.id, assetTag: e.assetTag, kind: e.kind, description: e.description } : null);
 
 /** Whole minutes from opening to resolving (to `now` while open), rounded up: a strip out for 10 s was out. */
@@ -18,7 +23,9 @@ export function presentIncidents(db: Db | Tx, rows: IncidentListRow[], now = new
   for (const r of rows) {
     const id = r.incident.amendmentId;
     if (id && !amendedNumbers.has(`${id}:${r.incident.stripId}`)) {
-      const cert = certificatesRepository(db).ofAmendment(id).find((c) => c.stripId === r.incident.stripId);
+      const cert = certificatesRepository(db)
+        .ofAmendment(id)
+        .find((c) => c.stripId === r.incident.stripId);
       if (cert) amendedNumbers.set(`${id}:${r.incident.stripId}`, cert.number);
     }
   }

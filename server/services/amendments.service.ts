@@ -30,15 +30,20 @@ function requireAmendable(db: Db, venueId: string, ids: string[]) {
   ids.forEach((id, k) => {
     const r = byId.get(id);
     if (!r || r.incident.venueId !== venueId) {
-      throw unprocessable('unknown-incident', 'An incident named is not of this venue.', { errors: [{ path: `incidentIds.${k}`, message: 'Not an incident of this venue.' }] });
+      throw unprocessable('unknown-incident', 'An incident named is not of this venue.', {
+        errors: [{ path: `incidentIds.${k}`, message: 'Not an incident of this venue.' }],
+      });
     }
-    if (r.incident.status !== 'resolved') throw conflict('incident-open', `The incident on ${r.stripLabel} is not resolved yet.`, { incidentId: id });
-    if (r.incident.amendmentId) throw conflict('already-amended', `The incident on ${r.stripLabel} was amended already.`, { incidentId: id });
+    if (r.incident.status !== 'resolved')
+      throw conflict('incident-open', `The incident on ${r.stripLabel} is not resolved yet.`, { incidentId: id });
+    if (r.incident.amendmentId)
+      throw conflict('already-amended', `The incident on ${r.stripLabel} was amended already.`, { incidentId: id });
   });
   const stripIds = [...new Set(rows.map((r) => r.incident.stripId))];
   for (const s of stripIds) {
     const open = incidentsRepository(db).openOfStrip(s);
-    if (open.length > 0) throw conflict('incident-open', `${rows.find((r) => r.incident.stripId === s)!.stripLabel} has an incident still open.`);
+    if (open.length > 0)
+      throw conflict('incident-open', `${rows.find((r) => r.incident.stripId === s)!.stripLabel} has an incident still open.`);
   }
   return { rows, stripIds };
 }
@@ -50,14 +55,31 @@ function amendedReadiness(db: Db, venueId: string, stripIds: string[]) {
   const notReady = readiness.strips.filter((s) => amended.has(s.stripId) && s.state !== 'ready');
   if (notReady.length > 0) {
     throw conflict('not-ready', `${notReady.map((s) => s.label).join(', ')} is not ready: some readings are missing or failing.`, {
-      strips: notReady.map((s) => ({ stripId: s.stripId, label: s.label, state: s.state, missing: s.missing, failing: s.failing, openFaults: s.openFaults })),
+      strips: notReady.map((s) => ({
+        stripId: s.stripId,
+        label: s.label,
+        state: s.state,
+        missing: s.missing,
+        failing: s.failing,
+        openFaults: s.openFaults,
+      })),
     });
   }
-  const only: VenueReadiness = { ...readiness, strips: readiness.strips.map((s) => (amended.has(s.stripId) ? s : { ...s, state: 'missing' as const })) };
+  const only: VenueReadiness = {
+    ...readiness,
+    strips: readiness.strips.map((s) => (amended.has(s.stripId) ? s : { ...s, state: 'missing' as const })),
+  };
   return { snap, readiness: only };
 }
 
-async function sign(deps: AppDeps, user: AuthUser, ctxBase: Omit<SigningContext, 'dismissed'>, venueId: string, stripIds: string[], venueNumber: string) {
+async function sign(
+  deps: AppDeps,
+  user: AuthUser,
+  ctxBase: Omit<SigningContext, 'dismissed'>,
+  venueId: string,
+  stripIds: string[],
+  venueNumber: string,
+) {
   const { snap, readiness } = amendedReadiness(deps.db, venueId, stripIds);
   const readings = certifiedReadings(snap, readiness);
   const ctx: SigningContext = { ...ctxBase, dismissed: dismissedFaultsOf(deps.db, venueId, new Set(stripIds)) };
@@ -67,13 +89,18 @@ async function sign(deps: AppDeps, user: AuthUser, ctxBase: Omit<SigningContext,
   return renderCertificates(deps.workers, await currentSigningKey(deps.db, deps.env), drafts);
 }
 
-function persist(deps: AppDeps, user: AuthUser, v: { venueId: string; signOffId: string; at: string; rows: IncidentListRow[]; issued: IssuedCertificate[]; keyId: string }) {
+function persist(
+  deps: AppDeps,
+  user: AuthUser,
+  v: { venueId: string; signOffId: string; at: string; rows: IncidentListRow[]; issued: IssuedCertificate[]; keyId: string },
+) {
   const amendmentId = newId();
   deps.db.transaction((tx) => {
     const certs = certificatesRepository(tx);
     const incidents = incidentsRepository(tx);
     // Nothing may have been amended or re-opened meanwhile.
-    if (signOffRepository(tx).activeSignOff(v.venueId)?.id !== v.signOffId) throw conflict('changed-meanwhile', 'The venue was re-opened meanwhile; sign it off again.');
+    if (signOffRepository(tx).activeSignOff(v.venueId)?.id !== v.signOffId)
+      throw conflict('changed-meanwhile', 'The venue was re-opened meanwhile; sign it off again.');
     if (incidents.ofIds(v.rows.map((r) => r.incident.id)).some((r) => r.incident.amendmentId || r.incident.status !== 'resolved')) {
       throw conflict('changed-meanwhile', 'These incidents changed meanwhile; reload and amend again.');
     }
@@ -82,12 +109,30 @@ function persist(deps: AppDeps, user: AuthUser, v: { venueId: string; signOffId:
     for (const c of v.issued) {
       const id = newId();
       const previous = certs.validStripCertificate(c.stripId!);
-      certs.insert({ id, number: c.payload.number, signOffId: v.signOffId, venueId: v.venueId, stripId: c.stripId, kind: 'strip', payloadJson: c.canonical, jws: c.jws, keyId: v.keyId, pdfSha256: c.sha256, pdfPath: files.nameFor(c.payload.number), issuedAt: v.at, amendmentId });
+      certs.insert({
+        id,
+        number: c.payload.number,
+        signOffId: v.signOffId,
+        venueId: v.venueId,
+        stripId: c.stripId,
+        kind: 'strip',
+        payloadJson: c.canonical,
+        jws: c.jws,
+        keyId: v.keyId,
+        pdfSha256: c.sha256,
+        pdfPath: files.nameFor(c.payload.number),
+        issuedAt: v.at,
+        amendmentId,
+      });
       if (previous) certs.supersede(previous.id, { at: v.at, successorId: id });
       planRepository(tx).updateStrip(c.stripId!, { outOfServiceSince: null });
     }
     for (const r of v.rows) incidents.update(r.incident.id, { amendmentId });
-    recordAudit(tx, user, 'venue.amended', 'venue', v.venueId, { amendmentId, incidents: v.rows.map((r) => r.incident.id), certificates: v.issued.map((c) => c.payload.number) });
+    recordAudit(tx, user, 'venue.amended', 'venue', v.venueId, {
+      amendmentId,
+      incidents: v.rows.map((r) => r.incident.id),
+      certificates: v.issued.map((c) => c.payload.number),
+    });
   });
   return amendmentId;
 }
@@ -100,13 +145,25 @@ async function amend(deps: AppDeps, user: AuthUser, venueId: string, input: Amen
     throw new AppError(401, 'wrong-password', 'That password is not right. Nothing was amended.');
   }
   const active = repo.activeSignOff(venueId);
-  if (row.venue.status !== 'signed-off' || !active) throw conflict('not-signed-off', 'Only a signed-off venue is amended; sign the venue off instead.');
-  const venueCert = certificatesRepository(deps.db).ofSignOff(active.id).find((c) => c.certificate.kind === 'venue');
-  if (!venueCert || venueCert.certificate.status !== 'valid') throw conflict('venue-certificate-not-valid', 'The venue certificate is not valid; sign the venue off again.');
+  if (row.venue.status !== 'signed-off' || !active)
+    throw conflict('not-signed-off', 'Only a signed-off venue is amended; sign the venue off instead.');
+  const venueCert = certificatesRepository(deps.db)
+    .ofSignOff(active.id)
+    .find((c) => c.certificate.kind === 'venue');
+  if (!venueCert || venueCert.certificate.status !== 'valid')
+    throw conflict('venue-certificate-not-valid', 'The venue certificate is not valid; sign the venue off again.');
   const { rows, stripIds } = requireAmendable(deps.db, venueId, input.incidentIds);
   const org = repo.organisation(row.event.orgId)!;
   const at = new Date().toISOString();
-  const base = { row, signer: { ...user, displayName: me.name }, organisation: { id: org.id, name: org.name }, profile: repo.profile(row.venue.profileId)!, signedAt: at, statement: AMENDMENT_STATEMENT, origin: deps.env.APP_ORIGIN };
+  const base = {
+    row,
+    signer: { ...user, displayName: me.name },
+    organisation: { id: org.id, name: org.name },
+    profile: repo.profile(row.venue.profileId)!,
+    signedAt: at,
+    statement: AMENDMENT_STATEMENT,
+    origin: deps.env.APP_ORIGIN,
+  };
   const issued = await sign(deps, user, base, venueId, stripIds, venueCert.certificate.number);
   const files = certificateFiles(deps.env.DATA_DIR);
   const written: string[] = [];
@@ -117,7 +174,14 @@ async function amend(deps: AppDeps, user: AuthUser, venueId: string, input: Amen
       await files.writeAsync(name, c.pdf);
       written.push(name);
     }
-    amendmentId = persist(deps, user, { venueId, signOffId: active.id, at, rows, issued, keyId: (await currentSigningKey(deps.db, deps.env)).kid });
+    amendmentId = persist(deps, user, {
+      venueId,
+      signOffId: active.id,
+      at,
+      rows,
+      issued,
+      keyId: (await currentSigningKey(deps.db, deps.env)).kid,
+    });
   } catch (err) {
     for (const f of written) files.remove(f);
     throw err;

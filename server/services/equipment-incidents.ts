@@ -15,8 +15,14 @@ export function incidentHistory(db: Db, item: EquipmentRow, mayShow: (venueId: s
   for (const s of swaps) roles.set(s.incidentId, s.removedEquipmentId === item.id ? 'removed' : 'installed');
   const own = incidentsRepository(db).ofEquipment([item.id]);
   const viaSwap = incidentsRepository(db).ofIds([...roles.keys()].filter((id) => !own.some((r) => r.incident.id === id)));
-  const rows = [...own, ...viaSwap].filter((r) => mayShow(r.incident.venueId)).sort((a, b) => b.incident.openedAt.localeCompare(a.incident.openedAt));
-  const names = new Map(itemIncidentsRepository(db).venueNames([...new Set(rows.map((r) => r.incident.venueId))]).map((v) => [v.id, v]));
+  const rows = [...own, ...viaSwap]
+    .filter((r) => mayShow(r.incident.venueId))
+    .sort((a, b) => b.incident.openedAt.localeCompare(a.incident.openedAt));
+  const names = new Map(
+    itemIncidentsRepository(db)
+      .venueNames([...new Set(rows.map((r) => r.incident.venueId))])
+      .map((v) => [v.id, v]),
+  );
   const now = new Date().toISOString();
   const incidents = rows.map(({ incident: i, stripLabel, positionName }) => ({
     id: i.id,
@@ -42,5 +48,8 @@ export function incidentHistory(db: Db, item: EquipmentRow, mayShow: (venueId: s
     : toInspect
       ? 'Taken out of a strip during an incident: inspect it before it goes on a strip again.'
       : null;
-  return { incidents, inspection: { flagged: repeated || toInspect, repeatedIncidents: repeated, toInspect, incidentCount: count, reason } };
+  return {
+    incidents,
+    inspection: { flagged: repeated || toInspect, repeatedIncidents: repeated, toInspect, incidentCount: count, reason },
+  };
 }

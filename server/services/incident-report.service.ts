@@ -48,7 +48,10 @@ export async function incidentReport(deps: AppDeps, user: AuthUser, venueId: str
       item: item ? `${item.assetTag} (${i.positionName ?? EQUIPMENT_KIND_LABELS[item.kind]})` : (i.positionName ?? 'whole strip'),
       kind: item ? EQUIPMENT_KIND_LABELS[item.kind] : 'Not named',
       symptom: i.symptom,
-      swap: i.swaps.map((s) => `${s.removed?.assetTag ?? 'empty'} → ${s.replacement.assetTag}${s.spareTested ? ' (tested spare)' : ''}`).join('; ') || 'none',
+      swap:
+        i.swaps
+          .map((s) => `${s.removed?.assetTag ?? 'empty'} → ${s.replacement.assetTag}${s.spareTested ? ' (tested spare)' : ''}`)
+          .join('; ') || 'none',
       readings: retestReadings(i, rows) || 'none since the incident opened',
       openedAt: i.openedAt,
       resolvedAt: i.resolvedAt,

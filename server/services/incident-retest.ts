@@ -26,7 +26,9 @@ export function retestOf(db: Db | Tx, incident: IncidentRow, swaps: SwapRow[]) {
     const w = why(incident, swap, r);
     const reading = r.reading;
     // A reading on another item than the one in the position now does not count (DEVELOPERS.md).
-    const onItem = !!reading && (!reading.equipmentId || !r.positionEquipmentId || reading.equipmentId === r.positionEquipmentId || spareCovers(swap, r));
+    const onItem =
+      !!reading &&
+      (!reading.equipmentId || !r.positionEquipmentId || reading.equipmentId === r.positionEquipmentId || spareCovers(swap, r));
     const since = w === 'after-swap' ? swap!.createdAt : incident.openedAt;
     const fresh = w === 'standing' || (!!reading && reading.takenAt >= since);
     const passes = !!reading && onItem && reading.verdict !== 'fail';

@@ -33,7 +33,11 @@ function load({ deps, access, repo }: Scope, user: AuthUser, id: string, mode: V
 function detail(scope: Scope, user: AuthUser, id: string) {
   const { row, venue, deps } = load(scope, user, id, 'read');
   const [incident] = presentIncidents(deps.db, [row]);
-  const retest = retestOf(deps.db, row.incident, scope.repo.swapsOf([id]).map((s) => s.swap));
+  const retest = retestOf(
+    deps.db,
+    row.incident,
+    scope.repo.swapsOf([id]).map((s) => s.swap),
+  );
   let mayTest = true;
   try {
     scope.access.requireLoadedVenue(user, venue, 'test');
@@ -52,7 +56,8 @@ function open(scope: Scope, user: AuthUser, venueId: string, body: CreateInciden
     if (seen) throw conflict('client-id-used', 'This clientId belongs to another incident; make a new one on the tablet.');
   }
   const { venue } = access.requireVenue(user, venueId, 'read');
-  if (venue.status === 'planning') throw conflict('venue-planning', 'The venue is still being planned; incidents are for testing and competition days.');
+  if (venue.status === 'planning')
+    throw conflict('venue-planning', 'The venue is still being planned; incidents are for testing and competition days.');
   const plan = planRepository(deps.db);
   const strip = plan.findStrip(body.stripId);
   const bad = (path: string, message: string) => unprocessable('bad-incident', message, { errors: [{ path, message }] });
@@ -73,8 +78,18 @@ function open(scope: Scope, user: AuthUser, venueId: string, body: CreateInciden
       openedBy: user.id,
       openedAt: nowIso(),
     });
-    recordAudit(tx, user, 'incident.opened', 'incident', id, { stripId: strip.id, positionId: position?.position.id ?? null, symptom: body.symptom });
-    suspendStripIfSignedOff(tx, { venueId, stripId: strip.id, orgId: user.orgId, actorId: user.id, reason: `Incident on ${strip.label}: ${body.symptom}` });
+    recordAudit(tx, user, 'incident.opened', 'incident', id, {
+      stripId: strip.id,
+      positionId: position?.position.id ?? null,
+      symptom: body.symptom,
+    });
+    suspendStripIfSignedOff(tx, {
+      venueId,
+      stripId: strip.id,
+      orgId: user.orgId,
+      actorId: user.id,
+      reason: `Incident on ${strip.label}: ${body.symptom}`,
+    });
   });
   return { replayed: false, incident: presentIncidents(deps.db, [repo.byId(id)!])[0] };
 }
@@ -92,12 +107,24 @@ function list({ deps, access, repo }: Scope, user: AuthUser, venueId: string) {
 }
 
 /** Open faults of the position on the removed item close with a "swapped" repair: the item left the strip. */
-function closeFaultsOfRemoved(tx: Tx, user: AuthUser, v: { positionId: string; stripId: string; removedId: string; replacementId: string; at: string }) {
+function closeFaultsOfRemoved(
+  tx: Tx,
+  user: AuthUser,
+  v: { positionId: string; stripId: string; removedId: string; replacementId: string; at: string },
+) {
   const faults = faultsRepository(tx);
   for (const f of faults.unclosedOfStrip(v.stripId)) {
     if (f.fault.positionId !== v.positionId || f.fault.equipmentId !== v.removedId) continue;
     const repairId = newId();
-    faults.insertRepair({ id: repairId, faultId: f.fault.id, equipmentId: v.removedId, action: 'swapped', replacementEquipmentId: v.replacementId, createdBy: user.id, createdAt: v.at });
+    faults.insertRepair({
+      id: repairId,
+      faultId: f.fault.id,
+      equipmentId: v.removedId,
+      action: 'swapped',
+      replacementEquipmentId: v.replacementId,
+      createdBy: user.id,
+      createdAt: v.at,
+    });
     faults.update(f.fault.id, f.fault.version, { status: 'closed', closedAt: v.at });
     recordAudit(tx, user, 'fault.repaired', 'fault', f.fault.id, { repairId, action: 'swapped', byIncidentSwap: true });
   }
@@ -112,9 +139,13 @@ function swap(scope: Scope, user: AuthUser, id: string, body: SwapInput) {
   const refuse = (path: string, message: string) => unprocessable('bad-swap', message, { errors: [{ path, message }] });
   if (!position || position.strip.id !== i.stripId) throw refuse('positionId', `That position is not on ${row.stripLabel}.`);
   const spare = sparePool(deps.db, i.venueId).spares.find((s) => s.equipment.assetTag === body.replacementAssetTag);
-  if (!spare || spare.usedIn) throw refuse('replacementAssetTag', `${body.replacementAssetTag} is not an unused spare of this venue's pool.`);
+  if (!spare || spare.usedIn)
+    throw refuse('replacementAssetTag', `${body.replacementAssetTag} is not an unused spare of this venue's pool.`);
   if (spare.equipment.kind !== position.position.equipmentKind) {
-    throw refuse('replacementAssetTag', `${body.replacementAssetTag} is a ${spare.equipment.kind}; ${position.position.name} takes a ${position.position.equipmentKind}.`);
+    throw refuse(
+      'replacementAssetTag',
+      `${body.replacementAssetTag} is a ${spare.equipment.kind}; ${position.position.name} takes a ${position.position.equipmentKind}.`,
+    );
   }
   const removedId = position.position.equipmentId;
   const at = nowIso();
@@ -126,7 +157,13 @@ function swap(scope: Scope, user: AuthUser, id: string, body: SwapInput) {
     if (removedId) {
       const removed = items.findById(removedId)!;
       items.update(removedId, { toInspectIncidentId: id, version: removed.version + 1 });
-      closeFaultsOfRemoved(tx, user, { positionId: position.position.id, stripId: i.stripId, removedId, replacementId: spare.equipment.id, at });
+      closeFaultsOfRemoved(tx, user, {
+        positionId: position.position.id,
+        stripId: i.stripId,
+        removedId,
+        replacementId: spare.equipment.id,
+        at,
+      });
       recordAudit(tx, user, 'equipment.to-inspect', 'equipment', removedId, { incidentId: id });
     }
     const swapId = newId();
@@ -141,8 +178,20 @@ function swap(scope: Scope, user: AuthUser, id: string, body: SwapInput) {
       createdBy: user.id,
       createdAt: at,
     });
-    recordAudit(tx, user, 'incident.swapped', 'incident', id, { swapId, positionId: position.position.id, removedEquipmentId: removedId, replacement: body.replacementAssetTag, spareTested: spare.tested });
-    suspendStripIfSignedOff(tx, { venueId: i.venueId, stripId: i.stripId, orgId: user.orgId, actorId: user.id, reason: `Swap on ${row.stripLabel}, ${position.position.name}` });
+    recordAudit(tx, user, 'incident.swapped', 'incident', id, {
+      swapId,
+      positionId: position.position.id,
+      removedEquipmentId: removedId,
+      replacement: body.replacementAssetTag,
+      spareTested: spare.tested,
+    });
+    suspendStripIfSignedOff(tx, {
+      venueId: i.venueId,
+      stripId: i.stripId,
+      orgId: user.orgId,
+      actorId: user.id,
+      reason: `Swap on ${row.stripLabel}, ${position.position.name}`,
+    });
   });
   return detail(scope, user, id);
 }
@@ -150,7 +199,11 @@ function swap(scope: Scope, user: AuthUser, id: string, body: SwapInput) {
 function resolve(scope: Scope, user: AuthUser, id: string) {
   const { row, deps } = load(scope, user, id, 'test');
   if (row.incident.status !== 'open') throw conflict('incident-resolved', 'This incident is resolved already.');
-  const retest = retestOf(deps.db, row.incident, scope.repo.swapsOf([id]).map((s) => s.swap));
+  const retest = retestOf(
+    deps.db,
+    row.incident,
+    scope.repo.swapsOf([id]).map((s) => s.swap),
+  );
   if (!retest.complete) {
     const faults = retest.openFaults > 0 ? ` and ${retest.openFaults} fault(s) on the strip are still open` : '';
     throw conflict('retest-incomplete', `${row.stripLabel} is not ready: ${retest.missing.length} step(s) still to pass${faults}.`, {

@@ -26,7 +26,9 @@ export function sparePool(db: Db | Tx, venueId: string) {
   const pool = repo.poolStrip(venueId);
   if (!pool) return { venueId, stripId: null, spares: [] };
   const plan = planRepository(db);
-  const rows = signOffRepository(db).stepsWithLatestReading(venueId).filter((r) => r.stripId === pool.id && r.required);
+  const rows = signOffRepository(db)
+    .stepsWithLatestReading(venueId)
+    .filter((r) => r.stripId === pool.id && r.required);
   const positions = plan.positionsOfStrip(pool.id);
   const swaps = repo.swapsOfVenueSpares(positions.map((p) => p.id));
   const spares = positions.flatMap((p) => {
@@ -46,7 +48,13 @@ export function sparePool(db: Db | Tx, venueId: string) {
         tested: passed === steps.length,
         usedIn:
           swap && into
-            ? { incidentId: swap.incidentId, stripId: into.strip.id, stripLabel: into.strip.label, positionName: into.position.name, at: swap.createdAt }
+            ? {
+                incidentId: swap.incidentId,
+                stripId: into.strip.id,
+                stripLabel: into.strip.label,
+                positionName: into.position.name,
+                at: swap.createdAt,
+              }
             : null,
       },
     ];
@@ -79,15 +87,18 @@ function setSpares(deps: AppDeps, user: AuthUser, venueId: string, input: Spares
     }
     input.assetTags.forEach((tag, k) => {
       const item = items.findByTag(user.orgId, tag);
-      const refuse = (code: string, message: string) =>
-        unprocessable(code, message, { errors: [{ path: `assetTags.${k}`, message }] });
+      const refuse = (code: string, message: string) => unprocessable(code, message, { errors: [{ path: `assetTags.${k}`, message }] });
       if (!item) throw refuse('unknown-item', `There is no item with the asset tag ${tag} in the register.`);
       if (item.status === 'retired') throw refuse('retired-item', `${tag} is retired and cannot be a spare.`);
       const elsewhere = items.positionInVenue(item.id, venueId);
       if (elsewhere && elsewhere.stripId !== stripId) {
-        throw conflict('item-in-use', `${tag} is on ${elsewhere.stripLabel} (${elsewhere.positionName}) in this venue, not free to be a spare.`, {
-          errors: [{ path: `assetTags.${k}`, message: `Already on ${elsewhere.stripLabel}.` }],
-        });
+        throw conflict(
+          'item-in-use',
+          `${tag} is on ${elsewhere.stripLabel} (${elsewhere.positionName}) in this venue, not free to be a spare.`,
+          {
+            errors: [{ path: `assetTags.${k}`, message: `Already on ${elsewhere.stripLabel}.` }],
+          },
+        );
       }
       if (elsewhere) return;
       // A spare back in the pool takes its old position again, with the readings it had there.

@@ -101,7 +101,9 @@ export const spareSchema = z.strictObject({
   /** Every step of its checklist passed at this venue. */
   tested: z.boolean(),
   /** Swapped into a strip during an incident (it is no longer available). */
-  usedIn: z.strictObject({ incidentId: z.string(), stripId: z.string(), stripLabel: z.string(), positionName: z.string(), at: z.string() }).nullable(),
+  usedIn: z
+    .strictObject({ incidentId: z.string(), stripId: z.string(), stripLabel: z.string(), positionName: z.string(), at: z.string() })
+    .nullable(),
 });
 
 export const sparePoolSchema = z.strictObject({
@@ -152,7 +154,13 @@ export const incidentsContracts = {
     answer: json(incidentDetailSchema),
   }),
   /** 409 retest-incomplete with `missing` (the retest steps not done) when the strip is not ready. */
-  resolve: contract({ method: 'POST', path: '/incidents/:id/resolve', access: TESTERS, params: idParams, answer: json(incidentDetailSchema) }),
+  resolve: contract({
+    method: 'POST',
+    path: '/incidents/:id/resolve',
+    access: TESTERS,
+    params: idParams,
+    answer: json(incidentDetailSchema),
+  }),
   spares: contract({ method: 'GET', path: '/venues/:id/spares', access: STAFF, params: idParams, answer: json(sparePoolSchema) }),
   /** The event's director sets the pool: new tags get a position with their kind's checklist. */
   setSpares: contract({

@@ -36,7 +36,8 @@ const binary = (res: NodeJS.ReadableStream, cb: (err: Error | null, body: Buffer
 };
 
 describe('an incident from opening to the amended certificate', () => {
-  const state: { incidentId?: string; stripId?: string; oldStrip?: string; venueNumber?: string; newStrip?: string; removedId?: string } = {};
+  const state: { incidentId?: string; stripId?: string; oldStrip?: string; venueNumber?: string; newStrip?: string; removedId?: string } =
+    {};
 
   test('a spare reel is put in the pool and tested with its kind’s checklist, like any position', async () => {
     const ada = await t.agentFor(DEMO.admin);
@@ -50,7 +51,9 @@ describe('an incident from opening to the amended certificate', () => {
     // profile asks of reels (common practice).
     expect(pool.body.spares[0].stepsTotal).toBe(7);
     const lee = await t.agentFor(DEMO.annexTechnician);
-    const strip = (await lee.get(`/api/strips/${pool.body.stripId}`).expect(200)).body as { positions: { steps: { id: string; testKind: string }[] }[] };
+    const strip = (await lee.get(`/api/strips/${pool.body.stripId}`).expect(200)).body as {
+      positions: { steps: { id: string; testKind: string }[] }[];
+    };
     for (const step of strip.positions[0].steps) {
       await lee.post('/api/readings').send(newReading(step.id, GOOD_VALUE[step.testKind])).expect(201);
     }
@@ -110,7 +113,10 @@ describe('an incident from opening to the amended certificate', () => {
     expect(missing.map((m) => `${m.positionName} ${m.testKind} ${m.conductors}`).sort()).toEqual(
       ['A', 'B', 'C']
         .map((c) => `Left reel continuity ${c}`)
-        .concat(['A-B', 'A-C', 'B-C'].map((c) => `Left reel insulation ${c}`), ['Left reel loop A-B'])
+        .concat(
+          ['A-B', 'A-C', 'B-C'].map((c) => `Left reel insulation ${c}`),
+          ['Left reel loop A-B'],
+        )
         .sort(),
     );
   });
@@ -122,9 +128,17 @@ describe('an incident from opening to the amended certificate', () => {
     const res = await lee.post(`/api/incidents/${state.incidentId}/swap`).send({ positionId: reel.id, replacementAssetTag: 'SPR-901' });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body.incident.swaps).toHaveLength(1);
-    expect(res.body.incident.swaps[0]).toMatchObject({ replacement: { assetTag: 'SPR-901' }, spareTested: true, removed: { id: state.removedId } });
+    expect(res.body.incident.swaps[0]).toMatchObject({
+      replacement: { assetTag: 'SPR-901' },
+      spareTested: true,
+      removed: { id: state.removedId },
+    });
     const missing = res.body.retest.missing as RetestStep[];
-    expect(missing.map((m) => `${m.testKind} ${m.conductors} ${m.why}`).sort()).toEqual(['continuity A after-swap', 'continuity B after-swap', 'continuity C after-swap']);
+    expect(missing.map((m) => `${m.testKind} ${m.conductors} ${m.why}`).sort()).toEqual([
+      'continuity A after-swap',
+      'continuity B after-swap',
+      'continuity C after-swap',
+    ]);
     const marco = await t.agentFor(DEMO.director);
     const removed = await marco.get(`/api/equipment/${state.removedId}`).expect(200);
     expect(removed.body.item.toInspectIncidentId).toBe(state.incidentId);
@@ -138,7 +152,10 @@ describe('an incident from opening to the amended certificate', () => {
     const lee = await t.agentFor(DEMO.annexTechnician);
     const strip = await stripByLabel(t, annex, 'Annex 2');
     for (const c of ['A', 'B', 'C']) {
-      await lee.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', c).step.id, '0.6')).expect(201);
+      await lee
+        .post('/api/readings')
+        .send(newReading(stepOf(strip, 'Left reel', 'continuity', c).step.id, '0.6'))
+        .expect(201);
     }
     const resolved = await lee.post(`/api/incidents/${state.incidentId}/resolve`);
     expect(resolved.status, JSON.stringify(resolved.body)).toBe(200);
@@ -146,7 +163,9 @@ describe('an incident from opening to the amended certificate', () => {
     expect(resolved.body.incident.resolvedAt).not.toBeNull();
 
     const marco = await t.agentFor(DEMO.director);
-    const wrong = await marco.post(`/api/venues/${annex}/amendments`).send({ password: 'not-the-password', incidentIds: [state.incidentId] });
+    const wrong = await marco
+      .post(`/api/venues/${annex}/amendments`)
+      .send({ password: 'not-the-password', incidentIds: [state.incidentId] });
     expect(wrong.status).toBe(401);
     const amended = await marco.post(`/api/venues/${annex}/amendments`).send({ password: DEMO_PASSWORD, incidentIds: [state.incidentId] });
     expect(amended.status, JSON.stringify(amended.body)).toBe(201);
@@ -159,11 +178,20 @@ describe('an incident from opening to the amended certificate', () => {
     const fresh = await t.request.get(`/api/verify/${state.newStrip}`).expect(200);
     expect(fresh.body).toMatchObject({ status: 'valid', kind: 'strip', strips: ['Annex 2'] });
     const venueCheck = await t.request.get(`/api/verify/${state.venueNumber}`).expect(200);
-    expect(venueCheck.body).toMatchObject({ status: 'valid', outOfService: [], amendments: [{ number: state.newStrip, stripId: strip.id, strip: 'Annex 2' }] });
+    expect(venueCheck.body).toMatchObject({
+      status: 'valid',
+      outOfService: [],
+      amendments: [{ number: state.newStrip, stripId: strip.id, strip: 'Annex 2' }],
+    });
     expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('signed-off');
     const board = await marco.get(`/api/venues/${annex}/board`).expect(200);
     expect(board.body.strips.find((s: { id: string }) => s.id === strip.id).status).toBe('clear');
-    const actions = t.db.select().from(auditLog).where(eq(auditLog.entityId, state.incidentId!)).all().map((a) => a.action);
+    const actions = t.db
+      .select()
+      .from(auditLog)
+      .where(eq(auditLog.entityId, state.incidentId!))
+      .all()
+      .map((a) => a.action);
     expect(actions).toEqual(expect.arrayContaining(['incident.opened', 'incident.swapped', 'incident.resolved']));
   });
 
@@ -173,14 +201,20 @@ describe('an incident from opening to the amended certificate', () => {
     const row = list.body.incidents[0];
     expect(row.minutesOutOfService).toBe(Math.ceil((Date.parse(row.resolvedAt) - Date.parse(row.openedAt)) / 60_000));
     expect(row.amendment).toMatchObject({ number: state.newStrip });
-    const pdf = await nina.get(`/api/venues/${annex}/incident-report.pdf`).buffer(true).parse(binary as never);
+    const pdf = await nina
+      .get(`/api/venues/${annex}/incident-report.pdf`)
+      .buffer(true)
+      .parse(binary as never);
     expect(pdf.status).toBe(200);
     expect(pdf.headers['content-type']).toBe('application/pdf');
     const text = await pdfText(new Uint8Array(pdf.body as Buffer));
     expect(text).toContain('Annex 2');
     expect(text).toContain('SPR-901');
     expect(text).toContain('Touches on the left not registering');
-    const zip = await nina.get(`/api/venues/${annex}/certificates.zip`).buffer(true).parse(binary as never);
+    const zip = await nina
+      .get(`/api/venues/${annex}/certificates.zip`)
+      .buffer(true)
+      .parse(binary as never);
     expect(zip.status).toBe(200);
     expect((zip.body as Buffer).includes(Buffer.from('incidents-'))).toBe(true);
     expect((zip.body as Buffer).includes(Buffer.from(state.newStrip!))).toBe(true);
@@ -195,11 +229,28 @@ describe('a plan change after the amendment', () => {
     await lee.post(`/api/venues/${annex}/incidents`).send({ stripId: strip.id, symptom: 'Floor cable trodden flat' }).expect(201);
     expect(t.db.select().from(strips).where(eq(strips.id, strip.id)).get()!.outOfServiceSince).not.toBeNull();
     const tag = (await marco.get(`/api/venues/${annex}`)).headers.etag as string;
-    const added = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag).send({ name: 'Second apparatus', equipmentKind: 'apparatus' });
+    const added = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag)
+      .send({ name: 'Second apparatus', equipmentKind: 'apparatus' });
     expect(added.status, JSON.stringify(added.body)).toBe(201);
     expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('testing');
-    expect(t.db.select().from(certificates).where(eq(certificates.venueId, annex)).all().filter((c) => c.status === 'valid')).toEqual([]);
-    expect(t.db.select().from(strips).where(eq(strips.venueId, annex)).all().filter((x) => x.outOfServiceSince)).toEqual([]);
+    expect(
+      t.db
+        .select()
+        .from(certificates)
+        .where(eq(certificates.venueId, annex))
+        .all()
+        .filter((c) => c.status === 'valid'),
+    ).toEqual([]);
+    expect(
+      t.db
+        .select()
+        .from(strips)
+        .where(eq(strips.venueId, annex))
+        .all()
+        .filter((x) => x.outOfServiceSince),
+    ).toEqual([]);
   });
 });
 
@@ -211,7 +262,9 @@ describe('who may open incidents', () => {
     expect(refused.status).toBe(403);
     const other = await t.agentFor(OTHER_ADMIN, OTHER_PASSWORD);
     expect((await other.get(`/api/venues/${annex}/incidents`)).status).toBe(404);
-    expect((await other.post(`/api/venues/${annex}/incidents`).send({ stripId: strip.id, symptom: 'No lights on the box' })).status).toBe(403);
+    expect((await other.post(`/api/venues/${annex}/incidents`).send({ stripId: strip.id, symptom: 'No lights on the box' })).status).toBe(
+      403,
+    );
     const count = t.db.select().from(incidents).where(eq(incidents.stripId, strip.id)).all().length;
     expect(count).toBe(0);
   });
