@@ -3,3 +3,4 @@
 // The tables are in two files (under 350 lines each); drizzle-kit and the code read them all here.
 export * from './schema/core';
 export * from './schema/records';
+export * from './schema/competition';

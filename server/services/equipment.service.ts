@@ -11,6 +11,7 @@ import { newId, nowIso } from '../lib/ids';
 import { calibrateVelocityFactor, FaultLocationError } from '../../shared/domain/fault-location';
 import type { CalibrationInput, CreateEquipmentInput, UpdateEquipmentInput } from '../../shared/schemas/equipment';
 import { bindScope } from './bind';
+import { incidentHistory } from './equipment-incidents';
 
 type CreateInput = Omit<CreateEquipmentInput, 'assetTag'> & { assetTag: string };
 type UpdateInput = Omit<UpdateEquipmentInput, 'assetTag'> & { assetTag?: string | undefined };
@@ -91,6 +92,8 @@ function create({ deps, repo }: Scope, user: AuthUser, input: CreateInput) {
 function update(scope: Scope, user: AuthUser, id: string, ifMatch: string | undefined, input: UpdateInput) {
   const { deps, repo } = scope;
   const patch = cleanPatch(scope, input);
+  // Setting the status is the inspection's outcome: the item is no longer waiting to be looked at.
+  if (patch.status !== undefined) patch.toInspectIncidentId = null;
   try {
     deps.db.transaction((tx) => {
       const r = equipmentRepository(tx);
@@ -164,14 +167,7 @@ function calibrate(scope: Scope, user: AuthUser, id: string, input: CalibrationI
 function detail(scope: Scope, user: AuthUser, id: string) {
   const { deps, repo } = scope;
   const item = requireItem(scope, user, id);
-  const visible =
-    user.role === 'technician'
-      ? new Set(
-          accessService(deps.db)
-            .visibleVenues(user)
-            .map((v) => v.venue.id),
-        )
-      : null;
+  const visible = user.role === 'technician' ? new Set(accessService(deps.db).visibleVenues(user).map((v) => v.venue.id)) : null;
   const mayShow = (venueId: string) => visible === null || visible.has(venueId);
   const allRepairs = repo.repairsOf(id);
   const repairs = allRepairs
@@ -185,11 +181,10 @@ function detail(scope: Scope, user: AuthUser, id: string) {
           ? Math.round((repair.lengthBeforeM - repair.lengthRemovedM) * 1000) / 1000
           : null,
     }));
-  // The item's own length story counts every cut, wherever it was made (the length is the register's).
+  // Every cut counts, wherever it was made (the length is the register's).
   const cutOuts = allRepairs.map((r) => r.repair).filter((r) => r.equipmentId === id && r.action === 'cut-out');
   return {
     item,
-    // The length before the first section was cut out; null when nothing was ever cut.
     originalLengthM: cutOuts.find((r) => r.lengthBeforeM != null)?.lengthBeforeM ?? null,
     lengthRemovedM: cutOuts.reduce((sum, r) => sum + (r.lengthRemovedM ?? 0), 0),
     readings: repo
@@ -241,6 +236,7 @@ function detail(scope: Scope, user: AuthUser, id: string) {
         eventName: a.eventName,
       })),
     calibrations: repo.calibrationsOf(id).map((c) => ({ ...c.calibration, byName: c.byName })),
+    ...incidentHistory(deps.db, item, mayShow),
   };
 }
 

@@ -22,6 +22,10 @@ export const certificateSummarySchema = z.strictObject({
   supersededAt: z.string().nullable(),
   revokedAt: z.string().nullable(),
   revokedReason: z.string().nullable(),
+  /** Superseded-pending: the strip changed after sign-off; an amendment will supersede it. */
+  supersededPendingSince: z.string().nullable(),
+  /** The certificate that superseded this one by an amendment. */
+  successorNumber: z.string().nullable(),
   pdfSha256: z.string().nullable(),
   verifyUrl: z.string(),
 });
@@ -58,6 +62,14 @@ export const verificationSchema = z.strictObject({
   items: z.number().int(),
   readings: z.number().int(),
   supersededAt: z.string().nullable(),
+  /** Superseded-pending: the strip changed after sign-off; an amendment will supersede it. */
+  supersededPendingSince: z.string().nullable(),
+  /** An amended strip certificate's successor (superseded by an amendment). */
+  successorNumber: z.string().nullable(),
+  /** A venue certificate's amendments: new strip certificates issued without re-opening the venue. */
+  amendments: z.array(z.strictObject({ number: z.string(), stripId: z.string(), strip: z.string(), at: z.string() })),
+  /** A venue certificate's strips out of service now (changed after sign-off, not yet amended). */
+  outOfService: z.array(z.strictObject({ stripId: z.string(), strip: z.string(), since: z.string() })),
   revokedAt: z.string().nullable(),
   revokedReason: z.string().nullable(),
   keyId: z.string(),

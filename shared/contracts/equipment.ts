@@ -22,6 +22,8 @@ export const equipmentItemSchema = z.strictObject({
   notes: z.string().nullable(),
   version: z.number().int(),
   createdAt: z.string(),
+  /** "To inspect": taken out of a strip during this incident; cleared when someone sets its status. */
+  toInspectIncidentId: z.string().nullable(),
 });
 export type EquipmentItem = z.infer<typeof equipmentItemSchema>;
 
@@ -103,6 +105,32 @@ export const equipmentDetailSchema = z.strictObject({
       eventId: z.string(),
     }),
   ),
+  /** Incidents on the strips this item was in, across events (the item in the position, removed or put in). */
+  incidents: z.array(
+    z.strictObject({
+      id: z.string(),
+      ...where,
+      stripId: z.string(),
+      positionName: z.string().nullable(),
+      symptom: z.string(),
+      status: z.enum(['open', 'resolved']),
+      openedAt: z.string(),
+      resolvedAt: z.string().nullable(),
+      minutesOutOfService: z.number().int(),
+      /** in-position: it was there when the incident opened; removed: swapped out; installed: the spare put in. */
+      role: z.enum(['in-position', 'removed', 'installed']),
+    }),
+  ),
+  /** Flagged for inspection after repeated incidents (REPEATED_INCIDENTS in schemas/incidents, common practice). */
+  inspection: z.strictObject({
+    /** Repeated incidents (at least REPEATED_INCIDENTS) or taken out during one and not looked at since. */
+    flagged: z.boolean(),
+    repeatedIncidents: z.boolean(),
+    toInspect: z.boolean(),
+    incidentCount: z.number().int(),
+    /** A sentence for the register page; null when not flagged. */
+    reason: z.string().nullable(),
+  }),
   calibrations: z.array(
     z.strictObject({
       id: z.string(),

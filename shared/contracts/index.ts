@@ -11,6 +11,7 @@ import { faultLocationContracts } from './fault-location';
 import { faultsContracts } from './faults';
 import { healthContracts } from './health';
 import { labelsContracts } from './labels';
+import { incidentsContracts } from './incidents';
 import { mailContracts } from './mail';
 import { planContracts } from './plan';
 import { profilesContracts } from './profiles';
@@ -33,6 +34,7 @@ export const contractsByArea = {
   faults: faultsContracts,
   health: healthContracts,
   labels: labelsContracts,
+  incidents: incidentsContracts,
   mail: mailContracts,
   plan: planContracts,
   profiles: profilesContracts,

@@ -1,14 +1,16 @@
 // Where a strip and a venue stand, from the latest reading of each step and the open faults.
 export type Verdict = 'pass' | 'near-limit' | 'fail';
-export type StripStatus = 'not-started' | 'in-progress' | 'clear' | 'fault-open' | 'withdrawn';
+export type StripStatus = 'not-started' | 'in-progress' | 'clear' | 'fault-open' | 'withdrawn' | 'out-of-service';
 
 export interface StepProgress {
   required: boolean;
   latestVerdict: Verdict | null;
 }
 
-export function stripStatus(s: { withdrawn: boolean; steps: StepProgress[]; openFaults: number }): StripStatus {
+export function stripStatus(s: { withdrawn: boolean; steps: StepProgress[]; openFaults: number; outOfService?: boolean }): StripStatus {
   if (s.withdrawn) return 'withdrawn';
+  // Suspended after sign-off (an incident or a change on the strip) until the director amends it.
+  if (s.outOfService) return 'out-of-service';
   const required = s.steps.filter((x) => x.required);
   const done = required.filter((x) => x.latestVerdict !== null);
   // A failing latest reading counts as an open fault even before a fault record is made.
@@ -34,4 +36,5 @@ export const STRIP_STATUS_LABELS: Record<StripStatus, string> = {
   clear: 'Clear',
   'fault-open': 'Fault open',
   withdrawn: 'Withdrawn',
+  'out-of-service': 'Out of service',
 };

@@ -7,7 +7,7 @@
 import { STRIP_STATUS_LABELS, type StripStatus } from './progress';
 
 export type SymbolShape =
-  'circle' | 'ring' | 'triangle' | 'diamond' | 'target' | 'half' | 'dash' | 'square' | 'box' | 'hourglass' | 'octagon';
+  'circle' | 'ring' | 'triangle' | 'diamond' | 'target' | 'half' | 'dash' | 'square' | 'box' | 'hourglass' | 'octagon' | 'pause';
 export type SymbolTone = 'pass' | 'near' | 'fail' | 'idle' | 'brand' | 'brass';
 
 /** The outline of each shape in a 16 × 16 box: `fill` is filled, `stroke` drawn with a 2-unit line. */
@@ -27,6 +27,7 @@ export const SHAPE_PATHS: Record<SymbolShape, { fill?: string; stroke?: string; 
   box: { stroke: 'M3 3h10v10H3z', name: 'square outline' },
   hourglass: { fill: 'M3 1.5h10v1.5L9.2 8 13 13v1.5H3V13l3.8-5L3 3z', name: 'hourglass' },
   octagon: { fill: 'M5.5 1h5L15 5.5v5L10.5 15h-5L1 10.5v-5z', name: 'octagon' },
+  pause: { fill: 'M3 2h3.5v12H3zM9.5 2H13v12H9.5z', name: 'two bars' },
 };
 
 export interface SymbolLook {
@@ -56,6 +57,8 @@ export const STRIP_SYMBOLS: Record<StripStatus, SymbolLook> = {
   clear: { shape: 'circle', glyph: '●', tone: 'pass', label: STRIP_STATUS_LABELS['clear'] },
   'fault-open': { shape: 'triangle', glyph: '▲', tone: 'fail', label: STRIP_STATUS_LABELS['fault-open'] },
   withdrawn: { shape: 'dash', glyph: '▬', tone: 'idle', label: STRIP_STATUS_LABELS['withdrawn'] },
+  // Suspended mid-event: a mark of its own (two bars, like a paused bout), in the failure's tone.
+  'out-of-service': { shape: 'pause', glyph: '⏸', tone: 'fail', label: STRIP_STATUS_LABELS['out-of-service'] },
 };
 
 /** A fault's state: open is a failure ▲, located ◎, repaired and waiting for its retest ◐, closed ●. */

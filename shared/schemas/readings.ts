@@ -102,6 +102,8 @@ export const readingDtoSchema = z.strictObject({
   faultId: z.string().nullable().optional(),
   /** Only in the answer to POST /api/readings: this reading re-opened a signed-off venue. */
   venueReopened: z.boolean().optional(),
+  /** Only in the answer to POST /api/readings: this reading put its strip out of service (signed-off venue). */
+  stripSuspended: z.boolean().optional(),
 });
 export type ReadingDto = z.infer<typeof readingDtoSchema>;
 

@@ -28,7 +28,7 @@ describe('GET /api/venues/:id/board', () => {
     expect(board.venue).toMatchObject({ name: 'Riverside Sports Hall', eventName: 'Autumn Cup 2026', status: 'testing' });
     expect(board.strips).toHaveLength(24);
     expect(board.strips[0]).toMatchObject({ label: 'Strip 1', zone: 'Row A', status: 'clear' });
-    expect(board.counts).toEqual({ 'not-started': 13, 'in-progress': 1, clear: 6, 'fault-open': 4, withdrawn: 0 });
+    expect(board.counts).toEqual({ 'not-started': 13, 'in-progress': 1, clear: 6, 'fault-open': 4, withdrawn: 0, 'out-of-service': 0 });
     expect(board.progress.stepsTotal).toBe(8 * 30 + 16 * 28);
     expect(board.progress.stepsDone).toBeGreaterThan(0);
     expect(board.progress.percent).toBe(Math.round((board.progress.stepsDone / board.progress.stepsTotal) * 100));

@@ -3,7 +3,7 @@ import { randomUUID } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, type TestApp } from '../setup/test-app';
-import { equipment, faultEstimates, faults, organisations, positions, venues } from '../../server/db/schema';
+import { equipment, faultEstimates, faults, organisations, positions, strips, venues } from '../../server/db/schema';
 import { unit } from 'mathjs';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from './testing-helpers';
 
@@ -17,6 +17,7 @@ afterAll(() => t.close());
 
 interface FaultItem {
   id: string;
+  stripId: string;
   stripLabel: string;
   positionName: string;
   kind: string;
@@ -368,7 +369,7 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     expect((await stripByLabel(t, hall, 'Strip 3')).status).toBe('clear');
   });
 
-  test('retiring an item empties its position; a repair on a signed-off venue re-opens it', async () => {
+  test('retiring an item empties its position; a repair on a signed-off venue suspends its strip only', async () => {
     const f = await faultOn('Strip 9');
     t.db.update(venues).set({ status: 'signed-off' }).where(eq(venues.id, hall)).run();
     const marco = await t.agentFor(DEMO.director);
@@ -376,9 +377,16 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     expect(res.status).toBe(201);
     expect(t.db.select().from(equipment).where(eq(equipment.id, f.equipment!.id)).get()!.status).toBe('retired');
     expect(t.db.select().from(positions).where(eq(positions.id, res.body.fault.positionId)).get()!.equipmentId).toBeNull();
-    expect(t.db.select().from(venues).where(eq(venues.id, hall)).get()!.status).toBe('testing');
+    // A change on one strip after sign-off: that strip is out of service, the venue stays signed off.
+    expect(t.db.select().from(venues).where(eq(venues.id, hall)).get()!.status).toBe('signed-off');
+    expect(t.db.select().from(strips).where(eq(strips.id, f.stripId)).get()!.outOfServiceSince).not.toBeNull();
     const audit = t.sqlite.prepare("select action from audit_log where entity_id = ? order by id").all(f.id) as { action: string }[];
     expect(audit.map((a) => a.action)).toContain('fault.repaired');
+    const suspended = t.sqlite.prepare("select action from audit_log where entity_id = ? and action = 'strip.suspended'").all(f.stripId);
+    expect(suspended).toHaveLength(1);
+    // The rest of this file tests a venue under way.
+    t.db.update(venues).set({ status: 'testing' }).where(eq(venues.id, hall)).run();
+    t.db.update(strips).set({ outOfServiceSince: null }).where(eq(strips.id, f.stripId)).run();
   });
 
   test('a closed fault takes no repair (409); the organiser and Lee may not repair', async () => {

@@ -36,6 +36,8 @@ interface Ctx {
   /** An untested position added to the spare strip in the setup, for DELETE /api/positions/:id. */
   removablePositionId: string;
   faultId: string;
+  /** An open incident of the hall, opened by its director in the setup. */
+  incidentId: string;
   /** An open fault of the hall opened by hand in the setup, for its director to dismiss. */
   dismissableFaultId: string;
   readingId: string;
@@ -201,6 +203,17 @@ function rows(): Row[] {
     // The Annex was signed off in the setup: a second sign-off is 409, which shows access was granted.
     { route: 'POST /api/venues/:id/sign-off', path: (c) => `/api/venues/${c.annex}/sign-off`, annex: true, body: () => ({ password: DEMO_PASSWORD }), expect: [401, 403, 403, 409, 404, 403, 403] },
     { route: 'GET /api/venues/:id/certificates', path: (c) => `/api/venues/${c.annex}/certificates`, annex: true, expect: READ_VENUE() },
+    { route: 'POST /api/venues/:id/incidents', path: (c) => `/api/venues/${c.hall}/incidents`, body: (c) => ({ stripId: c.stripId, symptom: 'No lights on the box' }), expect: TEST_VENUE(201) },
+    { route: 'GET /api/venues/:id/incidents', path: (c) => `/api/venues/${c.hall}/incidents`, expect: READ_VENUE() },
+    { route: 'GET /api/incidents/:id', path: (c) => `/api/incidents/${c.incidentId}`, expect: READ_VENUE() },
+    // Allowed callers reach the check of the spare (none by that tag: 422) and of the retest (409).
+    { route: 'POST /api/incidents/:id/swap', path: (c) => `/api/incidents/${c.incidentId}/swap`, body: (c) => ({ positionId: c.positionId, replacementAssetTag: 'NO-SUCH-SPARE' }), expect: TEST_VENUE(422) },
+    { route: 'POST /api/incidents/:id/resolve', path: (c) => `/api/incidents/${c.incidentId}/resolve`, expect: TEST_VENUE(409) },
+    { route: 'GET /api/venues/:id/spares', path: (c) => `/api/venues/${c.hall}/spares`, expect: READ_VENUE() },
+    { route: 'PUT /api/venues/:id/spares', path: (c) => `/api/venues/${c.hall}/spares`, body: () => ({ assetTags: [] }), expect: PLAN_VENUE(200) },
+    // The event's director gets past the password to the incidents named (none of this venue: 422).
+    { route: 'POST /api/venues/:id/amendments', path: (c) => `/api/venues/${c.annex}/amendments`, annex: true, body: () => ({ password: DEMO_PASSWORD, incidentIds: [id()] }), expect: [401, 403, 403, 422, 404, 403, 403] },
+    { route: 'GET /api/venues/:id/incident-report.pdf', path: (c) => `/api/venues/${c.hall}/incident-report.pdf`, expect: READ_VENUE() },
     { route: 'GET /api/venues/:id/certificates.zip', path: (c) => `/api/venues/${c.annex}/certificates.zip`, annex: true, expect: READ_VENUE() },
     { route: 'GET /api/certificates/:number/pdf', path: (c) => `/api/certificates/${c.certificate}/pdf`, annex: true, expect: READ_VENUE() },
     { route: 'POST /api/certificates/:number/revoke', path: (c, a) => `/api/certificates/${c.revocable[a === 'admin' ? 1 : 0]}/revoke`, annex: true, body: () => ({ reason: 'Issued against the wrong strip list.' }), expect: [401, 403, 403, 200, 404, 403, 200] },
@@ -288,6 +301,7 @@ beforeAll(async () => {
     .find((x) => x.id === spare.id)!
     .positions.find((p) => p.name === 'Removable reel')!;
   const sam_ = t.db.select().from(s.users).where(eq(s.users.email, DEMO.technician)).get()!;
+  const incident = await marco.post(`/api/venues/${hall}/incidents`).send({ stripId: strip.id, symptom: 'Box shows a hit on every touch' }).expect(201);
   ctx = {
     hall,
     annex,
@@ -300,6 +314,7 @@ beforeAll(async () => {
     sparePositionId: spare.positions.find((p) => p.name === 'Right reel')!.id,
     removablePositionId: removablePosition.id,
     faultId: openFault.id,
+    incidentId: incident.body.id,
     dismissableFaultId: dismissable.body.id,
     readingId: reading.body.id,
     repairId: repair.body.repair?.id ?? repair.body.id,

@@ -7,7 +7,8 @@ import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from '../api/testing-helpers';
-import { auditLog, certificates, faults, leadNulls, readings, venues } from '../../server/db/schema';
+import { auditLog, certificates, events, faults, leadNulls, readings, strips, venues } from '../../server/db/schema';
+import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
 import type { CertificatePayload } from '../../server/signing/certificate-record';
 import { pdfText } from '../setup/pdf-read';
 
@@ -227,7 +228,7 @@ describe('revoking certificates', () => {
 });
 
 describe('the certificate carries the record', () => {
-  test('dismissed faults and the test-lead nulls are signed and printed on the annex; a dismissal or a new fault re-opens a signed-off venue', async () => {
+  test('dismissed faults and the test-lead nulls are signed and printed on the annex; a dismissal or a new fault after sign-off suspends its strip only', async () => {
     const marco = await t.agentFor(DEMO.director);
     const lee = await t.agentFor(DEMO.annexTechnician);
     const [annex3, annex4] = [await stripByLabel(t, annex, 'Annex 3'), await stripByLabel(t, annex, 'Annex 4')];
@@ -236,13 +237,19 @@ describe('the certificate carries the record', () => {
 
     const f1 = await lee.post('/api/faults').send({ positionId: annex3.positions[1].id, kind: 'intermittent', conductors: 'A' });
     expect(f1.status).toBe(201);
-    expect(statusOf()).toBe('testing');
+    // A change on one strip: Annex 3 is out of service, the venue stays signed off.
+    expect(statusOf()).toBe('signed-off');
+    expect(t.db.select().from(strips).where(eq(strips.id, annex3.id)).get()!.outOfServiceSince).not.toBeNull();
     const reason = 'Opened on the wrong strip: Lee meant Annex 2, whose fault was already dismissed.';
     await marco
       .post(`/api/faults/${f1.body.id}/dismiss`)
       .set('If-Match', await etagOf(marco, f1.body.id))
       .send({ reason })
       .expect(200);
+    // A plan change re-opens the venue (as a director's edit would), so it is signed off again whole.
+    const ev = t.db.select().from(events).where(eq(events.id, t.db.select().from(venues).where(eq(venues.id, annex)).get()!.eventId)).get()!;
+    t.db.transaction((tx) => reopenIfSignedOff(tx, { venueId: annex, orgId: ev.orgId, actorId: ev.directorId!, reason: 'Plan changed: rotation check.' }));
+    expect(statusOf()).toBe('testing');
     const f2 = await lee.post('/api/faults').send({ positionId: annex4.positions[1].id, kind: 'open', conductors: 'B' }).expect(201);
     const signed = await marco
       .post(`/api/venues/${annex}/sign-off`)
@@ -282,8 +289,9 @@ describe('the certificate carries the record', () => {
       .set('If-Match', await etagOf(marco, f2.body.id))
       .send({ reason: 'Opened by mistake: the cable was never tested here.' })
       .expect(200);
-    expect(statusOf()).toBe('testing');
-    expect(t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!.status).toBe('superseded');
+    expect(statusOf()).toBe('signed-off');
+    expect(t.db.select().from(certificates).where(eq(certificates.number, venueNumber)).get()!.status).toBe('valid');
+    expect(t.db.select().from(strips).where(eq(strips.id, annex4.id)).get()!.outOfServiceSince).not.toBeNull();
   });
 });
 

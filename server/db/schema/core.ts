@@ -122,6 +122,12 @@ export const strips = sqliteTable(
     conductivePiste: integer('conductive_piste', { mode: 'boolean' }).notNull().default(false),
     withdrawnReason: text('withdrawn_reason'),
     withdrawnAt: text('withdrawn_at'),
+    // Suspended after sign-off by a change on the strip (an incident, a reading, a repair, a swap)
+    // until the director amends it; the venue and its other strips stay signed off.
+    outOfServiceSince: text('out_of_service_since'),
+    // The venue's spare pool: one strip per venue holding a position per spare, so spares are tested
+    // with their kind's checklist like any position. Never on the board, the plan or a certificate.
+    sparePool: integer('spare_pool', { mode: 'boolean' }).notNull().default(false),
   },
   (t) => [index('strips_venue_idx').on(t.venueId), uniqueIndex('strips_venue_label').on(t.venueId, t.label)],
 );
@@ -143,6 +149,8 @@ export const equipment = sqliteTable(
     notes: text('notes'),
     version: integer('version').notNull().default(1),
     createdAt: createdAt(),
+    // "To inspect": taken out of a strip during this incident (no foreign key: incidents are defined later).
+    toInspectIncidentId: text('to_inspect_incident_id'),
   },
   (t) => [uniqueIndex('equipment_org_tag').on(t.orgId, t.assetTag)],
 );

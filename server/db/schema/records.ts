@@ -44,6 +44,11 @@ export const certificates = sqliteTable(
     revokedAt: text('revoked_at'),
     revokedReason: text('revoked_reason'),
     revokedBy: text('revoked_by').references(() => users.id),
+    // A strip certificate whose strip changed after sign-off: an amendment will supersede it.
+    supersededPendingSince: text('superseded_pending_since'),
+    // The strip certificate an amendment issued in its place, and the amendment that issued this one.
+    successorId: text('successor_id'),
+    amendmentId: text('amendment_id'),
   },
   (t) => [index('certificates_venue_idx').on(t.venueId), index('certificates_sha_idx').on(t.pdfSha256)],
 );
