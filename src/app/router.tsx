@@ -29,6 +29,8 @@ const Profile = lazy(() => import('./routes/profiles/profile'));
 const FaultLocator = lazy(() => import('./routes/tools/fault-locator'));
 const SignOff = lazy(() => import('./routes/venues/sign-off'));
 const Certificates = lazy(() => import('./routes/venues/certificates'));
+const VenueIncidents = lazy(() => import('./routes/venues/incidents'));
+const VenueSpares = lazy(() => import('./routes/venues/spares'));
 const Verify = lazy(() => import('./routes/verify/verify'));
 
 const page = (node: ReactNode) => <Suspense fallback={<Loading />}>{node}</Suspense>;
@@ -66,6 +68,8 @@ export const router = createBrowserRouter([
       { path: paths.faultLocator, element: page(<FaultLocator />), errorElement: <RouteErrorBoundary /> },
       { path: paths.venueSignOff(), element: page(<SignOff />), errorElement: <RouteErrorBoundary /> },
       { path: paths.venueCertificates(), element: page(<Certificates />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venueIncidents(), element: page(<VenueIncidents />), errorElement: <RouteErrorBoundary /> },
+      { path: paths.venueSpares(), element: page(<VenueSpares />), errorElement: <RouteErrorBoundary /> },
       {
         element: <RequireRole roles={['admin', 'director', 'organiser']} />,
         children: [{ path: paths.venueAudit(), element: page(<VenueAudit />), errorElement: <RouteErrorBoundary /> }],
