@@ -238,7 +238,7 @@ export default function StripTestPage() {
     </div>
   ) : canWrite && competing ? (
     <div className="mb-4">
-      <Button variant="secondary" className="min-h-14 border-fail/50 text-fail" onClick={() => setReporting(true)}>
+      <Button variant="secondary" className="min-h-14! border-fail/50 text-fail" onClick={() => setReporting(true)}>
         Report a problem on {data.label}
       </Button>
     </div>

@@ -101,7 +101,7 @@ export default function BoardPage() {
           />
         </div>
       )}
-      <div className="mb-4 grid grid-cols-3 gap-3 md:grid-cols-4 xl:grid-cols-7">
+      <div className="mb-4 grid grid-cols-4 gap-3 lg:grid-cols-7">
         {statuses.map((s) => (
           <Card key={s} className={`flex items-center gap-3 p-3 ${s === 'out-of-service' && counts[s] > 0 ? 'border-fail' : ''}`} data-count={s}>
             <MarkIcon shape={stripStatusLook[s].shape} tone={stripStatusLook[s].tone} className="size-7" />
@@ -137,7 +137,7 @@ export default function BoardPage() {
                     if (queued.length > 0) return <QueuedIncidentMark item={queued[0]} />;
                     if (s.status === 'out-of-service' || s.status === 'withdrawn') return null;
                     return (
-                      <Button variant="secondary" className="min-h-14 border-fail/50 text-fail" onClick={() => setReporting(s)} aria-label={`Report a problem on ${s.label}`}>
+                      <Button variant="secondary" className="min-h-14! border-fail/50 px-2 text-sm whitespace-nowrap text-fail" onClick={() => setReporting(s)} aria-label={`Report a problem on ${s.label}`}>
                         Report a problem
                       </Button>
                     );

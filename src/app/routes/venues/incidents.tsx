@@ -73,7 +73,7 @@ export default function IncidentsPage() {
           </Card>
         </div>
       )}
-      <div className={`grid gap-6 ${canAmend ? 'lg:grid-cols-[3fr_2fr]' : ''}`}>
+      <div className={`grid gap-6 ${canAmend ? 'xl:grid-cols-[3fr_2fr]' : ''}`}>
         <Card className="overflow-x-auto p-0!">
           <IncidentsTable incidents={incidents} columns={columns} />
         </Card>

@@ -38,7 +38,7 @@ export function AmendForm({ incidents, onAmend }: { incidents: Incident[]; onAme
       <fieldset className="flex flex-col gap-2">
         <legend className="mb-1 text-sm font-medium">Resolved incidents to amend for</legend>
         {incidents.map((i) => (
-          <label key={i.id} className="flex min-h-14 cursor-pointer items-center gap-3 rounded-lg border border-line bg-paper px-3">
+          <label key={i.id} className="flex min-h-14! cursor-pointer items-center gap-3 rounded-lg border border-line bg-paper px-3">
             <input type="checkbox" className="size-6" checked={chosen.includes(i.id)} onChange={() => toggle(i.id)} />
             <span>
               <strong>{i.stripLabel}</strong>
@@ -54,7 +54,7 @@ export function AmendForm({ incidents, onAmend }: { incidents: Incident[]; onAme
       {form.formState.errors.incidentIds && <Notice tone="error">{form.formState.errors.incidentIds.message}</Notice>}
       <TextField label="Your password, to confirm" type="password" autoComplete="current-password" {...form.register('password')} error={form.formState.errors.password?.message} />
       {form.formState.errors.root && <Notice tone="error">{form.formState.errors.root.message}</Notice>}
-      <Button type="submit" className="min-h-14" disabled={form.formState.isSubmitting}>
+      <Button type="submit" className="min-h-14!" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting
           ? 'Issuing…'
           : `Amend: new certificate${strips.size === 1 ? '' : 's'} for ${strips.size} strip${strips.size === 1 ? '' : 's'}`}

@@ -40,9 +40,10 @@ export function missingFromError(err: unknown): string[] {
   if (!(err instanceof ApiError) || err.status !== 409) return [];
   const missing = err.body.missing;
   if (!Array.isArray(missing)) return [];
-  return missing.map((m: Partial<RetestStep>) =>
-    m.message ? `${m.positionName ? `${m.positionName} · ` : ''}${m.message}` : stepWords(m as RetestStep),
-  );
+  return missing.map((m: Partial<RetestStep>) => {
+    const step = m.positionName && m.testKind ? stepWords(m as RetestStep) : (m.positionName ?? 'A step');
+    return m.message ? `${step}: ${m.message}` : step;
+  });
 }
 
 function RetestList({ detail }: { detail: IncidentDetail }) {
@@ -109,7 +110,7 @@ function SwapForm({ detail, positions, spares }: { detail: IncidentDetail; posit
           </option>
         ))}
       </SelectField>
-      <Button type="submit" className="min-h-14" disabled={form.formState.isSubmitting}>
+      <Button type="submit" className="min-h-14!" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting ? 'Swapping…' : 'Swap it in'}
       </Button>
       {form.formState.errors.root && (
@@ -184,7 +185,7 @@ export function IncidentCard({
       {incident.status === 'open' && <RetestList detail={detail} />}
       {incident.status === 'open' && canWrite && online && (
         <div className="flex flex-wrap items-center gap-3">
-          <Button className="min-h-14" onClick={() => resolve.mutate()} disabled={resolve.isPending}>
+          <Button className="min-h-14!" onClick={() => resolve.mutate()} disabled={resolve.isPending}>
             {resolve.isPending ? 'Checking…' : 'Back in service'}
           </Button>
           {!detail.retest.complete && <span className="text-sm text-ink-soft">{detail.retest.missing.length} step(s) still to measure.</span>}

@@ -55,7 +55,7 @@ export function SparesEditor({ current, onSave }: { current: string[]; onSave: (
         Items must be in the register. Each new spare gets its kind&apos;s checklist; test it before the event like any position.
       </p>
       {errors.length > 0 && <Notice tone="error">{errors.join(' ')}</Notice>}
-      <Button type="submit" className="min-h-14 self-start" disabled={form.formState.isSubmitting}>
+      <Button type="submit" className="min-h-14! self-start" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting ? 'Saving…' : 'Save the spare pool'}
       </Button>
     </form>
