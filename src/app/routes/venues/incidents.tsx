@@ -52,7 +52,8 @@ export default function IncidentsPage() {
         <div className="mb-6" data-testid="amended">
           <Card className="border-pass/50 bg-pass-soft">
             <h2 className="text-xl font-semibold text-pass">
-              Amended. {amended.certificates.length} new strip certificate{amended.certificates.length === 1 ? '' : 's'}; the venue certificate stays valid.
+              Amended. {amended.certificates.length} new strip certificate{amended.certificates.length === 1 ? '' : 's'}; the venue
+              certificate stays valid.
             </h2>
             <ul className="mt-3 flex flex-col gap-1">
               {amended.certificates.map((c) => (
@@ -82,12 +83,19 @@ export default function IncidentsPage() {
             <h2 className="mb-1 text-lg font-semibold">Amend the venue</h2>
             {amendable.length === 0 ? (
               <p className="text-sm text-ink-soft">
-                Nothing to amend: an incident can be amended for once it is resolved (every required step of its strip passing after it opened).
+                Nothing to amend: an incident can be amended for once it is resolved (every required step of its strip passing after it
+                opened).
               </p>
             ) : (
               <>
-                <p className="mb-3 text-sm text-ink-soft">Each strip chosen gets a new strip certificate; its old one is superseded. The venue stays signed off.</p>
-                <AmendForm key={amendable.map((i) => i.id).join(',')} incidents={amendable} onAmend={async (body) => setAmended(await amend.mutateAsync(body))} />
+                <p className="mb-3 text-sm text-ink-soft">
+                  Each strip chosen gets a new strip certificate; its old one is superseded. The venue stays signed off.
+                </p>
+                <AmendForm
+                  key={amendable.map((i) => i.id).join(',')}
+                  incidents={amendable}
+                  onAmend={async (body) => setAmended(await amend.mutateAsync(body))}
+                />
               </>
             )}
           </Card>

@@ -31,7 +31,10 @@ export default function SparesPage() {
         actions={
           <>
             {canTest && stripId && (
-              <Link to={paths.stripTest(stripId)} className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white">
+              <Link
+                to={paths.stripTest(stripId)}
+                className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white"
+              >
                 Test the spares
               </Link>
             )}
@@ -52,7 +55,11 @@ export default function SparesPage() {
         {isDirector && (
           <Card className="self-start">
             <h2 className="mb-3 text-lg font-semibold">Set the pool</h2>
-            <SparesEditor key={spares.map((s) => s.equipment.assetTag).join(',')} current={spares.map((s) => s.equipment.assetTag)} onSave={(body) => save.mutateAsync(body)} />
+            <SparesEditor
+              key={spares.map((s) => s.equipment.assetTag).join(',')}
+              current={spares.map((s) => s.equipment.assetTag)}
+              onSave={(body) => save.mutateAsync(body)}
+            />
           </Card>
         )}
       </div>

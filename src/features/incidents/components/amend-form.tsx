@@ -19,7 +19,9 @@ export function AmendForm({ incidents, onAmend }: { incidents: Incident[]; onAme
   });
   const chosen = useWatch({ control: form.control, name: 'incidentIds' }) ?? [];
   const toggle = (id: string) =>
-    form.setValue('incidentIds', chosen.includes(id) ? chosen.filter((x) => x !== id) : [...chosen, id], { shouldValidate: form.formState.isSubmitted });
+    form.setValue('incidentIds', chosen.includes(id) ? chosen.filter((x) => x !== id) : [...chosen, id], {
+      shouldValidate: form.formState.isSubmitted,
+    });
   const strips = new Set(incidents.filter((i) => chosen.includes(i.id)).map((i) => i.stripLabel));
   return (
     <form
@@ -45,14 +47,22 @@ export function AmendForm({ incidents, onAmend }: { incidents: Incident[]; onAme
               {i.positionName ? `, ${i.positionName}` : ''} · {i.symptom}
               <span className="block text-xs text-ink-soft">
                 out of service {minutesText(i.minutesOutOfService)}
-                {i.swaps.length > 0 ? ` · ${i.swaps.map((s) => `${s.removed?.assetTag ?? 'empty'} → ${s.replacement.assetTag}`).join(', ')}` : ''}
+                {i.swaps.length > 0
+                  ? ` · ${i.swaps.map((s) => `${s.removed?.assetTag ?? 'empty'} → ${s.replacement.assetTag}`).join(', ')}`
+                  : ''}
               </span>
             </span>
           </label>
         ))}
       </fieldset>
       {form.formState.errors.incidentIds && <Notice tone="error">{form.formState.errors.incidentIds.message}</Notice>}
-      <TextField label="Your password, to confirm" type="password" autoComplete="current-password" {...form.register('password')} error={form.formState.errors.password?.message} />
+      <TextField
+        label="Your password, to confirm"
+        type="password"
+        autoComplete="current-password"
+        {...form.register('password')}
+        error={form.formState.errors.password?.message}
+      />
       {form.formState.errors.root && <Notice tone="error">{form.formState.errors.root.message}</Notice>}
       <Button type="submit" className="min-h-14!" disabled={form.formState.isSubmitting}>
         {form.formState.isSubmitting

@@ -56,7 +56,11 @@ function RetestList({ detail }: { detail: IncidentDetail }) {
       <ul className="mt-2 flex flex-col gap-1" data-testid="retest-steps">
         {shown.map((s) => (
           <li key={s.stepId} className="flex flex-wrap items-center gap-2 text-sm" data-done={s.done ? 'yes' : 'no'} data-why={s.why}>
-            <SymbolMark look={s.done ? READING_SYMBOLS.pass : READING_SYMBOLS['not-measured']} label={s.done ? 'Done' : 'To measure'} size="sm" />
+            <SymbolMark
+              look={s.done ? READING_SYMBOLS.pass : READING_SYMBOLS['not-measured']}
+              label={s.done ? 'Done' : 'To measure'}
+              size="sm"
+            />
             <span>
               {stepWords(s)}
               {s.assetTag ? ` (${s.assetTag})` : ''} — {WHY[s.why]}
@@ -79,7 +83,9 @@ function SwapForm({ detail, positions, spares }: { detail: IncidentDetail; posit
   const positionId = useWatch({ control: form.control, name: 'positionId' });
   const kind = positions.find((p) => p.id === positionId)?.equipmentKind;
   // Only spares still in the pool and of the position's kind fit; tested ones first.
-  const fitting = spares.filter((s) => !s.usedIn && (!kind || s.equipment.kind === kind)).sort((a, b) => Number(b.tested) - Number(a.tested));
+  const fitting = spares
+    .filter((s) => !s.usedIn && (!kind || s.equipment.kind === kind))
+    .sort((a, b) => Number(b.tested) - Number(a.tested));
   return (
     <form
       noValidate
@@ -102,7 +108,12 @@ function SwapForm({ detail, positions, spares }: { detail: IncidentDetail; posit
           </option>
         ))}
       </SelectField>
-      <SelectField label="Spare to put in" className="min-w-56" {...form.register('replacementAssetTag')} error={form.formState.errors.replacementAssetTag?.message}>
+      <SelectField
+        label="Spare to put in"
+        className="min-w-56"
+        {...form.register('replacementAssetTag')}
+        error={form.formState.errors.replacementAssetTag?.message}
+      >
         <option value="">{fitting.length === 0 ? 'No spare of this kind left' : 'Choose…'}</option>
         {fitting.map((s) => (
           <option key={s.equipment.id} value={s.equipment.assetTag}>
@@ -179,7 +190,9 @@ export function IncidentCard({
         </ul>
       )}
       {incident.status === 'open' && canWrite && !online && (
-        <Notice tone="caution">Offline: readings are kept and sent later, but a swap and putting the strip back in service need the network.</Notice>
+        <Notice tone="caution">
+          Offline: readings are kept and sent later, but a swap and putting the strip back in service need the network.
+        </Notice>
       )}
       {incident.status === 'open' && canWrite && online && <SwapForm detail={detail} positions={positions} spares={spares} />}
       {incident.status === 'open' && <RetestList detail={detail} />}
@@ -188,7 +201,9 @@ export function IncidentCard({
           <Button className="min-h-14!" onClick={() => resolve.mutate()} disabled={resolve.isPending}>
             {resolve.isPending ? 'Checking…' : 'Back in service'}
           </Button>
-          {!detail.retest.complete && <span className="text-sm text-ink-soft">{detail.retest.missing.length} step(s) still to measure.</span>}
+          {!detail.retest.complete && (
+            <span className="text-sm text-ink-soft">{detail.retest.missing.length} step(s) still to measure.</span>
+          )}
         </div>
       )}
       {missing.length > 0 && (

@@ -79,5 +79,11 @@ export const incidentColumns = (stripHref: (stripId: string) => string, verifyHr
 export function IncidentsTable({ incidents, columns }: { incidents: Incident[]; columns: ReturnType<typeof incidentColumns> }) {
   const table = useReactTable({ data: incidents, columns, getCoreRowModel: getCoreRowModel(), getRowId: (i) => i.id });
   if (incidents.length === 0) return <p className="p-5 text-ink-soft">No incidents. Every strip is in service.</p>;
-  return <DataTable table={table} look={plainTableLook} rowProps={(r) => ({ 'data-incident': r.original.stripLabel, 'data-state': r.original.status })} />;
+  return (
+    <DataTable
+      table={table}
+      look={plainTableLook}
+      rowProps={(r) => ({ 'data-incident': r.original.stripLabel, 'data-state': r.original.status })}
+    />
+  );
 }

@@ -14,7 +14,10 @@ export const spareColumns = (hrefs: { item: (id: string) => string; strip: (id: 
     id: 'tag',
     header: 'Asset tag',
     cell: (c) => (
-      <Link to={hrefs.item(c.row.original.equipment.id)} className="inline-flex min-h-touch items-center font-mono font-semibold text-brand underline">
+      <Link
+        to={hrefs.item(c.row.original.equipment.id)}
+        className="inline-flex min-h-touch items-center font-mono font-semibold text-brand underline"
+      >
         {c.getValue()}
       </Link>
     ),

@@ -6,8 +6,12 @@ import type { QueuedIncident } from '../utils/queue';
 export function QueuedIncidentMark({ item }: { item: QueuedIncident }) {
   const look = item.status === 'problem' ? OTHER_SYMBOLS['needs-you'] : OTHER_SYMBOLS['waiting-to-send'];
   return (
-    <span data-testid="queued-incident" data-state={item.status} title={item.problem?.message}>
-      <SymbolMark look={look} label={item.status === 'problem' ? 'Incident refused: see On this tablet' : 'Incident waiting to send'} size="sm" />
+    <span
+      data-testid="queued-incident"
+      data-state={item.status}
+      title={item.problem ? `${item.problem.message} See On this tablet.` : undefined}
+    >
+      <SymbolMark look={look} label={item.status === 'problem' ? 'Incident refused' : 'Incident waiting to send'} size="sm" />
     </span>
   );
 }
