@@ -62,9 +62,11 @@ export default function StripTestPage() {
   // Competition days: the strip's open incident (or one opened on this tablet, not sent yet).
   const competing = data?.venueStatus === 'signed-off' || data?.status === 'out-of-service';
   const incidents = useVenueIncidents(data?.venueId ?? '', { enabled: !!data && competing });
-  const openIncident = incidents.data?.incidents.find((i) => i.stripId === stripId && i.status === 'open') ?? null;
+  // An open one, else one resolved and waiting for the director's amendment (the strip is still out).
+  const stripIncidents = incidents.data?.incidents.filter((i) => i.stripId === stripId) ?? [];
+  const openIncident = stripIncidents.find((i) => i.status === 'open') ?? stripIncidents.find((i) => i.status === 'resolved' && !i.amendment) ?? null;
   const queuedIncident = outbox.incidents.find((i) => i.stripId === stripId && i.userId === me.data?.id && i.status !== 'set-aside') ?? null;
-  const spares = useSpares(data?.venueId ?? '', { enabled: !!openIncident });
+  const spares = useSpares(data?.venueId ?? '', { enabled: openIncident?.status === 'open' });
   const [reporting, setReporting] = useState(false);
   const flat = useMemo(() => (data ? data.positions.flatMap((p) => p.steps.map((s) => ({ step: s, position: p }))) : []), [data]);
   // Readings of this strip typed on this tablet and not on the server yet: the newest per step.
