@@ -4,9 +4,7 @@ import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { swapSchema, type SwapInput } from '@shared/schemas/incidents';
 import { READING_SYMBOLS, STRIP_SYMBOLS } from '@shared/domain/symbols';
-import { TEST_KIND_LABELS } from '@shared/domain/checklist';
 import type { EquipmentKind } from '@shared/domain/limits';
-import { ApiError } from '@/lib/api-client';
 import { showServerErrors } from '@/lib/form-errors';
 import { minutesBetween, minutesText } from '@/lib/minutes';
 import { useNow } from '@/lib/use-now';
@@ -18,6 +16,7 @@ import { useIncident, type IncidentDetail, type RetestStep } from '../api/get-in
 import { useSwapSpare } from '../api/swap-spare';
 import { useResolveIncident } from '../api/resolve-incident';
 import type { Spare } from '../api/get-spares';
+import { missingFromError, stepWords } from '../utils/missing-steps';
 
 export interface CardPosition {
   id: string;
@@ -31,20 +30,6 @@ const WHY: Record<RetestStep['why'], string> = {
   'after-incident': 'measure again',
   standing: 'must still pass',
 };
-
-const stepWords = (s: Pick<RetestStep, 'positionName' | 'testKind' | 'conductors'>) =>
-  `${s.positionName} · ${TEST_KIND_LABELS[s.testKind]} ${s.conductors}`;
-
-/** What a refused resolve said is missing, in plain words (409 `retest-incomplete` carries `missing`). */
-export function missingFromError(err: unknown): string[] {
-  if (!(err instanceof ApiError) || err.status !== 409) return [];
-  const missing = err.body.missing;
-  if (!Array.isArray(missing)) return [];
-  return missing.map((m: Partial<RetestStep>) => {
-    const step = m.positionName && m.testKind ? stepWords(m as RetestStep) : (m.positionName ?? 'A step');
-    return m.message ? `${step}: ${m.message}` : step;
-  });
-}
 
 function RetestList({ detail }: { detail: IncidentDetail }) {
   const { steps, openFaults } = detail.retest;
