@@ -135,7 +135,7 @@ export default function BoardPage() {
                 ? (s) => {
                     const queued = queuedFor(s);
                     if (queued.length > 0) return <QueuedIncidentMark item={queued[0]} />;
-                    if (s.status === 'out-of-service' || s.status === 'withdrawn') return null;
+                    if (s.openIncidents > 0 || s.status === 'withdrawn') return null;
                     return (
                       <Button variant="secondary" className="min-h-14! border-fail/50 px-2 text-sm whitespace-nowrap text-fail" onClick={() => setReporting(s)} aria-label={`Report a problem on ${s.label}`}>
                         Report a problem

@@ -80,7 +80,7 @@ export function StripGrid({
             {s.status === 'out-of-service' && s.minutesSinceIncident !== null && (
               <span className="text-sm font-semibold text-fail tabular-nums" data-testid="minutes-out">
                 {minutesText(s.minutesSinceIncident)} out
-                {s.openIncidents > 0 ? ` · ${s.openIncidents} incident${s.openIncidents === 1 ? '' : 's'} open` : ' · to amend'}
+                {s.openIncidents > 0 ? ` · ${s.openIncidents} incident${s.openIncidents === 1 ? '' : 's'} open` : ' · waiting for the amendment'}
               </span>
             )}
             <span className="text-xs text-ink-soft tabular-nums">
