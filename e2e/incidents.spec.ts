@@ -75,7 +75,7 @@ async function signedOffVenue(director: Page) {
 
   // The spare is tested before the event with its kind's checklist, on the pool's own strip.
   const pool = await apiAs<{ stripId: string }>(director, 'PUT', `/api/venues/${venueId}/spares`, { assetTags: [spare] });
-  expect(pool.status).toBe(200);
+  expect(pool.status, JSON.stringify(pool.body)).toBe(200);
   const poolStrip = await apiAs<StripDetail>(director, 'GET', `/api/strips/${pool.body.stripId}`);
   await recordAll(
     director,
