@@ -33,6 +33,7 @@ import { equipmentImportRoutes } from './routes/equipment-import.routes';
 import { faultLocationRoutes } from './routes/fault-location.routes';
 import { signOffRoutes } from './routes/sign-off.routes';
 import { certificatesRoutes, wellKnownRoutes } from './routes/certificates.routes';
+import { incidentsRoutes } from './routes/incidents.routes';
 
 const builtClient = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 
@@ -107,6 +108,7 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
     faultLocationRoutes(deps),
     signOffRoutes(deps),
     certificatesRoutes(deps),
+    incidentsRoutes(deps),
   ];
 
   const api = express.Router();

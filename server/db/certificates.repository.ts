@@ -1,5 +1,5 @@
 // Issued certificates: written by the sign-off, listed, looked up by number or by file hash, revoked.
-import { asc, desc, eq } from 'drizzle-orm';
+import { and, asc, desc, eq } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { certificates, signOffs, strips, users } from './schema';
 
@@ -29,6 +29,22 @@ export function certificatesRepository(db: Db | Tx) {
         .where(eq(certificates.signOffId, signOffId))
         .orderBy(asc(strips.sortOrder))
         .all(),
+    ofAmendment: (amendmentId: string) => db.select().from(certificates).where(eq(certificates.amendmentId, amendmentId)).all(),
+    /** The strip's certificate that is valid now (at most one: an amendment supersedes the one before). */
+    validStripCertificate: (stripId: string) =>
+      db
+        .select()
+        .from(certificates)
+        .where(and(eq(certificates.stripId, stripId), eq(certificates.status, 'valid')))
+        .orderBy(desc(certificates.issuedAt))
+        .get(),
+    supersede: (id: string, v: { at: string; successorId: string }) =>
+      db.update(certificates).set({ status: 'superseded', supersededAt: v.at, successorId: v.successorId }).where(eq(certificates.id, id)).run(),
+    predecessorOf: (number: string) => {
+      const c = db.select({ id: certificates.id }).from(certificates).where(eq(certificates.number, number)).get();
+      return c ? db.select().from(certificates).where(eq(certificates.successorId, c.id)).get() : undefined;
+    },
+    byId: (id: string) => db.select().from(certificates).where(eq(certificates.id, id)).get(),
     byNumber: (number: string) => db.select().from(certificates).where(eq(certificates.number, number)).get(),
     bySha: (sha256: string) => db.select().from(certificates).where(eq(certificates.pdfSha256, sha256)).all(),
     revoke: (id: string, v: { at: string; reason: string; by: string }) =>

@@ -82,8 +82,14 @@ function eventsAndPeople(db: Db | Tx) {
 function stripQueries(db: Db | Tx) {
   return {
     // --- strips ---
+    // The pool of spares is not part of the plan.
     stripsOf: (venueId: string) =>
-      db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder), asc(strips.label)).all(),
+      db
+        .select()
+        .from(strips)
+        .where(and(eq(strips.venueId, venueId), eq(strips.sparePool, false)))
+        .orderBy(asc(strips.sortOrder), asc(strips.label))
+        .all(),
     findStrip: (id: string) => db.select().from(strips).where(eq(strips.id, id)).get(),
     stripByLabel: (venueId: string, label: string) =>
       db

@@ -85,7 +85,12 @@ export function stripsRepository(db: Db | Tx) {
 
     /** The strips of a venue in order, for "previous / next strip". */
     stripIdsOfVenue: (venueId: string) =>
-      db.select({ id: strips.id, label: strips.label }).from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder)).all(),
+      db
+        .select({ id: strips.id, label: strips.label })
+        .from(strips)
+        .where(and(eq(strips.venueId, venueId), eq(strips.sparePool, false)))
+        .orderBy(asc(strips.sortOrder))
+        .all(),
   };
 }
 

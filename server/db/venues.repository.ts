@@ -49,8 +49,14 @@ export function venuesRepository(db: Db | Tx) {
         .where(eq(venueTechnicians.userId, userId))
         .orderBy(...VENUE_ORDER)
         .all(),
+    /** The venue's strips, without its pool of spares (no strip of the board, the plan or a certificate). */
     stripsOf: (venueId: string) =>
-      db.select().from(strips).where(eq(strips.venueId, venueId)).orderBy(asc(strips.sortOrder)).all(),
+      db
+        .select()
+        .from(strips)
+        .where(and(eq(strips.venueId, venueId), eq(strips.sparePool, false)))
+        .orderBy(asc(strips.sortOrder))
+        .all(),
 
     /** Every active step of a venue with its strip and position, and the latest reading's verdict. */
     stepsWithLatest: (venueId: string) =>

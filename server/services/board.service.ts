@@ -6,6 +6,26 @@ import { venuesService } from './venues.service';
 import { presentFaultList } from '../presenters/faults';
 import { faultsRepository } from '../db/faults.repository';
 import type { StripStatus } from '../../shared/domain/progress';
+import { incidentsRepository } from '../db/incidents.repository';
+import { minutesBetween } from '../presenters/incidents';
+
+type Progress = ReturnType<ReturnType<typeof venuesService>['stripProgress']>;
+
+/** Out-of-service strips first, longest out first; each with its open incidents and the minutes since the earliest. */
+function withIncidents(deps: AppDeps, venueId: string, progress: Progress) {
+  const open = incidentsRepository(deps.db)
+    .ofVenue(venueId)
+    .filter((r) => r.incident.status === 'open');
+  const now = new Date().toISOString();
+  const rows = progress.map((p) => {
+    const mine = open.filter((r) => r.incident.stripId === p.strip.id).map((r) => r.incident.openedAt).sort();
+    const since = p.strip.outOfServiceSince;
+    const from = mine[0] ?? since;
+    return { p, outOfServiceSince: since, minutesSinceIncident: since && from ? minutesBetween(from, now) : null, openIncidents: mine.length };
+  });
+  const out = rows.filter((r) => r.outOfServiceSince).sort((a, b) => (b.minutesSinceIncident ?? 0) - (a.minutesSinceIncident ?? 0));
+  return [...out, ...rows.filter((r) => !r.outOfServiceSince)];
+}
 
 export function boardService(deps: AppDeps) {
   const access = accessService(deps.db);
@@ -28,7 +48,7 @@ export function boardService(deps: AppDeps) {
         venue: { id: venue.id, name: venue.name, status: venue.status, eventId: event.id, eventName: event.name },
         counts: byStatus,
         progress: { stepsDone, stepsTotal, percent: stepsTotal === 0 ? 0 : Math.round((stepsDone / stepsTotal) * 100) },
-        strips: progress.map((p) => ({
+        strips: withIncidents(deps, venueId, progress).map(({ p, outOfServiceSince, minutesSinceIncident, openIncidents }) => ({
           id: p.strip.id,
           label: p.strip.label,
           zone: p.strip.zone,
@@ -37,9 +57,9 @@ export function boardService(deps: AppDeps) {
           withdrawnReason: p.strip.withdrawnReason,
           openFaults: p.openFaults,
           ...p.counts,
-          outOfServiceSince: p.strip.outOfServiceSince,
-          minutesSinceIncident: null,
-          openIncidents: 0,
+          outOfServiceSince,
+          minutesSinceIncident,
+          openIncidents,
         })),
         openFaults,
         generatedAt: new Date().toISOString(),

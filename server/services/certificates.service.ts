@@ -16,6 +16,7 @@ import { verifyUrlFor, type CertificatePayload } from '../signing/certificate-re
 import { currentSigningKey, publicJwks } from '../signing/signing-keys';
 import { isCertificateNumber, normaliseCertificateNumber } from '../../shared/domain/certificate-number';
 import { bindScope } from './bind';
+import { incidentsRepository } from '../db/incidents.repository';
 
 function scopeOf(deps: AppDeps) {
   const access = accessService(deps.db);
@@ -41,6 +42,17 @@ function notCovering({ repo }: Scope, c: CertificateRow, p: CertificatePayload) 
   });
 }
 
+/** A venue certificate's amendments, and (while it stands) its strips out of service now. */
+function competitionDays({ deps }: Scope, c: CertificateRow) {
+  if (c.kind !== 'venue') return { amendments: [], outOfService: [] };
+  const incidents = incidentsRepository(deps.db);
+  return {
+    amendments: incidents.amendedCertificates(c.signOffId),
+    outOfService:
+      c.status === 'valid' ? incidents.outOfService(c.venueId).map((s) => ({ stripId: s.stripId, strip: s.strip, since: s.since! })) : [],
+  };
+}
+
 function publicView(scope: Scope, c: CertificateRow) {
   const { deps } = scope;
   const p = JSON.parse(c.payloadJson) as CertificatePayload;
@@ -62,9 +74,8 @@ function publicView(scope: Scope, c: CertificateRow) {
     readings: p.readings.count,
     supersededAt: c.supersededAt,
     supersededPendingSince: c.supersededPendingSince,
-    successorNumber: null,
-    amendments: [],
-    outOfService: [],
+    successorNumber: c.successorId ? (scope.repo.byId(c.successorId)?.number ?? null) : null,
+    ...competitionDays(scope, c),
     revokedAt: c.revokedAt,
     revokedReason: c.revokedReason,
     keyId: c.keyId,
@@ -105,7 +116,7 @@ function list({ deps, access, repo }: Scope, user: AuthUser, venueId: string) {
     revokedAt: c.revokedAt,
     revokedReason: c.revokedReason,
     supersededPendingSince: c.supersededPendingSince,
-    successorNumber: null,
+    successorNumber: c.successorId ? (repo.byId(c.successorId)?.number ?? null) : null,
     pdfSha256: c.pdfSha256,
     verifyUrl: verifyUrlFor(deps.env.APP_ORIGIN, c.number),
   }));
@@ -132,7 +143,8 @@ function pdf(scope: Scope, user: AuthUser, number: string) {
 function zipEntries(scope: Scope, user: AuthUser, venueId: string) {
   const { access, files } = scope;
   const row = access.requireVenue(user, venueId, 'read');
-  const set = latestSet(scope, venueId).filter((x) => x.certificate.pdfPath);
+  // An amended strip's old certificate is left out: its successor is in the same set.
+  const set = latestSet(scope, venueId).filter((x) => x.certificate.pdfPath && !x.certificate.successorId);
   if (set.length === 0) throw notFound('A certificate of this venue');
   const ordered = [...set].sort((a, b) => (a.certificate.kind === b.certificate.kind ? 0 : a.certificate.kind === 'venue' ? -1 : 1));
   return {

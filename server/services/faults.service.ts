@@ -7,7 +7,7 @@ import { stripsRepository } from '../db/strips.repository';
 import { equipmentRepository } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
 import { accessService } from './access.service';
-import { reopenIfSignedOff } from './venue-lifecycle';
+import { suspendStripIfSignedOff } from './venue-lifecycle';
 import { conflict, notFound, preconditionFailed, unprocessable, AppError } from '../lib/app-error';
 import { newId, nowIso } from '../lib/ids';
 import { FaultLocationError, runFaultLocation } from '../../shared/domain/fault-location';
@@ -127,9 +127,10 @@ function create(scope: Scope, user: AuthUser, body: CreateFaultInput) {
       openedAt: nowIso(),
     });
     recordAudit(tx, user, 'fault.opened', 'fault', id, { kind: body.kind, conductors: body.conductors, automatic: false });
-    // A fault on a signed-off venue: its certificates no longer say all of it.
-    reopenIfSignedOff(tx, {
+    // A fault on a signed-off venue: its strip's certificate no longer says all of it.
+    suspendStripIfSignedOff(tx, {
       venueId: ctx.venue.id,
+      stripId: ctx.strip.id,
       orgId: user.orgId,
       actorId: user.id,
       reason: `Fault opened on ${ctx.strip.label}, ${ctx.position.name}`,
@@ -276,8 +277,9 @@ function addRepair(scope: Scope, user: AuthUser, id: string, body: CreateRepairI
     if (item && body.action !== 'connector-remade') {
       recordAudit(tx, user, `equipment.${body.action}`, 'equipment', item.id, { faultId: id, repairId });
     }
-    reopenIfSignedOff(tx, {
+    suspendStripIfSignedOff(tx, {
       venueId: position.venue.id,
+      stripId: position.strip.id,
       orgId: user.orgId,
       actorId: user.id,
       reason: `Repair (${body.action}) on ${position.strip.label}, ${position.position.name}`,
@@ -316,9 +318,10 @@ function dismiss(scope: Scope, user: AuthUser, id: string, ifMatch: string | und
       readingId: row.fault.readingId,
       stripId: row.fault.stripId,
     });
-    // The record of a signed-off venue changed: its certificates no longer say all of it.
-    reopenIfSignedOff(tx, {
+    // The record of a signed-off strip changed: its certificate no longer says all of it.
+    suspendStripIfSignedOff(tx, {
       venueId: row.venueId,
+      stripId: row.fault.stripId,
       orgId: user.orgId,
       actorId: user.id,
       reason: `Fault dismissed on ${row.stripLabel}, ${row.positionName}`,

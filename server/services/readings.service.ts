@@ -11,7 +11,7 @@ import { faultsRepository } from '../db/faults.repository';
 import { recordAudit } from '../db/audit.repository';
 import { groupCommit, type WriteQueue } from '../db/group-commit';
 import { accessService } from './access.service';
-import { reopenIfSignedOff } from './venue-lifecycle';
+import { suspendStripIfSignedOff } from './venue-lifecycle';
 import { limitProfileById } from './profiles.service';
 import { conflict, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
@@ -219,11 +219,12 @@ function create(
     const leadNullOhm = checkWritable(db, ctx, body, leadNullId);
     const judgement = judge(db, ctx, body, leadNullOhm);
     const row = storeReading(db, user, ctx, body, hash, judgement, { id: leadNullId, ohm: leadNullOhm });
-    // The venue's status was read in this transaction: only a signed-off venue is touched.
-    const venueReopened =
+    // The venue's status was read in this transaction: only a signed-off venue's strip is suspended.
+    const stripSuspended =
       ctx.venue.status === 'signed-off' &&
-      reopenIfSignedOff(db, {
+      suspendStripIfSignedOff(db, {
         venueId: ctx.venue.id,
+        stripId: ctx.strip.id,
         orgId: user.orgId,
         actorId: user.id,
         reason: `New reading on ${ctx.strip.label}, ${ctx.position.name}`,
@@ -235,7 +236,7 @@ function create(
     // Answered from the row just inserted (every column is set above), not read back.
     const reading = presentReading(row, user.name, faultId);
     // Tell the tablet: a reading that waited offline may have landed on a venue signed off meanwhile.
-    if (venueReopened) reading.venueReopened = true;
+    if (stripSuspended) reading.stripSuspended = true;
     return { replayed: false, reading };
   });
 }

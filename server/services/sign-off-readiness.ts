@@ -6,6 +6,7 @@ import { signOffRepository } from '../db/sign-off.repository';
 import { conflict, unprocessable } from '../lib/app-error';
 import type { CertifiedReading, DismissedFault } from '../signing/certificate-record';
 import { faultsRepository } from '../db/faults.repository';
+import { withSpareReadings } from './spare-readings';
 import {
   describeIssue,
   venueReadiness,
@@ -18,7 +19,7 @@ import {
 export function snapshot(db: Db | Tx, venueId: string) {
   const repo = signOffRepository(db);
   const stripRows = venuesRepository(db).stripsOf(venueId);
-  const stepRows = repo.stepsWithLatestReading(venueId);
+  const stepRows = withSpareReadings(db, repo.stepsWithLatestReading(venueId));
   const faultRows = repo.openFaultsOf(venueId);
   const inputs: ReadinessStripInput[] = stripRows.map((s) => ({
     stripId: s.id,
