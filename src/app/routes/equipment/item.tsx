@@ -89,7 +89,11 @@ export default function EquipmentItemPage() {
       {inspection.flagged && (
         <div className="mb-6" data-testid="inspect-flag">
           <Notice tone="caution">
-            <strong>Inspect this item:</strong> {inspection.reason ?? `${inspection.incidentCount} incidents across events.`}
+            <strong>Inspect this item:</strong>{' '}
+            {inspection.reason ??
+              (inspection.toInspect
+                ? 'it was taken out of a strip during an incident; look at it before it is used again.'
+                : `${inspection.incidentCount} incidents across events.`)}
           </Notice>
         </div>
       )}
