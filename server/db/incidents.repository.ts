@@ -1,8 +1,8 @@
 // Incidents, their swaps, amendments and the venue's pool of spares.
-import { and, asc, desc, eq, inArray, isNotNull } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, isNotNull, or } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { Db, Tx } from './client';
-import { amendments, certificates, equipment, incidents, incidentSwaps, positions, strips, users } from './schema';
+import { amendments, certificates, equipment, events, incidents, incidentSwaps, positions, strips, users, venues } from './schema';
 
 export type IncidentRow = typeof incidents.$inferSelect;
 export type SwapRow = typeof incidentSwaps.$inferSelect;
@@ -88,3 +88,24 @@ export function incidentsRepository(db: Db | Tx) {
 }
 export type IncidentsRepository = ReturnType<typeof incidentsRepository>;
 export type IncidentListRow = NonNullable<ReturnType<IncidentsRepository['byId']>>;
+
+/** Incidents an item was part of, across events: in the position when opened, swapped out or put in. */
+export function itemIncidentsRepository(db: Db | Tx) {
+  return {
+    swapsTouching: (equipmentId: string) =>
+      db
+        .select()
+        .from(incidentSwaps)
+        .where(or(eq(incidentSwaps.removedEquipmentId, equipmentId), eq(incidentSwaps.replacementEquipmentId, equipmentId)))
+        .all(),
+    venueNames: (venueIds: string[]) =>
+      venueIds.length === 0
+        ? []
+        : db
+            .select({ id: venues.id, name: venues.name, eventName: events.name })
+            .from(venues)
+            .innerJoin(events, eq(venues.eventId, events.id))
+            .where(inArray(venues.id, venueIds))
+            .all(),
+  };
+}

@@ -5,6 +5,7 @@ import { apiRouter } from '../http/api-router';
 import { AppError, unprocessable } from '../lib/app-error';
 import { certificatesContracts as c } from '../../shared/contracts/certificates';
 import { certificatesService, slug } from '../services/certificates.service';
+import { incidentReport } from '../services/incident-report.service';
 
 const MAX_UPLOAD_BYTES = 10 * 1024 * 1024;
 // Size, count and magic bytes are checked; the file is hashed in memory and never stored
@@ -28,6 +29,9 @@ export function certificatesRoutes(deps: AppDeps) {
     archive.on('error', (err: Error) => res.destroy(err));
     archive.pipe(res);
     for (const e of zip.entries) archive.append(e.data, { name: e.name, date: e.date });
+    // The record of the competition days goes with the certificates once there is one.
+    const report = await incidentReport(deps, user, params.id);
+    if (report.count > 0) archive.append(report.pdf, { name: `incidents-${slug(zip.venueName)}.pdf` });
     await archive.finalize();
   });
   api.route(c.pdf, ({ user, params, res }) => {

@@ -92,6 +92,8 @@ function create({ deps, repo }: Scope, user: AuthUser, input: CreateInput) {
 function update(scope: Scope, user: AuthUser, id: string, ifMatch: string | undefined, input: UpdateInput) {
   const { deps, repo } = scope;
   const patch = cleanPatch(scope, input);
+  // Setting the status is the inspection's outcome: the item is no longer waiting to be looked at.
+  if (patch.status !== undefined) patch.toInspectIncidentId = null;
   try {
     deps.db.transaction((tx) => {
       const r = equipmentRepository(tx);

@@ -280,26 +280,38 @@ describe('POST /api/readings — faults opened automatically', () => {
 });
 
 describe('POST /api/readings — on a signed-off venue', () => {
-  test('a new reading re-opens the venue and supersedes its sign-off and certificates', async () => {
+  test('a new reading puts its strip out of service only: the venue stays signed off, the strip certificate is superseded-pending', async () => {
     const director = t.db.select().from(users).where(eq(users.email, DEMO.director)).get()!;
     t.db.update(venues).set({ status: 'signed-off' }).where(eq(venues.id, annex)).run();
     const signOffId = randomUUID();
+    const strip = await stripByLabel(t, annex, 'Annex 2');
+    const other = await stripByLabel(t, annex, 'Annex 3');
     t.db.insert(signingKeys).values({ kid: 'test-key', publicJwkJson: '{}' }).run();
     t.db.insert(signOffs).values({ id: signOffId, venueId: annex, signedBy: director.id, statement: 'All clear', readingsDigest: 'x' }).run();
-    t.db.insert(certificates).values({ id: randomUUID(), number: 'SW-TEST-1', signOffId, venueId: annex, kind: 'venue', payloadJson: '{}', jws: 'x', keyId: 'test-key' }).run();
+    const cert = (number: string, kind: 'venue' | 'strip', stripId: string | null) =>
+      t.db.insert(certificates).values({ id: randomUUID(), number, signOffId, venueId: annex, kind, stripId, payloadJson: '{}', jws: 'x', keyId: 'test-key' }).run();
+    cert('SW-TEST-1', 'venue', null);
+    cert('SW-TEST-2', 'strip', strip.id);
+    cert('SW-TEST-3', 'strip', other.id);
 
     const lee = await t.agentFor(DEMO.annexTechnician);
-    const strip = await stripByLabel(t, annex, 'Annex 2');
     const res = await lee.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'A').step.id, '1.3'));
     expect(res.status).toBe(201);
-    expect(res.body.venueReopened).toBe(true);
-    // The venue is testing again: the next reading re-opens nothing.
+    expect(res.body.stripSuspended).toBe(true);
+    expect(res.body).not.toHaveProperty('venueReopened');
     const next = await lee.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'B').step.id, '1.3'));
     expect(next.status).toBe(201);
-    expect(next.body).not.toHaveProperty('venueReopened');
-    expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('testing');
-    expect(t.db.select().from(signOffs).where(eq(signOffs.id, signOffId)).get()!.status).toBe('superseded');
-    expect(t.db.select().from(certificates).where(eq(certificates.venueId, annex)).all().map((c) => c.status)).toEqual(['superseded']);
+    expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('signed-off');
+    expect(t.db.select().from(signOffs).where(eq(signOffs.id, signOffId)).get()!.status).toBe('active');
+    const byNumber = new Map(t.db.select().from(certificates).where(eq(certificates.venueId, annex)).all().map((c) => [c.number, c]));
+    expect([...byNumber.values()].map((c) => c.status)).toEqual(['valid', 'valid', 'valid']);
+    expect(byNumber.get('SW-TEST-2')!.supersededPendingSince).not.toBeNull();
+    expect(byNumber.get('SW-TEST-1')!.supersededPendingSince).toBeNull();
+    expect(byNumber.get('SW-TEST-3')!.supersededPendingSince).toBeNull();
+    const marco = await t.agentFor(DEMO.director);
+    const board = await marco.get(`/api/venues/${annex}/board`).expect(200);
+    expect(board.body.strips[0]).toMatchObject({ id: strip.id, status: 'out-of-service' });
+    expect(board.body.strips.find((s: { id: string }) => s.id === other.id).status).not.toBe('out-of-service');
   });
 });
 
