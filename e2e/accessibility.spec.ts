@@ -194,6 +194,10 @@ test('the screens before signing in have no serious or critical WCAG 2.2 AA viol
       eventDates: { startsOn: '2026-10-10', endsOn: '2026-10-11' },
       venue: 'Riverside Annex',
       timeZone: 'Europe/London',
+      supersededPendingSince: null,
+      successorNumber: null,
+      amendments: [],
+      outOfService: [],
       strips: ['Strip A1', 'Strip A2'],
       notCovering:
         status === 'valid'

@@ -1,7 +1,7 @@
 // The record of the competition days: every incident of a venue (strip, item, symptom, swap, the
 // readings of the retest, minutes out of service) and the totals per strip and per item kind.
 import { COLOURS, createDocument, Pen, table, toBuffer, type Column } from './layout';
-import { formatUtc, frameFor, MARGIN_X } from './certificate-writer';
+import { clockFor, frameFor, MARGIN_X } from './certificate-writer';
 
 export interface ReportIncident {
   strip: string;
@@ -20,12 +20,15 @@ export interface IncidentReportInput {
   venue: string;
   organisation: string;
   generatedAt: string;
+  /** The venue's zone: every time in the report is written in it, with its offset. */
+  timeZone: string;
   incidents: ReportIncident[];
   perStrip: { label: string; incidents: number; minutes: number }[];
   perKind: { label: string; incidents: number; minutes: number }[];
 }
 
 export async function renderIncidentReport(r: IncidentReportInput): Promise<Buffer> {
+  const clock = clockFor(r.timeZone, r.generatedAt);
   const doc = createDocument({
     title: `Incidents: ${r.venue}`,
     subject: `Incident report, ${r.event}`,
@@ -43,7 +46,7 @@ export async function renderIncidentReport(r: IncidentReportInput): Promise<Buff
   y += 26;
   pen.line(`${r.event} · ${r.venue} · ${r.organisation}`, MARGIN_X, y, { size: 10, color: COLOURS.ink });
   y += 16;
-  pen.line(`Made ${formatUtc(r.generatedAt)}. ${r.incidents.length} incident(s).`, MARGIN_X, y, { size: 9, color: COLOURS.soft });
+  pen.line(`Made ${clock.dateTime(r.generatedAt)}. ${r.incidents.length} incident(s).`, MARGIN_X, y, { size: 9, color: COLOURS.soft });
   y += 22;
   const cols: Column<ReportIncident>[] = [
     { header: 'Strip', width: 60, value: (i) => i.strip },
@@ -51,8 +54,8 @@ export async function renderIncidentReport(r: IncidentReportInput): Promise<Buff
     { header: 'Symptom', width: 150, value: (i) => i.symptom },
     { header: 'Swap', width: 120, value: (i) => i.swap },
     { header: 'Retest readings', width: 170, value: (i) => i.readings },
-    { header: 'Opened', width: 80, value: (i) => formatUtc(i.openedAt) },
-    { header: 'Back', width: 80, value: (i) => (i.resolvedAt ? formatUtc(i.resolvedAt) : 'still open') },
+    { header: `Opened (${clock.offset})`, width: 80, value: (i) => clock.short(i.openedAt) },
+    { header: 'Back', width: 80, value: (i) => (i.resolvedAt ? clock.short(i.resolvedAt) : 'still open') },
     { header: 'Minutes out', width: 50, align: 'right', value: (i) => String(i.minutes) },
   ];
   y = table(pen, r.incidents, cols, y, frame, newPage, { zebra: true });

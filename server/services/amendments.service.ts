@@ -3,6 +3,7 @@
 // certificate and the sign-off stay as they are. Signed and rendered in memory first, then the
 // files, then one transaction (as for sign-off: a failure leaves nothing behind).
 import type { AppDeps } from '../deps';
+import { DEFAULT_TIME_ZONE } from '../../shared/format/date-time';
 import type { AuthUser } from '../auth/types';
 import { verifyPassword } from '../auth/password';
 import { accessService } from './access.service';
@@ -86,7 +87,8 @@ async function sign(
   const drafts = draftCertificates(deps.db, ctx, snap, readiness, readings)
     .filter((d) => d.payload.kind === 'strip')
     .map((d) => ({ ...d, payload: { ...d.payload, related: { venueCertificate: venueNumber, stripCertificates: [] } } }));
-  return renderCertificates(deps.workers, await currentSigningKey(deps.db, deps.env), drafts);
+  const timeZone = certificatesRepository(deps.db).venueTimeZone(venueId) ?? DEFAULT_TIME_ZONE;
+  return renderCertificates(deps.workers, await currentSigningKey(deps.db, deps.env), drafts, timeZone);
 }
 
 function persist(

@@ -64,6 +64,7 @@ export async function incidentReport(deps: AppDeps, user: AuthUser, venueId: str
     venue: venue.name,
     organisation: org.name,
     generatedAt: new Date().toISOString(),
+    timeZone: venue.timeZone,
     incidents,
     perStrip: totals(list, (i) => i.stripLabel),
     perKind: totals(list, (i) => {

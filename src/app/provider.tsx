@@ -33,7 +33,11 @@ const persistOptions: Omit<PersistQueryClientOptions, 'queryClient'> = {
 // Readings typed on the testing screen go through the tablet's outbox; its answers land in the cache.
 setOutboxHandlers({
   onRecorded: (reading, item) => showRecordedReading(queryClient, item.stripId, reading),
-  onPassDone: ({ stripIds }) => readingsRecorded(queryClient, stripIds),
+  onPassDone: ({ stripIds }) => {
+    readingsRecorded(queryClient, stripIds);
+    // A retest ticks off the steps an incident waits for.
+    void queryClient.invalidateQueries({ queryKey: ['incidents'] });
+  },
 });
 startOutbox();
 

@@ -30,6 +30,8 @@ const Profile = lazy(() => import('./routes/profiles/profile'));
 const FaultLocator = lazy(() => import('./routes/tools/fault-locator'));
 const SignOff = lazy(() => import('./routes/venues/sign-off'));
 const Certificates = lazy(() => import('./routes/venues/certificates'));
+const VenueIncidents = lazy(() => import('./routes/venues/incidents'));
+const VenueSpares = lazy(() => import('./routes/venues/spares'));
 const Verify = lazy(() => import('./routes/verify/verify'));
 const ScannedTag = lazy(() => import('./routes/labels/scanned-tag'));
 const ScannedStrip = lazy(() => import('./routes/labels/scanned-strip'));
@@ -123,6 +125,24 @@ export const router = createBrowserRouter([
         element: page(
           <VenueClock>
             <Certificates />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueIncidents(),
+        element: page(
+          <VenueClock>
+            <VenueIncidents />
+          </VenueClock>,
+        ),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: paths.venueSpares(),
+        element: page(
+          <VenueClock>
+            <VenueSpares />
           </VenueClock>,
         ),
         errorElement: <RouteErrorBoundary />,

@@ -36,6 +36,9 @@ export const paths = {
   venuePlan: (venueId = ':venueId') => `/venues/${venueId}/plan`,
   venueReadings: (venueId = ':venueId') => `/venues/${venueId}/readings`,
   venueAudit: (venueId = ':venueId') => `/venues/${venueId}/audit`,
+  /** Competition days: the venue's incidents, the amendment and the incident report. */
+  venueIncidents: (venueId = ':venueId') => `/venues/${venueId}/incidents`,
+  venueSpares: (venueId = ':venueId') => `/venues/${venueId}/spares`,
   profiles: '/profiles',
   profile: (profileId = ':profileId') => `/profiles/${profileId}`,
 } as const;

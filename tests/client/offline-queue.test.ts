@@ -7,10 +7,12 @@ import {
   inBatches,
   makeSeq,
   nextDueAt,
+  planIncidentSend,
   planSend,
   retryDelayMs,
   summarize,
   upgradeLegacyItems,
+  type QueuedIncident,
   type QueuedReading,
 } from '../../src/features/offline/utils/queue';
 import { shouldPersistQuery, shouldPersistQueryKey } from '../../src/features/offline/utils/persist-filter';
@@ -257,5 +259,55 @@ describe('upgradeLegacyItems', () => {
     expect(out.get('e')!.leadNull).toBeUndefined();
     // Upgraded items are left alone the next time.
     expect(upgradeLegacyItems([...out.values()], makeId)).toEqual([]);
+  });
+});
+
+function incident(over: Partial<QueuedIncident> = {}): QueuedIncident {
+  n += 1;
+  const id = over.id ?? `00000000-0000-4000-9000-${String(n).padStart(12, '0')}`;
+  return {
+    id,
+    kind: 'incident',
+    body: { clientId: id, stripId: 'strip', symptom: 'Touches not showing' },
+    userId: SAM,
+    venueId: 'venue',
+    stripId: 'strip',
+    where: 'Strip 4 · Touches not showing',
+    createdAt: '2026-11-21T08:00:00.000Z',
+    seq: n,
+    status: 'waiting',
+    attempts: 0,
+    nextAttemptAt: 0,
+    ...over,
+  };
+}
+
+describe('incidents in the outbox', () => {
+  test('the waiting incidents go in typing order, only the signed-in person’s, and a retry waits unless forced', () => {
+    const first = incident();
+    const later = incident({ nextAttemptAt: 5_000 });
+    const other = incident({ userId: 'user-lee' });
+    const refused = incident({ status: 'problem' });
+    expect(planIncidentSend([later, other, refused, first], { userId: SAM, nowMs: 1_000 }).map((i) => i.id)).toEqual([first.id]);
+    expect(planIncidentSend([later, first], { userId: SAM, nowMs: 1_000, force: true }).map((i) => i.id)).toEqual([first.id, later.id]);
+  });
+
+  test('a replay the server has already (200 with the same incident) leaves the queue, as a first send (201) does: it is kept once', () => {
+    for (const status of [200, 201]) expect(applyOutcome(incident(), classifyAnswer({ kind: 'http', status }), 0)).toBeNull();
+  });
+
+  test('no answer keeps the incident with the same clientId, to be sent again later; a refusal keeps it for the technician', () => {
+    const i = incident();
+    const again = applyOutcome(i, classifyAnswer({ kind: 'network' }), 1_000)!;
+    expect(again.body.clientId).toBe(i.body.clientId);
+    expect(again.nextAttemptAt).toBe(3_000); // the first wait is 2 s, as for a reading (DEVELOPERS.md, offline testing)
+    const refused = applyOutcome(i, classifyAnswer({ kind: 'http', status: 409, code: 'not-signed-off', message: 'm' }), 0)!;
+    expect(refused.status).toBe('problem');
+    expect(refused.body.symptom).toBe('Touches not showing');
+  });
+
+  test('a waiting incident counts in the indicator like a reading, and a refused one needs the technician', () => {
+    expect(summarize([incident()], { userId: SAM, online: true, syncing: false })).toEqual({ state: 'waiting', waiting: 1, needsYou: 0 });
+    expect(summarize([incident({ status: 'problem' })], { userId: SAM, online: true, syncing: false }).state).toBe('needs-you');
   });
 });

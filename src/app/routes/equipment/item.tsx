@@ -7,7 +7,7 @@ import { useMe } from '@/features/auth/api/get-me';
 import { useEquipmentItem } from '@/features/equipment/api/get-equipment-item';
 import { useUpdateEquipment } from '@/features/equipment/api/update-equipment';
 import { useCalibrateEquipment } from '@/features/equipment/api/calibrate-equipment';
-import { EquipmentStatusMark } from '@/features/equipment/components/equipment-table';
+import { EquipmentStatusMark, ToInspectMark } from '@/features/equipment/components/equipment-table';
 import { EquipmentEditForm } from '@/features/equipment/components/edit-form';
 import { CalibrateForm } from '@/features/equipment/components/calibrate-form';
 import { lengthText } from '@/features/equipment/components/labels';
@@ -17,9 +17,11 @@ import { DataTable, plainTableLook } from '@/components/ui/data-table';
 import { StatusMark, type MarkShape, type MarkTone } from '@/components/ui/status-mark';
 import { READING_SYMBOLS } from '@shared/domain/symbols';
 import { paths } from '@/config/paths';
+import { minutesText } from '@/lib/minutes';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 
 const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
+const INCIDENT_ROLE_LABELS = { 'in-position': 'in the position', removed: 'swapped out', installed: 'put in as the spare' } as const;
 const REPAIR_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped for another item', retired: 'Retired' } as const;
 
 function Section({ title, count, children }: { title: string; count: number; children: React.ReactNode }) {
@@ -71,7 +73,7 @@ export default function EquipmentItemPage() {
 
   if (detail.isPending) return <Loading />;
   if (detail.isError) return <Notice tone="error">{detail.error.message}</Notice>;
-  const { item, readings, faults, repairs, placements, calibrations, originalLengthM, lengthRemovedM } = detail.data;
+  const { item, readings, faults, repairs, placements, calibrations, originalLengthM, lengthRemovedM, incidents, inspection } = detail.data;
 
   return (
     <>
@@ -83,8 +85,24 @@ export default function EquipmentItemPage() {
             {item.description ? ` · ${item.description}` : ''} · <Link className="text-brand underline" to={paths.equipment}>Back to the register</Link>
           </>
         }
-        actions={<EquipmentStatusMark status={item.status} />}
+        actions={
+          <>
+            <EquipmentStatusMark status={item.status} />
+            {item.toInspectIncidentId && <ToInspectMark />}
+          </>
+        }
       />
+      {inspection.flagged && (
+        <div className="mb-6" data-testid="inspect-flag">
+          <Notice tone="caution">
+            <strong>Inspect this item:</strong>{' '}
+            {inspection.reason ??
+              (inspection.toInspect
+                ? 'it was taken out of a strip during an incident; look at it before it is used again.'
+                : `${inspection.incidentCount} incidents across events.`)}
+          </Notice>
+        </div>
+      )}
       <div className="grid gap-6 lg:grid-cols-[1fr_2fr]">
         <div className="flex flex-col gap-6">
           <Card>
@@ -135,6 +153,24 @@ export default function EquipmentItemPage() {
                   </span>
                   <span className="text-ink-soft">
                     <When at={p.assignedAt} /> → {p.removedAt ? <When at={p.removedAt} /> : <strong className="text-ink">there now</strong>}
+                  </span>
+                </li>
+              ))}
+            </ul>
+          </Section>
+          <Section title="Incidents" count={incidents.length}>
+            <ul className="divide-y divide-line text-sm" data-testid="item-incidents">
+              {incidents.map((i) => (
+                <li key={i.id} className="flex flex-wrap justify-between gap-2 px-5 py-3">
+                  <span>
+                    <span className="font-semibold">{i.symptom}</span> · {INCIDENT_ROLE_LABELS[i.role]}
+                  </span>
+                  <span>
+                    {i.stripLabel}
+                    {i.positionName ? `, ${i.positionName}` : ''} · {i.venueName} · {i.eventName}
+                  </span>
+                  <span className="text-ink-soft">
+                    <When at={i.openedAt} /> · {i.status === 'open' ? 'open' : `out of service ${minutesText(i.minutesOutOfService)}`}
                   </span>
                 </li>
               ))}

@@ -5,6 +5,7 @@ import { Card } from '@/components/ui/card';
 import { paths } from '@/config/paths';
 import { VenueList } from '@/features/board/components/venue-list';
 import { CertificatesLink } from '@/features/certificates/components/certificates-link';
+import { incidentReportUrl } from '@/features/incidents/api/get-venue-incidents';
 
 const ADMIN_CARDS = [
   { title: 'People', text: 'Invite people, change roles, disable accounts, sign someone out everywhere.', to: paths.people, link: 'Open people' },
@@ -44,6 +45,11 @@ function DirectorHome() {
             {v.status === 'signed-off' ? 'Signed off' : 'Sign-off'}
           </Link>
           <CertificatesLink venueId={v.id} className="px-2" />
+          {v.status === 'signed-off' && (
+            <Link to={paths.venueIncidents(v.id)} className={buttonLink}>
+              Incidents
+            </Link>
+          )}
         </>
       )}
     />
@@ -51,7 +57,20 @@ function DirectorHome() {
 }
 
 function OrganiserHome() {
-  return <VenueList actions={(v) => <CertificatesLink venueId={v.id} className="px-2" />} />;
+  return (
+    <VenueList
+      actions={(v) => (
+        <>
+          <CertificatesLink venueId={v.id} className="px-2" />
+          {v.status === 'signed-off' && (
+            <a href={incidentReportUrl(v.id)} download className="inline-flex min-h-touch items-center px-2 font-medium text-brand underline">
+              Incident report (PDF)
+            </a>
+          )}
+        </>
+      )}
+    />
+  );
 }
 
 export const homeSections: Record<Role, ComponentType> = {

@@ -4,6 +4,7 @@ import { useOutbox } from '@/features/offline/hooks/use-outbox';
 import { QueueList } from '@/features/offline/components/queue-list';
 import { moveToStep } from '@/features/offline/stores/outbox';
 import type { QueuedReading } from '@/features/offline/utils/queue';
+import { IncidentQueue } from '@/features/offline/components/incident-queue';
 import { useStrip } from '@/features/testing/api/get-strip';
 import { stepTitle } from '@/features/testing/components/step-row';
 import { previewReading } from '@/features/testing/utils/preview';
@@ -77,6 +78,7 @@ export default function OnThisTabletPage() {
           <Notice tone="caution">This tablet is offline. Keep testing: every reading is kept here and sent when the network is back.</Notice>
         </div>
       )}
+      <IncidentQueue items={outbox.incidents.filter((i) => i.userId === me.data?.id)} />
       <QueueList items={mine} online={outbox.online} syncing={outbox.syncing} lastStop={outbox.lastStop} moveTo={(item) => <MoveToStep item={item} />} />
       {others > 0 && (
         <p className="mt-6 text-sm text-ink-soft">

@@ -27,6 +27,14 @@ import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
 import type { LeadNullRecord } from '@shared/schemas/lead-nulls';
 import { useDates } from '@/lib/date-format';
+import type { CreateIncidentInput } from '@shared/schemas/incidents';
+import { useVenueIncidents } from '@/features/incidents/api/get-venue-incidents';
+import { useSpares } from '@/features/incidents/api/get-spares';
+import { IncidentCard } from '@/features/incidents/components/incident-card';
+import { OpenIncidentPanel } from '@/features/incidents/components/open-incident-panel';
+import { QueuedIncidentMark } from '@/features/offline/components/queued-incident-mark';
+import { enqueueIncident } from '@/features/offline/stores/outbox';
+import { Button } from '@/components/ui/button';
 
 
 /** The testing screen: walk a strip's positions and steps with the keyboard alone. */
@@ -57,6 +65,15 @@ export default function StripTestPage() {
   const [scanning, setScanning] = useState(false);
   const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
   const data = strip.data;
+  // Competition days: the strip's open incident (or one opened on this tablet, not sent yet).
+  const competing = data?.venueStatus === 'signed-off' || data?.status === 'out-of-service';
+  const incidents = useVenueIncidents(data?.venueId ?? '', { enabled: !!data && competing });
+  // An open one, else one resolved and waiting for the director's amendment (the strip is still out).
+  const stripIncidents = incidents.data?.incidents.filter((i) => i.stripId === stripId) ?? [];
+  const openIncident = stripIncidents.find((i) => i.status === 'open') ?? stripIncidents.find((i) => i.status === 'resolved' && !i.amendment) ?? null;
+  const queuedIncident = outbox.incidents.find((i) => i.stripId === stripId && i.userId === me.data?.id && i.status !== 'set-aside') ?? null;
+  const spares = useSpares(data?.venueId ?? '', { enabled: openIncident?.status === 'open' });
+  const [reporting, setReporting] = useState(false);
   const flat = useMemo(() => (data ? data.positions.flatMap((p) => p.steps.map((s) => ({ step: s, position: p }))) : []), [data]);
   // Readings of this strip typed on this tablet and not on the server yet: the newest per step.
   const queued = useMemo(() => {
@@ -168,6 +185,7 @@ export default function StripTestPage() {
         </div>
       )}
       {data.withdrawnReason && <Notice tone="caution">This strip is withdrawn: {data.withdrawnReason}</Notice>}
+      {incidentSection}
       {retestPosition && !retestClosed && (
         <div className="mb-4" data-testid="retest-banner">
           <Notice tone="caution">
@@ -201,6 +219,38 @@ export default function StripTestPage() {
 
     </>
   );
+  const openOnTablet = async (input: CreateIncidentInput) => {
+    if (!me.data) throw new Error('Sign in again to open an incident.');
+    // Kept on the tablet first, like a reading: it reaches the server once, whenever it can.
+    await enqueueIncident({ body: { ...input, clientId: newReadingId() }, userId: me.data.id, venueId: data.venueId, where: `${data.label} · ${input.symptom}` });
+    setReporting(false);
+  };
+  const incidentSection = openIncident ? (
+    <IncidentCard
+      key={openIncident.id}
+      incidentId={openIncident.id}
+      canWrite={canWrite}
+      positions={data.positions.map((p) => ({ id: p.id, name: p.name, equipmentKind: p.equipmentKind, assetTag: p.equipment?.assetTag ?? null }))}
+      spares={spares.data?.spares ?? []}
+    />
+  ) : queuedIncident ? (
+    <div className="mb-4 flex flex-wrap items-center gap-3 rounded-card border-2 border-fail/50 bg-card p-4">
+      <QueuedIncidentMark item={queuedIncident} />
+      <span>
+        {queuedIncident.body.symptom}: opened on this tablet{outbox.online ? ', sending…' : ' while offline; it goes when the network is back'}. Keep measuring: the readings follow it.
+      </span>
+    </div>
+  ) : reporting ? (
+    <div className="mb-4">
+      <OpenIncidentPanel strip={{ id: data.id, label: data.label, positions: data.positions.map((p) => ({ id: p.id, name: p.name })) }} onOpen={openOnTablet} onClose={() => setReporting(false)} />
+    </div>
+  ) : canWrite && competing ? (
+    <div className="mb-4">
+      <Button variant="secondary" className="min-h-14! border-fail/50 text-fail" onClick={() => setReporting(true)}>
+        Report a problem on {data.label}
+      </Button>
+    </div>
+  ) : null;
   const viewToggle = (
     <span role="group" aria-label="Layout" className="inline-flex overflow-hidden rounded-lg border border-line">
       {(['grid', 'list'] as const).map((v) => (

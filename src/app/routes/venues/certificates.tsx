@@ -7,6 +7,7 @@ import { revokeCertificateSchema, type RevokeCertificateInput } from '@shared/sc
 import { certificatePdfUrl, certificatesZipUrl, useCertificates, type CertificateSummary } from '@/features/certificates/api/get-certificates';
 import { useRevokeCertificate } from '@/features/certificates/api/revoke-certificate';
 import { CertificateStatusBadge } from '@/features/certificates/components/certificate-status';
+import { incidentReportUrl } from '@/features/incidents/api/get-venue-incidents';
 import { Button } from '@/components/ui/button';
 import { TextField } from '@/components/ui/field';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
@@ -65,6 +66,14 @@ function CertificateRow({ c, venueId, canRevoke }: { c: CertificateSummary; venu
           )}
         </span>
       </div>
+      {c.status === 'valid' && c.supersededPendingSince && (
+        <p className="mt-1 text-sm text-near">Its strip changed on {dates.dateTime(c.supersededPendingSince)}: superseded once the venue is amended.</p>
+      )}
+      {c.successorNumber && (
+        <p className="mt-1 text-sm text-ink-soft">
+          Replaced by <Link className="font-mono text-brand underline" to={paths.verify(c.successorNumber)}>{c.successorNumber}</Link>
+        </p>
+      )}
       {c.status === 'revoked' && <p className="mt-1 text-sm text-fail">Revoked {c.revokedAt && dates.dateTime(c.revokedAt)}: {c.revokedReason}</p>}
       {revoking && <RevokeForm venueId={venueId} number={c.number} onDone={() => setRevoking(false)} />}
     </li>
@@ -92,6 +101,16 @@ export default function CertificatesPage() {
             <Link className={linkClass} to={paths.venueSignOff(venueId)}>
               Sign-off
             </Link>
+            {latest && (
+              <Link className={linkClass} to={paths.venueIncidents(venueId)}>
+                Incidents
+              </Link>
+            )}
+            {latest && (
+              <a className={linkClass} href={incidentReportUrl(venueId)} download>
+                Incident report (PDF)
+              </a>
+            )}
             {latest && (
               <a className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white" href={certificatesZipUrl(venueId)} download>
                 Download all (ZIP)

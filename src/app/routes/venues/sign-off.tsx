@@ -58,8 +58,9 @@ export default function SignOffPage() {
       {!signed && r.venue.status === 'signed-off' && (
         <div className="mb-6">
           <Notice tone="success">
-            This venue was signed off{r.signedOff ? ` on ${dates.dateTime(r.signedOff.signedAt)}` : ''}. It stays frozen until a new reading,
-            repair or swap re-opens it. <Link className="font-medium underline" to={paths.venueCertificates(venueId)}>See its certificates</Link>.
+            This venue was signed off{r.signedOff ? ` on ${dates.dateTime(r.signedOff.signedAt)}` : ''}. A reading, repair or swap on one strip
+            now puts only that strip out of service until you amend the venue for it on the{' '}
+            <Link className="font-medium underline" to={paths.venueIncidents(venueId)}>incidents page</Link>; a change to the plan re-opens the venue. <Link className="font-medium underline" to={paths.venueCertificates(venueId)}>See its certificates</Link>.
           </Notice>
         </div>
       )}

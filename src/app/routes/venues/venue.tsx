@@ -49,6 +49,14 @@ export default function VenuePage() {
                 Print labels
               </a>
             )}
+            <Link to={paths.venueSpares(venue.id)} className={linkClass}>
+              Spares
+            </Link>
+            {(venue.status === 'signed-off' || counts['out-of-service'] > 0) && (
+              <Link to={paths.venueIncidents(venue.id)} className={linkClass}>
+                Incidents
+              </Link>
+            )}
             {role !== 'technician' && (
               <>
                 <Link to={paths.venueReadings(venue.id)} className={linkClass}>

@@ -84,8 +84,12 @@ function Details({ number }: { number: string }) {
     v.status === 'revoked' && v.revokedAt
       ? `Revoked ${when(v.revokedAt)}${v.revokedReason ? `: ${v.revokedReason}` : ''}.`
       : v.status === 'superseded' && v.supersededAt
-        ? `Superseded ${when(v.supersededAt)}.`
-        : `Issued ${when(v.issuedAt)}.`;
+        ? `Superseded ${when(v.supersededAt)}${v.successorNumber ? ` by ${v.successorNumber}` : ''}.`
+        : v.supersededPendingSince
+          ? `Issued ${when(v.issuedAt)}. Its strip changed on ${when(v.supersededPendingSince)} and waits for the technical director's amendment.`
+          : `Issued ${when(v.issuedAt)}.`;
+  const amendments = v.amendments ?? [];
+  const outOfService = v.outOfService ?? [];
   const notCovering = v.notCovering ?? [];
   return (
     <div className="flex flex-col gap-6">
@@ -106,6 +110,42 @@ function Details({ number }: { number: string }) {
             . Do not rely on it for {notCovering.length === 1 ? 'that strip' : 'those strips'}.
           </Notice>
         </div>
+      )}
+      {v.status === 'superseded' && v.successorNumber && (
+        <p data-testid="successor">
+          Its successor:{' '}
+          <Link className="font-mono font-semibold text-brand underline" to={paths.verify(v.successorNumber)}>
+            {v.successorNumber}
+          </Link>
+        </p>
+      )}
+      {outOfService.length > 0 && (
+        <div data-testid="out-of-service">
+          <Notice tone="caution">
+            <strong>
+              Out of service now: {outOfService.length === 1 ? 'one strip' : `${outOfService.length} strips`} of this venue
+            </strong>{' '}
+            ({outOfService.map((s) => `${s.strip}, since ${when(s.since)}`).join('; ')}). This certificate does not cover{' '}
+            {outOfService.length === 1 ? 'it' : 'them'} until the technical director amends it.
+          </Notice>
+        </div>
+      )}
+      {amendments.length > 0 && (
+        <Card data-testid="amendments">
+          <h2 className="text-lg font-semibold">Amendments</h2>
+          <p className="text-sm text-ink-soft">Strips retested during the event and certified again; the venue certificate stays valid.</p>
+          <ul className="mt-2 divide-y divide-line">
+            {amendments.map((a) => (
+              <li key={a.number} className="flex flex-wrap items-center gap-x-4 gap-y-1 py-2">
+                <span className="font-semibold">{a.strip}</span>
+                <Link className="font-mono text-brand underline" to={paths.verify(a.number)}>
+                  {a.number}
+                </Link>
+                <span className="text-sm text-ink-soft">{when(a.at)}</span>
+              </li>
+            ))}
+          </ul>
+        </Card>
       )}
       <Card>
         <dl className="grid gap-x-6 gap-y-3 sm:grid-cols-[12rem_1fr]">

@@ -1,7 +1,8 @@
-import { useMemo, useState } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
 import { Link } from 'react-router';
 import type { StripStatus } from '@shared/domain/progress';
 import { MarkIcon, StatusMark } from '@/components/ui/status-mark';
+import { minutesText } from '@/lib/minutes';
 import type { BoardStrip } from '../api/get-board';
 import { STRIP_STATUSES, stripStatusLook } from '../utils/strip-status';
 
@@ -22,7 +23,7 @@ export function StripFilters({ filters, counts }: { filters: ReturnType<typeof u
       <button type="button" className={chip(filters.status === 'all')} aria-pressed={filters.status === 'all'} onClick={() => filters.setStatus('all')}>
         All
       </button>
-      {STRIP_STATUSES.map((s) => (
+      {STRIP_STATUSES.filter((s) => s !== 'out-of-service' || counts[s] > 0).map((s) => (
         <button key={s} type="button" className={chip(filters.status === s)} aria-pressed={filters.status === s} onClick={() => filters.setStatus(s)}>
           <MarkIcon shape={stripStatusLook[s].shape} tone={filters.status === s ? 'brass' : stripStatusLook[s].tone} />
           {stripStatusLook[s].label} <span className="tabular-nums">({counts[s]})</span>
@@ -45,8 +46,25 @@ export function StripFilters({ filters, counts }: { filters: ReturnType<typeof u
   );
 }
 
-/** Every strip as a tile: its status as shape, word and colour, and how many steps are done. */
-export function StripGrid({ strips, linkTo, compact = false }: { strips: BoardStrip[]; linkTo?: (s: BoardStrip) => string; compact?: boolean }) {
+/** How long a strip has been out of service, in the tile's words. */
+export const outOfServiceText = (s: BoardStrip) =>
+  s.minutesSinceIncident === null ? 'out of service' : `out of service for ${minutesText(s.minutesSinceIncident)}`;
+
+/**
+ * Every strip as a tile: its status as shape, word and colour, and how many steps are done; an
+ * out-of-service strip says for how long. `actions` adds buttons under a tile (a page's own).
+ */
+export function StripGrid({
+  strips,
+  linkTo,
+  compact = false,
+  actions,
+}: {
+  strips: BoardStrip[];
+  linkTo?: (s: BoardStrip) => string;
+  compact?: boolean;
+  actions?: (s: BoardStrip) => ReactNode;
+}) {
   if (strips.length === 0) return <p className="py-6 text-center text-ink-soft">No strip matches these filters.</p>;
   return (
     <ul className={`grid gap-3 ${compact ? 'grid-cols-3 sm:grid-cols-4 xl:grid-cols-5' : 'grid-cols-2 sm:grid-cols-3 lg:grid-cols-4'}`}>
@@ -59,16 +77,23 @@ export function StripGrid({ strips, linkTo, compact = false }: { strips: BoardSt
               <MarkIcon shape={look.shape} tone={look.tone} className="size-5" />
             </div>
             <StatusMark {...look} size="sm" className="self-start" />
+            {s.status === 'out-of-service' && s.minutesSinceIncident !== null && (
+              <span className="text-sm font-semibold text-fail tabular-nums" data-testid="minutes-out">
+                {minutesText(s.minutesSinceIncident)} out
+                {s.openIncidents > 0 ? ` · ${s.openIncidents} incident${s.openIncidents === 1 ? '' : 's'} open` : ' · waiting for the amendment'}
+              </span>
+            )}
             <span className="text-xs text-ink-soft tabular-nums">
               {s.done}/{s.total} steps{s.failed > 0 ? ` · ${s.failed} failing` : ''}
               {s.nearLimit > 0 ? ` · ${s.nearLimit} near limit` : ''}
             </span>
           </>
         );
-        const border = s.status === 'fault-open' ? 'border-fail/60' : s.status === 'clear' ? 'border-pass/50' : 'border-line';
+        const border =
+          s.status === 'out-of-service' ? 'border-fail bg-fail-soft/40' : s.status === 'fault-open' ? 'border-fail/60' : s.status === 'clear' ? 'border-pass/50' : 'border-line';
         const cls = `flex h-full min-h-touch flex-col gap-1.5 rounded-lg border-2 bg-card p-3 ${border}`;
         return (
-          <li key={s.id} data-strip={s.label} data-status={s.status}>
+          <li key={s.id} data-strip={s.label} data-status={s.status} className="flex flex-col gap-1.5">
             {linkTo ? (
               <Link to={linkTo(s)} className={`${cls} hover:bg-paper`}>
                 {body}
@@ -76,6 +101,7 @@ export function StripGrid({ strips, linkTo, compact = false }: { strips: BoardSt
             ) : (
               <div className={cls}>{body}</div>
             )}
+            {actions?.(s)}
           </li>
         );
       })}

@@ -1,7 +1,8 @@
 import type { StripStatus } from '@shared/domain/progress';
 import { STRIP_SYMBOLS } from '@shared/domain/symbols';
 
-export const STRIP_STATUSES: StripStatus[] = ['not-started', 'in-progress', 'clear', 'fault-open', 'withdrawn'];
+// Out of service first: on competition days it is the one that matters.
+export const STRIP_STATUSES: StripStatus[] = ['out-of-service', 'not-started', 'in-progress', 'clear', 'fault-open', 'withdrawn'];
 
 // The one symbol module, shared with the certificates.
 export const stripStatusLook = STRIP_SYMBOLS;

@@ -6,5 +6,9 @@ export const useOutbox = (): OutboxState => useSyncExternalStore(outboxStore.sub
 
 export function useSyncSummary(): SyncSummary & { online: boolean; syncing: boolean } {
   const s = useOutbox();
-  return { ...summarize(s.items, { userId: s.userId, online: s.online, syncing: s.syncing }), online: s.online, syncing: s.syncing };
+  return {
+    ...summarize([...s.items, ...s.incidents], { userId: s.userId, online: s.online, syncing: s.syncing }),
+    online: s.online,
+    syncing: s.syncing,
+  };
 }

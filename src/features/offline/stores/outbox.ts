@@ -7,6 +7,7 @@ import { createStore, del, delMany, entries, set, setMany } from 'idb-keyval';
 import { sendReading, type SentReading } from '../api/send-reading';
 import { sendReadingBatch } from '../api/send-reading-batch';
 import { sendLeadNull } from '../api/send-lead-null';
+import { sendIncident, type SentIncident } from '../api/send-incident';
 import { connectionStore, serverAnswered, serverDidNotAnswer, startConnectionWatch } from './connection';
 import {
   addToQueue,
@@ -16,11 +17,14 @@ import {
   inBatches,
   makeSeq,
   nextDueAt,
+  planIncidentSend,
   planSend,
   upgradeLegacyItems,
   type Answer,
   type BatchAnswer,
+  type IncidentBody,
   type LeadNullRecord,
+  type QueuedIncident,
   type QueuedReading,
   type ReadingBody,
 } from '../utils/queue';
@@ -29,6 +33,8 @@ import { newReadingId } from '../utils/reading-id';
 export interface OutboxState {
   loaded: boolean;
   items: QueuedReading[];
+  /** Incidents opened on this tablet and not on the server yet (sent before readings). */
+  incidents: QueuedIncident[];
   /** A pass is sending right now. */
   syncing: boolean;
   /** The server can be reached (./connection.ts: its answers decide, not navigator.onLine alone). */
@@ -41,17 +47,22 @@ export interface OutboxState {
 export interface OutboxHandlers {
   /** The server has the reading: put its stored verdict where the preview was. */
   onRecorded?: (reading: SentReading, item: QueuedReading) => void;
+  /** The server has the incident: show it where the queued one was. */
+  onIncidentRecorded?: (incident: SentIncident, item: QueuedIncident) => void;
   /** A pass recorded readings on these strips and venues: refresh what shows progress. */
   onPassDone?: (touched: { stripIds: string[]; venueIds: string[] }) => void;
 }
 
 const db = typeof indexedDB === 'undefined' ? undefined : createStore('stripwarden-outbox', 'readings');
+// A database of its own: idb-keyval keeps one object store per database.
+const incidentsDb = typeof indexedDB === 'undefined' ? undefined : createStore('stripwarden-outbox-incidents', 'incidents');
 const LOCK = 'stripwarden-outbox';
 const PERIODIC_MS = 30_000;
 
 let state: OutboxState = {
   loaded: false,
   items: [],
+  incidents: [],
   syncing: false,
   online: connectionStore.getSnapshot(),
   userId: null,
@@ -95,8 +106,9 @@ async function load() {
     const byId = new Map(upgraded.map((u) => [u.id, u]));
     items = items.map((i) => byId.get(i.id) ?? i);
   }
-  lastSeq = Math.max(lastSeq, ...items.map((i) => i.seq), 0);
-  setState({ items, loaded: true });
+  const incidents = incidentsDb ? (await entries<string, QueuedIncident>(incidentsDb)).map(([, v]) => v).sort(byTypingOrder) : [];
+  lastSeq = Math.max(lastSeq, ...items.map((i) => i.seq), ...incidents.map((i) => i.seq), 0);
+  setState({ items, incidents, loaded: true });
 }
 
 function changed() {
@@ -123,6 +135,16 @@ async function putAndRemove(keep: QueuedReading[], gone: string[]) {
   }
   const replaced = new Set([...gone, ...keep.map((i) => i.id)]);
   setState({ items: [...state.items.filter((i) => !replaced.has(i.id)), ...keep].sort(byTypingOrder) });
+  changed();
+}
+
+async function putIncident(item: QueuedIncident | null, goneId?: string) {
+  if (incidentsDb) {
+    if (item) await set(item.id, item, incidentsDb);
+    if (goneId) await del(goneId, incidentsDb);
+  }
+  const replaced = new Set([goneId, item?.id]);
+  setState({ incidents: [...state.incidents.filter((i) => !replaced.has(i.id)), ...(item ? [item] : [])].sort(byTypingOrder) });
   changed();
 }
 
@@ -172,6 +194,62 @@ export async function enqueueReading(r: NewQueuedReading): Promise<QueuedReading
   return item;
 }
 
+export interface NewQueuedIncident {
+  body: IncidentBody;
+  userId: string;
+  venueId: string;
+  where: string;
+}
+
+/**
+ * Keeps an incident opened on the tablet (on disk before it resolves), then tries to send it. Its
+ * clientId is made once, so however often it is sent the server keeps one incident.
+ */
+export async function enqueueIncident(r: NewQueuedIncident): Promise<QueuedIncident> {
+  const existing = state.incidents.find((i) => i.id === r.body.clientId);
+  if (existing) return existing;
+  const now = Date.now();
+  lastSeq = makeSeq(now, lastSeq);
+  const item: QueuedIncident = {
+    id: r.body.clientId,
+    kind: 'incident',
+    body: r.body,
+    userId: r.userId,
+    venueId: r.venueId,
+    stripId: r.body.stripId,
+    where: r.where,
+    createdAt: new Date(now).toISOString(),
+    seq: lastSeq,
+    status: 'waiting',
+    attempts: 0,
+    nextAttemptAt: 0,
+  };
+  await putIncident(item);
+  askForPersistentStorage();
+  void flush();
+  return item;
+}
+
+/** Sends the incidents that are due, one at a time in typing order; says why it stopped, or null. */
+async function sendIncidents(userId: string, force: boolean, touched: { stripIds: Set<string>; venueIds: Set<string> }) {
+  for (const item of planIncidentSend(state.incidents, { userId, nowMs: Date.now(), force })) {
+    setState({ syncing: true });
+    const { answer, incident } = await sendIncident(item.venueId, item.body);
+    if (answer.kind === 'network') serverDidNotAnswer();
+    else serverAnswered();
+    const outcome = classifyAnswer(answer);
+    const next = applyOutcome(item, outcome, Date.now());
+    await putIncident(next, next ? undefined : item.id);
+    if (outcome.kind === 'retry') return outcome.reason;
+    if (outcome.kind === 'done' && incident) {
+      touched.stripIds.add(item.stripId);
+      touched.venueIds.add(item.venueId);
+      handlers.onIncidentRecorded?.(incident, item);
+    }
+  }
+  return null;
+}
+
 function withLock(fn: () => Promise<void>): Promise<void> {
   // One sender across the tablet's tabs; a second tab would only replay (harmless, but wasteful).
   const locks = typeof navigator !== 'undefined' ? navigator.locks : undefined;
@@ -181,7 +259,7 @@ function withLock(fn: () => Promise<void>): Promise<void> {
 function schedule() {
   clearTimeout(timer);
   if (!state.userId) return;
-  const due = nextDueAt(state.items, state.userId);
+  const due = nextDueAt([...state.items, ...state.incidents], state.userId);
   if (due === null) return;
   timer = setTimeout(() => void flush(), Math.max(0, due - Date.now()) + 50);
 }
@@ -239,9 +317,11 @@ async function pass(force: boolean) {
   if (!userId) return;
   await load(); // another tab may have sent or added some
   const touched = { stripIds: new Set<string>(), venueIds: new Set<string>() };
-  let stop: OutboxState['lastStop'] = null;
+  // Incidents first: readings typed after one (its retest) must not reach the server before it.
+  let stop: OutboxState['lastStop'] = await sendIncidents(userId, force, touched);
   let first = true;
   for (;;) {
+    if (stop) break;
     const { send } = planSend(state.items, { userId, nowMs: Date.now(), force: force && first });
     first = false;
     if (send.length === 0) break;
@@ -340,6 +420,11 @@ export function startOutbox() {
 
 /** Send it again as it is (e.g. after the director re-assigned the venue). */
 export async function tryAgain(id: string) {
+  const incident = state.incidents.find((i) => i.id === id);
+  if (incident) {
+    await putIncident({ ...incident, status: 'waiting', nextAttemptAt: 0, problem: undefined });
+    return void flush({ force: true });
+  }
   const item = state.items.find((i) => i.id === id);
   if (!item) return;
   await put({ ...item, status: 'waiting', nextAttemptAt: 0, problem: undefined });
@@ -348,6 +433,8 @@ export async function tryAgain(id: string) {
 
 /** Do not send it; it stays in the list with its value, and can be sent after all. */
 export async function setAside(id: string) {
+  const incident = state.incidents.find((i) => i.id === id);
+  if (incident) return putIncident({ ...incident, status: 'set-aside' });
   const item = state.items.find((i) => i.id === id);
   if (item) await put({ ...item, status: 'set-aside' });
 }

@@ -135,7 +135,7 @@ export function retryDelayMs(attempts: number): number {
  * The item after an outcome, or null when it leaves the queue (recorded, nothing to tell).
  * Nothing the technician typed leaves the queue on a refusal.
  */
-export function applyOutcome(item: QueuedReading, outcome: Outcome, nowMs: number): QueuedReading | null {
+export function applyOutcome<T extends QueuedReading | QueuedIncident>(item: T, outcome: Outcome, nowMs: number): T | null {
   const at = new Date(nowMs).toISOString();
   switch (outcome.kind) {
     case 'done':
@@ -161,7 +161,7 @@ export function applyOutcome(item: QueuedReading, outcome: Outcome, nowMs: numbe
   }
 }
 
-export function byTypingOrder(a: QueuedReading, b: QueuedReading): number {
+export function byTypingOrder(a: { seq: number; id: string }, b: { seq: number; id: string }): number {
   return a.seq - b.seq || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
 }
 
@@ -202,7 +202,7 @@ export function planSend(items: QueuedReading[], opts: { userId: string; nowMs: 
 }
 
 /** When the next retry is due, or null if nothing waits on a timer. */
-export function nextDueAt(items: QueuedReading[], userId: string): number | null {
+export function nextDueAt(items: Pick<QueuedReading, 'userId' | 'status' | 'nextAttemptAt'>[], userId: string): number | null {
   const due = items.filter((i) => i.userId === userId && i.status === 'waiting').map((i) => i.nextAttemptAt);
   return due.length ? Math.min(...due) : null;
 }
@@ -216,7 +216,7 @@ export interface SyncSummary {
 }
 
 /** The indicator's state: what needs the technician first, then sending, offline, waiting, up to date. */
-export function summarize(items: QueuedReading[], opts: { userId: string | null; online: boolean; syncing: boolean }): SyncSummary {
+export function summarize(items: Pick<QueuedReading, 'userId' | 'status'>[], opts: { userId: string | null; online: boolean; syncing: boolean }): SyncSummary {
   const mine = opts.userId ? items.filter((i) => i.userId === opts.userId) : [];
   const waiting = mine.filter((i) => i.status === 'waiting').length;
   const needsYou = mine.filter((i) => i.status === 'problem' || i.status === 'notice').length;
@@ -255,4 +255,43 @@ export function upgradeLegacyItems(items: QueuedReading[], makeId: () => string)
     changed.push({ ...item, body: { ...body, leadNullId: record.id }, leadNull: record });
   }
   return changed;
+}
+
+// ---------- incidents opened on this tablet ----------
+
+/** POST /api/venues/:id/incidents as the outbox sends it: clientId makes a replay answer the same incident. */
+export interface IncidentBody {
+  clientId: string;
+  stripId: string;
+  positionId?: string | null;
+  symptom: string;
+}
+
+/** An incident typed on the tablet and not on the server yet; the same rules as a reading's. */
+export interface QueuedIncident {
+  /** The clientId, made once when the incident was opened. */
+  id: string;
+  kind: 'incident';
+  body: IncidentBody;
+  userId: string;
+  venueId: string;
+  stripId: string;
+  /** "Strip 4 · Touches not showing", for lists away from the strip. */
+  where: string;
+  createdAt: string;
+  seq: number;
+  status: QueueStatus;
+  attempts: number;
+  nextAttemptAt: number;
+  problem?: Problem;
+}
+
+/**
+ * The incidents to send now, in typing order: each waiting one whose retry is due. They go before
+ * any reading, so a retest typed offline after the incident reaches the server after it.
+ */
+export function planIncidentSend(items: QueuedIncident[], opts: { userId: string; nowMs: number; force?: boolean }): QueuedIncident[] {
+  return [...items]
+    .sort(byTypingOrder)
+    .filter((i) => i.userId === opts.userId && i.status === 'waiting' && (opts.force || i.nextAttemptAt <= opts.nowMs));
 }
