@@ -27,7 +27,16 @@ const ACTIONS: Record<string, string> = {
   'fault.repaired': 'recorded a repair',
   'fault.retest-failed': 'saw a retest fail',
   'fault.closed': 'closed a fault',
+  'fault.dismissed': 'dismissed a fault as a typing mistake',
+  'lead-null.recorded': 'recorded a test-lead null',
   'attachment.added': 'attached a file',
+  'strip.suspended': 'took a strip out of service',
+  'incident.opened': 'opened an incident',
+  'incident.swapped': 'swapped a spare in',
+  'incident.resolved': 'put a strip back in service',
+  'venue.amended': 'amended the signed-off venue',
+  'venue.spares-set': 'changed the spare pool',
+  'equipment.to-inspect': 'set an item aside to inspect',
 };
 
 /** A short line from the entry's detail: the fields a person recognises. */
