@@ -34,7 +34,10 @@ export default tseslint.config(
     rules: {
       'react-hooks/rules-of-hooks': 'error',
       'react-hooks/exhaustive-deps': 'warn',
-      'no-restricted-imports': ['error', { patterns: [{ group: ['**/server/**', '../server/*'], message: 'The client never imports the server.' }] }],
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ group: ['**/server/**', '../server/*'], message: 'The client never imports the server.' }] },
+      ],
       'import-x/no-restricted-paths': [
         'error',
         {
@@ -73,7 +76,10 @@ export default tseslint.config(
         'error',
         {
           patterns: [
-            { regex: '^(?!zod$|\\.{1,2}/).*', message: 'shared/ imports nothing but zod and itself: it runs in the browser and the server.' },
+            {
+              regex: '^(?!zod$|\\.{1,2}/).*',
+              message: 'shared/ imports nothing but zod and itself: it runs in the browser and the server.',
+            },
             { group: ['**/server/**', '**/src/**'], message: 'shared/ imports neither the client nor the server.' },
           ],
         },

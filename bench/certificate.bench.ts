@@ -40,7 +40,13 @@ function venueDocument(): CertificateDocument {
         const lengthM = pos.equipmentKind === 'reel' ? 20 : pos.equipmentKind === 'floor-cable' ? 12 : 14;
         const judged = judgeTypedReading(
           valueText,
-          { profile: DEFAULT_LIMIT_PROFILE, equipmentKind: pos.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM },
+          {
+            profile: DEFAULT_LIMIT_PROFILE,
+            equipmentKind: pos.equipmentKind,
+            testKind: step.testKind,
+            conductors: step.conductors,
+            lengthM,
+          },
           LEAD_NULL.valueOhm,
         );
         if (!judged.ok) throw new Error(judged.message);
@@ -92,7 +98,16 @@ function venueDocument(): CertificateDocument {
       rules: DEFAULT_LIMIT_PROFILE.rules.map((r) => ({ id: r.id, source: r.source, limit: ruleLimitText(r), note: r.note ?? null })),
     },
     testedBy: [{ id: 'tech-1', name: 'Sam Reyes' }],
-    leadNulls: [{ ...LEAD_NULL, takenById: 'tech-1', takenBy: 'Sam Reyes', takenAt: '2026-11-21T06:58:00.000Z', meter: 'Meter 2', readings: readings.length }],
+    leadNulls: [
+      {
+        ...LEAD_NULL,
+        takenById: 'tech-1',
+        takenBy: 'Sam Reyes',
+        takenAt: '2026-11-21T06:58:00.000Z',
+        meter: 'Meter 2',
+        readings: readings.length,
+      },
+    ],
     dismissedFaults: [],
     testedFrom: readings[0].takenAt,
     testedTo: readings[readings.length - 1].takenAt,
@@ -100,7 +115,10 @@ function venueDocument(): CertificateDocument {
     signedAt: '2026-11-21T18:00:00.000Z',
     statement: 'I have reviewed the readings listed in this certificate and sign the venue off for competition.',
     scope: SCOPE_SENTENCE,
-    related: { venueCertificate: null, stripCertificates: strips.map((s, i) => ({ stripId: s.id, label: s.label, number: `SW-2026-STRP-${String(i).padStart(4, '0')}-S` })) },
+    related: {
+      venueCertificate: null,
+      stripCertificates: strips.map((s, i) => ({ stripId: s.id, label: s.label, number: `SW-2026-STRP-${String(i).padStart(4, '0')}-S` })),
+    },
     verifyUrl: 'http://localhost:3000/verify/SW-2026-BENC-HMRK-V',
   };
   // A JWS of the real shape and size (the renderer prints its fingerprint and the key id).

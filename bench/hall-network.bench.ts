@@ -167,9 +167,17 @@ export async function run(): Promise<BenchResult> {
     // The queue: passing values on the steps of the strips not yet tested (13 to 24).
     const steps: DrainSetup['steps'] = [];
     for (const s of strips.slice(12)) {
-      const strip = await get<{ positions: { name: string; steps: { id: string; testKind: string; conductors: string }[] }[] }>(`/api/strips/${s.id}`);
+      const strip = await get<{ positions: { name: string; steps: { id: string; testKind: string; conductors: string }[] }[] }>(
+        `/api/strips/${s.id}`,
+      );
       for (const p of strip.positions)
-        for (const st of p.steps) steps.push({ stepId: st.id, stripId: s.id, value: st.testKind === 'insulation' ? 'OL' : '0.45', where: `${s.label} · ${p.name} · ${st.testKind} ${st.conductors}` });
+        for (const st of p.steps)
+          steps.push({
+            stepId: st.id,
+            stripId: s.id,
+            value: st.testKind === 'insulation' ? 'OL' : '0.45',
+            where: `${s.label} · ${p.name} · ${st.testKind} ${st.conductors}`,
+          });
     }
     const setup: DrainSetup = { userId: me.id, venueId: hall.id, steps };
 
@@ -182,7 +190,10 @@ export async function run(): Promise<BenchResult> {
       loads.open.push(await firstLoad(browser, server.base, cookie, path, UNTHROTTLED));
     }
     for (let i = 0; i < RUNS; i++) {
-      for (const [which, conditions] of [['hall', HALL], ['open', UNTHROTTLED]] as const) {
+      for (const [which, conditions] of [
+        ['hall', HALL],
+        ['open', UNTHROTTLED],
+      ] as const) {
         const d = await drain(browser, server.base, cookie, setup, conditions);
         drains[which].push(d.ms);
         sent.push(...d.ids);

@@ -29,7 +29,12 @@ for (const name of wanted) {
   console.log(`${r.pass ? 'meets' : 'MISSES'} target ${r.target}: ratio ${r.ratio.toFixed(3)} (${r.ratioMeaning})`);
   for (const [k, v] of Object.entries(r.figures)) console.log(`    ${k}: ${v}`);
 }
-const machine = { cpus: cpus().length, cpuModel: cpus()[0]?.model ?? 'unknown', memoryGiB: Math.round(totalmem() / 2 ** 30), node: process.version };
+const machine = {
+  cpus: cpus().length,
+  cpuModel: cpus()[0]?.model ?? 'unknown',
+  memoryGiB: Math.round(totalmem() / 2 ** 30),
+  node: process.version,
+};
 // Benchmarks not run this time keep their last result (each says when it ran).
 const file = 'bench/results/latest.json';
 const earlier: Stored[] = existsSync(file) ? ((JSON.parse(readFileSync(file, 'utf8')) as { results?: Stored[] }).results ?? []) : [];
@@ -39,4 +44,6 @@ const merged = Object.keys(all).flatMap((key) => {
 });
 mkdirSync('bench/results', { recursive: true });
 writeFileSync(file, JSON.stringify({ machine, results: merged }, null, 2));
-console.log(`\nWritten to bench/results/latest.json (${machine.cpus} × ${machine.cpuModel}, ${machine.memoryGiB} GiB, Node ${machine.node})`);
+console.log(
+  `\nWritten to bench/results/latest.json (${machine.cpus} × ${machine.cpuModel}, ${machine.memoryGiB} GiB, Node ${machine.node})`,
+);

@@ -32,10 +32,19 @@ function rawCommitsPerSecond(dir: string, n: number, k: number): number {
 /** The same load against bench/http-floor-server.ts: what HTTP alone costs on this machine. */
 async function httpFloorPerSecond(body: () => string): Promise<number> {
   const port = PORT + 50;
-  const child = spawn(process.execPath, ['--import', 'tsx', 'bench/http-floor-server.ts'], { env: { ...process.env, PORT: String(port) }, stdio: 'ignore' });
+  const child = spawn(process.execPath, ['--import', 'tsx', 'bench/http-floor-server.ts'], {
+    env: { ...process.env, PORT: String(port) },
+    stdio: 'ignore',
+  });
   try {
     for (let i = 0; i < 100; i++) {
-      if (await fetch(`http://localhost:${port}/api/health`).then((r) => r.ok, () => false)) break;
+      if (
+        await fetch(`http://localhost:${port}/api/health`).then(
+          (r) => r.ok,
+          () => false,
+        )
+      )
+        break;
       await new Promise((r) => setTimeout(r, 100));
     }
     const run = (amount: number) =>
@@ -44,7 +53,14 @@ async function httpFloorPerSecond(body: () => string): Promise<number> {
         connections: 32,
         amount,
         sampleInt: SAMPLE_MS,
-        requests: [{ method: 'POST', path: '/api/readings', headers: { 'Content-Type': 'application/json', Cookie: 'sw_session=x' }, setupRequest: (req) => ({ ...req, body: body() }) }],
+        requests: [
+          {
+            method: 'POST',
+            path: '/api/readings',
+            headers: { 'Content-Type': 'application/json', Cookie: 'sw_session=x' },
+            setupRequest: (req) => ({ ...req, body: body() }),
+          },
+        ],
       });
     await run(WARM_UP);
     const r = await run(COUNT);
@@ -71,27 +87,35 @@ export async function run(): Promise<BenchResult> {
     }
     // The tablet nulls the test leads once and names that null in every reading.
     const leadNullId = uuidv7();
-    const lead = await fetch(`${server.base}/api/lead-nulls`, { method: 'POST', headers, body: JSON.stringify({ id: leadNullId, value: '0.05', meter: 'Meter 1' }) });
+    const lead = await fetch(`${server.base}/api/lead-nulls`, {
+      method: 'POST',
+      headers,
+      body: JSON.stringify({ id: leadNullId, value: '0.05', meter: 'Meter 1' }),
+    });
     if (!lead.ok) throw new Error(`the test-lead null was refused: ${lead.status}`);
     let i = 0;
-    const load = (amount: number) => autocannon({
-      url: server.base,
-      connections: 32,
-      amount,
-      sampleInt: SAMPLE_MS,
-      requests: [
-        {
-          method: 'POST',
-          path: '/api/readings',
-          headers,
-          setupRequest: (req) => {
-            const step = steps[i++ % steps.length];
-            // As the tablet sends it: its own id, the time it was typed and the lead null it used.
-            return { ...req, body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString(), leadNullId }) };
+    const load = (amount: number) =>
+      autocannon({
+        url: server.base,
+        connections: 32,
+        amount,
+        sampleInt: SAMPLE_MS,
+        requests: [
+          {
+            method: 'POST',
+            path: '/api/readings',
+            headers,
+            setupRequest: (req) => {
+              const step = steps[i++ % steps.length];
+              // As the tablet sends it: its own id, the time it was typed and the lead null it used.
+              return {
+                ...req,
+                body: JSON.stringify({ id: uuidv7(), stepId: step.id, value: step.value, takenAt: new Date().toISOString(), leadNullId }),
+              };
+            },
           },
-        },
-      ],
-    });
+        ],
+      });
     await load(WARM_UP); // the server's JIT warms up on the first few hundred requests
     // Three API runs and three raw runs, taken in turns so that both see the same moments of this
     // shared machine (its disk and CPU speed drift by a fifth within minutes); the median of each.

@@ -5,12 +5,17 @@ type Plan = { venue: { id: string; version: number }; strips: { id: string; labe
 
 test.use({ viewport: { width: 1024, height: 768 } });
 
-test('the asset tags of a whole row: a pasted column fills down, a repeated tag is named before sending, the card\'s one save attaches all', async ({ page }) => {
+test("the asset tags of a whole row: a pasted column fills down, a repeated tag is named before sending, the card's one save attaches all", async ({
+  page,
+}) => {
   await signIn(page, 'director');
   const stamp = Date.now().toString(36).toUpperCase();
   const events = await apiAs<{ id: string }[]>(page, 'GET', '/api/events');
   const profiles = await apiAs<{ id: string }[]>(page, 'GET', '/api/profiles');
-  const created = await apiAs<Plan>(page, 'POST', `/api/events/${events.body[0].id}/venues`, { name: `Tag Hall ${stamp}`, profileId: profiles.body[0].id });
+  const created = await apiAs<Plan>(page, 'POST', `/api/events/${events.body[0].id}/venues`, {
+    name: `Tag Hall ${stamp}`,
+    profileId: profiles.body[0].id,
+  });
   expect(created.status).toBe(201);
   const venueId = created.body.venue.id;
   const origin = new URL(test.info().project.use.baseURL!).origin;
@@ -20,7 +25,8 @@ test('the asset tags of a whole row: a pasted column fills down, a repeated tag 
   });
   expect(bulk.status()).toBe(201);
   const tags = [1, 2, 3, 4].map((n) => `T${stamp}-${n}`);
-  for (const assetTag of tags) expect((await apiAs(page, 'POST', '/api/equipment', { assetTag, kind: 'floor-cable', lengthM: 12 })).status).toBe(201);
+  for (const assetTag of tags)
+    expect((await apiAs(page, 'POST', '/api/equipment', { assetTag, kind: 'floor-cable', lengthM: 12 })).status).toBe(201);
 
   await page.goto(`/venues/${venueId}/plan`);
   // The venue's details and technicians are one form with one save.
@@ -69,7 +75,9 @@ test('the asset tags of a whole row: a pasted column fills down, a repeated tag 
   await expect(page.getByText('plan version 3')).toBeVisible();
 
   const now = await apiAs<Plan>(page, 'GET', `/api/venues/${venueId}`);
-  const floorTags = now.body.strips.flatMap((s) => s.positions.filter((p) => p.equipmentKind === 'floor-cable').map((p) => p.equipment?.assetTag));
+  const floorTags = now.body.strips.flatMap((s) =>
+    s.positions.filter((p) => p.equipmentKind === 'floor-cable').map((p) => p.equipment?.assetTag),
+  );
   expect(floorTags).toEqual(tags);
   // The table fits the 1024 px screen: nothing scrolls sideways.
   expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(1024);

@@ -52,7 +52,11 @@ test('a technician opening the people page sees "not allowed", and the API answe
   expect(res.status).toBe(403);
 });
 
-test('an invitation e-mail reaches the local SMTP fake, its link sets a password, and the new person signs in', async ({ page, browser, signIn }) => {
+test('an invitation e-mail reaches the local SMTP fake, its link sets a password, and the new person signs in', async ({
+  page,
+  browser,
+  signIn,
+}) => {
   await signIn('admin');
   await page.goto('/people');
   await page.getByLabel('Name').fill('Robin Hale');
@@ -64,7 +68,10 @@ test('an invitation e-mail reaches the local SMTP fake, its link sets a password
 
   // The outbox shows the invitation, with its one-time link withheld: an admin cannot take it.
   await page.goto('/people/outbox');
-  await page.getByRole('button', { name: /Your Stripwarden invitation/ }).first().click();
+  await page
+    .getByRole('button', { name: /Your Stripwarden invitation/ })
+    .first()
+    .click();
   const body = await page.locator('article pre').innerText();
   expect(body).toContain('Robin Hale');
   expect(body).toContain('one-time link withheld');

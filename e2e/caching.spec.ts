@@ -3,13 +3,20 @@
 // (RFC 8246), the page itself revalidated.
 import { expect, signIn, test } from './fixtures';
 
-test('the testing screen\'s scripts and styles come brotli-compressed and immutable; the page is no-cache', async ({ page }) => {
+test("the testing screen's scripts and styles come brotli-compressed and immutable; the page is no-cache", async ({ page }) => {
   await signIn(page, 'technician');
   const assets: Promise<{ url: string; bytes: number; encoding?: string; cache?: string }>[] = [];
   page.on('response', (res) => {
     const type = res.request().resourceType();
     if (type === 'script' || type === 'stylesheet') {
-      assets.push(res.body().then((b) => ({ url: res.url(), bytes: b.length, encoding: res.headers()['content-encoding'], cache: res.headers()['cache-control'] })));
+      assets.push(
+        res.body().then((b) => ({
+          url: res.url(),
+          bytes: b.length,
+          encoding: res.headers()['content-encoding'],
+          cache: res.headers()['cache-control'],
+        })),
+      );
     }
   });
   const doc = await page.goto('/');

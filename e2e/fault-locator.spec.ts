@@ -52,7 +52,9 @@ test('a technician locates the demo short from both ends, sees it on the drawing
   // Murray loop: the wiring sketch says which arm goes where; 600 m with the faulted line's arm at 1
   // and the sound line's at 3 puts the fault at 2 · 600 · 1/4 = 300 m (x = 2L · a_faulted / (a_faulted + a_sound)).
   await readings.getByText('Murray loop bridge').click();
-  await expect(page.getByRole('img', { name: /Wiring of the Murray loop: the bridge arm on the faulted line and the bridge arm on the sound line/ })).toBeVisible();
+  await expect(
+    page.getByRole('img', { name: /Wiring of the Murray loop: the bridge arm on the faulted line and the bridge arm on the sound line/ }),
+  ).toBeVisible();
   await readings.getByLabel(/^Cable length/).fill('600');
   await readings.getByLabel(/^Bridge arm on the faulted line/).fill('3');
   await readings.getByLabel(/^Bridge arm on the sound line/).fill('1');
@@ -67,7 +69,9 @@ test('a technician locates the demo short from both ends, sees it on the drawing
 
   // A noisy trace with a short 96 ns after the incident edge, 1 ns per sample.
   const csv = traceCsv(synthesiseTrace({ samples: 2000, dtS: 1e-9, roundTripS: 96e-9, rho: -1, noiseV: 0.01, seed: 5 }));
-  await page.getByLabel('Trace file (CSV from the scope)').setInputFiles({ name: 'strip-6-left.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+  await page
+    .getByLabel('Trace file (CSV from the scope)')
+    .setInputFiles({ name: 'strip-6-left.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
   await page.locator('#trace-velocityFactor').fill('0.66');
   await page.getByRole('button', { name: 'Analyse trace' }).click();
   const roundTrip = page.getByTestId('trace-round-trip');

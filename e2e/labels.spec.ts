@@ -91,7 +91,13 @@ test('without a camera the scanner says so, and a typed item tag opens the strip
   await signIn(page, 'technician');
   const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
   const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  const plan = (await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(page, 'GET', `/api/venues/${hall}`)).body;
+  const plan = (
+    await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(
+      page,
+      'GET',
+      `/api/venues/${hall}`,
+    )
+  ).body;
   const strip9 = plan.strips.find((s) => s.label === 'Strip 9')!;
   const tag = strip9.positions.find((p) => p.equipment)!.equipment!.assetTag;
 
@@ -138,7 +144,13 @@ test('a label’s link opened by any camera app: the strip’s testing screen, o
   await signIn(page, 'technician');
   const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
   const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  const plan = (await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(page, 'GET', `/api/venues/${hall}`)).body;
+  const plan = (
+    await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(
+      page,
+      'GET',
+      `/api/venues/${hall}`,
+    )
+  ).body;
   const strip4 = plan.strips.find((s) => s.label === 'Strip 4')!;
   await page.goto(`/s/${strip4.id}`);
   await expect(page).toHaveURL(new RegExp(`/strips/${strip4.id}/test$`));

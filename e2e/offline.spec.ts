@@ -60,7 +60,11 @@ function savedQueryKeys(page: Page): Promise<string[]> {
   );
 }
 
-test('readings typed offline survive a reload, reach the server exactly once, and a removed step ends as a visible problem', async ({ page, context, browser }) => {
+test('readings typed offline survive a reload, reach the server exactly once, and a removed step ends as a visible problem', async ({
+  page,
+  context,
+  browser,
+}) => {
   const directorContext = await browser.newContext();
   const director = await directorContext.newPage();
   await signIn(director, 'director');
@@ -126,14 +130,19 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   const removedStepId = (await lastRow.locator('input[id^="reading-"]').getAttribute('id'))!.replace('reading-', '');
   const venue = await director.request.get(`/api/venues/${venueId}`);
   const origin = new URL(test.info().project.use.baseURL!).origin;
-  const removed = await director.request.delete(`/api/steps/${removedStepId}`, { headers: { Origin: origin, 'If-Match': venue.headers()['etag']! } });
+  const removed = await director.request.delete(`/api/steps/${removedStepId}`, {
+    headers: { Origin: origin, 'If-Match': venue.headers()['etag']! },
+  });
   expect(removed.status(), await removed.text()).toBeLessThan(300);
 
   // A reload with no network: the screen comes back with the queue and the verdicts, and knows it
   // is offline although the browser now says online.
   const debuggerSession = await attachSecondDebugger(page);
   await page.reload();
-  expect(await page.evaluate(() => navigator.onLine), 'precondition: Chromium reports this page online (if not, the test no longer covers a wrong navigator.onLine)').toBe(true);
+  expect(
+    await page.evaluate(() => navigator.onLine),
+    'precondition: Chromium reports this page online (if not, the test no longer covers a wrong navigator.onLine)',
+  ).toBe(true);
   await expect(page.getByRole('heading', { name: `${STRIP} — testing` })).toBeVisible();
   await expect(page.getByTestId('queued')).toHaveCount(28);
   await expect(page.getByTestId('queued').filter({ hasText: 'Pass' })).toHaveCount(28);

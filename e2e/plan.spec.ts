@@ -2,12 +2,18 @@ import { test, expect, signIn, apiAs } from './fixtures';
 
 type Plan = { venue: { id: string; version: number }; strips: { id: string; label: string; zone: string | null }[] };
 
-test('two directors edit the same plan: the second save is refused as "changed meanwhile" (412), keeps what was typed, and applies after reloading', async ({ page, browser }) => {
+test('two directors edit the same plan: the second save is refused as "changed meanwhile" (412), keeps what was typed, and applies after reloading', async ({
+  page,
+  browser,
+}) => {
   await signIn(page, 'director');
   // A venue of its own, put straight in through the API.
   const events = await apiAs<{ id: string }[]>(page, 'GET', '/api/events');
   const profiles = await apiAs<{ id: string }[]>(page, 'GET', '/api/profiles');
-  const created = await apiAs<Plan>(page, 'POST', `/api/events/${events.body[0].id}/venues`, { name: `Concurrency Hall ${Date.now()}`, profileId: profiles.body[0].id });
+  const created = await apiAs<Plan>(page, 'POST', `/api/events/${events.body[0].id}/venues`, {
+    name: `Concurrency Hall ${Date.now()}`,
+    profileId: profiles.body[0].id,
+  });
   expect(created.status).toBe(201);
   const venueId = created.body.venue.id;
   const origin = new URL(test.info().project.use.baseURL!).origin;

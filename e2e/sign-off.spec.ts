@@ -21,7 +21,9 @@ test('the director signs off the annex; the organiser gets the e-mail and the ZI
   const adminPage = await admin.newPage();
   await signIn(adminPage, 'admin');
   const mail = await apiAs<{ id: number; toAddresses: string; subject: string }[]>(adminPage, 'GET', '/api/mail');
-  const toNina = mail.body.find((m) => m.toAddresses.includes('nina@lakeshore.example') && m.subject.startsWith('Signed off: Riverside Annex'));
+  const toNina = mail.body.find(
+    (m) => m.toAddresses.includes('nina@lakeshore.example') && m.subject.startsWith('Signed off: Riverside Annex'),
+  );
   expect(toNina, 'the sign-off e-mail to the organiser').toBeTruthy();
   const message = await apiAs<{ text: string }>(adminPage, 'GET', `/api/mail/${toNina!.id}`);
   const verifyLinks = [...message.body.text.matchAll(/https?:\/\/\S+\/verify\/(SW-\S+)/g)].map((m) => m[1]);
@@ -35,7 +37,10 @@ test('the director signs off the annex; the organiser gets the e-mail and the ZI
   await signIn(ninaPage, 'organiser');
   await ninaPage.goto(`/venues/${annex.id}/certificates`);
   await expect(ninaPage.getByRole('heading', { level: 1, name: 'Certificates: Riverside Annex' })).toBeVisible();
-  const [download] = await Promise.all([ninaPage.waitForEvent('download'), ninaPage.getByRole('link', { name: 'Download all (ZIP)' }).click()]);
+  const [download] = await Promise.all([
+    ninaPage.waitForEvent('download'),
+    ninaPage.getByRole('link', { name: 'Download all (ZIP)' }).click(),
+  ]);
   expect(download.suggestedFilename()).toMatch(/^certificates-riverside-annex-\d{4}-\d{2}-\d{2}\.zip$/);
   const zipPath = await download.path();
   const { readFileSync } = await import('node:fs');

@@ -93,7 +93,9 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   await page.getByRole('button', { name: 'Record the repair' }).click();
   await expect(page.getByText('Section cut out: 1.5 m removed, 12 m → 10.5 m')).toBeVisible();
   // The estimate stays on the cable as it was when it was made, and says so.
-  await expect(page.getByTestId('shortened-since')).toHaveText('Located on the item as it was then, 12 m long; it is 10.5 m now, after a cut-out.');
+  await expect(page.getByTestId('shortened-since')).toHaveText(
+    'Located on the item as it was then, 12 m long; it is 10.5 m now, after a cut-out.',
+  );
   await expect(page.getByTestId('estimate')).toContainText('from the far end of the 12 m it was then');
   // Saved once: the form is disarmed, so a second tap cannot record the repair twice.
   await expect(page.getByTestId('repair-disarmed')).toBeVisible();
@@ -106,7 +108,11 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   const retestSteps = cable.locator('li[data-step]');
   for (let s = 0; s < 7; s++) {
     const step = (await retestSteps.nth(s).getAttribute('data-step'))!;
-    await typeAndRecord(page, retestSteps.nth(s).locator('input[id^="reading-"]'), step.startsWith('insulation') ? 'OL' : step.startsWith('loop') ? '0.9' : '0.45');
+    await typeAndRecord(
+      page,
+      retestSteps.nth(s).locator('input[id^="reading-"]'),
+      step.startsWith('insulation') ? 'OL' : step.startsWith('loop') ? '0.9' : '0.45',
+    );
     await expect(retestSteps.nth(s).getByTestId('latest')).toContainText('Pass');
     // Each step measured again since the repair is marked as its retest.
     await expect(retestSteps.nth(s)).toHaveAttribute('data-retested', 'yes');

@@ -6,7 +6,10 @@ import { roundTripNsFor, syntheticTdrTrace } from '../tests/setup/synthetic-trac
 const nsOf = (text: string | null) => Number((text ?? '').replace(/[^\d.-]/g, ''));
 
 test.describe('a scope trace on a fault', () => {
-  test('Sam uploads a trace on Strip 6, sees the markers at the right times, nudges one and the estimate follows', async ({ page, signIn }) => {
+  test('Sam uploads a trace on Strip 6, sees the markers at the right times, nudges one and the estimate follows', async ({
+    page,
+    signIn,
+  }) => {
     await signIn('technician');
     const venues = await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues');
     const hall = venues.body.find((v) => v.name === 'Riverside Sports Hall')!;
@@ -20,7 +23,9 @@ test.describe('a scope trace on a fault', () => {
     await page.goto(`/faults/${fault.id}`);
     await expect(page.getByRole('heading', { name: 'Photos, scope traces and files' })).toBeVisible();
     await expect(page.getByTestId('camera-input')).toHaveAttribute('capture', 'environment');
-    await page.getByTestId('file-input').setInputFiles({ name: 'strip6-left-AB.csv', mimeType: 'text/csv', buffer: Buffer.from(trace.csv) });
+    await page
+      .getByTestId('file-input')
+      .setInputFiles({ name: 'strip6-left-AB.csv', mimeType: 'text/csv', buffer: Buffer.from(trace.csv) });
     await expect(page.getByText('strip6-left-AB.csv is attached.')).toBeVisible();
     await expect(page.getByTestId('trace-plot').locator('canvas')).toBeVisible();
 
@@ -55,7 +60,10 @@ test.describe('a scope trace on a fault', () => {
 });
 
 test.describe('a photo on a fault', () => {
-  test('Sam attaches a photo that carries its location: the control says it is removed, and the stored photo has no GPS', async ({ page, signIn }) => {
+  test('Sam attaches a photo that carries its location: the control says it is removed, and the stored photo has no GPS', async ({
+    page,
+    signIn,
+  }) => {
     await signIn('technician');
     const venues = await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues');
     const hall = venues.body.find((v) => v.name === 'Riverside Sports Hall')!;
@@ -63,7 +71,10 @@ test.describe('a photo on a fault', () => {
     const fault = faults.body.find((f) => f.stripLabel === 'Strip 6')!;
     const photo = await sharp({ create: { width: 320, height: 240, channels: 3, background: '#c87828' } })
       .jpeg()
-      .withExif({ IFD2: { DateTimeOriginal: '2026:11:21 08:15:42', BodySerialNumber: 'SN-4471-0098' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 1234/100' } })
+      .withExif({
+        IFD2: { DateTimeOriginal: '2026:11:21 08:15:42', BodySerialNumber: 'SN-4471-0098' },
+        IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 1234/100' },
+      })
       .toBuffer();
 
     await page.goto(`/faults/${fault.id}`);

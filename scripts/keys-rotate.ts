@@ -16,7 +16,10 @@ if (env.SIGNING_KEY_PATH) {
 }
 const { sqlite, db } = openDatabase(env.DATABASE_PATH);
 const repo = signingKeysRepository(db);
-const before = repo.all().filter((k) => !k.retiredAt).map((k) => k.kid);
+const before = repo
+  .all()
+  .filter((k) => !k.retiredAt)
+  .map((k) => k.kid);
 const text = newPrivateJwk();
 const publicJwk = publicJwkOf(privateKeyFromText(text));
 const kid = await keyIdOf(publicJwk);

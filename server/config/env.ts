@@ -19,11 +19,19 @@ const HOST_NAME = /^(?=.{1,253}$)[a-z0-9]([a-z0-9-]{0,61}[a-z0-9])?(\.[a-z0-9]([
 const allowedHosts = z
   .string()
   .default('')
-  .transform((s) => s.split(/[\s,]+/).map((h) => h.trim().toLowerCase().replace(/\.$/, '')).filter(Boolean))
+  .transform((s) =>
+    s
+      .split(/[\s,]+/)
+      .map((h) => h.trim().toLowerCase().replace(/\.$/, ''))
+      .filter(Boolean),
+  )
   .superRefine((hosts, ctx) => {
     for (const h of hosts) {
       if (!HOST_NAME.test(h) && !isIP(h.replace(/^\[|\]$/g, ''))) {
-        ctx.addIssue({ code: 'custom', message: `ALLOWED_HOSTS: "${h}" is not a host name (give names like tablets.example.org, without scheme or port)` });
+        ctx.addIssue({
+          code: 'custom',
+          message: `ALLOWED_HOSTS: "${h}" is not a host name (give names like tablets.example.org, without scheme or port)`,
+        });
       }
     }
   });

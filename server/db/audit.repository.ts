@@ -32,7 +32,14 @@ export interface AuditActor {
 }
 
 /** The one way services record what a person did, in the transaction of the change itself. */
-export function recordAudit(db: Db | Tx, actor: AuditActor, action: string, entityType: string, entityId: string, detail?: Record<string, unknown>) {
+export function recordAudit(
+  db: Db | Tx,
+  actor: AuditActor,
+  action: string,
+  entityType: string,
+  entityId: string,
+  detail?: Record<string, unknown>,
+) {
   writeAudit(db, { orgId: actor.orgId, actorId: actor.id, action, entityType, entityId, detail });
 }
 

@@ -41,7 +41,11 @@ export function certificatesRepository(db: Db | Tx) {
         .orderBy(desc(certificates.issuedAt))
         .get(),
     supersede: (id: string, v: { at: string; successorId: string }) =>
-      db.update(certificates).set({ status: 'superseded', supersededAt: v.at, successorId: v.successorId }).where(eq(certificates.id, id)).run(),
+      db
+        .update(certificates)
+        .set({ status: 'superseded', supersededAt: v.at, successorId: v.successorId })
+        .where(eq(certificates.id, id))
+        .run(),
     predecessorOf: (number: string) => {
       const c = db.select({ id: certificates.id }).from(certificates).where(eq(certificates.number, number)).get();
       return c ? db.select().from(certificates).where(eq(certificates.successorId, c.id)).get() : undefined;

@@ -9,7 +9,12 @@ export function profilesRepository(db: Db | Tx) {
   return {
     findById: (id: string) => db.select().from(limitProfiles).where(eq(limitProfiles.id, id)).get(),
     ofOrg: (orgId: string) =>
-      db.select().from(limitProfiles).where(eq(limitProfiles.orgId, orgId)).orderBy(asc(limitProfiles.name), desc(limitProfiles.version)).all(),
+      db
+        .select()
+        .from(limitProfiles)
+        .where(eq(limitProfiles.orgId, orgId))
+        .orderBy(asc(limitProfiles.name), desc(limitProfiles.version))
+        .all(),
     versionsOf: (lineageId: string) =>
       db
         .select({ profile: limitProfiles, byName: users.name })
@@ -24,7 +29,13 @@ export function profilesRepository(db: Db | Tx) {
     /** Venues (of this organisation) that use one of the lineage's versions. */
     venuesUsing: (orgId: string, lineageId: string) =>
       db
-        .select({ venueId: venues.id, venueName: venues.name, eventName: events.name, profileId: limitProfiles.id, version: limitProfiles.version })
+        .select({
+          venueId: venues.id,
+          venueName: venues.name,
+          eventName: events.name,
+          profileId: limitProfiles.id,
+          version: limitProfiles.version,
+        })
         .from(venues)
         .innerJoin(events, eq(venues.eventId, events.id))
         .innerJoin(limitProfiles, eq(venues.profileId, limitProfiles.id))

@@ -43,7 +43,9 @@ export function readingsTableRepository(db: Db | Tx) {
           receivedAt: readings.receivedAt,
           supersedesId: readings.supersedesId,
           correctionReason: readings.correctionReason,
-          supersededBy: sql<string | null>`(select r2.id from readings r2 where r2.supersedes_id = ${readings.id} order by r2.taken_at desc, r2.rowid desc limit 1)`,
+          supersededBy: sql<
+            string | null
+          >`(select r2.id from readings r2 where r2.supersedes_id = ${readings.id} order by r2.taken_at desc, r2.rowid desc limit 1)`,
         })
         .from(readings)
         .innerJoin(steps, eq(readings.stepId, steps.id))

@@ -30,17 +30,30 @@ export function readingsRepository(db: Db | Tx) {
         d
           .select({
             step: { id: steps.id, testKind: steps.testKind, conductors: steps.conductors, removedAt: steps.removedAt },
-            position: { id: positions.id, name: positions.name, equipmentKind: positions.equipmentKind, equipmentId: positions.equipmentId },
+            position: {
+              id: positions.id,
+              name: positions.name,
+              equipmentKind: positions.equipmentKind,
+              equipmentId: positions.equipmentId,
+            },
             strip: { id: strips.id, label: strips.label },
             venue: { id: venues.id, status: venues.status, profileId: venues.profileId },
             event: { orgId: events.orgId, directorId: events.directorId },
             lengthM: equipment.lengthM,
-            assigned: sql<boolean>`exists(select 1 from venue_technicians vt where vt.venue_id = ${venues.id} and vt.user_id = ${sql.placeholder('userId')})`.mapWith(Boolean),
+            assigned:
+              sql<boolean>`exists(select 1 from venue_technicians vt where vt.venue_id = ${venues.id} and vt.user_id = ${sql.placeholder('userId')})`.mapWith(
+                Boolean,
+              ),
             existingHash: sql<string | null>`(select r.request_hash from readings r where r.id = ${sql.placeholder('readingId')})`,
-            unclosedFaultId: sql<string | null>`(select f.id from faults f where f.step_id = ${steps.id} and f.status <> 'closed' order by f.opened_at desc limit 1)`,
-            hasRepairedFault: sql<boolean>`exists(select 1 from faults f where f.position_id = ${positions.id} and f.status = 'repaired')`.mapWith(Boolean),
+            unclosedFaultId: sql<
+              string | null
+            >`(select f.id from faults f where f.step_id = ${steps.id} and f.status <> 'closed' order by f.opened_at desc limit 1)`,
+            hasRepairedFault:
+              sql<boolean>`exists(select 1 from faults f where f.position_id = ${positions.id} and f.status = 'repaired')`.mapWith(Boolean),
             // The test-lead null named by the reading, if it is this technician's own.
-            leadNullOhm: sql<number | null>`(select ln.value_ohm from lead_nulls ln where ln.id = ${sql.placeholder('leadNullId')} and ln.taken_by = ${sql.placeholder('userId')})`,
+            leadNullOhm: sql<
+              number | null
+            >`(select ln.value_ohm from lead_nulls ln where ln.id = ${sql.placeholder('leadNullId')} and ln.taken_by = ${sql.placeholder('userId')})`,
           })
           .from(steps)
           .innerJoin(positions, eq(steps.positionId, positions.id))

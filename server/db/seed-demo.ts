@@ -120,7 +120,14 @@ function build(tx: Tx, passwordHash: string) {
 /** Sports Hall strips 1–10 tested (with the failures the faults come from), strip 11 half done; the annex all done. */
 function recordDemoReadings(
   tx: Tx,
-  v: { orgId: string; hall: ReturnType<typeof makeVenue>; annex: ReturnType<typeof makeVenue>; profileId: string; sam: string; lee: string },
+  v: {
+    orgId: string;
+    hall: ReturnType<typeof makeVenue>;
+    annex: ReturnType<typeof makeVenue>;
+    profileId: string;
+    sam: string;
+    lee: string;
+  },
 ) {
   const { hall, annex, profileId } = v;
   // Sports Hall: strips 1–10 tested, strip 11 half done, the rest not started.
@@ -178,7 +185,15 @@ function recordDemoReadings(
   // Lee nulled the test leads before testing the Annex; every Annex reading has it subtracted.
   const leeNull = { id: newId(), valueOhm: 0.05 };
   tx.insert(t.leadNulls)
-    .values({ ...leeNull, orgId: v.orgId, takenBy: v.lee, valueText: '0.05', meter: 'Meter 2', takenAt: takenAt(-5), receivedAt: takenAt(-5) })
+    .values({
+      ...leeNull,
+      orgId: v.orgId,
+      takenBy: v.lee,
+      valueText: '0.05',
+      meter: 'Meter 2',
+      takenAt: takenAt(-5),
+      receivedAt: takenAt(-5),
+    })
     .run();
   record(annex, () => true, {}, v.lee, undefined, leeNull);
 }

@@ -1,19 +1,7 @@
 import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { Db, Tx } from './client';
-import {
-  equipment,
-  faults,
-  limitProfiles,
-  organisations,
-  positions,
-  readings,
-  signOffs,
-  steps,
-  strips,
-  users,
-  venues,
-} from './schema';
+import { equipment, faults, limitProfiles, organisations, positions, readings, signOffs, steps, strips, users, venues } from './schema';
 
 export type SignOffRow = typeof signOffs.$inferSelect;
 
@@ -50,10 +38,7 @@ export function signOffRepository(db: Db | Tx) {
         .leftJoin(equipment, eq(positions.equipmentId, equipment.id))
         .leftJoin(
           readings,
-          eq(
-            readings.id,
-            sql`(select r.id from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`,
-          ),
+          eq(readings.id, sql`(select r.id from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`),
         )
         .leftJoin(readingEquipment, eq(readings.equipmentId, readingEquipment.id))
         .leftJoin(users, eq(readings.takenBy, users.id))
@@ -81,7 +66,9 @@ export function signOffRepository(db: Db | Tx) {
     organisation: (id: string) => db.select().from(organisations).where(eq(organisations.id, id)).get(),
     user: (id: string) => db.select().from(users).where(eq(users.id, id)).get(),
     usersByIds: (ids: string[]) =>
-      ids.length === 0 ? [] : db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(inArray(users.id, ids)).all(),
+      ids.length === 0
+        ? []
+        : db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(inArray(users.id, ids)).all(),
 
     insertSignOff: (row: typeof signOffs.$inferInsert) => db.insert(signOffs).values(row).run(),
     /** The venue freezes: signed off, and its version moves on so stale plan edits are refused. */
@@ -92,7 +79,11 @@ export function signOffRepository(db: Db | Tx) {
         .where(and(eq(venues.id, venueId), eq(venues.version, fromVersion)))
         .run().changes,
     activeSignOff: (venueId: string) =>
-      db.select().from(signOffs).where(and(eq(signOffs.venueId, venueId), eq(signOffs.status, 'active'))).get(),
+      db
+        .select()
+        .from(signOffs)
+        .where(and(eq(signOffs.venueId, venueId), eq(signOffs.status, 'active')))
+        .get(),
   };
 }
 export type SignOffRepository = ReturnType<typeof signOffRepository>;

@@ -50,7 +50,13 @@ export function stripsRepository(db: Db | Tx) {
         .get(),
 
     profile: (id: string) =>
-      prepared(db, 'strips.profile', (d) => d.select().from(limitProfiles).where(eq(limitProfiles.id, sql.placeholder('id'))).prepare()).get({ id }),
+      prepared(db, 'strips.profile', (d) =>
+        d
+          .select()
+          .from(limitProfiles)
+          .where(eq(limitProfiles.id, sql.placeholder('id')))
+          .prepare(),
+      ).get({ id }),
 
     positionsWithEquipment: (stripId: string) =>
       db

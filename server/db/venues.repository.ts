@@ -10,6 +10,27 @@ export type EventRow = typeof events.$inferSelect;
 // (case-insensitive), then the event's name and the id so that equal names never swap.
 const VENUE_ORDER = [desc(events.startsOn), sql`${venues.name} collate nocase`, asc(events.name), asc(venues.id)] as const;
 
+/** The venues a person sees listed: all of an organisation's, or those a technician is assigned to. */
+const venueLists = (db: Db | Tx) => ({
+  venuesOfOrg: (orgId: string) =>
+    db
+      .select({ venue: venues, event: events })
+      .from(venues)
+      .innerJoin(events, eq(venues.eventId, events.id))
+      .where(eq(events.orgId, orgId))
+      .orderBy(...VENUE_ORDER)
+      .all(),
+  venuesAssignedTo: (userId: string) =>
+    db
+      .select({ venue: venues, event: events })
+      .from(venues)
+      .innerJoin(events, eq(venues.eventId, events.id))
+      .innerJoin(venueTechnicians, eq(venueTechnicians.venueId, venues.id))
+      .where(eq(venueTechnicians.userId, userId))
+      .orderBy(...VENUE_ORDER)
+      .all(),
+});
+
 export function venuesRepository(db: Db | Tx) {
   return {
     findVenue: (id: string) =>
@@ -31,24 +52,14 @@ export function venuesRepository(db: Db | Tx) {
       ).get({ venueId, userId }),
     /** The venue row alone, by id. */
     venueById: (id: string) =>
-      prepared(db, 'venues.venueById', (d) => d.select().from(venues).where(eq(venues.id, sql.placeholder('id'))).prepare()).get({ id }),
-    venuesOfOrg: (orgId: string) =>
-      db
-        .select({ venue: venues, event: events })
-        .from(venues)
-        .innerJoin(events, eq(venues.eventId, events.id))
-        .where(eq(events.orgId, orgId))
-        .orderBy(...VENUE_ORDER)
-        .all(),
-    venuesAssignedTo: (userId: string) =>
-      db
-        .select({ venue: venues, event: events })
-        .from(venues)
-        .innerJoin(events, eq(venues.eventId, events.id))
-        .innerJoin(venueTechnicians, eq(venueTechnicians.venueId, venues.id))
-        .where(eq(venueTechnicians.userId, userId))
-        .orderBy(...VENUE_ORDER)
-        .all(),
+      prepared(db, 'venues.venueById', (d) =>
+        d
+          .select()
+          .from(venues)
+          .where(eq(venues.id, sql.placeholder('id')))
+          .prepare(),
+      ).get({ id }),
+    ...venueLists(db),
     /** The venue's strips, without its pool of spares (no strip of the board, the plan or a certificate). */
     stripsOf: (venueId: string) =>
       db
@@ -67,7 +78,9 @@ export function venuesRepository(db: Db | Tx) {
           stepId: steps.id,
           required: steps.required,
           // Latest by time taken, ties broken by insertion order: corrections supersede.
-          verdict: sql<'pass' | 'near-limit' | 'fail' | null>`(select r.verdict from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`,
+          verdict: sql<
+            'pass' | 'near-limit' | 'fail' | null
+          >`(select r.verdict from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`,
         })
         .from(steps)
         .innerJoin(positions, eq(steps.positionId, positions.id))

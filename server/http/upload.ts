@@ -85,7 +85,9 @@ export function singleFileUpload(opts: UploadOptions): RequestHandler {
     handler(req, res, (err?: unknown) => {
       const e = err as { code?: string; field?: string } | undefined;
       if (e?.code === 'LIMIT_UNEXPECTED_FILE') {
-        return next(new AppError(422, 'unexpected-field', `Send the file in a field named "file" (not "${e.field}"), one file per request.`));
+        return next(
+          new AppError(422, 'unexpected-field', `Send the file in a field named "file" (not "${e.field}"), one file per request.`),
+        );
       }
       if (e?.code === 'LIMIT_FILE_COUNT') return next(new AppError(422, 'one-file', 'Send one file per request.'));
       // busboy's own parse errors ("Malformed part header", "Unexpected end of form") carry no code.

@@ -28,7 +28,10 @@ export interface Sheet {
 const XLSX_MIME = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
 
 const tooManyColumns = (line: number, max: number) =>
-  unprocessable('too-many-columns', `Row ${line} has more than ${max} columns; a register needs a dozen or so. Remove the extra columns and try again.`);
+  unprocessable(
+    'too-many-columns',
+    `Row ${line} has more than ${max} columns; a register needs a dozen or so. Remove the extra columns and try again.`,
+  );
 const tooManyRows = (max: number) =>
   unprocessable('too-many-rows', `The file has more than ${max.toLocaleString('en')} rows; split it into smaller files.`);
 const unpacksTooLarge = (max: number) =>

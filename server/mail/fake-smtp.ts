@@ -42,7 +42,8 @@ export async function startFakeSmtp(
           const to = Array.isArray(mail.to) ? mail.to.map((a) => a.text).join(', ') : (mail.to?.text ?? '');
           const claimed = mail.headers.get(ORGANISATION_HEADER.toLowerCase());
           const orgId =
-            typeof claimed === 'string' && db.select({ id: organisations.id }).from(organisations).where(eq(organisations.id, claimed)).get()
+            typeof claimed === 'string' &&
+            db.select({ id: organisations.id }).from(organisations).where(eq(organisations.id, claimed)).get()
               ? claimed
               : null;
           const text = withholdOneTimeLinks(mail.text ?? '');

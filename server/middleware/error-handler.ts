@@ -58,7 +58,8 @@ export function problemFor(err: unknown): { status: number; code: string; detail
   if (e.type === 'charset.unsupported' || e.type === 'encoding.unsupported')
     return { status: 415, code: 'unsupported-encoding', detail: 'The request body encoding is not supported.' };
   if (e.code === 'LIMIT_FILE_SIZE') return { status: 413, code: 'file-too-large', detail: 'The file is too large.' };
-  if (typeof e.code === 'string' && e.code.startsWith('LIMIT_')) return { status: 400, code: 'bad-upload', detail: e.message ?? 'The upload is not acceptable.' };
+  if (typeof e.code === 'string' && e.code.startsWith('LIMIT_'))
+    return { status: 400, code: 'bad-upload', detail: e.message ?? 'The upload is not acceptable.' };
   if (typeof e.status === 'number' && e.status >= 400 && e.status < 500)
     return { status: e.status, code: 'bad-request', detail: e.message ?? 'The request is not acceptable.' };
   return null;
@@ -75,7 +76,8 @@ export function errorHandler(log: (msg: string, err: unknown) => void): ErrorReq
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
     // A refusal that says when to come back (a full worker pool) says so in the standard header too.
-    if (err instanceof AppError && typeof err.extra.retryAfterSeconds === 'number') res.set('Retry-After', String(err.extra.retryAfterSeconds));
+    if (err instanceof AppError && typeof err.extra.retryAfterSeconds === 'number')
+      res.set('Retry-After', String(err.extra.retryAfterSeconds));
     const problem = problemFor(err);
     if (problem) return sendProblem(res, problem.status, problem.code, problem.detail, problem.extra);
     log('unhandled error', err);

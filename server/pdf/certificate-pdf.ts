@@ -9,7 +9,16 @@ import type { TestKind } from '../../shared/domain/limits';
 import { legendText } from '../../shared/domain/symbols';
 import { clockFor, formatDateRange, testLabel, ruleLabel, verdictColour, verdictMark, Writer } from './certificate-writer';
 import { DEFAULT_TIME_ZONE } from '../../shared/format/date-time';
-import { valueText, readingColumns, commonFacts, limitsTable, leadNullsTable, dismissedTable, equipmentFacts, equipmentSummary } from './certificate-blocks';
+import {
+  valueText,
+  readingColumns,
+  commonFacts,
+  limitsTable,
+  leadNullsTable,
+  dismissedTable,
+  equipmentFacts,
+  equipmentSummary,
+} from './certificate-blocks';
 
 export interface CertificateDocument {
   payload: CertificatePayload;

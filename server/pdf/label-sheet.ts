@@ -40,7 +40,11 @@ export function labelOrigin(index: number) {
   const h = LABEL_GRID.heightMm * MM;
   const left = (A4.width - LABEL_GRID.columns * w) / 2;
   const top = (A4.height - LABEL_GRID.rows * h) / 2;
-  return { page: Math.floor(index / PER_PAGE), x: left + (slot % LABEL_GRID.columns) * w, y: top + Math.floor(slot / LABEL_GRID.columns) * h };
+  return {
+    page: Math.floor(index / PER_PAGE),
+    x: left + (slot % LABEL_GRID.columns) * w,
+    y: top + Math.floor(slot / LABEL_GRID.columns) * h,
+  };
 }
 
 // 8 pixels per module and the standard quiet zone of 4 modules (ISO/IEC 18004 §9.1): sharp at about
@@ -72,7 +76,10 @@ function drawLabel(pen: Pen, label: Label, png: Buffer, x: number, y: number) {
   const small = { size: 8, weight: 500 as const, color: COLOURS.soft };
   const room = Math.max(1, 4 - titleLines.length);
   const clip = (lines: string[], n: number) => (lines.length <= n ? lines : [...lines.slice(0, n - 1), `${lines[n - 1]}…`]);
-  const wrapped = clip(label.lines.flatMap((text, i) => clip(pen.wrap(text, tw, small), i === 0 ? 2 : room)), room);
+  const wrapped = clip(
+    label.lines.flatMap((text, i) => clip(pen.wrap(text, tw, small), i === 0 ? 2 : room)),
+    room,
+  );
   for (const text of wrapped) {
     pen.line(text, tx, ty, small, { width: tw });
     ty += 10.5;
@@ -81,7 +88,12 @@ function drawLabel(pen: Pen, label: Label, png: Buffer, x: number, y: number) {
 }
 
 export async function renderLabelSheet(sheet: LabelSheetDocument): Promise<Uint8Array> {
-  const doc = createDocument({ title: sheet.title, subject: sheet.subject, keywords: 'labels, QR', creationDate: new Date(sheet.createdAt) });
+  const doc = createDocument({
+    title: sheet.title,
+    subject: sheet.subject,
+    keywords: 'labels, QR',
+    creationDate: new Date(sheet.createdAt),
+  });
   const pen = new Pen(doc);
   sheet.labels.forEach((label, i) => {
     const at = labelOrigin(i);

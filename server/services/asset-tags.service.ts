@@ -51,7 +51,8 @@ function plan(tx: Tx, user: AuthUser, venueId: string, entries: Entry[], field: 
         message: `${where}: ${tag} is a ${kindWord(item.kind)}, but this position takes a ${kindWord(at.position.equipmentKind)}.`,
       });
     }
-    if (item.status === 'retired') return void problems.push({ path, message: `${where}: ${tag} is retired and cannot go back on a strip.` });
+    if (item.status === 'retired')
+      return void problems.push({ path, message: `${where}: ${tag} is retired and cannot go back on a strip.` });
     const elsewhere = eq.positionInVenue(item.id, venueId);
     if (elsewhere && !listed.has(elsewhere.positionId)) {
       return void problems.push({
@@ -101,7 +102,9 @@ export function applyAssetTags(tx: Tx, user: AuthUser, venueId: string, entries:
 }
 
 function setAssetTags(deps: AppDeps, user: AuthUser, venueId: string, ifMatch: string | undefined, entries: Entry[]) {
-  return editPlan(deps, user, venueId, ifMatch, `asset tags of ${entries.length} positions`, (tx) => applyAssetTags(tx, user, venueId, entries));
+  return editPlan(deps, user, venueId, ifMatch, `asset tags of ${entries.length} positions`, (tx) =>
+    applyAssetTags(tx, user, venueId, entries),
+  );
 }
 
 export function assetTagsService(deps: AppDeps) {

@@ -18,10 +18,18 @@ function withIncidents(deps: AppDeps, venueId: string, progress: Progress) {
     .filter((r) => r.incident.status === 'open');
   const now = new Date().toISOString();
   const rows = progress.map((p) => {
-    const mine = open.filter((r) => r.incident.stripId === p.strip.id).map((r) => r.incident.openedAt).sort();
+    const mine = open
+      .filter((r) => r.incident.stripId === p.strip.id)
+      .map((r) => r.incident.openedAt)
+      .sort();
     const since = p.strip.outOfServiceSince;
     const from = mine[0] ?? since;
-    return { p, outOfServiceSince: since, minutesSinceIncident: since && from ? minutesBetween(from, now) : null, openIncidents: mine.length };
+    return {
+      p,
+      outOfServiceSince: since,
+      minutesSinceIncident: since && from ? minutesBetween(from, now) : null,
+      openIncidents: mine.length,
+    };
   });
   const out = rows.filter((r) => r.outOfServiceSince).sort((a, b) => (b.minutesSinceIncident ?? 0) - (a.minutesSinceIncident ?? 0));
   return [...out, ...rows.filter((r) => !r.outOfServiceSince)];
@@ -35,7 +43,14 @@ export function boardService(deps: AppDeps) {
     board(user: AuthUser, venueId: string) {
       const { venue, event } = access.requireVenue(user, venueId, 'read');
       const progress = venues.stripProgress(venueId);
-      const byStatus: Record<StripStatus, number> = { 'not-started': 0, 'in-progress': 0, clear: 0, 'fault-open': 0, withdrawn: 0, 'out-of-service': 0 };
+      const byStatus: Record<StripStatus, number> = {
+        'not-started': 0,
+        'in-progress': 0,
+        clear: 0,
+        'fault-open': 0,
+        withdrawn: 0,
+        'out-of-service': 0,
+      };
       let stepsDone = 0;
       let stepsTotal = 0;
       for (const p of progress) {

@@ -159,6 +159,28 @@ function calibrate(scope: Scope, user: AuthUser, id: string, input: CalibrationI
   return { id: calibrationId, ...result, item: repo.findById(id)! };
 }
 
+type ItemReadingRow = ReturnType<Scope['repo']['readingsOf']>[number];
+
+/** One reading of the item's history, with where and by whom it was taken. */
+const historyReading = (r: ItemReadingRow) => ({
+  id: r.reading.id,
+  valueText: r.reading.valueText,
+  valueOhm: r.reading.valueOhm,
+  verdict: r.reading.verdict,
+  limitOhm: r.reading.limitOhm,
+  testKind: r.testKind,
+  conductors: r.conductors,
+  positionName: r.positionName,
+  stripId: r.stripId,
+  stripLabel: r.stripLabel,
+  venueId: r.venueId,
+  venueName: r.venueName,
+  eventName: r.eventName,
+  takenAt: r.reading.takenAt,
+  takenByName: r.takenByName,
+  supersedesId: r.reading.supersedesId,
+});
+
 /**
  * The item with everything that happened to it, across events. A technician sees its history
  * only on the venues they are assigned to (OWASP ASVS 8.2.2): the register is shared, the
@@ -167,7 +189,14 @@ function calibrate(scope: Scope, user: AuthUser, id: string, input: CalibrationI
 function detail(scope: Scope, user: AuthUser, id: string) {
   const { deps, repo } = scope;
   const item = requireItem(scope, user, id);
-  const visible = user.role === 'technician' ? new Set(accessService(deps.db).visibleVenues(user).map((v) => v.venue.id)) : null;
+  const visible =
+    user.role === 'technician'
+      ? new Set(
+          accessService(deps.db)
+            .visibleVenues(user)
+            .map((v) => v.venue.id),
+        )
+      : null;
   const mayShow = (venueId: string) => visible === null || visible.has(venueId);
   const allRepairs = repo.repairsOf(id);
   const repairs = allRepairs
@@ -190,24 +219,7 @@ function detail(scope: Scope, user: AuthUser, id: string) {
     readings: repo
       .readingsOf(id)
       .filter((r) => mayShow(r.venueId))
-      .map((r) => ({
-        id: r.reading.id,
-        valueText: r.reading.valueText,
-        valueOhm: r.reading.valueOhm,
-        verdict: r.reading.verdict,
-        limitOhm: r.reading.limitOhm,
-        testKind: r.testKind,
-        conductors: r.conductors,
-        positionName: r.positionName,
-        stripId: r.stripId,
-        stripLabel: r.stripLabel,
-        venueId: r.venueId,
-        venueName: r.venueName,
-        eventName: r.eventName,
-        takenAt: r.reading.takenAt,
-        takenByName: r.takenByName,
-        supersedesId: r.reading.supersedesId,
-      })),
+      .map(historyReading),
     faults: repo
       .faultsOf(id)
       .filter((f) => mayShow(f.venueId))

@@ -64,7 +64,12 @@ async function venueSheet(scope: Scope, user: AuthUser, venueId: string) {
       labels.push(itemLabel(origin, { assetTag: row.assetTag, kind: row.kind, description: row.description ?? '' }));
     }
   }
-  const pdf = await render(scope, { title: `Labels · ${venue.name}`, subject: `The venue ${venue.name} (${event.name})`, createdAt: nowIso(), labels });
+  const pdf = await render(scope, {
+    title: `Labels · ${venue.name}`,
+    subject: `The venue ${venue.name} (${event.name})`,
+    createdAt: nowIso(),
+    labels,
+  });
   return { pdf, venueName: venue.name };
 }
 

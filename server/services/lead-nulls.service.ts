@@ -64,11 +64,11 @@ export function leadNullsService(deps: AppDeps) {
       };
       repo.insert(row);
       recordAudit(tx, user, 'lead-null.recorded', 'lead-null', row.id, {
-          value: body.value,
-          valueOhm: parsed.valueOhm,
-          meter,
-          ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
-        });
+        value: body.value,
+        valueOhm: parsed.valueOhm,
+        meter,
+        ...('refused' in time ? { tabletTakenAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
+      });
       return { replayed: false, leadNull: present(row, user.name) };
     });
   }

@@ -123,7 +123,8 @@ function plannedItems(db: Db, stripIds: string[]): Planned {
 function itemsOf(own: CertifiedReading[], planned: ReturnType<Planned['get']>): CertificateItem[] {
   const key = (position: string, assetTag: string | null) => `${position}|${assetTag}`;
   const measured = new Map<string, CertificateItem>();
-  for (const r of own) measured.set(key(r.position, r.assetTag), { position: r.position, kind: r.equipmentKind, assetTag: r.assetTag, measured: true });
+  for (const r of own)
+    measured.set(key(r.position, r.assetTag), { position: r.position, kind: r.equipmentKind, assetTag: r.assetTag, measured: true });
   const items = (planned ?? []).map((p) => measured.get(key(p.position, p.assetTag)) ?? { ...p, measured: false });
   // A certified reading always names a planned position; kept here too should the plan say otherwise.
   for (const [k, item] of measured) if (!items.some((i) => key(i.position, i.assetTag) === k)) items.push(item);
@@ -131,7 +132,13 @@ function itemsOf(own: CertifiedReading[], planned: ReturnType<Planned['get']>): 
 }
 
 /** What a certificate says about its readings: strips, items, testers, the digest, the profile. */
-function payloadBase(db: Db, ctx: SigningContext, list: CertifiedReading[], zoneOf: Map<string, string | null>, planned: Planned): PayloadBase {
+function payloadBase(
+  db: Db,
+  ctx: SigningContext,
+  list: CertifiedReading[],
+  zoneOf: Map<string, string | null>,
+  planned: Planned,
+): PayloadBase {
   const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
   const times = list.map((r) => r.takenAt).sort();
   const strips = [...new Set(list.map((r) => r.stripId))].map((stripId) => {
@@ -189,7 +196,10 @@ export function draftCertificates(
 ): Draft[] {
   const { venueNumber, stripNumbers } = allocateNumbers(db, new Date(ctx.signedAt).getUTCFullYear(), readiness);
   const zoneOf = new Map(snap.stripRows.map((s) => [s.id, s.zone]));
-  const planned = plannedItems(db, snap.stripRows.map((s) => s.id));
+  const planned = plannedItems(
+    db,
+    snap.stripRows.map((s) => s.id),
+  );
   const venue: Draft = {
     payload: {
       ...payloadBase(db, ctx, readings, zoneOf, planned),
@@ -221,7 +231,12 @@ export function draftCertificates(
 }
 
 /** Each draft signed and rendered to PDF, in memory. */
-export async function renderCertificates(workers: AppDeps['workers'], key: SigningKey, drafts: Draft[], timeZone: string): Promise<IssuedCertificate[]> {
+export async function renderCertificates(
+  workers: AppDeps['workers'],
+  key: SigningKey,
+  drafts: Draft[],
+  timeZone: string,
+): Promise<IssuedCertificate[]> {
   const issued: IssuedCertificate[] = [];
   for (const d of drafts) {
     const { canonical, jws } = await signCertificatePayload(key, d.payload);

@@ -96,4 +96,3 @@ export function stripsService(deps: AppDeps) {
 
   return { get };
 }
-

@@ -9,14 +9,14 @@ import { certificates, signOffs, strips, venues } from '../db/schema';
 import { recordAudit } from '../db/audit.repository';
 import { venuesRepository } from '../db/venues.repository';
 
-export function reopenIfSignedOff(
-  tx: Db | Tx,
-  v: { venueId: string; orgId: string; actorId: string; reason: string },
-): boolean {
+export function reopenIfSignedOff(tx: Db | Tx, v: { venueId: string; orgId: string; actorId: string; reason: string }): boolean {
   const venue = venuesRepository(tx).venueById(v.venueId);
   if (!venue || venue.status !== 'signed-off') return false;
   const at = new Date().toISOString();
-  tx.update(venues).set({ status: 'testing', version: venue.version + 1 }).where(eq(venues.id, v.venueId)).run();
+  tx.update(venues)
+    .set({ status: 'testing', version: venue.version + 1 })
+    .where(eq(venues.id, v.venueId))
+    .run();
   tx.update(signOffs)
     .set({ status: 'superseded', supersededAt: at, supersededReason: v.reason })
     .where(and(eq(signOffs.venueId, v.venueId), eq(signOffs.status, 'active')))

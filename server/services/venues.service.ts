@@ -34,7 +34,14 @@ export function venuesService(deps: AppDeps) {
   }
 
   function summarise(progress: ReturnType<typeof stripProgress>) {
-    const byStatus: Record<StripStatus, number> = { 'not-started': 0, 'in-progress': 0, clear: 0, 'fault-open': 0, withdrawn: 0, 'out-of-service': 0 };
+    const byStatus: Record<StripStatus, number> = {
+      'not-started': 0,
+      'in-progress': 0,
+      clear: 0,
+      'fault-open': 0,
+      withdrawn: 0,
+      'out-of-service': 0,
+    };
     let total = 0;
     let done = 0;
     for (const p of progress) {

@@ -40,7 +40,9 @@ export function privateKeyFromText(text: string, what = 'The signing key'): KeyO
     try {
       jwk = JSON.parse(trimmed);
     } catch {
-      throw new Error(`${what} is neither PEM nor JSON text (expected a PKCS8 PEM or a private JWK); the file may be cut short or damaged.`);
+      throw new Error(
+        `${what} is neither PEM nor JSON text (expected a PKCS8 PEM or a private JWK); the file may be cut short or damaged.`,
+      );
     }
     if (typeof jwk !== 'object' || jwk === null || Array.isArray(jwk)) throw new Error(`${what} is JSON but not a JWK object.`);
     if (!('d' in jwk)) throw new Error(`${what} is a JWK without its private part ("d"): a public key cannot sign.`);

@@ -11,10 +11,30 @@ import { randomUUID } from 'node:crypto';
 
 // What stays: the orientation, the times the picture was taken, and the colour profile. The tags
 // are named in the EXIF group, so they are written back as EXIF (not as XMP).
-const KEEP = ['Orientation', 'DateTimeOriginal', 'CreateDate', 'ModifyDate', 'OffsetTime', 'OffsetTimeOriginal', 'OffsetTimeDigitized', 'SubSecTime', 'SubSecTimeOriginal', 'SubSecTimeDigitized'];
+const KEEP = [
+  'Orientation',
+  'DateTimeOriginal',
+  'CreateDate',
+  'ModifyDate',
+  'OffsetTime',
+  'OffsetTimeOriginal',
+  'OffsetTimeDigitized',
+  'SubSecTime',
+  'SubSecTimeOriginal',
+  'SubSecTimeDigitized',
+];
 // Everything goes first (-all=; EXIF and XMP named again, which HEIC needs), then the kept tags
 // are copied back from the file itself (-tagsFromFile @).
-const ARGS = ['-all=', '-exif:all=', '-xmp:all=', '-tagsFromFile', '@', '-ICC_Profile', ...KEEP.map((t) => `-exif:${t}`), '-overwrite_original'];
+const ARGS = [
+  '-all=',
+  '-exif:all=',
+  '-xmp:all=',
+  '-tagsFromFile',
+  '@',
+  '-ICC_Profile',
+  ...KEEP.map((t) => `-exif:${t}`),
+  '-overwrite_original',
+];
 
 const EXTENSION: Record<string, string> = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp', 'image/heic': 'heic' };
 
@@ -44,7 +64,8 @@ export async function identifyingMetadata(bytes: Buffer): Promise<string[]> {
     const exif = exifReader(m.exif) as unknown as Record<string, Record<string, unknown> | undefined>;
     if (exif.GPSInfo && Object.keys(exif.GPSInfo).length > 0) found.push('GPS');
     for (const [group, tags] of Object.entries(exif)) {
-      if (tags && typeof tags === 'object') for (const tag of Object.keys(tags)) if (/serial|owner|makernote|uniqueid|artist/i.test(tag)) found.push(`${group}.${tag}`);
+      if (tags && typeof tags === 'object')
+        for (const tag of Object.keys(tags)) if (/serial|owner|makernote|uniqueid|artist/i.test(tag)) found.push(`${group}.${tag}`);
     }
   }
   return found;

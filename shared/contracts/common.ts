@@ -6,7 +6,14 @@ import type { StripStatus } from '../domain/progress';
 import { EQUIPMENT_STATUSES } from '../schemas/equipment';
 import { FAULT_KINDS, FAULT_STATUSES } from '../schemas/faults';
 
-export const STRIP_STATUSES = ['not-started', 'in-progress', 'clear', 'fault-open', 'withdrawn', 'out-of-service'] as const satisfies readonly StripStatus[];
+export const STRIP_STATUSES = [
+  'not-started',
+  'in-progress',
+  'clear',
+  'fault-open',
+  'withdrawn',
+  'out-of-service',
+] as const satisfies readonly StripStatus[];
 export const stripStatus = z.enum(STRIP_STATUSES);
 export const VENUE_STATUSES = ['planning', 'testing', 'signed-off'] as const;
 export const venueStatus = z.enum(VENUE_STATUSES);

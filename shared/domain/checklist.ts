@@ -65,7 +65,7 @@ export function stepInstruction(testKind: TestKind, conductors: string): string 
     case 'piste-end-to-end':
       return 'Piste end to end: one probe on the metal at each end of the piste.';
     case 'piste-earth':
-      return "Piste earthing: one probe on the piste at its centre, the other on the apparatus earth (line C).";
+      return 'Piste earthing: one probe on the piste at its centre, the other on the apparatus earth (line C).';
   }
 }
 

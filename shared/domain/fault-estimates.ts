@@ -43,7 +43,8 @@ export interface SavedCombination {
   itemLengthM: number | null;
 }
 
-const methodTitle = (method: string) => (METHOD_DEFINITIONS as Record<string, MethodDefinition | undefined>)[method]?.title.toLowerCase() ?? method;
+const methodTitle = (method: string) =>
+  (METHOD_DEFINITIONS as Record<string, MethodDefinition | undefined>)[method]?.title.toLowerCase() ?? method;
 
 function readingText(quantity: InputQuantity, value: number, units: LengthSystem): string {
   switch (quantity) {
@@ -68,7 +69,8 @@ function readingsOf(e: SavedEstimate, units: LengthSystem): Map<string, string> 
   const readings = def.inputs.filter((i) => i.reading && typeof e.inputs[i.name] === 'number');
   if (def.oneReading) {
     const [a, b] = readings.map((i) => e.inputs[i.name] as number);
-    if (a !== undefined && b !== undefined) out.set(`${def.method}:${roundSignificant(a / b, 12)}`, `the balance at ${roundSignificant(a, 4)} : ${roundSignificant(b, 4)}`);
+    if (a !== undefined && b !== undefined)
+      out.set(`${def.method}:${roundSignificant(a / b, 12)}`, `the balance at ${roundSignificant(a, 4)} : ${roundSignificant(b, 4)}`);
     return out;
   }
   for (const input of readings) {
@@ -92,11 +94,20 @@ export function combineSavedEstimates(estimates: SavedEstimate[], units: LengthS
   const candidates: number[] = [];
   estimates.forEach((e, index) => {
     if (e.itemLengthM !== itemLengthM) {
-      const then = e.itemLengthM === null ? 'when its length was not recorded' : `when the item was ${formatLength(e.itemLengthM, units)} long`;
+      const then =
+        e.itemLengthM === null ? 'when its length was not recorded' : `when the item was ${formatLength(e.itemLengthM, units)} long`;
       const now = itemLengthM === null ? 'a length not recorded' : formatLength(itemLengthM, units);
-      apart.push({ index, kind: 'other-length', reason: `Worked out ${then}, not the ${now} of the latest estimate: not measured on the same cable.` });
+      apart.push({
+        index,
+        kind: 'other-length',
+        reason: `Worked out ${then}, not the ${now} of the latest estimate: not measured on the same cable.`,
+      });
     } else if (e.distanceFromNearM === null) {
-      apart.push({ index, kind: 'not-placed', reason: 'Measured from the far end and the item’s length was not recorded, so it cannot be placed from the apparatus end.' });
+      apart.push({
+        index,
+        kind: 'not-placed',
+        reason: 'Measured from the far end and the item’s length was not recorded, so it cannot be placed from the apparatus end.',
+      });
     } else if (!(e.uncertaintyM > 0) || !Number.isFinite(e.uncertaintyM)) {
       apart.push({ index, kind: 'no-band', reason: 'It has no uncertainty band, so it cannot be weighed with the others.' });
     } else {

@@ -180,7 +180,13 @@ function checkInsideCable(
 }
 
 /** With no length to check against, a result beyond any cable these methods are meant for is refused. */
-function checkPlausible(distanceM: number, lengthM: number | undefined, field: string, options: LocateOptions | undefined, f: LengthWords): void {
+function checkPlausible(
+  distanceM: number,
+  lengthM: number | undefined,
+  field: string,
+  options: LocateOptions | undefined,
+  f: LengthWords,
+): void {
   const maxM = options?.maxCableLengthM ?? DEFAULT_MAX_CABLE_LENGTH_M;
   if (lengthM === undefined && distanceM > maxM) {
     throw new FaultLocationError(
@@ -242,7 +248,10 @@ export function tdrResolutionM(riseTimeNs: number, velocityFactor = 1): number {
 function requireVelocityFactor(field: string, value: unknown): number {
   const vf = requirePositive(field, value, 'a velocity factor');
   if (vf > 1) {
-    throw new FaultLocationError(field, `A velocity factor of ${num(vf)} is impossible: nothing travels faster than light in vacuum (VF ≤ 1).`);
+    throw new FaultLocationError(
+      field,
+      `A velocity factor of ${num(vf)} is impossible: nothing travels faster than light in vacuum (VF ≤ 1).`,
+    );
   }
   if (vf < MIN_VELOCITY_FACTOR) {
     throw new FaultLocationError(
@@ -272,15 +281,17 @@ export function locateByTdr(input: TdrInput, units: LengthSystem = 'metric', opt
   const f = lengthWords(units);
   const roundTripNs = requirePositive('roundTripNs', input.roundTripNs, 'a round-trip time in ns');
   const vf = requireVelocityFactor('velocityFactor', input.velocityFactor);
-  const riseTimeNs =
-    input.riseTimeNs === undefined ? undefined : requireNonNegative('riseTimeNs', input.riseTimeNs, 'a rise time in ns');
+  const riseTimeNs = input.riseTimeNs === undefined ? undefined : requireNonNegative('riseTimeNs', input.riseTimeNs, 'a rise time in ns');
   const lengthM = input.lengthM === undefined ? undefined : requirePositive('lengthM', input.lengthM, 'a length in m');
   const vfUncertainty =
     input.velocityFactorUncertainty === undefined
       ? DEFAULT_VELOCITY_FACTOR_REL_UNCERTAINTY * vf
       : requireNonNegative('velocityFactorUncertainty', input.velocityFactorUncertainty, 'a velocity-factor uncertainty');
   if (vfUncertainty >= vf) {
-    throw new FaultLocationError('velocityFactorUncertainty', 'The velocity-factor uncertainty must be smaller than the velocity factor itself.');
+    throw new FaultLocationError(
+      'velocityFactorUncertainty',
+      'The velocity-factor uncertainty must be smaller than the velocity factor itself.',
+    );
   }
 
   const distanceM = (vf * SPEED_OF_LIGHT_M_PER_S * roundTripNs * 1e-9) / 2;
@@ -343,8 +354,7 @@ export function calibrateVelocityFactor(
   const f = lengthWords(units);
   const roundTripNs = requirePositive('roundTripNs', input.roundTripNs, 'a round-trip time in ns');
   const lengthM = requirePositive('lengthM', input.lengthM, 'a length in m');
-  const riseTimeNs =
-    input.riseTimeNs === undefined ? undefined : requireNonNegative('riseTimeNs', input.riseTimeNs, 'a rise time in ns');
+  const riseTimeNs = input.riseTimeNs === undefined ? undefined : requireNonNegative('riseTimeNs', input.riseTimeNs, 'a rise time in ns');
   const vf = (2 * lengthM) / (SPEED_OF_LIGHT_M_PER_S * roundTripNs * 1e-9);
   // The 1e-9 slack only absorbs floating-point rounding at exactly VF = 1 or 0.3.
   if (vf > 1 + 1e-9) {
@@ -702,7 +712,10 @@ export function recordFlexTest(
       ? DEFAULT_FLEX_TEST_UNCERTAINTY_M
       : requirePositive('uncertaintyM', input.uncertaintyM, 'an uncertainty in m');
   if (lengthM !== undefined && distanceM > lengthM) {
-    throw new FaultLocationError('distanceM', `${f.m(distanceM)} is beyond the end of this ${f.m(lengthM)} cable; measure from the named end again.`);
+    throw new FaultLocationError(
+      'distanceM',
+      `${f.m(distanceM)} is beyond the end of this ${f.m(lengthM)} cable; measure from the named end again.`,
+    );
   }
   checkPlausible(distanceM, lengthM, 'distanceM', options, f);
   return withLength(
@@ -770,9 +783,7 @@ export function combineEstimates(estimates: FaultEstimate[], units: LengthSystem
   } else if (agree) {
     explanation = `The ${estimates.length} estimates agree (${estimates.map(describe).join('; ')}). Together: about ${m(distanceM)} ${pm(uncertaintyM)} from the named end.`;
   } else {
-    const pairs = disagreements
-      .map(([i, j]) => `${describe(estimates[i]!)} and ${describe(estimates[j]!)}`)
-      .join('; ');
+    const pairs = disagreements.map(([i, j]) => `${describe(estimates[i]!)} and ${describe(estimates[j]!)}`).join('; ');
     explanation =
       `The estimates disagree: ${pairs} do not overlap. The weighted middle is about ${m(distanceM)}, with the band widened to ${pm(uncertaintyM)} for the scatter. ` +
       `Re-check the readings (same end, same pair, velocity factor, ${ohmPerWords}), or flex-test the cable between the estimates.`;
@@ -826,14 +837,20 @@ export function ohmPerMetreFromConductorSize(input: {
   if (input.mm2 !== undefined) {
     const row = IEC_60228_OHM_PER_KM.find((r) => Math.abs(r.mm2 - input.mm2!) < 1e-9);
     if (!row) {
-      throw new FaultLocationError('mm2', `No IEC 60228 value here for ${input.mm2} mm²; sizes known: ${IEC_60228_OHM_PER_KM.map((r) => r.mm2).join(', ')} mm².`);
+      throw new FaultLocationError(
+        'mm2',
+        `No IEC 60228 value here for ${input.mm2} mm²; sizes known: ${IEC_60228_OHM_PER_KM.map((r) => r.mm2).join(', ')} mm².`,
+      );
     }
     return row[input.construction ?? 'class-5-6-plain'] / 1000;
   }
   if (input.awg !== undefined) {
     const ohmPer1000Ft = AWG_OHM_PER_1000FT[input.awg as keyof typeof AWG_OHM_PER_1000FT];
     if (ohmPer1000Ft === undefined) {
-      throw new FaultLocationError('awg', `No value here for AWG ${input.awg}; gauges known: ${Object.keys(AWG_OHM_PER_1000FT).join(', ')}.`);
+      throw new FaultLocationError(
+        'awg',
+        `No value here for AWG ${input.awg}; gauges known: ${Object.keys(AWG_OHM_PER_1000FT).join(', ')}.`,
+      );
     }
     return ohmPer1000Ft / (1000 * 0.3048);
   }
@@ -844,7 +861,11 @@ export function ohmPerMetreFromConductorSize(input: {
 // HTTP request → estimate
 
 /** The engine behind POST /api/fault-location; `units` words the explanation for the reader. */
-export function runFaultLocation(request: FaultLocationRequest, units: LengthSystem = 'metric', options?: LocateOptions): FaultLocationAnswer {
+export function runFaultLocation(
+  request: FaultLocationRequest,
+  units: LengthSystem = 'metric',
+  options?: LocateOptions,
+): FaultLocationAnswer {
   switch (request.method) {
     case 'tdr':
       return answer(locateByTdr(request, units, options));

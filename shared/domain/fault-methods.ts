@@ -224,7 +224,8 @@ export const METHOD_DEFINITIONS = {
   tdr: {
     method: 'tdr',
     title: 'TDR (pulse echo)',
-    suits: 'Opens and low-resistance shorts: a pulse sent down the pair comes back from the fault, upwards from an open, downwards from a short.',
+    suits:
+      'Opens and low-resistance shorts: a pulse sent down the pair comes back from the fault, upwards from an open, downwards from a short.',
     help: 'Read the time from the incident edge to the reflection on the TDR or the scope.',
     nearEnd: 'instrument end (near end)',
     inputs: [
@@ -384,15 +385,22 @@ export function methodsForFault(kind: FaultKind, conductors: string): SuggestedM
     return [
       {
         method: 'flex',
-        reason: 'A piste is one conductor with no sound partner to loop or bridge with: measure it section by section and record where the reading changes.',
+        reason:
+          'A piste is one conductor with no sound partner to loop or bridge with: measure it section by section and record where the reading changes.',
       },
     ];
   }
   switch (situation) {
     case 'short':
       return [
-        { method: 'loop-both-ends', reason: 'A short between two conductors with both ends within reach: the short’s own resistance drops out of the distance.' },
-        { method: 'loop-one-end', reason: 'Needs a dead short: any resistance left in the short is counted as cable and puts the fault further away.' },
+        {
+          method: 'loop-both-ends',
+          reason: 'A short between two conductors with both ends within reach: the short’s own resistance drops out of the distance.',
+        },
+        {
+          method: 'loop-one-end',
+          reason: 'Needs a dead short: any resistance left in the short is counted as cable and puts the fault further away.',
+        },
         { method: 'tdr', reason: 'A low-resistance short reflects a pulse downwards; needs a TDR, or a pulse generator and a scope.' },
         flexShort,
       ];
@@ -403,7 +411,10 @@ export function methodsForFault(kind: FaultKind, conductors: string): SuggestedM
         : 'A line faulted to earth with a sound line to loop it with: at balance the fault’s own resistance does not enter the distance.';
       return [
         { method: 'murray', reason: murrayReason },
-        { method: 'loop-both-ends', reason: 'The fault to C is still a short between two conductors: from both ends its own resistance drops out.' },
+        {
+          method: 'loop-both-ends',
+          reason: 'The fault to C is still a short between two conductors: from both ends its own resistance drops out.',
+        },
         { method: 'loop-one-end', reason: 'Only for a dead short to C: resistance left in the fault is counted as cable.' },
         { method: 'tdr', reason: 'A low-resistance fault to C reflects a pulse downwards; a high-resistance one may not show.' },
         flexShort,
@@ -411,7 +422,11 @@ export function methodsForFault(kind: FaultKind, conductors: string): SuggestedM
     }
     case 'open':
       return [
-        { method: 'capacitance', reason: 'A broken line keeps capacitance only over the part still joined, in proportion to its length; needs a sound line of the same cable to compare.' },
+        {
+          method: 'capacitance',
+          reason:
+            'A broken line keeps capacitance only over the part still joined, in proportion to its length; needs a sound line of the same cable to compare.',
+        },
         { method: 'tdr', reason: 'An open reflects a pulse upwards at the break; needs a TDR, or a pulse generator and a scope.' },
         { method: 'flex', reason: 'A break that opens and closes as the cable moves is found by hand.' },
       ];
@@ -419,11 +434,13 @@ export function methodsForFault(kind: FaultKind, conductors: string): SuggestedM
       return [
         {
           method: 'flex',
-          reason: 'The line still conducts, so no loop, bridge or capacitance method applies; flex it, plugs first, and the reading changes at the corroded or cracked spot.',
+          reason:
+            'The line still conducts, so no loop, bridge or capacitance method applies; flex it, plugs first, and the reading changes at the corroded or cracked spot.',
         },
         {
           method: 'tdr',
-          reason: 'A few ohms in series reflect a pulse only weakly upwards (ρ = R / (R + 2Z₀)), so it shows only with a sharp edge and a steady trace.',
+          reason:
+            'A few ohms in series reflect a pulse only weakly upwards (ρ = R / (R + 2Z₀)), so it shows only with a sharp edge and a steady trace.',
         },
       ];
     case 'intermittent':

@@ -365,11 +365,7 @@ function evaluateMaximum(rule: LimitRule, input: ReadingToEvaluate, conductors: 
   return verdictOut;
 }
 
-function maximumFor(
-  rule: LimitRule,
-  lengthM: number | null,
-  kind: EquipmentKind,
-): { limitOhm: number; limitNote: string } {
+function maximumFor(rule: LimitRule, lengthM: number | null, kind: EquipmentKind): { limitOhm: number; limitNote: string } {
   if (rule.maxOhmPerMetre === undefined) {
     if (rule.maxOhm === undefined) {
       throw new ReadingInputError('profile', `Rule ${rule.id} has no maximum; fix the limit profile.`);

@@ -92,11 +92,7 @@ const UNIT_SUFFIXES: Array<{ suffix: string; kind: UnitKind; anyCase: boolean }>
 
 const NUMBER_PATTERN = /^([+-]?)(\d+(?:[.,]\d*)?|[.,]\d+)(?:[eE]([+-]?\d+))?\s*(.*)$/s;
 
-export function parseReading(
-  text: string,
-  quantity: Quantity = 'resistance',
-  opts?: { leadOffsetOhm?: number },
-): ParsedReading {
+export function parseReading(text: string, quantity: Quantity = 'resistance', opts?: { leadOffsetOhm?: number }): ParsedReading {
   const leadOffsetOhm = opts?.leadOffsetOhm ?? 0;
   if (quantity === 'resistance' || opts?.leadOffsetOhm !== undefined) {
     if (!Number.isFinite(leadOffsetOhm) || leadOffsetOhm < 0 || leadOffsetOhm > LEAD_NULL_MAX_OHM) {
@@ -128,7 +124,8 @@ export function parseReading(
   if (!unit.ok) return unit;
 
   // A point before a unit prefix is kept: "1.000k" is how a meter on its kΩ range shows 1 kΩ.
-  const ambiguous = exponentText === undefined && !(unit.prefix !== '' && mantissaText.includes('.')) ? thousandsReadings(mantissaText) : null;
+  const ambiguous =
+    exponentText === undefined && !(unit.prefix !== '' && mantissaText.includes('.')) ? thousandsReadings(mantissaText) : null;
   if (ambiguous) {
     const u = `${unit.prefix}${UNIT_SYMBOL[quantity]}`;
     const typed = (digits: string) => `${sign}${digits}${unit.prefix}`;
@@ -145,7 +142,9 @@ export function parseReading(
     return fail(`“${trimmed}” is too large to be a reading (the exponent overflows); ${EXAMPLES[quantity]}.`);
   }
   if (underflows(mantissaText, magnitude)) {
-    return fail(`“${trimmed}” is too small to be a reading (the exponent underflows, so it would read as 0); check the exponent. ${EXAMPLES[quantity]}.`);
+    return fail(
+      `“${trimmed}” is too small to be a reading (the exponent underflows, so it would read as 0); check the exponent. ${EXAMPLES[quantity]}.`,
+    );
   }
   const value = sign === '-' ? -magnitude : magnitude;
   const symbol = UNIT_SYMBOL[quantity];
@@ -195,9 +194,7 @@ function splitUnit(
   let prefix = unitText;
   let kind: UnitKind | null = null;
   for (const candidate of UNIT_SUFFIXES) {
-    const ends = candidate.anyCase
-      ? unitText.toLowerCase().endsWith(candidate.suffix.toLowerCase())
-      : unitText.endsWith(candidate.suffix);
+    const ends = candidate.anyCase ? unitText.toLowerCase().endsWith(candidate.suffix.toLowerCase()) : unitText.endsWith(candidate.suffix);
     if (ends) {
       prefix = unitText.slice(0, unitText.length - candidate.suffix.length).trim();
       kind = candidate.kind;

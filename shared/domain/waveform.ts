@@ -88,10 +88,14 @@ export function parseTraceCsv(text: string, opts?: { maxSamples?: number }): Par
     }
 
     if (row.columns > MAX_COLUMNS) {
-      throw new WaveformError(`Line ${lineNo} has ${row.columns} columns; a trace has two (time, volts), at most ${MAX_COLUMNS} columns are accepted.`);
+      throw new WaveformError(
+        `Line ${lineNo} has ${row.columns} columns; a trace has two (time, volts), at most ${MAX_COLUMNS} columns are accepted.`,
+      );
     }
     if (n >= maxSamples) {
-      throw new WaveformError(`The trace has more than ${maxSamples.toLocaleString('en')} samples; export a shorter window or fewer points.`);
+      throw new WaveformError(
+        `The trace has more than ${maxSamples.toLocaleString('en')} samples; export a shorter window or fewer points.`,
+      );
     }
     if (n > 0 && !(row.time > timeS[n - 1]!)) {
       throw new WaveformError(
@@ -181,7 +185,7 @@ function parseRow(
   if (Number.isNaN(v)) return false;
   let columns = 2;
   // Count further columns (a trailing delimiter leaves an empty one, which does not count).
-  for (let i = i2; i < end; ) {
+  for (let i = i2; i < end;) {
     const next = indexWithin(text, delimiter, i + 1, end);
     const stop = next === -1 ? end : next;
     if (!isBlank(text, i + 1, stop)) columns++;
@@ -194,7 +198,9 @@ function parseRow(
   return true;
 }
 
-const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+const POW10 = [
+  1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
+];
 
 /**
  * A number read straight from the characters, without making a string per field. Exact where it
@@ -383,7 +389,11 @@ export function analyseWaveform(trace: Trace, opts?: WaveformOptions): WaveformA
       incident: incidentMarker,
       reflection: null,
       baseline,
-      levels: { baselineV: baselineAt(baseline, incidentCross), incidentV: baselineAt(baseline, incidentCross) + incidentStepV, reflectedV: null },
+      levels: {
+        baselineV: baselineAt(baseline, incidentCross),
+        incidentV: baselineAt(baseline, incidentCross) + incidentStepV,
+        reflectedV: null,
+      },
     },
     roundTripNs: null,
     polarity: null,
@@ -822,7 +832,6 @@ function fitBaseline(timeS: Float64Array, volts: Float64Array, count: number): {
 function baselineAt(baseline: { interceptV: number; slopeVPerS: number }, timeS: number): number {
   return baseline.interceptV + baseline.slopeVPerS * timeS;
 }
-
 
 function interpolate(timeS: Float64Array, volts: Float64Array, t: number): number {
   const i = indexAtOrBefore(timeS, t);

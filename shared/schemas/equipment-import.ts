@@ -42,7 +42,12 @@ export const IMPORT_FIELD_LABELS: Record<ImportField, string> = {
 /** Field → column index (0-based) or null for "not imported". */
 export const importMappingSchema = z.partialRecord(
   z.enum(IMPORT_FIELDS),
-  z.number().int().min(0).max(IMPORT_LIMITS.maxColumns - 1).nullable(),
+  z
+    .number()
+    .int()
+    .min(0)
+    .max(IMPORT_LIMITS.maxColumns - 1)
+    .nullable(),
 );
 export type ImportMapping = z.infer<typeof importMappingSchema>;
 
@@ -100,7 +105,13 @@ export const importPreviewSchema = z.strictObject({
   suggestedMapping: importMappingSchema,
   mode: z.enum(IMPORT_MODES),
   rows: z.array(importRowResultSchema),
-  summary: z.strictObject({ create: z.number().int(), update: z.number().int(), unchanged: z.number().int(), skip: z.number().int(), error: z.number().int() }),
+  summary: z.strictObject({
+    create: z.number().int(),
+    update: z.number().int(),
+    unchanged: z.number().int(),
+    skip: z.number().int(),
+    error: z.number().int(),
+  }),
 });
 export type ImportPreview = z.infer<typeof importPreviewSchema>;
 

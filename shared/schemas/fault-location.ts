@@ -50,32 +50,39 @@ export const tdrRequestSchema = z.strictObject({ method: z.literal('tdr'), ...sh
 
 export const vfCalibrationRequestSchema = z.strictObject({ method: z.literal('vf-calibration'), ...shapeOf(VF_CALIBRATION_INPUTS) });
 
-export const loopOneEndRequestSchema = z.strictObject({ method: z.literal('loop-one-end'), ...shapeOf(METHOD_DEFINITIONS['loop-one-end'].inputs) }).superRefine((body, ctx) => {
-  if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
-    ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
-  } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
-    ctx.addIssue({
-      code: 'custom',
-      path: ['ohmPerMetre'],
-      message: 'Give ohmPerMetre, or conductorOhm (a sound conductor end to end) with lengthM',
-    });
-  } else if (body.conductorOhm !== undefined && body.lengthM === undefined) {
-    ctx.addIssue({ code: 'custom', path: ['lengthM'], message: 'lengthM is required with conductorOhm' });
-  }
-});
+export const loopOneEndRequestSchema = z
+  .strictObject({ method: z.literal('loop-one-end'), ...shapeOf(METHOD_DEFINITIONS['loop-one-end'].inputs) })
+  .superRefine((body, ctx) => {
+    if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
+      ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
+    } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
+      ctx.addIssue({
+        code: 'custom',
+        path: ['ohmPerMetre'],
+        message: 'Give ohmPerMetre, or conductorOhm (a sound conductor end to end) with lengthM',
+      });
+    } else if (body.conductorOhm !== undefined && body.lengthM === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['lengthM'], message: 'lengthM is required with conductorOhm' });
+    }
+  });
 
-export const loopBothEndsRequestSchema = z.strictObject({ method: z.literal('loop-both-ends'), ...shapeOf(METHOD_DEFINITIONS['loop-both-ends'].inputs) }).superRefine((body, ctx) => {
-  if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
-    ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
-  } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
-    ctx.addIssue({ code: 'custom', path: ['ohmPerMetre'], message: 'Give ohmPerMetre or conductorOhm (a sound conductor end to end)' });
-  }
-});
+export const loopBothEndsRequestSchema = z
+  .strictObject({ method: z.literal('loop-both-ends'), ...shapeOf(METHOD_DEFINITIONS['loop-both-ends'].inputs) })
+  .superRefine((body, ctx) => {
+    if (body.ohmPerMetre !== undefined && body.conductorOhm !== undefined) {
+      ctx.addIssue({ code: 'custom', path: ['conductorOhm'], message: 'Give ohmPerMetre or conductorOhm, not both' });
+    } else if (body.ohmPerMetre === undefined && body.conductorOhm === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['ohmPerMetre'], message: 'Give ohmPerMetre or conductorOhm (a sound conductor end to end)' });
+    }
+  });
 
 /** The arm joined to the faulted line and the arm joined to the sound line: named so the wiring cannot be misread. */
 export const murrayRequestSchema = z.strictObject({ method: z.literal('murray'), ...shapeOf(METHOD_DEFINITIONS.murray.inputs) });
 
-export const capacitanceRequestSchema = z.strictObject({ method: z.literal('capacitance'), ...shapeOf(METHOD_DEFINITIONS.capacitance.inputs) });
+export const capacitanceRequestSchema = z.strictObject({
+  method: z.literal('capacitance'),
+  ...shapeOf(METHOD_DEFINITIONS.capacitance.inputs),
+});
 
 export const flexRequestSchema = z.strictObject({ method: z.literal('flex'), ...shapeOf(METHOD_DEFINITIONS.flex.inputs) });
 

@@ -48,7 +48,8 @@ export const updateFaultSchema = z
     kind: faultKind.optional(),
     status: z
       .enum(EDITABLE_STATUSES, {
-        error: 'status can be set to open or located; a fault is repaired by recording a repair, and closes when its retest passes or the technical director dismisses it',
+        error:
+          'status can be set to open or located; a fault is repaired by recording a repair, and closes when its retest passes or the technical director dismisses it',
       })
       .optional(),
   })
@@ -60,19 +61,30 @@ export const fromEndSchema = z.enum(['near', 'far'], { error: 'fromEnd must be n
 export const createRepairSchema = z
   .strictObject({
     action: z.enum(REPAIR_ACTIONS, { error: `action must be one of: ${REPAIR_ACTIONS.join(', ')}` }),
-    lengthRemovedM: z.number({ error: 'lengthRemovedM must be a number of metres' }).positive({ error: 'lengthRemovedM must be more than 0 m' }).optional(),
+    lengthRemovedM: z
+      .number({ error: 'lengthRemovedM must be a number of metres' })
+      .positive({ error: 'lengthRemovedM must be more than 0 m' })
+      .optional(),
     replacementAssetTag: z.string().trim().min(1, { error: 'replacementAssetTag is required for a swap' }).max(60).optional(),
     notes: notes.optional(),
   })
   .superRefine((body, ctx) => {
     if (body.action === 'cut-out' && body.lengthRemovedM === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['lengthRemovedM'], message: 'lengthRemovedM is required for a cut-out: how much cable was cut away' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['lengthRemovedM'],
+        message: 'lengthRemovedM is required for a cut-out: how much cable was cut away',
+      });
     }
     if (body.action !== 'cut-out' && body.lengthRemovedM !== undefined) {
       ctx.addIssue({ code: 'custom', path: ['lengthRemovedM'], message: 'lengthRemovedM only goes with a cut-out' });
     }
     if (body.action === 'swapped' && body.replacementAssetTag === undefined) {
-      ctx.addIssue({ code: 'custom', path: ['replacementAssetTag'], message: 'replacementAssetTag is required for a swap: the asset tag of the item put in' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['replacementAssetTag'],
+        message: 'replacementAssetTag is required for a swap: the asset tag of the item put in',
+      });
     }
     if (body.action !== 'swapped' && body.replacementAssetTag !== undefined) {
       ctx.addIssue({ code: 'custom', path: ['replacementAssetTag'], message: 'replacementAssetTag only goes with a swap' });

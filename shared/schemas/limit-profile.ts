@@ -2,7 +2,11 @@ import { z } from 'zod';
 import { EQUIPMENT_KINDS, TEMPERATURE_RANGE_C, TEST_KINDS } from '../domain/limits';
 import { typedName } from './common';
 
-const profileName = typedName({ required: 'A limit profile needs a name', max: 120, tooLong: 'Keep the profile name under 120 characters' });
+const profileName = typedName({
+  required: 'A limit profile needs a name',
+  max: 120,
+  tooLong: 'Keep the profile name under 120 characters',
+});
 
 const ohm = (field: string) =>
   z
@@ -25,7 +29,11 @@ export const limitRuleSchema = z
       .optional(),
     nearMinOhm: ohm('nearMinOhm').optional(),
     // The source is printed beside each verdict and on the certificate: cleaned like a name.
-    source: typedName({ required: 'Every rule needs a source: a rule article, a handbook, or "House rule"', max: 300, tooLong: 'Keep the source under 300 characters' }),
+    source: typedName({
+      required: 'Every rule needs a source: a rule article, a handbook, or "House rule"',
+      max: 300,
+      tooLong: 'Keep the source under 300 characters',
+    }),
     houseRule: z.boolean(),
     note: z.string().max(1000).optional(),
   })
@@ -33,7 +41,11 @@ export const limitRuleSchema = z
     const hasMax = rule.maxOhm !== undefined || rule.maxOhmPerMetre !== undefined;
     const hasMin = rule.minOhm !== undefined;
     if (!hasMax && !hasMin) {
-      ctx.addIssue({ code: 'custom', path: ['maxOhm'], message: 'A rule needs a maximum (maxOhm or maxOhmPerMetre) or a minimum (minOhm)' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['maxOhm'],
+        message: 'A rule needs a maximum (maxOhm or maxOhmPerMetre) or a minimum (minOhm)',
+      });
     }
     if (hasMax && hasMin) {
       ctx.addIssue({ code: 'custom', path: ['minOhm'], message: 'A rule is either a maximum or a minimum; split it into two rules' });

@@ -29,7 +29,10 @@ export const timeZoneField = z
   .transform((v, ctx) => {
     const zone = canonicalTimeZone(v);
     if (zone) return zone;
-    ctx.addIssue({ code: 'custom', message: `${v.slice(0, 64)} is not a time zone this server knows; give an IANA name like Europe/Paris.` });
+    ctx.addIssue({
+      code: 'custom',
+      message: `${v.slice(0, 64)} is not a time zone this server knows; give an IANA name like Europe/Paris.`,
+    });
     return z.NEVER;
   });
 
@@ -46,11 +49,19 @@ export const createVenueSchema = z.strictObject({
 });
 export type CreateVenueInput = z.input<typeof createVenueSchema>;
 
-const technicianIds = z.array(idField).max(100).refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' });
+const technicianIds = z
+  .array(idField)
+  .max(100)
+  .refine((ids) => new Set(ids).size === ids.length, { message: 'A person is listed twice.' });
 
 /** The venue's details; with technicianIds also who tests it, so the venue form saves once. */
 export const updateVenueSchema = z
-  .strictObject({ name: nameField.optional(), profileId: idField.optional(), timeZone: timeZoneField.optional(), technicianIds: technicianIds.optional() })
+  .strictObject({
+    name: nameField.optional(),
+    profileId: idField.optional(),
+    timeZone: timeZoneField.optional(),
+    technicianIds: technicianIds.optional(),
+  })
   .refine((v) => v.name !== undefined || v.profileId !== undefined || v.timeZone !== undefined || v.technicianIds !== undefined, {
     message: 'Nothing to change: give name, profileId, timeZone or technicianIds.',
   });
@@ -71,7 +82,12 @@ const zoneName = z.string().overwrite(cleanTypedName).normalize('NFC').trim().ma
 
 export const bulkStripsSchema = z
   .strictObject({
-    count: z.number().int('count must be a whole number.').min(1, 'Add at least 1 strip.').max(200, 'Add at most 200 strips at once.').optional(),
+    count: z
+      .number()
+      .int('count must be a whole number.')
+      .min(1, 'Add at least 1 strip.')
+      .max(200, 'Add at most 200 strips at once.')
+      .optional(),
     labels: z.array(stripLabel).min(1, 'Give at least one label.').max(200, 'Add at most 200 strips at once.').optional(),
     prefix: z.string().overwrite(cleanTypedName).normalize('NFC').max(30, 'Keep the prefix under 30 characters.').optional(),
     startAt: z.number().int().min(0).max(9999).optional(),
@@ -139,7 +155,11 @@ export type UpdateStripInput = z.input<typeof updateStripSchema>;
 export type UpdateStripValues = z.output<typeof updateStripSchema>;
 
 export const withdrawStripSchema = z.strictObject({
-  reason: z.string({ error: 'Give a reason for withdrawing the strip.' }).trim().min(3, 'Give a reason for withdrawing the strip.').max(500),
+  reason: z
+    .string({ error: 'Give a reason for withdrawing the strip.' })
+    .trim()
+    .min(3, 'Give a reason for withdrawing the strip.')
+    .max(500),
 });
 
 export const attachEquipmentSchema = z.strictObject({ assetTag: assetTagField.nullable() });

@@ -30,7 +30,9 @@ export const createReadingSchema = z
     correctionReason: z
       .string({ error: 'correctionReason must be text' })
       .trim()
-      .min(CORRECTION_REASON_MIN, { error: `correctionReason needs at least ${CORRECTION_REASON_MIN} characters: say what was wrong, e.g. “typed 3.4 for 0.34”` })
+      .min(CORRECTION_REASON_MIN, {
+        error: `correctionReason needs at least ${CORRECTION_REASON_MIN} characters: say what was wrong, e.g. “typed 3.4 for 0.34”`,
+      })
       .max(500, { error: 'correctionReason must be under 500 characters' })
       .nullable()
       .optional(),
@@ -40,7 +42,8 @@ export const createReadingSchema = z
       ctx.addIssue({
         code: 'custom',
         path: ['leadOffsetOhm'],
-        message: 'leadOffsetOhm is no longer taken with a reading: record the test-lead null (POST /api/lead-nulls) and send its id as leadNullId',
+        message:
+          'leadOffsetOhm is no longer taken with a reading: record the test-lead null (POST /api/lead-nulls) and send its id as leadNullId',
       });
     }
     const hasSupersedes = body.supersedesId != null;
@@ -49,7 +52,11 @@ export const createReadingSchema = z
       ctx.addIssue({ code: 'custom', path: ['correctionReason'], message: 'A correction needs a reason (correctionReason)' });
     }
     if (hasReason && !hasSupersedes) {
-      ctx.addIssue({ code: 'custom', path: ['supersedesId'], message: 'correctionReason goes with supersedesId: the reading being corrected' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['supersedesId'],
+        message: 'correctionReason goes with supersedesId: the reading being corrected',
+      });
     }
   });
 export type CreateReadingInput = z.infer<typeof createReadingSchema>;

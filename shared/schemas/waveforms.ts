@@ -11,10 +11,12 @@ function optionalNumber(field: string, what: string) {
 }
 
 export const waveformQuerySchema = z.strictObject({
-  velocityFactor: optionalNumber('velocityFactor', 'the cable’s velocity factor, e.g. 0.66')
-    .refine((v) => v === undefined || (v >= 0.3 && v <= 1), {
+  velocityFactor: optionalNumber('velocityFactor', 'the cable’s velocity factor, e.g. 0.66').refine(
+    (v) => v === undefined || (v >= 0.3 && v <= 1),
+    {
       error: 'velocityFactor must be between 0.3 and 1 (e.g. 0.66 for PVC multi-core, 0.7 for PTFE coax)',
-    }),
+    },
+  ),
   lengthM: optionalNumber('lengthM', 'cable length in metres').refine((v) => v === undefined || v > 0, {
     error: 'lengthM must be greater than 0 (cable length in metres)',
   }),

@@ -8,7 +8,10 @@ import { ApiError } from './api-client';
  */
 export function showServerErrors<T extends FieldValues>(setError: UseFormSetError<T>, err: unknown, fallback: string) {
   if (err instanceof ApiError) for (const e of err.errors) setError(e.path as Path<T>, { message: e.message });
-  setError('root', { type: err instanceof ApiError ? String(err.status) : 'error', message: err instanceof Error ? err.message : fallback });
+  setError('root', {
+    type: err instanceof ApiError ? String(err.status) : 'error',
+    message: err instanceof Error ? err.message : fallback,
+  });
 }
 
 /** The submit handler of a "create" form: save, then clear the form; a refusal shows on its fields. */
@@ -33,6 +36,12 @@ export function saveThenReset<T extends FieldValues, V = T>(
  */
 export function messagesUnder(error: unknown): string[] {
   if (!error || typeof error !== 'object') return [];
-  const { message, ref: _ref, type: _type, types: _types, ...nested } = error as { message?: unknown; ref?: unknown; type?: unknown; types?: unknown };
+  const {
+    message,
+    ref: _ref,
+    type: _type,
+    types: _types,
+    ...nested
+  } = error as { message?: unknown; ref?: unknown; type?: unknown; types?: unknown };
   return [...(typeof message === 'string' ? [message] : []), ...Object.values(nested).flatMap(messagesUnder)];
 }

@@ -14,5 +14,7 @@ export function bodyResolver<TForm extends FieldValues, TBody extends FieldValue
 ): Resolver<TForm, unknown, TOut> {
   const check = zodResolver(schema);
   return (values, context, options) =>
-    check(toBody(values), context, options as unknown as Parameters<typeof check>[2]) as unknown as ReturnType<Resolver<TForm, unknown, TOut>>;
+    check(toBody(values), context, options as unknown as Parameters<typeof check>[2]) as unknown as ReturnType<
+      Resolver<TForm, unknown, TOut>
+    >;
 }

@@ -42,7 +42,11 @@ export interface UnitTexts {
   exact: Record<string, number>;
 }
 
-export function fromSiValues(values: Record<string, number>, dimensions: Record<string, Dimension | undefined>, system: LengthSystem): UnitTexts {
+export function fromSiValues(
+  values: Record<string, number>,
+  dimensions: Record<string, Dimension | undefined>,
+  system: LengthSystem,
+): UnitTexts {
   const out: UnitTexts = { texts: {}, exact: {} };
   for (const [name, si] of Object.entries(values)) {
     const dimension = dimensions[name];
@@ -74,7 +78,12 @@ export function siOf(state: UnitTexts, name: string, dimension: Dimension, syste
  * After a switch between metres and feet: every number typed is rewritten in the new unit (what
  * was typed keeps its length). A text that is not a number stays as it is, to be corrected.
  */
-export function switchUnits(state: UnitTexts, dimensions: Record<string, Dimension | undefined>, from: LengthSystem, to: LengthSystem): UnitTexts {
+export function switchUnits(
+  state: UnitTexts,
+  dimensions: Record<string, Dimension | undefined>,
+  from: LengthSystem,
+  to: LengthSystem,
+): UnitTexts {
   if (from === to) return state;
   const texts = { ...state.texts };
   const exact = { ...state.exact };

@@ -42,7 +42,9 @@ const openPlacements = (positionId: string) =>
 async function newItems(kind: string, tags: string[]) {
   const marco = await director();
   for (const assetTag of tags) {
-    const res = await marco.post('/api/equipment').send({ assetTag, kind, ...(kind === 'apparatus' ? {} : { lengthM: kind === 'reel' ? 20 : 12 }) });
+    const res = await marco
+      .post('/api/equipment')
+      .send({ assetTag, kind, ...(kind === 'apparatus' ? {} : { lengthM: kind === 'reel' ? 20 : 12 }) });
     expect(res.status).toBe(201);
   }
 }
@@ -79,7 +81,11 @@ describe('PUT /api/venues/:id/equipment', () => {
     // The placement history: one open placement per filled position, none for the emptied one.
     expect(openPlacements(floors[0].id)).toHaveLength(1);
     expect(openPlacements(apparatus.id)).toHaveLength(0);
-    const audit = t.db.select().from(s.auditLog).all().filter((a) => a.action.startsWith('position.equipment-') && a.entityId && body.positions.some((p) => p.positionId === a.entityId));
+    const audit = t.db
+      .select()
+      .from(s.auditLog)
+      .all()
+      .filter((a) => a.action.startsWith('position.equipment-') && a.entityId && body.positions.some((p) => p.positionId === a.entityId));
     expect(audit).toHaveLength(5);
   });
 
@@ -88,12 +94,17 @@ describe('PUT /api/venues/:id/equipment', () => {
     const st = strip(plan, 'Strip 21');
     const [left, right] = st.positions.filter((p) => p.equipmentKind === 'floor-cable');
     const [a, b] = [left.equipment!.assetTag, right.equipment!.assetTag];
-    const res = await (await director()).put(route(hallId)).set('If-Match', etag).send({
-      positions: [
-        { positionId: left.id, assetTag: b },
-        { positionId: right.id, assetTag: a },
-      ],
-    });
+    const res = await (
+      await director()
+    )
+      .put(route(hallId))
+      .set('If-Match', etag)
+      .send({
+        positions: [
+          { positionId: left.id, assetTag: b },
+          { positionId: right.id, assetTag: a },
+        ],
+      });
     expect(res.status).toBe(200);
     const after = strip(res.body as Plan, 'Strip 21');
     expect(after.positions.find((p) => p.id === left.id)!.equipment!.assetTag).toBe(b);
@@ -119,15 +130,22 @@ describe('PUT /api/venues/:id/equipment', () => {
     const st = strip(plan, 'Strip 22');
     const before = tagsOf(st);
     const [r1, r2] = st.positions.filter((p) => p.equipmentKind === 'reel');
-    const res = await (await director()).put(route(hallId)).set('If-Match', etag).send({
-      positions: [
-        { positionId: r1.id, assetTag: 'DUP-RL-1' },
-        { positionId: r2.id, assetTag: 'dup-rl-1' },
-      ],
-    });
+    const res = await (
+      await director()
+    )
+      .put(route(hallId))
+      .set('If-Match', etag)
+      .send({
+        positions: [
+          { positionId: r1.id, assetTag: 'DUP-RL-1' },
+          { positionId: r2.id, assetTag: 'dup-rl-1' },
+        ],
+      });
     expect(res.status).toBe(422);
     expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
-    expect(res.body.errors).toEqual([{ path: 'positions.1.assetTag', message: expect.stringContaining('DUP-RL-1 is given twice (rows 1 and 2)') }]);
+    expect(res.body.errors).toEqual([
+      { path: 'positions.1.assetTag', message: expect.stringContaining('DUP-RL-1 is given twice (rows 1 and 2)') },
+    ]);
     const now = await loadPlan();
     expect(now.plan.venue.version).toBe(plan.venue.version);
     expect(tagsOf(strip(now.plan, 'Strip 22'))).toEqual(before);
@@ -138,20 +156,26 @@ describe('PUT /api/venues/:id/equipment', () => {
     await newItems('floor-cable', ['OLD-FC-1']);
     const marco = await director();
     const old = t.db.select().from(s.equipment).where(eq(s.equipment.assetTag, 'OLD-FC-1')).get()!;
-    const retire = await marco.patch(`/api/equipment/${old.id}`).set('If-Match', (await marco.get(`/api/equipment/${old.id}`)).headers.etag).send({ status: 'retired' });
+    const retire = await marco
+      .patch(`/api/equipment/${old.id}`)
+      .set('If-Match', (await marco.get(`/api/equipment/${old.id}`)).headers.etag)
+      .send({ status: 'retired' });
     expect(retire.status).toBe(200);
     const { plan, etag } = await loadPlan();
     const st = strip(plan, 'Strip 23');
     const before = tagsOf(st);
     const [left, right] = st.positions.filter((p) => p.equipmentKind === 'floor-cable');
     const reel = st.positions.find((p) => p.equipmentKind === 'reel')!;
-    const res = await marco.put(route(hallId)).set('If-Match', etag).send({
-      positions: [
-        { positionId: left.id, assetTag: 'GOOD-FC-1' },
-        { positionId: right.id, assetTag: 'OLD-FC-1' },
-        { positionId: reel.id, assetTag: 'NO-SUCH-9' },
-      ],
-    });
+    const res = await marco
+      .put(route(hallId))
+      .set('If-Match', etag)
+      .send({
+        positions: [
+          { positionId: left.id, assetTag: 'GOOD-FC-1' },
+          { positionId: right.id, assetTag: 'OLD-FC-1' },
+          { positionId: reel.id, assetTag: 'NO-SUCH-9' },
+        ],
+      });
     expect(res.status).toBe(422);
     expect(res.body.detail).toMatch(/^Nothing was saved: 2 rows need a change/);
     expect(res.body.errors.map((e: { path: string }) => e.path)).toEqual(['positions.1.assetTag', 'positions.2.assetTag']);
@@ -170,10 +194,16 @@ describe('PUT /api/venues/:id/equipment', () => {
     const busy = strip(plan, 'Strip 1').positions.find((p) => p.equipmentKind === 'floor-cable')!.equipment!.assetTag;
     const target = strip(plan, 'Strip 24').positions.filter((p) => p.equipmentKind === 'floor-cable');
     const marco = await director();
-    const res = await marco.put(route(hallId)).set('If-Match', etag).send({ positions: [{ positionId: target[0].id, assetTag: busy }] });
+    const res = await marco
+      .put(route(hallId))
+      .set('If-Match', etag)
+      .send({ positions: [{ positionId: target[0].id, assetTag: busy }] });
     expect(res.status).toBe(409);
     expect(res.body.errors[0].message).toContain(`${busy} is already on Strip 1`);
-    const kind = await marco.put(route(hallId)).set('If-Match', etag).send({ positions: [{ positionId: target[0].id, assetTag: 'BT-RL-1' }] });
+    const kind = await marco
+      .put(route(hallId))
+      .set('If-Match', etag)
+      .send({ positions: [{ positionId: target[0].id, assetTag: 'BT-RL-1' }] });
     expect(kind.status).toBe(422);
     expect(kind.body.errors[0].message).toMatch(/BT-RL-1 is a reel, but this position takes a floor cable/);
     expect((await loadPlan()).plan.venue.version).toBe(plan.venue.version);
@@ -182,7 +212,12 @@ describe('PUT /api/venues/:id/equipment', () => {
   test('when a position of another venue is listed, then 422 and nothing changes', async () => {
     const annex = await loadPlan(annexId);
     const { plan, etag } = await loadPlan();
-    const res = await (await director()).put(route(hallId)).set('If-Match', etag).send({ positions: [{ positionId: annex.plan.strips[0].positions[0].id, assetTag: null }] });
+    const res = await (
+      await director()
+    )
+      .put(route(hallId))
+      .set('If-Match', etag)
+      .send({ positions: [{ positionId: annex.plan.strips[0].positions[0].id, assetTag: null }] });
     expect(res.status).toBe(422);
     expect(res.body.errors[0]).toEqual({ path: 'positions.0.positionId', message: 'Row 1 is not a position of this venue.' });
     expect((await loadPlan()).plan.venue.version).toBe(plan.venue.version);
@@ -193,7 +228,14 @@ describe('PUT /api/venues/:id/equipment', () => {
     const body = { positions: [{ positionId: strip(plan, 'Strip 19').positions[0].id, assetTag: null }] };
     const marco = await director();
     expect((await marco.put(route(hallId)).send(body)).status).toBe(428);
-    expect((await marco.put(route(hallId)).set('If-Match', `"${plan.venue.version - 1}"`).send(body)).status).toBe(412);
+    expect(
+      (
+        await marco
+          .put(route(hallId))
+          .set('If-Match', `"${plan.venue.version - 1}"`)
+          .send(body)
+      ).status,
+    ).toBe(412);
     expect(tagsOf(strip((await loadPlan()).plan, 'Strip 19'))).toEqual(tagsOf(strip(plan, 'Strip 19')));
     expect(etag).toBe(`"${plan.venue.version}"`);
   });
@@ -221,14 +263,22 @@ describe('PATCH /api/strips/:id with assetTags (the strip card saves once)', () 
     const st = strip(plan, 'Strip 17');
     const reel = st.positions.find((p) => p.equipmentKind === 'reel')!;
     const marco = await director();
-    const refused = await marco.patch(`/api/strips/${st.id}`).set('If-Match', etag).send({ label: 'Strip 17b', assetTags: [{ positionId: reel.id, assetTag: 'NOPE-1' }] });
+    const refused = await marco
+      .patch(`/api/strips/${st.id}`)
+      .set('If-Match', etag)
+      .send({ label: 'Strip 17b', assetTags: [{ positionId: reel.id, assetTag: 'NOPE-1' }] });
     expect(refused.status).toBe(422);
-    expect(refused.body.errors).toEqual([{ path: 'assetTags.0.assetTag', message: expect.stringContaining('no item with the asset tag NOPE-1') }]);
+    expect(refused.body.errors).toEqual([
+      { path: 'assetTags.0.assetTag', message: expect.stringContaining('no item with the asset tag NOPE-1') },
+    ]);
     const between = await loadPlan();
     expect(between.plan.venue.version).toBe(plan.venue.version);
     expect(strip(between.plan, 'Strip 17')).toBeDefined();
 
-    const ok = await marco.patch(`/api/strips/${st.id}`).set('If-Match', etag).send({ label: 'Strip 17b', assetTags: [{ positionId: reel.id, assetTag: 'CARD-RL-1' }] });
+    const ok = await marco
+      .patch(`/api/strips/${st.id}`)
+      .set('If-Match', etag)
+      .send({ label: 'Strip 17b', assetTags: [{ positionId: reel.id, assetTag: 'CARD-RL-1' }] });
     expect(ok.status).toBe(200);
     expect((ok.body as Plan).venue.version).toBe(plan.venue.version + 1);
     const after = strip(ok.body as Plan, 'Strip 17b');

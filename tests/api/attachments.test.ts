@@ -39,15 +39,21 @@ beforeAll(async () => {
   faultId = list.find((f) => f.stripLabel === 'Strip 6' && f.positionName === 'Left floor cable')!.id;
   const register = (await marco.get('/api/equipment')).body as { id: string; kind: string }[];
   itemId = register.find((e) => e.kind === 'floor-cable')!.id;
-  jpeg = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#884422' } }).jpeg().toBuffer();
-  png = await sharp({ create: { width: 300, height: 200, channels: 4, background: '#2266aa' } }).png().toBuffer();
+  jpeg = await sharp({ create: { width: 1600, height: 1200, channels: 3, background: '#884422' } })
+    .jpeg()
+    .toBuffer();
+  png = await sharp({ create: { width: 300, height: 200, channels: 4, background: '#2266aa' } })
+    .png()
+    .toBuffer();
 });
 afterAll(() => t.close());
 
 describe('POST /api/faults/:id/attachments', () => {
   test('when Sam (assigned) sends a photo, then 201 with the contract, stored under a generated name, with a preview', async () => {
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', jpeg, { filename: 'damage at 7 m.jpg', contentType: 'image/jpeg' });
+    const res = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', jpeg, { filename: 'damage at 7 m.jpg', contentType: 'image/jpeg' });
     expect(res.status).toBe(201);
     expect(Object.keys(res.body).sort()).toEqual(['contentType', 'id', 'kind', 'sha256', 'size']);
     expect(res.body).toMatchObject({ kind: 'photo', contentType: 'image/jpeg', size: jpeg.length });
@@ -74,7 +80,9 @@ describe('POST /api/faults/:id/attachments', () => {
     // a real HEVC-coded HEIF file, as iPads save photos.
     const heic = readFileSync(join(import.meta.dirname, '../fixtures/photo-64x48.heic'));
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', heic, { filename: 'IMG_0042.HEIC', contentType: 'image/heic' });
+    const res = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', heic, { filename: 'IMG_0042.HEIC', contentType: 'image/heic' });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ kind: 'photo', contentType: 'image/heic', size: heic.length });
     const row = t.db.select().from(attachments).where(eq(attachments.id, res.body.id)).get()!;
@@ -87,7 +95,10 @@ describe('POST /api/faults/:id/attachments', () => {
     expect(meta.format).toBe('jpeg');
     expect(meta.width! / meta.height!).toBeCloseTo(64 / 48, 2);
     // The picture itself came through: its middle is still orange (lossy both ways, so roughly).
-    const { data } = await sharp(preview.body as Buffer).extract({ left: Math.floor(meta.width! / 2), top: Math.floor(meta.height! / 2), width: 1, height: 1 }).raw().toBuffer({ resolveWithObject: true });
+    const { data } = await sharp(preview.body as Buffer)
+      .extract({ left: Math.floor(meta.width! / 2), top: Math.floor(meta.height! / 2), width: 1, height: 1 })
+      .raw()
+      .toBuffer({ resolveWithObject: true });
     expect(Math.abs(data[0]! - 200)).toBeLessThan(20);
     expect(Math.abs(data[1]! - 120)).toBeLessThan(20);
     expect(Math.abs(data[2]! - 40)).toBeLessThan(25);
@@ -101,9 +112,19 @@ describe('POST /api/faults/:id/attachments', () => {
     expect(res.status).toBe(200);
     const row = t.db.select().from(attachments).where(eq(attachments.id, up.body.id)).get()!;
     expect((res.body as Buffer).equals(readFileSync(join(dir(), row.storedName)))).toBe(true);
-    expect(createHash('sha256').update(res.body as Buffer).digest('hex')).toBe(up.body.sha256);
+    expect(
+      createHash('sha256')
+        .update(res.body as Buffer)
+        .digest('hex'),
+    ).toBe(up.body.sha256);
     // A photo's metadata may be rewritten (photo-metadata.test.ts), its picture never.
-    expect((await sharp(res.body as Buffer).raw().toBuffer()).equals(await sharp(png).raw().toBuffer())).toBe(true);
+    expect(
+      (
+        await sharp(res.body as Buffer)
+          .raw()
+          .toBuffer()
+      ).equals(await sharp(png).raw().toBuffer()),
+    ).toBe(true);
     expect(res.headers['x-content-type-options']).toBe('nosniff');
     expect(res.headers['content-type']).toBe('image/png');
     expect(res.headers['content-disposition']).toBe(
@@ -190,8 +211,12 @@ describe('POST /api/faults/:id/attachments', () => {
 
   test('when the name has path separators or control characters, then it is accepted and cleaned; a name that cleans to nothing is 422', async () => {
     const sam = await t.agentFor(DEMO.technician);
-    const photo = await sharp({ create: { width: 20, height: 20, channels: 3, background: '#010203' } }).png().toBuffer();
-    const res = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', photo, { filename: '..\\..\\etc\\bad\tna\u202eme.png' });
+    const photo = await sharp({ create: { width: 20, height: 20, channels: 3, background: '#010203' } })
+      .png()
+      .toBuffer();
+    const res = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', photo, { filename: '..\\..\\etc\\bad\tna\u202eme.png' });
     expect(res.status).toBe(201);
     const row = t.db.select().from(attachments).where(eq(attachments.id, res.body.id)).get()!;
     expect(row.originalName).toBe('badname.png');
@@ -213,7 +238,9 @@ describe('POST /api/faults/:id/attachments', () => {
   test('when a CSV has no numbers, or a million lines of garbage, then 422 and nothing is written', async () => {
     const sam = await t.agentFor(DEMO.technician);
     const before = { files: filesOnDisk(), rows: rowCount() };
-    const words = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', Buffer.from('name,colour\nfoil,red\nepee,green\n'), { filename: 'words.csv' });
+    const words = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', Buffer.from('name,colour\nfoil,red\nepee,green\n'), { filename: 'words.csv' });
     expect(words.status).toBe(422);
     expect(words.body.code).toBe('trace-unreadable');
     const garbage = Buffer.from('lorem ipsum dolor\n'.repeat(1_000_000));
@@ -222,7 +249,9 @@ describe('POST /api/faults/:id/attachments', () => {
     expect(res.body.detail).toMatch(/No numeric rows/);
     // Numbers first, then garbage inside the data.
     const mixed = `${syntheticTdrTrace({ roundTripNs: 30, samples: 100 }).csv}${'x;y;z\n'.repeat(50)}`;
-    expect((await sam.post(`/api/faults/${faultId}/attachments`).attach('file', Buffer.from(mixed), { filename: 'mixed.csv' })).status).toBe(422);
+    expect(
+      (await sam.post(`/api/faults/${faultId}/attachments`).attach('file', Buffer.from(mixed), { filename: 'mixed.csv' })).status,
+    ).toBe(422);
     expect({ files: filesOnDisk(), rows: rowCount() }).toEqual(before);
   });
 
@@ -241,9 +270,17 @@ describe('POST /api/faults/:id/attachments', () => {
     const service = attachmentsService({ ...t.deps, db: brokenDb }, store);
     const sam = t.db.select().from(users).where(eq(users.email, DEMO.technician)).get()!;
     const before = { files: filesOnDisk(), rows: rowCount() };
-    const photo = await sharp({ create: { width: 30, height: 30, channels: 3, background: '#0a0b0c' } }).jpeg().toBuffer();
+    const photo = await sharp({ create: { width: 30, height: 30, channels: 3, background: '#0a0b0c' } })
+      .jpeg()
+      .toBuffer();
     await expect(
-      service.upload({ ...sam, role: 'technician' }, 'fault', faultId, { buffer: photo, size: photo.length, originalname: 'x.jpg', mimetype: 'image/jpeg' }, undefined),
+      service.upload(
+        { ...sam, role: 'technician' },
+        'fault',
+        faultId,
+        { buffer: photo, size: photo.length, originalname: 'x.jpg', mimetype: 'image/jpeg' },
+        undefined,
+      ),
     ).rejects.toThrow(/disk full/);
     expect({ files: filesOnDisk(), rows: rowCount() }).toEqual(before);
   });
@@ -252,31 +289,49 @@ describe('POST /api/faults/:id/attachments', () => {
 describe('retrying an upload', () => {
   test('when the same Idempotency-Key comes with the same file, then the stored answer; with another file, 422', async () => {
     const sam = await t.agentFor(DEMO.technician);
-    const photo = await sharp({ create: { width: 40, height: 40, channels: 3, background: '#123456' } }).jpeg().toBuffer();
+    const photo = await sharp({ create: { width: 40, height: 40, channels: 3, background: '#123456' } })
+      .jpeg()
+      .toBuffer();
     const key = randomUUID();
-    const first = await sam.post(`/api/faults/${faultId}/attachments`).set('Idempotency-Key', key).attach('file', photo, { filename: 'retry.jpg' });
+    const first = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .set('Idempotency-Key', key)
+      .attach('file', photo, { filename: 'retry.jpg' });
     expect(first.status).toBe(201);
     const rows = rowCount();
     const files = filesOnDisk();
-    const again = await sam.post(`/api/faults/${faultId}/attachments`).set('Idempotency-Key', key).attach('file', photo, { filename: 'retry.jpg' });
+    const again = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .set('Idempotency-Key', key)
+      .attach('file', photo, { filename: 'retry.jpg' });
     expect(again.status).toBe(201);
     expect(again.body).toEqual(first.body);
     expect(rowCount()).toBe(rows);
     expect(filesOnDisk()).toEqual(files);
 
-    const other = await sharp({ create: { width: 41, height: 40, channels: 3, background: '#123456' } }).jpeg().toBuffer();
-    const reused = await sam.post(`/api/faults/${faultId}/attachments`).set('Idempotency-Key', key).attach('file', other, { filename: 'retry.jpg' });
+    const other = await sharp({ create: { width: 41, height: 40, channels: 3, background: '#123456' } })
+      .jpeg()
+      .toBuffer();
+    const reused = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .set('Idempotency-Key', key)
+      .attach('file', other, { filename: 'retry.jpg' });
     expect(reused.status).toBe(422);
     expect(reused.body.code).toBe('idempotency-key-reused');
     expect(rowCount()).toBe(rows);
 
-    const notUuid = await sam.post(`/api/faults/${faultId}/attachments`).set('Idempotency-Key', 'abc').attach('file', other, { filename: 'x.jpg' });
+    const notUuid = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .set('Idempotency-Key', 'abc')
+      .attach('file', other, { filename: 'x.jpg' });
     expect(notUuid.status).toBe(422);
   });
 
   test('when the same bytes are sent to the same fault again without a key, then 200 with the existing attachment', async () => {
     const sam = await t.agentFor(DEMO.technician);
-    const photo = await sharp({ create: { width: 50, height: 40, channels: 3, background: '#654321' } }).jpeg().toBuffer();
+    const photo = await sharp({ create: { width: 50, height: 40, channels: 3, background: '#654321' } })
+      .jpeg()
+      .toBuffer();
     const first = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', photo, { filename: 'one.jpg' });
     expect(first.status).toBe(201);
     const rows = rowCount();
@@ -291,7 +346,9 @@ describe('who may attach and see files', () => {
   let photoId: string;
   beforeAll(async () => {
     const marco = await t.agentFor(DEMO.director);
-    const photo = await sharp({ create: { width: 60, height: 40, channels: 3, background: '#777777' } }).webp().toBuffer();
+    const photo = await sharp({ create: { width: 60, height: 40, channels: 3, background: '#777777' } })
+      .webp()
+      .toBuffer();
     const res = await marco.post(`/api/faults/${faultId}/attachments`).attach('file', photo, { filename: 'by-marco.webp' });
     expect(res.status).toBe(201);
     expect(res.body.contentType).toBe('image/webp');
@@ -304,7 +361,9 @@ describe('who may attach and see files', () => {
       expect((await agent.get(`/api/attachments/${photoId}`)).status, who).toBe(200);
       expect((await agent.get(`/api/faults/${faultId}/attachments`)).status, who).toBe(200);
     }
-    const photo = await sharp({ create: { width: 10, height: 10, channels: 3, background: '#abcdef' } }).png().toBuffer();
+    const photo = await sharp({ create: { width: 10, height: 10, channels: 3, background: '#abcdef' } })
+      .png()
+      .toBuffer();
     for (const who of [DEMO.organiser, DEMO.admin]) {
       const agent = await t.agentFor(who);
       expect((await agent.post(`/api/faults/${faultId}/attachments`).attach('file', photo, { filename: 'x.png' })).status, who).toBe(403);
@@ -322,7 +381,14 @@ describe('who may attach and see files', () => {
     t.db.insert(organisations).values({ id: orgId, name: 'Another League' }).run();
     t.db
       .insert(users)
-      .values({ id: randomUUID(), orgId, email: 'td@other-league.example', name: 'Other Director', role: 'director', passwordHash: await hashPassword(DEMO_PASSWORD, TEST_SCRYPT) })
+      .values({
+        id: randomUUID(),
+        orgId,
+        email: 'td@other-league.example',
+        name: 'Other Director',
+        role: 'director',
+        passwordHash: await hashPassword(DEMO_PASSWORD, TEST_SCRYPT),
+      })
       .run();
     const other = await t.agentFor('td@other-league.example');
     expect((await other.get(`/api/attachments/${photoId}`)).status).toBe(404);
@@ -331,7 +397,14 @@ describe('who may attach and see files', () => {
     expect((await other.post(`/api/equipment/${itemId}/attachments`).attach('file', png, { filename: 'x.png' })).status).toBe(404);
 
     expect((await t.request.get(`/api/attachments/${photoId}`)).status).toBe(401);
-    expect((await t.request.post(`/api/faults/${faultId}/attachments`).set('Origin', 'http://localhost:3999').attach('file', png, { filename: 'x.png' })).status).toBe(401);
+    expect(
+      (
+        await t.request
+          .post(`/api/faults/${faultId}/attachments`)
+          .set('Origin', 'http://localhost:3999')
+          .attach('file', png, { filename: 'x.png' })
+      ).status,
+    ).toBe(401);
     expect((await lee.get(`/api/attachments/${randomUUID()}`)).status).toBe(404);
     expect((await lee.get('/api/attachments/not-an-id')).status).toBe(422);
   });
@@ -343,17 +416,21 @@ describe('who may attach and see files', () => {
     const sam = await t.agentFor(DEMO.technician);
     expect((await sam.get(`/api/equipment/${itemId}/attachments`)).body.map((a: { id: string }) => a.id)).toContain(res.body.id);
     expect((await sam.get(`/api/attachments/${res.body.id}`)).status).toBe(200);
-    const photo = await sharp({ create: { width: 12, height: 10, channels: 3, background: '#abcdef' } }).png().toBuffer();
+    const photo = await sharp({ create: { width: 12, height: 10, channels: 3, background: '#abcdef' } })
+      .png()
+      .toBuffer();
     expect((await sam.post(`/api/equipment/${itemId}/attachments`).attach('file', photo, { filename: 'x.png' })).status).toBe(403);
   });
 
-  test('repairs: files hang on the repair and follow the fault\'s venue access', async () => {
+  test("repairs: files hang on the repair and follow the fault's venue access", async () => {
     const marco = await t.agentFor(DEMO.director);
     const repair = await marco.post(`/api/faults/${faultId}/repairs`).send({ action: 'connector-remade', notes: 'Resoldered the A pin' });
     expect(repair.status).toBe(201);
     const repairId = repair.body.repair.id as string;
     const sam = await t.agentFor(DEMO.technician);
-    const photo = await sharp({ create: { width: 14, height: 10, channels: 3, background: '#fedcba' } }).png().toBuffer();
+    const photo = await sharp({ create: { width: 14, height: 10, channels: 3, background: '#fedcba' } })
+      .png()
+      .toBuffer();
     const up = await sam.post(`/api/repairs/${repairId}/attachments`).attach('file', photo, { filename: 'after.png' });
     expect(up.status).toBe(201);
     expect((await sam.get(`/api/repairs/${repairId}/attachments`)).body).toHaveLength(1);
@@ -363,12 +440,14 @@ describe('who may attach and see files', () => {
 });
 
 describe('GET /api/attachments/:id/analysis', () => {
-  test('a synthetic trace with a known round trip: Δt within one sample, a short, the distance with the cable\'s VF 0.6 from the register', async () => {
+  test("a synthetic trace with a known round trip: Δt within one sample, a short, the distance with the cable's VF 0.6 from the register", async () => {
     // The demo short sits 7.4 m from the apparatus on a 12 m cable of VF 0.6 (invented demo data).
     const roundTripNs = roundTripNsFor(7.4, 0.6);
     const trace = syntheticTdrTrace({ roundTripNs, sampleIntervalS: 0.2e-9, samples: 3000 });
     const sam = await t.agentFor(DEMO.technician);
-    const up = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', Buffer.from(trace.csv), { filename: 'strip6-left-AB.csv' });
+    const up = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', Buffer.from(trace.csv), { filename: 'strip6-left-AB.csv' });
     expect(up.status).toBe(201);
     const res = await sam.get(`/api/attachments/${up.body.id}/analysis`);
     expect(res.status).toBe(200);

@@ -15,7 +15,14 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-type Entry = { action: string; entityType: string; entityId: string; actorName: string | null; at: string; detail: Record<string, unknown> };
+type Entry = {
+  action: string;
+  entityType: string;
+  entityId: string;
+  actorName: string | null;
+  at: string;
+  detail: Record<string, unknown>;
+};
 
 describe('GET /api/venues/:id/audit', () => {
   test('plan changes to the venue, its strips, positions and steps, and its readings are listed with who did them, newest first', async () => {
@@ -36,11 +43,18 @@ describe('GET /api/venues/:id/audit', () => {
     const entries = res.body as Entry[];
     const mine = entries.filter((e) => e.actorName === 'Marco Dal Bello').map((e) => e.action);
     expect(mine.slice(0, 4)).toEqual(['venue.updated', 'position.equipment-removed', 'step.dropped', 'strip.updated']);
-    expect(entries.find((e) => e.action === 'venue.updated')!.detail).toMatchObject({ changed: { name: { from: 'Riverside Annex', to: 'Riverside Annex North' } } });
+    expect(entries.find((e) => e.action === 'venue.updated')!.detail).toMatchObject({
+      changed: { name: { from: 'Riverside Annex', to: 'Riverside Annex North' } },
+    });
     // Readings of the venue's steps are part of its trail.
     expect(entries.find((e) => e.entityId === reading.body.id)).toMatchObject({ action: 'reading.recorded', actorName: 'Lee Varga' });
     // Nothing from the other venue.
-    const hallStrips = t.db.select().from(s.strips).all().filter((x) => x.venueId === hallId).map((x) => x.id);
+    const hallStrips = t.db
+      .select()
+      .from(s.strips)
+      .all()
+      .filter((x) => x.venueId === hallId)
+      .map((x) => x.id);
     expect(entries.some((e) => hallStrips.includes(e.entityId) || e.entityId === hallId)).toBe(false);
 
     const nina = await t.agentFor(DEMO.organiser);
@@ -63,7 +77,10 @@ describe('GET /api/audit', () => {
     const res = await ada.get('/api/audit').query({ entityType: 'equipment', entityId: created.body.id });
     expect(res.status).toBe(200);
     expect((res.body as Entry[]).map((e) => e.action)).toEqual(['equipment.updated', 'equipment.created']);
-    expect((res.body as Entry[])[0]).toMatchObject({ actorName: 'Ada Quill', detail: { assetTag: 'RL-900', changed: { notes: { from: null, to: 'New spring' } } } });
+    expect((res.body as Entry[])[0]).toMatchObject({
+      actorName: 'Ada Quill',
+      detail: { assetTag: 'RL-900', changed: { notes: { from: null, to: 'New spring' } } },
+    });
 
     // Hilltop's director sees none of it.
     const hilltop = await t.agentFor(OTHER_DIRECTOR, OTHER_PASSWORD);

@@ -47,13 +47,19 @@ describe('POST /api/auth/sign-in', () => {
   });
 
   test('when the e-mail is mixed case with spaces, then it is normalised', async () => {
-    const res = await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: '  Ada@Lakeshore.Example ', password: DEMO_PASSWORD });
+    const res = await t.request
+      .post('/api/auth/sign-in')
+      .set('Origin', ORIGIN)
+      .send({ email: '  Ada@Lakeshore.Example ', password: DEMO_PASSWORD });
     expect(res.status).toBe(200);
   });
 
   test('when the password is wrong or the e-mail unknown, then both get the same 401 problem', async () => {
     const wrong = await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: DEMO.director, password: 'nope-nope' });
-    const unknown = await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: 'nobody@lakeshore.example', password: 'nope-nope' });
+    const unknown = await t.request
+      .post('/api/auth/sign-in')
+      .set('Origin', ORIGIN)
+      .send({ email: 'nobody@lakeshore.example', password: 'nope-nope' });
     for (const res of [wrong, unknown]) {
       expect(res.status).toBe(401);
       expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
@@ -88,9 +94,18 @@ describe('POST /api/auth/sign-in', () => {
 
   test('when no Origin, Referer or Sec-Fetch-Site is sent, or a foreign one, then 403 (CSRF defence)', async () => {
     const none = await t.request.post('/api/auth/sign-in').send({ email: DEMO.director, password: DEMO_PASSWORD });
-    const foreign = await t.request.post('/api/auth/sign-in').set('Origin', 'http://evil.example').send({ email: DEMO.director, password: DEMO_PASSWORD });
-    const crossSite = await t.request.post('/api/auth/sign-in').set('Sec-Fetch-Site', 'cross-site').send({ email: DEMO.director, password: DEMO_PASSWORD });
-    const byReferer = await t.request.post('/api/auth/sign-in').set('Referer', `${ORIGIN}/sign-in`).send({ email: DEMO.director, password: DEMO_PASSWORD });
+    const foreign = await t.request
+      .post('/api/auth/sign-in')
+      .set('Origin', 'http://evil.example')
+      .send({ email: DEMO.director, password: DEMO_PASSWORD });
+    const crossSite = await t.request
+      .post('/api/auth/sign-in')
+      .set('Sec-Fetch-Site', 'cross-site')
+      .send({ email: DEMO.director, password: DEMO_PASSWORD });
+    const byReferer = await t.request
+      .post('/api/auth/sign-in')
+      .set('Referer', `${ORIGIN}/sign-in`)
+      .send({ email: DEMO.director, password: DEMO_PASSWORD });
     expect([none.status, foreign.status, crossSite.status]).toEqual([403, 403, 403]);
     expect(byReferer.status).toBe(200);
   });
@@ -98,11 +113,23 @@ describe('POST /api/auth/sign-in', () => {
   test('when a tablet opened the app at the hall network’s address, then its writes from that same address are accepted, and a page elsewhere is still refused', async () => {
     // What a browser sends for a page loaded from http://192.168.1.20:3000 (RFC 6454: the Origin is the page's scheme, host and port).
     const hall = 'http://192.168.1.20:3000';
-    const sameAddress = await t.request.post('/api/auth/sign-in').set('Host', '192.168.1.20:3000').set('Origin', hall).send({ email: DEMO.director, password: DEMO_PASSWORD });
+    const sameAddress = await t.request
+      .post('/api/auth/sign-in')
+      .set('Host', '192.168.1.20:3000')
+      .set('Origin', hall)
+      .send({ email: DEMO.director, password: DEMO_PASSWORD });
     expect(sameAddress.status).toBe(200);
-    const byReferer = await t.request.post('/api/auth/sign-in').set('Host', '192.168.1.20:3000').set('Referer', `${hall}/sign-in`).send({ email: DEMO.director, password: DEMO_PASSWORD });
+    const byReferer = await t.request
+      .post('/api/auth/sign-in')
+      .set('Host', '192.168.1.20:3000')
+      .set('Referer', `${hall}/sign-in`)
+      .send({ email: DEMO.director, password: DEMO_PASSWORD });
     expect(byReferer.status).toBe(200);
-    const otherPage = await t.request.post('/api/auth/sign-in').set('Host', '192.168.1.20:3000').set('Origin', 'http://192.168.1.99:8080').send({ email: DEMO.director, password: DEMO_PASSWORD });
+    const otherPage = await t.request
+      .post('/api/auth/sign-in')
+      .set('Host', '192.168.1.20:3000')
+      .set('Origin', 'http://192.168.1.99:8080')
+      .send({ email: DEMO.director, password: DEMO_PASSWORD });
     expect(otherPage.status).toBe(403);
   });
 });
@@ -128,7 +155,9 @@ describe('sessions', () => {
     const tampered = `${h}.${p.slice(0, -2)}${p.endsWith('A') ? 'B' : 'A'}x.${token.split('.')[2]}`;
     const payload = JSON.parse(Buffer.from(p, 'base64url').toString());
     const none = `${Buffer.from('{"alg":"none","typ":"JWT"}').toString('base64url')}.${p}.`;
-    const foreign = await new SignJWT(payload).setProtectedHeader({ alg: 'HS256', typ: 'JWT' }).sign(new TextEncoder().encode('another-secret-another-secret-another'));
+    const foreign = await new SignJWT(payload)
+      .setProtectedHeader({ alg: 'HS256', typ: 'JWT' })
+      .sign(new TextEncoder().encode('another-secret-another-secret-another'));
     for (const bad of [tampered, none, foreign, 'garbage']) {
       const res = await t.request.get('/api/auth/me').set('Cookie', `sw_session=${bad}`);
       expect(res.status).toBe(401);
@@ -160,13 +189,20 @@ describe('people (admin)', () => {
     const invited = await admin.post('/api/users').send({ email: 'Kim@Lakeshore.example', name: 'Kim Ashby', role: 'technician' });
     expect(invited.status).toBe(201);
     expect(invited.body.email).toBe('kim@lakeshore.example');
-    const mail = t.db.select().from(capturedMail).all().find((m) => m.toAddresses.includes('kim@lakeshore.example'));
+    const mail = t.db
+      .select()
+      .from(capturedMail)
+      .all()
+      .find((m) => m.toAddresses.includes('kim@lakeshore.example'));
     expect(mail?.subject).toMatch(/invitation/i);
     // The link reaches the server's console (local SMTP fake), never the stored copy.
     const { token } = await t.linkSentTo('kim@lakeshore.example');
     expect(mail!.text).not.toContain(token);
     // Not signed in yet: no password.
-    expect((await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: 'kim@lakeshore.example', password: 'a-new-password' })).status).toBe(401);
+    expect(
+      (await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: 'kim@lakeshore.example', password: 'a-new-password' }))
+        .status,
+    ).toBe(401);
     const info = await t.request.get(`/api/auth/set-password/${token}`);
     expect(info.body).toMatchObject({ email: 'kim@lakeshore.example', purpose: 'invite' });
     const tooShort = await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: 'short' });
@@ -176,7 +212,10 @@ describe('people (admin)', () => {
     const again = await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: 'another-password' });
     expect(again.status).toBe(410);
     expect(again.headers['content-type']).toMatch(/problem\+json/);
-    const signIn = await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: 'kim@lakeshore.example', password: 'a-new-password' });
+    const signIn = await t.request
+      .post('/api/auth/sign-in')
+      .set('Origin', ORIGIN)
+      .send({ email: 'kim@lakeshore.example', password: 'a-new-password' });
     expect(signIn.status).toBe(200);
     expect(signIn.body.user.role).toBe('technician');
   });
@@ -196,7 +235,10 @@ describe('people (admin)', () => {
     const leeId = t.db.select().from(users).where(eq(users.email, DEMO.annexTechnician)).get()!.id;
     expect((await admin.patch(`/api/users/${leeId}`).send({ disabled: true })).status).toBe(200);
     expect((await lee.get('/api/auth/me')).status).toBe(401);
-    expect((await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: DEMO.annexTechnician, password: DEMO_PASSWORD })).status).toBe(401);
+    expect(
+      (await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: DEMO.annexTechnician, password: DEMO_PASSWORD }))
+        .status,
+    ).toBe(401);
     await admin.patch(`/api/users/${leeId}`).send({ disabled: false });
   });
 
@@ -221,12 +263,21 @@ describe('password reset', () => {
     expect(sent.map((m) => m.toAddresses)).toEqual([DEMO.organiser]);
     expect(t.oneTimeLinks.slice(linksBefore).map((l) => l.to)).toEqual([DEMO.organiser]);
     const session = await t.agentFor(DEMO.organiser);
-    expect((await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: 'nina-new-password' })).status).toBe(200);
+    expect(
+      (await t.request.post(`/api/auth/set-password/${token}`).set('Origin', ORIGIN).send({ password: 'nina-new-password' })).status,
+    ).toBe(200);
     // A new password ends the old sessions.
     expect((await session.get('/api/auth/me')).status).toBe(401);
-    expect((await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: DEMO.organiser, password: 'nina-new-password' })).status).toBe(200);
+    expect(
+      (await t.request.post('/api/auth/sign-in').set('Origin', ORIGIN).send({ email: DEMO.organiser, password: 'nina-new-password' }))
+        .status,
+    ).toBe(200);
     const back = t.db.select().from(users).where(eq(users.email, DEMO.organiser)).get()!;
-    t.db.update(users).set({ passwordHash: await hashPassword(DEMO_PASSWORD, t.deps.scrypt) }).where(eq(users.id, back.id)).run();
+    t.db
+      .update(users)
+      .set({ passwordHash: await hashPassword(DEMO_PASSWORD, t.deps.scrypt) })
+      .where(eq(users.id, back.id))
+      .run();
   });
 
   test('an unknown link is 404 problem+json', async () => {

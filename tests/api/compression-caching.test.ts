@@ -32,11 +32,19 @@ function raw(method: 'GET' | 'POST', path: string, headers: Record<string, strin
   const data = body === undefined ? undefined : JSON.stringify(body);
   return new Promise((resolve, reject) => {
     const req = httpRequest(
-      { host: '127.0.0.1', port, method, path, headers: { Origin: ORIGIN, ...(data ? { 'Content-Type': 'application/json' } : {}), ...headers } },
+      {
+        host: '127.0.0.1',
+        port,
+        method,
+        path,
+        headers: { Origin: ORIGIN, ...(data ? { 'Content-Type': 'application/json' } : {}), ...headers },
+      },
       (res) => {
         const chunks: Buffer[] = [];
         res.on('data', (c: Buffer) => chunks.push(c));
-        res.on('end', () => resolve({ status: res.statusCode!, headers: res.headers as Record<string, string | undefined>, body: Buffer.concat(chunks) }));
+        res.on('end', () =>
+          resolve({ status: res.statusCode!, headers: res.headers as Record<string, string | undefined>, body: Buffer.concat(chunks) }),
+        );
         res.on('error', reject);
       },
     );
@@ -55,7 +63,10 @@ beforeAll(async () => {
   dist = join(base.dir, 'dist');
   await base.close();
   mkdirSync(join(dist, 'assets'), { recursive: true });
-  writeFileSync(join(dist, 'index.html'), '<!doctype html><title>Stripwarden</title><script type="module" src="/assets/index-C4fe9Ab1.js"></script>');
+  writeFileSync(
+    join(dist, 'index.html'),
+    '<!doctype html><title>Stripwarden</title><script type="module" src="/assets/index-C4fe9Ab1.js"></script>',
+  );
   writeFileSync(join(dist, 'sw.js'), sw);
   writeFileSync(join(dist, 'workbox-9c191d2f.js'), sw);
   writeFileSync(join(dist, 'manifest.webmanifest'), '{"name":"Stripwarden"}');
@@ -115,7 +126,7 @@ describe('the built client', () => {
     expect(res.headers['cache-control']).toBe('no-cache');
   });
 
-  test('when Workbox\'s hashed runtime is asked for, then it is cached for a year; a file without a hash for an hour', async () => {
+  test("when Workbox's hashed runtime is asked for, then it is cached for a year; a file without a hash for an hour", async () => {
     expect((await t.request.get('/workbox-9c191d2f.js')).headers['cache-control']).toBe('public, max-age=31536000, immutable');
     expect((await t.request.get('/favicon.svg')).headers['cache-control']).toBe('public, max-age=3600');
   });
@@ -157,7 +168,10 @@ describe('JSON answers', () => {
       'POST',
       '/api/readings',
       { 'Accept-Encoding': 'gzip, br', Cookie: await cookieOf(DEMO.technician) },
-      newReading(strip.positions[1].steps[0].id, '0.6', { supersedesId: first.body.id, correctionReason: 'Probe slipped off the pin. '.repeat(18) }),
+      newReading(strip.positions[1].steps[0].id, '0.6', {
+        supersedesId: first.body.id,
+        correctionReason: 'Probe slipped off the pin. '.repeat(18),
+      }),
     );
     expect(res.status).toBe(201);
     expect(res.body.length).toBeGreaterThan(1024);

@@ -112,7 +112,7 @@ describe('POST /api/equipment/:id/calibrations', () => {
     const marco = await t.agentFor(DEMO.director);
     const item = await itemByTag('FC-020');
     // 12 m and back at VF 0.66: 2 · 12 / (0.66 · c) = 121.3 ns.
-    const roundTripNs = (2 * 12) / (0.66 * 299_792_458) * 1e9;
+    const roundTripNs = ((2 * 12) / (0.66 * 299_792_458)) * 1e9;
     const res = await marco.post(`/api/equipment/${item.id}/calibrations`).send({ roundTripNs, lengthM: 12 });
     expect(res.status).toBe(201);
     expect(res.body.velocityFactor).toBeCloseTo(0.66, 6);
@@ -143,8 +143,17 @@ describe('GET /api/equipment/:id', () => {
     expect(item.lengthM).toBe(12);
     // A cut-out as the repair service records it: the repair row and the item's new length.
     const repairId = crypto.randomUUID();
-    t.db.insert(s.repairs)
-      .values({ id: repairId, faultId: fault.id, equipmentId: item.id, action: 'cut-out', lengthRemovedM: 0.6, lengthBeforeM: 12, createdBy: fault.openedBy })
+    t.db
+      .insert(s.repairs)
+      .values({
+        id: repairId,
+        faultId: fault.id,
+        equipmentId: item.id,
+        action: 'cut-out',
+        lengthRemovedM: 0.6,
+        lengthBeforeM: 12,
+        createdBy: fault.openedBy,
+      })
       .run();
     t.db.update(s.equipment).set({ lengthM: 11.4 }).where(eq(s.equipment.id, item.id)).run();
 
@@ -153,14 +162,20 @@ describe('GET /api/equipment/:id', () => {
     expect(res.body.item).toMatchObject({ assetTag: item.assetTag, lengthM: 11.4 });
     expect(res.body.originalLengthM).toBe(12);
     expect(res.body.lengthRemovedM).toBeCloseTo(0.6);
-    expect(res.body.repairs).toEqual([expect.objectContaining({ id: repairId, action: 'cut-out', lengthAfterM: 11.4, byName: 'Sam Reyes' })]);
-    expect(res.body.faults).toEqual([expect.objectContaining({ id: fault.id, kind: 'short', stripLabel: 'Strip 6', venueName: 'Riverside Sports Hall' })]);
+    expect(res.body.repairs).toEqual([
+      expect.objectContaining({ id: repairId, action: 'cut-out', lengthAfterM: 11.4, byName: 'Sam Reyes' }),
+    ]);
+    expect(res.body.faults).toEqual([
+      expect.objectContaining({ id: fault.id, kind: 'short', stripLabel: 'Strip 6', venueName: 'Riverside Sports Hall' }),
+    ]);
     expect(res.body.placements).toEqual([
       expect.objectContaining({ stripLabel: 'Strip 6', positionName: 'Left floor cable', eventName: 'Autumn Cup 2026', removedAt: null }),
     ]);
     // Every step of that cable was read once in the demo (6 steps + loop).
     expect(res.body.readings).toHaveLength(7);
-    expect(res.body.readings.some((r: { verdict: string; conductors: string }) => r.verdict === 'fail' && r.conductors === 'A-B')).toBe(true);
+    expect(res.body.readings.some((r: { verdict: string; conductors: string }) => r.verdict === 'fail' && r.conductors === 'A-B')).toBe(
+      true,
+    );
   });
 
   test('another organisation’s item is 404 and never listed', async () => {

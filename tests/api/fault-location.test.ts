@@ -18,7 +18,10 @@ afterAll(() => t.close());
 
 const locate = (body: unknown) => sam.post('/api/fault-location').send(body as object);
 
-function expectProblem(res: { status: number; headers: Record<string, string>; body: { errors?: { path: string; message: string }[] } }, path?: string) {
+function expectProblem(
+  res: { status: number; headers: Record<string, string>; body: { errors?: { path: string; message: string }[] } },
+  path?: string,
+) {
   expect(res.status).toBe(422);
   expect(res.headers['content-type']).toMatch(/application\/problem\+json/);
   if (path !== undefined) expect(res.body.errors?.map((e) => e.path)).toContain(path);
@@ -244,14 +247,19 @@ describe('POST /api/fault-location', () => {
   });
 
   test('anonymous callers get 401', async () => {
-    const res = await t.request.post('/api/fault-location').set('Origin', ORIGIN).send({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 });
+    const res = await t.request
+      .post('/api/fault-location')
+      .set('Origin', ORIGIN)
+      .send({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 });
     expect(res.status).toBe(401);
   });
 
   test('every role may use it', async () => {
     for (const who of [DEMO.admin, DEMO.organiser, DEMO.director, DEMO.annexTechnician]) {
       const agent = await t.agentFor(who);
-      expect((await agent.post('/api/fault-location').send({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 })).status).toBe(200);
+      expect((await agent.post('/api/fault-location').send({ method: 'murray', lengthM: 600, faultedArm: 1, soundArm: 3 })).status).toBe(
+        200,
+      );
     }
   });
 });

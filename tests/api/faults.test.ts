@@ -48,7 +48,13 @@ describe('GET /api/venues/:id/faults', () => {
     expect(res.status).toBe(200);
     const byStrip = Object.fromEntries((res.body as FaultItem[]).map((f) => [f.stripLabel, f]));
     expect(Object.keys(byStrip).sort()).toEqual(['Strip 3', 'Strip 5', 'Strip 6', 'Strip 9']);
-    expect(byStrip['Strip 6']).toMatchObject({ positionName: 'Left floor cable', kind: 'short', conductors: 'A-B', status: 'located', equipment: { lengthM: 12 } });
+    expect(byStrip['Strip 6']).toMatchObject({
+      positionName: 'Left floor cable',
+      kind: 'short',
+      conductors: 'A-B',
+      status: 'located',
+      equipment: { lengthM: 12 },
+    });
     expect(byStrip['Strip 6']!.estimate!.distanceM).toBeCloseTo(loopBothEnds(STRIP6.nearOhm, STRIP6.farOhm, STRIP6.ohmPerMetre, 12), 6);
     expect(byStrip['Strip 9']).toMatchObject({ kind: 'open', conductors: 'C', status: 'open', estimate: null });
     expect(byStrip['Strip 3']).toMatchObject({ kind: 'high-resistance', conductors: 'B' });
@@ -76,7 +82,13 @@ describe('GET /api/faults/:id', () => {
     expect(res.body.estimates[0]).toMatchObject({ method: 'loop-both-ends', fromEnd: 'near' });
     expect(res.body.repairs).toEqual([]);
     expect(res.body.steps.map((s: { testKind: string; conductors: string }) => `${s.testKind} ${s.conductors}`)).toEqual([
-      'continuity A', 'continuity B', 'continuity C', 'insulation A-B', 'insulation A-C', 'insulation B-C', 'loop A-B',
+      'continuity A',
+      'continuity B',
+      'continuity C',
+      'insulation A-B',
+      'insulation A-C',
+      'insulation B-C',
+      'loop A-B',
     ]);
     const ab = res.body.steps.find((s: { conductors: string; testKind: string }) => s.testKind === 'insulation' && s.conductors === 'A-B');
     expect(ab.latest.verdict).toBe('fail');
@@ -97,7 +109,9 @@ describe('POST /api/faults/:id/estimates', () => {
   test('the Strip 6 short worked out again from the same two readings is saved, but not weighed with the earlier estimate: the band stays as wide', async () => {
     const f = await faultOn('Strip 6');
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post(`/api/faults/${f.id}/estimates`).send({ method: 'loop-both-ends', nearOhm: STRIP6.nearOhm, farOhm: STRIP6.farOhm, ohmPerMetre: STRIP6.ohmPerMetre });
+    const res = await sam
+      .post(`/api/faults/${f.id}/estimates`)
+      .send({ method: 'loop-both-ends', nearOhm: STRIP6.nearOhm, farOhm: STRIP6.farOhm, ohmPerMetre: STRIP6.ohmPerMetre });
     expect(res.status).toBe(201);
     const expected = loopBothEnds(STRIP6.nearOhm, STRIP6.farOhm, STRIP6.ohmPerMetre, 12);
     expect(res.body.estimate.method).toBe('loop-both-ends');
@@ -112,7 +126,11 @@ describe('POST /api/faults/:id/estimates', () => {
     expect(res.body.combined).toMatchObject({ count: 1, estimateIds: [res.body.estimate.id] });
     expect(res.body.combined.uncertaintyM).toBe(res.body.estimate.uncertaintyM);
     expect(res.body.combined.apart).toEqual([
-      { estimateId: res.body.fault.estimates[0].id, kind: 'same-readings', reason: expect.stringMatching(/same readings \(0\.855 Ω, 0\.645 Ω\)/) },
+      {
+        estimateId: res.body.fault.estimates[0].id,
+        kind: 'same-readings',
+        reason: expect.stringMatching(/same readings \(0\.855 Ω, 0\.645 Ω\)/),
+      },
     ]);
     expect(res.body.combined.distanceM).toBeCloseTo(expected, 6);
     expect(res.body.fault.status).toBe('located');
@@ -123,9 +141,13 @@ describe('POST /api/faults/:id/estimates', () => {
     const strip = await stripByLabel(t, hall, 'Strip 15');
     const { position } = stepOf(strip, 'Right floor cable', 'insulation', 'A-B');
     const sam = await t.agentFor(DEMO.technician);
-    const made = await sam.post('/api/faults').send({ positionId: position.id, kind: 'short', conductors: 'A-B', notes: 'worked-example check' });
+    const made = await sam
+      .post('/api/faults')
+      .send({ positionId: position.id, kind: 'short', conductors: 'A-B', notes: 'worked-example check' });
     expect(made.status).toBe(201);
-    const res = await sam.post(`/api/faults/${made.body.id}/estimates`).send({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
+    const res = await sam
+      .post(`/api/faults/${made.body.id}/estimates`)
+      .send({ method: 'loop-both-ends', nearOhm: 110, farOhm: 160, lengthM: 10_000, ohmPerMetre: 0.011 });
     expect(res.status).toBe(201);
     expect(res.body.estimate.distanceM).toBeCloseTo(3863.6, 1);
     expect(res.body.estimate.faultOhm).toBeCloseTo(25, 6);
@@ -136,7 +158,9 @@ describe('POST /api/faults/:id/estimates', () => {
     const { position } = stepOf(strip, 'Left floor cable', 'insulation', 'A-B');
     const sam = await t.agentFor(DEMO.technician);
     const made = await sam.post('/api/faults').send({ positionId: position.id, kind: 'intermittent', conductors: 'B' });
-    const far = await sam.post(`/api/faults/${made.body.id}/estimates`).send({ method: 'flex', distanceM: 3, uncertaintyM: 0.2, fromEnd: 'far' });
+    const far = await sam
+      .post(`/api/faults/${made.body.id}/estimates`)
+      .send({ method: 'flex', distanceM: 3, uncertaintyM: 0.2, fromEnd: 'far' });
     expect(far.status).toBe(201);
     expect(far.body.estimate).toMatchObject({ fromEnd: 'far', distanceM: 3, distanceFromNearM: 9 });
     const near = await sam.post(`/api/faults/${made.body.id}/estimates`).send({ method: 'flex', distanceM: 2, uncertaintyM: 0.2 });
@@ -149,7 +173,9 @@ describe('POST /api/faults/:id/estimates', () => {
   test('inconsistent readings are refused with 422 naming the field; missing and unknown fields too; never 500', async () => {
     const f = await faultOn('Strip 6');
     const sam = await t.agentFor(DEMO.technician);
-    const bad = await sam.post(`/api/faults/${f.id}/estimates`).send({ method: 'loop-both-ends', nearOhm: 0.1, farOhm: 0.1, ohmPerMetre: 0.0375 });
+    const bad = await sam
+      .post(`/api/faults/${f.id}/estimates`)
+      .send({ method: 'loop-both-ends', nearOhm: 0.1, farOhm: 0.1, ohmPerMetre: 0.0375 });
     expect(bad.status).toBe(422);
     expect(bad.body.code).toBe('fault-location-refused');
     expect(bad.body.errors[0].path).toBe('farOhm');
@@ -211,7 +237,13 @@ describe('POST /api/faults', () => {
     const strip = await stripByLabel(t, hall, 'Strip 14');
     const { position, step } = stepOf(strip, 'Left reel', 'continuity', 'A');
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post('/api/faults').send({ positionId: position.id, stepId: step.id, kind: 'intermittent', conductors: 'A', notes: 'Drops out when the reel is pulled' });
+    const res = await sam.post('/api/faults').send({
+      positionId: position.id,
+      stepId: step.id,
+      kind: 'intermittent',
+      conductors: 'A',
+      notes: 'Drops out when the reel is pulled',
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ stripLabel: 'Strip 14', positionName: 'Left reel', kind: 'intermittent', status: 'open' });
     const bad = await sam.post('/api/faults').send({ positionId: position.id, kind: 'gremlin', conductors: 'Q' });
@@ -255,7 +287,9 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     expect(tooLong.status).toBe(422);
     expect(tooLong.body.errors[0].path).toBe('lengthRemovedM');
 
-    const res = await sam.post(`/api/faults/${f.id}/repairs`).send({ action: 'cut-out', lengthRemovedM: 1.5, notes: 'Cut out the crushed metre and re-joined' });
+    const res = await sam
+      .post(`/api/faults/${f.id}/repairs`)
+      .send({ action: 'cut-out', lengthRemovedM: 1.5, notes: 'Cut out the crushed metre and re-joined' });
     expect(res.status).toBe(201);
     expect(res.body.repair).toMatchObject({ action: 'cut-out', lengthRemovedM: 1.5, lengthBeforeM: 12 });
     expect(res.body.fault.status).toBe('repaired');
@@ -282,14 +316,22 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     expect(res.body.estimate).toMatchObject({ itemLengthM: 10.5, itemShortenedSince: false, distanceFromNearM: 6.5 });
     expect(res.body.combined).toMatchObject({ count: 1, itemLengthM: 10.5, distanceM: 6.5 });
     expect(res.body.combined.apart.map((a: { kind: string }) => a.kind)).toEqual(['other-length', 'other-length']);
-    expect(res.body.combined.apart[0].reason).toBe('Worked out when the item was 12 m long, not the 10.5 m of the latest estimate: not measured on the same cable.');
+    expect(res.body.combined.apart[0].reason).toBe(
+      'Worked out when the item was 12 m long, not the 10.5 m of the latest estimate: not measured on the same cable.',
+    );
   });
 
   test('estimates saved before lengths were kept get the length the item had then (the migration’s backfill)', async () => {
     const f = await faultOn('Strip 6');
     const sql = readFileSync('migrations/0005_estimate_item_length_temperature_rule.sql', 'utf8');
     const backfill = sql.slice(sql.indexOf('UPDATE `fault_estimates`'));
-    const lengths = () => t.db.select().from(faultEstimates).where(eq(faultEstimates.faultId, f.id)).all().map((e) => e.itemLengthM);
+    const lengths = () =>
+      t.db
+        .select()
+        .from(faultEstimates)
+        .where(eq(faultEstimates.faultId, f.id))
+        .all()
+        .map((e) => e.itemLengthM);
     const kept = lengths();
     expect(kept).toEqual([12, 12, 10.5]);
     t.sqlite.prepare('update fault_estimates set item_length_m = null where fault_id = ?').run(f.id);
@@ -335,8 +377,14 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     const sam = await t.agentFor(DEMO.technician);
     const org = t.db.select().from(organisations).get()!;
     const spareId = randomUUID();
-    t.db.insert(equipment).values({ id: spareId, orgId: org.id, assetTag: 'RL-900', kind: 'reel', lengthM: 20, description: 'Spare reel' }).run();
-    t.db.insert(equipment).values({ id: randomUUID(), orgId: org.id, assetTag: 'RL-901', kind: 'reel', lengthM: 20, status: 'retired' }).run();
+    t.db
+      .insert(equipment)
+      .values({ id: spareId, orgId: org.id, assetTag: 'RL-900', kind: 'reel', lengthM: 20, description: 'Spare reel' })
+      .run();
+    t.db
+      .insert(equipment)
+      .values({ id: randomUUID(), orgId: org.id, assetTag: 'RL-901', kind: 'reel', lengthM: 20, status: 'retired' })
+      .run();
     const strip4 = await stripByLabel(t, hall, 'Strip 4');
     const onStrip4 = strip4.positions.find((p) => p.name === 'Left reel')!.equipment!.assetTag;
 
@@ -380,7 +428,7 @@ describe('POST /api/faults/:id/repairs and the retest', () => {
     // A change on one strip after sign-off: that strip is out of service, the venue stays signed off.
     expect(t.db.select().from(venues).where(eq(venues.id, hall)).get()!.status).toBe('signed-off');
     expect(t.db.select().from(strips).where(eq(strips.id, f.stripId)).get()!.outOfServiceSince).not.toBeNull();
-    const audit = t.sqlite.prepare("select action from audit_log where entity_id = ? order by id").all(f.id) as { action: string }[];
+    const audit = t.sqlite.prepare('select action from audit_log where entity_id = ? order by id').all(f.id) as { action: string }[];
     expect(audit.map((a) => a.action)).toContain('fault.repaired');
     const suspended = t.sqlite.prepare("select action from audit_log where entity_id = ? and action = 'strip.suspended'").all(f.stripId);
     expect(suspended).toHaveLength(1);
@@ -407,7 +455,13 @@ describe('GET /api/faults/:id in the reader’s units', () => {
     // The demo's saved loop estimate on Strip 6 (saved in metres), whatever the other tests did to the fault since.
     const f = { id: t.db.select().from(faultEstimates).where(eq(faultEstimates.createdAt, '2026-11-21T07:48:00.000Z')).get()!.faultId };
     const marco = await t.agentFor(DEMO.director);
-    const stored = () => t.db.select().from(faultEstimates).where(eq(faultEstimates.faultId, f.id)).all().map((e) => e.resultJson);
+    const stored = () =>
+      t.db
+        .select()
+        .from(faultEstimates)
+        .where(eq(faultEstimates.faultId, f.id))
+        .all()
+        .map((e) => e.resultJson);
     const before = stored();
     const metric = (await marco.get(`/api/faults/${f.id}`)).body;
     const first = metric.estimates[0];

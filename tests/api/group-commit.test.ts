@@ -88,10 +88,12 @@ describe('group commit', () => {
     const batch = q.batch();
     const order: number[] = [];
     const writes = Array.from({ length: 300 }, (_, i) =>
-      batch.run(() => {
-        order.push(i);
-        return insert(`b${String(i).padStart(3, '0')}`, i)();
-      }).then(() => seen().length),
+      batch
+        .run(() => {
+          order.push(i);
+          return insert(`b${String(i).padStart(3, '0')}`, i)();
+        })
+        .then(() => seen().length),
     );
     // Nothing of the batch runs before it is submitted.
     await Promise.all(singles);

@@ -53,11 +53,17 @@ describe('POST /api/equipment/import/preview', () => {
       notes: 7,
     });
     const row = (n: number) => body.rows.find((r) => r.row === n)!;
-    expect(row(2)).toMatchObject({ assetTag: 'FC-101', action: 'create', values: { kind: 'floor-cable', lengthM: 12, awg: 18, velocityFactor: 0.62, status: 'in-service' } });
+    expect(row(2)).toMatchObject({
+      assetTag: 'FC-101',
+      action: 'create',
+      values: { kind: 'floor-cable', lengthM: 12, awg: 18, velocityFactor: 0.62, status: 'in-service' },
+    });
     expect(row(3)).toMatchObject({ assetTag: 'FC-001', action: 'update', changes: { velocityFactor: { from: 0.6, to: 0.61 } } });
     expect(row(4)).toMatchObject({ assetTag: 'RL-950', action: 'create', values: { kind: 'reel', lengthM: 19.995, awg: 20 } });
     expect(row(5).action).toBe('error');
-    expect(row(5).errors).toEqual([expect.objectContaining({ field: 'kind', message: expect.stringMatching(/Unknown kind “Trampoline”/) })]);
+    expect(row(5).errors).toEqual([
+      expect.objectContaining({ field: 'kind', message: expect.stringMatching(/Unknown kind “Trampoline”/) }),
+    ]);
     expect(row(6).errors).toEqual([expect.objectContaining({ field: 'length' })]);
     expect(row(7).errors[0]).toMatchObject({ field: 'assetTag', message: 'Duplicate in file: FC-103 is also on row 8.' });
     expect(row(8).errors[0]).toMatchObject({ field: 'assetTag', message: 'Duplicate in file: FC-103 is also on row 7.' });
@@ -127,9 +133,18 @@ describe('POST /api/equipment/import/preview', () => {
   test('a technician or an organiser may not import (403); anonymous 401', async () => {
     for (const who of [DEMO.technician, DEMO.organiser]) {
       const agent = await t.agentFor(who);
-      expect((await agent.post('/api/equipment/import/preview').attach('file', Buffer.from(CLUB_CSV), { filename: 'r.csv' })).status).toBe(403);
+      expect((await agent.post('/api/equipment/import/preview').attach('file', Buffer.from(CLUB_CSV), { filename: 'r.csv' })).status).toBe(
+        403,
+      );
     }
-    expect((await t.request.post('/api/equipment/import/preview').set('Origin', 'http://localhost:3999').attach('file', Buffer.from(CLUB_CSV), { filename: 'r.csv' })).status).toBe(401);
+    expect(
+      (
+        await t.request
+          .post('/api/equipment/import/preview')
+          .set('Origin', 'http://localhost:3999')
+          .attach('file', Buffer.from(CLUB_CSV), { filename: 'r.csv' })
+      ).status,
+    ).toBe(401);
   });
 });
 
@@ -156,7 +171,10 @@ describe('POST /api/equipment/import', () => {
     expect(audit).toHaveLength(1);
 
     // The same file again: nothing new, nothing changed.
-    const again = await marco.post('/api/equipment/import').field('mapping', JSON.stringify(mapping)).attach('file', Buffer.from(CLUB_CSV), { filename: 'register.csv' });
+    const again = await marco
+      .post('/api/equipment/import')
+      .field('mapping', JSON.stringify(mapping))
+      .attach('file', Buffer.from(CLUB_CSV), { filename: 'register.csv' });
     expect(again.status).toBe(200);
     expect(again.body.created).toEqual([]);
     expect(again.body.updated).toEqual([]);
@@ -167,10 +185,15 @@ describe('POST /api/equipment/import', () => {
     const marco = await t.agentFor(DEMO.director);
     const before = registerSize();
     // A trigger that refuses the second new item stands in for a failure at import time.
-    t.sqlite.exec(`CREATE TRIGGER refuse_fc_402 BEFORE INSERT ON equipment WHEN NEW.asset_tag = 'FC-402' BEGIN SELECT RAISE(ABORT, 'refused by test'); END;`);
+    t.sqlite.exec(
+      `CREATE TRIGGER refuse_fc_402 BEFORE INSERT ON equipment WHEN NEW.asset_tag = 'FC-402' BEGIN SELECT RAISE(ABORT, 'refused by test'); END;`,
+    );
     try {
       const csv = 'Tag,Kind\nFC-401,floor cable\nFC-402,floor cable\n';
-      const res = await marco.post('/api/equipment/import').field('mapping', JSON.stringify({ assetTag: 0, kind: 1 })).attach('file', Buffer.from(csv), { filename: 'r.csv' });
+      const res = await marco
+        .post('/api/equipment/import')
+        .field('mapping', JSON.stringify({ assetTag: 0, kind: 1 }))
+        .attach('file', Buffer.from(csv), { filename: 'r.csv' });
       expect(res.status).toBe(409);
       expect(res.body.code).toBe('import-failed');
     } finally {
@@ -183,13 +206,19 @@ describe('POST /api/equipment/import', () => {
   test('when no row can be imported, then 422 with the report; without a mapping, 422', async () => {
     const marco = await t.agentFor(DEMO.director);
     const csv = 'Tag,Kind\nZZ-1,trampoline\nZZ-2,\n';
-    const res = await marco.post('/api/equipment/import').field('mapping', JSON.stringify({ assetTag: 0, kind: 1 })).attach('file', Buffer.from(csv), { filename: 'r.csv' });
+    const res = await marco
+      .post('/api/equipment/import')
+      .field('mapping', JSON.stringify({ assetTag: 0, kind: 1 }))
+      .attach('file', Buffer.from(csv), { filename: 'r.csv' });
     expect(res.status).toBe(422);
     expect(res.body.code).toBe('nothing-to-import');
     expect(res.body.report.skipped).toHaveLength(2);
     const none = await marco.post('/api/equipment/import').attach('file', Buffer.from(csv), { filename: 'r.csv' });
     expect(none.status).toBe(422);
-    const bad = await marco.post('/api/equipment/import').field('mapping', '{not json').attach('file', Buffer.from(csv), { filename: 'r.csv' });
+    const bad = await marco
+      .post('/api/equipment/import')
+      .field('mapping', '{not json')
+      .attach('file', Buffer.from(csv), { filename: 'r.csv' });
     expect(bad.status).toBe(422);
   });
 });
@@ -204,7 +233,10 @@ describe('GET /api/equipment.csv', () => {
     expect(res.status).toBe(200);
     expect(res.headers['content-type']).toBe('text/csv; charset=utf-8');
     expect(res.headers['content-disposition']).toBe('attachment; filename="equipment-register.csv"');
-    const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n');
+    const lines = res.text
+      .replace(/^\ufeff/, '')
+      .trim()
+      .split('\r\n');
     expect(lines[0]).toBe('Asset tag,Kind,Description,Length (m),Conductor (mm²),AWG,Cable type,Velocity factor,Status,Notes');
     // OWASP "CSV Injection": a leading = + - @ gets an apostrophe.
     expect(lines.find((l) => l.startsWith('OT-900'))).toBe("OT-900,other,'=1+2 spare,,,,,,in-service,'@cmd");

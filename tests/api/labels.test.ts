@@ -61,7 +61,9 @@ describe('GET /api/venues/:id/labels.pdf', () => {
     const { res, codes, text, pages } = await sheetOf(marco, `/api/venues/${hall}/labels.pdf`);
     expect(res.headers['content-disposition']).toBe('inline; filename="labels-riverside-sports-hall.pdf"');
 
-    const items = new Map(plan.strips.flatMap((s) => s.positions.flatMap((p) => (p.equipment ? [[p.equipment.assetTag, p.equipment.kind] as const] : []))));
+    const items = new Map(
+      plan.strips.flatMap((s) => s.positions.flatMap((p) => (p.equipment ? [[p.equipment.assetTag, p.equipment.kind] as const] : []))),
+    );
     expect(items.size).toBeGreaterThan(24 * 4);
     expect(codes).toHaveLength(plan.strips.length + items.size);
     expect(pages).toBe(Math.ceil(codes.length / 24));
@@ -123,7 +125,9 @@ describe('GET /api/venues/:id/labels.pdf', () => {
 describe('GET /api/equipment/labels.pdf', () => {
   test('the reels of the register, each once, with tag and kind; the filters are the list’s', async () => {
     const ada = await t.agentFor(DEMO.admin);
-    const reels = ((await ada.get('/api/equipment?kind=reel')).body as { assetTag: string; status: string }[]).filter((i) => i.status !== 'retired');
+    const reels = ((await ada.get('/api/equipment?kind=reel')).body as { assetTag: string; status: string }[]).filter(
+      (i) => i.status !== 'retired',
+    );
     expect(reels.length).toBeGreaterThan(0);
     const { codes, text } = await sheetOf(ada, '/api/equipment/labels.pdf?kind=reel');
     expect(codes.map((c) => c.text).sort()).toEqual(reels.map((r) => `${ORIGIN}/t/${encodeURIComponent(r.assetTag)}`).sort());
@@ -161,7 +165,9 @@ describe('GET /api/tags/:tag', () => {
     const tag = strip.positions.find((p) => p.equipment)!.equipment!.assetTag;
     const sam = (await (await t.agentFor(DEMO.technician)).get(`/api/tags/${encodeURIComponent(tag.toLowerCase())}`)).body;
     expect(sam.assetTag).toBe(tag);
-    expect(sam.placements).toEqual([expect.objectContaining({ stripId: strip.id, stripLabel: strip.label, venueId: hall, venueName: 'Riverside Sports Hall' })]);
+    expect(sam.placements).toEqual([
+      expect.objectContaining({ stripId: strip.id, stripLabel: strip.label, venueId: hall, venueName: 'Riverside Sports Hall' }),
+    ]);
     const lee = await (await t.agentFor(DEMO.annexTechnician)).get(`/api/tags/${encodeURIComponent(tag)}`);
     expect(lee.status).toBe(200);
     expect(lee.body.placements).toEqual([]);

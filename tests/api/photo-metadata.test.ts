@@ -34,7 +34,8 @@ const exifOf = async (b: Buffer) => {
   const m = await sharp(b).metadata();
   return { meta: m, exif: m.exif ? exifReader(m.exif) : null };
 };
-const storedFile = (id: string) => readFileSync(join(t.dir, 'attachments', t.db.select().from(attachments).where(eq(attachments.id, id)).get()!.storedName));
+const storedFile = (id: string) =>
+  readFileSync(join(t.dir, 'attachments', t.db.select().from(attachments).where(eq(attachments.id, id)).get()!.storedName));
 
 beforeAll(async () => {
   t = await createTestApp();
@@ -46,7 +47,13 @@ beforeAll(async () => {
     .jpeg({ quality: 90 })
     .withExif({
       IFD0: { Make: 'Acme', Model: 'Tab 9', DateTime: TAKEN, Artist: 'Sam' },
-      IFD2: { DateTimeOriginal: TAKEN, DateTimeDigitized: TAKEN, BodySerialNumber: 'SN-4471-0098', LensSerialNumber: 'LS-0077', CameraOwnerName: 'Sam' },
+      IFD2: {
+        DateTimeOriginal: TAKEN,
+        DateTimeDigitized: TAKEN,
+        BodySerialNumber: 'SN-4471-0098',
+        LensSerialNumber: 'LS-0077',
+        CameraOwnerName: 'Sam',
+      },
       IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '51/1 30/1 1234/100', GPSLongitudeRef: 'W', GPSLongitude: '0/1 7/1 3900/100' },
     })
     .withMetadata({ orientation: 6 })
@@ -66,7 +73,9 @@ describe('a photo is stored without location and device serial', () => {
 
   test('when a JPEG with GPS and serial numbers is uploaded, then the stored file has neither, keeps orientation and time, the same picture, and the SHA-256 of what is stored', async () => {
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', tagged, { filename: 'IMG_2041.jpg', contentType: 'image/jpeg' });
+    const res = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', tagged, { filename: 'IMG_2041.jpg', contentType: 'image/jpeg' });
     expect(res.status).toBe(201);
     const stored = storedFile(res.body.id);
     const { meta, exif } = await exifOf(stored);
@@ -88,7 +97,9 @@ describe('a photo is stored without location and device serial', () => {
     const served = await sam.get(`/api/attachments/${res.body.id}`).buffer(true).parse(binary);
     expect(sha256(served.body as Buffer)).toBe(res.body.sha256);
     // Sent again without a key: recognised as the same photo, not stored twice.
-    const again = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', tagged, { filename: 'IMG_2041.jpg', contentType: 'image/jpeg' });
+    const again = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', tagged, { filename: 'IMG_2041.jpg', contentType: 'image/jpeg' });
     expect(again.status).toBe(200);
     expect(again.body.id).toBe(res.body.id);
     // Nothing of the rewriting is left in the folder: the photo and its preview only.
@@ -102,7 +113,19 @@ describe('a photo is stored without location and device serial', () => {
     copyFileSync(join(import.meta.dirname, '../fixtures/photo-64x48.heic'), source);
     const et = new ExifTool({ maxProcs: 1 });
     try {
-      await et.write(source, { GPSLatitude: 51.5034, GPSLatitudeRef: 'N', GPSLongitude: 0.1276, GPSLongitudeRef: 'W', SerialNumber: 'SN-4471-0098', DateTimeOriginal: TAKEN, 'Orientation#': 6 }, { writeArgs: ['-overwrite_original'] });
+      await et.write(
+        source,
+        {
+          GPSLatitude: 51.5034,
+          GPSLatitudeRef: 'N',
+          GPSLongitude: 0.1276,
+          GPSLongitudeRef: 'W',
+          SerialNumber: 'SN-4471-0098',
+          DateTimeOriginal: TAKEN,
+          'Orientation#': 6,
+        },
+        { writeArgs: ['-overwrite_original'] },
+      );
     } finally {
       await et.end();
     }
@@ -112,7 +135,9 @@ describe('a photo is stored without location and device serial', () => {
     expect(before.exif!.Photo?.BodySerialNumber).toBe('SN-4471-0098');
 
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post(`/api/faults/${faultId}/attachments`).attach('file', heic, { filename: 'IMG_0043.HEIC', contentType: 'image/heic' });
+    const res = await sam
+      .post(`/api/faults/${faultId}/attachments`)
+      .attach('file', heic, { filename: 'IMG_0043.HEIC', contentType: 'image/heic' });
     expect(res.status).toBe(201);
     expect(res.body.contentType).toBe('image/heic');
     const stored = storedFile(res.body.id);
@@ -122,7 +147,10 @@ describe('a photo is stored without location and device serial', () => {
     expect(after.exif!.Photo?.BodySerialNumber).toBeUndefined();
     expect(after.exif!.Image?.Orientation).toBe(6);
     expect(after.exif!.Photo?.DateTimeOriginal).toEqual(new Date('2026-11-21T08:15:42Z'));
-    const pixels = async (b: Buffer) => sharp(Buffer.from(new Uint8Array(await heicConvert({ buffer: b, format: 'PNG' })))).raw().toBuffer();
+    const pixels = async (b: Buffer) =>
+      sharp(Buffer.from(new Uint8Array(await heicConvert({ buffer: b, format: 'PNG' }))))
+        .raw()
+        .toBuffer();
     expect((await pixels(stored)).equals(await pixels(heic))).toBe(true);
     expect(res.body.sha256).toBe(sha256(stored));
   });

@@ -15,9 +15,29 @@ let profileId: string;
 let eventId: string;
 
 type Step = { id: string; testKind: string; conductors: string; removedAt: string | null; addedByDirector: boolean };
-type Position = { id: string; name: string; equipmentKind: string; sortOrder: number; tested: boolean; equipment: { assetTag: string } | null; steps: Step[] };
-type Strip = { id: string; label: string; zone: string | null; withdrawnReason: string | null; conductivePiste: boolean; positions: Position[] };
-type Plan = { venue: { id: string; name: string; version: number; status: string }; strips: Strip[]; technicians: { id: string; name: string }[]; profile: { id: string; version: number } };
+type Position = {
+  id: string;
+  name: string;
+  equipmentKind: string;
+  sortOrder: number;
+  tested: boolean;
+  equipment: { assetTag: string } | null;
+  steps: Step[];
+};
+type Strip = {
+  id: string;
+  label: string;
+  zone: string | null;
+  withdrawnReason: string | null;
+  conductivePiste: boolean;
+  positions: Position[];
+};
+type Plan = {
+  venue: { id: string; name: string; version: number; status: string };
+  strips: Strip[];
+  technicians: { id: string; name: string }[];
+  profile: { id: string; version: number };
+};
 
 beforeAll(async () => {
   t = await createTestApp();
@@ -43,7 +63,9 @@ describe('POST /api/events', () => {
   test('when a director creates an event, then they become its director', async () => {
     const marco = await t.agentFor(DEMO.director);
     const nina = t.db.select().from(s.users).where(eq(s.users.email, DEMO.organiser)).get()!;
-    const res = await marco.post('/api/events').send({ name: 'Spring Open 2027', startsOn: '2027-03-06', endsOn: '2027-03-07', organiserId: nina.id });
+    const res = await marco
+      .post('/api/events')
+      .send({ name: 'Spring Open 2027', startsOn: '2027-03-06', endsOn: '2027-03-07', organiserId: nina.id });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ name: 'Spring Open 2027', directorName: 'Marco Dal Bello', organiserName: 'Nina Okafor', venues: [] });
     expect((await marco.get('/api/events')).body.map((e: { name: string }) => e.name)).toContain('Spring Open 2027');
@@ -58,7 +80,9 @@ describe('POST /api/events', () => {
     const bad = await marco.post('/api/events').send({ name: 'X', startsOn: '2027-02-30', endsOn: 'soon' });
     expect(bad.status).toBe(422);
     expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(expect.arrayContaining(['startsOn', 'endsOn']));
-    const organiser = await marco.post('/api/events').send({ name: 'X', startsOn: '2027-03-06', endsOn: '2027-03-06', organiserId: sam.id });
+    const organiser = await marco
+      .post('/api/events')
+      .send({ name: 'X', startsOn: '2027-03-06', endsOn: '2027-03-06', organiserId: sam.id });
     expect(organiser.status).toBe(422);
     expect(organiser.body.errors[0].path).toBe('organiserId');
   });
@@ -97,10 +121,23 @@ describe('GET /api/venues/:id', () => {
     expect(tag(res)).toBe(`"${plan.venue.version}"`);
     expect(plan.strips).toHaveLength(24);
     const strip1 = plan.strips[0];
-    expect(strip1.positions.map((p) => p.name)).toEqual(['Scoring apparatus', 'Left floor cable', 'Right floor cable', 'Left reel', 'Right reel', 'Piste']);
+    expect(strip1.positions.map((p) => p.name)).toEqual([
+      'Scoring apparatus',
+      'Left floor cable',
+      'Right floor cable',
+      'Left reel',
+      'Right reel',
+      'Piste',
+    ]);
     expect(strip1.positions[1].equipment?.assetTag).toMatch(/^FC-\d{3}$/);
     expect(strip1.positions[1].steps.map((st) => `${st.testKind} ${st.conductors}`)).toEqual([
-      'continuity A', 'continuity B', 'continuity C', 'insulation A-B', 'insulation A-C', 'insulation B-C', 'loop A-B',
+      'continuity A',
+      'continuity B',
+      'continuity C',
+      'insulation A-B',
+      'insulation A-C',
+      'insulation B-C',
+      'loop A-B',
     ]);
     expect(plan.technicians.map((x) => x.name)).toEqual(['Sam Reyes']);
   });
@@ -123,7 +160,13 @@ describe('plan edits with If-Match', () => {
     const res = await marco.patch(`/api/venues/${plan.venue.id}`).set('If-Match', tag(loaded)).send({ name: 'Unchanged hall' });
     expect(res.status).toBe(200);
     expect(res.body.venue.name).toBe('Unchanged hall');
-    expect(t.db.select().from(s.auditLog).all().filter((a) => a.action === 'venue.updated' && a.entityId === plan.venue.id)).toHaveLength(0);
+    expect(
+      t.db
+        .select()
+        .from(s.auditLog)
+        .all()
+        .filter((a) => a.action === 'venue.updated' && a.entityId === plan.venue.id),
+    ).toHaveLength(0);
   });
 
   test('when two sessions edit the same plan, then the second write with the old ETag gets 412 and changes nothing', async () => {
@@ -147,7 +190,9 @@ describe('plan edits with If-Match', () => {
     // Also for strip, position and step edits, which share the venue's version.
     const strip = loaded2.body.strips[0] as Strip;
     expect((await second.patch(`/api/strips/${strip.id}`).set('If-Match', tag(loaded2)).send({ zone: 'Gallery' })).status).toBe(412);
-    expect((await second.post(`/api/strips/${strip.id}/withdraw`).set('If-Match', tag(loaded2)).send({ reason: 'Leaking roof' })).status).toBe(412);
+    expect(
+      (await second.post(`/api/strips/${strip.id}/withdraw`).set('If-Match', tag(loaded2)).send({ reason: 'Leaking roof' })).status,
+    ).toBe(412);
     expect((await second.delete(`/api/steps/${strip.positions[1].steps[0].id}`).set('If-Match', tag(loaded2))).status).toBe(412);
 
     const now = (await second.get(`/api/venues/${annexId}`)).body as Plan;
@@ -170,12 +215,23 @@ describe('plan edits with If-Match', () => {
     for (const who of [DEMO.technician, DEMO.organiser]) {
       const agent = await t.agentFor(who);
       expect((await agent.patch(`/api/venues/${hallId}`).set('If-Match', tag(plan)).send({ name: 'Mine' })).status).toBe(403);
-      expect((await agent.patch(`/api/strips/${plan.body.strips[0].id}`).set('If-Match', tag(plan)).send({ zone: 'Mine' })).status).toBe(403);
+      expect((await agent.patch(`/api/strips/${plan.body.strips[0].id}`).set('If-Match', tag(plan)).send({ zone: 'Mine' })).status).toBe(
+        403,
+      );
     }
     const hilltop = await t.agentFor(OTHER_DIRECTOR, OTHER_PASSWORD);
     expect((await hilltop.patch(`/api/venues/${hallId}`).set('If-Match', tag(plan)).send({ name: 'Ours' })).status).toBe(404);
-    expect((await hilltop.patch(`/api/strips/${plan.body.strips[0].id}`).set('If-Match', tag(plan)).send({ zone: 'Ours' })).status).toBe(404);
-    expect((await hilltop.put(`/api/positions/${plan.body.strips[0].positions[1].id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: 'HB-001' })).status).toBe(404);
+    expect((await hilltop.patch(`/api/strips/${plan.body.strips[0].id}`).set('If-Match', tag(plan)).send({ zone: 'Ours' })).status).toBe(
+      404,
+    );
+    expect(
+      (
+        await hilltop
+          .put(`/api/positions/${plan.body.strips[0].positions[1].id}/equipment`)
+          .set('If-Match', tag(plan))
+          .send({ assetTag: 'HB-001' })
+      ).status,
+    ).toBe(404);
   });
 });
 
@@ -195,7 +251,10 @@ describe('POST /api/venues/:id/strips/bulk', () => {
     expect(piste.steps.map((st) => st.testKind)).toEqual(['piste-end-to-end', 'piste-earth']);
     expect(plan.strips[0].positions[0].steps).toEqual([]); // the apparatus has no cable steps
 
-    const more = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', tag(res)).send({ labels: ['Final'] });
+    const more = await marco
+      .post(`/api/venues/${venue.venue.id}/strips/bulk`)
+      .set('If-Match', tag(res))
+      .send({ labels: ['Final'] });
     expect(more.status).toBe(201);
     expect(more.body.strips.at(-1).positions).toHaveLength(5); // not conductive: no piste position
     const audit = t.db.select().from(s.auditLog).where(eq(s.auditLog.action, 'strip.created')).all();
@@ -205,15 +264,23 @@ describe('POST /api/venues/:id/strips/bulk', () => {
   test('when a label is taken or the body is bad, then 409 / 422 and nothing is added', async () => {
     const marco = await t.agentFor(DEMO.director);
     const plan = await marco.get(`/api/venues/${hallId}`);
-    const dup = await marco.post(`/api/venues/${hallId}/strips/bulk`).set('If-Match', tag(plan)).send({ labels: ['Strip 25', 'Strip 3'] });
+    const dup = await marco
+      .post(`/api/venues/${hallId}/strips/bulk`)
+      .set('If-Match', tag(plan))
+      .send({ labels: ['Strip 25', 'Strip 3'] });
     expect(dup.status).toBe(409);
     expect(dup.body.detail).toContain('Strip 3');
     const neither = await marco.post(`/api/venues/${hallId}/strips/bulk`).set('If-Match', tag(plan)).send({ zone: 'Row Z' });
     expect(neither.status).toBe(422);
     expect(neither.body.errors[0].path).toBe('count');
-    const tooMany = await marco.post(`/api/venues/${hallId}/strips/bulk`).set('If-Match', tag(plan)).send({ count: 1000, template: [{ name: '', equipmentKind: 'lamp' }] });
+    const tooMany = await marco
+      .post(`/api/venues/${hallId}/strips/bulk`)
+      .set('If-Match', tag(plan))
+      .send({ count: 1000, template: [{ name: '', equipmentKind: 'lamp' }] });
     expect(tooMany.status).toBe(422);
-    expect(tooMany.body.errors.map((e: { path: string }) => e.path)).toEqual(expect.arrayContaining(['count', 'template.0.name', 'template.0.equipmentKind']));
+    expect(tooMany.body.errors.map((e: { path: string }) => e.path)).toEqual(
+      expect.arrayContaining(['count', 'template.0.name', 'template.0.equipmentKind']),
+    );
     const after = await marco.get(`/api/venues/${hallId}`);
     expect(after.body.strips).toHaveLength(24);
     expect(tag(after)).toBe(tag(plan));
@@ -229,12 +296,20 @@ describe('strips: edit, withdraw, reinstate', () => {
     plan = await marco.post(`/api/strips/${strip.id}/withdraw`).set('If-Match', tag(plan)).send({ reason: 'Floor damaged by a forklift' });
     expect(plan.status).toBe(200);
     const board = (await marco.get(`/api/venues/${hallId}/strips`)).body as { label: string; status: string; withdrawnReason: string }[];
-    expect(board.find((x) => x.label === 'Strip 24')).toMatchObject({ status: 'withdrawn', withdrawnReason: 'Floor damaged by a forklift' });
+    expect(board.find((x) => x.label === 'Strip 24')).toMatchObject({
+      status: 'withdrawn',
+      withdrawnReason: 'Floor damaged by a forklift',
+    });
 
     plan = await marco.post(`/api/strips/${strip.id}/reinstate`).set('If-Match', tag(plan));
     expect(plan.status).toBe(200);
     expect((plan.body as Plan).strips.find((x) => x.id === strip.id)!.withdrawnReason).toBeNull();
-    const actions = t.db.select().from(s.auditLog).where(eq(s.auditLog.entityId, strip.id)).all().map((a) => a.action);
+    const actions = t.db
+      .select()
+      .from(s.auditLog)
+      .where(eq(s.auditLog.entityId, strip.id))
+      .all()
+      .map((a) => a.action);
     expect(actions).toEqual(['strip.withdrawn', 'strip.reinstated']);
   });
 
@@ -243,7 +318,10 @@ describe('strips: edit, withdraw, reinstate', () => {
     let plan = await marco.get(`/api/venues/${hallId}`);
     const strip = (plan.body as Plan).strips.find((x) => x.label === 'Strip 20')!;
     expect((await marco.patch(`/api/strips/${strip.id}`).set('If-Match', tag(plan)).send({ label: 'Strip 21' })).status).toBe(409);
-    plan = await marco.patch(`/api/strips/${strip.id}`).set('If-Match', tag(plan)).send({ label: 'Strip 20A', conductivePiste: true, zone: 'Row C' });
+    plan = await marco
+      .patch(`/api/strips/${strip.id}`)
+      .set('If-Match', tag(plan))
+      .send({ label: 'Strip 20A', conductivePiste: true, zone: 'Row C' });
     expect(plan.status).toBe(200);
     const changed = (plan.body as Plan).strips.find((x) => x.id === strip.id)!;
     expect(changed).toMatchObject({ label: 'Strip 20A', conductivePiste: true, zone: 'Row C' });
@@ -289,9 +367,13 @@ describe('PUT /api/positions/:id/equipment', () => {
     const retired = await marco.put(`/api/positions/${floor.id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: 'FC-501' });
     expect(retired.status).toBe(422);
     expect(retired.body.detail).toMatch(/retired/);
-    expect((await marco.put(`/api/positions/${floor.id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: 'ZZ-404' })).status).toBe(422);
+    expect((await marco.put(`/api/positions/${floor.id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: 'ZZ-404' })).status).toBe(
+      422,
+    );
     // Another organisation's tag is simply not in our register.
-    expect((await marco.put(`/api/positions/${floor.id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: 'HB-001' })).status).toBe(422);
+    expect((await marco.put(`/api/positions/${floor.id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: 'HB-001' })).status).toBe(
+      422,
+    );
 
     const onStrip1 = strips[0].positions[1].equipment!.assetTag;
     const busy = await marco.put(`/api/positions/${floor.id}/equipment`).set('If-Match', tag(plan)).send({ assetTag: onStrip1 });
@@ -319,18 +401,34 @@ describe('PUT /api/venues/:id/technicians', () => {
     const sam = t.db.select().from(s.users).where(eq(s.users.email, DEMO.technician)).get()!;
     const nina = t.db.select().from(s.users).where(eq(s.users.email, DEMO.organiser)).get()!;
     let plan = await marco.get(`/api/venues/${hallId}`);
-    const bad = await marco.put(`/api/venues/${hallId}/technicians`).set('If-Match', tag(plan)).send({ userIds: [sam.id, nina.id, other.directorId] });
+    const bad = await marco
+      .put(`/api/venues/${hallId}/technicians`)
+      .set('If-Match', tag(plan))
+      .send({ userIds: [sam.id, nina.id, other.directorId] });
     expect(bad.status).toBe(422);
     expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(['userIds.1', 'userIds.2']);
-    expect((await marco.put(`/api/venues/${hallId}/technicians`).set('If-Match', tag(plan)).send({ userIds: ['x'] })).status).toBe(422);
+    expect(
+      (
+        await marco
+          .put(`/api/venues/${hallId}/technicians`)
+          .set('If-Match', tag(plan))
+          .send({ userIds: ['x'] })
+      ).status,
+    ).toBe(422);
 
-    plan = await marco.put(`/api/venues/${hallId}/technicians`).set('If-Match', tag(plan)).send({ userIds: [sam.id, lee.id] });
+    plan = await marco
+      .put(`/api/venues/${hallId}/technicians`)
+      .set('If-Match', tag(plan))
+      .send({ userIds: [sam.id, lee.id] });
     expect(plan.status).toBe(200);
     expect((plan.body as Plan).technicians.map((x) => x.name)).toEqual(['Lee Varga', 'Sam Reyes']);
     const leeAgent = await t.agentFor(DEMO.annexTechnician);
     expect((await leeAgent.get(`/api/venues/${hallId}`)).status).toBe(200);
     // Put it back as the demo had it.
-    await marco.put(`/api/venues/${hallId}/technicians`).set('If-Match', tag(plan)).send({ userIds: [sam.id] });
+    await marco
+      .put(`/api/venues/${hallId}/technicians`)
+      .set('If-Match', tag(plan))
+      .send({ userIds: [sam.id] });
     expect((await leeAgent.get(`/api/venues/${hallId}`)).status).toBe(403);
   });
 });
@@ -342,21 +440,45 @@ describe('PATCH /api/venues/:id with technicianIds (the venue form saves once)',
     const sam = t.db.select().from(s.users).where(eq(s.users.email, DEMO.technician)).get()!;
     const nina = t.db.select().from(s.users).where(eq(s.users.email, DEMO.organiser)).get()!;
     let plan = await marco.get(`/api/venues/${venue.venue.id}`);
-    const bad = await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ name: 'Renamed hall', technicianIds: [sam.id, nina.id] });
+    const bad = await marco
+      .patch(`/api/venues/${venue.venue.id}`)
+      .set('If-Match', tag(plan))
+      .send({ name: 'Renamed hall', technicianIds: [sam.id, nina.id] });
     expect(bad.status).toBe(422);
     expect(bad.body.errors).toEqual([{ path: 'technicianIds.1', message: 'Not an active technician of your organisation.' }]);
     const unchanged = (await marco.get(`/api/venues/${venue.venue.id}`)).body as Plan;
     expect(unchanged.venue).toMatchObject({ name: 'One-save hall', version: venue.venue.version });
     expect(unchanged.technicians).toEqual([]);
 
-    plan = await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ name: 'Renamed hall', technicianIds: [sam.id] });
+    plan = await marco
+      .patch(`/api/venues/${venue.venue.id}`)
+      .set('If-Match', tag(plan))
+      .send({ name: 'Renamed hall', technicianIds: [sam.id] });
     expect(plan.status).toBe(200);
-    expect(plan.body).toMatchObject({ venue: { name: 'Renamed hall', version: venue.venue.version + 1 }, technicians: [{ name: 'Sam Reyes' }] });
-    const actions = t.db.select().from(s.auditLog).all().filter((a) => a.entityId === venue.venue.id).map((a) => a.action);
+    expect(plan.body).toMatchObject({
+      venue: { name: 'Renamed hall', version: venue.venue.version + 1 },
+      technicians: [{ name: 'Sam Reyes' }],
+    });
+    const actions = t.db
+      .select()
+      .from(s.auditLog)
+      .all()
+      .filter((a) => a.entityId === venue.venue.id)
+      .map((a) => a.action);
     expect(actions).toEqual(expect.arrayContaining(['venue.updated', 'venue.technicians-set']));
     // The same technicians again write nothing to the trail.
-    await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ technicianIds: [sam.id] }).expect(200);
-    expect(t.db.select().from(s.auditLog).all().filter((a) => a.entityId === venue.venue.id && a.action === 'venue.technicians-set')).toHaveLength(1);
+    await marco
+      .patch(`/api/venues/${venue.venue.id}`)
+      .set('If-Match', tag(plan))
+      .send({ technicianIds: [sam.id] })
+      .expect(200);
+    expect(
+      t.db
+        .select()
+        .from(s.auditLog)
+        .all()
+        .filter((a) => a.entityId === venue.venue.id && a.action === 'venue.technicians-set'),
+    ).toHaveLength(1);
   });
 });
 
@@ -365,7 +487,10 @@ describe('checklist steps', () => {
     const marco = await t.agentFor(DEMO.director);
     let plan = await marco.get(`/api/venues/${hallId}`);
     const position = (plan.body as Plan).strips[0].positions[1];
-    plan = await marco.post(`/api/positions/${position.id}/steps`).set('If-Match', tag(plan)).send({ testKind: 'loop', conductors: 'A-C', required: false });
+    plan = await marco
+      .post(`/api/positions/${position.id}/steps`)
+      .set('If-Match', tag(plan))
+      .send({ testKind: 'loop', conductors: 'A-C', required: false });
     expect(plan.status).toBe(201);
     const added = (plan.body as Plan).strips[0].positions[1].steps.at(-1)!;
     expect(added).toMatchObject({ testKind: 'loop', conductors: 'A-C', addedByDirector: true });
@@ -386,25 +511,38 @@ describe('checklist steps', () => {
     const marco = await t.agentFor(DEMO.director);
     const plan = await marco.get(`/api/venues/${hallId}`);
     const position = (plan.body as Plan).strips[1].positions[1];
-    const noRule = await marco.post(`/api/positions/${position.id}/steps`).set('If-Match', tag(plan)).send({ testKind: 'piste-earth', conductors: 'piste-C' });
+    const noRule = await marco
+      .post(`/api/positions/${position.id}/steps`)
+      .set('If-Match', tag(plan))
+      .send({ testKind: 'piste-earth', conductors: 'piste-C' });
     expect(noRule.status).toBe(422);
     expect(noRule.body.errors[0].path).toBe('testKind');
-    const conductors = await marco.post(`/api/positions/${position.id}/steps`).set('If-Match', tag(plan)).send({ testKind: 'insulation', conductors: 'A' });
+    const conductors = await marco
+      .post(`/api/positions/${position.id}/steps`)
+      .set('If-Match', tag(plan))
+      .send({ testKind: 'insulation', conductors: 'A' });
     expect(conductors.status).toBe(422);
     expect(conductors.body.errors[0].path).toBe('conductors');
-    expect((await marco.post(`/api/positions/${position.id}/steps`).set('If-Match', tag(plan)).send({ testKind: 'continuity', conductors: 'A' })).status).toBe(409);
+    expect(
+      (await marco.post(`/api/positions/${position.id}/steps`).set('If-Match', tag(plan)).send({ testKind: 'continuity', conductors: 'A' }))
+        .status,
+    ).toBe(409);
   });
 });
 
 describe('cloning a venue', () => {
   test('a clone copies strips, positions, items and steps but no readings; technicians only when asked', async () => {
     const marco = await t.agentFor(DEMO.director);
-    const res = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Annex again', profileId, cloneFromVenueId: annexId, copyTechnicians: true });
+    const res = await marco
+      .post(`/api/events/${eventId}/venues`)
+      .send({ name: 'Annex again', profileId, cloneFromVenueId: annexId, copyTechnicians: true });
     expect(res.status).toBe(201);
     const clone = res.body as Plan;
     const source = (await marco.get(`/api/venues/${annexId}`)).body as Plan;
     expect(clone.strips.map((x) => x.label)).toEqual(source.strips.map((x) => x.label));
-    expect(clone.strips[0].positions.map((p) => [p.name, p.equipment?.assetTag])).toEqual(source.strips[0].positions.map((p) => [p.name, p.equipment?.assetTag]));
+    expect(clone.strips[0].positions.map((p) => [p.name, p.equipment?.assetTag])).toEqual(
+      source.strips[0].positions.map((p) => [p.name, p.equipment?.assetTag]),
+    );
     const activeSteps = (p: Plan) => p.strips.flatMap((x) => x.positions.flatMap((q) => q.steps.filter((st) => !st.removedAt))).length;
     expect(activeSteps(clone)).toBe(activeSteps(source));
     expect(clone.technicians.map((x) => x.name)).toEqual(['Lee Varga']);
@@ -417,14 +555,16 @@ describe('cloning a venue', () => {
     expect(noTechs.body.technicians).toEqual([]);
   });
 
-  test('a venue\'s time zone: Europe/London unless given; a clone takes its source\'s; an unknown name is 422 and nothing is made', async () => {
+  test("a venue's time zone: Europe/London unless given; a clone takes its source's; an unknown name is 422 and nothing is made", async () => {
     const marco = await t.agentFor(DEMO.director);
     const plain = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone default', profileId });
     expect(plain.status).toBe(201);
     expect(plain.body.venue.timeZone).toBe('Europe/London');
     const given = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone given', profileId, timeZone: 'america/new_york' });
     expect(given.body.venue.timeZone).toBe('America/New_York');
-    const clone = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone clone', profileId, cloneFromVenueId: given.body.venue.id });
+    const clone = await marco
+      .post(`/api/events/${eventId}/venues`)
+      .send({ name: 'Zone clone', profileId, cloneFromVenueId: given.body.venue.id });
     expect(clone.body.venue.timeZone).toBe('America/New_York');
     const venuesBefore = t.sqlite.prepare('select count(*) as n from venues').get() as { n: number };
     const bad = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Zone bad', profileId, timeZone: 'Atlantis/Central' });
@@ -435,7 +575,9 @@ describe('cloning a venue', () => {
 
   test('cloning another organisation’s venue is 404; using its profile is 422', async () => {
     const marco = await t.agentFor(DEMO.director);
-    expect((await marco.post(`/api/events/${eventId}/venues`).send({ name: 'X', profileId, cloneFromVenueId: other.venueId })).status).toBe(404);
+    expect((await marco.post(`/api/events/${eventId}/venues`).send({ name: 'X', profileId, cloneFromVenueId: other.venueId })).status).toBe(
+      404,
+    );
     const res = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'X', profileId: other.profileId });
     expect(res.status).toBe(422);
     expect(res.body.errors[0].path).toBe('profileId');
@@ -449,13 +591,20 @@ describe('a plan change on a signed-off venue', () => {
     const director = t.db.select().from(s.users).where(eq(s.users.email, DEMO.director)).get()!;
     t.db.update(s.venues).set({ status: 'signed-off' }).where(eq(s.venues.id, venue.venue.id)).run();
     const signOffId = crypto.randomUUID();
-    t.db.insert(s.signOffs).values({ id: signOffId, venueId: venue.venue.id, signedBy: director.id, statement: 'All clear', readingsDigest: 'x' }).run();
+    t.db
+      .insert(s.signOffs)
+      .values({ id: signOffId, venueId: venue.venue.id, signedBy: director.id, statement: 'All clear', readingsDigest: 'x' })
+      .run();
     const plan = await marco.get(`/api/venues/${venue.venue.id}`);
     const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', tag(plan)).send({ count: 1 });
     expect(res.status).toBe(201);
     expect(res.body.venue.status).toBe('testing');
     expect(t.db.select().from(s.signOffs).where(eq(s.signOffs.id, signOffId)).get()!.status).toBe('superseded');
-    const reopened = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.entityId, venue.venue.id), eq(s.auditLog.action, 'venue.reopened'))).all();
+    const reopened = t.db
+      .select()
+      .from(s.auditLog)
+      .where(and(eq(s.auditLog.entityId, venue.venue.id), eq(s.auditLog.action, 'venue.reopened')))
+      .all();
     expect(reopened).toHaveLength(1);
   });
 });
@@ -468,13 +617,20 @@ describe('changing the venue’s limit profile', () => {
     const floorSteps = (p: Plan) => p.strips[0].positions[1].steps.filter((x) => !x.removedAt).map((x) => x.testKind);
     expect(floorSteps(plan.body)).toContain('loop');
     const copy = await marco.post(`/api/profiles/${profileId}/copy`).send({ name: 'No loops' });
-    const noLoops = await marco.put(`/api/profiles/${copy.body.id}`).set('If-Match', '"1"').send({ rules: copy.body.rules, loopRequired: [] });
+    const noLoops = await marco
+      .put(`/api/profiles/${copy.body.id}`)
+      .set('If-Match', '"1"')
+      .send({ rules: copy.body.rules, loopRequired: [] });
     expect(noLoops.status).toBe(201);
     plan = await marco.patch(`/api/venues/${venue.venue.id}`).set('If-Match', tag(plan)).send({ profileId: noLoops.body.id });
     expect(plan.status).toBe(200);
     expect(plan.body.profile).toMatchObject({ id: noLoops.body.id, version: 2 });
     expect(floorSteps(plan.body)).not.toContain('loop');
-    const remaining = t.db.select().from(s.steps).where(and(eq(s.steps.testKind, 'loop'), isNull(s.steps.removedAt))).all();
+    const remaining = t.db
+      .select()
+      .from(s.steps)
+      .where(and(eq(s.steps.testKind, 'loop'), isNull(s.steps.removedAt)))
+      .all();
     expect(remaining.length).toBeGreaterThan(0); // other venues keep theirs
   });
 });
@@ -484,7 +640,10 @@ describe('POST /api/strips/:id/positions', () => {
   async function twoStrips(name: string) {
     const marco = await t.agentFor(DEMO.director);
     const venue = await newVenue(name);
-    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 2 });
+    const res = await marco
+      .post(`/api/venues/${venue.venue.id}/strips/bulk`)
+      .set('If-Match', `"${venue.venue.version}"`)
+      .send({ count: 2 });
     expect(res.status).toBe(201);
     return { marco, res, plan: res.body as Plan };
   }
@@ -493,7 +652,10 @@ describe('POST /api/strips/:id/positions', () => {
   test('when a director adds a spare reel, then it goes last with the reel’s steps, the version moves on and it is audited', async () => {
     const { marco, res, plan } = await twoStrips('Position Hall');
     const strip = plan.strips[0];
-    const added = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: '  Spare reel ', equipmentKind: 'reel' });
+    const added = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: '  Spare reel ', equipmentKind: 'reel' });
     expect(added.status).toBe(201);
     const after = added.body as Plan;
     expect(after.venue.version).toBe(plan.venue.version + 1);
@@ -512,21 +674,36 @@ describe('POST /api/strips/:id/positions', () => {
     // The technician's strip view asks for the new steps too.
     const view = (await marco.get(`/api/strips/${strip.id}`)).body as { positions: { name: string; steps: unknown[] }[] };
     expect(view.positions.find((p) => p.name === 'Spare reel')?.steps).toHaveLength(expected.length);
-    const audit = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.action, 'position.added'), eq(s.auditLog.entityId, spare.id))).all();
+    const audit = t.db
+      .select()
+      .from(s.auditLog)
+      .where(and(eq(s.auditLog.action, 'position.added'), eq(s.auditLog.entityId, spare.id)))
+      .all();
     expect(audit).toHaveLength(1);
-    expect(JSON.parse(audit[0].detailJson)).toMatchObject({ venueId: plan.venue.id, position: 'Spare reel', equipmentKind: 'reel', assetTag: null });
+    expect(JSON.parse(audit[0].detailJson)).toMatchObject({
+      venueId: plan.venue.id,
+      position: 'Spare reel',
+      equipmentKind: 'reel',
+      assetTag: null,
+    });
   });
 
   test('when the name is already on the strip (other case, spaces), then 409 naming the field, and nothing is added', async () => {
     const { marco, res, plan } = await twoStrips('Duplicate Position Hall');
     const strip = plan.strips[0];
-    const dup = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: ' left REEL ', equipmentKind: 'reel' });
+    const dup = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: ' left REEL ', equipmentKind: 'reel' });
     expect(dup.status).toBe(409);
     expect(dup.body.code).toBe('duplicate-position-name');
     expect(dup.body.errors[0].path).toBe('name');
     expect(dup.body.detail).toContain('Left reel');
     // The same name on another strip is fine.
-    const other = await marco.post(`/api/strips/${plan.strips[1].id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    const other = await marco
+      .post(`/api/strips/${plan.strips[1].id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: 'Spare reel', equipmentKind: 'reel' });
     expect(other.status).toBe(201);
     const now = (await marco.get(`/api/venues/${plan.venue.id}`)).body as Plan;
     expect(stripOf(now, strip.id).positions).toHaveLength(strip.positions.length);
@@ -534,7 +711,10 @@ describe('POST /api/strips/:id/positions', () => {
 
   test('when the kind is not one we know or the name is empty, then 422 names the fields', async () => {
     const { marco, res, plan } = await twoStrips('Bad Kind Hall');
-    const bad = await marco.post(`/api/strips/${plan.strips[0].id}/positions`).set('If-Match', tag(res)).send({ name: '', equipmentKind: 'lamp' });
+    const bad = await marco
+      .post(`/api/strips/${plan.strips[0].id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: '', equipmentKind: 'lamp' });
     expect(bad.status).toBe(422);
     expect(bad.body.errors.map((e: { path: string }) => e.path)).toEqual(expect.arrayContaining(['name', 'equipmentKind']));
     expect(tag(await marco.get(`/api/venues/${plan.venue.id}`))).toBe(tag(res));
@@ -547,7 +727,10 @@ describe('POST /api/strips/:id/positions', () => {
     expect(missing.status).toBe(428);
     const moved = await marco.patch(`/api/strips/${strip.id}`).set('If-Match', tag(res)).send({ zone: 'Gallery' });
     expect(moved.status).toBe(200);
-    const stale = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    const stale = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: 'Spare reel', equipmentKind: 'reel' });
     expect(stale.status).toBe(412);
     expect(stale.body).toMatchObject({ currentVersion: moved.body.venue.version, yourVersion: plan.venue.version });
     const now = (await marco.get(`/api/venues/${plan.venue.id}`)).body as Plan;
@@ -577,21 +760,37 @@ describe('POST /api/strips/:id/positions', () => {
     const strip = plan.strips[0];
     const created = await marco.post('/api/equipment').send({ assetTag: 'RL-900', kind: 'reel', lengthM: 20 });
     expect(created.status).toBe(201);
-    const kind = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'FC-001' });
+    const kind = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'FC-001' });
     expect(kind.status).toBe(422);
     expect(kind.body.errors[0].path).toBe('assetTag');
     expect(kind.body.detail).toMatch(/FC-001 is a floor cable, but Spare reel takes a reel/);
     // RL-001 sits on Strip 1 of the Sports Hall; the item in use is judged per venue, so use ours.
-    await marco.put(`/api/positions/${strip.positions.find((p) => p.name === 'Left reel')!.id}/equipment`).set('If-Match', tag(res)).send({ assetTag: 'RL-900' }).expect(200);
+    await marco
+      .put(`/api/positions/${strip.positions.find((p) => p.name === 'Left reel')!.id}/equipment`)
+      .set('If-Match', tag(res))
+      .send({ assetTag: 'RL-900' })
+      .expect(200);
     const afterAttach = await marco.get(`/api/venues/${plan.venue.id}`);
-    const busy = await marco.post(`/api/strips/${plan.strips[1].id}/positions`).set('If-Match', tag(afterAttach)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'rl-900' });
+    const busy = await marco
+      .post(`/api/strips/${plan.strips[1].id}/positions`)
+      .set('If-Match', tag(afterAttach))
+      .send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'rl-900' });
     expect(busy.status).toBe(409);
     expect(busy.body.code).toBe('item-in-use');
     expect(busy.body.errors[0].path).toBe('assetTag');
     expect(tag(await marco.get(`/api/venues/${plan.venue.id}`))).toBe(tag(afterAttach));
     // Take it off the left reel, then add the spare with it.
-    const off = await marco.put(`/api/positions/${strip.positions.find((p) => p.name === 'Left reel')!.id}/equipment`).set('If-Match', tag(afterAttach)).send({ assetTag: null });
-    const added = await marco.post(`/api/strips/${plan.strips[1].id}/positions`).set('If-Match', tag(off)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'rl-900' });
+    const off = await marco
+      .put(`/api/positions/${strip.positions.find((p) => p.name === 'Left reel')!.id}/equipment`)
+      .set('If-Match', tag(afterAttach))
+      .send({ assetTag: null });
+    const added = await marco
+      .post(`/api/strips/${plan.strips[1].id}/positions`)
+      .set('If-Match', tag(off))
+      .send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'rl-900' });
     expect(added.status).toBe(201);
     const spare = stripOf(added.body as Plan, plan.strips[1].id).positions.find((p) => p.name === 'Spare reel')!;
     expect(spare.equipment?.assetTag).toBe('RL-900');
@@ -604,8 +803,14 @@ describe('POST /api/strips/:id/positions', () => {
   test('on a withdrawn strip it is 409', async () => {
     const { marco, res, plan } = await twoStrips('Withdrawn Position Hall');
     const strip = plan.strips[0];
-    const withdrawn = await marco.post(`/api/strips/${strip.id}/withdraw`).set('If-Match', tag(res)).send({ reason: 'Not used this event' });
-    const refused = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(withdrawn)).send({ name: 'Spare reel', equipmentKind: 'reel' });
+    const withdrawn = await marco
+      .post(`/api/strips/${strip.id}/withdraw`)
+      .set('If-Match', tag(res))
+      .send({ reason: 'Not used this event' });
+    const refused = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag(withdrawn))
+      .send({ name: 'Spare reel', equipmentKind: 'reel' });
     expect(refused.status).toBe(409);
     expect(refused.body.code).toBe('strip-withdrawn');
     expect(tag(await marco.get(`/api/venues/${plan.venue.id}`))).toBe(tag(withdrawn));
@@ -616,9 +821,15 @@ describe('DELETE /api/positions/:id', () => {
   test('when a position was never tested, then it goes with its steps and its item’s placement, and it is audited', async () => {
     const marco = await t.agentFor(DEMO.director);
     const venue = await newVenue('Removal Hall');
-    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 1 });
+    const res = await marco
+      .post(`/api/venues/${venue.venue.id}/strips/bulk`)
+      .set('If-Match', `"${venue.venue.version}"`)
+      .send({ count: 1 });
     await marco.post('/api/equipment').send({ assetTag: 'RL-901', kind: 'reel', lengthM: 20 }).expect(201);
-    const added = await marco.post(`/api/strips/${res.body.strips[0].id}/positions`).set('If-Match', tag(res)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'RL-901' });
+    const added = await marco
+      .post(`/api/strips/${res.body.strips[0].id}/positions`)
+      .set('If-Match', tag(res))
+      .send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'RL-901' });
     expect(added.status).toBe(201);
     const spare = (added.body as Plan).strips[0].positions.find((p) => p.name === 'Spare reel')!;
     expect(t.db.select().from(s.steps).where(eq(s.steps.positionId, spare.id)).all().length).toBeGreaterThan(0);
@@ -631,11 +842,22 @@ describe('DELETE /api/positions/:id', () => {
     expect(t.db.select().from(s.steps).where(eq(s.steps.positionId, spare.id)).all()).toEqual([]);
     expect(t.db.select().from(s.positions).where(eq(s.positions.id, spare.id)).all()).toEqual([]);
     expect(t.db.select().from(s.positionAssignments).where(eq(s.positionAssignments.positionId, spare.id)).all()).toEqual([]);
-    const audit = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.action, 'position.removed'), eq(s.auditLog.entityId, spare.id))).all();
+    const audit = t.db
+      .select()
+      .from(s.auditLog)
+      .where(and(eq(s.auditLog.action, 'position.removed'), eq(s.auditLog.entityId, spare.id)))
+      .all();
     expect(audit).toHaveLength(1);
-    expect(JSON.parse(audit[0].detailJson)).toMatchObject({ position: 'Spare reel', assetTag: 'RL-901', placements: [expect.objectContaining({ assetTag: 'RL-901' })] });
+    expect(JSON.parse(audit[0].detailJson)).toMatchObject({
+      position: 'Spare reel',
+      assetTag: 'RL-901',
+      placements: [expect.objectContaining({ assetTag: 'RL-901' })],
+    });
     // The item is free again, and the position is gone for good.
-    const again = await marco.post(`/api/strips/${res.body.strips[0].id}/positions`).set('If-Match', tag(removed)).send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'RL-901' });
+    const again = await marco
+      .post(`/api/strips/${res.body.strips[0].id}/positions`)
+      .set('If-Match', tag(removed))
+      .send({ name: 'Spare reel', equipmentKind: 'reel', assetTag: 'RL-901' });
     expect(again.status).toBe(201);
     expect((await marco.delete(`/api/positions/${spare.id}`).set('If-Match', tag(again))).status).toBe(404);
   });
@@ -645,7 +867,12 @@ describe('DELETE /api/positions/:id', () => {
     const plan = await marco.get(`/api/venues/${hallId}`);
     const position = (plan.body as Plan).strips.find((x) => x.label === 'Strip 4')!.positions.find((p) => p.name === 'Right reel')!;
     expect(position.tested).toBe(true);
-    const readingsBefore = t.db.select().from(s.readings).innerJoin(s.steps, eq(s.readings.stepId, s.steps.id)).where(eq(s.steps.positionId, position.id)).all().length;
+    const readingsBefore = t.db
+      .select()
+      .from(s.readings)
+      .innerJoin(s.steps, eq(s.readings.stepId, s.steps.id))
+      .where(eq(s.steps.positionId, position.id))
+      .all().length;
     expect(readingsBefore).toBeGreaterThan(0);
     const refused = await marco.delete(`/api/positions/${position.id}`).set('If-Match', tag(plan));
     expect(refused.status).toBe(409);
@@ -656,14 +883,25 @@ describe('DELETE /api/positions/:id', () => {
     expect(tag(now)).toBe(tag(plan));
     const still = (now.body as Plan).strips.find((x) => x.label === 'Strip 4')!.positions.find((p) => p.id === position.id)!;
     expect(still.steps).toEqual(position.steps);
-    expect(t.db.select().from(s.readings).innerJoin(s.steps, eq(s.readings.stepId, s.steps.id)).where(eq(s.steps.positionId, position.id)).all()).toHaveLength(readingsBefore);
-    expect(t.db.select().from(s.auditLog).where(and(eq(s.auditLog.action, 'position.removed'), eq(s.auditLog.entityId, position.id))).all()).toEqual([]);
+    expect(
+      t.db.select().from(s.readings).innerJoin(s.steps, eq(s.readings.stepId, s.steps.id)).where(eq(s.steps.positionId, position.id)).all(),
+    ).toHaveLength(readingsBefore);
+    expect(
+      t.db
+        .select()
+        .from(s.auditLog)
+        .where(and(eq(s.auditLog.action, 'position.removed'), eq(s.auditLog.entityId, position.id)))
+        .all(),
+    ).toEqual([]);
   });
 
   test('when a fault was recorded against an untested position, then it is refused the same way', async () => {
     const marco = await t.agentFor(DEMO.director);
     const venue = await newVenue('Fault Removal Hall');
-    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 1 });
+    const res = await marco
+      .post(`/api/venues/${venue.venue.id}/strips/bulk`)
+      .set('If-Match', `"${venue.venue.version}"`)
+      .send({ count: 1 });
     const cable = (res.body as Plan).strips[0].positions.find((p) => p.name === 'Left floor cable')!;
     expect(cable.tested).toBe(false);
     await marco.post('/api/faults').send({ positionId: cable.id, kind: 'intermittent', conductors: 'B' }).expect(201);
@@ -678,7 +916,10 @@ describe('DELETE /api/positions/:id', () => {
   test('without If-Match 428, with an old one 412; a technician 403, another organisation’s director 404', async () => {
     const marco = await t.agentFor(DEMO.director);
     const venue = await newVenue('Guarded Removal Hall');
-    const res = await marco.post(`/api/venues/${venue.venue.id}/strips/bulk`).set('If-Match', `"${venue.venue.version}"`).send({ count: 1 });
+    const res = await marco
+      .post(`/api/venues/${venue.venue.id}/strips/bulk`)
+      .set('If-Match', `"${venue.venue.version}"`)
+      .send({ count: 1 });
     const reel = (res.body as Plan).strips[0].positions.find((p) => p.name === 'Right reel')!;
     expect((await marco.delete(`/api/positions/${reel.id}`)).status).toBe(428);
     expect((await marco.delete(`/api/positions/${reel.id}`).set('If-Match', `"${venue.venue.version}"`)).status).toBe(412);
@@ -701,14 +942,28 @@ describe('adding a position to a signed-off venue', () => {
     const plan = await marco.get(`/api/venues/${annexId}`);
     expect(plan.body.venue.status).toBe('signed-off');
     const strip = (plan.body as Plan).strips[0];
-    const res = await marco.post(`/api/strips/${strip.id}/positions`).set('If-Match', tag(plan)).send({ name: 'Second apparatus', equipmentKind: 'apparatus' });
+    const res = await marco
+      .post(`/api/strips/${strip.id}/positions`)
+      .set('If-Match', tag(plan))
+      .send({ name: 'Second apparatus', equipmentKind: 'apparatus' });
     expect(res.status).toBe(201);
     expect(res.body.venue.status).toBe('testing');
-    expect(t.db.select().from(s.signOffs).where(eq(s.signOffs.venueId, annexId)).all().map((x) => x.status)).toEqual(['superseded']);
+    expect(
+      t.db
+        .select()
+        .from(s.signOffs)
+        .where(eq(s.signOffs.venueId, annexId))
+        .all()
+        .map((x) => x.status),
+    ).toEqual(['superseded']);
     const certs = t.db.select().from(s.certificates).where(eq(s.certificates.venueId, annexId)).all();
     expect(certs.length).toBeGreaterThan(0);
     expect(certs.every((c) => c.status === 'superseded')).toBe(true);
-    const reopened = t.db.select().from(s.auditLog).where(and(eq(s.auditLog.entityId, annexId), eq(s.auditLog.action, 'venue.reopened'))).all();
+    const reopened = t.db
+      .select()
+      .from(s.auditLog)
+      .where(and(eq(s.auditLog.entityId, annexId), eq(s.auditLog.action, 'venue.reopened')))
+      .all();
     expect(JSON.parse(reopened.at(-1)!.detailJson).reason).toContain('Second apparatus');
   });
 });

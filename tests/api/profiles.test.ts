@@ -18,7 +18,14 @@ beforeAll(async () => {
 });
 afterAll(() => t.close());
 
-type Profile = { id: string; lineageId: string; name: string; version: number; rules: LimitRule[]; versions: { id: string; version: number }[] };
+type Profile = {
+  id: string;
+  lineageId: string;
+  name: string;
+  version: number;
+  rules: LimitRule[];
+  versions: { id: string; version: number }[];
+};
 
 describe('GET /api/profiles', () => {
   test('everyone signed in reads the library: the latest version of each profile with its sources and house-rule marks', async () => {
@@ -28,7 +35,10 @@ describe('GET /api/profiles', () => {
     const [p] = res.body as (Profile & { houseRuleCount: number })[];
     expect(p).toMatchObject({ name: 'Competition default', version: 1, versions: [{ id: defaultId, version: 1 }] });
     expect(p.houseRuleCount).toBeGreaterThan(0);
-    expect(p.rules.find((r) => r.id === 'floor-cable.continuity')).toMatchObject({ source: 'FIE Material Rules, art. m.55.5', houseRule: false });
+    expect(p.rules.find((r) => r.id === 'floor-cable.continuity')).toMatchObject({
+      source: 'FIE Material Rules, art. m.55.5',
+      houseRule: false,
+    });
     expect((await t.request.get('/api/profiles')).status).toBe(401);
   });
 
@@ -67,7 +77,9 @@ describe('PUT /api/profiles/:id', () => {
   test('an edit creates version 2 in the same lineage; version 1 stays as it was', async () => {
     const marco = await t.agentFor(DEMO.director);
     const copy = (await marco.post(`/api/profiles/${defaultId}/copy`).send({ name: 'Strict reels' })).body as Profile;
-    const rules = copy.rules.map((r) => (r.id === 'reel.continuity' ? { ...r, maxOhm: 2.5, source: 'House rule: strict reels', houseRule: true } : r));
+    const rules = copy.rules.map((r) =>
+      r.id === 'reel.continuity' ? { ...r, maxOhm: 2.5, source: 'House rule: strict reels', houseRule: true } : r,
+    );
     const res = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"1"').send({ rules, notes: 'Reels to 2.5 Ω' });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ lineageId: copy.lineageId, version: 2, name: 'Strict reels', notes: 'Reels to 2.5 Ω' });
@@ -82,7 +94,9 @@ describe('PUT /api/profiles/:id', () => {
   test('a stale If-Match is 412 and adds no version; a missing one is 428', async () => {
     const marco = await t.agentFor(DEMO.director);
     const copy = (await marco.post(`/api/profiles/${defaultId}/copy`).send({ name: 'Race' })).body as Profile;
-    expect((await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"1"').send({ rules: copy.rules, name: 'Race A' })).status).toBe(201);
+    expect((await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"1"').send({ rules: copy.rules, name: 'Race A' })).status).toBe(
+      201,
+    );
     const stale = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"1"').send({ rules: copy.rules, name: 'Race B' });
     expect(stale.status).toBe(412);
     expect(stale.body.detail).toMatch(/meanwhile/);
@@ -102,14 +116,23 @@ describe('PUT /api/profiles/:id', () => {
     expect((await marco.put(`/api/profiles/${defaultId}`).set('If-Match', '"1"').send({ rules: [] })).status).toBe(422);
     const sam = await t.agentFor(DEMO.technician);
     expect((await sam.put(`/api/profiles/${defaultId}`).set('If-Match', '"1"').send({ rules: bad })).status).toBe(403);
-    expect((await marco.put(`/api/profiles/${other.profileId}`).set('If-Match', '"1"').send({ name: 'x', rules: (await marco.get(`/api/profiles/${defaultId}`)).body.rules })).status).toBe(404);
+    expect(
+      (
+        await marco
+          .put(`/api/profiles/${other.profileId}`)
+          .set('If-Match', '"1"')
+          .send({ name: 'x', rules: (await marco.get(`/api/profiles/${defaultId}`)).body.rules })
+      ).status,
+    ).toBe(404);
   });
 });
 
 describe('the cable-temperature setting of a profile', () => {
   test('judged as measured by default; a new version that corrects to 20 °C (a house rule) passes the warm cable the first one failed', async () => {
     const marco = await t.agentFor(DEMO.director);
-    const copy = (await marco.post(`/api/profiles/${defaultId}/copy`).send({ name: 'Warm hall' })).body as Profile & { temperatureReferenceC: number | null };
+    const copy = (await marco.post(`/api/profiles/${defaultId}/copy`).send({ name: 'Warm hall' })).body as Profile & {
+      temperatureReferenceC: number | null;
+    };
     expect(copy.temperatureReferenceC).toBeNull();
     let plan = await marco.post(`/api/events/${eventId}/venues`).send({ name: 'Warm Hall', profileId: copy.id });
     plan = await marco.post(`/api/venues/${plan.body.venue.id}/strips/bulk`).set('If-Match', plan.headers.etag).send({ count: 1 });
@@ -118,16 +141,22 @@ describe('the cable-temperature setting of a profile', () => {
     const [stepA, stepB] = cable.steps as { id: string }[];
 
     // FIE Material Rules, art. m.55.5: ≤ 2.5 Ω per wire. 2.55 Ω at 35 °C, as measured, is over it.
-    const asMeasured = await marco.post('/api/readings').send({ id: crypto.randomUUID(), stepId: stepA.id, value: '2.55', temperatureC: 35 });
+    const asMeasured = await marco
+      .post('/api/readings')
+      .send({ id: crypto.randomUUID(), stepId: stepA.id, value: '2.55', temperatureC: 35 });
     expect(asMeasured.body).toMatchObject({ verdict: 'fail', profileVersion: 1 });
     expect(asMeasured.body.explanation).toMatch(/judged as measured/);
 
     const v2 = await marco.put(`/api/profiles/${copy.id}`).set('If-Match', '"1"').send({ rules: copy.rules, temperatureReferenceC: 20 });
     expect(v2.status).toBe(201);
     expect(v2.body).toMatchObject({ version: 2, temperatureReferenceC: 20 });
-    expect((await marco.patch(`/api/venues/${venueId}`).set('If-Match', plan.headers.etag).send({ profileId: v2.body.id })).status).toBe(200);
+    expect((await marco.patch(`/api/venues/${venueId}`).set('If-Match', plan.headers.etag).send({ profileId: v2.body.id })).status).toBe(
+      200,
+    );
     // IEC 60228 Annex B: 2.55 Ω × 254.5 / 269.5 = 2.408 Ω at 20 °C, within the limit but above 90 % of it.
-    const corrected = await marco.post('/api/readings').send({ id: crypto.randomUUID(), stepId: stepB.id, value: '2.55', temperatureC: 35 });
+    const corrected = await marco
+      .post('/api/readings')
+      .send({ id: crypto.randomUUID(), stepId: stepB.id, value: '2.55', temperatureC: 35 });
     expect(corrected.body).toMatchObject({ verdict: 'near-limit', profileVersion: 2 });
     expect(corrected.body.explanation).toMatch(/2\.408 Ω corrected to 20 °C \(house rule/);
 
@@ -163,8 +192,19 @@ describe('readings keep the version they were checked with', () => {
     const second = await marco.post('/api/readings').send({ id: crypto.randomUUID(), stepId: stepB.id, value: '2.8' });
     expect(second.body).toMatchObject({ verdict: 'fail', profileVersion: 2 });
 
-    const table = (await marco.get(`/api/venues/${venueId}/readings`)).body as { id: string; profileName: string; profileVersion: number; verdict: string; limitOhm: number }[];
-    expect(table.find((r) => r.id === first.body.id)).toMatchObject({ profileName: 'Versioned', profileVersion: 1, verdict: 'near-limit', limitOhm: 3 });
+    const table = (await marco.get(`/api/venues/${venueId}/readings`)).body as {
+      id: string;
+      profileName: string;
+      profileVersion: number;
+      verdict: string;
+      limitOhm: number;
+    }[];
+    expect(table.find((r) => r.id === first.body.id)).toMatchObject({
+      profileName: 'Versioned',
+      profileVersion: 1,
+      verdict: 'near-limit',
+      limitOhm: 3,
+    });
     expect(table.find((r) => r.id === second.body.id)).toMatchObject({ profileVersion: 2, verdict: 'fail', limitOhm: 2.5 });
   });
 });

@@ -115,21 +115,31 @@ describe('POST /api/readings/batch', () => {
     const { step } = stepOf(strip, 'Right reel', 'continuity', 'A');
     const typed = new Date(Date.now() - 40 * 60_000).toISOString();
     const monthOld = new Date(Date.now() - 30 * 24 * 3_600_000).toISOString();
-    const { results } = await batch(sam, [newReading(step.id, '0.7', { takenAt: typed }), newReading(step.id, '0.8', { takenAt: monthOld })]);
+    const { results } = await batch(sam, [
+      newReading(step.id, '0.7', { takenAt: typed }),
+      newReading(step.id, '0.8', { takenAt: monthOld }),
+    ]);
     expect(results[0].reading!.takenAt).toBe(typed);
     expect(results[1].reading!.takenAt).toBe(results[1].reading!.receivedAt);
-    const audit = t.sqlite.prepare("select detail_json from audit_log where entity_type = 'reading' and entity_id = ?").pluck().get(results[1].id) as string;
+    const audit = t.sqlite
+      .prepare("select detail_json from audit_log where entity_type = 'reading' and entity_id = ?")
+      .pluck()
+      .get(results[1].id) as string;
     expect(JSON.parse(audit)).toMatchObject({ tabletTakenAt: monthOld, tabletClock: 'too-old' });
   });
 
-  test('when a batch of 200 corrections with long reasons is over the API\'s usual 100 kB, then it is still taken', async () => {
+  test("when a batch of 200 corrections with long reasons is over the API's usual 100 kB, then it is still taken", async () => {
     const marco = await t.agentFor(DEMO.director);
     const big = await stripByLabel(t, hall, 'Strip 22');
     const all = big.positions.flatMap((p) => p.steps);
-    const firsts = Array.from({ length: 200 }, (_, i) => newReading(all[i % all.length].id, all[i % all.length].testKind === 'insulation' ? 'OL' : '0.5'));
+    const firsts = Array.from({ length: 200 }, (_, i) =>
+      newReading(all[i % all.length].id, all[i % all.length].testKind === 'insulation' ? 'OL' : '0.5'),
+    );
     expect((await batch(marco, firsts)).results.every((r) => r.status === 201)).toBe(true);
     const reason = 'Read again with fresh probes after cleaning the pins; the first value was taken through a dirty contact. ';
-    const corrections = firsts.map((f) => newReading(f.stepId, f.value, { supersedesId: f.id, correctionReason: reason.repeat(4).slice(0, 480) }));
+    const corrections = firsts.map((f) =>
+      newReading(f.stepId, f.value, { supersedesId: f.id, correctionReason: reason.repeat(4).slice(0, 480) }),
+    );
     expect(JSON.stringify({ readings: corrections }).length).toBeGreaterThan(100_000);
     const { res, results } = await batch(marco, corrections);
     expect(res.status).toBe(200);
@@ -140,7 +150,14 @@ describe('POST /api/readings/batch', () => {
     const sam = await t.agentFor(DEMO.technician);
     const stepId = strip.positions.flatMap((p) => p.steps)[0].id;
     const tooMany = Array.from({ length: 201 }, () => newReading(stepId, '0.5'));
-    for (const body of [{ readings: [] }, { readings: tooMany }, { readings: 'all of them' }, {}, [newReading(stepId, '0.5')], { readings: [newReading(stepId, '0.5')], extra: 1 }]) {
+    for (const body of [
+      { readings: [] },
+      { readings: tooMany },
+      { readings: 'all of them' },
+      {},
+      [newReading(stepId, '0.5')],
+      { readings: [newReading(stepId, '0.5')], extra: 1 },
+    ]) {
       const res = await sam.post('/api/readings/batch').send(body);
       expect(res.status, JSON.stringify(body).slice(0, 80)).toBe(422);
       expect(res.headers['content-type']).toMatch(/^application\/problem\+json/);
@@ -156,7 +173,14 @@ describe('POST /api/readings/batch', () => {
       expect((await agent.post('/api/readings/batch').send({ readings: [body] })).status).toBe(403);
       expect(stored(body.id)).toHaveLength(0);
     }
-    expect((await t.request.post('/api/readings/batch').set('Origin', ORIGIN).send({ readings: [newReading(stepId, '1.1')] })).status).toBe(401);
+    expect(
+      (
+        await t.request
+          .post('/api/readings/batch')
+          .set('Origin', ORIGIN)
+          .send({ readings: [newReading(stepId, '1.1')] })
+      ).status,
+    ).toBe(401);
     const marco = await t.agentFor(DEMO.director);
     expect((await batch(marco, [newReading(stepId, '1.1')])).results[0].status).toBe(201);
   });

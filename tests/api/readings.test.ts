@@ -28,7 +28,15 @@ describe('POST /api/readings', () => {
     const res = await sam.post('/api/readings').send(newReading(step.id, '2.6'));
     expect(res.status).toBe(201);
     // FIE Material Rules m.55.5: ≤ 2.5 Ω per wire (cables connecting reel to apparatus)
-    expect(res.body).toMatchObject({ stepId: step.id, valueOhm: 2.6, overRange: false, verdict: 'fail', limitOhm: 2.5, source: 'FIE Material Rules, art. m.55.5', profileVersion: 1 });
+    expect(res.body).toMatchObject({
+      stepId: step.id,
+      valueOhm: 2.6,
+      overRange: false,
+      verdict: 'fail',
+      limitOhm: 2.5,
+      source: 'FIE Material Rules, art. m.55.5',
+      profileVersion: 1,
+    });
     expect(res.body.explanation).toMatch(/over/);
     expect(res.body.takenBy).toBeTruthy();
     expect(res.body.takenAt).toMatch(/^\d{4}-\d\d-\d\dT/);
@@ -65,7 +73,14 @@ describe('POST /api/readings', () => {
     const sam = await t.agentFor(DEMO.technician);
     const ol = await sam.post('/api/readings').send(newReading(stepOf(strip, 'Right reel', 'insulation', 'A-C').step.id, 'OL'));
     // House rule (no published value; FIE m.29.1a/m.31.1a say "well insulated"): fail below 100 kΩ
-    expect(ol.body).toMatchObject({ verdict: 'pass', valueOhm: null, overRange: true, limitOhm: 100e3, limitKind: 'min', source: 'House rule (no published value)' });
+    expect(ol.body).toMatchObject({
+      verdict: 'pass',
+      valueOhm: null,
+      overRange: true,
+      limitOhm: 100e3,
+      limitKind: 'min',
+      source: 'House rule (no published value)',
+    });
     const low = await sam.post('/api/readings').send(newReading(stepOf(strip, 'Right reel', 'insulation', 'B-C').step.id, '400'));
     expect(low.body.verdict).toBe('fail');
     // FIE Material Rules, Annex B: a valid foil hit always registers below 500 Ω
@@ -127,7 +142,9 @@ describe('POST /api/readings', () => {
     const reading = newReading(stepId, '2,500');
     const res = await sam.post('/api/readings').send(reading);
     expect(res.status).toBe(422);
-    expect(res.body.errors).toEqual([expect.objectContaining({ path: 'value', message: expect.stringContaining('did you mean 2500 Ω or 2.500 Ω?') })]);
+    expect(res.body.errors).toEqual([
+      expect.objectContaining({ path: 'value', message: expect.stringContaining('did you mean 2500 Ω or 2.500 Ω?') }),
+    ]);
     expect(countReadings(reading.id)).toBe(0);
     const underflow = await sam.post('/api/readings').send(newReading(stepId, '1e-400'));
     expect(underflow.status).toBe(422);
@@ -139,7 +156,7 @@ describe('POST /api/readings', () => {
 
   test('when fields are missing or wrong, then it answers 422 naming them, never 500', async () => {
     const sam = await t.agentFor(DEMO.technician);
-    const res = await sam.post('/api/readings').send({ id: 'nope', value: '' , extra: 1});
+    const res = await sam.post('/api/readings').send({ id: 'nope', value: '', extra: 1 });
     expect(res.status).toBe(422);
     const paths = (res.body.errors as { path: string }[]).map((e) => e.path);
     expect(paths).toEqual(expect.arrayContaining(['id', 'stepId', 'value']));
@@ -193,7 +210,9 @@ describe('POST /api/readings — corrections', () => {
     const strip = await stripByLabel(t, hall, 'Strip 21');
     const { step } = stepOf(strip, 'Left floor cable', 'continuity', 'B');
     const first = await sam.post('/api/readings').send(newReading(step.id, '0.6'));
-    const fix = await sam.post('/api/readings').send(newReading(step.id, '0.65', { supersedesId: first.body.id, correctionReason: 'Misread the display' }));
+    const fix = await sam
+      .post('/api/readings')
+      .send(newReading(step.id, '0.65', { supersedesId: first.body.id, correctionReason: 'Misread the display' }));
     expect(fix.status).toBe(201);
     expect(fix.body).toMatchObject({ supersedesId: first.body.id, correctionReason: 'Misread the display', valueOhm: 0.65 });
     expect(countReadings(first.body.id)).toBe(1);
@@ -207,7 +226,9 @@ describe('POST /api/readings — corrections', () => {
     const a = stepOf(strip, 'Left floor cable', 'continuity', 'A').step;
     const c = stepOf(strip, 'Left floor cable', 'continuity', 'C').step;
     const first = await sam.post('/api/readings').send(newReading(a.id, '0.6'));
-    const res = await sam.post('/api/readings').send(newReading(c.id, '0.6', { supersedesId: first.body.id, correctionReason: 'wrong line' }));
+    const res = await sam
+      .post('/api/readings')
+      .send(newReading(c.id, '0.6', { supersedesId: first.body.id, correctionReason: 'wrong line' }));
     expect(res.status).toBe(422);
     expect(res.body.errors[0].path).toBe('supersedesId');
   });
@@ -219,7 +240,9 @@ describe('POST /api/readings — corrections', () => {
     const typo = await sam.post('/api/readings').send(newReading(step.id, '55'));
     expect(typo.body.verdict).toBe('fail');
     expect(typo.body.faultId).toBeTruthy();
-    await sam.post('/api/readings').send(newReading(step.id, '0.55', { supersedesId: typo.body.id, correctionReason: 'Missed the decimal point' }));
+    await sam
+      .post('/api/readings')
+      .send(newReading(step.id, '0.55', { supersedesId: typo.body.id, correctionReason: 'Missed the decimal point' }));
     expect(t.db.select().from(faults).where(eq(faults.id, typo.body.faultId)).get()!.status).toBe('open');
   });
 
@@ -230,7 +253,9 @@ describe('POST /api/readings — corrections', () => {
     const { step } = stepOf(strip, 'Right floor cable', 'continuity', 'B');
     const lead = await sam.post('/api/lead-nulls').send({ id: randomUUID(), value: '0.1' });
     const first = await sam.post('/api/readings').send(newReading(step.id, '6.5', { leadNullId: lead.body.id }));
-    const fix = await marco.post('/api/readings').send(newReading(step.id, '0.65', { leadNullId: lead.body.id, supersedesId: first.body.id, correctionReason: 'Typed 6.5 for 0.65' }));
+    const fix = await marco
+      .post('/api/readings')
+      .send(newReading(step.id, '0.65', { leadNullId: lead.body.id, supersedesId: first.body.id, correctionReason: 'Typed 6.5 for 0.65' }));
     expect(fix.status).toBe(201);
     expect(fix.body).toMatchObject({ valueOhm: 0.55, leadOffsetOhm: 0.1, leadNullId: lead.body.id });
     // Not on a new reading of the director's own.
@@ -287,9 +312,15 @@ describe('POST /api/readings — on a signed-off venue', () => {
     const strip = await stripByLabel(t, annex, 'Annex 2');
     const other = await stripByLabel(t, annex, 'Annex 3');
     t.db.insert(signingKeys).values({ kid: 'test-key', publicJwkJson: '{}' }).run();
-    t.db.insert(signOffs).values({ id: signOffId, venueId: annex, signedBy: director.id, statement: 'All clear', readingsDigest: 'x' }).run();
+    t.db
+      .insert(signOffs)
+      .values({ id: signOffId, venueId: annex, signedBy: director.id, statement: 'All clear', readingsDigest: 'x' })
+      .run();
     const cert = (number: string, kind: 'venue' | 'strip', stripId: string | null) =>
-      t.db.insert(certificates).values({ id: randomUUID(), number, signOffId, venueId: annex, kind, stripId, payloadJson: '{}', jws: 'x', keyId: 'test-key' }).run();
+      t.db
+        .insert(certificates)
+        .values({ id: randomUUID(), number, signOffId, venueId: annex, kind, stripId, payloadJson: '{}', jws: 'x', keyId: 'test-key' })
+        .run();
     cert('SW-TEST-1', 'venue', null);
     cert('SW-TEST-2', 'strip', strip.id);
     cert('SW-TEST-3', 'strip', other.id);
@@ -303,7 +334,14 @@ describe('POST /api/readings — on a signed-off venue', () => {
     expect(next.status).toBe(201);
     expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('signed-off');
     expect(t.db.select().from(signOffs).where(eq(signOffs.id, signOffId)).get()!.status).toBe('active');
-    const byNumber = new Map(t.db.select().from(certificates).where(eq(certificates.venueId, annex)).all().map((c) => [c.number, c]));
+    const byNumber = new Map(
+      t.db
+        .select()
+        .from(certificates)
+        .where(eq(certificates.venueId, annex))
+        .all()
+        .map((c) => [c.number, c]),
+    );
     expect([...byNumber.values()].map((c) => c.status)).toEqual(['valid', 'valid', 'valid']);
     expect(byNumber.get('SW-TEST-2')!.supersededPendingSince).not.toBeNull();
     expect(byNumber.get('SW-TEST-1')!.supersededPendingSince).toBeNull();
@@ -390,7 +428,10 @@ describe('POST /api/readings: the time a reading counts at', () => {
       expect(res.status).toBe(201);
       expect(res.body.takenAt).toBe(res.body.receivedAt);
       expect(Date.parse(res.body.takenAt)).toBeGreaterThanOrEqual(before - 1000);
-      const audit = t.sqlite.prepare("select detail_json from audit_log where entity_type = 'reading' and entity_id = ?").pluck().get(res.body.id) as string;
+      const audit = t.sqlite
+        .prepare("select detail_json from audit_log where entity_type = 'reading' and entity_id = ?")
+        .pluck()
+        .get(res.body.id) as string;
       expect(JSON.parse(audit)).toMatchObject({ tabletTakenAt: claimed, tabletClock: why });
     }
   });

@@ -62,7 +62,11 @@ describe('POST /api/readings answer', () => {
       await sam.post('/api/readings').send(newReading(continuity[1].id, '250')),
       await sam.post('/api/readings').send(newReading(insulation.id, 'OL')),
     ];
-    made.push(await sam.post('/api/readings').send(newReading(continuity[1].id, '0.5', { supersedesId: made[1].body.id, correctionReason: 'Typed 250 for 0.50' })));
+    made.push(
+      await sam
+        .post('/api/readings')
+        .send(newReading(continuity[1].id, '0.5', { supersedesId: made[1].body.id, correctionReason: 'Typed 250 for 0.50' })),
+    );
     expect(made.map((r) => r.status)).toEqual([201, 201, 201, 201]);
     expect(made.map((r) => r.body.verdict)).toEqual(['pass', 'fail', 'pass', 'pass']);
     expect(made[1].body.faultId).toEqual(expect.any(String));

@@ -92,13 +92,21 @@ describe('GET /api/venues/:id/readiness', () => {
     const strip6 = res.body.strips.find((s: { label: string }) => s.label === 'Strip 6');
     expect(strip6.state).toBe('failing');
     expect(strip6.failing).toEqual([
-      expect.objectContaining({ positionName: 'Left floor cable', testKind: 'insulation', conductors: 'A-B', stepId: expect.any(String), readingId: expect.any(String) }),
+      expect.objectContaining({
+        positionName: 'Left floor cable',
+        testKind: 'insulation',
+        conductors: 'A-B',
+        stepId: expect.any(String),
+        readingId: expect.any(String),
+      }),
     ]);
     expect(res.body.strips.find((s: { label: string }) => s.label === 'Strip 24').state).toBe('missing');
     // Near limit passes, so Strip 2 is not blocking, but it is not certified here either: the
     // list of near-limit readings covers strips that would be certified.
     expect(res.body.strips.find((s: { label: string }) => s.label === 'Strip 2')).toMatchObject({ state: 'ready' });
-    expect(res.body.nearLimit).toContainEqual(expect.objectContaining({ stripLabel: 'Strip 2', positionName: 'Left floor cable', conductors: 'A' }));
+    expect(res.body.nearLimit).toContainEqual(
+      expect.objectContaining({ stripLabel: 'Strip 2', positionName: 'Left floor cable', conductors: 'A' }),
+    );
   });
 
   test('a technician of another venue gets 403', async () => {
@@ -118,7 +126,8 @@ describe('POST /api/venues/:id/sign-off — who may sign', () => {
 
   test('another director of the same organisation, who is not this event’s director, gets 403', async () => {
     const marco = t.db.select().from(users).where(eq(users.email, DEMO.director)).get()!;
-    t.db.insert(users)
+    t.db
+      .insert(users)
       .values({
         id: randomUUID(),
         orgId: marco.orgId,
@@ -205,7 +214,12 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     const { payload, protectedHeader } = await compactVerify(v.body.jws, createLocalJWKSet(jwks), { algorithms: ['EdDSA'] });
     expect(protectedHeader).toMatchObject({ alg: 'EdDSA', typ: 'stripwarden-cert+jws', kid: jwks.keys[0].kid });
     const record = JSON.parse(new TextDecoder().decode(payload)) as CertificatePayload;
-    expect(record).toMatchObject({ number: issued[0].number, kind: 'venue', venue: { name: 'Riverside Annex' }, event: { name: 'Autumn Cup 2026' } });
+    expect(record).toMatchObject({
+      number: issued[0].number,
+      kind: 'venue',
+      venue: { name: 'Riverside Annex' },
+      event: { name: 'Autumn Cup 2026' },
+    });
     expect(record.strips.map((s) => s.label)).toEqual(['Annex 1', 'Annex 2', 'Annex 3', 'Annex 4']);
     expect(record.readings.digest).toMatch(/^[0-9a-f]{64}$/);
     expect(record.items.length).toBeGreaterThan(0);
@@ -263,7 +277,8 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
       const first = pages[0].replace(/\s+/g, ' ');
       expect(first).toContain('signed this certificate with its own digital key');
       expect(first).toMatch(/scan the code or open/);
-      for (const technical of ['Ed25519', 'JWS', 'Key id', row.keyId, '/.well-known/jwks.json']) expect(first, c.number).not.toContain(technical);
+      for (const technical of ['Ed25519', 'JWS', 'Key id', row.keyId, '/.well-known/jwks.json'])
+        expect(first, c.number).not.toContain(technical);
       const last = pages.at(-1)!.replace(/\s+/g, ' ');
       expect(last).toContain('Signature details');
       expect(last).toContain('Ed25519');
@@ -294,7 +309,13 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
       // its own (common practice: its electronics are never metered), and the certificate says so.
       expect(bare(first)).toContain(bare(`SCORING APPARATUS ${apparatus}, not measured`));
       for (const tag of [...tagOf('floor-cable'), ...tagOf('reel'), ...tagOf('piste')]) expect(first).toContain(tag);
-      expect(bare(first)).toContain(bare(`FLOOR CABLES ${tagOf('floor-cable').map((tag, i) => `${tag} (${i === 0 ? 'Left' : 'Right'} floor cable)`).join(', ')}`));
+      expect(bare(first)).toContain(
+        bare(
+          `FLOOR CABLES ${tagOf('floor-cable')
+            .map((tag, i) => `${tag} (${i === 0 ? 'Left' : 'Right'} floor cable)`)
+            .join(', ')}`,
+        ),
+      );
       // On the venue certificate, the strip's row gives its apparatus, then its floor cables and reels, as the header says.
       expect(venueText).toContain(`${strip.label} Annex ${apparatus} · ${tagOf('floor-cable').join(', ')} · ${tagOf('reel').join(', ')}`);
     }
@@ -319,7 +340,8 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     const row = t.db.select().from(certificates).where(eq(certificates.number, issued[0].number)).get()!;
     const payload = { ...(JSON.parse(row.payloadJson) as CertificatePayload), signedAt: '2026-11-21T09:30:00.000Z' };
     const doc = { payload, jws: row.jws, keyId: row.keyId, readings: [] };
-    const text = async (timeZone: string) => (await readPdf(await renderCertificatePdf({ ...doc, timeZone }), { fonts: false })).pages.join(' ').replace(/\s+/g, ' ');
+    const text = async (timeZone: string) =>
+      (await readPdf(await renderCertificatePdf({ ...doc, timeZone }), { fonts: false })).pages.join(' ').replace(/\s+/g, ' ');
     // 09:30 UTC is 10:30 in Paris (UTC+01:00) and 04:30 in New York (UTC−05:00).
     const paris = await text('Europe/Paris');
     expect(paris).toContain('21 Nov 2026, 10:30 (UTC+01:00)');
@@ -329,7 +351,11 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
   });
 
   test('the organiser and the director got the e-mail with the verification and certificates links (fake SMTP)', async () => {
-    const mail = t.db.select().from(capturedMail).all().filter((m) => m.subject.startsWith('Signed off: Riverside Annex'));
+    const mail = t.db
+      .select()
+      .from(capturedMail)
+      .all()
+      .filter((m) => m.subject.startsWith('Signed off: Riverside Annex'));
     expect(mail.map((m) => m.toAddresses).sort()).toEqual([DEMO.director, DEMO.organiser]);
     const nina = mail.find((m) => m.toAddresses === DEMO.organiser)!;
     expect(nina.text).toContain(`/venues/${annexId}/certificates`);
@@ -418,7 +444,10 @@ describe('public verification', () => {
   });
 
   test('POST /api/verify/file refuses a file that is not a PDF with 415, and a missing file with 422', async () => {
-    const res = await t.request.post('/api/verify/file').set('Origin', 'http://localhost:3999').attach('file', Buffer.from('GIF89a not a pdf'), 'x.pdf');
+    const res = await t.request
+      .post('/api/verify/file')
+      .set('Origin', 'http://localhost:3999')
+      .attach('file', Buffer.from('GIF89a not a pdf'), 'x.pdf');
     expect(res.status).toBe(415);
     const none = await t.request.post('/api/verify/file').set('Origin', 'http://localhost:3999').field('x', '1');
     expect([400, 422]).toContain(none.status);
@@ -441,7 +470,9 @@ describe('public verification', () => {
     expect((await nina.post(`/api/certificates/${issued[1].number}/revoke`).send({ reason: 'Wrong strip' })).status).toBe(403);
     const marco = await t.agentFor(DEMO.director);
     expect((await marco.post(`/api/certificates/${issued[1].number}/revoke`).send({})).status).toBe(422);
-    const res = await marco.post(`/api/certificates/${issued[1].number}/revoke`).send({ reason: 'The reel was found damaged after the event.' });
+    const res = await marco
+      .post(`/api/certificates/${issued[1].number}/revoke`)
+      .send({ reason: 'The reel was found damaged after the event.' });
     expect(res.status).toBe(200);
     const pub = await t.request.get(`/api/verify/${issued[1].number}`);
     expect(pub.body).toMatchObject({ status: 'revoked', revokedReason: 'The reel was found damaged after the event.' });

@@ -22,17 +22,36 @@ describe('GET /api/strips/:id', () => {
     const sam = await t.agentFor(DEMO.technician);
     const res = await sam.get(`/api/strips/${stripIds['Strip 1']}`);
     expect(res.status).toBe(200);
-    expect(res.body).toMatchObject({ label: 'Strip 1', status: 'clear', zone: 'Row A', conductivePiste: true, venueId: hall, venueName: 'Riverside Sports Hall', venueStatus: 'testing' });
+    expect(res.body).toMatchObject({
+      label: 'Strip 1',
+      status: 'clear',
+      zone: 'Row A',
+      conductivePiste: true,
+      venueId: hall,
+      venueName: 'Riverside Sports Hall',
+      venueStatus: 'testing',
+    });
     expect(res.body.profile).toMatchObject({ name: 'Competition default', version: 1 });
     expect(res.body.profile.rules.length).toBeGreaterThan(5);
     expect(res.body.positions.map((p: { name: string }) => p.name)).toEqual([
-      'Scoring apparatus', 'Left floor cable', 'Right floor cable', 'Left reel', 'Right reel', 'Piste',
+      'Scoring apparatus',
+      'Left floor cable',
+      'Right floor cable',
+      'Left reel',
+      'Right reel',
+      'Piste',
     ]);
     const cable = res.body.positions[1];
     expect(cable.equipment).toMatchObject({ kind: 'floor-cable', lengthM: 12, velocityFactor: 0.6, conductorMm2: 0.75 });
     expect(cable.equipment.assetTag).toMatch(/^FC-\d{3}$/);
     expect(cable.steps.map((s: { testKind: string; conductors: string }) => `${s.testKind} ${s.conductors}`)).toEqual([
-      'continuity A', 'continuity B', 'continuity C', 'insulation A-B', 'insulation A-C', 'insulation B-C', 'loop A-B',
+      'continuity A',
+      'continuity B',
+      'continuity C',
+      'insulation A-B',
+      'insulation A-C',
+      'insulation B-C',
+      'loop A-B',
     ]);
     expect(cable.steps[0].instruction).toMatch(/Line A end to end/);
     expect(cable.steps[0].latest).toMatchObject({ verdict: expect.stringMatching(/pass|near-limit/), profileVersion: 1 });
@@ -50,10 +69,14 @@ describe('GET /api/strips/:id', () => {
     const sam = await t.agentFor(DEMO.technician);
     const six = (await sam.get(`/api/strips/${stripIds['Strip 6']}`)).body;
     expect(six.status).toBe('fault-open');
-    expect(six.openFaults).toEqual([expect.objectContaining({ kind: 'short', conductors: 'A-B', status: 'located', positionName: 'Left floor cable' })]);
+    expect(six.openFaults).toEqual([
+      expect.objectContaining({ kind: 'short', conductors: 'A-B', status: 'located', positionName: 'Left floor cable' }),
+    ]);
     const last = (await sam.get(`/api/strips/${stripIds['Strip 24']}`)).body;
     expect(last.status).toBe('not-started');
-    expect(last.positions.flatMap((p: { steps: { latest: unknown }[] }) => p.steps).every((s: { latest: unknown }) => s.latest === null)).toBe(true);
+    expect(
+      last.positions.flatMap((p: { steps: { latest: unknown }[] }) => p.steps).every((s: { latest: unknown }) => s.latest === null),
+    ).toBe(true);
     expect(last.nextStripId).toBeNull();
   });
 
@@ -78,7 +101,17 @@ describe('GET /api/strips/:id', () => {
     expect((await lee.get(`/api/strips/${stripIds['Strip 2']}`)).status).toBe(403);
     const orgId = randomUUID();
     t.db.insert(organisations).values({ id: orgId, name: 'Another League' }).run();
-    t.db.insert(users).values({ id: randomUUID(), orgId, email: 'td@another.example', name: 'Other Director', role: 'director', passwordHash: await hashPassword(DEMO_PASSWORD, TEST_SCRYPT) }).run();
+    t.db
+      .insert(users)
+      .values({
+        id: randomUUID(),
+        orgId,
+        email: 'td@another.example',
+        name: 'Other Director',
+        role: 'director',
+        passwordHash: await hashPassword(DEMO_PASSWORD, TEST_SCRYPT),
+      })
+      .run();
     const other = await t.agentFor('td@another.example');
     expect((await other.get(`/api/strips/${stripIds['Strip 2']}`)).status).toBe(404);
     const strip = (await (await t.agentFor(DEMO.director)).get(`/api/strips/${stripIds['Strip 2']}`)).body;

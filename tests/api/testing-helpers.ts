@@ -50,4 +50,10 @@ export const newReading = (stepId: string, value: string, extra: Record<string, 
 });
 
 /** Good values for every step of a floor cable (12 m), used for a passing retest. */
-export const GOOD_VALUE: Record<string, string> = { continuity: '0.5', insulation: 'OL', loop: '1.0', 'piste-end-to-end': '1.2', 'piste-earth': '0.4' };
+export const GOOD_VALUE: Record<string, string> = {
+  continuity: '0.5',
+  insulation: 'OL',
+  loop: '1.0',
+  'piste-end-to-end': '1.2',
+  'piste-earth': '0.4',
+};

@@ -68,7 +68,8 @@ describe('GET /api/venues order', () => {
       expect(res.status).toBe(201);
       return res.body.id as string;
     };
-    const addVenue = async (eventId: string, name: string) => expect((await marco.post(`/api/events/${eventId}/venues`).send({ name, profileId })).status).toBe(201);
+    const addVenue = async (eventId: string, name: string) =>
+      expect((await marco.post(`/api/events/${eventId}/venues`).send({ name, profileId })).status).toBe(201);
     const later = await addEvent('Spring Open 2027', '2027-04-10');
     const earlier = await addEvent('Winter Trophy 2026', '2026-12-12');
     await addVenue(earlier, 'north gym');

@@ -54,7 +54,9 @@ describe('POST /api/waveforms/analyse', () => {
 
   test('when the trace is long, then the plot is decimated to at most 4000 points and keeps the samples at the markers', async () => {
     const dtS = 0.1e-9;
-    const csv = traceCsv(synthesiseTrace({ samples: 200_000, dtS, incidentS: 2000e-9, roundTripS: 1234.5e-9, rho: -1, riseS: 20e-9, noiseV: 0.01, seed: 3 }));
+    const csv = traceCsv(
+      synthesiseTrace({ samples: 200_000, dtS, incidentS: 2000e-9, roundTripS: 1234.5e-9, rho: -1, riseS: 20e-9, noiseV: 0.01, seed: 3 }),
+    );
     const res = await analyse(csv, '?velocityFactor=0.7', 'application/octet-stream');
     expect(res.status).toBe(200);
     expect(Math.abs(res.body.roundTripNs - 1234.5)).toBeLessThanOrEqual(dtS * 1e9);
@@ -90,7 +92,10 @@ describe('POST /api/waveforms/analyse', () => {
 
   test('the trace is read in the charset its Content-Type names (UTF-16 here); an unknown charset is 415', async () => {
     const csv = traceCsv(synthesiseTrace({ roundTripS: 80e-9, noiseV: 0.005 })).replace('Volts (V)', 'Spannung (V) – Kanal 1');
-    const utf16 = await lee.post('/api/waveforms/analyse').set('Content-Type', 'text/csv; charset=utf-16le').send(Buffer.from(csv, 'utf16le'));
+    const utf16 = await lee
+      .post('/api/waveforms/analyse')
+      .set('Content-Type', 'text/csv; charset=utf-16le')
+      .send(Buffer.from(csv, 'utf16le'));
     expect(utf16.status).toBe(200);
     expect(Math.abs(utf16.body.roundTripNs - 80)).toBeLessThanOrEqual(1);
     const bogus = await lee.post('/api/waveforms/analyse').set('Content-Type', 'text/csv; charset=klingon-8').send(Buffer.from(csv));

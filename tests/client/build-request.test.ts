@@ -9,7 +9,11 @@ import type { LengthSystem } from '../../shared/domain/units';
 
 const typed = (texts: Record<string, string>, start: UnitTexts = { texts: {}, exact: {} }): UnitTexts =>
   Object.entries(texts).reduce((v, [k, t]) => typeText(v, k, t), start);
-const state = (method: LocatorState['method'], values: UnitTexts, perMetreSource: LocatorState['perMetreSource'] = 'reading'): LocatorState => ({
+const state = (
+  method: LocatorState['method'],
+  values: UnitTexts,
+  perMetreSource: LocatorState['perMetreSource'] = 'reading',
+): LocatorState => ({
   method,
   values,
   perMetreSource,
@@ -26,10 +30,15 @@ describe('the locate form’s request', () => {
   });
 
   test('a resistance per length is typed per km in metres and per 1000 ft in feet, and sent per metre', () => {
-    const metric = build(state('loop-both-ends', typed({ nearOhm: '0.855', farOhm: '0.645', lengthM: '12', ohmPerMetre: '37.5' }), 'value'));
+    const metric = build(
+      state('loop-both-ends', typed({ nearOhm: '0.855', farOhm: '0.645', lengthM: '12', ohmPerMetre: '37.5' }), 'value'),
+    );
     expect(metric.request).toMatchObject({ method: 'loop-both-ends' });
     expect((metric.request as { ohmPerMetre: number }).ohmPerMetre).toBeCloseTo(unit(37.5, 'ohm/km').toNumber('ohm/m'), 15);
-    const feet = build(state('loop-both-ends', typed({ nearOhm: '0.855', farOhm: '0.645', lengthM: '39.37', ohmPerMetre: '11.43' }), 'value'), 'imperial');
+    const feet = build(
+      state('loop-both-ends', typed({ nearOhm: '0.855', farOhm: '0.645', lengthM: '39.37', ohmPerMetre: '11.43' }), 'value'),
+      'imperial',
+    );
     expect((feet.request as { ohmPerMetre: number }).ohmPerMetre).toBeCloseTo(unit(11.43, 'ohm/ft').toNumber('ohm/m') / 1000, 15);
     expect(feet.request!.lengthM).toBeCloseTo(unit(39.37, 'ft').toNumber('m'), 12);
   });
@@ -62,6 +71,8 @@ describe('the locate form’s request', () => {
     expect(built.request).toBeNull();
     expect(built.errors.lengthM).toContain('did you mean 1200 m or 1.200 m?');
     expect(built.errors.soundArm).toContain('did you mean 2500 or 2.500?');
-    expect(build(state('capacitance', typed({ lengthM: '12', faultedNf: '1,200', soundNf: '1.5' }))).errors.faultedNf).toContain('did you mean 1200 nF or 1.200 nF?');
+    expect(build(state('capacitance', typed({ lengthM: '12', faultedNf: '1,200', soundNf: '1.5' }))).errors.faultedNf).toContain(
+      'did you mean 1200 nF or 1.200 nF?',
+    );
   });
 });

@@ -6,10 +6,16 @@ import { messagesUnder } from '../../src/lib/form-errors';
 import { decimalOrNull } from '../../src/lib/form-values';
 
 const options = { fields: {}, shouldUseNativeValidation: false } as const;
-const issuesOf = (result: ReturnType<typeof bulkStripsSchema.safeParse>) => (result.success ? [] : result.error.issues.map((i) => [i.path.join('.'), i.message]));
+const issuesOf = (result: ReturnType<typeof bulkStripsSchema.safeParse>) =>
+  result.success ? [] : result.error.issues.map((i) => [i.path.join('.'), i.message]);
 
 describe('bodyResolver', () => {
-  const toBody = (v: { labels: string }) => ({ labels: v.labels.split('\n').map((l) => l.trim()).filter(Boolean) });
+  const toBody = (v: { labels: string }) => ({
+    labels: v.labels
+      .split('\n')
+      .map((l) => l.trim())
+      .filter(Boolean),
+  });
   const resolver = bodyResolver(bulkStripsSchema, toBody);
 
   test('when the body the form would send breaks the shared schema, then its errors sit at the body paths with the schema messages', async () => {
@@ -33,7 +39,12 @@ describe('bodyResolver', () => {
 describe('messagesUnder', () => {
   test('when errors are nested (a list and its items), then every message is listed once, refs and types left out', () => {
     const ref = { name: 'x', message: 'not a message' };
-    const errors = { message: 'A limit profile needs at least one rule', type: 'too_small', ref, 0: { source: { message: 'Every rule needs a source', type: 'custom', ref } } };
+    const errors = {
+      message: 'A limit profile needs at least one rule',
+      type: 'too_small',
+      ref,
+      0: { source: { message: 'Every rule needs a source', type: 'custom', ref } },
+    };
     expect(messagesUnder(errors)).toEqual(['A limit profile needs at least one rule', 'Every rule needs a source']);
     expect(messagesUnder(undefined)).toEqual([]);
   });

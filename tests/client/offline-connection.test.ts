@@ -163,7 +163,7 @@ describe('the sync indicator when the browser says online but the server cannot 
   });
 });
 
-describe('the browser\'s own network events', () => {
+describe("the browser's own network events", () => {
   test('when the browser says offline, then it is offline at once and nothing is sent', async () => {
     const { win, nav, server } = fakeBrowser({ onLine: true });
     server.up = true;

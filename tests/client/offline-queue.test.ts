@@ -82,7 +82,11 @@ describe('applyOutcome', () => {
 
   test('when refused, then the item stays with its value and the problem, never dropped', () => {
     const before = item({ step: 'removed' });
-    const next = applyOutcome(before, { kind: 'problem', problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'gone' } }, 0)!;
+    const next = applyOutcome(
+      before,
+      { kind: 'problem', problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'gone' } },
+      0,
+    )!;
     expect(next).toMatchObject({ id: before.id, status: 'problem', body: before.body, problem: { kind: 'step-removed', message: 'gone' } });
   });
 
@@ -168,7 +172,10 @@ describe('answersFromBatch', () => {
     expect(answers.map((a) => classifyAnswer(a.answer))).toEqual([
       { kind: 'done', venueReopened: false },
       { kind: 'done', venueReopened: true },
-      { kind: 'problem', problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'This step was taken off the checklist' } },
+      {
+        kind: 'problem',
+        problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'This step was taken off the checklist' },
+      },
       { kind: 'retry', reason: 'server' },
     ]);
     expect(answers[0].reading).toMatchObject({ id: bodies[0].id });
@@ -176,9 +183,16 @@ describe('answersFromBatch', () => {
   });
 
   test('when the whole batch got no answer or a refusal, then every reading has that answer', () => {
-    expect(answersFromBatch(bodies, { kind: 'network' }).map((a) => classifyAnswer(a.answer).kind)).toEqual(['retry', 'retry', 'retry', 'retry']);
+    expect(answersFromBatch(bodies, { kind: 'network' }).map((a) => classifyAnswer(a.answer).kind)).toEqual([
+      'retry',
+      'retry',
+      'retry',
+      'retry',
+    ]);
     const refused = answersFromBatch(bodies, { kind: 'http', status: 403, code: 'forbidden', message: 'no' });
-    expect(refused.map((a) => classifyAnswer(a.answer))).toEqual(bodies.map(() => ({ kind: 'problem', problem: { kind: 'not-assigned', status: 403, code: 'forbidden', message: 'no' } })));
+    expect(refused.map((a) => classifyAnswer(a.answer))).toEqual(
+      bodies.map(() => ({ kind: 'problem', problem: { kind: 'not-assigned', status: 403, code: 'forbidden', message: 'no' } })),
+    );
     expect(answersFromBatch(bodies, { kind: 'http', status: 401 }).every((a) => classifyAnswer(a.answer).kind === 'retry')).toBe(true);
   });
 
@@ -205,10 +219,18 @@ describe('summarize', () => {
   const q = (status: QueuedReading['status'], k = 1) => Array.from({ length: k }, () => item({ status }));
   test('the indicator says what needs the technician first, then sending, offline, waiting, up to date', () => {
     expect(summarize([], { userId: SAM, online: true, syncing: false })).toEqual({ state: 'up-to-date', waiting: 0, needsYou: 0 });
-    expect(summarize(q('waiting', 3), { userId: SAM, online: false, syncing: false })).toEqual({ state: 'offline', waiting: 3, needsYou: 0 });
+    expect(summarize(q('waiting', 3), { userId: SAM, online: false, syncing: false })).toEqual({
+      state: 'offline',
+      waiting: 3,
+      needsYou: 0,
+    });
     expect(summarize(q('waiting', 2), { userId: SAM, online: true, syncing: true }).state).toBe('syncing');
     expect(summarize(q('waiting', 2), { userId: SAM, online: true, syncing: false }).state).toBe('waiting');
-    expect(summarize([...q('waiting', 2), ...q('problem')], { userId: SAM, online: false, syncing: false })).toEqual({ state: 'needs-you', waiting: 2, needsYou: 1 });
+    expect(summarize([...q('waiting', 2), ...q('problem')], { userId: SAM, online: false, syncing: false })).toEqual({
+      state: 'needs-you',
+      waiting: 2,
+      needsYou: 1,
+    });
     expect(summarize(q('notice'), { userId: SAM, online: true, syncing: false }).state).toBe('needs-you');
     expect(summarize(q('set-aside'), { userId: SAM, online: true, syncing: false }).state).toBe('up-to-date');
     expect(summarize(q('waiting'), { userId: 'someone-else', online: true, syncing: false }).state).toBe('up-to-date');

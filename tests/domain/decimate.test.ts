@@ -71,7 +71,8 @@ describe('decimateMinMax', () => {
           const kept = new Set(out.timeS);
           for (const m of markers) {
             const i = lastAtOrBefore(timeS, m);
-            for (let j = Math.max(0, i - 1); j <= Math.min(n - 1, i + 2); j++) expect(kept.has(timeS[j]!), `sample ${j} near ${m}`).toBe(true);
+            for (let j = Math.max(0, i - 1); j <= Math.min(n - 1, i + 2); j++)
+              expect(kept.has(timeS[j]!), `sample ${j} near ${m}`).toBe(true);
           }
         },
       ),

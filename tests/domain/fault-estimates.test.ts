@@ -1,7 +1,14 @@
 import { describe, expect, test } from 'vitest';
 import fc from 'fast-check';
 import { combineSavedEstimates, type SavedEstimate } from '../../shared/domain/fault-estimates';
-import { combineEstimates, locateByLoopBothEnds, locateByLoopOneEnd, locateByMurrayLoop, locateByTdr, type FaultEstimate } from '../../shared/domain/fault-location';
+import {
+  combineEstimates,
+  locateByLoopBothEnds,
+  locateByLoopOneEnd,
+  locateByMurrayLoop,
+  locateByTdr,
+  type FaultEstimate,
+} from '../../shared/domain/fault-location';
 
 // Inverse-variance weighting narrows the band only for independent estimates: for correlated
 // inputs the GUM asks for their covariance (JCGM 100:2008, §5.2; from memory). Two estimates from
@@ -34,7 +41,12 @@ describe('combining only independent estimates', () => {
     expect(result.combined!.uncertaintyM).toBe(wider);
     expect(result.used).toHaveLength(1);
     expect(result.apart).toEqual([
-      expect.objectContaining({ kind: 'same-readings', reason: expect.stringMatching(/^Worked out from the same readings \(0\.855 Ω, 0\.645 Ω\) as the loop resistance from both ends estimate \(no\. \d\)/) }),
+      expect.objectContaining({
+        kind: 'same-readings',
+        reason: expect.stringMatching(
+          /^Worked out from the same readings \(0\.855 Ω, 0\.645 Ω\) as the loop resistance from both ends estimate \(no\. \d\)/,
+        ),
+      }),
     ]);
     expect(result.combined!.explanation).toMatch(/shown beside it, not weighed in/);
   });
@@ -93,10 +105,16 @@ describe('combining only independent estimates', () => {
     expect(result.itemLengthM).toBe(10.5);
     expect(result.used).toEqual([1]);
     expect(result.apart).toEqual([
-      { index: 0, kind: 'other-length', reason: 'Worked out when the item was 12 m long, not the 10.5 m of the latest estimate: not measured on the same cable.' },
+      {
+        index: 0,
+        kind: 'other-length',
+        reason: 'Worked out when the item was 12 m long, not the 10.5 m of the latest estimate: not measured on the same cable.',
+      },
       { index: 2, kind: 'not-placed', reason: expect.stringMatching(/cannot be placed from the apparatus end/) },
     ]);
-    expect(combineSavedEstimates([before, after], 'imperial').apart[0]!.reason).toMatch(/when the item was 39\.4 ft long, not the 34\.4 ft/);
+    expect(combineSavedEstimates([before, after], 'imperial').apart[0]!.reason).toMatch(
+      /when the item was 39\.4 ft long, not the 34\.4 ft/,
+    );
   });
 
   test('property: saving an estimate again never changes the combination', () => {

@@ -140,7 +140,9 @@ describe('speed of light and TDR', () => {
       fc.property(fc.integer({ min: 100, max: 100_000 }), fc.integer({ min: 100, max: 100_000 }), (a, b) => {
         fc.pre(a !== b);
         const [lo, hi] = a < b ? [a / 100, b / 100] : [b / 100, a / 100];
-        expect(locateByTdr({ roundTripNs: lo, velocityFactor: 0.6 }).distanceM).toBeLessThan(locateByTdr({ roundTripNs: hi, velocityFactor: 0.6 }).distanceM);
+        expect(locateByTdr({ roundTripNs: lo, velocityFactor: 0.6 }).distanceM).toBeLessThan(
+          locateByTdr({ roundTripNs: hi, velocityFactor: 0.6 }).distanceM,
+        );
       }),
     );
   });
@@ -274,7 +276,9 @@ describe('loop resistance from one end', () => {
       fc.property(fc.integer({ min: 0, max: 5000 }), fc.integer({ min: 0, max: 5000 }), (a, b) => {
         fc.pre(a !== b);
         const [lo, hi] = a < b ? [a / 1000, b / 1000] : [b / 1000, a / 1000];
-        expect(locateByLoopOneEnd({ loopOhm: lo, ohmPerMetre: 0.1 }).distanceM).toBeLessThan(locateByLoopOneEnd({ loopOhm: hi, ohmPerMetre: 0.1 }).distanceM);
+        expect(locateByLoopOneEnd({ loopOhm: lo, ohmPerMetre: 0.1 }).distanceM).toBeLessThan(
+          locateByLoopOneEnd({ loopOhm: hi, ohmPerMetre: 0.1 }).distanceM,
+        );
       }),
     );
   });
@@ -377,7 +381,14 @@ describe('Murray loop', () => {
    * far end, the fault R_f from x metres along the faulted conductor to earth. Returns V_a − V_b,
    * what the detector between the two conductors reads.
    */
-  function detectorVolts(p: { lengthM: number; xM: number; ohmPerMetre: number; faultOhm: number; faultedArm: number; soundArm: number }): number {
+  function detectorVolts(p: {
+    lengthM: number;
+    xM: number;
+    ohmPerMetre: number;
+    faultOhm: number;
+    faultedArm: number;
+    soundArm: number;
+  }): number {
     const V = 10;
     const near = p.ohmPerMetre * p.xM; // a → fault
     const beyond = p.ohmPerMetre * (2 * p.lengthM - p.xM); // fault → far end → back along the sound conductor to b
@@ -446,13 +457,18 @@ describe('Murray loop', () => {
 
   test('property: only the ratio of the arms counts, and the fault moves away as the faulted line’s arm grows', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 1000 }), fc.integer({ min: 1, max: 1000 }), fc.double({ min: 0.001, max: 1000, noNaN: true }), (a, b, scale) => {
-        fc.pre(a !== b);
-        const [lo, hi] = a < b ? [a, b] : [b, a];
-        const at = (faultedArm: number) => locateByMurrayLoop({ lengthM: 100, faultedArm, soundArm: 1000 }).distanceM;
-        expect(at(lo)).toBeLessThan(at(hi));
-        expect(locateByMurrayLoop({ lengthM: 100, faultedArm: lo * scale, soundArm: 1000 * scale }).distanceM).toBeCloseTo(at(lo), 9);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 1000 }),
+        fc.integer({ min: 1, max: 1000 }),
+        fc.double({ min: 0.001, max: 1000, noNaN: true }),
+        (a, b, scale) => {
+          fc.pre(a !== b);
+          const [lo, hi] = a < b ? [a, b] : [b, a];
+          const at = (faultedArm: number) => locateByMurrayLoop({ lengthM: 100, faultedArm, soundArm: 1000 }).distanceM;
+          expect(at(lo)).toBeLessThan(at(hi));
+          expect(locateByMurrayLoop({ lengthM: 100, faultedArm: lo * scale, soundArm: 1000 * scale }).distanceM).toBeCloseTo(at(lo), 9);
+        },
+      ),
     );
   });
 
@@ -526,9 +542,13 @@ describe('results with no cable length to check them against', () => {
     expect(Math.round((0.66 * C * 1) / 2 / 1000)).toBe(98_932);
     const error = refusal(() => locateByTdr({ roundTripNs: 1e9, velocityFactor: 0.66 }));
     expect(error.field).toBe('roundTripNs');
-    expect(error.message).toMatch(/^These readings put the fault 98931.511 km away, further than the longest cable these methods are meant for \(2 km\)/);
+    expect(error.message).toMatch(
+      /^These readings put the fault 98931.511 km away, further than the longest cable these methods are meant for \(2 km\)/,
+    );
     expect(error.message).toMatch(/give the cable length/);
-    expect(refusal(() => locateByTdr({ roundTripNs: 1e9, velocityFactor: 0.66, lengthM: 12 })).message).toMatch(/beyond the end of this 12 m cable/);
+    expect(refusal(() => locateByTdr({ roundTripNs: 1e9, velocityFactor: 0.66, lengthM: 12 })).message).toMatch(
+      /beyond the end of this 12 m cable/,
+    );
   });
 
   test('the longest cable is a setting: 2 km by default (common practice), another value when given', () => {
@@ -581,7 +601,10 @@ describe('combineEstimates', () => {
   test('property: the combined distance lies between the smallest and the largest estimate', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.record({ d: fc.double({ min: 0, max: 100, noNaN: true }), u: fc.double({ min: 0.01, max: 10, noNaN: true }) }), { minLength: 1, maxLength: 6 }),
+        fc.array(fc.record({ d: fc.double({ min: 0, max: 100, noNaN: true }), u: fc.double({ min: 0.01, max: 10, noNaN: true }) }), {
+          minLength: 1,
+          maxLength: 6,
+        }),
         (items) => {
           const c = combineEstimates(items.map(({ d, u }) => est(d, u)));
           const ds = items.map((i) => i.d);
@@ -710,7 +733,10 @@ describe('faultLocationRequestSchema and runFaultLocation', () => {
     [{ method: 'loop-one-end', loopOhm: 1, ohmPerMetre: 0.1, conductorOhm: 1, lengthM: 10 }, /not both/],
     [{ method: 'loop-one-end', loopOhm: 1, conductorOhm: 1 }, /lengthM is required with conductorOhm/],
     [{ method: 'loop-both-ends', nearOhm: 1, farOhm: 1, lengthM: 10 }, /Give ohmPerMetre or conductorOhm/],
-    [{ method: 'murray', lengthM: 600, faultedArm: 0, soundArm: 1 }, /faultedArm must be greater than 0 \(the bridge arm joined to the faulted line/],
+    [
+      { method: 'murray', lengthM: 600, faultedArm: 0, soundArm: 1 },
+      /faultedArm must be greater than 0 \(the bridge arm joined to the faulted line/,
+    ],
     [{ method: 'murray', lengthM: 600, ratioP: 1, ratioQ: 3 }, /Unrecognized keys/],
     [{ method: 'capacitance', lengthM: 20, faultedNf: 0.6 }, /soundNf is required/],
     [{ method: 'sonar', lengthM: 20 }, /method must be one of: tdr, vf-calibration/],
@@ -794,12 +820,16 @@ describe('explanations in the reader’s units', () => {
   test('when the reader works in feet, then refusals quote lengths in feet too', () => {
     const tdr = refusal(() => locateByTdr({ roundTripNs: 1000, velocityFactor: 0.66, lengthM: 12 }, 'imperial'));
     expect(tdr.field).toBe('roundTripNs');
-    expect(tdr.message).toMatch(/^These readings put the fault at 324\.6 ft, beyond the end of this 39\.4 ft cable even allowing ±9\.74 ft\./);
+    expect(tdr.message).toMatch(
+      /^These readings put the fault at 324\.6 ft, beyond the end of this 39\.4 ft cable even allowing ±9\.74 ft\./,
+    );
     const loop = refusal(() => locateByLoopBothEnds({ nearOhm: 0.6, farOhm: 0.6, lengthM: 10, ohmPerMetre: 0.1 }, 'imperial'));
     // 0.1 Ω/m = 30.48 Ω/1000 ft (1 ft = 0.3048 m)
     expect(loop.message).toContain('(2 × 30.48 Ω/1000 ft × 32.8 ft)');
     expect(loop.message).toContain('the Ω per 1000 ft');
-    expect(refusal(() => recordFlexTest({ distanceM: 13, lengthM: 12 }, 'imperial')).message).toMatch(/^42\.7 ft is beyond the end of this 39\.4 ft cable/);
+    expect(refusal(() => recordFlexTest({ distanceM: 13, lengthM: 12 }, 'imperial')).message).toMatch(
+      /^42\.7 ft is beyond the end of this 39\.4 ft cable/,
+    );
     for (const error of [tdr, loop]) expect(error.message).not.toMatch(METRE_WORDS);
   });
 
@@ -811,9 +841,17 @@ describe('explanations in the reader’s units', () => {
     expect(calibration.delayNsPerMetre).toBe(calibrateVelocityFactor({ roundTripNs: 100, lengthM: 10 }).delayNsPerMetre);
 
     const flex = runFaultLocation(faultLocationRequestSchema.parse({ method: 'flex', distanceM: 3, lengthM: 12 }), 'imperial');
-    expect(flex.explanation).toBe('Found by flexing the cable by hand: the fault is about 9.84 ft from the near end (29.5 ft from the far end), ±0.33 ft.');
+    expect(flex.explanation).toBe(
+      'Found by flexing the cable by hand: the fault is about 9.84 ft from the near end (29.5 ft from the far end), ±0.33 ft.',
+    );
 
-    const estimate = (method: string, distanceM: number, uncertaintyM: number): FaultEstimate => ({ method, distanceM, uncertaintyM, explanation: '', inputs: {} });
+    const estimate = (method: string, distanceM: number, uncertaintyM: number): FaultEstimate => ({
+      method,
+      distanceM,
+      uncertaintyM,
+      explanation: '',
+      inputs: {},
+    });
     const combined = combineEstimates([estimate('tdr', 10, 0.1), estimate('capacitance', 12, 0.2)], 'imperial');
     expect(combined.explanation).toContain('tdr 32.8 ft ±0.33 ft and capacitance 39.4 ft ±0.66 ft do not overlap');
     expect(combined.explanation).toContain('Ω per 1000 ft');

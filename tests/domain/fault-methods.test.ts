@@ -73,7 +73,10 @@ describe('which methods fit a fault', () => {
 describe('one definition of each method’s inputs, used by the request schema', () => {
   /** The JSON schema of one method's body, as zod builds it from the shared schema. */
   const bodyOf = (method: string) => {
-    const union = z.toJSONSchema(faultLocationRequestSchema, { io: 'input' }) as { anyOf?: Array<{ properties: Record<string, unknown>; required?: string[] }>; oneOf?: Array<{ properties: Record<string, unknown>; required?: string[] }> };
+    const union = z.toJSONSchema(faultLocationRequestSchema, { io: 'input' }) as {
+      anyOf?: Array<{ properties: Record<string, unknown>; required?: string[] }>;
+      oneOf?: Array<{ properties: Record<string, unknown>; required?: string[] }>;
+    };
     const variants = union.oneOf ?? union.anyOf ?? [];
     return variants.find((v) => (v.properties.method as { const?: string }).const === method)!;
   };
@@ -85,15 +88,14 @@ describe('one definition of each method’s inputs, used by the request schema',
     expect([...(body.required ?? [])].sort()).toEqual(['method', ...inputs.filter((i) => i.required).map((i) => i.name)].sort());
   });
 
-  test.each(LOCATE_METHODS.flatMap((method) => (METHOD_DEFINITIONS[method].inputs as readonly MethodInput[]).map((i) => [method, i] as const)))(
-    '%s: a wrong %o is refused naming it with the defined sentence',
-    (method, input) => {
-      const result = faultLocationRequestSchema.safeParse({ method, [input.name]: 'x' });
-      expect(result.success).toBe(false);
-      const issue = result.error!.issues.find((i) => i.path[0] === input.name)!;
-      expect(issue.message).toBe(`${input.name} must be a number (${input.describe})`);
-    },
-  );
+  test.each(
+    LOCATE_METHODS.flatMap((method) => (METHOD_DEFINITIONS[method].inputs as readonly MethodInput[]).map((i) => [method, i] as const)),
+  )('%s: a wrong %o is refused naming it with the defined sentence', (method, input) => {
+    const result = faultLocationRequestSchema.safeParse({ method, [input.name]: 'x' });
+    expect(result.success).toBe(false);
+    const issue = result.error!.issues.find((i) => i.path[0] === input.name)!;
+    expect(issue.message).toBe(`${input.name} must be a number (${input.describe})`);
+  });
 
   test('the Murray loop’s arms are named by what they are joined to', () => {
     const names = METHOD_DEFINITIONS.murray.inputs.map((i) => i.name);

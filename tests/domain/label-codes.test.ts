@@ -24,7 +24,17 @@ describe('parseScannedCode', () => {
   });
 
   test('anything else is not a code of ours', () => {
-    for (const text of ['', '   ', 'two words', 'http://x.example/s/not-a-uuid', 'http://x.example/verify/SW-2026', 'http://x.example/t/%E0%A4%A', 'http://[bad', '-FC', 'A'.repeat(41)]) {
+    for (const text of [
+      '',
+      '   ',
+      'two words',
+      'http://x.example/s/not-a-uuid',
+      'http://x.example/verify/SW-2026',
+      'http://x.example/t/%E0%A4%A',
+      'http://[bad',
+      '-FC',
+      'A'.repeat(41),
+    ]) {
       expect(parseScannedCode(text), text).toBeNull();
     }
   });

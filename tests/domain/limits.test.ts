@@ -145,7 +145,9 @@ describe('evaluateReading: maxima', () => {
   test('near limit says it passes but should be watched', () => {
     const v = evaluate({ equipmentKind: 'reel', testKind: 'continuity', conductors: 'B', valueOhm: 2.8 });
     expect(v.verdict).toBe('near-limit');
-    expect(v.explanation).toMatch(/2\.8 Ω is within the 3 Ω limit per wire for reels but above 90 %.*watched — FIE Material Rules, art\. m\.55\.1/);
+    expect(v.explanation).toMatch(
+      /2\.8 Ω is within the 3 Ω limit per wire for reels but above 90 %.*watched — FIE Material Rules, art\. m\.55\.1/,
+    );
   });
 
   test('over range on continuity is an open conductor: fail', () => {
@@ -211,7 +213,9 @@ describe('evaluateReading: insulation', () => {
     const v = evaluate({ equipmentKind: 'reel', testKind: 'insulation', conductors: 'A-C', valueOhm: 5000 });
     expect(v.verdict).toBe('fail');
     expect(v.explanation).not.toMatch(/register a hit/);
-    expect(v.explanation).toContain('5 kΩ between A and C is below the 100 kΩ minimum insulation for reels — House rule (no published value)');
+    expect(v.explanation).toContain(
+      '5 kΩ between A and C is below the 100 kΩ minimum insulation for reels — House rule (no published value)',
+    );
   });
 
   test('property: a lower insulation reading is never judged better', () => {
@@ -284,7 +288,15 @@ describe('per-metre rules', () => {
   };
 
   test('limit = Ω/m × length + connector allowance, explained', () => {
-    const v = evaluateReading({ profile: perMetre, equipmentKind: 'reel', testKind: 'continuity', conductors: 'A', valueOhm: 2.6, overRange: false, lengthM: 20 });
+    const v = evaluateReading({
+      profile: perMetre,
+      equipmentKind: 'reel',
+      testKind: 'continuity',
+      conductors: 'A',
+      valueOhm: 2.6,
+      overRange: false,
+      lengthM: 20,
+    });
     // 0.1 × 20 + 0.5 = 2.5 Ω
     expect(v.limitOhm).toBeCloseTo(2.5, 12);
     expect(v.verdict).toBe('fail');
@@ -323,12 +335,22 @@ describe('temperature correction', () => {
     const v = evaluate({ equipmentKind: 'floor-cable', testKind: 'continuity', valueOhm: 2.55, temperatureC: 35 });
     expect(v.verdict).toBe('fail');
     expect(v.correctedOhm).toBeUndefined();
-    expect(v.explanation).toMatch(/^Read 2\.55 Ω at 35 °C and judged as measured \(the FIE Material Rules give no reference temperature\)\. 2\.55 Ω is over/);
+    expect(v.explanation).toMatch(
+      /^Read 2\.55 Ω at 35 °C and judged as measured \(the FIE Material Rules give no reference temperature\)\. 2\.55 Ω is over/,
+    );
   });
 
   test('a profile that corrects to 20 °C passes the same warm cable once corrected, and calls the correction a house rule', () => {
     const correcting: LimitProfile = { ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 20 };
-    const v = evaluateReading({ profile: correcting, equipmentKind: 'floor-cable', testKind: 'continuity', conductors: 'A', valueOhm: 2.55, overRange: false, temperatureC: 35 });
+    const v = evaluateReading({
+      profile: correcting,
+      equipmentKind: 'floor-cable',
+      testKind: 'continuity',
+      conductors: 'A',
+      valueOhm: 2.55,
+      overRange: false,
+      temperatureC: 35,
+    });
     // 2.55 × 254.5 / 269.5 = 2.408 Ω (IEC 60228 Annex B)
     expect(v.correctedOhm).toBeCloseTo((2.55 * 254.5) / 269.5, 9);
     expect(v.verdict).toBe('near-limit');
@@ -338,7 +360,15 @@ describe('temperature correction', () => {
   test('to another reference temperature the same copper law: k(35 → 25 °C) is k_t(35) / k_t(25)', () => {
     // IEC 60228 Annex B: both corrections to 20 °C, chained
     expect(temperatureCorrectionFactor(35, 25)).toBeCloseTo(temperatureCorrectionFactor(35) / temperatureCorrectionFactor(25), 12);
-    const v = evaluateReading({ profile: { ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 25 }, equipmentKind: 'reel', testKind: 'continuity', conductors: 'B', valueOhm: 3.05, overRange: false, temperatureC: 35 });
+    const v = evaluateReading({
+      profile: { ...DEFAULT_LIMIT_PROFILE, temperatureReferenceC: 25 },
+      equipmentKind: 'reel',
+      testKind: 'continuity',
+      conductors: 'B',
+      valueOhm: 3.05,
+      overRange: false,
+      temperatureC: 35,
+    });
     expect(v.correctedOhm).toBeCloseTo(3.05 * (259.5 / 269.5), 9);
     expect(v.explanation).toMatch(/corrected to 25 °C/);
   });
@@ -355,7 +385,9 @@ describe('temperature correction', () => {
   });
 
   test('pistes and insulation are not corrected', () => {
-    expect(evaluate({ equipmentKind: 'piste', testKind: 'piste-end-to-end', conductors: '', valueOhm: 4, temperatureC: 35 }).correctedOhm).toBeUndefined();
+    expect(
+      evaluate({ equipmentKind: 'piste', testKind: 'piste-end-to-end', conductors: '', valueOhm: 4, temperatureC: 35 }).correctedOhm,
+    ).toBeUndefined();
     expect(
       evaluate({ equipmentKind: 'reel', testKind: 'insulation', conductors: 'A-B', valueOhm: 4e6, temperatureC: 35 }).correctedOhm,
     ).toBeUndefined();
@@ -399,7 +431,14 @@ describe('refusals', () => {
 });
 
 describe('limitProfileRulesSchema', () => {
-  const good = { id: 'r1', equipmentKind: 'reel', testKind: 'continuity', maxOhm: 3, source: 'FIE Material Rules, art. m.55.1', houseRule: false };
+  const good = {
+    id: 'r1',
+    equipmentKind: 'reel',
+    testKind: 'continuity',
+    maxOhm: 3,
+    source: 'FIE Material Rules, art. m.55.1',
+    houseRule: false,
+  };
 
   test('accepts the default rules', () => {
     expect(limitProfileRulesSchema.safeParse(DEFAULT_LIMIT_PROFILE.rules).success).toBe(true);

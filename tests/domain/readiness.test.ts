@@ -68,7 +68,9 @@ describe('venue readiness', () => {
 
   test('an open fault blocks even when the latest readings pass', () => {
     const r = venueReadiness([
-      strip('1', [step('pass')], { openFaults: [{ faultId: 'f', positionName: 'Left reel', kind: 'short', conductors: 'A-B', status: 'located' }] }),
+      strip('1', [step('pass')], {
+        openFaults: [{ faultId: 'f', positionName: 'Left reel', kind: 'short', conductors: 'A-B', status: 'located' }],
+      }),
     ]);
     expect(r.ready).toBe(false);
     expect(r.issues[0]).toMatchObject({ kind: 'open-fault', faultKind: 'short' });
@@ -76,11 +78,7 @@ describe('venue readiness', () => {
 
   test('a withdrawn strip, or one given as an exception at sign-off, is left out with its reason', () => {
     const r = venueReadiness(
-      [
-        strip('1', [step('pass')]),
-        strip('2', [step('fail')], { withdrawn: true, withdrawnReason: 'Not used' }),
-        strip('3', [step(null)]),
-      ],
+      [strip('1', [step('pass')]), strip('2', [step('fail')], { withdrawn: true, withdrawnReason: 'Not used' }), strip('3', [step(null)])],
       [{ stripId: '3', reason: 'Reserve strip, not in use' }],
     );
     expect(r.ready).toBe(true);

@@ -28,8 +28,20 @@ describe('decideTakenAt', () => {
   });
 
   test('when the tablet is further ahead or older than seven days, then the arrival time is used and the claimed time is returned with the reason', () => {
-    expect(decideTakenAt(at(MAX_AHEAD_MS + 1), received)).toEqual({ takenAt: received, source: 'server', refused: { claimed: at(MAX_AHEAD_MS + 1), why: 'ahead' } });
-    expect(decideTakenAt(at(-MAX_AGE_MS - 1), received)).toEqual({ takenAt: received, source: 'server', refused: { claimed: at(-MAX_AGE_MS - 1), why: 'too-old' } });
-    expect(decideTakenAt('not a time', received)).toEqual({ takenAt: received, source: 'server', refused: { claimed: 'not a time', why: 'unreadable' } });
+    expect(decideTakenAt(at(MAX_AHEAD_MS + 1), received)).toEqual({
+      takenAt: received,
+      source: 'server',
+      refused: { claimed: at(MAX_AHEAD_MS + 1), why: 'ahead' },
+    });
+    expect(decideTakenAt(at(-MAX_AGE_MS - 1), received)).toEqual({
+      takenAt: received,
+      source: 'server',
+      refused: { claimed: at(-MAX_AGE_MS - 1), why: 'too-old' },
+    });
+    expect(decideTakenAt('not a time', received)).toEqual({
+      takenAt: received,
+      source: 'server',
+      refused: { claimed: 'not a time', why: 'unreadable' },
+    });
   });
 });

@@ -8,7 +8,10 @@ describe('trace CSV numbers', () => {
   test('every time and volts value equals Number() of its text (toExponential, toFixed, toPrecision forms)', () => {
     fc.assert(
       fc.property(
-        fc.array(fc.tuple(fc.double({ min: -1e3, max: 1e3, noNaN: true }), fc.integer({ min: 0, max: 15 })), { minLength: 16, maxLength: 64 }),
+        fc.array(fc.tuple(fc.double({ min: -1e3, max: 1e3, noNaN: true }), fc.integer({ min: 0, max: 15 })), {
+          minLength: 16,
+          maxLength: 64,
+        }),
         (rows) => {
           const texts = rows.map(([v, d], i) => {
             const time = ((i + 1) * 1.25e-10).toExponential(d % 10);

@@ -186,7 +186,9 @@ describe('parseReading: test-lead offset', () => {
   });
 
   test('a reading below the offset is refused with the reason', () => {
-    expect(messageOf(parseReading('0.2', 'resistance', { leadOffsetOhm: 0.3 }))).toMatch(/below the nulled test-lead resistance \(0\.3 Ω\)/);
+    expect(messageOf(parseReading('0.2', 'resistance', { leadOffsetOhm: 0.3 }))).toMatch(
+      /below the nulled test-lead resistance \(0\.3 Ω\)/,
+    );
   });
 
   // Leads reading more than 1 Ω tips together are worn and replaced (common practice, no published value).
@@ -307,7 +309,7 @@ describe('lengths', () => {
 });
 
 // mathjs unit conversion, 1 ft = 0.3048 m (NIST SP 811).
-describe('lengths typed in the user\'s unit', () => {
+describe("lengths typed in the user's unit", () => {
   test('units and words: m / metres, ft / feet', () => {
     expect([lengthUnitSymbol('metric'), lengthUnitWord('metric')]).toEqual(['m', 'metres']);
     expect([lengthUnitSymbol('imperial'), lengthUnitWord('imperial')]).toEqual(['ft', 'feet']);
@@ -320,7 +322,7 @@ describe('lengths typed in the user\'s unit', () => {
     expect(lengthToMetres(1.5, 'metric')).toBe(1.5);
   });
 
-  test('metres → the user\'s unit: 12 m is 39.37 ft', () => {
+  test("metres → the user's unit: 12 m is 39.37 ft", () => {
     expect(metresToLength(12, 'imperial')).toBeCloseTo(unit(12, 'm').toNumber('ft'), 12);
     expect(metresToLength(12, 'imperial')).toBeCloseTo(39.3700787, 6);
     expect(metresToLength(12, 'metric')).toBe(12);
@@ -410,11 +412,16 @@ describe('parseReading: a separator that could be a thousands separator', () => 
 
   test('property: one to three digits, a comma or a point, exactly three digits and nothing else is refused with both readings', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 999 }), fc.integer({ min: 0, max: 999 }), fc.constantFrom(',', '.'), (whole, part, separator) => {
-        const digits = String(part).padStart(3, '0');
-        const message = messageOf(parseReading(`${whole}${separator}${digits}`));
-        expect(message).toContain(`did you mean ${whole}${digits} Ω or ${whole}.${digits} Ω?`);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 999 }),
+        fc.integer({ min: 0, max: 999 }),
+        fc.constantFrom(',', '.'),
+        (whole, part, separator) => {
+          const digits = String(part).padStart(3, '0');
+          const message = messageOf(parseReading(`${whole}${separator}${digits}`));
+          expect(message).toContain(`did you mean ${whole}${digits} Ω or ${whole}.${digits} Ω?`);
+        },
+      ),
     );
   });
 
@@ -428,12 +435,17 @@ describe('parseReading: a separator that could be a thousands separator', () => 
 
   test('property: a comma before a prefix is refused like a bare one; a point before a prefix is read as a decimal', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 999 }), fc.integer({ min: 0, max: 999 }), fc.constantFrom(['k', 1e3], ['M', 1e6], ['m', 1e-3]), (whole, part, [prefix, factor]) => {
-        const digits = String(part).padStart(3, '0');
-        expect(parseReading(`${whole},${digits}${prefix}`).ok).toBe(false);
-        const value = Number(`${whole}.${digits}`) * (factor as number);
-        if (value <= 2e9) expect(valueOf(parseReading(`${whole}.${digits}${prefix}`))).toBeCloseTo(value, 6);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 999 }),
+        fc.integer({ min: 0, max: 999 }),
+        fc.constantFrom(['k', 1e3], ['M', 1e6], ['m', 1e-3]),
+        (whole, part, [prefix, factor]) => {
+          const digits = String(part).padStart(3, '0');
+          expect(parseReading(`${whole},${digits}${prefix}`).ok).toBe(false);
+          const value = Number(`${whole}.${digits}`) * (factor as number);
+          if (value <= 2e9) expect(valueOf(parseReading(`${whole}.${digits}${prefix}`))).toBeCloseTo(value, 6);
+        },
+      ),
     );
   });
 });
@@ -447,11 +459,16 @@ describe('parseReading: exponents that overflow or underflow', () => {
 
   test('property: a non-zero mantissa with an exponent below −324 or above 308 is refused, never read as 0 or ∞', () => {
     fc.assert(
-      fc.property(fc.integer({ min: 1, max: 9999 }), fc.oneof(fc.integer({ min: -2000, max: -330 }), fc.integer({ min: 309, max: 2000 })), fc.constantFrom<Quantity>('resistance', 'capacitance', 'time'), (mantissa, exponent, quantity) => {
-        const unit = { resistance: 'Ω', capacitance: 'F', time: 's' }[quantity];
-        const message = messageOf(parseReading(`${mantissa}e${exponent} ${unit}`, quantity));
-        expect(message).toMatch(exponent < 0 ? /underflows/ : /overflows/);
-      }),
+      fc.property(
+        fc.integer({ min: 1, max: 9999 }),
+        fc.oneof(fc.integer({ min: -2000, max: -330 }), fc.integer({ min: 309, max: 2000 })),
+        fc.constantFrom<Quantity>('resistance', 'capacitance', 'time'),
+        (mantissa, exponent, quantity) => {
+          const unit = { resistance: 'Ω', capacitance: 'F', time: 's' }[quantity];
+          const message = messageOf(parseReading(`${mantissa}e${exponent} ${unit}`, quantity));
+          expect(message).toMatch(exponent < 0 ? /underflows/ : /overflows/);
+        },
+      ),
     );
   });
 
@@ -488,7 +505,9 @@ describe('parseDecimal', () => {
   });
 
   test('decimalProblem says why: both readings for a possible thousands separator, over- and underflow', () => {
-    expect(decimalProblem('1,500', 'm')).toBe('“1,500” could be read two ways: did you mean 1500 m or 1.500 m? Type 1500 for the first, 1.5 for the second.');
+    expect(decimalProblem('1,500', 'm')).toBe(
+      '“1,500” could be read two ways: did you mean 1500 m or 1.500 m? Type 1500 for the first, 1.5 for the second.',
+    );
     expect(decimalProblem('1e309')).toMatch(/overflows/);
     expect(decimalProblem('1e-400')).toMatch(/underflows/);
     expect(decimalProblem('twelve')).toBe('Type a number.');

@@ -1,13 +1,7 @@
 import { describe, test, expect } from 'vitest';
 import fc from 'fast-check';
 import { create, all } from 'mathjs';
-import {
-  analyseWaveform,
-  estimateFromMarkers,
-  moveMarkers,
-  parseTraceCsv,
-  WaveformError,
-} from '../../shared/domain/waveform';
+import { analyseWaveform, estimateFromMarkers, moveMarkers, parseTraceCsv, WaveformError } from '../../shared/domain/waveform';
 import { synthesiseTrace } from '../setup/synthetic-trace';
 
 const math = create(all!);
@@ -46,9 +40,7 @@ describe('analyseWaveform', () => {
   });
 
   test('sloped baseline and noise: the baseline line is fitted and Δt still within one sample', () => {
-    const a = analyseWaveform(
-      synthesiseTrace({ roundTripS: 211.8e-9, rho: -0.9, noiseV: 0.01, slopeVPerS: 5e4, offsetV: 0.2, seed: 11 }),
-    );
+    const a = analyseWaveform(synthesiseTrace({ roundTripS: 211.8e-9, rho: -0.9, noiseV: 0.01, slopeVPerS: 5e4, offsetV: 0.2, seed: 11 }));
     // Least-squares slope over the ~290 pre-edge samples: standard error σ / (dt · √(N³/12)).
     const standardError = 0.01 / (1e-9 * Math.sqrt(290 ** 3 / 12));
     expect(Math.abs(a.markers.baseline.slopeVPerS - 5e4)).toBeLessThan(4 * standardError);
@@ -249,7 +241,12 @@ describe('parseTraceCsv', () => {
   });
 
   test('more than maxSamples is refused', () => {
-    expect(() => parseTraceCsv(rows(100, (t, v) => `${t},${v}`), { maxSamples: 50 })).toThrow(/more than 50 samples/);
+    expect(() =>
+      parseTraceCsv(
+        rows(100, (t, v) => `${t},${v}`),
+        { maxSamples: 50 },
+      ),
+    ).toThrow(/more than 50 samples/);
   });
 
   test('a million lines parse correctly', () => {

@@ -21,7 +21,12 @@ const forbidden: [string, string, string, string][] = [
   ['lib/ imports a feature', 'src/lib/probe.ts', '@/features/plan/api/plan-edit', 'import-x/no-restricted-paths'],
   ['lib/ imports app code', 'src/lib/probe.ts', '@/app/provider', 'import-x/no-restricted-paths'],
   ['a feature imports app code', 'src/features/plan/components/probe.tsx', '@/app/routes/venues/plan', 'import-x/no-restricted-paths'],
-  ['a feature imports another feature', 'src/features/plan/components/probe.tsx', '@/features/equipment/components/labels', 'import-x/no-restricted-paths'],
+  [
+    'a feature imports another feature',
+    'src/features/plan/components/probe.tsx',
+    '@/features/equipment/components/labels',
+    'import-x/no-restricted-paths',
+  ],
   ['the client imports the server', 'src/lib/probe.ts', '../../server/app', 'no-restricted-imports'],
   ['the server imports the client', 'server/services/probe.ts', '../../src/lib/api-client', 'no-restricted-imports'],
   ['shared/ imports the server', 'shared/domain/probe.ts', '../../server/app', 'no-restricted-imports'],

@@ -29,48 +29,52 @@ function runBackup(dbPath: string, target: string): Promise<{ code: number | nul
 }
 
 describe('npm run backup', () => {
-  test('when writes go on during the backup, then the backup opens, passes integrity_check and holds every reading acknowledged before it began', { timeout: 90_000 }, async () => {
-    server = await startChildServer(PORT);
-    const { base, dir, dbPath } = server;
-    const cookie = await signIn(base, 'sam@lakeshore.example');
-    const { steps } = await hallSteps(base, cookie);
+  test(
+    'when writes go on during the backup, then the backup opens, passes integrity_check and holds every reading acknowledged before it began',
+    { timeout: 90_000 },
+    async () => {
+      server = await startChildServer(PORT);
+      const { base, dir, dbPath } = server;
+      const cookie = await signIn(base, 'sam@lakeshore.example');
+      const { steps } = await hallSteps(base, cookie);
 
-    const acknowledged: string[] = [];
-    let writing = true;
-    const writer = async (w: number) => {
-      for (let i = 0; writing; i++) {
-        const step = steps[(w * 131 + i) % steps.length];
-        const id = randomUUID();
-        const res = await postReading(base, cookie, { id, stepId: step.id, value: step.value });
-        expect(res.status).toBe(201);
-        await res.arrayBuffer();
-        acknowledged.push(id);
-      }
-    };
-    const writers = Array.from({ length: 8 }, (_, w) => writer(w));
-    while (acknowledged.length < 200) await new Promise((r) => setTimeout(r, 10));
-    const beforeBackup = [...acknowledged];
-    const target = join(dir, 'backups', 'during-writes.db');
-    const backup = await runBackup(dbPath, target);
-    const duringBackup = acknowledged.length - beforeBackup.length;
-    writing = false;
-    await Promise.all(writers);
+      const acknowledged: string[] = [];
+      let writing = true;
+      const writer = async (w: number) => {
+        for (let i = 0; writing; i++) {
+          const step = steps[(w * 131 + i) % steps.length];
+          const id = randomUUID();
+          const res = await postReading(base, cookie, { id, stepId: step.id, value: step.value });
+          expect(res.status).toBe(201);
+          await res.arrayBuffer();
+          acknowledged.push(id);
+        }
+      };
+      const writers = Array.from({ length: 8 }, (_, w) => writer(w));
+      while (acknowledged.length < 200) await new Promise((r) => setTimeout(r, 10));
+      const beforeBackup = [...acknowledged];
+      const target = join(dir, 'backups', 'during-writes.db');
+      const backup = await runBackup(dbPath, target);
+      const duringBackup = acknowledged.length - beforeBackup.length;
+      writing = false;
+      await Promise.all(writers);
 
-    expect(backup.code, backup.out).toBe(0);
-    expect(backup.out).toContain('integrity check: ok');
-    expect(existsSync(target)).toBe(true);
-    expect(duringBackup, 'writes went on while the backup ran').toBeGreaterThan(0);
+      expect(backup.code, backup.out).toBe(0);
+      expect(backup.out).toContain('integrity check: ok');
+      expect(existsSync(target)).toBe(true);
+      expect(duringBackup, 'writes went on while the backup ran').toBeGreaterThan(0);
 
-    const copy = new Database(target, { readonly: true });
-    expect(copy.pragma('integrity_check', { simple: true })).toBe('ok');
-    const has = copy.prepare('select 1 from readings where id = ?').pluck();
-    const missing = beforeBackup.filter((id) => !has.get(id));
-    const users = copy.prepare('select count(*) from users').pluck().get() as number;
-    copy.close();
-    expect(missing).toEqual([]);
-    expect(users).toBeGreaterThan(0);
+      const copy = new Database(target, { readonly: true });
+      expect(copy.pragma('integrity_check', { simple: true })).toBe('ok');
+      const has = copy.prepare('select 1 from readings where id = ?').pluck();
+      const missing = beforeBackup.filter((id) => !has.get(id));
+      const users = copy.prepare('select count(*) from users').pluck().get() as number;
+      copy.close();
+      expect(missing).toEqual([]);
+      expect(users).toBeGreaterThan(0);
 
-    await server.stop('SIGTERM');
-    server = null;
-  });
+      await server.stop('SIGTERM');
+      server = null;
+    },
+  );
 });

@@ -139,76 +139,102 @@ async function expectProblemOrSuccess(route: string, res: supertest.Response, se
 
 describe('bad input to every JSON route', () => {
   test('every POST, PUT and PATCH route with a JSON body (by its contract) has a valid body to mutate', () => {
-    const writes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE' && !notJson(r) && bodyKindOf(r.contract) !== 'none');
+    const writes = routesOf(t).filter(
+      (r) => r.method !== 'GET' && r.method !== 'DELETE' && !notJson(r) && bodyKindOf(r.contract) !== 'none',
+    );
     const unknown = writes.map((r) => `${r.method} ${r.path}`).filter((r) => validBody(r) === null);
-    expect(unknown, `New write routes with a JSON body: give them a valid body in validBody() (tests/reliability/bad-input.test.ts):\n  ${unknown.join('\n  ')}`).toEqual([]);
+    expect(
+      unknown,
+      `New write routes with a JSON body: give them a valid body in validBody() (tests/reliability/bad-input.test.ts):\n  ${unknown.join('\n  ')}`,
+    ).toEqual([]);
   });
 
-  test('arbitrary JSON, malformed text and near-valid bodies never give a 500, and every refusal is problem+json', { timeout: 120_000 }, async () => {
-    const routes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE' && !notJson(r));
-    for (const r of routes) {
-      const route = `${r.method} ${r.path}`;
-      // Sign-out would end the session the fuzzing uses: it is sent without one.
-      const agent = route === 'POST /api/auth/sign-out' ? as.anonymous : agentFor(r.access);
-      const send = (body: string) => agent[r.method.toLowerCase() as 'post'](pathOf(r.path)).set('Content-Type', 'application/json').send(body);
-      await fc.assert(
-        fc.asyncProperty(fc.jsonValue({ maxDepth: 3 }), async (value) => {
-          const body = JSON.stringify(value);
-          await expectProblemOrSuccess(route, await send(body), body);
-        }),
-        { numRuns: RUNS },
-      );
-      await fc.assert(
-        fc.asyncProperty(fc.string({ maxLength: 60 }), async (text) => {
-          await expectProblemOrSuccess(route, await send(text), text);
-        }),
-        { numRuns: Math.ceil(RUNS / 2) },
-      );
-      const base = validBody(route);
-      if (base) {
+  test(
+    'arbitrary JSON, malformed text and near-valid bodies never give a 500, and every refusal is problem+json',
+    { timeout: 120_000 },
+    async () => {
+      const routes = routesOf(t).filter((r) => r.method !== 'GET' && r.method !== 'DELETE' && !notJson(r));
+      for (const r of routes) {
+        const route = `${r.method} ${r.path}`;
+        // Sign-out would end the session the fuzzing uses: it is sent without one.
+        const agent = route === 'POST /api/auth/sign-out' ? as.anonymous : agentFor(r.access);
+        const send = (body: string) =>
+          agent[r.method.toLowerCase() as 'post'](pathOf(r.path)).set('Content-Type', 'application/json').send(body);
         await fc.assert(
-          fc.asyncProperty(nearValid(base), async (value) => {
+          fc.asyncProperty(fc.jsonValue({ maxDepth: 3 }), async (value) => {
             const body = JSON.stringify(value);
             await expectProblemOrSuccess(route, await send(body), body);
           }),
           { numRuns: RUNS },
         );
+        await fc.assert(
+          fc.asyncProperty(fc.string({ maxLength: 60 }), async (text) => {
+            await expectProblemOrSuccess(route, await send(text), text);
+          }),
+          { numRuns: Math.ceil(RUNS / 2) },
+        );
+        const base = validBody(route);
+        if (base) {
+          await fc.assert(
+            fc.asyncProperty(nearValid(base), async (value) => {
+              const body = JSON.stringify(value);
+              await expectProblemOrSuccess(route, await send(body), body);
+            }),
+            { numRuns: RUNS },
+          );
+        }
       }
-    }
-  });
+    },
+  );
 });
 
 describe('bad input inside a batch of readings', () => {
-  test('near-valid readings in a batch: each result is a reading or a refusal with its problem, never a 500, and the answer is 200', { timeout: 60_000 }, async () => {
-    const reading = { id: randomUUID(), stepId: params.steps, value: '0.5' };
-    await fc.assert(
-      fc.asyncProperty(fc.array(fc.oneof(nearValid(reading), fc.jsonValue({ maxDepth: 2 })), { minLength: 1, maxLength: 8 }), async (list) => {
-        const body = JSON.stringify({ readings: list });
-        const res = await as.director.post('/api/readings/batch').set('Content-Type', 'application/json').send(body);
-        expect(res.status, `${body.slice(0, 200)} → ${res.status} ${res.text?.slice(0, 200)}`).toBe(200);
-        const results = res.body.results as { status: number; reading?: unknown; problem?: { status: number; detail: string } }[];
-        expect(results).toHaveLength(list.length);
-        for (const r of results) {
-          expect(r.status, `${body.slice(0, 200)} → ${JSON.stringify(r).slice(0, 200)}`).toBeLessThan(500);
-          if (r.status >= 400) expect(r.problem?.status).toBe(r.status);
-          else expect(r.reading).toBeTruthy();
-        }
-      }),
-      { numRuns: RUNS },
-    );
-  });
+  test(
+    'near-valid readings in a batch: each result is a reading or a refusal with its problem, never a 500, and the answer is 200',
+    { timeout: 60_000 },
+    async () => {
+      const reading = { id: randomUUID(), stepId: params.steps, value: '0.5' };
+      await fc.assert(
+        fc.asyncProperty(
+          fc.array(fc.oneof(nearValid(reading), fc.jsonValue({ maxDepth: 2 })), { minLength: 1, maxLength: 8 }),
+          async (list) => {
+            const body = JSON.stringify({ readings: list });
+            const res = await as.director.post('/api/readings/batch').set('Content-Type', 'application/json').send(body);
+            expect(res.status, `${body.slice(0, 200)} → ${res.status} ${res.text?.slice(0, 200)}`).toBe(200);
+            const results = res.body.results as { status: number; reading?: unknown; problem?: { status: number; detail: string } }[];
+            expect(results).toHaveLength(list.length);
+            for (const r of results) {
+              expect(r.status, `${body.slice(0, 200)} → ${JSON.stringify(r).slice(0, 200)}`).toBeLessThan(500);
+              if (r.status >= 400) expect(r.problem?.status).toBe(r.status);
+              else expect(r.reading).toBeTruthy();
+            }
+          },
+        ),
+        { numRuns: RUNS },
+      );
+    },
+  );
 });
 
 describe('bad input to the parsers', () => {
-  const text = fc.oneof(fc.string(), fc.string({ unit: 'grapheme' }), fc.constantFrom('OL', '1e400', '-0', '0,5 kΩ', '∞', '1.2.3', 'NaN', '١٢', '  ', 'Ω'));
+  const text = fc.oneof(
+    fc.string(),
+    fc.string({ unit: 'grapheme' }),
+    fc.constantFrom('OL', '1e400', '-0', '0,5 kΩ', '∞', '1.2.3', 'NaN', '١٢', '  ', 'Ω'),
+  );
 
   test('parseReading answers ok or a message for any text, and never throws', () => {
     fc.assert(
-      fc.property(text, fc.constantFrom<Quantity>('resistance', 'capacitance', 'time'), fc.option(fc.double(), { nil: undefined }), (s, q, lead) => {
-        const r = parseReading(s, q, lead === undefined ? undefined : { leadOffsetOhm: lead });
-        if (r.ok) expect(Number.isFinite(r.value) || r.overRange).toBe(true);
-        else expect(typeof r.message).toBe('string');
-      }),
+      fc.property(
+        text,
+        fc.constantFrom<Quantity>('resistance', 'capacitance', 'time'),
+        fc.option(fc.double(), { nil: undefined }),
+        (s, q, lead) => {
+          const r = parseReading(s, q, lead === undefined ? undefined : { leadOffsetOhm: lead });
+          if (r.ok) expect(Number.isFinite(r.value) || r.overRange).toBe(true);
+          else expect(typeof r.message).toBe('string');
+        },
+      ),
       { numRuns: 2000 },
     );
   });
@@ -234,11 +260,17 @@ describe('bad input to the parsers', () => {
   });
 
   test('parseTraceCsv returns a trace or refuses with a WaveformError, nothing else', () => {
-    const line = fc.tuple(fc.oneof(fc.double().map(String), fc.string({ maxLength: 8 })), fc.constantFrom(',', ';', '\t', ' ', ''), fc.oneof(fc.double().map(String), fc.string({ maxLength: 8 })));
+    const line = fc.tuple(
+      fc.oneof(fc.double().map(String), fc.string({ maxLength: 8 })),
+      fc.constantFrom(',', ';', '\t', ' ', ''),
+      fc.oneof(fc.double().map(String), fc.string({ maxLength: 8 })),
+    );
     const csv = fc.oneof(
       fc.string({ maxLength: 400 }),
       fc.array(line, { maxLength: 60 }).map((ls) => ls.map(([a, d, b]) => a + d + b).join('\n')),
-      fc.array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: 10, maxLength: 80 }).map((vs) => vs.map((v, i) => `${i * 1e-9},${v}`).join('\r\n')),
+      fc
+        .array(fc.double({ min: -1, max: 1, noNaN: true }), { minLength: 10, maxLength: 80 })
+        .map((vs) => vs.map((v, i) => `${i * 1e-9},${v}`).join('\r\n')),
     );
     fc.assert(
       fc.property(csv, fc.option(fc.integer({ min: -5, max: 100 }), { nil: undefined }), (s, max) => {

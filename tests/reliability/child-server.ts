@@ -28,7 +28,11 @@ export interface ChildServerOptions {
   onLine?: (line: string) => void;
 }
 
-export async function startChildServer(port: number, dir = resolve('.tmp/reliability', randomUUID()), opts: ChildServerOptions = {}): Promise<ChildServer> {
+export async function startChildServer(
+  port: number,
+  dir = resolve('.tmp/reliability', randomUUID()),
+  opts: ChildServerOptions = {},
+): Promise<ChildServer> {
   mkdirSync(dir, { recursive: true });
   const dbPath = join(dir, 'sw.db');
   const base = `http://localhost:${port}`;
@@ -115,7 +119,8 @@ export async function hallSteps(base: string, cookie: string) {
     const strip = (await (await fetch(`${base}/api/strips/${s.id}`, { headers })).json()) as {
       positions: { steps: { id: string; testKind: string }[] }[];
     };
-    for (const p of strip.positions) for (const st of p.steps) steps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
+    for (const p of strip.positions)
+      for (const st of p.steps) steps.push({ id: st.id, value: st.testKind === 'insulation' ? 'OL' : '0.45' });
   }
   return { hallId: hall.id, steps };
 }

@@ -247,8 +247,14 @@ describe('the certificate carries the record', () => {
       .send({ reason })
       .expect(200);
     // A plan change re-opens the venue (as a director's edit would), so it is signed off again whole.
-    const ev = t.db.select().from(events).where(eq(events.id, t.db.select().from(venues).where(eq(venues.id, annex)).get()!.eventId)).get()!;
-    t.db.transaction((tx) => reopenIfSignedOff(tx, { venueId: annex, orgId: ev.orgId, actorId: ev.directorId!, reason: 'Plan changed: rotation check.' }));
+    const ev = t.db
+      .select()
+      .from(events)
+      .where(eq(events.id, t.db.select().from(venues).where(eq(venues.id, annex)).get()!.eventId))
+      .get()!;
+    t.db.transaction((tx) =>
+      reopenIfSignedOff(tx, { venueId: annex, orgId: ev.orgId, actorId: ev.directorId!, reason: 'Plan changed: rotation check.' }),
+    );
     expect(statusOf()).toBe('testing');
     const f2 = await lee.post('/api/faults').send({ positionId: annex4.positions[1].id, kind: 'open', conductors: 'B' }).expect(201);
     const signed = await marco

@@ -61,7 +61,9 @@ describe('session cookies', () => {
       `${h}.${p}.`,
       `${h}.${p}`,
       `${header({ alg: 'HS512', typ: 'JWT' })}.${p}.${sig}`,
-      await new SignJWT(payload).setProtectedHeader({ alg: 'HS512', typ: 'JWT' }).sign(t.deps.sessionSecret.length >= 64 ? t.deps.sessionSecret : new Uint8Array(64)),
+      await new SignJWT(payload)
+        .setProtectedHeader({ alg: 'HS512', typ: 'JWT' })
+        .sign(t.deps.sessionSecret.length >= 64 ? t.deps.sessionSecret : new Uint8Array(64)),
       await new SignJWT(payload).setProtectedHeader({ alg: 'HS256', typ: 'JWT' }).sign(new TextEncoder().encode('x'.repeat(40))),
     ];
     for (const v of variants) expect((await me(v)).status, v.slice(0, 60)).toBe(401);
@@ -71,16 +73,28 @@ describe('session cookies', () => {
   test('a live token is refused once its session has expired, gone idle, or been revoked on the server', async () => {
     const at = (ms: number) => new Date(Date.now() + ms).toISOString();
     const expired = await signInToken(DEMO.director);
-    t.db.update(sessions).set({ expiresAt: at(-1000) }).where(eq(sessions.id, claims(expired).sid)).run();
+    t.db
+      .update(sessions)
+      .set({ expiresAt: at(-1000) })
+      .where(eq(sessions.id, claims(expired).sid))
+      .run();
     expect((await me(expired)).status).toBe(401);
 
     const idle = await signInToken(DEMO.director);
-    t.db.update(sessions).set({ lastSeenAt: at(-(t.deps.env.SESSION_IDLE_MINUTES * 60_000 + 1000)) }).where(eq(sessions.id, claims(idle).sid)).run();
+    t.db
+      .update(sessions)
+      .set({ lastSeenAt: at(-(t.deps.env.SESSION_IDLE_MINUTES * 60_000 + 1000)) })
+      .where(eq(sessions.id, claims(idle).sid))
+      .run();
     expect((await me(idle)).status).toBe(401);
 
     const revoked = await signInToken(DEMO.director);
     expect((await me(revoked)).status).toBe(200);
-    t.db.update(sessions).set({ revokedAt: at(0) }).where(eq(sessions.id, claims(revoked).sid)).run();
+    t.db
+      .update(sessions)
+      .set({ revokedAt: at(0) })
+      .where(eq(sessions.id, claims(revoked).sid))
+      .run();
     expect((await me(revoked)).status).toBe(401);
 
     // Revoked by an admin ending all of someone's sessions.
@@ -130,7 +144,10 @@ describe('certificate signatures', () => {
 
   async function verifies(candidate: string) {
     const kid = JSON.parse(Buffer.from(jws.split('.')[0], 'base64url').toString()).kid as string;
-    const key = await importJWK(jwks.keys.find((k) => k.kid === kid)!, 'EdDSA');
+    const key = await importJWK(
+      jwks.keys.find((k) => k.kid === kid)!,
+      'EdDSA',
+    );
     try {
       await compactVerify(candidate, key, { algorithms: ['EdDSA'] });
       return true;
@@ -143,22 +160,26 @@ describe('certificate signatures', () => {
     expect(await verifies(jws)).toBe(true);
   });
 
-  test('the JWS altered at any position of its header and signature, and at a sample of its payload, fails verification', { timeout: 60_000 }, async () => {
-    const [h, p] = jws.split('.');
-    const positions = new Set<number>();
-    for (let i = 0; i <= h.length; i++) positions.add(i); // header and the first dot
-    for (let i = h.length + 1 + p.length; i < jws.length; i++) positions.add(i); // second dot and signature
-    for (let k = 0; k < 400; k++) positions.add(h.length + 1 + Math.floor((k * p.length) / 400)); // payload, evenly
-    const signature = Buffer.from(jws.split('.')[2], 'base64url');
-    const accepted: number[] = [];
-    for (const i of positions) for (const shift of [1, 7]) if (await verifies(alterAt(jws, i, shift))) accepted.push(i);
-    // As with the session token: only the final character's unused bits can change, and then the
-    // signature bytes are the same ones; nothing that was signed can be altered.
-    for (const i of accepted) {
-      expect(i, `position ${i} of ${jws.length} was accepted`).toBe(jws.length - 1);
-      expect(Buffer.from(alterAt(jws, i).split('.')[2], 'base64url')).toEqual(signature);
-    }
-  });
+  test(
+    'the JWS altered at any position of its header and signature, and at a sample of its payload, fails verification',
+    { timeout: 60_000 },
+    async () => {
+      const [h, p] = jws.split('.');
+      const positions = new Set<number>();
+      for (let i = 0; i <= h.length; i++) positions.add(i); // header and the first dot
+      for (let i = h.length + 1 + p.length; i < jws.length; i++) positions.add(i); // second dot and signature
+      for (let k = 0; k < 400; k++) positions.add(h.length + 1 + Math.floor((k * p.length) / 400)); // payload, evenly
+      const signature = Buffer.from(jws.split('.')[2], 'base64url');
+      const accepted: number[] = [];
+      for (const i of positions) for (const shift of [1, 7]) if (await verifies(alterAt(jws, i, shift))) accepted.push(i);
+      // As with the session token: only the final character's unused bits can change, and then the
+      // signature bytes are the same ones; nothing that was signed can be altered.
+      for (const i of accepted) {
+        expect(i, `position ${i} of ${jws.length} was accepted`).toBe(jws.length - 1);
+        expect(Buffer.from(alterAt(jws, i).split('.')[2], 'base64url')).toEqual(signature);
+      }
+    },
+  );
 
   test('a PDF altered by one byte anywhere is not recognised by POST /api/verify/file', { timeout: 60_000 }, async () => {
     const check = (file: Buffer) => t.request.post('/api/verify/file').set('Origin', ORIGIN).attach('file', file, 'certificate.pdf');

@@ -55,8 +55,12 @@ function toRgba(img: DecodedImage): Uint8ClampedArray {
 }
 
 export async function readPdfQrCodes(pdf: Uint8Array): Promise<{ codes: PdfQr[]; text: PdfTextItem[]; pages: number }> {
-  const doc = await getDocument({ data: new Uint8Array(pdf), verbosity: VerbosityLevel.ERRORS, disableFontFace: true, useSystemFonts: false })
-    .promise;
+  const doc = await getDocument({
+    data: new Uint8Array(pdf),
+    verbosity: VerbosityLevel.ERRORS,
+    disableFontFace: true,
+    useSystemFonts: false,
+  }).promise;
   try {
     const codes: PdfQr[] = [];
     const text: PdfTextItem[] = [];
@@ -88,7 +92,8 @@ export async function readPdfQrCodes(pdf: Uint8Array): Promise<{ codes: PdfQr[];
       }
       const content = await page.getTextContent();
       for (const item of content.items)
-        if ('str' in item && item.str.trim() !== '') text.push({ page: n, text: item.str, x: item.transform[4] as number, y: item.transform[5] as number });
+        if ('str' in item && item.str.trim() !== '')
+          text.push({ page: n, text: item.str, x: item.transform[4] as number, y: item.transform[5] as number });
     }
     return { codes, text, pages: doc.numPages };
   } finally {

@@ -24,8 +24,12 @@ interface LoadedFont {
 /** The text of each page and, unless `fonts: false` (it costs most of the time), the fonts used. */
 export async function readPdf(pdf: Uint8Array, opts: { fonts?: boolean } = {}): Promise<PdfContents> {
   // PDF.js takes over (detaches) the buffer it is given: hand it a copy.
-  const doc = await getDocument({ data: new Uint8Array(pdf), verbosity: VerbosityLevel.ERRORS, disableFontFace: true, useSystemFonts: false })
-    .promise;
+  const doc = await getDocument({
+    data: new Uint8Array(pdf),
+    verbosity: VerbosityLevel.ERRORS,
+    disableFontFace: true,
+    useSystemFonts: false,
+  }).promise;
   try {
     const pages: string[] = [];
     const fonts = new Map<string, PdfFont>();

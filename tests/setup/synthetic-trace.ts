@@ -107,7 +107,13 @@ export function syntheticTdrTrace(opts: {
     noiseV: opts.noiseV ?? 0.002,
     seed: opts.seed ?? 1,
   });
-  return { csv: traceCsv(trace), incidentS, reflectionS: incidentS + opts.roundTripNs * 1e-9, roundTripNs: opts.roundTripNs, sampleIntervalS: dtS };
+  return {
+    csv: traceCsv(trace),
+    incidentS,
+    reflectionS: incidentS + opts.roundTripNs * 1e-9,
+    roundTripNs: opts.roundTripNs,
+    sampleIntervalS: dtS,
+  };
 }
 
 /** Round trip for a fault at `distanceM` on a cable of velocity factor `vf` (d = VF · c · Δt / 2). */

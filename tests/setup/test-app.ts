@@ -26,7 +26,9 @@ export const DEMO = {
 const quietLog: Logger = { info: () => {}, error: (msg, err) => console.error(msg, err) };
 
 /** A real SQLite file per test file, copied from the migrated template, with the demo scenario. */
-export async function createTestApp(opts: { seed?: boolean; env?: Record<string, string>; distDir?: string; workers?: WorkerPoolOptions } = {}) {
+export async function createTestApp(
+  opts: { seed?: boolean; env?: Record<string, string>; distDir?: string; workers?: WorkerPoolOptions } = {},
+) {
   const dir = resolve('.tmp/test-db', randomUUID());
   mkdirSync(dir, { recursive: true });
   const dbPath = resolve(dir, 'test.db');
@@ -73,7 +75,10 @@ export async function createTestApp(opts: { seed?: boolean; env?: Record<string,
    */
   async function linkSentTo(email: string, opts: { after?: number } = {}): Promise<{ link: string; token: string }> {
     for (let i = 0; i < 500; i++) {
-      const found = oneTimeLinks.slice(opts.after ?? 0).filter((l) => l.to.includes(email)).at(-1);
+      const found = oneTimeLinks
+        .slice(opts.after ?? 0)
+        .filter((l) => l.to.includes(email))
+        .at(-1);
       if (found) return { link: found.link, token: found.link.split('/set-password/')[1]! };
       await new Promise((r) => setTimeout(r, 20));
     }

@@ -2,7 +2,8 @@
 // director's amendments (new strip certificates without re-opening the venue).
 import { index, integer, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { createdAt, id, now } from './columns';
-import { equipment, positions, strips, users, venues } from './core';
+import { users } from './accounts';
+import { equipment, positions, strips, venues } from './core';
 import { signOffs } from './records';
 
 export const amendments = sqliteTable(

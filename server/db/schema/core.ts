@@ -3,61 +3,15 @@
 import { createdAt, id, now } from './columns';
 import { index, integer, primaryKey, real, sqliteTable, text, uniqueIndex } from 'drizzle-orm/sqlite-core';
 import { DEFAULT_TIME_ZONE } from '../../../shared/format/date-time';
-
-
-export const organisations = sqliteTable('organisations', {
-  id: id(),
-  name: text('name').notNull(),
-  createdAt: createdAt(),
-});
-
-export const users = sqliteTable(
-  'users',
-  {
-    id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
-    email: text('email').notNull(),
-    name: text('name').notNull(),
-    role: text('role', { enum: ['admin', 'organiser', 'director', 'technician'] }).notNull(),
-    // Null until an invited person sets a password.
-    passwordHash: text('password_hash'),
-    disabled: integer('disabled', { mode: 'boolean' }).notNull().default(false),
-    unitSystem: text('unit_system', { enum: ['metric', 'imperial'] }).notNull().default('metric'),
-    createdAt: createdAt(),
-  },
-  (t) => [uniqueIndex('users_email_unique').on(t.email)],
-);
-
-export const sessions = sqliteTable(
-  'sessions',
-  {
-    id: id(),
-    userId: text('user_id').notNull().references(() => users.id),
-    createdAt: createdAt(),
-    lastSeenAt: text('last_seen_at').notNull(),
-    expiresAt: text('expires_at').notNull(),
-    revokedAt: text('revoked_at'),
-    userAgent: text('user_agent'),
-  },
-  (t) => [index('sessions_user_idx').on(t.userId)],
-);
-
-// One-time links: invitations and password resets. Only the SHA-256 of the token is kept.
-export const userTokens = sqliteTable('user_tokens', {
-  id: id(),
-  userId: text('user_id').notNull().references(() => users.id),
-  purpose: text('purpose', { enum: ['invite', 'reset'] }).notNull(),
-  tokenHash: text('token_hash').notNull().unique(),
-  expiresAt: text('expires_at').notNull(),
-  usedAt: text('used_at'),
-  createdAt: createdAt(),
-});
+import { organisations, users } from './accounts';
 
 export const limitProfiles = sqliteTable(
   'limit_profiles',
   {
     id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
+    orgId: text('org_id')
+      .notNull()
+      .references(() => organisations.id),
     // All versions of one profile share a lineage; editing adds a version, never rewrites one.
     lineageId: text('lineage_id').notNull(),
     name: text('name').notNull(),
@@ -75,7 +29,9 @@ export const limitProfiles = sqliteTable(
 
 export const events = sqliteTable('events', {
   id: id(),
-  orgId: text('org_id').notNull().references(() => organisations.id),
+  orgId: text('org_id')
+    .notNull()
+    .references(() => organisations.id),
   name: text('name').notNull(),
   startsOn: text('starts_on').notNull(),
   endsOn: text('ends_on').notNull(),
@@ -88,10 +44,16 @@ export const venues = sqliteTable(
   'venues',
   {
     id: id(),
-    eventId: text('event_id').notNull().references(() => events.id),
+    eventId: text('event_id')
+      .notNull()
+      .references(() => events.id),
     name: text('name').notNull(),
-    profileId: text('profile_id').notNull().references(() => limitProfiles.id),
-    status: text('status', { enum: ['planning', 'testing', 'signed-off'] }).notNull().default('planning'),
+    profileId: text('profile_id')
+      .notNull()
+      .references(() => limitProfiles.id),
+    status: text('status', { enum: ['planning', 'testing', 'signed-off'] })
+      .notNull()
+      .default('planning'),
     // Optimistic concurrency for plan edits (ETag / If-Match).
     version: integer('version').notNull().default(1),
     clonedFromId: text('cloned_from_id'),
@@ -105,8 +67,12 @@ export const venues = sqliteTable(
 export const venueTechnicians = sqliteTable(
   'venue_technicians',
   {
-    venueId: text('venue_id').notNull().references(() => venues.id),
-    userId: text('user_id').notNull().references(() => users.id),
+    venueId: text('venue_id')
+      .notNull()
+      .references(() => venues.id),
+    userId: text('user_id')
+      .notNull()
+      .references(() => users.id),
   },
   (t) => [primaryKey({ columns: [t.venueId, t.userId] })],
 );
@@ -115,7 +81,9 @@ export const strips = sqliteTable(
   'strips',
   {
     id: id(),
-    venueId: text('venue_id').notNull().references(() => venues.id),
+    venueId: text('venue_id')
+      .notNull()
+      .references(() => venues.id),
     label: text('label').notNull(),
     sortOrder: integer('sort_order').notNull(),
     zone: text('zone'),
@@ -136,7 +104,9 @@ export const equipment = sqliteTable(
   'equipment',
   {
     id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
+    orgId: text('org_id')
+      .notNull()
+      .references(() => organisations.id),
     assetTag: text('asset_tag').notNull(),
     kind: text('kind', { enum: ['floor-cable', 'reel', 'piste', 'body-wire', 'apparatus', 'other'] }).notNull(),
     description: text('description').notNull().default(''),
@@ -145,7 +115,9 @@ export const equipment = sqliteTable(
     awg: integer('awg'),
     cableType: text('cable_type'),
     velocityFactor: real('velocity_factor'),
-    status: text('status', { enum: ['in-service', 'under-repair', 'retired'] }).notNull().default('in-service'),
+    status: text('status', { enum: ['in-service', 'under-repair', 'retired'] })
+      .notNull()
+      .default('in-service'),
     notes: text('notes'),
     version: integer('version').notNull().default(1),
     createdAt: createdAt(),
@@ -157,7 +129,9 @@ export const equipment = sqliteTable(
 
 export const velocityCalibrations = sqliteTable('velocity_calibrations', {
   id: id(),
-  equipmentId: text('equipment_id').notNull().references(() => equipment.id),
+  equipmentId: text('equipment_id')
+    .notNull()
+    .references(() => equipment.id),
   velocityFactor: real('velocity_factor').notNull(),
   lengthM: real('length_m').notNull(),
   roundTripNs: real('round_trip_ns').notNull(),
@@ -169,7 +143,9 @@ export const positions = sqliteTable(
   'positions',
   {
     id: id(),
-    stripId: text('strip_id').notNull().references(() => strips.id),
+    stripId: text('strip_id')
+      .notNull()
+      .references(() => strips.id),
     name: text('name').notNull(),
     equipmentKind: text('equipment_kind', {
       enum: ['floor-cable', 'reel', 'piste', 'body-wire', 'apparatus', 'other'],
@@ -183,8 +159,12 @@ export const positions = sqliteTable(
 // Which item sat in which position and when, so an item's history shows the strips it was on.
 export const positionAssignments = sqliteTable('position_assignments', {
   id: id(),
-  positionId: text('position_id').notNull().references(() => positions.id),
-  equipmentId: text('equipment_id').notNull().references(() => equipment.id),
+  positionId: text('position_id')
+    .notNull()
+    .references(() => positions.id),
+  equipmentId: text('equipment_id')
+    .notNull()
+    .references(() => equipment.id),
   assignedAt: text('assigned_at').notNull().default(now),
   removedAt: text('removed_at'),
   assignedBy: text('assigned_by').references(() => users.id),
@@ -194,7 +174,9 @@ export const steps = sqliteTable(
   'steps',
   {
     id: id(),
-    positionId: text('position_id').notNull().references(() => positions.id),
+    positionId: text('position_id')
+      .notNull()
+      .references(() => positions.id),
     testKind: text('test_kind', {
       enum: ['continuity', 'insulation', 'loop', 'piste-end-to-end', 'piste-earth'],
     }).notNull(),
@@ -216,8 +198,12 @@ export const leadNulls = sqliteTable(
   'lead_nulls',
   {
     id: id(),
-    orgId: text('org_id').notNull().references(() => organisations.id),
-    takenBy: text('taken_by').notNull().references(() => users.id),
+    orgId: text('org_id')
+      .notNull()
+      .references(() => organisations.id),
+    takenBy: text('taken_by')
+      .notNull()
+      .references(() => users.id),
     // The sign-in session it was sent from (null if that session is gone from the record).
     sessionId: text('session_id'),
     valueText: text('value_text').notNull(),
@@ -234,7 +220,9 @@ export const readings = sqliteTable(
   'readings',
   {
     id: id(), // made by the client, so a replay is recognised
-    stepId: text('step_id').notNull().references(() => steps.id),
+    stepId: text('step_id')
+      .notNull()
+      .references(() => steps.id),
     equipmentId: text('equipment_id').references(() => equipment.id),
     valueText: text('value_text').notNull(),
     valueOhm: real('value_ohm'),
@@ -248,14 +236,18 @@ export const readings = sqliteTable(
     limitKind: text('limit_kind', { enum: ['max', 'min'] }),
     source: text('source').notNull(),
     ruleId: text('rule_id'),
-    profileId: text('profile_id').notNull().references(() => limitProfiles.id),
+    profileId: text('profile_id')
+      .notNull()
+      .references(() => limitProfiles.id),
     profileVersion: integer('profile_version').notNull(),
     explanation: text('explanation').notNull(),
     supersedesId: text('supersedes_id'),
     correctionReason: text('correction_reason'),
     // Fingerprint of the request body, to tell an idempotent replay from a different body.
     requestHash: text('request_hash').notNull(),
-    takenBy: text('taken_by').notNull().references(() => users.id),
+    takenBy: text('taken_by')
+      .notNull()
+      .references(() => users.id),
     takenAt: text('taken_at').notNull().default(now),
     // When the server got it (a reading typed offline arrives later than it was taken). Null on
     // rows from before this column: they were stamped on arrival, so taken_at is that time.
@@ -268,17 +260,25 @@ export const faults = sqliteTable(
   'faults',
   {
     id: id(),
-    stripId: text('strip_id').notNull().references(() => strips.id),
-    positionId: text('position_id').notNull().references(() => positions.id),
+    stripId: text('strip_id')
+      .notNull()
+      .references(() => strips.id),
+    positionId: text('position_id')
+      .notNull()
+      .references(() => positions.id),
     equipmentId: text('equipment_id').references(() => equipment.id),
     stepId: text('step_id').references(() => steps.id),
     readingId: text('reading_id').references(() => readings.id),
     kind: text('kind', { enum: ['short', 'open', 'high-resistance', 'intermittent'] }).notNull(),
     conductors: text('conductors').notNull(),
-    status: text('status', { enum: ['open', 'located', 'repaired', 'closed'] }).notNull().default('open'),
+    status: text('status', { enum: ['open', 'located', 'repaired', 'closed'] })
+      .notNull()
+      .default('open'),
     notes: text('notes'),
     version: integer('version').notNull().default(1),
-    openedBy: text('opened_by').notNull().references(() => users.id),
+    openedBy: text('opened_by')
+      .notNull()
+      .references(() => users.id),
     openedAt: text('opened_at').notNull().default(now),
     closedAt: text('closed_at'),
     // A fault that was a typing mistake is closed by the event's director with a reason, not by a
@@ -293,7 +293,9 @@ export const faults = sqliteTable(
 
 export const faultEstimates = sqliteTable('fault_estimates', {
   id: id(),
-  faultId: text('fault_id').notNull().references(() => faults.id),
+  faultId: text('fault_id')
+    .notNull()
+    .references(() => faults.id),
   method: text('method').notNull(),
   fromEnd: text('from_end').notNull().default('near'),
   inputsJson: text('inputs_json').notNull(),
@@ -302,19 +304,25 @@ export const faultEstimates = sqliteTable('fault_estimates', {
   resultJson: text('result_json').notNull(),
   // The item's recorded length when the estimate was made: a later cut-out does not move it.
   itemLengthM: real('item_length_m'),
-  createdBy: text('created_by').notNull().references(() => users.id),
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
 });
 
 export const repairs = sqliteTable('repairs', {
   id: id(),
-  faultId: text('fault_id').notNull().references(() => faults.id),
+  faultId: text('fault_id')
+    .notNull()
+    .references(() => faults.id),
   equipmentId: text('equipment_id').references(() => equipment.id),
   action: text('action', { enum: ['cut-out', 'connector-remade', 'swapped', 'retired'] }).notNull(),
   lengthRemovedM: real('length_removed_m'),
   lengthBeforeM: real('length_before_m'),
   replacementEquipmentId: text('replacement_equipment_id').references(() => equipment.id),
   notes: text('notes'),
-  createdBy: text('created_by').notNull().references(() => users.id),
+  createdBy: text('created_by')
+    .notNull()
+    .references(() => users.id),
   createdAt: createdAt(),
 });

@@ -2,17 +2,24 @@
 // captured mail, the health probe and idempotent replays.
 import { index, integer, sqliteTable, text } from 'drizzle-orm/sqlite-core';
 import { createdAt, id, now } from './columns';
-import { organisations, strips, users, venues } from './core';
+import { organisations, users } from './accounts';
+import { strips, venues } from './core';
 
 export const signOffs = sqliteTable('sign_offs', {
   id: id(),
-  venueId: text('venue_id').notNull().references(() => venues.id),
-  signedBy: text('signed_by').notNull().references(() => users.id),
+  venueId: text('venue_id')
+    .notNull()
+    .references(() => venues.id),
+  signedBy: text('signed_by')
+    .notNull()
+    .references(() => users.id),
   signedAt: text('signed_at').notNull().default(now),
   statement: text('statement').notNull(),
   exceptionsJson: text('exceptions_json').notNull().default('[]'),
   readingsDigest: text('readings_digest').notNull(),
-  status: text('status', { enum: ['active', 'superseded'] }).notNull().default('active'),
+  status: text('status', { enum: ['active', 'superseded'] })
+    .notNull()
+    .default('active'),
   supersededAt: text('superseded_at'),
   supersededReason: text('superseded_reason'),
 });
@@ -29,14 +36,22 @@ export const certificates = sqliteTable(
   {
     id: id(),
     number: text('number').notNull().unique(),
-    signOffId: text('sign_off_id').notNull().references(() => signOffs.id),
-    venueId: text('venue_id').notNull().references(() => venues.id),
+    signOffId: text('sign_off_id')
+      .notNull()
+      .references(() => signOffs.id),
+    venueId: text('venue_id')
+      .notNull()
+      .references(() => venues.id),
     stripId: text('strip_id').references(() => strips.id),
     kind: text('kind', { enum: ['venue', 'strip'] }).notNull(),
-    status: text('status', { enum: ['valid', 'superseded', 'revoked'] }).notNull().default('valid'),
+    status: text('status', { enum: ['valid', 'superseded', 'revoked'] })
+      .notNull()
+      .default('valid'),
     payloadJson: text('payload_json').notNull(),
     jws: text('jws').notNull(),
-    keyId: text('key_id').notNull().references(() => signingKeys.kid),
+    keyId: text('key_id')
+      .notNull()
+      .references(() => signingKeys.kid),
     pdfSha256: text('pdf_sha256'),
     pdfPath: text('pdf_path'),
     issuedAt: text('issued_at').notNull().default(now),
@@ -66,7 +81,9 @@ export const attachments = sqliteTable(
     storedName: text('stored_name').notNull(),
     originalName: text('original_name').notNull(),
     previewName: text('preview_name'),
-    createdBy: text('created_by').notNull().references(() => users.id),
+    createdBy: text('created_by')
+      .notNull()
+      .references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [index('attachments_owner_idx').on(t.ownerType, t.ownerId)],

@@ -44,7 +44,8 @@ export function DataTable<T>({
   table: Table<T>;
   look?: DataTableLook;
   rowProps?: (row: Row<T>) => HTMLAttributes<HTMLTableRowElement> & Record<`data-${string}`, string | number | undefined>;
-} & Omit<HTMLAttributes<HTMLTableElement>, 'children'> & Record<`data-${string}`, string | undefined>) {
+} & Omit<HTMLAttributes<HTMLTableElement>, 'children'> &
+  Record<`data-${string}`, string | undefined>) {
   return (
     <table className={look.table} {...props}>
       <thead className={look.head}>

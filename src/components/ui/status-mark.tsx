@@ -52,7 +52,9 @@ export function StatusMark({
 }) {
   const sizes = { sm: 'px-2 py-0.5 text-xs', md: 'px-2.5 py-1 text-sm', lg: 'px-3 py-1.5 text-base' };
   return (
-    <span className={`inline-flex items-center gap-1.5 rounded-full border font-semibold whitespace-nowrap ${chip[tone]} ${sizes[size]} ${className}`}>
+    <span
+      className={`inline-flex items-center gap-1.5 rounded-full border font-semibold whitespace-nowrap ${chip[tone]} ${sizes[size]} ${className}`}
+    >
       <MarkIcon shape={shape} tone={tone} className={size === 'lg' ? 'size-5' : 'size-3.5'} />
       {label}
     </span>

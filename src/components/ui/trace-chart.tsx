@@ -138,7 +138,9 @@ export function TraceChart({
     const timeAt = (e: PointerEvent) => plot.posToVal(e.clientX - over.getBoundingClientRect().left, 'x') * 1e-9;
     const down = (e: PointerEvent) => {
       const x = e.clientX - over.getBoundingClientRect().left;
-      const near = IDS.map((w) => ({ w, d: Math.abs(plot.valToPos(state.current.markers[w] * 1e9, 'x') - x) })).sort((a, b) => a.d - b.d)[0]!;
+      const near = IDS.map((w) => ({ w, d: Math.abs(plot.valToPos(state.current.markers[w] * 1e9, 'x') - x) })).sort(
+        (a, b) => a.d - b.d,
+      )[0]!;
       dragging = near.d <= GRAB_PX ? near.w : state.current.active;
       state.current.setActive(dragging);
       over.setPointerCapture(e.pointerId);
@@ -209,8 +211,8 @@ export function TraceChart({
         </Button>
       </div>
       <p className="text-xs text-ink-soft">
-        Drag a marker, or choose one below and tap the trace where it belongs. Arrow keys move the chosen marker by one sample (with
-        Shift, ten).{footnote ? <> {footnote}</> : null}
+        Drag a marker, or choose one below and tap the trace where it belongs. Arrow keys move the chosen marker by one sample (with Shift,
+        ten).{footnote ? <> {footnote}</> : null}
       </p>
 
       <div className="grid gap-3 md:grid-cols-2">

@@ -44,7 +44,9 @@ export default function OutboxPage() {
           {message.data && (
             <article>
               <h2 className="text-lg font-semibold">{message.data.subject}</h2>
-              <p className="text-xs text-ink-soft">From {message.data.fromAddress} to {message.data.toAddresses}</p>
+              <p className="text-xs text-ink-soft">
+                From {message.data.fromAddress} to {message.data.toAddresses}
+              </p>
               <MessageText text={message.data.text} />
             </article>
           )}

@@ -47,7 +47,9 @@ function PeopleTable({
           const u = c.row.original;
           return (
             <>
-              <label className="sr-only" htmlFor={`role-${u.id}`}>Role of {u.name}</label>
+              <label className="sr-only" htmlFor={`role-${u.id}`}>
+                Role of {u.name}
+              </label>
               <select
                 id={`role-${u.id}`}
                 className="min-h-touch rounded-md border border-line bg-card px-2"
@@ -56,14 +58,20 @@ function PeopleTable({
                 onChange={(e) => onRole(u.id, e.target.value as InviteUserInput['role'])}
               >
                 {ROLES.map((r) => (
-                  <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                  <option key={r} value={r}>
+                    {ROLE_LABELS[r]}
+                  </option>
                 ))}
               </select>
             </>
           );
         },
       }),
-      col.display({ id: 'state', header: 'State', cell: (c) => (c.row.original.disabled ? 'Disabled' : c.row.original.invited ? 'Invited, no password yet' : 'Active') }),
+      col.display({
+        id: 'state',
+        header: 'State',
+        cell: (c) => (c.row.original.disabled ? 'Disabled' : c.row.original.invited ? 'Invited, no password yet' : 'Active'),
+      }),
       col.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
@@ -128,19 +136,26 @@ export default function PeoplePage() {
             className="mt-4 flex flex-col gap-3"
             noValidate
             onSubmit={form.handleSubmit(async (v) => {
-              await invite.mutateAsync(v).then(() => form.reset(), () => undefined);
+              await invite.mutateAsync(v).then(
+                () => form.reset(),
+                () => undefined,
+              );
             })}
           >
             <TextField label="Name" {...form.register('name')} error={form.formState.errors.name?.message} />
             <TextField label="E-mail" type="email" {...form.register('email')} error={form.formState.errors.email?.message} />
             <SelectField label="Role" {...form.register('role')}>
               {ROLES.map((r) => (
-                <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
               ))}
             </SelectField>
             {invite.isError && <Notice tone="error">{invite.error.message}</Notice>}
             {invite.isSuccess && <Notice tone="success">Invitation sent to {invite.data.email}.</Notice>}
-            <Button type="submit" disabled={form.formState.isSubmitting}>Send invitation</Button>
+            <Button type="submit" disabled={form.formState.isSubmitting}>
+              Send invitation
+            </Button>
           </form>
         </Card>
       </div>

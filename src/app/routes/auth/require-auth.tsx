@@ -20,7 +20,12 @@ export function RequireAuth() {
   // The tablet's outbox sends the signed-in person's own readings only.
   useEffect(() => setOutboxUser(userId), [userId]);
   if (me.isPending && me.fetchStatus === 'paused') {
-    return <ErrorView title="No network" message="This tablet is offline and nobody has signed in on it yet. Sign in once with a network; after that testing works offline." />;
+    return (
+      <ErrorView
+        title="No network"
+        message="This tablet is offline and nobody has signed in on it yet. Sign in once with a network; after that testing works offline."
+      />
+    );
   }
   if (me.isPending) return <Loading />;
   // No answer from the server is not a sign-out: the user kept on the tablet stays signed in.
@@ -42,12 +47,7 @@ export function RequireAuth() {
 }
 
 export function NotAllowed() {
-  return (
-    <ErrorView
-      title="Not allowed"
-      message="Your role does not give access to this page. Ask an admin if you need it."
-    />
-  );
+  return <ErrorView title="Not allowed" message="Your role does not give access to this page. Ask an admin if you need it." />;
 }
 
 /** A page for some roles only: others see a plain "not allowed". */

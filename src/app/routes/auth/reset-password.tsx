@@ -21,10 +21,22 @@ export default function ResetPasswordPage() {
             <Notice tone="success">{reset.data.detail}</Notice>
           </div>
         ) : (
-          <form className="mt-4 flex flex-col gap-4" noValidate onSubmit={form.handleSubmit((v) => reset.mutateAsync(v).catch(() => undefined))}>
-            <TextField label="E-mail" type="email" autoComplete="username" {...form.register('email')} error={form.formState.errors.email?.message} />
+          <form
+            className="mt-4 flex flex-col gap-4"
+            noValidate
+            onSubmit={form.handleSubmit((v) => reset.mutateAsync(v).catch(() => undefined))}
+          >
+            <TextField
+              label="E-mail"
+              type="email"
+              autoComplete="username"
+              {...form.register('email')}
+              error={form.formState.errors.email?.message}
+            />
             {reset.isError && <Notice tone="error">{reset.error.message}</Notice>}
-            <Button type="submit" disabled={form.formState.isSubmitting}>Send the link</Button>
+            <Button type="submit" disabled={form.formState.isSubmitting}>
+              Send the link
+            </Button>
           </form>
         )}
         <Link to={paths.signIn} className="mt-4 inline-flex min-h-touch items-center text-sm font-medium text-brand underline">

@@ -26,7 +26,10 @@ export default function SetPasswordPage() {
         {setPassword.isSuccess ? (
           <div className="mt-4 flex flex-col gap-4">
             <Notice tone="success">Your password is set. You can sign in now.</Notice>
-            <Link to="/sign-in" className="inline-flex min-h-touch items-center justify-center rounded-lg bg-brand px-4 font-medium text-white">
+            <Link
+              to="/sign-in"
+              className="inline-flex min-h-touch items-center justify-center rounded-lg bg-brand px-4 font-medium text-white"
+            >
               Go to sign-in
             </Link>
           </div>

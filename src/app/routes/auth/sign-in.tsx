@@ -27,10 +27,19 @@ export default function SignInPage() {
           className="mt-6 flex flex-col gap-4"
           noValidate
           onSubmit={form.handleSubmit(async (values) => {
-            await signIn.mutateAsync(values).then(() => navigate(target, { replace: true }), () => undefined);
+            await signIn.mutateAsync(values).then(
+              () => navigate(target, { replace: true }),
+              () => undefined,
+            );
           })}
         >
-          <TextField label="E-mail" type="email" autoComplete="username" {...form.register('email')} error={form.formState.errors.email?.message} />
+          <TextField
+            label="E-mail"
+            type="email"
+            autoComplete="username"
+            {...form.register('email')}
+            error={form.formState.errors.email?.message}
+          />
           <TextField
             label="Password"
             type="password"

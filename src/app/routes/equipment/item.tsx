@@ -20,9 +20,16 @@ import { paths } from '@/config/paths';
 import { minutesText } from '@/lib/minutes';
 import { AttachmentsPanel } from '@/features/attachments/components/attachments-panel';
 
-const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
+const VERDICT = Object.fromEntries(
+  (['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]]),
+) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const INCIDENT_ROLE_LABELS = { 'in-position': 'in the position', removed: 'swapped out', installed: 'put in as the spare' } as const;
-const REPAIR_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped for another item', retired: 'Retired' } as const;
+const REPAIR_LABELS = {
+  'cut-out': 'Section cut out',
+  'connector-remade': 'Connector remade',
+  swapped: 'Swapped for another item',
+  retired: 'Retired',
+} as const;
 
 function Section({ title, count, children }: { title: string; count: number; children: React.ReactNode }) {
   return (
@@ -45,7 +52,10 @@ const col = createColumnHelper<ItemReading>();
 const readingColumns = [
   col.accessor('takenAt', { header: 'When', cell: (c) => <When at={c.getValue()} />, meta: { cellClassName: 'text-ink-soft' } }),
   col.display({ id: 'where', header: 'Where', cell: (c) => `${c.row.original.stripLabel} · ${c.row.original.venueName}` }),
-  col.accessor('testKind', { header: 'Test', cell: (c) => `${TEST_KIND_LABELS[c.getValue() as TestKind] ?? c.getValue()} ${c.row.original.conductors}` }),
+  col.accessor('testKind', {
+    header: 'Test',
+    cell: (c) => `${TEST_KIND_LABELS[c.getValue() as TestKind] ?? c.getValue()} ${c.row.original.conductors}`,
+  }),
   col.accessor('valueText', { header: 'Value', meta: { cellClassName: 'font-mono' } }),
   col.accessor('verdict', {
     header: 'Verdict',
@@ -82,7 +92,10 @@ export default function EquipmentItemPage() {
         subtitle={
           <>
             {EQUIPMENT_KIND_LABELS[item.kind]}
-            {item.description ? ` · ${item.description}` : ''} · <Link className="text-brand underline" to={paths.equipment}>Back to the register</Link>
+            {item.description ? ` · ${item.description}` : ''} ·{' '}
+            <Link className="text-brand underline" to={paths.equipment}>
+              Back to the register
+            </Link>
           </>
         }
         actions={
@@ -183,8 +196,12 @@ export default function EquipmentItemPage() {
                   <Link to={paths.fault(f.id)} className="font-semibold text-brand underline">
                     {f.kind} on {f.conductors}
                   </Link>
-                  <span>{f.stripLabel}, {f.positionName} · {f.venueName}</span>
-                  <span className="text-ink-soft">{f.status} · <When at={f.openedAt} /></span>
+                  <span>
+                    {f.stripLabel}, {f.positionName} · {f.venueName}
+                  </span>
+                  <span className="text-ink-soft">
+                    {f.status} · <When at={f.openedAt} />
+                  </span>
                 </li>
               ))}
             </ul>
@@ -195,9 +212,18 @@ export default function EquipmentItemPage() {
                 <li key={r.id} className="px-5 py-3">
                   <span className="font-semibold">{r.role === 'replacement' ? 'Put in as a replacement' : REPAIR_LABELS[r.action]}</span>
                   {r.action === 'cut-out' && r.lengthRemovedM != null && (
-                    <span> · {lengthText(r.lengthRemovedM, system)} removed{r.lengthBeforeM != null && r.lengthAfterM != null && `: ${lengthText(r.lengthBeforeM, system)} → ${lengthText(r.lengthAfterM, system)}`}</span>
+                    <span>
+                      {' '}
+                      · {lengthText(r.lengthRemovedM, system)} removed
+                      {r.lengthBeforeM != null &&
+                        r.lengthAfterM != null &&
+                        `: ${lengthText(r.lengthBeforeM, system)} → ${lengthText(r.lengthAfterM, system)}`}
+                    </span>
                   )}
-                  <span className="block text-ink-soft">{r.byName ?? '—'} · <When at={r.createdAt} />{r.notes ? ` · ${r.notes}` : ''}</span>
+                  <span className="block text-ink-soft">
+                    {r.byName ?? '—'} · <When at={r.createdAt} />
+                    {r.notes ? ` · ${r.notes}` : ''}
+                  </span>
                 </li>
               ))}
             </ul>
@@ -207,8 +233,12 @@ export default function EquipmentItemPage() {
               {calibrations.map((c) => (
                 <li key={c.id} className="flex flex-wrap justify-between gap-2 px-5 py-3">
                   <span className="font-semibold tabular-nums">VF {c.velocityFactor.toFixed(3)}</span>
-                  <span>{c.roundTripNs} ns over {lengthText(c.lengthM, system)}</span>
-                  <span className="text-ink-soft">{c.byName ?? '—'} · <When at={c.createdAt} /></span>
+                  <span>
+                    {c.roundTripNs} ns over {lengthText(c.lengthM, system)}
+                  </span>
+                  <span className="text-ink-soft">
+                    {c.byName ?? '—'} · <When at={c.createdAt} />
+                  </span>
                 </li>
               ))}
             </ul>

@@ -44,29 +44,49 @@ export default function EquipmentRegisterPage() {
       {scanning && (
         <LabelScanner
           title="Find an item by its label"
-          hint={canManage ? 'Point the camera at an item’s label: a known tag opens the item, a new one goes into the form to register it.' : 'Point the camera at an item’s label to open the item.'}
+          hint={
+            canManage
+              ? 'Point the camera at an item’s label: a known tag opens the item, a new one goes into the form to register it.'
+              : 'Point the camera at an item’s label to open the item.'
+          }
           onClose={() => setScanning(false)}
           onCode={onCode}
         />
       )}
       <PageHeader
         title="Equipment register"
-        subtitle={canManage ? 'Every tagged item of the organisation, with its history across events.' : 'Every tagged item of the organisation (read only for your role).'}
+        subtitle={
+          canManage
+            ? 'Every tagged item of the organisation, with its history across events.'
+            : 'Every tagged item of the organisation (read only for your role).'
+        }
         actions={
           <>
             <Button variant="secondary" onClick={() => setScanning(true)}>
               Scan a label
             </Button>
             {canManage && (
-              <a href={registerLabelsUrl(filter)} target="_blank" rel="noreferrer" className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper">
+              <a
+                href={registerLabelsUrl(filter)}
+                target="_blank"
+                rel="noreferrer"
+                className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper"
+              >
                 Print labels
               </a>
             )}
-            <a href={paths.equipmentCsv} download className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper">
+            <a
+              href={paths.equipmentCsv}
+              download
+              className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium hover:bg-paper"
+            >
               Export CSV
             </a>
             {canManage && (
-              <Link to={paths.equipmentImport} className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white hover:bg-brand/90">
+              <Link
+                to={paths.equipmentImport}
+                className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white hover:bg-brand/90"
+              >
                 Import from a spreadsheet
               </Link>
             )}
@@ -76,17 +96,37 @@ export default function EquipmentRegisterPage() {
       <div className={`grid gap-6 ${canManage ? 'lg:grid-cols-[2fr_1fr]' : ''}`}>
         <div className="flex flex-col gap-4">
           <Card className="grid gap-3 sm:grid-cols-3">
-            <TextField label="Search" name="q" placeholder="Tag, description or cable type" value={filter.q ?? ''} onChange={(e) => setFilter({ ...filter, q: e.target.value })} />
-            <SelectField label="Kind" name="kind" value={filter.kind ?? ''} onChange={(e) => setFilter({ ...filter, kind: e.target.value })}>
+            <TextField
+              label="Search"
+              name="q"
+              placeholder="Tag, description or cable type"
+              value={filter.q ?? ''}
+              onChange={(e) => setFilter({ ...filter, q: e.target.value })}
+            />
+            <SelectField
+              label="Kind"
+              name="kind"
+              value={filter.kind ?? ''}
+              onChange={(e) => setFilter({ ...filter, kind: e.target.value })}
+            >
               <option value="">All kinds</option>
               {EQUIPMENT_KINDS.map((k) => (
-                <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>
+                <option key={k} value={k}>
+                  {EQUIPMENT_KIND_LABELS[k]}
+                </option>
               ))}
             </SelectField>
-            <SelectField label="Status" name="status" value={filter.status ?? ''} onChange={(e) => setFilter({ ...filter, status: e.target.value })}>
+            <SelectField
+              label="Status"
+              name="status"
+              value={filter.status ?? ''}
+              onChange={(e) => setFilter({ ...filter, status: e.target.value })}
+            >
               <option value="">Any status</option>
               {EQUIPMENT_STATUSES.map((s) => (
-                <option key={s} value={s}>{EQUIPMENT_STATUS_LABELS[s]}</option>
+                <option key={s} value={s}>
+                  {EQUIPMENT_STATUS_LABELS[s]}
+                </option>
               ))}
             </SelectField>
           </Card>
@@ -104,7 +144,9 @@ export default function EquipmentRegisterPage() {
         {canManage && (
           <Card className="self-start">
             <h2 className="text-lg font-semibold">Register an item</h2>
-            <p className="mb-4 mt-1 text-sm text-ink-soft">The asset tag is what is printed on the item; it is unique in your organisation.</p>
+            <p className="mb-4 mt-1 text-sm text-ink-soft">
+              The asset tag is what is printed on the item; it is unique in your organisation.
+            </p>
             {scannedTag && <Notice tone="info">No item has the tag {scannedTag} yet: it is filled in below to register it.</Notice>}
             <EquipmentCreateForm onCreate={(v) => create.mutateAsync(v)} scannedTag={scannedTag} />
           </Card>

@@ -40,12 +40,26 @@ export default function EventPage() {
               <li key={v.id} className="flex flex-wrap items-center gap-3 px-5 py-3">
                 <span className="flex-1">
                   <span className="font-semibold">{v.name}</span>
-                  <span className="ml-2 text-sm text-ink-soft">{v.stripCount} strips · {v.status}</span>
+                  <span className="ml-2 text-sm text-ink-soft">
+                    {v.stripCount} strips · {v.status}
+                  </span>
                 </span>
-                <Link className={linkClass} to={paths.venue(v.id)}>Venue</Link>
-                {isDirector && <Link className={linkClass} to={paths.venuePlan(v.id)}>Plan</Link>}
-                <Link className={linkClass} to={paths.venueReadings(v.id)}>Readings</Link>
-                {me.data?.role !== 'technician' && <Link className={linkClass} to={paths.venueAudit(v.id)}>Audit trail</Link>}
+                <Link className={linkClass} to={paths.venue(v.id)}>
+                  Venue
+                </Link>
+                {isDirector && (
+                  <Link className={linkClass} to={paths.venuePlan(v.id)}>
+                    Plan
+                  </Link>
+                )}
+                <Link className={linkClass} to={paths.venueReadings(v.id)}>
+                  Readings
+                </Link>
+                {me.data?.role !== 'technician' && (
+                  <Link className={linkClass} to={paths.venueAudit(v.id)}>
+                    Audit trail
+                  </Link>
+                )}
               </li>
             ))}
           </ul>

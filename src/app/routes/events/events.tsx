@@ -22,18 +22,27 @@ export default function EventsPage() {
         <div className="flex flex-col gap-4">
           {events.isPending && <Loading />}
           {events.isError && <Notice tone="error">{events.error.message}</Notice>}
-          {events.data?.length === 0 && <Card><p className="text-ink-soft">No events yet.</p></Card>}
+          {events.data?.length === 0 && (
+            <Card>
+              <p className="text-ink-soft">No events yet.</p>
+            </Card>
+          )}
           {events.data?.map((e) => (
             <Card key={e.id}>
               <div className="flex flex-wrap items-baseline justify-between gap-2">
-                <Link to={paths.event(e.id)} className="text-lg font-semibold text-brand underline">{e.name}</Link>
+                <Link to={paths.event(e.id)} className="text-lg font-semibold text-brand underline">
+                  {e.name}
+                </Link>
                 <span className="text-sm text-ink-soft">{dateRange(e.startsOn, e.endsOn)}</span>
               </div>
               <ul className="mt-2 flex flex-wrap gap-2 text-sm">
                 {e.venues.length === 0 && <li className="text-ink-soft">No venues yet.</li>}
                 {e.venues.map((v) => (
                   <li key={v.id}>
-                    <Link className="inline-flex min-h-touch items-center rounded-lg border border-line px-3 hover:bg-brand-soft" to={isDirector ? paths.venuePlan(v.id) : paths.venue(v.id)}>
+                    <Link
+                      className="inline-flex min-h-touch items-center rounded-lg border border-line px-3 hover:bg-brand-soft"
+                      to={isDirector ? paths.venuePlan(v.id) : paths.venue(v.id)}
+                    >
                       {v.name}
                     </Link>
                   </li>

@@ -24,15 +24,31 @@ import { TimeZoneProvider, useDates } from '@/lib/date-format';
 import { useVenueTimeZone } from '@/app/venue-clock';
 
 const statusLook = FAULT_SYMBOLS;
-const verdictLook = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
-const ACTION_LABELS = { 'cut-out': 'Section cut out', 'connector-remade': 'Connector remade', swapped: 'Swapped', retired: 'Retired' } as const;
+const verdictLook = Object.fromEntries(
+  (['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]]),
+) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
+const ACTION_LABELS = {
+  'cut-out': 'Section cut out',
+  'connector-remade': 'Connector remade',
+  swapped: 'Swapped',
+  retired: 'Retired',
+} as const;
 
 type FaultStep = NonNullable<ReturnType<typeof useFault>['data']>['steps'][number];
 const ohmText = (r: { overRange: boolean; valueOhm: number | null }) => (r.overRange ? 'OL' : formatOhm(r.valueOhm ?? 0));
 const stepCol = createColumnHelper<FaultStep>();
 const stepColumns = [
-  stepCol.display({ id: 'step', header: 'Step', cell: (c) => `${TEST_KIND_LABELS[c.row.original.testKind]} ${c.row.original.conductors}`, meta: { className: 'pr-3' } }),
-  stepCol.accessor('latest', { header: 'Latest', cell: (c) => (c.getValue() ? ohmText(c.getValue()!) : '—'), meta: { className: 'pr-3', cellClassName: 'tabular-nums' } }),
+  stepCol.display({
+    id: 'step',
+    header: 'Step',
+    cell: (c) => `${TEST_KIND_LABELS[c.row.original.testKind]} ${c.row.original.conductors}`,
+    meta: { className: 'pr-3' },
+  }),
+  stepCol.accessor('latest', {
+    header: 'Latest',
+    cell: (c) => (c.getValue() ? ohmText(c.getValue()!) : '—'),
+    meta: { className: 'pr-3', cellClassName: 'tabular-nums' },
+  }),
   stepCol.display({
     id: 'verdict',
     header: 'Verdict',
@@ -52,14 +68,30 @@ const stepColumns = [
       return l?.limitOhm != null ? `${l.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(l.limitOhm)}` : '—';
     },
   }),
-  stepCol.accessor('readings', { header: 'Earlier', cell: (c) => c.getValue().slice(1, 4).map(ohmText).join(', ') || '—', meta: { cellClassName: 'text-xs text-ink-soft' } }),
+  stepCol.accessor('readings', {
+    header: 'Earlier',
+    cell: (c) => c.getValue().slice(1, 4).map(ohmText).join(', ') || '—',
+    meta: { cellClassName: 'text-xs text-ink-soft' },
+  }),
 ];
-const stepsLook = { table: 'w-full text-left text-sm', head: 'border-b border-line text-xs uppercase tracking-wide text-ink-soft', th: 'py-2', row: 'border-b border-line last:border-0', td: 'py-2' };
+const stepsLook = {
+  table: 'w-full text-left text-sm',
+  head: 'border-b border-line text-xs uppercase tracking-wide text-ink-soft',
+  th: 'py-2',
+  row: 'border-b border-line last:border-0',
+  td: 'py-2',
+};
 
 /** The latest reading of each step of the item, the fault's own step marked. */
 function StepReadings({ steps, faultStepId }: { steps: FaultStep[]; faultStepId: string | null }) {
   const table = useReactTable({ data: steps, columns: stepColumns, getCoreRowModel: getCoreRowModel(), getRowId: (s) => s.id });
-  return <DataTable table={table} look={stepsLook} rowProps={(row) => ({ className: row.original.id === faultStepId ? 'bg-fail-soft/50' : undefined })} />;
+  return (
+    <DataTable
+      table={table}
+      look={stepsLook}
+      rowProps={(row) => ({ className: row.original.id === faultStepId ? 'bg-fail-soft/50' : undefined })}
+    />
+  );
 }
 
 /** A fault: where it is on the cable, how to locate it, the repair, and the way back to the retest. */
@@ -75,7 +107,8 @@ export default function FaultPage() {
   const wordsIn = useRef(me.data?.unitSystem);
   useEffect(() => {
     const now = me.data?.unitSystem;
-    if (wordsIn.current !== undefined && now !== undefined && now !== wordsIn.current) void qc.invalidateQueries({ queryKey: faultQueryOptions(faultId).queryKey });
+    if (wordsIn.current !== undefined && now !== undefined && now !== wordsIn.current)
+      void qc.invalidateQueries({ queryKey: faultQueryOptions(faultId).queryKey });
     wordsIn.current = now;
   }, [me.data?.unitSystem, qc, faultId]);
   if (fault.isPending) return <Loading />;
@@ -94,7 +127,9 @@ export default function FaultPage() {
   const drawnM = locatedOnM ?? lengthM;
   const shortenedSince = locatedOnM !== null && lengthM !== null && lengthM < locatedOnM;
   const used = new Set(shown?.estimateIds ?? []);
-  const single = f.estimates.flatMap((e) => (used.has(e.id) && e.distanceFromNearM !== null ? [{ distanceM: e.distanceFromNearM, uncertaintyM: e.uncertaintyM }] : []));
+  const single = f.estimates.flatMap((e) =>
+    used.has(e.id) && e.distanceFromNearM !== null ? [{ distanceM: e.distanceFromNearM, uncertaintyM: e.uncertaintyM }] : [],
+  );
   const apartOf = new Map((shown?.apart ?? []).map((a) => [a.estimateId, a.reason]));
   const title = (method: string) => METHOD_DEFINITIONS[method as LocateMethod]?.title ?? method;
 
@@ -104,14 +139,20 @@ export default function FaultPage() {
         title={`Fault on ${f.stripLabel} · ${f.positionName}`}
         subtitle={
           <>
-            {FAULT_KIND_LABELS[f.kind]} ({f.conductors.replace('-', '–')}) · {f.equipment ? `${f.equipment.assetTag}, ${lengthM !== null ? formatLength(lengthM, unit) : 'length not recorded'}` : 'no item recorded'} · opened{' '}
-            {dates.dateTime(f.openedAt)} by {f.openedByName ?? 'someone'}
+            {FAULT_KIND_LABELS[f.kind]} ({f.conductors.replace('-', '–')}) ·{' '}
+            {f.equipment
+              ? `${f.equipment.assetTag}, ${lengthM !== null ? formatLength(lengthM, unit) : 'length not recorded'}`
+              : 'no item recorded'}{' '}
+            · opened {dates.dateTime(f.openedAt)} by {f.openedByName ?? 'someone'}
           </>
         }
         actions={
           <>
             <StatusMark {...statusLook[f.status]} label={FAULT_STATUS_LABELS[f.status]} size="lg" />
-            <Link to={retest} className={`inline-flex min-h-touch items-center rounded-lg px-4 font-medium ${f.status === 'repaired' ? 'bg-brand text-white' : 'border border-line bg-card'}`}>
+            <Link
+              to={retest}
+              className={`inline-flex min-h-touch items-center rounded-lg px-4 font-medium ${f.status === 'repaired' ? 'bg-brand text-white' : 'border border-line bg-card'}`}
+            >
               Retest on the testing screen
             </Link>
           </>
@@ -119,14 +160,17 @@ export default function FaultPage() {
       />
       {f.status === 'repaired' && (
         <div className="mb-4">
-          <Notice tone="caution">Repaired: retest every step of this item. The fault closes, and the strip can be clear, when they all pass.</Notice>
+          <Notice tone="caution">
+            Repaired: retest every step of this item. The fault closes, and the strip can be clear, when they all pass.
+          </Notice>
         </div>
       )}
       {f.status === 'closed' && (
         <div className="mb-4" data-testid="fault-closed">
           {f.dismissal ? (
             <Notice tone="info">
-              Dismissed as a typing mistake {dates.dateTime(f.dismissal.at)} by {f.dismissal.byName ?? 'the technical director'}: “{f.dismissal.reason}”
+              Dismissed as a typing mistake {dates.dateTime(f.dismissal.at)} by {f.dismissal.byName ?? 'the technical director'}: “
+              {f.dismissal.reason}”
             </Notice>
           ) : (
             <Notice tone="success">Closed {f.closedAt ? dates.dateTime(f.closedAt) : ''}: the retest passed.</Notice>
@@ -138,7 +182,8 @@ export default function FaultPage() {
         <h2 className="text-lg font-semibold">Where it is</h2>
         {shortenedSince && (
           <p className="mt-1 text-sm" data-testid="shortened-since">
-            Located on the item as it was then, {formatLength(locatedOnM, unit)} long; it is {formatLength(lengthM, unit)} now, after a cut-out.
+            Located on the item as it was then, {formatLength(locatedOnM, unit)} long; it is {formatLength(lengthM, unit)} now, after a
+            cut-out.
           </p>
         )}
         {drawnM !== null ? (
@@ -152,7 +197,9 @@ export default function FaultPage() {
               nearLabel="apparatus end"
               farLabel="far end"
             />
-            {shown && single.length > 1 && <p className="text-xs text-ink-soft">Cross and dashed band: the estimate used. Grey lines: the single estimates.</p>}
+            {shown && single.length > 1 && (
+              <p className="text-xs text-ink-soft">Cross and dashed band: the estimate used. Grey lines: the single estimates.</p>
+            )}
           </>
         ) : (
           <p className="text-sm text-ink-soft">The item’s length is not recorded, so the cable cannot be drawn to scale.</p>
@@ -162,9 +209,18 @@ export default function FaultPage() {
             <p className="flex flex-wrap items-center gap-2 text-base">
               <strong>
                 About {formatLength(shown.distanceM, unit)} ±{formatLength(shown.uncertaintyM, unit)} from the apparatus end
-                {drawnM !== null ? ` (${formatLength(drawnM - shown.distanceM, unit)} from the far end${shortenedSince ? ` of the ${formatLength(drawnM, unit)} it was then` : ''})` : ''}
+                {drawnM !== null
+                  ? ` (${formatLength(drawnM - shown.distanceM, unit)} from the far end${shortenedSince ? ` of the ${formatLength(drawnM, unit)} it was then` : ''})`
+                  : ''}
               </strong>
-              {shown.count > 1 && <StatusMark shape={shown.agree ? 'circle' : 'octagon'} tone={shown.agree ? 'pass' : 'brass'} label={shown.agree ? 'Estimates agree' : 'Estimates disagree'} size="sm" />}
+              {shown.count > 1 && (
+                <StatusMark
+                  shape={shown.agree ? 'circle' : 'octagon'}
+                  tone={shown.agree ? 'pass' : 'brass'}
+                  label={shown.agree ? 'Estimates agree' : 'Estimates disagree'}
+                  size="sm"
+                />
+              )}
             </p>
             <p>{shown.count > 1 || shown.apart.length > 0 ? shown.explanation : f.estimates.find((e) => used.has(e.id))?.explanation}</p>
           </div>
@@ -180,9 +236,15 @@ export default function FaultPage() {
                   <strong>
                     {i + 1}. {title(e.method)}
                   </strong>
-                  : {formatLength(e.distanceM, unit)} ±{formatLength(e.uncertaintyM, unit)} from the {e.fromEnd === 'near' ? 'apparatus end' : 'far end'}
-                  {e.itemLengthM !== null ? ` of the ${formatLength(e.itemLengthM, unit)} item` : ''} · {e.createdByName ?? ''}, {dates.dateTime(e.createdAt)}
-                  {e.itemShortenedSince && <p className="font-medium">Worked out when the item was {formatLength(e.itemLengthM!, unit)} long; it has been shortened since.</p>}
+                  : {formatLength(e.distanceM, unit)} ±{formatLength(e.uncertaintyM, unit)} from the{' '}
+                  {e.fromEnd === 'near' ? 'apparatus end' : 'far end'}
+                  {e.itemLengthM !== null ? ` of the ${formatLength(e.itemLengthM, unit)} item` : ''} · {e.createdByName ?? ''},{' '}
+                  {dates.dateTime(e.createdAt)}
+                  {e.itemShortenedSince && (
+                    <p className="font-medium">
+                      Worked out when the item was {formatLength(e.itemLengthM!, unit)} long; it has been shortened since.
+                    </p>
+                  )}
                   {apartOf.has(e.id) && <p className="font-medium">Not weighed in with the others: {apartOf.get(e.id)}</p>}
                   <p className="text-ink-soft">{e.explanation}</p>
                 </li>
@@ -265,11 +327,18 @@ export default function FaultPage() {
                 {r.action === 'cut-out' && r.lengthBeforeM !== null && r.lengthRemovedM !== null
                   ? `: ${formatLength(r.lengthRemovedM, unit)} removed, ${formatLength(r.lengthBeforeM, unit)} → ${formatLength(r.lengthBeforeM - r.lengthRemovedM, unit)}`
                   : ''}
-                {r.action === 'swapped' && f.currentEquipment ? `: ${f.currentEquipment.assetTag} put in` : ''} · {r.createdByName ?? ''}, {dates.dateTime(r.createdAt)}
+                {r.action === 'swapped' && f.currentEquipment ? `: ${f.currentEquipment.assetTag} put in` : ''} · {r.createdByName ?? ''},{' '}
+                {dates.dateTime(r.createdAt)}
                 {r.notes && <p className="text-ink-soft">{r.notes}</p>}
                 <div className="mt-3 rounded-lg border border-line p-3">
                   <h3 className="mb-2 font-medium">Photos and files of this repair</h3>
-                  <AttachmentsPanel ownerType="repair" ownerId={r.id} canUpload={canWrite} unitSystem={unit} label={`Photos and files of the repair: ${ACTION_LABELS[r.action]}`} />
+                  <AttachmentsPanel
+                    ownerType="repair"
+                    ownerId={r.id}
+                    canUpload={canWrite}
+                    unitSystem={unit}
+                    label={`Photos and files of the repair: ${ACTION_LABELS[r.action]}`}
+                  />
                 </div>
               </li>
             ))}

@@ -8,10 +8,30 @@ import { CertificatesLink } from '@/features/certificates/components/certificate
 import { incidentReportUrl } from '@/features/incidents/api/get-venue-incidents';
 
 const ADMIN_CARDS = [
-  { title: 'People', text: 'Invite people, change roles, disable accounts, sign someone out everywhere.', to: paths.people, link: 'Open people' },
-  { title: 'Equipment register', text: 'Every cable, reel, piste and apparatus by asset tag, with its history; import from a spreadsheet.', to: paths.equipment, link: 'Open the register' },
-  { title: 'Limit profiles', text: 'The limits readings are checked against, with their sources. Edits make a new version.', to: paths.profiles, link: 'Open limit profiles' },
-  { title: 'Outbox', text: 'Messages the app has sent (kept locally when no SMTP server is configured).', to: paths.outbox, link: 'Open outbox' },
+  {
+    title: 'People',
+    text: 'Invite people, change roles, disable accounts, sign someone out everywhere.',
+    to: paths.people,
+    link: 'Open people',
+  },
+  {
+    title: 'Equipment register',
+    text: 'Every cable, reel, piste and apparatus by asset tag, with its history; import from a spreadsheet.',
+    to: paths.equipment,
+    link: 'Open the register',
+  },
+  {
+    title: 'Limit profiles',
+    text: 'The limits readings are checked against, with their sources. Edits make a new version.',
+    to: paths.profiles,
+    link: 'Open limit profiles',
+  },
+  {
+    title: 'Outbox',
+    text: 'Messages the app has sent (kept locally when no SMTP server is configured).',
+    to: paths.outbox,
+    link: 'Open outbox',
+  },
 ];
 
 function AdminHome() {
@@ -63,7 +83,11 @@ function OrganiserHome() {
         <>
           <CertificatesLink venueId={v.id} className="px-2" />
           {v.status === 'signed-off' && (
-            <a href={incidentReportUrl(v.id)} download className="inline-flex min-h-touch items-center px-2 font-medium text-brand underline">
+            <a
+              href={incidentReportUrl(v.id)}
+              download
+              className="inline-flex min-h-touch items-center px-2 font-medium text-brand underline"
+            >
               Incident report (PDF)
             </a>
           )}

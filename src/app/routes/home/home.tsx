@@ -8,7 +8,12 @@ export default function HomePage() {
   const me = useMe();
   if (!me.data) return null;
   const Section = homeSections[me.data.role];
-  const titles = { technician: 'My venues', director: 'Our events and venues', organiser: 'Our events and venues', admin: 'People and equipment' };
+  const titles = {
+    technician: 'My venues',
+    director: 'Our events and venues',
+    organiser: 'Our events and venues',
+    admin: 'People and equipment',
+  };
   return (
     <>
       <PageHeader title={titles[me.data.role]} subtitle={`Signed in as ${me.data.name} (${ROLE_LABELS[me.data.role].toLowerCase()})`} />

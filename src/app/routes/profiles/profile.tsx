@@ -19,7 +19,15 @@ import { paths } from '@/config/paths';
 import { useDates } from '@/lib/date-format';
 
 /** A copy of this version under a new name, as version 1 of a new profile. */
-function CopyForm({ onCopy, onCopied, error }: { onCopy: (name: string) => Promise<{ id: string }>; onCopied: (id: string) => void; error: string | null }) {
+function CopyForm({
+  onCopy,
+  onCopied,
+  error,
+}: {
+  onCopy: (name: string) => Promise<{ id: string }>;
+  onCopied: (id: string) => void;
+  error: string | null;
+}) {
   const form = useForm<z.input<typeof copyProfileSchema>, unknown, z.output<typeof copyProfileSchema>>({
     resolver: zodResolver(copyProfileSchema),
     defaultValues: { name: '' },
@@ -36,7 +44,9 @@ function CopyForm({ onCopy, onCopied, error }: { onCopy: (name: string) => Promi
     >
       <TextField label="Name of the copy" id="f-copyName" {...form.register('name')} error={form.formState.errors.name?.message} />
       {error && <Notice tone="error">{error}</Notice>}
-      <Button type="submit" variant="secondary" disabled={!name.trim()}>Copy profile</Button>
+      <Button type="submit" variant="secondary" disabled={!name.trim()}>
+        Copy profile
+      </Button>
     </form>
   );
 }
@@ -63,7 +73,10 @@ export default function ProfilePage() {
         title={p.name}
         subtitle={
           <>
-            Version {p.version} of {p.latestVersion} · <Link className="text-brand underline" to={paths.profiles}>All profiles</Link>
+            Version {p.version} of {p.latestVersion} ·{' '}
+            <Link className="text-brand underline" to={paths.profiles}>
+              All profiles
+            </Link>
           </>
         }
         actions={canManage && isLatest && !editing && <Button onClick={() => setEditing(true)}>Edit rules</Button>}
@@ -72,7 +85,9 @@ export default function ProfilePage() {
         <div className="mb-4">
           <Notice tone="info">
             This is an older version, kept because readings were checked with it.{' '}
-            <Link className="font-medium text-brand underline" to={paths.profile(p.latestId)}>Open the latest (version {p.latestVersion})</Link>
+            <Link className="font-medium text-brand underline" to={paths.profile(p.latestId)}>
+              Open the latest (version {p.latestVersion})
+            </Link>
           </Notice>
         </div>
       )}
@@ -100,7 +115,8 @@ export default function ProfilePage() {
           <Card>
             <h2 className="text-lg font-semibold">Checklist</h2>
             <p className="mt-1 text-sm">
-              Loop resistance is asked for: {p.loopRequired.length ? p.loopRequired.map((k) => EQUIPMENT_KIND_LABELS[k].toLowerCase()).join(', ') : 'nothing'}.
+              Loop resistance is asked for:{' '}
+              {p.loopRequired.length ? p.loopRequired.map((k) => EQUIPMENT_KIND_LABELS[k].toLowerCase()).join(', ') : 'nothing'}.
             </p>
             {p.notes && <p className="mt-2 text-sm text-ink-soft">{p.notes}</p>}
           </Card>
@@ -125,8 +141,18 @@ export default function ProfilePage() {
             <ul className="mt-2 text-sm">
               {p.versions.map((v) => (
                 <li key={v.id} className="py-1">
-                  {v.id === p.id ? <strong>Version {v.version}</strong> : <Link className="text-brand underline" to={paths.profile(v.id)}>Version {v.version}</Link>}
-                  <span className="text-ink-soft"> · {dates.date(v.createdAt)}{v.byName ? ` · ${v.byName}` : ''}</span>
+                  {v.id === p.id ? (
+                    <strong>Version {v.version}</strong>
+                  ) : (
+                    <Link className="text-brand underline" to={paths.profile(v.id)}>
+                      Version {v.version}
+                    </Link>
+                  )}
+                  <span className="text-ink-soft">
+                    {' '}
+                    · {dates.date(v.createdAt)}
+                    {v.byName ? ` · ${v.byName}` : ''}
+                  </span>
                 </li>
               ))}
             </ul>
@@ -137,7 +163,10 @@ export default function ProfilePage() {
               <ul className="mt-2 text-sm">
                 {p.usedBy.map((u) => (
                   <li key={u.venueId} className="py-1">
-                    <Link className="text-brand underline" to={paths.venuePlan(u.venueId)}>{u.venueName}</Link> ({u.eventName}) · version {u.version}
+                    <Link className="text-brand underline" to={paths.venuePlan(u.venueId)}>
+                      {u.venueName}
+                    </Link>{' '}
+                    ({u.eventName}) · version {u.version}
                   </li>
                 ))}
               </ul>
@@ -146,7 +175,11 @@ export default function ProfilePage() {
           {canManage && (
             <Card>
               <h2 className="text-lg font-semibold">Make a copy</h2>
-              <CopyForm onCopy={(name) => copy.mutateAsync({ id: p.id, name })} error={copy.isError ? copy.error.message : null} onCopied={(id) => navigate(paths.profile(id))} />
+              <CopyForm
+                onCopy={(name) => copy.mutateAsync({ id: p.id, name })}
+                error={copy.isError ? copy.error.message : null}
+                onCopied={(id) => navigate(paths.profile(id))}
+              />
             </Card>
           )}
         </div>

@@ -7,13 +7,18 @@ export default function ProfilesPage() {
   const profiles = useProfiles();
   return (
     <>
-      <PageHeader title="Limit profiles" subtitle="The limits readings are checked against. Editing a profile adds a version; readings keep the version they were checked with." />
+      <PageHeader
+        title="Limit profiles"
+        subtitle="The limits readings are checked against. Editing a profile adds a version; readings keep the version they were checked with."
+      />
       {profiles.isPending && <Loading />}
       {profiles.isError && <Notice tone="error">{profiles.error.message}</Notice>}
       <div className="grid gap-4 md:grid-cols-2">
         {profiles.data?.map((p) => (
           <Card key={p.lineageId}>
-            <Link to={paths.profile(p.id)} className="text-lg font-semibold text-brand underline">{p.name}</Link>
+            <Link to={paths.profile(p.id)} className="text-lg font-semibold text-brand underline">
+              {p.name}
+            </Link>
             <p className="mt-1 text-sm">
               Version {p.version} · {p.ruleCount} rules, {p.houseRuleCount} of them house rules
             </p>
@@ -24,7 +29,9 @@ export default function ProfilesPage() {
                 {p.versions.slice(1).map((v, i) => (
                   <span key={v.id}>
                     {i > 0 && ', '}
-                    <Link className="text-brand underline" to={paths.profile(v.id)}>{v.version}</Link>
+                    <Link className="text-brand underline" to={paths.profile(v.id)}>
+                      {v.version}
+                    </Link>
                   </span>
                 ))}
               </p>

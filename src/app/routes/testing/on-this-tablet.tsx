@@ -16,9 +16,19 @@ function MoveToStep({ item }: { item: QueuedReading }) {
   const strip = useStrip(item.stripId);
   const [stepId, setStepId] = useState('');
   const [error, setError] = useState<string | null>(null);
-  if (!strip.data?.profile) return <span className="text-sm text-ink-soft">{strip.isPending ? 'Loading the strip’s steps…' : 'The strip’s steps are not on this tablet.'}</span>;
+  if (!strip.data?.profile)
+    return (
+      <span className="text-sm text-ink-soft">
+        {strip.isPending ? 'Loading the strip’s steps…' : 'The strip’s steps are not on this tablet.'}
+      </span>
+    );
   const data = strip.data;
-  const profile = { name: data.profile!.name, version: data.profile!.version, rules: data.profile!.rules, loopRequired: data.profile!.loopRequired };
+  const profile = {
+    name: data.profile!.name,
+    version: data.profile!.version,
+    rules: data.profile!.rules,
+    loopRequired: data.profile!.loopRequired,
+  };
   const choices = data.positions.flatMap((p) =>
     p.steps.filter((s) => s.id !== item.body.stepId).map((s) => ({ step: s, position: p, label: `${p.name} · ${stepTitle(s)}` })),
   );
@@ -30,7 +40,17 @@ function MoveToStep({ item }: { item: QueuedReading }) {
         e.preventDefault();
         const c = choices.find((x) => x.step.id === stepId);
         if (!c) return setError('Choose the step the value belongs to.');
-        const p = previewReading(item.body.value, { profile, equipmentKind: c.position.equipmentKind, testKind: c.step.testKind, conductors: c.step.conductors, lengthM: c.position.equipment?.lengthM ?? null }, item.leadNull?.valueOhm ?? null);
+        const p = previewReading(
+          item.body.value,
+          {
+            profile,
+            equipmentKind: c.position.equipmentKind,
+            testKind: c.step.testKind,
+            conductors: c.step.conductors,
+            lengthM: c.position.equipment?.lengthM ?? null,
+          },
+          item.leadNull?.valueOhm ?? null,
+        );
         if (p.state !== 'judged') return setError(p.state === 'invalid' ? p.message : 'The value cannot be judged on that step.');
         void moveToStep(item.id, {
           stepId: c.step.id,
@@ -42,7 +62,15 @@ function MoveToStep({ item }: { item: QueuedReading }) {
       <label htmlFor={fieldId} className="text-sm font-medium">
         Record it on
       </label>
-      <select id={fieldId} className="min-h-touch rounded-lg border border-line bg-card px-2" value={stepId} onChange={(e) => { setStepId(e.target.value); setError(null); }}>
+      <select
+        id={fieldId}
+        className="min-h-touch rounded-lg border border-line bg-card px-2"
+        value={stepId}
+        onChange={(e) => {
+          setStepId(e.target.value);
+          setError(null);
+        }}
+      >
         <option value="">another step of {data.label}…</option>
         {choices.map((c) => (
           <option key={c.step.id} value={c.step.id}>
@@ -75,14 +103,23 @@ export default function OnThisTabletPage() {
       />
       {!outbox.online && (
         <div className="mb-4">
-          <Notice tone="caution">This tablet is offline. Keep testing: every reading is kept here and sent when the network is back.</Notice>
+          <Notice tone="caution">
+            This tablet is offline. Keep testing: every reading is kept here and sent when the network is back.
+          </Notice>
         </div>
       )}
       <IncidentQueue items={outbox.incidents.filter((i) => i.userId === me.data?.id)} />
-      <QueueList items={mine} online={outbox.online} syncing={outbox.syncing} lastStop={outbox.lastStop} moveTo={(item) => <MoveToStep item={item} />} />
+      <QueueList
+        items={mine}
+        online={outbox.online}
+        syncing={outbox.syncing}
+        lastStop={outbox.lastStop}
+        moveTo={(item) => <MoveToStep item={item} />}
+      />
       {others > 0 && (
         <p className="mt-6 text-sm text-ink-soft">
-          {others} more reading{others === 1 ? ' was' : 's were'} typed here by someone else; {others === 1 ? 'it is' : 'they are'} sent when they sign in again.
+          {others} more reading{others === 1 ? ' was' : 's were'} typed here by someone else; {others === 1 ? 'it is' : 'they are'} sent
+          when they sign in again.
         </p>
       )}
     </>

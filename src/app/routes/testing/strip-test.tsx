@@ -36,7 +36,6 @@ import { QueuedIncidentMark } from '@/features/offline/components/queued-inciden
 import { enqueueIncident } from '@/features/offline/stores/outbox';
 import { Button } from '@/components/ui/button';
 
-
 /** The testing screen: walk a strip's positions and steps with the keyboard alone. */
 export default function StripTestPage() {
   const { stripId = '' } = useParams();
@@ -70,8 +69,10 @@ export default function StripTestPage() {
   const incidents = useVenueIncidents(data?.venueId ?? '', { enabled: !!data && competing });
   // An open one, else one resolved and waiting for the director's amendment (the strip is still out).
   const stripIncidents = incidents.data?.incidents.filter((i) => i.stripId === stripId) ?? [];
-  const openIncident = stripIncidents.find((i) => i.status === 'open') ?? stripIncidents.find((i) => i.status === 'resolved' && !i.amendment) ?? null;
-  const queuedIncident = outbox.incidents.find((i) => i.stripId === stripId && i.userId === me.data?.id && i.status !== 'set-aside') ?? null;
+  const openIncident =
+    stripIncidents.find((i) => i.status === 'open') ?? stripIncidents.find((i) => i.status === 'resolved' && !i.amendment) ?? null;
+  const queuedIncident =
+    outbox.incidents.find((i) => i.stripId === stripId && i.userId === me.data?.id && i.status !== 'set-aside') ?? null;
   const spares = useSpares(data?.venueId ?? '', { enabled: openIncident?.status === 'open' });
   const [reporting, setReporting] = useState(false);
   const flat = useMemo(() => (data ? data.positions.flatMap((p) => p.steps.map((s) => ({ step: s, position: p }))) : []), [data]);
@@ -93,10 +94,12 @@ export default function StripTestPage() {
   const measuredHere = flat.filter((f) => f.step.latest || queued.has(f.step.id)).length;
 
   const seenRepaired = data?.openFaults.find((f) => f.positionId === retestPosition && f.status === 'repaired');
-  if (seenRepaired && retestFault?.id !== seenRepaired.id) setRetestFault({ id: seenRepaired.id, positionId: seenRepaired.positionId, since: seenRepaired.repairedAt });
+  if (seenRepaired && retestFault?.id !== seenRepaired.id)
+    setRetestFault({ id: seenRepaired.id, positionId: seenRepaired.positionId, since: seenRepaired.repairedAt });
   const retestClosed = !!retestFault && !!data && !data.openFaults.some((f) => f.id === retestFault.id);
   const retestSince = retestFault?.positionId === retestPosition ? (retestFault?.since ?? null) : null;
-  const isRetested = (positionId: string, step: StripStep) => positionId === retestPosition && !!retestSince && !!step.latest && step.latest.takenAt >= retestSince;
+  const isRetested = (positionId: string, step: StripStep) =>
+    positionId === retestPosition && !!retestSince && !!step.latest && step.latest.takenAt >= retestSince;
 
   const submitReading = useCallback(
     async (position: StripPosition, step: StripStep, input: ReadingInput, preview: JudgedPreview) => {
@@ -136,7 +139,8 @@ export default function StripTestPage() {
   if ((strip.isPending && strip.fetchStatus === 'paused') || (strip.isError && !strip.data && !(strip.error instanceof ApiError))) {
     return (
       <Notice tone="caution">
-        This strip is not on this tablet yet, and there is no network. Strips are kept on the tablet once their venue is opened online; go back to a strip that was, or wait for the network.
+        This strip is not on this tablet yet, and there is no network. Strips are kept on the tablet once their venue is opened online; go
+        back to a strip that was, or wait for the network.
       </Notice>
     );
   }
@@ -145,8 +149,14 @@ export default function StripTestPage() {
   if (!data) return null;
   // No answer from the server: keep working on the copy kept on this tablet.
   const stale = strip.isError || (!outbox.online && strip.isStale);
-  if (!data.profile) return <Notice tone="error">This venue has no limit profile yet; the technical director must choose one before testing.</Notice>;
-  const profile = { name: data.profile.name, version: data.profile.version, rules: data.profile.rules, loopRequired: data.profile.loopRequired };
+  if (!data.profile)
+    return <Notice tone="error">This venue has no limit profile yet; the technical director must choose one before testing.</Notice>;
+  const profile = {
+    name: data.profile.name,
+    version: data.profile.version,
+    rules: data.profile.rules,
+    loopRequired: data.profile.loopRequired,
+  };
   const unit = me.data?.unitSystem ?? 'metric';
   let n = 0;
   // Each caution once per item kind: on the first step of its kind on this strip.
@@ -172,15 +182,18 @@ export default function StripTestPage() {
       {stale && (
         <div className="mb-4">
           <Notice tone="caution">
-            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of {dates.time(strip.dataUpdatedAt)}. Keep testing; readings are kept and sent later.
+            {outbox.online ? 'No answer from the server' : 'Offline'}: this is the copy of the strip kept on this tablet, as of{' '}
+            {dates.time(strip.dataUpdatedAt)}. Keep testing; readings are kept and sent later.
           </Notice>
         </div>
       )}
       {waitingHere > 0 && (
         <div className="mb-4">
           <Notice tone="info">
-            {waitingHere} reading{waitingHere === 1 ? '' : 's'} of this strip {waitingHere === 1 ? 'is' : 'are'} kept on this tablet, waiting to send
-            {outbox.online ? '' : ' (offline: they go when the network is back)'}. Their verdicts come from this tablet until the server confirms them.
+            {waitingHere} reading{waitingHere === 1 ? '' : 's'} of this strip {waitingHere === 1 ? 'is' : 'are'} kept on this tablet,
+            waiting to send
+            {outbox.online ? '' : ' (offline: they go when the network is back)'}. Their verdicts come from this tablet until the server
+            confirms them.
           </Notice>
         </div>
       )}
@@ -189,7 +202,8 @@ export default function StripTestPage() {
       {retestPosition && !retestClosed && (
         <div className="mb-4" data-testid="retest-banner">
           <Notice tone="caution">
-            Retest after a repair: measure every step of the highlighted item again. The fault closes, and the strip can be clear, only when they all pass.
+            Retest after a repair: measure every step of the highlighted item again. The fault closes, and the strip can be clear, only when
+            they all pass.
           </Notice>
         </div>
       )}
@@ -204,7 +218,12 @@ export default function StripTestPage() {
           <ul className="mt-2 divide-y divide-line">
             {data.openFaults.map((f) => (
               <li key={f.id} className="flex flex-wrap items-center gap-3 py-2">
-                <StatusMark shape={FAULT_SYMBOLS[f.status].shape} tone={FAULT_SYMBOLS[f.status].tone} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
+                <StatusMark
+                  shape={FAULT_SYMBOLS[f.status].shape}
+                  tone={FAULT_SYMBOLS[f.status].tone}
+                  label={FAULT_STATUS_LABELS[f.status]}
+                  size="sm"
+                />
                 <span>
                   {f.positionName}: {FAULT_KIND_LABELS[f.kind]} ({f.conductors}){f.equipment ? ` · ${f.equipment.assetTag}` : ''}
                 </span>
@@ -216,13 +235,17 @@ export default function StripTestPage() {
           </ul>
         </Card>
       )}
-
     </>
   );
   const openOnTablet = async (input: CreateIncidentInput) => {
     if (!me.data) throw new Error('Sign in again to open an incident.');
     // Kept on the tablet first, like a reading: it reaches the server once, whenever it can.
-    await enqueueIncident({ body: { ...input, clientId: newReadingId() }, userId: me.data.id, venueId: data.venueId, where: `${data.label} · ${input.symptom}` });
+    await enqueueIncident({
+      body: { ...input, clientId: newReadingId() },
+      userId: me.data.id,
+      venueId: data.venueId,
+      where: `${data.label} · ${input.symptom}`,
+    });
     setReporting(false);
   };
   const incidentSection = openIncident ? (
@@ -230,19 +253,29 @@ export default function StripTestPage() {
       key={openIncident.id}
       incidentId={openIncident.id}
       canWrite={canWrite}
-      positions={data.positions.map((p) => ({ id: p.id, name: p.name, equipmentKind: p.equipmentKind, assetTag: p.equipment?.assetTag ?? null }))}
+      positions={data.positions.map((p) => ({
+        id: p.id,
+        name: p.name,
+        equipmentKind: p.equipmentKind,
+        assetTag: p.equipment?.assetTag ?? null,
+      }))}
       spares={spares.data?.spares ?? []}
     />
   ) : queuedIncident ? (
     <div className="mb-4 flex flex-wrap items-center gap-3 rounded-card border-2 border-fail/50 bg-card p-4">
       <QueuedIncidentMark item={queuedIncident} />
       <span>
-        {queuedIncident.body.symptom}: opened on this tablet{outbox.online ? ', sending…' : ' while offline; it goes when the network is back'}. Keep measuring: the readings follow it.
+        {queuedIncident.body.symptom}: opened on this tablet
+        {outbox.online ? ', sending…' : ' while offline; it goes when the network is back'}. Keep measuring: the readings follow it.
       </span>
     </div>
   ) : reporting ? (
     <div className="mb-4">
-      <OpenIncidentPanel strip={{ id: data.id, label: data.label, positions: data.positions.map((p) => ({ id: p.id, name: p.name })) }} onOpen={openOnTablet} onClose={() => setReporting(false)} />
+      <OpenIncidentPanel
+        strip={{ id: data.id, label: data.label, positions: data.positions.map((p) => ({ id: p.id, name: p.name })) }}
+        onOpen={openOnTablet}
+        onClose={() => setReporting(false)}
+      />
     </div>
   ) : canWrite && competing ? (
     <div className="mb-4">
@@ -254,7 +287,13 @@ export default function StripTestPage() {
   const viewToggle = (
     <span role="group" aria-label="Layout" className="inline-flex overflow-hidden rounded-lg border border-line">
       {(['grid', 'list'] as const).map((v) => (
-        <button key={v} type="button" aria-pressed={view === v} onClick={() => switchView(v)} className={`min-h-touch px-3 text-sm font-medium ${view === v ? 'bg-brand text-white' : 'bg-card'}`}>
+        <button
+          key={v}
+          type="button"
+          aria-pressed={view === v}
+          onClick={() => switchView(v)}
+          className={`min-h-touch px-3 text-sm font-medium ${view === v ? 'bg-brand text-white' : 'bg-card'}`}
+        >
           {v === 'grid' ? 'Grid' : 'Step list'}
         </button>
       ))}
@@ -270,14 +309,19 @@ export default function StripTestPage() {
         if (next) void recordLeadNull(next);
         // Back to the first step not measured: the lead null is usually done before the strip.
         setFocusRequest((x) => x + 1);
-        if (view === 'list') requestAnimationFrame(() => focusStep((flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0])?.step.id));
+        if (view === 'list')
+          requestAnimationFrame(() => focusStep((flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0])?.step.id));
       }}
     />
   );
 
   // Another strip by its label, or by an item's label (the strip that item sits on, in this venue first).
   const scanButton = (
-    <button type="button" onClick={() => setScanning(true)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 font-medium">
+    <button
+      type="button"
+      onClick={() => setScanning(true)}
+      className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 font-medium"
+    >
       Scan a label
     </button>
   );
@@ -319,12 +363,18 @@ export default function StripTestPage() {
               {scanButton}
               {leadNull}
               {data.previousStripId && (
-                <Link to={paths.stripTest(data.previousStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium">
+                <Link
+                  to={paths.stripTest(data.previousStripId)}
+                  className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium"
+                >
                   ← Previous
                 </Link>
               )}
               {data.nextStripId && (
-                <Link to={paths.stripTest(data.nextStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium">
+                <Link
+                  to={paths.stripTest(data.nextStripId)}
+                  className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-3 text-sm font-medium"
+                >
                   Next strip →
                 </Link>
               )}
@@ -348,94 +398,118 @@ export default function StripTestPage() {
           />
         </>
       ) : (
-      <>
-      <PageHeader
-        title={`${data.label} — testing`}
-        subtitle={
-          <>
-            <Link to={paths.venue(data.venueId)} className="underline">
-              {data.venueName}
-            </Link>
-            {data.zone ? ` · ${data.zone}` : ''} · limits: {data.profile.name} v{data.profile.version}
-          </>
-        }
-        actions={
-          <>
-            {scanButton}
-            {data.previousStripId && (
-              <Link to={paths.stripTest(data.previousStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
-                ← Previous strip
-              </Link>
-            )}
-            {data.nextStripId && (
-              <Link ref={nextStripLink} to={paths.stripTest(data.nextStripId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
-                Next strip →
-              </Link>
-            )}
-            <Link to={paths.venueBoard(data.venueId)} className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium">
-              Status board
-            </Link>
-          </>
-        }
-      />
+        <>
+          <PageHeader
+            title={`${data.label} — testing`}
+            subtitle={
+              <>
+                <Link to={paths.venue(data.venueId)} className="underline">
+                  {data.venueName}
+                </Link>
+                {data.zone ? ` · ${data.zone}` : ''} · limits: {data.profile.name} v{data.profile.version}
+              </>
+            }
+            actions={
+              <>
+                {scanButton}
+                {data.previousStripId && (
+                  <Link
+                    to={paths.stripTest(data.previousStripId)}
+                    className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+                  >
+                    ← Previous strip
+                  </Link>
+                )}
+                {data.nextStripId && (
+                  <Link
+                    ref={nextStripLink}
+                    to={paths.stripTest(data.nextStripId)}
+                    className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+                  >
+                    Next strip →
+                  </Link>
+                )}
+                <Link
+                  to={paths.venueBoard(data.venueId)}
+                  className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+                >
+                  Status board
+                </Link>
+              </>
+            }
+          />
 
-      <Card className="mb-4 grid gap-4 md:grid-cols-[auto_1fr_1fr] md:items-center">
-        <div data-testid="strip-status">
-          <StatusMark shape={stripLook.shape} tone={stripLook.tone} label={stripLook.label} size="lg" />
-        </div>
-        <ProgressBar done={data.counts.done} total={data.counts.total} label="This strip: steps measured" />
-        <ProgressBar done={data.venueProgress.stepsDone} total={data.venueProgress.stepsTotal} label={`This venue: steps measured (${data.venueProgress.stripsClear} of ${data.venueProgress.stripCount} strips clear)`} />
-        {canWrite && <div className="md:col-span-3">{leadNull}</div>}
-      </Card>
+          <Card className="mb-4 grid gap-4 md:grid-cols-[auto_1fr_1fr] md:items-center">
+            <div data-testid="strip-status">
+              <StatusMark shape={stripLook.shape} tone={stripLook.tone} label={stripLook.label} size="lg" />
+            </div>
+            <ProgressBar done={data.counts.done} total={data.counts.total} label="This strip: steps measured" />
+            <ProgressBar
+              done={data.venueProgress.stepsDone}
+              total={data.venueProgress.stepsTotal}
+              label={`This venue: steps measured (${data.venueProgress.stripsClear} of ${data.venueProgress.stripCount} strips clear)`}
+            />
+            {canWrite && <div className="md:col-span-3">{leadNull}</div>}
+          </Card>
 
-      {notices(true)}
-      <div className="flex flex-col gap-4">
-        {data.positions.map((position) => (
-          <section key={position.id} aria-label={position.name} className={`overflow-hidden rounded-card border border-line bg-card shadow-sm ${retestPosition === position.id ? 'ring-2 ring-brass' : ''}`}>
-            <header className="flex flex-wrap items-baseline gap-x-3 border-b border-line bg-paper px-4 py-3">
-              <h2 className="text-lg font-semibold">{position.name}</h2>
-              <span className="text-sm text-ink-soft">
-                {position.equipment
-                  ? `${position.equipment.assetTag}${position.equipment.lengthM !== null ? ` · ${formatLength(position.equipment.lengthM, unit)}` : ''}`
-                  : 'No item attached'}
-              </span>
-            </header>
-            {position.steps.length === 0 ? (
-              <p className="px-4 py-3 text-sm text-ink-soft">Nothing to measure here with a multimeter.</p>
-            ) : (
-              <ol>
-                {position.steps.map((step) => {
-                  n += 1;
-                  const at = flat.findIndex((f) => f.step.id === step.id);
-                  const fault = data.openFaults.find((f) => f.stepId === step.id);
-                  return (
-                    <StepRow
-                      key={step.id}
-                      index={n}
-                      step={step}
-                      ctx={{ profile, equipmentKind: position.equipmentKind, testKind: step.testKind, conductors: step.conductors, lengthM: position.equipment?.lengthM ?? null }}
-                      leadNull={lead}
-                      canWrite={canWrite}
-                      faultId={fault?.id ?? null}
-                      highlight={retestPosition === position.id}
-                      retested={isRetested(position.id, step)}
-                      showCaution={cautionSteps.has(step.id)}
-                      queued={queued.get(step.id) ?? null}
-                      inputRef={(el) => {
-                        if (el) inputs.current.set(step.id, el);
-                        else inputs.current.delete(step.id);
-                      }}
-                      submit={(input, preview) => submitReading(position, step, input, preview)}
-                      onRecorded={() => focusStep(flat[at + 1]?.step.id)}
-                    />
-                  );
-                })}
-              </ol>
-            )}
-          </section>
-        ))}
-      </div>
-      </>
+          {notices(true)}
+          <div className="flex flex-col gap-4">
+            {data.positions.map((position) => (
+              <section
+                key={position.id}
+                aria-label={position.name}
+                className={`overflow-hidden rounded-card border border-line bg-card shadow-sm ${retestPosition === position.id ? 'ring-2 ring-brass' : ''}`}
+              >
+                <header className="flex flex-wrap items-baseline gap-x-3 border-b border-line bg-paper px-4 py-3">
+                  <h2 className="text-lg font-semibold">{position.name}</h2>
+                  <span className="text-sm text-ink-soft">
+                    {position.equipment
+                      ? `${position.equipment.assetTag}${position.equipment.lengthM !== null ? ` · ${formatLength(position.equipment.lengthM, unit)}` : ''}`
+                      : 'No item attached'}
+                  </span>
+                </header>
+                {position.steps.length === 0 ? (
+                  <p className="px-4 py-3 text-sm text-ink-soft">Nothing to measure here with a multimeter.</p>
+                ) : (
+                  <ol>
+                    {position.steps.map((step) => {
+                      n += 1;
+                      const at = flat.findIndex((f) => f.step.id === step.id);
+                      const fault = data.openFaults.find((f) => f.stepId === step.id);
+                      return (
+                        <StepRow
+                          key={step.id}
+                          index={n}
+                          step={step}
+                          ctx={{
+                            profile,
+                            equipmentKind: position.equipmentKind,
+                            testKind: step.testKind,
+                            conductors: step.conductors,
+                            lengthM: position.equipment?.lengthM ?? null,
+                          }}
+                          leadNull={lead}
+                          canWrite={canWrite}
+                          faultId={fault?.id ?? null}
+                          highlight={retestPosition === position.id}
+                          retested={isRetested(position.id, step)}
+                          showCaution={cautionSteps.has(step.id)}
+                          queued={queued.get(step.id) ?? null}
+                          inputRef={(el) => {
+                            if (el) inputs.current.set(step.id, el);
+                            else inputs.current.delete(step.id);
+                          }}
+                          submit={(input, preview) => submitReading(position, step, input, preview)}
+                          onRecorded={() => focusStep(flat[at + 1]?.step.id)}
+                        />
+                      );
+                    })}
+                  </ol>
+                )}
+              </section>
+            ))}
+          </div>
+        </>
       )}
     </>
   );

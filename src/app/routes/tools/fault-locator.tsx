@@ -21,16 +21,12 @@ export default function FaultLocatorPage() {
 
   return (
     <>
-      <PageHeader
-        title="Fault locator"
-        subtitle="Estimate how far along a cable the fault is, from the readings you take at its ends."
-      />
+      <PageHeader title="Fault locator" subtitle="Estimate how far along a cable the fault is, from the readings you take at its ends." />
       <div className="flex flex-col gap-6">
         <Notice tone="caution">
-          <strong>Before you measure:</strong> take these readings only on a cable disconnected at both ends — from the
-          scoring apparatus and from mains. Never use a high-voltage insulation tester on anything still connected to
-          electronics (apparatus, reels with their boxes): it can destroy them. The hall’s own mains installation is work
-          for a licensed electrician.
+          <strong>Before you measure:</strong> take these readings only on a cable disconnected at both ends — from the scoring apparatus
+          and from mains. Never use a high-voltage insulation tester on anything still connected to electronics (apparatus, reels with their
+          boxes): it can destroy them. The hall’s own mains installation is work for a licensed electrician.
         </Notice>
 
         <Card id="where-is-the-fault" className="scroll-mt-4">
@@ -62,8 +58,8 @@ export default function FaultLocatorPage() {
           <Card>
             <h2 className="text-lg font-semibold">Scope trace</h2>
             <p className="mb-4 mt-1 text-sm text-ink-soft">
-              Export the trace as CSV (time in seconds, volts). The incident edge and the first reflection are found and
-              measured between their half-way points.
+              Export the trace as CSV (time in seconds, volts). The incident edge and the first reflection are found and measured between
+              their half-way points.
             </p>
             <WaveformSection
               unitSystem={unitSystem}

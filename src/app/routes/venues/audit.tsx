@@ -15,7 +15,10 @@ export default function VenueAuditPage() {
         title={`Audit trail${plan.data ? `: ${plan.data.venue.name}` : ''}`}
         subtitle={
           <>
-            Who changed the plan, the readings and the faults, and when. <Link className="text-brand underline" to={paths.venuePlan(venueId)}>Open the plan</Link>
+            Who changed the plan, the readings and the faults, and when.{' '}
+            <Link className="text-brand underline" to={paths.venuePlan(venueId)}>
+              Open the plan
+            </Link>
           </>
         }
       />

@@ -59,7 +59,8 @@ export default function BoardPage() {
   // Incidents belong to the competition days, once the venue is signed off.
   const competing = venue.status === 'signed-off' || counts['out-of-service'] > 0;
   const statuses = STRIP_STATUSES.filter((s) => s !== 'out-of-service' || competing);
-  const queuedFor = (s: BoardStrip) => outbox.incidents.filter((i) => i.stripId === s.id && i.userId === me.data?.id && i.status !== 'set-aside');
+  const queuedFor = (s: BoardStrip) =>
+    outbox.incidents.filter((i) => i.stripId === s.id && i.userId === me.data?.id && i.status !== 'set-aside');
 
   return (
     <>
@@ -105,7 +106,11 @@ export default function BoardPage() {
       )}
       <div className="mb-4 grid grid-cols-4 gap-3 lg:grid-cols-7">
         {statuses.map((s) => (
-          <Card key={s} className={`flex items-center gap-3 p-3 ${s === 'out-of-service' && counts[s] > 0 ? 'border-fail' : ''}`} data-count={s}>
+          <Card
+            key={s}
+            className={`flex items-center gap-3 p-3 ${s === 'out-of-service' && counts[s] > 0 ? 'border-fail' : ''}`}
+            data-count={s}
+          >
             <MarkIcon shape={stripStatusLook[s].shape} tone={stripStatusLook[s].tone} className="size-7" />
             <div>
               <div className="text-2xl font-semibold tabular-nums">{counts[s]}</div>
@@ -139,7 +144,12 @@ export default function BoardPage() {
                     if (queued.length > 0) return <QueuedIncidentMark item={queued[0]} />;
                     if (s.openIncidents > 0 || s.status === 'withdrawn') return null;
                     return (
-                      <Button variant="secondary" className="min-h-14! border-fail/50 px-2 text-sm whitespace-nowrap text-fail" onClick={() => setReporting(s)} aria-label={`Report a problem on ${s.label}`}>
+                      <Button
+                        variant="secondary"
+                        className="min-h-14! border-fail/50 px-2 text-sm whitespace-nowrap text-fail"
+                        onClick={() => setReporting(s)}
+                        aria-label={`Report a problem on ${s.label}`}
+                      >
                         Report a problem
                       </Button>
                     );

@@ -4,7 +4,12 @@ import { useDates } from '@/lib/date-format';
 import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { revokeCertificateSchema, type RevokeCertificateInput } from '@shared/schemas/sign-off';
-import { certificatePdfUrl, certificatesZipUrl, useCertificates, type CertificateSummary } from '@/features/certificates/api/get-certificates';
+import {
+  certificatePdfUrl,
+  certificatesZipUrl,
+  useCertificates,
+  type CertificateSummary,
+} from '@/features/certificates/api/get-certificates';
 import { useRevokeCertificate } from '@/features/certificates/api/revoke-certificate';
 import { CertificateStatusBadge } from '@/features/certificates/components/certificate-status';
 import { incidentReportUrl } from '@/features/incidents/api/get-venue-incidents';
@@ -67,14 +72,23 @@ function CertificateRow({ c, venueId, canRevoke }: { c: CertificateSummary; venu
         </span>
       </div>
       {c.status === 'valid' && c.supersededPendingSince && (
-        <p className="mt-1 text-sm text-near">Its strip changed on {dates.dateTime(c.supersededPendingSince)}: superseded once the venue is amended.</p>
+        <p className="mt-1 text-sm text-near">
+          Its strip changed on {dates.dateTime(c.supersededPendingSince)}: superseded once the venue is amended.
+        </p>
       )}
       {c.successorNumber && (
         <p className="mt-1 text-sm text-ink-soft">
-          Replaced by <Link className="font-mono text-brand underline" to={paths.verify(c.successorNumber)}>{c.successorNumber}</Link>
+          Replaced by{' '}
+          <Link className="font-mono text-brand underline" to={paths.verify(c.successorNumber)}>
+            {c.successorNumber}
+          </Link>
         </p>
       )}
-      {c.status === 'revoked' && <p className="mt-1 text-sm text-fail">Revoked {c.revokedAt && dates.dateTime(c.revokedAt)}: {c.revokedReason}</p>}
+      {c.status === 'revoked' && (
+        <p className="mt-1 text-sm text-fail">
+          Revoked {c.revokedAt && dates.dateTime(c.revokedAt)}: {c.revokedReason}
+        </p>
+      )}
       {revoking && <RevokeForm venueId={venueId} number={c.number} onDone={() => setRevoking(false)} />}
     </li>
   );
@@ -112,7 +126,11 @@ export default function CertificatesPage() {
               </a>
             )}
             {latest && (
-              <a className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white" href={certificatesZipUrl(venueId)} download>
+              <a
+                className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white"
+                href={certificatesZipUrl(venueId)}
+                download
+              >
                 Download all (ZIP)
               </a>
             )}
@@ -136,7 +154,9 @@ export default function CertificatesPage() {
             Signed by {latest[0].signedBy} on {dates.dateTime(latest[0].signedAt)}
           </h2>
           {venue.status !== 'signed-off' && (
-            <p className="mt-1 text-sm text-ink-soft">The venue changed after this sign-off, so these certificates are superseded until it is signed off again.</p>
+            <p className="mt-1 text-sm text-ink-soft">
+              The venue changed after this sign-off, so these certificates are superseded until it is signed off again.
+            </p>
           )}
           <ul className="mt-2 divide-y divide-line">
             {latest.map((c) => (

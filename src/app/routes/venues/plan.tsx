@@ -23,7 +23,11 @@ import { paths } from '@/config/paths';
 import { ApiError } from '@/lib/api-client';
 import { venueLabelsUrl } from '@/features/labels/api/label-sheets';
 
-const STATUS = { planning: ['ring', 'idle', 'Planning'], testing: ['half', 'brand', 'Testing'], 'signed-off': ['circle', 'pass', 'Signed off'] } as const;
+const STATUS = {
+  planning: ['ring', 'idle', 'Planning'],
+  testing: ['half', 'brand', 'Testing'],
+  'signed-off': ['circle', 'pass', 'Signed off'],
+} as const;
 
 export default function VenuePlanPage() {
   const { venueId = '' } = useParams();
@@ -82,7 +86,8 @@ export default function VenuePlanPage() {
         reinstate: () => run(`${strip.label} reinstated`, () => reinstate.mutateAsync({ stripId: strip.id, version })),
         addStep: (positionId, step) => run('Step added', () => addStep.mutateAsync({ positionId, step, version })),
         dropStep: (stepId) => run('Step dropped', () => dropStep.mutateAsync({ stepId, version })),
-        addPosition: (position) => run(`${position.name.trim()} added to ${strip.label}`, () => addPosition.mutateAsync({ stripId: strip.id, position, version })),
+        addPosition: (position) =>
+          run(`${position.name.trim()} added to ${strip.label}`, () => addPosition.mutateAsync({ stripId: strip.id, position, version })),
         removePosition: (positionId) => {
           const name = strip.positions.find((x) => x.id === positionId)?.name ?? 'Position';
           return run(`${name} removed from ${strip.label}`, () => removePosition.mutateAsync({ positionId, version }));
@@ -98,20 +103,45 @@ export default function VenuePlanPage() {
         title={`Plan: ${p.venue.name}`}
         subtitle={
           <>
-            <Link className="text-brand underline" to={paths.event(p.event.id)}>{p.event.name}</Link> · {p.strips.length} strips · plan version {version}
+            <Link className="text-brand underline" to={paths.event(p.event.id)}>
+              {p.event.name}
+            </Link>{' '}
+            · {p.strips.length} strips · plan version {version}
             {!canEdit && ' · read only for your role'}
           </>
         }
         actions={
           <>
             <StatusMark shape={shape} tone={tone} label={label} />
-            <Link className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" to={paths.venue(venueId)}>Venue</Link>
-            <Link className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" to={paths.venueReadings(venueId)}>Readings</Link>
+            <Link
+              className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+              to={paths.venue(venueId)}
+            >
+              Venue
+            </Link>
+            <Link
+              className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+              to={paths.venueReadings(venueId)}
+            >
+              Readings
+            </Link>
             {me.data?.role !== 'technician' && (
-              <Link className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" to={paths.venueAudit(venueId)}>Audit trail</Link>
+              <Link
+                className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+                to={paths.venueAudit(venueId)}
+              >
+                Audit trail
+              </Link>
             )}
             {me.data?.role !== 'organiser' && (
-              <a className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium" href={venueLabelsUrl(venueId)} target="_blank" rel="noreferrer">Print labels</a>
+              <a
+                className="inline-flex min-h-touch items-center rounded-lg border border-line bg-card px-4 font-medium"
+                href={venueLabelsUrl(venueId)}
+                target="_blank"
+                rel="noreferrer"
+              >
+                Print labels
+              </a>
             )}
           </>
         }
@@ -129,7 +159,9 @@ export default function VenuePlanPage() {
         )}
         {done && !problem && <Notice tone="success">{done}</Notice>}
         {p.venue.status === 'signed-off' && canEdit && (
-          <Notice tone="caution">This venue is signed off. Any change to the plan re-opens it and marks its certificates superseded.</Notice>
+          <Notice tone="caution">
+            This venue is signed off. Any change to the plan re-opens it and marks its certificates superseded.
+          </Notice>
         )}
       </div>
       <div className="grid gap-6 lg:grid-cols-[18rem_1fr]">
@@ -139,7 +171,11 @@ export default function VenuePlanPage() {
             <VenueDetailsForm
               plan={p}
               readOnly={!canEdit}
-              profiles={profiles.data ?? [{ name: p.profile.name, lineageId: p.profile.lineageId, versions: [{ id: p.profile.id, version: p.profile.version }] }]}
+              profiles={
+                profiles.data ?? [
+                  { name: p.profile.name, lineageId: p.profile.lineageId, versions: [{ id: p.profile.id, version: p.profile.version }] },
+                ]
+              }
               people={canEdit ? people.data?.technicians : undefined}
               onSave={(v) => run('Venue', () => updateVenue.mutateAsync({ ...v, version }))}
             />
@@ -147,7 +183,10 @@ export default function VenuePlanPage() {
           {canEdit && (
             <Card>
               <h2 className="mb-3 text-lg font-semibold">Add strips</h2>
-              <BulkStripsForm nextNumber={nextNumber} onAdd={(body) => run('Strips added', () => addStrips.mutateAsync({ ...body, version }))} />
+              <BulkStripsForm
+                nextNumber={nextNumber}
+                onAdd={(body) => run('Strips added', () => addStrips.mutateAsync({ ...body, version }))}
+              />
             </Card>
           )}
         </div>
@@ -166,7 +205,7 @@ export default function VenuePlanPage() {
                     aria-current={s.id === strip?.id ? 'true' : undefined}
                     onClick={() => setSelected(s.id)}
                     className={`min-h-touch min-w-touch rounded-lg border px-3 text-sm font-medium ${s.id === strip?.id ? 'border-brand bg-brand text-white' : 'border-line bg-card hover:bg-brand-soft'} ${s.withdrawnAt ? 'line-through opacity-70' : ''}`}
-                    title={s.withdrawnAt ? `Withdrawn: ${s.withdrawnReason}` : s.zone ?? undefined}
+                    title={s.withdrawnAt ? `Withdrawn: ${s.withdrawnReason}` : (s.zone ?? undefined)}
                   >
                     {s.label}
                   </button>
@@ -178,7 +217,14 @@ export default function VenuePlanPage() {
                     {strip.label}
                     {strip.zone && <span className="ml-2 text-base font-normal text-ink-soft">{strip.zone}</span>}
                   </h2>
-                  <StripEditor key={strip.id} strip={strip} readOnly={!canEdit} actions={actions} strips={p.strips} loopRequired={p.profile.loopRequired} />
+                  <StripEditor
+                    key={strip.id}
+                    strip={strip}
+                    readOnly={!canEdit}
+                    actions={actions}
+                    strips={p.strips}
+                    loopRequired={p.profile.loopRequired}
+                  />
                 </Card>
               )}
             </>

@@ -25,11 +25,17 @@ export default function VenueReadingsPage() {
         subtitle={
           <>
             Every reading with its verdict, limit, source and profile version.{' '}
-            <Link className="text-brand underline" to={paths.venue(venueId)}>Back to the venue</Link>
+            <Link className="text-brand underline" to={paths.venue(venueId)}>
+              Back to the venue
+            </Link>
           </>
         }
         actions={
-          <a className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white" href={venueReadingsCsvUrl(venueId, filter)} download>
+          <a
+            className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white"
+            href={venueReadingsCsvUrl(venueId, filter)}
+            download
+          >
             {Object.values(filter).some(Boolean) ? 'Export CSV (filtered)' : 'Export CSV'}
           </a>
         }
@@ -37,7 +43,15 @@ export default function VenueReadingsPage() {
       <Card className="p-0!">
         {readings.isPending && <Loading />}
         {readings.isError && <Notice tone="error">{readings.error.message}</Notice>}
-        {readings.data && <ReadingsTable rows={readings.data} canCorrect={canCorrect} onCorrect={(v) => correct.mutateAsync(v)} filter={filter} onFilterChange={setFilter} />}
+        {readings.data && (
+          <ReadingsTable
+            rows={readings.data}
+            canCorrect={canCorrect}
+            onCorrect={(v) => correct.mutateAsync(v)}
+            filter={filter}
+            onFilterChange={setFilter}
+          />
+        )}
       </Card>
     </>
   );

@@ -49,7 +49,10 @@ export default function SignOffPage() {
                 </li>
               ))}
             </ul>
-            <Link className="mt-4 inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white" to={paths.venueCertificates(venueId)}>
+            <Link
+              className="mt-4 inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white"
+              to={paths.venueCertificates(venueId)}
+            >
               Open the certificates
             </Link>
           </Card>
@@ -58,9 +61,16 @@ export default function SignOffPage() {
       {!signed && r.venue.status === 'signed-off' && (
         <div className="mb-6">
           <Notice tone="success">
-            This venue was signed off{r.signedOff ? ` on ${dates.dateTime(r.signedOff.signedAt)}` : ''}. A reading, repair or swap on one strip
-            now puts only that strip out of service until you amend the venue for it on the{' '}
-            <Link className="font-medium underline" to={paths.venueIncidents(venueId)}>incidents page</Link>; a change to the plan re-opens the venue. <Link className="font-medium underline" to={paths.venueCertificates(venueId)}>See its certificates</Link>.
+            This venue was signed off{r.signedOff ? ` on ${dates.dateTime(r.signedOff.signedAt)}` : ''}. A reading, repair or swap on one
+            strip now puts only that strip out of service until you amend the venue for it on the{' '}
+            <Link className="font-medium underline" to={paths.venueIncidents(venueId)}>
+              incidents page
+            </Link>
+            ; a change to the plan re-opens the venue.{' '}
+            <Link className="font-medium underline" to={paths.venueCertificates(venueId)}>
+              See its certificates
+            </Link>
+            .
           </Notice>
         </div>
       )}

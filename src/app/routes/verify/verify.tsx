@@ -65,12 +65,18 @@ function Details({ number }: { number: string }) {
   if (!v)
     return (
       <Notice tone="error">
-        No certificate has the number <strong className="font-mono">{number}</strong>. Check the number on the document, or scan its QR code.
+        No certificate has the number <strong className="font-mono">{number}</strong>. Check the number on the document, or scan its QR
+        code.
       </Notice>
     );
   const rows: [string, ReactNode][] = [
     ['Certificate number', <span className="font-mono">{v.number}</span>],
-    ['Covers', v.kind === 'venue' ? `The venue (${v.strips.length} ${v.strips.length === 1 ? 'strip' : 'strips'}: ${v.strips.join(', ')})` : `One strip: ${v.strips.join(', ')}`],
+    [
+      'Covers',
+      v.kind === 'venue'
+        ? `The venue (${v.strips.length} ${v.strips.length === 1 ? 'strip' : 'strips'}: ${v.strips.join(', ')})`
+        : `One strip: ${v.strips.join(', ')}`,
+    ],
     ['Event', `${v.event}, ${dates.calendarRange(v.eventDates.startsOn, v.eventDates.endsOn)}`],
     ['Venue', v.venue],
     ['Organisation', v.organisation],
@@ -98,12 +104,14 @@ function Details({ number }: { number: string }) {
         <div data-testid="not-covering">
           <Notice tone="caution">
             <strong>
-              This venue certificate no longer covers {notCovering.length === 1 ? 'one of its strips' : `${notCovering.length} of its strips`}:
+              This venue certificate no longer covers{' '}
+              {notCovering.length === 1 ? 'one of its strips' : `${notCovering.length} of its strips`}:
             </strong>{' '}
             {notCovering.map((s, i) => (
               <span key={s.number}>
                 {i > 0 ? '; ' : ''}
-                {s.strip} (its strip certificate <span className="font-mono">{s.number}</span> was revoked{s.revokedAt ? ` ${when(s.revokedAt)}` : ''}
+                {s.strip} (its strip certificate <span className="font-mono">{s.number}</span> was revoked
+                {s.revokedAt ? ` ${when(s.revokedAt)}` : ''}
                 {s.revokedReason ? `: ${s.revokedReason.replace(/[.!]+$/, '')}` : ''})
               </span>
             ))}
@@ -122,10 +130,8 @@ function Details({ number }: { number: string }) {
       {outOfService.length > 0 && (
         <div data-testid="out-of-service">
           <Notice tone="caution">
-            <strong>
-              Out of service now: {outOfService.length === 1 ? 'one strip' : `${outOfService.length} strips`} of this venue
-            </strong>{' '}
-            ({outOfService.map((s) => `${s.strip}, since ${when(s.since)}`).join('; ')}). This certificate does not cover{' '}
+            <strong>Out of service now: {outOfService.length === 1 ? 'one strip' : `${outOfService.length} strips`} of this venue</strong> (
+            {outOfService.map((s) => `${s.strip}, since ${when(s.since)}`).join('; ')}). This certificate does not cover{' '}
             {outOfService.length === 1 ? 'it' : 'them'} until the technical director amends it.
           </Notice>
         </div>
@@ -165,11 +171,17 @@ function Details({ number }: { number: string }) {
             </a>
             .
           </p>
-          <textarea readOnly rows={5} className="mt-2 w-full rounded-lg border border-line bg-paper p-2 font-mono text-xs" value={v.jws} aria-label="JWS" />
+          <textarea
+            readOnly
+            rows={5}
+            className="mt-2 w-full rounded-lg border border-line bg-paper p-2 font-mono text-xs"
+            value={v.jws}
+            aria-label="JWS"
+          />
         </details>
         <p className="mt-4 text-sm text-ink-soft">
-          A certificate covers the competition equipment tested, not the building&apos;s electrical installation (mains supply and earthing of the hall), which is for
-          licensed electricians under local codes.
+          A certificate covers the competition equipment tested, not the building&apos;s electrical installation (mains supply and earthing
+          of the hall), which is for licensed electricians under local codes.
         </p>
       </Card>
     </div>

@@ -86,10 +86,14 @@ export function AttachmentsPanel({
 
       {shownTrace && (
         <div className="rounded-lg border border-line p-3">
-          <h3 className="mb-2 font-semibold">
-            Trace {traces.find((t) => t.id === shownTrace)?.originalName}
-          </h3>
-          <TraceViewer attachmentId={shownTrace} faultId={faultId} canSave={canSaveEstimate} unitSystem={unitSystem} onSaved={onEstimateSaved} />
+          <h3 className="mb-2 font-semibold">Trace {traces.find((t) => t.id === shownTrace)?.originalName}</h3>
+          <TraceViewer
+            attachmentId={shownTrace}
+            faultId={faultId}
+            canSave={canSaveEstimate}
+            unitSystem={unitSystem}
+            onSaved={onEstimateSaved}
+          />
         </div>
       )}
     </section>
@@ -112,7 +116,11 @@ function FileRow({ a, open, onToggle }: { a: AttachmentDto; open: boolean; onTog
             {open ? 'Hide plot' : 'Show plot'}
           </Button>
         )}
-        <a href={a.url} className="inline-flex min-h-touch items-center rounded-lg px-3 font-medium text-brand hover:bg-brand-soft" download>
+        <a
+          href={a.url}
+          className="inline-flex min-h-touch items-center rounded-lg px-3 font-medium text-brand hover:bg-brand-soft"
+          download
+        >
           Download
         </a>
       </span>

@@ -32,7 +32,9 @@ export function TraceViewer({
   const analysis = useTraceAnalysis(attachmentId);
   if (analysis.isPending) return <Loading label="Reading the trace…" />;
   if (analysis.isError) return <Notice tone="error">{analysis.error.message}</Notice>;
-  return <TraceWorkbench key={attachmentId} data={analysis.data} faultId={faultId} canSave={canSave} unitSystem={unitSystem} onSaved={onSaved} />;
+  return (
+    <TraceWorkbench key={attachmentId} data={analysis.data} faultId={faultId} canSave={canSave} unitSystem={unitSystem} onSaved={onSaved} />
+  );
 }
 
 function TraceWorkbench({

@@ -10,7 +10,15 @@ import { formatBytes } from '../utils/idempotency-key';
  * upload's progress; a dropped upload can be sent again and is recognised, not stored twice. Says
  * that the server removes a photo's location and device serial before storing it.
  */
-export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType: AttachmentOwnerType; ownerId: string; camera?: boolean }) {
+export function UploadControl({
+  ownerType,
+  ownerId,
+  camera = true,
+}: {
+  ownerType: AttachmentOwnerType;
+  ownerId: string;
+  camera?: boolean;
+}) {
   const { state, start, retry, reset } = useUploadAttachment(ownerType, ownerId);
   const cameraInput = useRef<HTMLInputElement>(null);
   const fileInput = useRef<HTMLInputElement>(null);
@@ -67,7 +75,8 @@ export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType
         {formatBytes(ATTACHMENT_MAX_BYTES.trace)}, PDFs up to {formatBytes(ATTACHMENT_MAX_BYTES.pdf)}.
       </p>
       <p className="text-xs text-ink-soft" data-testid="photo-privacy">
-        Photos are kept without their location (GPS) and the device&apos;s serial number; which way up they are and when they were taken stay.
+        Photos are kept without their location (GPS) and the device&apos;s serial number; which way up they are and when they were taken
+        stay.
       </p>
 
       {state.phase === 'sending' && (
@@ -86,7 +95,10 @@ export function UploadControl({ ownerType, ownerId, camera = true }: { ownerType
             aria-valuenow={Math.round((100 * state.progress.loaded) / Math.max(1, state.progress.total))}
             className="h-3 w-full overflow-hidden rounded-full bg-line"
           >
-            <div className="h-full rounded-full bg-brand transition-[width]" style={{ width: `${(100 * state.progress.loaded) / Math.max(1, state.progress.total)}%` }} />
+            <div
+              className="h-full rounded-full bg-brand transition-[width]"
+              style={{ width: `${(100 * state.progress.loaded) / Math.max(1, state.progress.total)}%` }}
+            />
           </div>
         </div>
       )}

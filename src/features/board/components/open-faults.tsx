@@ -12,7 +12,12 @@ export function OpenFaultsList({ faults, unitSystem }: { faults: BoardFault[]; u
     <ul className="divide-y divide-line">
       {faults.map((f) => (
         <li key={f.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 py-2">
-          <StatusMark shape={FAULT_SYMBOLS[f.status].shape} tone={FAULT_SYMBOLS[f.status].tone} label={FAULT_STATUS_LABELS[f.status]} size="sm" />
+          <StatusMark
+            shape={FAULT_SYMBOLS[f.status].shape}
+            tone={FAULT_SYMBOLS[f.status].tone}
+            label={FAULT_STATUS_LABELS[f.status]}
+            size="sm"
+          />
           <Link to={paths.fault(f.id)} className="min-h-touch inline-flex items-center font-medium text-brand underline">
             {f.stripLabel} · {f.positionName}
           </Link>

@@ -20,11 +20,22 @@ export function StripFilters({ filters, counts }: { filters: ReturnType<typeof u
     `inline-flex min-h-touch items-center gap-2 rounded-full border px-3 text-sm font-medium ${active ? 'border-brand bg-brand text-white' : 'border-line bg-card hover:bg-paper'}`;
   return (
     <div className="flex flex-wrap items-center gap-2" role="group" aria-label="Filter strips">
-      <button type="button" className={chip(filters.status === 'all')} aria-pressed={filters.status === 'all'} onClick={() => filters.setStatus('all')}>
+      <button
+        type="button"
+        className={chip(filters.status === 'all')}
+        aria-pressed={filters.status === 'all'}
+        onClick={() => filters.setStatus('all')}
+      >
         All
       </button>
       {STRIP_STATUSES.filter((s) => s !== 'out-of-service' || counts[s] > 0).map((s) => (
-        <button key={s} type="button" className={chip(filters.status === s)} aria-pressed={filters.status === s} onClick={() => filters.setStatus(s)}>
+        <button
+          key={s}
+          type="button"
+          className={chip(filters.status === s)}
+          aria-pressed={filters.status === s}
+          onClick={() => filters.setStatus(s)}
+        >
           <MarkIcon shape={stripStatusLook[s].shape} tone={filters.status === s ? 'brass' : stripStatusLook[s].tone} />
           {stripStatusLook[s].label} <span className="tabular-nums">({counts[s]})</span>
         </button>
@@ -32,7 +43,11 @@ export function StripFilters({ filters, counts }: { filters: ReturnType<typeof u
       {filters.zones.length > 1 && (
         <label className="ml-auto flex items-center gap-2 text-sm">
           Zone
-          <select className="min-h-touch rounded-lg border border-line bg-card px-2" value={filters.zone} onChange={(e) => filters.setZone(e.target.value)}>
+          <select
+            className="min-h-touch rounded-lg border border-line bg-card px-2"
+            value={filters.zone}
+            onChange={(e) => filters.setZone(e.target.value)}
+          >
             <option value="all">All zones</option>
             {filters.zones.map((z) => (
               <option key={z} value={z}>
@@ -80,7 +95,9 @@ export function StripGrid({
             {s.status === 'out-of-service' && s.minutesSinceIncident !== null && (
               <span className="text-sm font-semibold text-fail tabular-nums" data-testid="minutes-out">
                 {minutesText(s.minutesSinceIncident)} out
-                {s.openIncidents > 0 ? ` · ${s.openIncidents} incident${s.openIncidents === 1 ? '' : 's'} open` : ' · waiting for the amendment'}
+                {s.openIncidents > 0
+                  ? ` · ${s.openIncidents} incident${s.openIncidents === 1 ? '' : 's'} open`
+                  : ' · waiting for the amendment'}
               </span>
             )}
             <span className="text-xs text-ink-soft tabular-nums">
@@ -90,7 +107,13 @@ export function StripGrid({
           </>
         );
         const border =
-          s.status === 'out-of-service' ? 'border-fail bg-fail-soft/40' : s.status === 'fault-open' ? 'border-fail/60' : s.status === 'clear' ? 'border-pass/50' : 'border-line';
+          s.status === 'out-of-service'
+            ? 'border-fail bg-fail-soft/40'
+            : s.status === 'fault-open'
+              ? 'border-fail/60'
+              : s.status === 'clear'
+                ? 'border-pass/50'
+                : 'border-line';
         const cls = `flex h-full min-h-touch flex-col gap-1.5 rounded-lg border-2 bg-card p-3 ${border}`;
         return (
           <li key={s.id} data-strip={s.label} data-status={s.status} className="flex flex-col gap-1.5">

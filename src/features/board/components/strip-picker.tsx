@@ -9,7 +9,9 @@ export function StripPicker({ strips, onPick }: { strips: BoardStrip[]; onPick: 
   const find = (q: string) => {
     const t = q.trim().toLowerCase();
     if (!t) return undefined;
-    return strips.find((s) => s.label.toLowerCase() === t) ?? strips.find((s) => (s.label.match(/\d+/)?.[0] ?? '') === t.replace(/^0+/, ''));
+    return (
+      strips.find((s) => s.label.toLowerCase() === t) ?? strips.find((s) => (s.label.match(/\d+/)?.[0] ?? '') === t.replace(/^0+/, ''))
+    );
   };
   return (
     <form

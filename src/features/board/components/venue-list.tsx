@@ -37,7 +37,9 @@ export function VenueList({ actions }: { actions?: (venue: { id: string; status:
                   {v.eventName} · {dates.calendarRange(v.startsOn, v.endsOn)} · {v.stripCount} strips
                 </p>
               </div>
-              <span className="rounded-md bg-brand-soft px-2 py-1 text-xs font-semibold text-brand">{VENUE_STATUS_LABELS[v.status] ?? v.status}</span>
+              <span className="rounded-md bg-brand-soft px-2 py-1 text-xs font-semibold text-brand">
+                {VENUE_STATUS_LABELS[v.status] ?? v.status}
+              </span>
             </div>
             <ProgressBar done={v.stepsDone} total={v.stepsTotal} label="Steps measured" />
             <ul className="flex flex-wrap gap-2" aria-label={`Strips of ${v.name} by status`}>
@@ -51,7 +53,10 @@ export function VenueList({ actions }: { actions?: (venue: { id: string; status:
               <Link to={paths.venue(v.id)} className="inline-flex min-h-touch items-center rounded-lg bg-brand px-4 font-medium text-white">
                 Open venue
               </Link>
-              <Link to={paths.venueBoard(v.id)} className="inline-flex min-h-touch items-center rounded-lg border border-line px-4 font-medium">
+              <Link
+                to={paths.venueBoard(v.id)}
+                className="inline-flex min-h-touch items-center rounded-lg border border-line px-4 font-medium"
+              >
                 Status board
               </Link>
               {actions?.(v)}

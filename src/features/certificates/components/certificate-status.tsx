@@ -11,20 +11,47 @@ const TONES: Record<CertificateStatus, string> = {
 export function StatusShape({ status, className = 'size-4' }: { status: CertificateStatus; className?: string }) {
   if (status === 'valid')
     return (
-      <svg aria-hidden viewBox="0 0 24 24" className={className} fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" strokeLinejoin="round">
+      <svg
+        aria-hidden
+        viewBox="0 0 24 24"
+        className={className}
+        fill="none"
+        stroke="currentColor"
+        strokeWidth="3"
+        strokeLinecap="round"
+        strokeLinejoin="round"
+      >
         <circle cx="12" cy="12" r="10" strokeWidth="2" />
         <path d="M7 12.5l3.2 3.2L17 9" />
       </svg>
     );
   if (status === 'superseded')
     return (
-      <svg aria-hidden viewBox="0 0 24 24" className={className} fill="none" stroke="currentColor" strokeWidth="2.4" strokeLinecap="round" strokeLinejoin="round">
+      <svg
+        aria-hidden
+        viewBox="0 0 24 24"
+        className={className}
+        fill="none"
+        stroke="currentColor"
+        strokeWidth="2.4"
+        strokeLinecap="round"
+        strokeLinejoin="round"
+      >
         <path d="M20 12a8 8 0 1 1-2.4-5.7" />
         <path d="M20 4v5h-5" />
       </svg>
     );
   return (
-    <svg aria-hidden viewBox="0 0 24 24" className={className} fill="none" stroke="currentColor" strokeWidth="2.4" strokeLinecap="round" strokeLinejoin="round">
+    <svg
+      aria-hidden
+      viewBox="0 0 24 24"
+      className={className}
+      fill="none"
+      stroke="currentColor"
+      strokeWidth="2.4"
+      strokeLinecap="round"
+      strokeLinejoin="round"
+    >
       <path d="M8 2h8l6 6v8l-6 6H8l-6-6V8z" />
       <path d="M9 9l6 6M15 9l-6 6" />
     </svg>
@@ -51,7 +78,11 @@ const BIG: Record<CertificateStatus, { title: string; text: string }> = {
 
 /** The answer of the public check, in big plain words. */
 export function VerificationVerdict({ status, detail }: { status: CertificateStatus; detail?: string }) {
-  const tone = { valid: 'border-pass bg-pass-soft text-pass', superseded: 'border-idle bg-idle-soft text-idle', revoked: 'border-fail bg-fail-soft text-fail' }[status];
+  const tone = {
+    valid: 'border-pass bg-pass-soft text-pass',
+    superseded: 'border-idle bg-idle-soft text-idle',
+    revoked: 'border-fail bg-fail-soft text-fail',
+  }[status];
   return (
     <div role="status" className={`flex items-center gap-5 rounded-card border-2 p-6 ${tone}`}>
       <StatusShape status={status} className="size-16 shrink-0" />

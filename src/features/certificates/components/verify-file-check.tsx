@@ -48,7 +48,11 @@ export function VerifyFileCheck({ expectedNumber }: { expectedNumber?: string })
         </label>
         <p className="text-xs text-ink-soft">The file is compared with the issued certificates and not kept. Up to 10 MB.</p>
       </div>
-      {check.isPending && <p role="status" className="text-ink-soft">Checking {name}…</p>}
+      {check.isPending && (
+        <p role="status" className="text-ink-soft">
+          Checking {name}…
+        </p>
+      )}
       {check.isError && <Notice tone="error">{check.error.message}</Notice>}
       {result?.match === true && (
         <Notice tone={result.certificate.status === 'valid' ? 'success' : 'caution'}>

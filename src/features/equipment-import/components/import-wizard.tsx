@@ -130,8 +130,8 @@ export function ImportWizard({ itemHref }: { itemHref: (id: string) => string })
           <Card>
             <h2 className="text-lg font-semibold">2. Which column is which</h2>
             <p className="mb-3 mt-1 text-sm text-ink-soft">
-              Suggested from the header row of {data.fileName}. A length column in feet is converted to metres (from a unit in the cell,
-              the unit column, or the header such as “Length (ft)”).
+              Suggested from the header row of {data.fileName}. A length column in feet is converted to metres (from a unit in the cell, the
+              unit column, or the header such as “Length (ft)”).
             </p>
             <div className="grid gap-3 sm:grid-cols-2 lg:grid-cols-4">
               {IMPORT_FIELDS.map((field) => (
@@ -267,7 +267,11 @@ function PreviewTable({ rows, onlyProblems }: { rows: ImportRowResult[]; onlyPro
       table={table}
       look={previewLook}
       data-testid="import-preview"
-      rowProps={(row) => ({ className: row.original.action === 'error' ? 'bg-fail-soft' : undefined, 'data-row': row.original.row, 'data-action': row.original.action })}
+      rowProps={(row) => ({
+        className: row.original.action === 'error' ? 'bg-fail-soft' : undefined,
+        'data-row': row.original.row,
+        'data-action': row.original.action,
+      })}
     />
   );
 }
@@ -327,7 +331,11 @@ function ReportView({ report, itemHref }: { report: ImportReport; itemHref: (id:
                 <a className="text-brand underline" href={itemHref(u.id)}>
                   {u.assetTag}
                 </a>{' '}
-                <span className="text-ink-soft">{Object.keys(u.changes).map((k) => CHANGE_LABELS[k] ?? k).join(', ')}</span>
+                <span className="text-ink-soft">
+                  {Object.keys(u.changes)
+                    .map((k) => CHANGE_LABELS[k] ?? k)
+                    .join(', ')}
+                </span>
               </li>
             ))}
           </ul>

@@ -9,8 +9,17 @@ import { showServerErrors } from '@/lib/form-errors';
 import { numberOrNull } from './labels';
 
 /** Velocity factor from a known-good length: VF = 2L / (c · Δt). */
-export function CalibrateForm({ defaultLengthM, onCalibrate }: { defaultLengthM: number | null; onCalibrate: (v: CalibrationInput) => Promise<{ explanation: string }> }) {
-  const form = useForm<CalibrationInput>({ resolver: zodResolver(calibrationSchema), defaultValues: { lengthM: defaultLengthM ?? undefined } });
+export function CalibrateForm({
+  defaultLengthM,
+  onCalibrate,
+}: {
+  defaultLengthM: number | null;
+  onCalibrate: (v: CalibrationInput) => Promise<{ explanation: string }>;
+}) {
+  const form = useForm<CalibrationInput>({
+    resolver: zodResolver(calibrationSchema),
+    defaultValues: { lengthM: defaultLengthM ?? undefined },
+  });
   const errors = form.formState.errors;
   const [done, setDone] = useState<string | null>(null);
   return (
@@ -31,12 +40,24 @@ export function CalibrateForm({ defaultLengthM, onCalibrate }: { defaultLengthM:
         On a cable known to be good, measure the round trip to the far-end reflection with the TDR, cable disconnected from the apparatus.
       </p>
       <div className="grid grid-cols-2 gap-3">
-        <TextField label="Round trip (ns)" inputMode="decimal" {...form.register('roundTripNs', { setValueAs: numberOrNull })} error={errors.roundTripNs?.message} />
-        <TextField label="Known length (m)" inputMode="decimal" {...form.register('lengthM', { setValueAs: numberOrNull })} error={errors.lengthM?.message} />
+        <TextField
+          label="Round trip (ns)"
+          inputMode="decimal"
+          {...form.register('roundTripNs', { setValueAs: numberOrNull })}
+          error={errors.roundTripNs?.message}
+        />
+        <TextField
+          label="Known length (m)"
+          inputMode="decimal"
+          {...form.register('lengthM', { setValueAs: numberOrNull })}
+          error={errors.lengthM?.message}
+        />
       </div>
       {errors.root?.message && <Notice tone="error">{errors.root.message}</Notice>}
       {done && <Notice tone="success">{done}</Notice>}
-      <Button type="submit" variant="secondary" disabled={form.formState.isSubmitting}>Calibrate</Button>
+      <Button type="submit" variant="secondary" disabled={form.formState.isSubmitting}>
+        Calibrate
+      </Button>
     </form>
   );
 }

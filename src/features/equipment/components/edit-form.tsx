@@ -49,10 +49,17 @@ export function EquipmentEditForm({
     >
       <TextField label="Description" {...form.register('description')} error={errors.description?.message} />
       <div className="grid grid-cols-2 gap-3">
-        <TextField label="Recorded length (m)" inputMode="decimal" {...form.register('lengthM', { setValueAs: decimalOrNull })} error={errors.lengthM?.message} />
+        <TextField
+          label="Recorded length (m)"
+          inputMode="decimal"
+          {...form.register('lengthM', { setValueAs: decimalOrNull })}
+          error={errors.lengthM?.message}
+        />
         <SelectField label="Status" {...form.register('status')}>
           {EQUIPMENT_STATUSES.map((s) => (
-            <option key={s} value={s}>{EQUIPMENT_STATUS_LABELS[s]}</option>
+            <option key={s} value={s}>
+              {EQUIPMENT_STATUS_LABELS[s]}
+            </option>
           ))}
         </SelectField>
       </div>
@@ -62,7 +69,9 @@ export function EquipmentEditForm({
         <Notice tone="caution">
           <p className="font-semibold">Changed meanwhile</p>
           <p>{root.message}</p>
-          <Button variant="secondary" className="mt-2" onClick={onReload}>Load the current version</Button>
+          <Button variant="secondary" className="mt-2" onClick={onReload}>
+            Load the current version
+          </Button>
         </Notice>
       ) : (
         root && <Notice tone="error">{root.message}</Notice>

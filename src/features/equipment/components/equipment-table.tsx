@@ -23,20 +23,35 @@ export function ToInspectMark() {
 const col = createColumnHelper<EquipmentItem>();
 const look = { ...plainTableLook, td: 'px-4 py-1' };
 
-export function EquipmentTable({ items, itemHref, system }: { items: EquipmentItem[]; itemHref: (id: string) => string; system: LengthSystem }) {
+export function EquipmentTable({
+  items,
+  itemHref,
+  system,
+}: {
+  items: EquipmentItem[];
+  itemHref: (id: string) => string;
+  system: LengthSystem;
+}) {
   const columns = useMemo(
     () => [
       col.accessor('assetTag', {
         header: 'Asset tag',
         cell: (c) => (
-          <Link to={itemHref(c.row.original.id)} className="inline-flex min-h-touch items-center font-mono font-semibold text-brand underline">
+          <Link
+            to={itemHref(c.row.original.id)}
+            className="inline-flex min-h-touch items-center font-mono font-semibold text-brand underline"
+          >
             {c.getValue()}
           </Link>
         ),
       }),
       col.accessor('kind', { header: 'Kind', cell: (c) => EQUIPMENT_KIND_LABELS[c.getValue()] }),
       col.accessor('description', { header: 'Description', cell: (c) => c.getValue() || '—', meta: { cellClassName: 'text-ink-soft' } }),
-      col.accessor('lengthM', { header: 'Length', cell: (c) => lengthText(c.getValue(), system), meta: { className: 'text-right', cellClassName: 'tabular-nums' } }),
+      col.accessor('lengthM', {
+        header: 'Length',
+        cell: (c) => lengthText(c.getValue(), system),
+        meta: { className: 'text-right', cellClassName: 'tabular-nums' },
+      }),
       col.accessor('status', {
         header: 'Status',
         cell: (c) => (

@@ -55,7 +55,9 @@ export function EstimateResult({ answer, lengthM, unitSystem, source, nearLabel 
           </div>
         )}
       </dl>
-      {!compact && <CableDrawing distanceM={answer.distanceM} uncertaintyM={answer.uncertaintyM} lengthM={cableLengthM} unitSystem={unitSystem} />}
+      {!compact && (
+        <CableDrawing distanceM={answer.distanceM} uncertaintyM={answer.uncertaintyM} lengthM={cableLengthM} unitSystem={unitSystem} />
+      )}
       {!(compact && source === 'server') && <p className="text-sm leading-relaxed text-ink">{answer.explanation}</p>}
     </section>
   );

@@ -60,7 +60,10 @@ export interface LocateFormProps {
   answeredNote?: string;
 }
 
-const ALL_METHODS: SuggestedMethod[] = LOCATE_METHODS.filter((m) => m !== 'flex').map((method) => ({ method, reason: METHOD_DEFINITIONS[method].suits }));
+const ALL_METHODS: SuggestedMethod[] = LOCATE_METHODS.filter((m) => m !== 'flex').map((method) => ({
+  method,
+  reason: METHOD_DEFINITIONS[method].suits,
+}));
 
 // Every length or resistance per length any method has, for rewriting them after an m ↔ ft switch.
 const DIMENSIONS: Record<string, Dimension> = { lengthM: 'length', distanceM: 'length', uncertaintyM: 'length', ohmPerMetre: 'per-length' };
@@ -120,7 +123,11 @@ export function LocateForm({
   }
   if (preset && preset.id !== seenPreset) {
     setSeenPreset(preset.id);
-    setState((s) => ({ ...s, method: preset.method, values: Object.entries(preset.texts).reduce<UnitTexts>((v, [k, t]) => typeText(v, k, t), s.values) }));
+    setState((s) => ({
+      ...s,
+      method: preset.method,
+      values: Object.entries(preset.texts).reduce<UnitTexts>((v, [k, t]) => typeText(v, k, t), s.values),
+    }));
     setShowMissing(false);
   }
 
@@ -139,7 +146,8 @@ export function LocateForm({
   const send = useCallback(async (request: FaultLocationRequest, end: 'near' | 'far', system: LengthSystem) => {
     const key = JSON.stringify([request, end]);
     setServer({ key, unitSystem: system, pending: true });
-    const settle = (patch: Partial<ServerState>) => setServer((s) => (s && s.key === key && s.unitSystem === system ? { ...s, pending: false, ...patch } : s));
+    const settle = (patch: Partial<ServerState>) =>
+      setServer((s) => (s && s.key === key && s.unitSystem === system ? { ...s, pending: false, ...patch } : s));
     try {
       settle({ answer: await submitRef.current(request, end) });
     } catch (error) {
@@ -157,7 +165,9 @@ export function LocateForm({
   const errorFor = (name: string): string | undefined =>
     serverFieldErrors[name] ?? built.errors[name] ?? (showMissing && built.missing.includes(name) ? 'Needed for this method.' : undefined);
   const shown = new Set(fields.map((f) => f.input.name));
-  const otherErrors = [...new Map([...Object.entries(built.errors), ...Object.entries(serverFieldErrors)]).entries()].filter(([k]) => !shown.has(k));
+  const otherErrors = [...new Map([...Object.entries(built.errors), ...Object.entries(serverFieldErrors)]).entries()].filter(
+    ([k]) => !shown.has(k),
+  );
   const answer = current?.answer ?? built.answer;
   const lengthM = typeof built.request?.lengthM === 'number' ? built.request.lengthM : undefined;
   const lines = conductors ? murrayLines(conductors) : null;
@@ -198,7 +208,9 @@ export function LocateForm({
                 }}
               />
               {METHOD_DEFINITIONS[m.method].title}
-              {i === 0 && methods !== ALL_METHODS && methods.length > 1 && <span className="text-xs font-normal opacity-80">(try first)</span>}
+              {i === 0 && methods !== ALL_METHODS && methods.length > 1 && (
+                <span className="text-xs font-normal opacity-80">(try first)</span>
+              )}
             </label>
           ))}
         </div>
@@ -227,13 +239,26 @@ export function LocateForm({
               error={errorFor(field.input.name)}
               readAs={built.readAs[field.input.name]}
               unitSystem={unitSystem}
-              suffix={state.method === 'murray' && lines ? (field.input.name === 'faultedArm' ? lines.faulted : field.input.name === 'soundArm' ? lines.sound : undefined) : undefined}
+              suffix={
+                state.method === 'murray' && lines
+                  ? field.input.name === 'faultedArm'
+                    ? lines.faulted
+                    : field.input.name === 'soundArm'
+                      ? lines.sound
+                      : undefined
+                  : undefined
+              }
               source={prefilledUnchanged(field.input.name) ? (prefill?.ohmPerMetreSource ?? undefined) : undefined}
             />
           ),
         )}
         {askFromEnd && (
-          <SelectField id="locate-fromEnd" label="Measured from" value={fromEnd} onChange={(e) => setFromEnd(e.target.value as 'near' | 'far')}>
+          <SelectField
+            id="locate-fromEnd"
+            label="Measured from"
+            value={fromEnd}
+            onChange={(e) => setFromEnd(e.target.value as 'near' | 'far')}
+          >
             <option value="near">the apparatus end (near)</option>
             <option value="far">the far end</option>
           </SelectField>
@@ -267,7 +292,9 @@ export function LocateForm({
               value={state.conductorSize}
               onChange={(e) => setState((s) => ({ ...s, conductorSize: e.target.value }))}
               error={errorFor('ohmPerMetre')}
-              hint={built.readAs.ohmPerMetre ? `Maximum at 20 °C: ${built.readAs.ohmPerMetre}; real conductors read a little less.` : undefined}
+              hint={
+                built.readAs.ohmPerMetre ? `Maximum at 20 °C: ${built.readAs.ohmPerMetre}; real conductors read a little less.` : undefined
+              }
             >
               {CONDUCTOR_SIZES.map((s) => (
                 <option key={s.value} value={s.value}>
@@ -295,7 +322,9 @@ export function LocateForm({
         </Notice>
       ))}
       {current?.error !== undefined && !(current.error instanceof ApiError && current.error.errors.length > 0) && (
-        <Notice tone="error">{current.error instanceof Error ? current.error.message : 'The server could not be reached; try again.'}</Notice>
+        <Notice tone="error">
+          {current.error instanceof Error ? current.error.message : 'The server could not be reached; try again.'}
+        </Notice>
       )}
       {current?.answer && answeredNote && (
         <Notice tone="success">

@@ -11,7 +11,11 @@ import { parseLength, parseQuantity, pinLengthUnit } from '../utils/parse-inputs
 
 const [ROUND_TRIP, LENGTH] = VF_CALIBRATION_INPUTS;
 
-type Result = { request: { method: 'vf-calibration'; lengthM: number; roundTripNs: number } | null; answer: FaultLocationAnswer | null; errors: Record<string, string> };
+type Result = {
+  request: { method: 'vf-calibration'; lengthM: number; roundTripNs: number } | null;
+  answer: FaultLocationAnswer | null;
+  errors: Record<string, string>;
+};
 
 /**
  * Velocity factor from a good cable of known length: its far-end reflection's round trip.

@@ -48,7 +48,9 @@ export function WaveformSection({
     setLocalError(null);
     if (!file) return setLocalError('Choose a trace file first (CSV: time in seconds, volts).');
     if (file.size > WAVEFORM_MAX_BYTES) {
-      return setLocalError(`This file is ${(file.size / 2 ** 20).toFixed(0)} MB; at most ${WAVEFORM_MAX_BYTES / 2 ** 20} MB is accepted. Export a shorter window.`);
+      return setLocalError(
+        `This file is ${(file.size / 2 ** 20).toFixed(0)} MB; at most ${WAVEFORM_MAX_BYTES / 2 ** 20} MB is accepted. Export a shorter window.`,
+      );
     }
     if (vf && !vf.ok) return;
     if (length && !length.ok) return;
@@ -145,7 +147,12 @@ function WaveformResult({
   // Recomputed here with the shared engine, so a moved marker moves the estimate at once.
   const estimate = useMemo<MarkerEstimate | { error: string }>(() => {
     try {
-      return estimateFromMarkers(trace, markers.incident, markers.reflection, { velocityFactor, lengthM, riseTimeNs: data.riseTimeNs, units: unitSystem });
+      return estimateFromMarkers(trace, markers.incident, markers.reflection, {
+        velocityFactor,
+        lengthM,
+        riseTimeNs: data.riseTimeNs,
+        units: unitSystem,
+      });
     } catch (err) {
       if (err instanceof WaveformError) return { error: err.message };
       throw err;
@@ -153,14 +160,19 @@ function WaveformResult({
   }, [trace, markers, velocityFactor, lengthM, data.riseTimeNs, unitSystem]);
   const ok = 'roundTripNs' in estimate ? estimate : null;
   // Until a marker moves, the numbers are the server's, measured on every sample rather than the plotted ones.
-  const shown = moved || !ok ? ok : { ...ok, polarity: data.polarity ?? ok.polarity, reflectionCoefficient: data.reflectionCoefficient ?? ok.reflectionCoefficient };
+  const shown =
+    moved || !ok
+      ? ok
+      : { ...ok, polarity: data.polarity ?? ok.polarity, reflectionCoefficient: data.reflectionCoefficient ?? ok.reflectionCoefficient };
   const found = reflection !== null || moved;
   const rho = found ? shown?.reflectionCoefficient : null;
   const ns = (v: number) => `${v.toFixed(2)} ns`;
   return (
     <div className="flex flex-col gap-4">
       {!reflection && (
-        <Notice tone="caution">No reflection was found automatically. Place the reflection marker by hand where the trace steps again.</Notice>
+        <Notice tone="caution">
+          No reflection was found automatically. Place the reflection marker by hand where the trace steps again.
+        </Notice>
       )}
       <TraceChart
         timeS={data.plot.timeS}

@@ -2,8 +2,20 @@
 // of the one definition of each method (shared/domain/fault-methods.ts), checked by the same
 // schema and the same engine as the server's, so the estimate shows as the technician types.
 
-import { FaultLocationError, ohmPerMetreFromConductorSize, runFaultLocation, type FaultLocationAnswer } from '@shared/domain/fault-location';
-import { METHOD_DEFINITIONS, needsPerMetre, plainInputs, type InputQuantity, type LocateMethod, type MethodInput } from '@shared/domain/fault-methods';
+import {
+  FaultLocationError,
+  ohmPerMetreFromConductorSize,
+  runFaultLocation,
+  type FaultLocationAnswer,
+} from '@shared/domain/fault-location';
+import {
+  METHOD_DEFINITIONS,
+  needsPerMetre,
+  plainInputs,
+  type InputQuantity,
+  type LocateMethod,
+  type MethodInput,
+} from '@shared/domain/fault-methods';
 import { faultLocationRequestSchema, type FaultLocationRequest } from '@shared/schemas/fault-location';
 import { lengthUnitSymbol, roundSignificant, toOhmPerMetre, type LengthSystem } from '@shared/domain/units';
 import { perLengthUnit, type Dimension, type UnitTexts } from '@/lib/unit-texts';

@@ -2,7 +2,15 @@
 // times go through the shared reading parser; lengths are read here (in metres or feet, the
 // user's preference when no unit is typed).
 
-import { decimalProblem, feetToMetres, formatLength, parseReading, thousandsReadings, type LengthSystem, type Quantity } from '@shared/domain/units';
+import {
+  decimalProblem,
+  feetToMetres,
+  formatLength,
+  parseReading,
+  thousandsReadings,
+  type LengthSystem,
+  type Quantity,
+} from '@shared/domain/units';
 
 export type Parsed = { ok: true; value: number; display: string } | { ok: false; message: string };
 
@@ -65,7 +73,8 @@ export function parseLength(text: string, system: LengthSystem): Parsed {
   }
   const value = Number(`${mantissa.replace(',', '.')}e${exponent ?? 0}`) * factor * (sign === '-' ? -1 : 1);
   if (!Number.isFinite(value)) return { ok: false, message: `“${trimmed}” is too large for a cable length.` };
-  if (value === 0 && /[1-9]/.test(mantissa)) return { ok: false, message: `“${trimmed}” is too small for a cable length (the exponent underflows).` };
+  if (value === 0 && /[1-9]/.test(mantissa))
+    return { ok: false, message: `“${trimmed}” is too small for a cable length (the exponent underflows).` };
   if (value <= 0) return { ok: false, message: 'A length must be greater than 0.' };
   if (value > MAX_LENGTH_M) return { ok: false, message: `${formatLength(value, system)} is longer than any cable here; check the unit.` };
   return { ok: true, value, display: formatLength(value, system) };
@@ -90,7 +99,8 @@ export function parseVelocityFactor(text: string): Parsed {
   if (!parsed.ok) return { ok: false, message: `“${trimmed}” is not a velocity factor; e.g. 0.66 or 66 %.` };
   const value = percent ? parsed.value / 100 : parsed.value;
   if (value > 1) return { ok: false, message: 'A velocity factor is at most 1 (nothing is faster than light); e.g. 0.66 or 66 %.' };
-  if (value < 0.3) return { ok: false, message: 'A velocity factor below 0.3 is slower than any ordinary cable; calibrate on a good cable.' };
+  if (value < 0.3)
+    return { ok: false, message: 'A velocity factor below 0.3 is slower than any ordinary cable; calibrate on a good cable.' };
   return { ok: true, value, display: `VF ${value}` };
 }
 

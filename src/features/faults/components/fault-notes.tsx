@@ -39,7 +39,9 @@ export function FaultNotes({ fault, canWrite }: { fault: FaultDetail; canWrite: 
     const waiting = update.isPending || reloading;
     return (
       <div data-testid="notes-conflict" className="flex flex-col gap-3">
-        <Notice tone="caution">Someone else saved this fault while you were writing. Nothing is lost: here are both versions. Choose which one stays.</Notice>
+        <Notice tone="caution">
+          Someone else saved this fault while you were writing. Nothing is lost: here are both versions. Choose which one stays.
+        </Notice>
         <div className="grid gap-3 md:grid-cols-2">
           <section aria-labelledby="notes-yours" className="rounded-lg border-2 border-brand/40 bg-brand-soft/40 p-3">
             <h3 id="notes-yours" className="text-sm font-semibold">
@@ -88,8 +90,16 @@ export function FaultNotes({ fault, canWrite }: { fault: FaultDetail; canWrite: 
       <label htmlFor="fault-notes" className="sr-only">
         Notes on this fault
       </label>
-      <textarea id="fault-notes" rows={3} value={draft ?? fault.notes ?? ''} onChange={(e) => setDraft(e.target.value)} className="rounded-lg border border-line bg-card px-3 py-2 text-base" />
-      {update.isError && !(update.error instanceof ApiError && update.error.status === 412) && <Notice tone="error">{update.error.message}</Notice>}
+      <textarea
+        id="fault-notes"
+        rows={3}
+        value={draft ?? fault.notes ?? ''}
+        onChange={(e) => setDraft(e.target.value)}
+        className="rounded-lg border border-line bg-card px-3 py-2 text-base"
+      />
+      {update.isError && !(update.error instanceof ApiError && update.error.status === 412) && (
+        <Notice tone="error">{update.error.message}</Notice>
+      )}
       <div>
         <Button type="submit" variant="secondary" disabled={draft === null || update.isPending}>
           Save notes

@@ -9,9 +9,17 @@ import type { FaultDetail } from '../api/get-fault';
 import { useAddRepair } from '../api/add-repair';
 
 const ACTIONS: { value: RepairAction; label: string; hint: string }[] = [
-  { value: 'cut-out', label: 'Cut out a section', hint: 'The damaged length is cut away and the cable re-joined; its recorded length shrinks.' },
+  {
+    value: 'cut-out',
+    label: 'Cut out a section',
+    hint: 'The damaged length is cut away and the cable re-joined; its recorded length shrinks.',
+  },
   { value: 'connector-remade', label: 'Connector remade', hint: 'A plug or socket was re-soldered or replaced; the length stays.' },
-  { value: 'swapped', label: 'Swap for another item', hint: 'Another registered item of the same kind goes in this position; this one goes for repair.' },
+  {
+    value: 'swapped',
+    label: 'Swap for another item',
+    hint: 'Another registered item of the same kind goes in this position; this one goes for repair.',
+  },
   { value: 'retired', label: 'Retire the item', hint: 'The item is taken out of service for good and the position is left empty.' },
 ];
 
@@ -48,7 +56,13 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
       <div className="flex flex-col gap-3" data-testid="repair-disarmed">
         <Notice tone="success">Repair recorded. Now retest the item: every step must pass before the strip is clear.</Notice>
         <div>
-          <Button variant="secondary" onClick={() => { repair.reset(); setArmed(true); }}>
+          <Button
+            variant="secondary"
+            onClick={() => {
+              repair.reset();
+              setArmed(true);
+            }}
+          >
             Record another repair…
           </Button>
         </div>
@@ -90,8 +104,18 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
         <legend className="text-sm font-medium">What was done</legend>
         <div className="mt-2 grid gap-2 sm:grid-cols-2">
           {ACTIONS.map((a) => (
-            <label key={a.value} className={`flex min-h-touch cursor-pointer gap-2 rounded-lg border p-3 text-sm ${action === a.value ? 'border-brand bg-brand-soft' : 'border-line bg-card'}`}>
-              <input type="radio" name="action" value={a.value} checked={action === a.value} onChange={() => setAction(a.value)} className="mt-0.5 size-4" />
+            <label
+              key={a.value}
+              className={`flex min-h-touch cursor-pointer gap-2 rounded-lg border p-3 text-sm ${action === a.value ? 'border-brand bg-brand-soft' : 'border-line bg-card'}`}
+            >
+              <input
+                type="radio"
+                name="action"
+                value={a.value}
+                checked={action === a.value}
+                onChange={() => setAction(a.value)}
+                className="mt-0.5 size-4"
+              />
               <span>
                 <span className="font-semibold">{a.label}</span>
                 <span className="block text-xs text-ink-soft">{a.hint}</span>
@@ -105,14 +129,27 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
           <label htmlFor="rep-length" className="text-sm font-medium">
             Length removed ({lengthUnitSymbol(unitSystem)})
           </label>
-          <input id="rep-length" inputMode="decimal" autoComplete="off" value={removed.texts[REMOVED] ?? ''} onChange={(e) => setRemoved((r) => typeText(r, REMOVED, e.target.value))} aria-invalid={fieldErrors.lengthRemovedM ? true : undefined} className="min-h-touch w-40 rounded-lg border border-line bg-card px-3 text-base aria-[invalid=true]:border-fail" />
+          <input
+            id="rep-length"
+            inputMode="decimal"
+            autoComplete="off"
+            value={removed.texts[REMOVED] ?? ''}
+            onChange={(e) => setRemoved((r) => typeText(r, REMOVED, e.target.value))}
+            aria-invalid={fieldErrors.lengthRemovedM ? true : undefined}
+            className="min-h-touch w-40 rounded-lg border border-line bg-card px-3 text-base aria-[invalid=true]:border-fail"
+          />
           {lengthM !== null && (
             <p className="text-sm" data-testid="new-length">
               {formatLength(lengthM, unitSystem)} now
-              {newLength !== null && (newLength > 0 ? ` → ${formatLength(newLength, unitSystem)} after the cut` : ' → nothing left: retire the item instead')}
+              {newLength !== null &&
+                (newLength > 0 ? ` → ${formatLength(newLength, unitSystem)} after the cut` : ' → nothing left: retire the item instead')}
             </p>
           )}
-          {fieldErrors.lengthRemovedM && <p role="alert" className="text-xs font-medium text-fail">{fieldErrors.lengthRemovedM}</p>}
+          {fieldErrors.lengthRemovedM && (
+            <p role="alert" className="text-xs font-medium text-fail">
+              {fieldErrors.lengthRemovedM}
+            </p>
+          )}
         </div>
       )}
       {action === 'swapped' && (
@@ -120,15 +157,32 @@ export function RepairForm({ fault, unitSystem }: { fault: FaultDetail; unitSyst
           <label htmlFor="rep-tag" className="text-sm font-medium">
             Asset tag of the item put in
           </label>
-          <input id="rep-tag" autoComplete="off" value={tag} onChange={(e) => setTag(e.target.value)} aria-invalid={fieldErrors.replacementAssetTag ? true : undefined} className="min-h-touch w-48 rounded-lg border border-line bg-card px-3 text-base uppercase aria-[invalid=true]:border-fail" />
-          {fieldErrors.replacementAssetTag && <p role="alert" className="text-xs font-medium text-fail">{fieldErrors.replacementAssetTag}</p>}
+          <input
+            id="rep-tag"
+            autoComplete="off"
+            value={tag}
+            onChange={(e) => setTag(e.target.value)}
+            aria-invalid={fieldErrors.replacementAssetTag ? true : undefined}
+            className="min-h-touch w-48 rounded-lg border border-line bg-card px-3 text-base uppercase aria-[invalid=true]:border-fail"
+          />
+          {fieldErrors.replacementAssetTag && (
+            <p role="alert" className="text-xs font-medium text-fail">
+              {fieldErrors.replacementAssetTag}
+            </p>
+          )}
         </div>
       )}
       <div className="flex flex-col gap-1">
         <label htmlFor="rep-notes" className="text-sm font-medium">
           Notes <span className="font-normal text-ink-soft">— optional</span>
         </label>
-        <textarea id="rep-notes" rows={2} value={notes} onChange={(e) => setNotes(e.target.value)} className="rounded-lg border border-line bg-card px-3 py-2 text-base" />
+        <textarea
+          id="rep-notes"
+          rows={2}
+          value={notes}
+          onChange={(e) => setNotes(e.target.value)}
+          className="rounded-lg border border-line bg-card px-3 py-2 text-base"
+        />
       </div>
       {repair.isError && <Notice tone="error">{repair.error.message}</Notice>}
       <div>

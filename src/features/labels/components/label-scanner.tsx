@@ -49,7 +49,10 @@ function useCameraCodes(video: React.RefObject<HTMLVideoElement | null>, onText:
             const text = await readQrCode(video.current);
             if (text && !stopped) handler.current(text);
           } catch (err) {
-            setState({ kind: 'problem', message: `The code reader could not start (${err instanceof Error ? err.message : String(err)}). Type the tag below.` });
+            setState({
+              kind: 'problem',
+              message: `The code reader could not start (${err instanceof Error ? err.message : String(err)}). Type the tag below.`,
+            });
             return;
           }
         }
@@ -133,7 +136,13 @@ export function LabelScanner({ title, hint, onCode, onClose }: { title: string; 
           </Button>
         </div>
         <p className="text-base text-ink-soft">{hint}</p>
-        <video ref={video} muted playsInline aria-label="Camera picture" className={`aspect-[4/3] w-full rounded-lg bg-ink object-cover ${camera.kind === 'problem' ? 'hidden' : ''}`} />
+        <video
+          ref={video}
+          muted
+          playsInline
+          aria-label="Camera picture"
+          className={`aspect-[4/3] w-full rounded-lg bg-ink object-cover ${camera.kind === 'problem' ? 'hidden' : ''}`}
+        />
         <p role="status" className="text-base">
           {camera.kind === 'starting' && 'Starting the camera…'}
           {camera.kind === 'watching' && 'Hold the label’s code in the picture.'}

@@ -3,9 +3,7 @@ import type { ScannedCode } from '@shared/domain/label-codes';
 import { lookupTag, type TagLookup } from '../api/lookup-tag';
 
 export type CodeOutcome =
-  | { kind: 'strip'; stripId: string }
-  | { kind: 'item'; item: TagLookup }
-  | { kind: 'unknown-tag'; assetTag: string };
+  { kind: 'strip'; stripId: string } | { kind: 'item'; item: TagLookup } | { kind: 'unknown-tag'; assetTag: string };
 
 /** A strip's code as it is; a tag looked up (an unknown tag is an outcome, not an error). */
 export async function resolveCode(code: ScannedCode): Promise<CodeOutcome> {
@@ -30,5 +28,7 @@ export async function stripForCode(code: ScannedCode, venueId?: string): Promise
   const here = placements.find((p) => p.venueId === venueId) ?? (placements.length === 1 ? placements[0] : undefined);
   if (here) return { stripId: here.stripId };
   if (placements.length === 0) return { message: `${assetTag} is not on a strip of a venue you test.` };
-  return { message: `${assetTag} is on strips of several venues: ${placements.map((p) => `${p.stripLabel} (${p.venueName})`).join(', ')}. Open the venue first.` };
+  return {
+    message: `${assetTag} is on strips of several venues: ${placements.map((p) => `${p.stripLabel} (${p.venueName})`).join(', ')}. Open the venue first.`,
+  };
 }

@@ -90,9 +90,18 @@ export function ProblemCard({ item, moveTo }: { item: QueuedReading; moveTo?: Re
   const help = PROBLEM_HELP[kind];
   const notice = item.status === 'notice';
   return (
-    <li data-testid="problem" data-kind={kind} className={`rounded-card border-2 bg-card p-4 ${notice ? 'border-brass' : 'border-fail/50'}`}>
+    <li
+      data-testid="problem"
+      data-kind={kind}
+      className={`rounded-card border-2 bg-card p-4 ${notice ? 'border-brass' : 'border-fail/50'}`}
+    >
       <p className="mb-2 flex flex-wrap items-center gap-2">
-        <StatusMark shape="octagon" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded yet — needs you'} size="sm" />
+        <StatusMark
+          shape="octagon"
+          tone={notice ? 'brass' : 'fail'}
+          label={notice ? 'Recorded — read this' : 'Not recorded yet — needs you'}
+          size="sm"
+        />
         <strong>{help.title}</strong>
       </p>
       <ItemHead item={item} />
@@ -181,7 +190,11 @@ export function QueueList({
               {waiting.map((i) => (
                 <li key={i.id} className="px-4 py-3" data-testid="waiting">
                   <ItemHead item={i} />
-                  {i.attempts > 0 && <p className="mt-1 text-xs text-ink-soft">Tried {i.attempts} time{i.attempts === 1 ? '' : 's'}.</p>}
+                  {i.attempts > 0 && (
+                    <p className="mt-1 text-xs text-ink-soft">
+                      Tried {i.attempts} time{i.attempts === 1 ? '' : 's'}.
+                    </p>
+                  )}
                 </li>
               ))}
             </ul>

@@ -130,7 +130,11 @@ async function remove(id: string) {
 /** The answers of one send, on disk in one go (a batch is hundreds of readings). */
 async function putAndRemove(keep: QueuedReading[], gone: string[]) {
   if (db) {
-    if (keep.length) await setMany(keep.map((i) => [i.id, i] as [string, QueuedReading]), db);
+    if (keep.length)
+      await setMany(
+        keep.map((i) => [i.id, i] as [string, QueuedReading]),
+        db,
+      );
     if (gone.length) await delMany(gone, db);
   }
   const replaced = new Set([...gone, ...keep.map((i) => i.id)]);
@@ -334,13 +338,21 @@ async function pass(force: boolean) {
       const lost = [...failed.values()].find((a) => classifyAnswer(a).kind === 'retry');
       if (lost) {
         if (lost.kind === 'network') serverDidNotAnswer();
-        stop = await settle(chunk, chunk.map(() => ({ answer: lost })), touched);
+        stop = await settle(
+          chunk,
+          chunk.map(() => ({ answer: lost })),
+          touched,
+        );
         break;
       }
       const blocked = chunk.filter((i) => i.leadNull && failed.has(i.leadNull.id));
       const ready = chunk.filter((i) => !blocked.includes(i));
       const answers: BatchAnswer[] =
-        ready.length === 0 ? [] : ready.length === 1 ? [await sendReading(ready[0].body)] : await sendReadingBatch(ready.map((i) => i.body));
+        ready.length === 0
+          ? []
+          : ready.length === 1
+            ? [await sendReading(ready[0].body)]
+            : await sendReadingBatch(ready.map((i) => i.body));
       // No answer at all means offline, whatever the browser says (./connection.ts).
       if (answers.some((a) => a.answer.kind === 'network')) serverDidNotAnswer();
       else serverAnswered();

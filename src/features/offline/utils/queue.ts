@@ -64,8 +64,7 @@ export interface QueuedReading {
 
 /** What came back from one send: nothing at all, or an HTTP answer. */
 export type Answer =
-  | { kind: 'network' }
-  | { kind: 'http'; status: number; code?: string; message?: string; venueReopened?: boolean; retryAfterS?: number };
+  { kind: 'network' } | { kind: 'http'; status: number; code?: string; message?: string; venueReopened?: boolean; retryAfterS?: number };
 
 /** A reading's answer taken out of a batch, with the stored reading when it was recorded. */
 export interface BatchAnswer {
@@ -74,7 +73,10 @@ export interface BatchAnswer {
 }
 
 /** What came back from one batch: nothing, a refusal of the whole request, or a result per reading. */
-export type BatchReply = { kind: 'network' } | { kind: 'http'; status: number; code?: string; message?: string } | { kind: 'results'; results: ReadingBatchResult[] };
+export type BatchReply =
+  | { kind: 'network' }
+  | { kind: 'http'; status: number; code?: string; message?: string }
+  | { kind: 'results'; results: ReadingBatchResult[] };
 
 /**
  * One answer per reading sent, as if each had been sent alone: a refusal of the whole batch (or no
@@ -147,7 +149,8 @@ export function applyOutcome<T extends QueuedReading | QueuedIncident>(item: T, 
           kind: 'venue-reopened',
           status: 201,
           code: 'venue-reopened',
-          message: 'This venue had been signed off meanwhile; your reading is recorded and re-opened it. Tell the technical director: the venue needs a new sign-off.',
+          message:
+            'This venue had been signed off meanwhile; your reading is recorded and re-opened it. Tell the technical director: the venue needs a new sign-off.',
           at,
         },
       };
@@ -176,7 +179,10 @@ export function addToQueue(items: QueuedReading[], item: QueuedReading): QueuedR
  * is not sent yet (a problem, or a retry not due): the latest reading of a step is the one that
  * counts, so their order must hold.
  */
-export function planSend(items: QueuedReading[], opts: { userId: string; nowMs: number; force?: boolean }): { send: QueuedReading[]; held: Set<string> } {
+export function planSend(
+  items: QueuedReading[],
+  opts: { userId: string; nowMs: number; force?: boolean },
+): { send: QueuedReading[]; held: Set<string> } {
   const blocked = new Set<string>();
   const send: QueuedReading[] = [];
   const held = new Set<string>();
@@ -216,12 +222,23 @@ export interface SyncSummary {
 }
 
 /** The indicator's state: what needs the technician first, then sending, offline, waiting, up to date. */
-export function summarize(items: Pick<QueuedReading, 'userId' | 'status'>[], opts: { userId: string | null; online: boolean; syncing: boolean }): SyncSummary {
+export function summarize(
+  items: Pick<QueuedReading, 'userId' | 'status'>[],
+  opts: { userId: string | null; online: boolean; syncing: boolean },
+): SyncSummary {
   const mine = opts.userId ? items.filter((i) => i.userId === opts.userId) : [];
   const waiting = mine.filter((i) => i.status === 'waiting').length;
   const needsYou = mine.filter((i) => i.status === 'problem' || i.status === 'notice').length;
   const state: SyncState =
-    needsYou > 0 ? 'needs-you' : opts.syncing && waiting > 0 ? 'syncing' : !opts.online ? 'offline' : waiting > 0 ? 'waiting' : 'up-to-date';
+    needsYou > 0
+      ? 'needs-you'
+      : opts.syncing && waiting > 0
+        ? 'syncing'
+        : !opts.online
+          ? 'offline'
+          : waiting > 0
+            ? 'waiting'
+            : 'up-to-date';
   return { state, waiting, needsYou };
 }
 
@@ -249,7 +266,14 @@ export function upgradeLegacyItems(items: QueuedReading[], makeId: () => string)
     const key = `${item.userId}|${leadOffsetOhm}`;
     let record = made.get(key);
     if (!record) {
-      record = { id: makeId(), value: String(leadOffsetOhm), valueOhm: leadOffsetOhm, meter: null, takenAt: item.createdAt, userId: item.userId };
+      record = {
+        id: makeId(),
+        value: String(leadOffsetOhm),
+        valueOhm: leadOffsetOhm,
+        meter: null,
+        takenAt: item.createdAt,
+        userId: item.userId,
+      };
       made.set(key, record);
     }
     changed.push({ ...item, body: { ...body, leadNullId: record.id }, leadNull: record });

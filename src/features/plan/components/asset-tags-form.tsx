@@ -38,7 +38,17 @@ const toBody = (v: TagsForm): AssetTagsInput => ({
  * scanner ends each code with Enter). The strip card saves it with its details: only the rows that
  * changed are sent, and the server saves all of them or none.
  */
-function TagsTable({ rows, handle, onSubmit, onDirty }: { rows: Row[]; handle: Ref<TagsHandle>; onSubmit: () => void; onDirty: (dirty: boolean) => void }) {
+function TagsTable({
+  rows,
+  handle,
+  onSubmit,
+  onDirty,
+}: {
+  rows: Row[];
+  handle: Ref<TagsHandle>;
+  onSubmit: () => void;
+  onDirty: (dirty: boolean) => void;
+}) {
   const shown = useMemo<TagsForm>(
     () => ({ positions: rows.map(({ position }) => ({ positionId: position.id, assetTag: position.equipment?.assetTag ?? '' })) }),
     [rows],
@@ -99,10 +109,18 @@ function TagsTable({ rows, handle, onSubmit, onDirty }: { rows: Row[]; handle: R
         <table className="w-full border-collapse text-sm">
           <thead>
             <tr className="border-b border-line text-left">
-              <th scope="col" className="py-2 pr-3 font-medium">Strip</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Position</th>
-              <th scope="col" className="py-2 pr-3 font-medium">Takes a</th>
-              <th scope="col" className="py-2 font-medium">Asset tag</th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Strip
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Position
+              </th>
+              <th scope="col" className="py-2 pr-3 font-medium">
+                Takes a
+              </th>
+              <th scope="col" className="py-2 font-medium">
+                Asset tag
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -147,11 +165,13 @@ function TagsTable({ rows, handle, onSubmit, onDirty }: { rows: Row[]; handle: R
       </div>
       {overflow.length > 0 && (
         <Notice tone="caution">
-          {overflow.length} pasted tag{overflow.length === 1 ? '' : 's'} did not fit below that row and {overflow.length === 1 ? 'was' : 'were'} left out: {overflow.join(', ')}.
+          {overflow.length} pasted tag{overflow.length === 1 ? '' : 's'} did not fit below that row and{' '}
+          {overflow.length === 1 ? 'was' : 'were'} left out: {overflow.join(', ')}.
         </Notice>
       )}
       <p className="text-xs text-ink-soft">
-        An empty cell takes the item off. Paste a column from a spreadsheet into a cell to fill the cells below it. Save strip saves the tags with the strip's details: all together or none.
+        An empty cell takes the item off. Paste a column from a spreadsheet into a cell to fill the cells below it. Save strip saves the
+        tags with the strip's details: all together or none.
       </p>
     </form>
   );
@@ -179,7 +199,9 @@ export function AssetTagsForm({
   const [kind, setKind] = useState<EquipmentKind | 'all'>('all');
   const inScope = scope === 'row' ? row : [strip];
   const kinds = [...new Set(inScope.flatMap((s) => s.positions.map((p) => p.equipmentKind)))];
-  const rows = inScope.flatMap((s) => s.positions.filter((p) => kind === 'all' || p.equipmentKind === kind).map((position) => ({ strip: s, position })));
+  const rows = inScope.flatMap((s) =>
+    s.positions.filter((p) => kind === 'all' || p.equipmentKind === kind).map((position) => ({ strip: s, position })),
+  );
   // The table starts afresh when the choice or the saved plan changes.
   const key = `${scope}-${kind}-${rows.map((r) => `${r.position.id}:${r.position.equipment?.assetTag ?? ''}`).join(',')}`;
   return (
@@ -188,27 +210,49 @@ export function AssetTagsForm({
         <fieldset className="flex flex-wrap gap-x-4">
           <legend className="mb-1 text-sm font-medium">Positions of</legend>
           <label className="flex min-h-touch items-center gap-2 text-sm">
-            <input type="radio" className="size-5 accent-brand" name={`scope-${strip.id}`} checked={scope === 'strip'} onChange={() => setScope('strip')} />
+            <input
+              type="radio"
+              className="size-5 accent-brand"
+              name={`scope-${strip.id}`}
+              checked={scope === 'strip'}
+              onChange={() => setScope('strip')}
+            />
             {strip.label} only
           </label>
           {row.length > 1 && (
             <label className="flex min-h-touch items-center gap-2 text-sm">
-              <input type="radio" className="size-5 accent-brand" name={`scope-${strip.id}`} checked={scope === 'row'} onChange={() => setScope('row')} />
+              <input
+                type="radio"
+                className="size-5 accent-brand"
+                name={`scope-${strip.id}`}
+                checked={scope === 'row'}
+                onChange={() => setScope('row')}
+              />
               the whole of {strip.zone} ({row.length} strips)
             </label>
           )}
         </fieldset>
         <label className="flex flex-col gap-1 text-sm font-medium">
           Which items
-          <select className="min-h-touch rounded-lg border border-line bg-card px-3 font-normal" value={kind} onChange={(e) => setKind(e.target.value as EquipmentKind | 'all')}>
+          <select
+            className="min-h-touch rounded-lg border border-line bg-card px-3 font-normal"
+            value={kind}
+            onChange={(e) => setKind(e.target.value as EquipmentKind | 'all')}
+          >
             <option value="all">All positions</option>
             {kinds.map((k) => (
-              <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]} positions only</option>
+              <option key={k} value={k}>
+                {EQUIPMENT_KIND_LABELS[k]} positions only
+              </option>
             ))}
           </select>
         </label>
       </div>
-      {rows.length === 0 ? <p className="text-sm text-ink-soft">No positions to show.</p> : <TagsTable key={key} rows={rows} handle={handle} onSubmit={onSubmit} onDirty={onDirty} />}
+      {rows.length === 0 ? (
+        <p className="text-sm text-ink-soft">No positions to show.</p>
+      ) : (
+        <TagsTable key={key} rows={rows} handle={handle} onSubmit={onSubmit} onDirty={onDirty} />
+      )}
     </div>
   );
 }

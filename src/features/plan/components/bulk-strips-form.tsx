@@ -21,7 +21,13 @@ const toBody = (v: BulkForm, nextNumber: number): BulkStripsInput => {
   const common = { zone: v.zone.trim() || null, conductivePiste: v.conductivePiste };
   return v.mode === 'count'
     ? { ...common, count: Number(v.count), prefix: v.prefix, startAt: v.startAt ? Number(v.startAt) : nextNumber }
-    : { ...common, labels: v.labels.split(/[\n,]/).map((l) => l.trim()).filter(Boolean) };
+    : {
+        ...common,
+        labels: v.labels
+          .split(/[\n,]/)
+          .map((l) => l.trim())
+          .filter(Boolean),
+      };
 };
 
 /** Lay out strips in bulk: a count with a prefix and start number, or a list of labels. */
@@ -29,7 +35,15 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
   const form = useForm<BulkForm, unknown, BulkStripsInput>({
     resolver: bodyResolver(bulkStripsSchema, (v: BulkForm) => toBody(v, nextNumber)),
     // Every field holds a real value or stays empty: no example text that could pass for one.
-    defaultValues: { mode: 'count', count: '8', prefix: 'Strip ', startAt: String(nextNumber), labels: '', zone: '', conductivePiste: false },
+    defaultValues: {
+      mode: 'count',
+      count: '8',
+      prefix: 'Strip ',
+      startAt: String(nextNumber),
+      labels: '',
+      zone: '',
+      conductivePiste: false,
+    },
   });
   const [mode, conductive] = useWatch({ control: form.control, name: ['mode', 'conductivePiste'] });
   const errors = form.formState.errors;
@@ -46,7 +60,10 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
     >
       <div role="radiogroup" aria-label="How to name the strips" className="flex gap-2">
         {(['count', 'labels'] as const).map((m) => (
-          <label key={m} className={`flex min-h-touch flex-1 cursor-pointer items-center justify-center rounded-lg border px-3 text-sm font-medium ${mode === m ? 'border-brand bg-brand-soft' : 'border-line'}`}>
+          <label
+            key={m}
+            className={`flex min-h-touch flex-1 cursor-pointer items-center justify-center rounded-lg border px-3 text-sm font-medium ${mode === m ? 'border-brand bg-brand-soft' : 'border-line'}`}
+          >
             <input type="radio" className="sr-only" value={m} {...form.register('mode')} />
             {m === 'count' ? 'Numbered' : 'My own labels'}
           </label>
@@ -60,7 +77,9 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
         </div>
       ) : (
         <div className="flex flex-col gap-1">
-          <label htmlFor="f-labels" className="text-sm font-medium">Labels (one per line or comma-separated)</label>
+          <label htmlFor="f-labels" className="text-sm font-medium">
+            Labels (one per line or comma-separated)
+          </label>
           <textarea
             id="f-labels"
             rows={3}
@@ -81,13 +100,22 @@ export function BulkStripsForm({ nextNumber, onAdd }: { nextNumber: number; onAd
           )}
         </div>
       )}
-      <TextField label="Row or zone" hint="Optional, for example Row A. Left empty, the strips belong to no row." {...form.register('zone')} error={errors.zone?.message} />
+      <TextField
+        label="Row or zone"
+        hint="Optional, for example Row A. Left empty, the strips belong to no row."
+        {...form.register('zone')}
+        error={errors.zone?.message}
+      />
       <label className="flex min-h-touch items-center gap-3">
         <input type="checkbox" className="size-5 accent-brand" {...form.register('conductivePiste')} />
         Conductive (metal) pistes
       </label>
       <p className="text-xs text-ink-soft">
-        Each strip gets: {DEFAULT_POSITION_TEMPLATE.filter((p) => !p.pisteOnly || conductive).map((p) => p.name.toLowerCase()).join(', ')}.
+        Each strip gets:{' '}
+        {DEFAULT_POSITION_TEMPLATE.filter((p) => !p.pisteOnly || conductive)
+          .map((p) => p.name.toLowerCase())
+          .join(', ')}
+        .
       </p>
       <Button type="submit">Add strips</Button>
     </form>

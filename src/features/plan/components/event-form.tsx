@@ -7,8 +7,17 @@ import { SelectField, TextField } from '@/components/ui/field';
 import { saveThenReset } from '@/lib/form-errors';
 import type { PlanningPeople } from '../api/types';
 
-export function EventForm({ organisers, onCreate }: { organisers: PlanningPeople['organisers']; onCreate: (v: CreateEventInput) => Promise<unknown> }) {
-  const form = useForm<CreateEventInput>({ resolver: zodResolver(createEventSchema), defaultValues: { name: '', startsOn: '', endsOn: '', organiserId: null } });
+export function EventForm({
+  organisers,
+  onCreate,
+}: {
+  organisers: PlanningPeople['organisers'];
+  onCreate: (v: CreateEventInput) => Promise<unknown>;
+}) {
+  const form = useForm<CreateEventInput>({
+    resolver: zodResolver(createEventSchema),
+    defaultValues: { name: '', startsOn: '', endsOn: '', organiserId: null },
+  });
   const errors = form.formState.errors;
   return (
     <form
@@ -21,15 +30,23 @@ export function EventForm({ organisers, onCreate }: { organisers: PlanningPeople
         <TextField label="Starts on" type="date" {...form.register('startsOn')} error={errors.startsOn?.message} />
         <TextField label="Ends on" type="date" {...form.register('endsOn')} error={errors.endsOn?.message} />
       </div>
-      <SelectField label="Organiser" {...form.register('organiserId', { setValueAs: (v) => (v ? v : null) })} error={errors.organiserId?.message}>
+      <SelectField
+        label="Organiser"
+        {...form.register('organiserId', { setValueAs: (v) => (v ? v : null) })}
+        error={errors.organiserId?.message}
+      >
         <option value="">Not yet chosen</option>
         {organisers.map((o) => (
-          <option key={o.id} value={o.id}>{o.name}</option>
+          <option key={o.id} value={o.id}>
+            {o.name}
+          </option>
         ))}
       </SelectField>
       {errors.root?.message && <Notice tone="error">{errors.root.message}</Notice>}
       <p className="text-xs text-ink-soft">You will be the technical director of the event.</p>
-      <Button type="submit" disabled={form.formState.isSubmitting}>Create event</Button>
+      <Button type="submit" disabled={form.formState.isSubmitting}>
+        Create event
+      </Button>
     </form>
   );
 }

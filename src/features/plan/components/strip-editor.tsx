@@ -85,15 +85,29 @@ function StripDetails({
         if (Object.keys(patch).length === 0) return;
         const answer = await actions.updateStrip(patch);
         if (answer === true) {
-          form.reset({ label: patch.label ?? strip.label, zone: patch.zone === undefined ? (strip.zone ?? '') : (patch.zone ?? ''), conductivePiste: patch.conductivePiste ?? strip.conductivePiste });
+          form.reset({
+            label: patch.label ?? strip.label,
+            zone: patch.zone === undefined ? (strip.zone ?? '') : (patch.zone ?? ''),
+            conductivePiste: patch.conductivePiste ?? strip.conductivePiste,
+          });
           return;
         }
-        tags.current?.showProblems(answer.filter((p) => p.path.startsWith('assetTags.')), rows);
+        tags.current?.showProblems(
+          answer.filter((p) => p.path.startsWith('assetTags.')),
+          rows,
+        );
         for (const p of answer) if (p.path === 'label' || p.path === 'zone') form.setError(p.path, { type: 'server', message: p.message });
       })}
     >
       <TextField label="Label" id="f-stripLabel" disabled={readOnly} {...form.register('label')} error={errors.label?.message} />
-      <TextField label="Row or zone" id="f-stripZone" hint={readOnly ? undefined : 'Leave it empty when the strip is in no row.'} disabled={readOnly} {...form.register('zone')} error={errors.zone?.message} />
+      <TextField
+        label="Row or zone"
+        id="f-stripZone"
+        hint={readOnly ? undefined : 'Leave it empty when the strip is in no row.'}
+        disabled={readOnly}
+        {...form.register('zone')}
+        error={errors.zone?.message}
+      />
       <label className="flex min-h-touch items-center gap-2 self-end text-sm">
         <input type="checkbox" className="size-5 accent-brand" disabled={readOnly} {...form.register('conductivePiste')} />
         Conductive piste
@@ -146,7 +160,8 @@ function Withdrawal({ strip, readOnly, actions }: { strip: PlanStrip; readOnly: 
 }
 
 function AddStep({ position, onAdd }: { position: PlanPosition; onAdd: StripEditorActions['addStep'] }) {
-  const kinds: TestKind[] = position.equipmentKind === 'piste' ? ['piste-end-to-end', 'piste-earth'] : TEST_KINDS.filter((k) => !k.startsWith('piste'));
+  const kinds: TestKind[] =
+    position.equipmentKind === 'piste' ? ['piste-end-to-end', 'piste-earth'] : TEST_KINDS.filter((k) => !k.startsWith('piste'));
   const form = useForm<AddStepInput, unknown, z.output<typeof addStepSchema>>({
     resolver: zodResolver(addStepSchema),
     defaultValues: { testKind: kinds[0], conductors: CONDUCTORS_FOR_TEST[kinds[0]][0] },
@@ -170,23 +185,46 @@ function AddStep({ position, onAdd }: { position: PlanPosition; onAdd: StripEdit
         error={form.formState.errors.testKind?.message}
       >
         {kinds.map((k) => (
-          <option key={k} value={k}>{TEST_KIND_LABELS[k]}</option>
+          <option key={k} value={k}>
+            {TEST_KIND_LABELS[k]}
+          </option>
         ))}
       </SelectField>
-      <SelectField label="Lines" id={`conductors-${position.id}`} {...form.register('conductors')} error={form.formState.errors.conductors?.message}>
+      <SelectField
+        label="Lines"
+        id={`conductors-${position.id}`}
+        {...form.register('conductors')}
+        error={form.formState.errors.conductors?.message}
+      >
         {CONDUCTORS_FOR_TEST[testKind].map((c) => (
-          <option key={c} value={c}>{c}</option>
+          <option key={c} value={c}>
+            {c}
+          </option>
         ))}
       </SelectField>
-      <Button type="submit" variant="ghost">Add step</Button>
+      <Button type="submit" variant="ghost">
+        Add step
+      </Button>
     </form>
   );
 }
 
 /** One more position on this strip; it gets the test steps of its kind, and the item when a tag is given. */
-function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopRequired: readonly EquipmentKind[]; onAdd: StripEditorActions['addPosition'] }) {
+function AddPosition({
+  strip,
+  loopRequired,
+  onAdd,
+}: {
+  strip: PlanStrip;
+  loopRequired: readonly EquipmentKind[];
+  onAdd: StripEditorActions['addPosition'];
+}) {
   type PositionForm = { name: string; equipmentKind: EquipmentKind; assetTag: string };
-  const toBody = (v: PositionForm) => ({ name: v.name, equipmentKind: v.equipmentKind, ...(v.assetTag.trim() ? { assetTag: v.assetTag } : {}) });
+  const toBody = (v: PositionForm) => ({
+    name: v.name,
+    equipmentKind: v.equipmentKind,
+    ...(v.assetTag.trim() ? { assetTag: v.assetTag } : {}),
+  });
   const check = bodyResolver(addPositionSchema, toBody);
   const form = useForm<PositionForm, unknown, z.output<typeof addPositionSchema>>({
     // The shared schema, then one rule only the plan knows: a name is used once per strip.
@@ -226,7 +264,9 @@ function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopReq
         />
         <SelectField label="Takes a" id={fieldId('kind')} {...form.register('equipmentKind', clear('equipmentKind'))}>
           {EQUIPMENT_KINDS.map((k) => (
-            <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>
+            <option key={k} value={k}>
+              {EQUIPMENT_KIND_LABELS[k]}
+            </option>
           ))}
         </SelectField>
         <TextField
@@ -245,7 +285,9 @@ function AddPosition({ strip, loopRequired, onAdd }: { strip: PlanStrip; loopReq
         A position can be taken off again as long as nothing has been measured on it.
       </p>
       <div>
-        <Button type="submit" variant="secondary">Add position</Button>
+        <Button type="submit" variant="secondary">
+          Add position
+        </Button>
       </div>
     </form>
   );
@@ -263,7 +305,11 @@ function RemovePosition({ position, onRemove }: { position: PlanPosition; onRemo
     );
   }
   return (
-    <div role="group" aria-label={`Remove ${position.name}?`} className="flex w-full flex-wrap items-center gap-2 rounded-lg border border-fail bg-fail-soft px-3 py-2">
+    <div
+      role="group"
+      aria-label={`Remove ${position.name}?`}
+      className="flex w-full flex-wrap items-center gap-2 rounded-lg border border-fail bg-fail-soft px-3 py-2"
+    >
       <span className="flex-1 text-sm">
         Take {position.name} off this strip{steps > 0 ? ` with its ${steps} test steps` : ''}
         {position.equipment ? `; ${position.equipment.assetTag} comes off with it and stays in the register` : ''}?
@@ -303,7 +349,10 @@ function PositionCard({ position, readOnly, actions }: { position: PlanPosition;
       <ul className="mt-3 flex flex-wrap gap-2" aria-label={`Steps for ${position.name}`}>
         {active.length === 0 && <li className="text-sm text-ink-soft">No test steps for this position.</li>}
         {active.map((s) => (
-          <li key={s.id} className={`inline-flex items-center gap-1 rounded-full border py-0.5 pl-3 text-sm ${s.addedByDirector ? 'border-brass bg-brass-soft' : 'border-line bg-paper'} ${readOnly ? 'pr-3' : 'pr-0.5'}`}>
+          <li
+            key={s.id}
+            className={`inline-flex items-center gap-1 rounded-full border py-0.5 pl-3 text-sm ${s.addedByDirector ? 'border-brass bg-brass-soft' : 'border-line bg-paper'} ${readOnly ? 'pr-3' : 'pr-0.5'}`}
+          >
             {TEST_KIND_LABELS[s.testKind]} {s.conductors}
             {!s.required && <span className="text-xs text-ink-soft">(optional)</span>}
             {!readOnly && (
@@ -364,7 +413,9 @@ export function StripEditor({
       </ul>
       {!readOnly && (
         <section aria-labelledby={`tags-${strip.id}`} className="rounded-lg border border-line p-4">
-          <h3 id={`tags-${strip.id}`} className="mb-2 font-semibold">Asset tags</h3>
+          <h3 id={`tags-${strip.id}`} className="mb-2 font-semibold">
+            Asset tags
+          </h3>
           <AssetTagsForm strip={strip} strips={strips} handle={tags} onSubmit={submit} onDirty={onTagsDirty} />
         </section>
       )}
@@ -378,7 +429,9 @@ export function StripEditor({
       )}
       {!readOnly && !strip.withdrawnAt && (
         <details className="rounded-lg border border-dashed border-line p-4">
-          <summary className="inline-flex min-h-touch cursor-pointer items-center font-medium text-brand">Add a position to {strip.label}…</summary>
+          <summary className="inline-flex min-h-touch cursor-pointer items-center font-medium text-brand">
+            Add a position to {strip.label}…
+          </summary>
           <div className="mt-2">
             <AddPosition strip={strip} loopRequired={loopRequired} onAdd={actions.addPosition} />
           </div>

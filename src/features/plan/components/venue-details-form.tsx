@@ -43,8 +43,15 @@ export function VenueDetailsForm({
     () => ({ name: savedName, profileId: savedProfileId, timeZone: savedZone, technicianIds: assigned }),
     [savedName, savedProfileId, savedZone, assigned],
   );
-  const form = useForm<UpdateVenueInput, unknown, z.output<typeof updateVenueSchema>>({ resolver: zodResolver(updateVenueSchema), values, resetOptions: keepTyped });
-  const [name, profileId, timeZone, chosen = []] = useWatch({ control: form.control, name: ['name', 'profileId', 'timeZone', 'technicianIds'] });
+  const form = useForm<UpdateVenueInput, unknown, z.output<typeof updateVenueSchema>>({
+    resolver: zodResolver(updateVenueSchema),
+    values,
+    resetOptions: keepTyped,
+  });
+  const [name, profileId, timeZone, chosen = []] = useWatch({
+    control: form.control,
+    name: ['name', 'profileId', 'timeZone', 'technicianIds'],
+  });
   const newer = plan.profile.latestVersion > plan.profile.version;
   const choosing = !readOnly && people !== undefined;
   const changed = name !== savedName || profileId !== savedProfileId || timeZone !== savedZone || (choosing && !sameSet(chosen, assigned));
@@ -69,8 +76,19 @@ export function VenueDetailsForm({
         }
       })}
     >
-      <TextField label="Venue name" id="f-venueName" disabled={readOnly} {...form.register('name')} error={form.formState.errors.name?.message} />
-      <SelectField label="Limit profile" disabled={readOnly} {...form.register('profileId')} error={form.formState.errors.profileId?.message}>
+      <TextField
+        label="Venue name"
+        id="f-venueName"
+        disabled={readOnly}
+        {...form.register('name')}
+        error={form.formState.errors.name?.message}
+      />
+      <SelectField
+        label="Limit profile"
+        disabled={readOnly}
+        {...form.register('profileId')}
+        error={form.formState.errors.profileId?.message}
+      >
         {profiles.flatMap((p) =>
           p.versions.map((v) => (
             <option key={v.id} value={v.id}>
@@ -79,17 +97,25 @@ export function VenueDetailsForm({
           )),
         )}
       </SelectField>
-      <SelectField label="Time zone of the hall" disabled={readOnly} {...form.register('timeZone')} error={form.formState.errors.timeZone?.message}>
+      <SelectField
+        label="Time zone of the hall"
+        disabled={readOnly}
+        {...form.register('timeZone')}
+        error={form.formState.errors.timeZone?.message}
+      >
         {(ZONES.includes(savedZone) ? ZONES : [savedZone, ...ZONES]).map((z) => (
           <option key={z} value={z}>
             {z.replace(/_/g, ' ')}
           </option>
         ))}
       </SelectField>
-      <p className="-mt-2 text-sm text-ink-soft">Every time of this venue (screens, exports, e-mails, certificates) is given in this zone.</p>
+      <p className="-mt-2 text-sm text-ink-soft">
+        Every time of this venue (screens, exports, e-mails, certificates) is given in this zone.
+      </p>
       {newer && (
         <p className="text-sm text-near">
-          “{plan.profile.name}” has a newer version ({plan.profile.latestVersion}). Readings already taken keep version {plan.profile.version}.
+          “{plan.profile.name}” has a newer version ({plan.profile.latestVersion}). Readings already taken keep version{' '}
+          {plan.profile.version}.
         </p>
       )}
       {choosing ? (
@@ -114,7 +140,11 @@ export function VenueDetailsForm({
         <div>
           <p className="mb-1 text-sm font-medium">Technicians who test this venue</p>
           <ul className="text-sm">
-            {plan.technicians.length ? plan.technicians.map((t) => <li key={t.id}>{t.name}</li>) : <li className="text-ink-soft">Nobody assigned yet.</li>}
+            {plan.technicians.length ? (
+              plan.technicians.map((t) => <li key={t.id}>{t.name}</li>)
+            ) : (
+              <li className="text-ink-soft">Nobody assigned yet.</li>
+            )}
           </ul>
         </div>
       )}

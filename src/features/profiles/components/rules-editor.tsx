@@ -41,7 +41,14 @@ const toRow = (r: LimitRule): Row => ({
 const num = (s: string) => (s.trim() === '' ? undefined : Number(s.replace(',', '.')));
 
 function toRule(r: Row): LimitRule {
-  const base = { id: r.id, equipmentKind: r.equipmentKind, testKind: r.testKind, source: r.source, houseRule: r.houseRule, ...(r.note ? { note: r.note } : {}) };
+  const base = {
+    id: r.id,
+    equipmentKind: r.equipmentKind,
+    testKind: r.testKind,
+    source: r.source,
+    houseRule: r.houseRule,
+    ...(r.note ? { note: r.note } : {}),
+  };
   const value = num(r.value);
   const near = num(r.near);
   if (r.limitKind === 'min') return { ...base, minOhm: value, ...(near !== undefined ? { nearMinOhm: near } : {}) } as LimitRule;
@@ -76,9 +83,15 @@ function EquipmentCell({ i }: { i: number }) {
     <select
       aria-label={`Equipment of rule ${i + 1}`}
       className={cell}
-      {...register(`rules.${i}.equipmentKind`, { onChange: (e) => setValue(`rules.${i}.id`, `${e.target.value}.${getValues(`rules.${i}.testKind`)}`) })}
+      {...register(`rules.${i}.equipmentKind`, {
+        onChange: (e) => setValue(`rules.${i}.id`, `${e.target.value}.${getValues(`rules.${i}.testKind`)}`),
+      })}
     >
-      {EQUIPMENT_KINDS.map((k) => <option key={k} value={k}>{EQUIPMENT_KIND_LABELS[k]}</option>)}
+      {EQUIPMENT_KINDS.map((k) => (
+        <option key={k} value={k}>
+          {EQUIPMENT_KIND_LABELS[k]}
+        </option>
+      ))}
     </select>
   );
 }
@@ -101,7 +114,11 @@ function TestCell({ i }: { i: number }) {
         },
       })}
     >
-      {TEST_KINDS.map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k]}</option>)}
+      {TEST_KINDS.map((k) => (
+        <option key={k} value={k}>
+          {TEST_KIND_LABELS[k]}
+        </option>
+      ))}
     </select>
   );
 }
@@ -123,9 +140,21 @@ function ValueCell({ i }: { i: number }) {
   const { invalid } = useRuleErrors(i);
   return (
     <>
-      <input aria-label={`Value of rule ${i + 1}`} aria-invalid={invalid('maxOhm', 'minOhm', 'maxOhmPerMetre')} inputMode="decimal" className={cell} {...register(`rules.${i}.value`)} />
+      <input
+        aria-label={`Value of rule ${i + 1}`}
+        aria-invalid={invalid('maxOhm', 'minOhm', 'maxOhmPerMetre')}
+        inputMode="decimal"
+        className={cell}
+        {...register(`rules.${i}.value`)}
+      />
       {limitKind === 'per-metre' && (
-        <input aria-label={`Connector allowance of rule ${i + 1}`} placeholder="+ connectors Ω" inputMode="decimal" className={`${cell} mt-1`} {...register(`rules.${i}.allowance`)} />
+        <input
+          aria-label={`Connector allowance of rule ${i + 1}`}
+          placeholder="+ connectors Ω"
+          inputMode="decimal"
+          className={`${cell} mt-1`}
+          {...register(`rules.${i}.allowance`)}
+        />
       )}
     </>
   );
@@ -152,7 +181,9 @@ function SourceCell({ i }: { i: number }) {
     <>
       <input aria-label={`Source of rule ${i + 1}`} aria-invalid={invalid('source')} className={cell} {...register(`rules.${i}.source`)} />
       {messages.map((m) => (
-        <p key={m} role="alert" className="mt-1 text-xs font-medium text-fail">{m}</p>
+        <p key={m} role="alert" className="mt-1 text-xs font-medium text-fail">
+          {m}
+        </p>
       ))}
     </>
   );
@@ -183,12 +214,19 @@ const editorColumns = (remove: (index: number) => void) => [
   col.display({ id: 'value', header: 'Value (Ω)', cell: (c) => <ValueCell i={c.row.index} /> }),
   col.display({ id: 'near', header: 'Near limit', cell: (c) => <NearCell i={c.row.index} /> }),
   col.display({ id: 'source', header: 'Source', cell: (c) => <SourceCell i={c.row.index} /> }),
-  col.display({ id: 'house', header: 'House rule', cell: (c) => <HouseRuleCell i={c.row.index} />, meta: { cellClassName: 'text-center' } }),
+  col.display({
+    id: 'house',
+    header: 'House rule',
+    cell: (c) => <HouseRuleCell i={c.row.index} />,
+    meta: { cellClassName: 'text-center' },
+  }),
   col.display({
     id: 'remove',
     header: () => <span className="sr-only">Remove</span>,
     cell: (c) => (
-      <Button variant="ghost" aria-label={`Remove rule ${c.row.index + 1}`} onClick={() => remove(c.row.index)}>×</Button>
+      <Button variant="ghost" aria-label={`Remove rule ${c.row.index + 1}`} onClick={() => remove(c.row.index)}>
+        ×
+      </Button>
     ),
   }),
 ];
@@ -248,13 +286,28 @@ export function RulesEditor({
         <div className="flex flex-wrap gap-2">
           <Button
             variant="secondary"
-            onClick={() => append({ id: `other.continuity.${fields.length + 1}`, equipmentKind: 'other', testKind: 'continuity', limitKind: 'max', value: '', allowance: '', near: '0.9', source: HOUSE_RULE_SOURCE, houseRule: true, note: '' })}
+            onClick={() =>
+              append({
+                id: `other.continuity.${fields.length + 1}`,
+                equipmentKind: 'other',
+                testKind: 'continuity',
+                limitKind: 'max',
+                value: '',
+                allowance: '',
+                near: '0.9',
+                source: HOUSE_RULE_SOURCE,
+                houseRule: true,
+                note: '',
+              })
+            }
           >
             Add a rule
           </Button>
         </div>
         <div className="flex flex-col gap-1">
-          <label htmlFor="f-version-notes" className="text-sm font-medium">What changed (kept with the new version)</label>
+          <label htmlFor="f-version-notes" className="text-sm font-medium">
+            What changed (kept with the new version)
+          </label>
           <input id="f-version-notes" className={cell} {...form.register('notes')} />
         </div>
         {listError && <Notice tone="error">{listError}</Notice>}
@@ -263,14 +316,18 @@ export function RulesEditor({
             <p className="font-semibold">Changed meanwhile — not saved</p>
             <p>{root.message}</p>
             <p className="mt-1">Your rows are kept here. Open the latest version to compare, then apply your changes there.</p>
-            <Button variant="secondary" className="mt-2" onClick={onReloadLatest}>Open the latest version</Button>
+            <Button variant="secondary" className="mt-2" onClick={onReloadLatest}>
+              Open the latest version
+            </Button>
           </Notice>
         ) : (
           root && <Notice tone="error">{root.message}</Notice>
         )}
         <div className="flex gap-2">
           <Button type="submit">Save as version {version + 1}</Button>
-          <Button variant="secondary" onClick={onCancel}>Cancel</Button>
+          <Button variant="secondary" onClick={onCancel}>
+            Cancel
+          </Button>
         </div>
       </form>
     </FormProvider>

@@ -8,7 +8,8 @@ import { StatusMark } from '@/components/ui/status-mark';
 
 export function limitText(r: LimitRule) {
   if (r.minOhm !== undefined) return `at least ${formatOhm(r.minOhm)}`;
-  if (r.maxOhmPerMetre !== undefined) return `at most ${formatOhm(r.maxOhmPerMetre)}/m${r.connectorAllowanceOhm ? ` + ${formatOhm(r.connectorAllowanceOhm)}` : ''}`;
+  if (r.maxOhmPerMetre !== undefined)
+    return `at most ${formatOhm(r.maxOhmPerMetre)}/m${r.connectorAllowanceOhm ? ` + ${formatOhm(r.connectorAllowanceOhm)}` : ''}`;
   if (r.maxOhm !== undefined) return `at most ${formatOhm(r.maxOhm)}`;
   return '—';
 }
@@ -19,14 +20,23 @@ function nearText(r: LimitRule) {
 }
 
 export function HouseRuleMark({ house }: { house: boolean }) {
-  return house ? <StatusMark shape="box" tone="brass" label="House rule" size="sm" /> : <StatusMark shape="square" tone="brand" label="Published" size="sm" />;
+  return house ? (
+    <StatusMark shape="box" tone="brass" label="House rule" size="sm" />
+  ) : (
+    <StatusMark shape="square" tone="brand" label="Published" size="sm" />
+  );
 }
 
 const col = createColumnHelper<LimitRule>();
 const columns = [
   col.accessor('equipmentKind', { header: 'Equipment', cell: (c) => EQUIPMENT_KIND_LABELS[c.getValue()] }),
   col.accessor('testKind', { header: 'Test', cell: (c) => TEST_KIND_LABELS[c.getValue()] }),
-  col.display({ id: 'limit', header: 'Limit', cell: (c) => limitText(c.row.original), meta: { cellClassName: 'font-semibold tabular-nums' } }),
+  col.display({
+    id: 'limit',
+    header: 'Limit',
+    cell: (c) => limitText(c.row.original),
+    meta: { cellClassName: 'font-semibold tabular-nums' },
+  }),
   col.display({ id: 'near', header: 'Near limit', cell: (c) => nearText(c.row.original), meta: { cellClassName: 'tabular-nums' } }),
   col.accessor('source', {
     header: 'Source',

@@ -15,7 +15,11 @@ const temperatureFormSchema = z
     const checked = temperatureReferenceSchema.safeParse(parseDecimal(v.referenceC));
     if (!checked.success || checked.data === null) {
       const problem = decimalProblem(v.referenceC, '°C');
-      ctx.addIssue({ code: 'custom', path: ['referenceC'], message: problem ?? checked.error?.issues[0]?.message ?? 'Type the reference temperature in °C, e.g. 20.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['referenceC'],
+        message: problem ?? checked.error?.issues[0]?.message ?? 'Type the reference temperature in °C, e.g. 20.',
+      });
       return z.NEVER;
     }
     return { temperatureReferenceC: checked.data };
@@ -78,7 +82,13 @@ export function TemperatureSetting({
             </label>
           </fieldset>
           {correct === 'yes' && (
-            <TextField label="Reference temperature (°C)" id="f-temperatureReferenceC" inputMode="decimal" {...form.register('referenceC')} error={errors.referenceC?.message} />
+            <TextField
+              label="Reference temperature (°C)"
+              id="f-temperatureReferenceC"
+              inputMode="decimal"
+              {...form.register('referenceC')}
+              error={errors.referenceC?.message}
+            />
           )}
           {errors.root?.message && <Notice tone="error">{errors.root.message}</Notice>}
           <Button type="submit" variant="secondary" disabled={!isDirty || isSubmitting}>

@@ -24,7 +24,9 @@ import type { ReadingRow } from '../api/get-venue-readings';
 import type { CorrectionInput } from '../api/correct-reading';
 import { useDates } from '@/lib/date-format';
 
-const VERDICT = Object.fromEntries((['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]])) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
+const VERDICT = Object.fromEntries(
+  (['pass', 'near-limit', 'fail'] as const).map((v) => [v, [READING_SYMBOLS[v].shape, READING_SYMBOLS[v].tone, READING_SYMBOLS[v].label]]),
+) as Record<'pass' | 'near-limit' | 'fail', [MarkShape, MarkTone, string]>;
 const col = createColumnHelper<ReadingRow>();
 /** A reading typed offline reached the server a while after it was taken: say when. */
 const sentLater = (r: ReadingRow) => r.receivedAt !== null && Date.parse(r.receivedAt) - Date.parse(r.takenAt) >= 60_000;
@@ -35,7 +37,15 @@ const correctionSchema = z.object({
   correctionReason: createReadingSchema.shape.correctionReason.unwrap().unwrap(),
 });
 
-function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrect: (v: CorrectionInput) => Promise<unknown>; onClose: () => void }) {
+function CorrectionForm({
+  row,
+  onCorrect,
+  onClose,
+}: {
+  row: ReadingRow;
+  onCorrect: (v: CorrectionInput) => Promise<unknown>;
+  onClose: () => void;
+}) {
   const form = useForm<z.input<typeof correctionSchema>, unknown, z.output<typeof correctionSchema>>({
     resolver: zodResolver(correctionSchema),
     defaultValues: { value: '', correctionReason: '' },
@@ -56,16 +66,31 @@ function CorrectionForm({ row, onCorrect, onClose }: { row: ReadingRow; onCorrec
       })}
     >
       <p className="w-full text-sm">
-        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]} {row.conductors}
-        {row.leadOffsetOhm ? ` (typed with a ${formatOhm(row.leadOffsetOhm)} lead null, which the correction keeps)` : ''}. The old reading stays in the history. A
-        correction closes no fault: a fault opened by a typing mistake is dismissed by the technical director.
+        Correcting <strong>{row.valueText}</strong> on {row.stripLabel}, {row.positionName}, {TEST_KIND_LABELS[row.testKind]}{' '}
+        {row.conductors}
+        {row.leadOffsetOhm ? ` (typed with a ${formatOhm(row.leadOffsetOhm)} lead null, which the correction keeps)` : ''}. The old reading
+        stays in the history. A correction closes no fault: a fault opened by a typing mistake is dismissed by the technical director.
       </p>
       <TextField label="Correct value" id={`fix-${row.id}`} autoFocus inputMode="decimal" {...form.register('value')} className="w-36" />
-      <TextField label="Reason" id={`reason-${row.id}`} {...form.register('correctionReason')} className="min-w-64 flex-1" placeholder="e.g. typed 3.4 for 0.34" />
-      <Button type="submit" disabled={!correctionSchema.safeParse(typed).success}>Save correction</Button>
+      <TextField
+        label="Reason"
+        id={`reason-${row.id}`}
+        {...form.register('correctionReason')}
+        className="min-w-64 flex-1"
+        placeholder="e.g. typed 3.4 for 0.34"
+      />
+      <Button type="submit" disabled={!correctionSchema.safeParse(typed).success}>
+        Save correction
+      </Button>
       <p className="w-full text-xs text-ink-soft">The reason needs at least {CORRECTION_REASON_MIN} characters.</p>
-      <Button variant="secondary" onClick={onClose}>Cancel</Button>
-      {error && <div className="w-full"><Notice tone="error">{error}</Notice></div>}
+      <Button variant="secondary" onClick={onClose}>
+        Cancel
+      </Button>
+      {error && (
+        <div className="w-full">
+          <Notice tone="error">{error}</Notice>
+        </div>
+      )}
     </form>
   );
 }
@@ -97,7 +122,10 @@ export function ReadingsTable({
     () => [
       col.accessor('stripLabel', {
         header: 'Strip',
-        sortingFn: (a, b) => a.original.stripSort - b.original.stripSort || a.original.positionSort - b.original.positionSort || a.original.stepSort - b.original.stepSort,
+        sortingFn: (a, b) =>
+          a.original.stripSort - b.original.stripSort ||
+          a.original.positionSort - b.original.positionSort ||
+          a.original.stepSort - b.original.stepSort,
         cell: (c) => (
           <span>
             <span className="font-semibold whitespace-nowrap">{c.getValue()}</span>
@@ -105,7 +133,10 @@ export function ReadingsTable({
           </span>
         ),
       }),
-      col.accessor('assetTag', { header: 'Tag', cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{c.getValue() ?? '—'}</span> }),
+      col.accessor('assetTag', {
+        header: 'Tag',
+        cell: (c) => <span className="whitespace-nowrap font-mono text-xs">{c.getValue() ?? '—'}</span>,
+      }),
       col.accessor('testKind', {
         header: 'Test',
         cell: (c) => `${TEST_KIND_LABELS[c.getValue()]} ${c.row.original.conductors}`,
@@ -141,18 +172,26 @@ export function ReadingsTable({
         header: 'Limit and source',
         cell: (c) => (
           <span>
-            <span className="whitespace-nowrap">{c.getValue() === null ? '—' : `${c.row.original.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(c.getValue()!)}`}</span>
+            <span className="whitespace-nowrap">
+              {c.getValue() === null ? '—' : `${c.row.original.limitKind === 'min' ? '≥' : '≤'} ${formatOhm(c.getValue()!)}`}
+            </span>
             <span className="block max-w-48 text-xs text-ink-soft">{c.row.original.source}</span>
           </span>
         ),
       }),
-      col.accessor((r) => `${r.profileName ?? '?'} v${r.profileVersion}`, { id: 'profile', header: 'Profile', cell: (c) => <span className="text-xs">{c.getValue()}</span> }),
+      col.accessor((r) => `${r.profileName ?? '?'} v${r.profileVersion}`, {
+        id: 'profile',
+        header: 'Profile',
+        cell: (c) => <span className="text-xs">{c.getValue()}</span>,
+      }),
       col.accessor('takenAt', {
         header: 'When, who',
         cell: (c) => (
           <span className="text-xs">
             <span className="whitespace-nowrap">{when(c.getValue())}</span>
-            {sentLater(c.row.original) && <span className="block whitespace-nowrap text-ink-soft">sent {when(c.row.original.receivedAt!)}</span>}
+            {sentLater(c.row.original) && (
+              <span className="block whitespace-nowrap text-ink-soft">sent {when(c.row.original.receivedAt!)}</span>
+            )}
             <span className="block">{c.row.original.takenByName}</span>
           </span>
         ),
@@ -165,7 +204,11 @@ export function ReadingsTable({
           const newer = r.supersededBy ? byId.get(r.supersededBy) : null;
           return (
             <div className="flex flex-col items-start gap-1 text-xs">
-              {newer && <span className="font-semibold text-near">Superseded by {newer.valueText} ({when(newer.takenAt)})</span>}
+              {newer && (
+                <span className="font-semibold text-near">
+                  Superseded by {newer.valueText} ({when(newer.takenAt)})
+                </span>
+              )}
               {r.supersedesId && (
                 <span>
                   Corrects {byId.get(r.supersedesId)?.valueText ?? 'an earlier reading'}: “{r.correctionReason}”
@@ -193,7 +236,8 @@ export function ReadingsTable({
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
   });
-  const setFilter = <K extends keyof ReadingsFilter>(key: K, value: ReadingsFilter[K] | '') => onFilterChange({ ...filter, [key]: value || undefined });
+  const setFilter = <K extends keyof ReadingsFilter>(key: K, value: ReadingsFilter[K] | '') =>
+    onFilterChange({ ...filter, [key]: value || undefined });
   const distinct = (pick: (r: ReadingRow) => string) => [...new Set(rows.map(pick))];
   const strips = [...new Map(rows.map((r) => [r.stripId, r])).values()].sort((a, b) => a.stripSort - b.stripSort);
   const people = [...new Map(rows.filter((r) => r.takenBy).map((r) => [r.takenBy!, r.takenByName ?? '—'])).entries()];
@@ -203,22 +247,60 @@ export function ReadingsTable({
       <div className="grid gap-3 border-b border-line p-4 sm:grid-cols-3 lg:grid-cols-6">
         <SelectField label="Strip" name="fStrip" value={filter.strip ?? ''} onChange={(e) => setFilter('strip', e.target.value)}>
           <option value="">All strips</option>
-          {strips.map((s) => <option key={s.stripId} value={s.stripId}>{s.stripLabel}</option>)}
+          {strips.map((s) => (
+            <option key={s.stripId} value={s.stripId}>
+              {s.stripLabel}
+            </option>
+          ))}
         </SelectField>
-        <SelectField label="Verdict" name="fVerdict" value={filter.verdict ?? ''} onChange={(e) => setFilter('verdict', e.target.value as ReadingsFilter['verdict'])}>
+        <SelectField
+          label="Verdict"
+          name="fVerdict"
+          value={filter.verdict ?? ''}
+          onChange={(e) => setFilter('verdict', e.target.value as ReadingsFilter['verdict'])}
+        >
           <option value="">Any verdict</option>
-          {(['pass', 'near-limit', 'fail'] as const).map((v) => <option key={v} value={v}>{VERDICT[v][2]}</option>)}
+          {(['pass', 'near-limit', 'fail'] as const).map((v) => (
+            <option key={v} value={v}>
+              {VERDICT[v][2]}
+            </option>
+          ))}
         </SelectField>
-        <SelectField label="Test" name="fTest" value={filter.test ?? ''} onChange={(e) => setFilter('test', e.target.value as ReadingsFilter['test'])}>
+        <SelectField
+          label="Test"
+          name="fTest"
+          value={filter.test ?? ''}
+          onChange={(e) => setFilter('test', e.target.value as ReadingsFilter['test'])}
+        >
           <option value="">Any test</option>
-          {distinct((r) => r.testKind).map((k) => <option key={k} value={k}>{TEST_KIND_LABELS[k as ReadingRow['testKind']]}</option>)}
+          {distinct((r) => r.testKind).map((k) => (
+            <option key={k} value={k}>
+              {TEST_KIND_LABELS[k as ReadingRow['testKind']]}
+            </option>
+          ))}
         </SelectField>
         <SelectField label="Who" name="fWho" value={filter.who ?? ''} onChange={(e) => setFilter('who', e.target.value)}>
           <option value="">Anyone</option>
-          {people.map(([id, name]) => <option key={id} value={id}>{name}</option>)}
+          {people.map(([id, name]) => (
+            <option key={id} value={id}>
+              {name}
+            </option>
+          ))}
         </SelectField>
-        <TextField label="Taken from" name="fFrom" type="datetime-local" value={toLocalInput(filter.from)} onChange={(e) => setFilter('from', fromLocalInput(e.target.value))} />
-        <TextField label="Taken until" name="fTo" type="datetime-local" value={toLocalInput(filter.to)} onChange={(e) => setFilter('to', fromLocalInput(e.target.value))} />
+        <TextField
+          label="Taken from"
+          name="fFrom"
+          type="datetime-local"
+          value={toLocalInput(filter.from)}
+          onChange={(e) => setFilter('from', fromLocalInput(e.target.value))}
+        />
+        <TextField
+          label="Taken until"
+          name="fTo"
+          type="datetime-local"
+          value={toLocalInput(filter.to)}
+          onChange={(e) => setFilter('to', fromLocalInput(e.target.value))}
+        />
       </div>
       <p className="px-4 py-2 text-sm text-ink-soft" aria-live="polite">
         {visible.length} of {rows.length} readings · superseded readings stay listed, struck through
@@ -231,9 +313,17 @@ export function ReadingsTable({
                 {g.headers.map((h) => {
                   const sorted = h.column.getIsSorted();
                   return (
-                    <th key={h.id} className="px-2 py-1" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
+                    <th
+                      key={h.id}
+                      className="px-2 py-1"
+                      aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}
+                    >
                       {h.column.getCanSort() ? (
-                        <button type="button" className="inline-flex min-h-touch items-center gap-1 font-semibold uppercase" onClick={h.column.getToggleSortingHandler()}>
+                        <button
+                          type="button"
+                          className="inline-flex min-h-touch items-center gap-1 font-semibold uppercase"
+                          onClick={h.column.getToggleSortingHandler()}
+                        >
                           {flexRender(h.column.columnDef.header, h.getContext())}
                           <span aria-hidden>{sorted === 'asc' ? '↑' : sorted === 'desc' ? '↓' : '↕'}</span>
                         </button>
@@ -249,9 +339,13 @@ export function ReadingsTable({
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <Fragment key={row.id}>
-                <tr className={`border-b border-line align-top ${row.original.superseded ? 'bg-idle-soft/60 text-ink-soft [&_[data-value]]:line-through' : ''}`}>
+                <tr
+                  className={`border-b border-line align-top ${row.original.superseded ? 'bg-idle-soft/60 text-ink-soft [&_[data-value]]:line-through' : ''}`}
+                >
                   {row.getVisibleCells().map((c) => (
-                    <td key={c.id} className="px-2 py-2">{flexRender(c.column.columnDef.cell, c.getContext())}</td>
+                    <td key={c.id} className="px-2 py-2">
+                      {flexRender(c.column.columnDef.cell, c.getContext())}
+                    </td>
                   ))}
                 </tr>
                 {correcting === row.original.id && (

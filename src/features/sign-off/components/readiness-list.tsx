@@ -19,11 +19,38 @@ const TONE: Record<StripReadinessState | 'left-out', string> = {
 };
 
 function StateShape({ state }: { state: StripReadinessState | 'left-out' }) {
-  const common = { 'aria-hidden': true, viewBox: '0 0 20 20', className: 'size-4', fill: 'none', stroke: 'currentColor', strokeWidth: 2.4, strokeLinecap: 'round' as const };
-  if (state === 'ready') return <svg {...common}><path d="M4 10.5l4 4 8-9" /></svg>;
-  if (state === 'failing') return <svg {...common}><path d="M5 5l10 10M15 5L5 15" /></svg>;
-  if (state === 'missing' || state === 'no-steps') return <svg {...common}><circle cx="10" cy="10" r="7" /></svg>;
-  return <svg {...common}><path d="M4 10h12" /></svg>;
+  const common = {
+    'aria-hidden': true,
+    viewBox: '0 0 20 20',
+    className: 'size-4',
+    fill: 'none',
+    stroke: 'currentColor',
+    strokeWidth: 2.4,
+    strokeLinecap: 'round' as const,
+  };
+  if (state === 'ready')
+    return (
+      <svg {...common}>
+        <path d="M4 10.5l4 4 8-9" />
+      </svg>
+    );
+  if (state === 'failing')
+    return (
+      <svg {...common}>
+        <path d="M5 5l10 10M15 5L5 15" />
+      </svg>
+    );
+  if (state === 'missing' || state === 'no-steps')
+    return (
+      <svg {...common}>
+        <circle cx="10" cy="10" r="7" />
+      </svg>
+    );
+  return (
+    <svg {...common}>
+      <path d="M4 10h12" />
+    </svg>
+  );
 }
 
 export function StateBadge({ state }: { state: StripReadinessState | 'left-out' }) {
@@ -63,7 +90,11 @@ export function ReadinessList({
                 {s.nearLimit.length > 0 && `, ${s.nearLimit.length} near limit`}
               </span>
               {blocking && onLeaveOut && (
-                <button type="button" className="ml-auto min-h-touch rounded-lg px-3 text-sm font-medium text-brand hover:bg-brand-soft" onClick={() => onLeaveOut(s.stripId)}>
+                <button
+                  type="button"
+                  className="ml-auto min-h-touch rounded-lg px-3 text-sm font-medium text-brand hover:bg-brand-soft"
+                  onClick={() => onLeaveOut(s.stripId)}
+                >
                   Leave this strip out…
                 </button>
               )}
@@ -90,7 +121,8 @@ export function ReadinessList({
                 {s.missing.length > 0 && (
                   <li>
                     <Link to={paths.stripTest(s.stripId)} className="inline-flex min-h-touch items-center gap-2 text-near underline">
-                      {READING_SYMBOLS['not-measured'].glyph} {s.missing.length} {s.missing.length === 1 ? 'test' : 'tests'} without a reading
+                      {READING_SYMBOLS['not-measured'].glyph} {s.missing.length} {s.missing.length === 1 ? 'test' : 'tests'} without a
+                      reading
                       {s.missing.some((m) => m.why === 'item-swapped') && ' (some items were swapped after testing)'}:{' '}
                       {s.missing
                         .slice(0, 4)

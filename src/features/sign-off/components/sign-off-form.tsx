@@ -77,12 +77,15 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
             <p className="mt-1 text-sm text-ink-soft">No reading of a certified strip is near its limit.</p>
           ) : (
             <>
-              <p className="mt-1 text-sm text-ink-soft">These pass and will be certified; they are listed so you can decide to retest or replace the item.</p>
+              <p className="mt-1 text-sm text-ink-soft">
+                These pass and will be certified; they are listed so you can decide to retest or replace the item.
+              </p>
               <ul className="mt-3 flex flex-col gap-1 text-sm">
                 {readiness.nearLimit.map((n) => (
                   <li key={n.stepId}>
                     <Link className="inline-flex min-h-touch items-center gap-2 text-near underline" to={paths.stripTest(n.stripId)}>
-                      {READING_SYMBOLS['near-limit'].glyph} {n.stripLabel}, {n.positionName} {n.assetTag ? `(${n.assetTag})` : ''} · {TEST_KIND_LABELS[n.testKind as keyof typeof TEST_KIND_LABELS] ?? n.testKind}{' '}
+                      {READING_SYMBOLS['near-limit'].glyph} {n.stripLabel}, {n.positionName} {n.assetTag ? `(${n.assetTag})` : ''} ·{' '}
+                      {TEST_KIND_LABELS[n.testKind as keyof typeof TEST_KIND_LABELS] ?? n.testKind}{' '}
                       {n.conductors.startsWith('piste') ? '' : n.conductors}: {n.valueText}
                       {n.limitOhm !== null && ` of max ${formatOhm(n.limitOhm)}`}
                     </Link>
@@ -105,7 +108,10 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
         {readiness.canSignOff && !signedOff && (
           <Card>
             <h2 className="text-lg font-semibold">Strips left out</h2>
-            <p className="mt-1 text-sm text-ink-soft">A strip that is not used, or cannot be made ready, can be left out with a reason. The reason is printed on the venue certificate.</p>
+            <p className="mt-1 text-sm text-ink-soft">
+              A strip that is not used, or cannot be made ready, can be left out with a reason. The reason is printed on the venue
+              certificate.
+            </p>
             {exceptions.length > 0 && (
               <ul className="mt-3 flex flex-col gap-2">
                 {exceptions.map((e) => (
@@ -113,7 +119,11 @@ export function SignOffForm({ readiness, onSigned }: { readiness: ReadinessDto; 
                     <span>
                       <strong>{labelOf(e.stripId)}</strong>: {e.reason}
                     </span>
-                    <button type="button" className="min-h-touch px-2 font-medium text-brand" onClick={() => setExceptions((l) => l.filter((x) => x.stripId !== e.stripId))}>
+                    <button
+                      type="button"
+                      className="min-h-touch px-2 font-medium text-brand"
+                      onClick={() => setExceptions((l) => l.filter((x) => x.stripId !== e.stripId))}
+                    >
                       Take back
                     </button>
                   </li>

@@ -170,7 +170,12 @@ export function EntryGrid({
     justRecorded.current.add(cell.step.id);
     setBusy(true);
     try {
-      await submit(cell.position, cell.step, { stepId: cell.step.id, value: text, ...(leadNull ? { leadNullId: leadNull.id } : {}) }, judged);
+      await submit(
+        cell.position,
+        cell.step,
+        { stepId: cell.step.id, value: text, ...(leadNull ? { leadNullId: leadNull.id } : {}) },
+        judged,
+      );
       setValues((v) => ({ ...v, [cell.step.id]: '' }));
       return true;
     } catch (err) {

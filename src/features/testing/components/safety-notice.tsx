@@ -11,7 +11,13 @@ export function SafetyNotice({ onAcknowledged }: { onAcknowledged?: () => void }
   if (!open) return null;
   return (
     <div className="fixed inset-0 z-50 flex items-center justify-center bg-ink/60 p-4">
-      <div role="alertdialog" aria-modal="true" aria-labelledby="safety-title" aria-describedby="safety-text" className="max-w-xl rounded-card border-2 border-brass bg-card p-6 shadow-xl">
+      <div
+        role="alertdialog"
+        aria-modal="true"
+        aria-labelledby="safety-title"
+        aria-describedby="safety-text"
+        className="max-w-xl rounded-card border-2 border-brass bg-card p-6 shadow-xl"
+      >
         <h2 id="safety-title" className="flex items-center gap-2 text-xl font-semibold">
           <svg aria-hidden viewBox="0 0 16 16" className="size-6 fill-brass">
             <path d="M8 1.5 15 14.5H1z" />
@@ -20,9 +26,17 @@ export function SafetyNotice({ onAcknowledged }: { onAcknowledged?: () => void }
           Before you test
         </h2>
         <ul id="safety-text" className="mt-3 list-disc space-y-2 pl-5 text-base">
-          <li>Test cables, reels and pistes only when they are <strong>disconnected from the scoring apparatus and from mains power</strong>.</li>
-          <li>Use the multimeter’s resistance range. <strong>Never use a high-voltage insulation tester</strong> on anything still connected to an apparatus or other electronics.</li>
-          <li>The venue’s mains installation and the hall’s earthing belong to a <strong>licensed electrician under local codes</strong>; these checks cover the competition equipment only.</li>
+          <li>
+            Test cables, reels and pistes only when they are <strong>disconnected from the scoring apparatus and from mains power</strong>.
+          </li>
+          <li>
+            Use the multimeter’s resistance range. <strong>Never use a high-voltage insulation tester</strong> on anything still connected
+            to an apparatus or other electronics.
+          </li>
+          <li>
+            The venue’s mains installation and the hall’s earthing belong to a <strong>licensed electrician under local codes</strong>;
+            these checks cover the competition equipment only.
+          </li>
         </ul>
         <button
           ref={button}

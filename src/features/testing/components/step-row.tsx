@@ -120,7 +120,9 @@ export function StepRow({
       onRecorded();
     } catch (err) {
       // Only the tablet's own storage can fail here: the network is the outbox's business.
-      setError(`Could not keep the reading on this tablet: ${err instanceof Error ? err.message : String(err)}. Write it down and try again.`);
+      setError(
+        `Could not keep the reading on this tablet: ${err instanceof Error ? err.message : String(err)}. Write it down and try again.`,
+      );
     } finally {
       setBusy(false);
     }
@@ -146,7 +148,10 @@ export function StepRow({
           </label>
           {!step.required && <span className="text-xs text-ink-soft">(optional)</span>}
           {retested && (
-            <span data-testid="retested" className="rounded-full border border-brand/40 bg-brand-soft px-2 text-xs font-semibold text-brand">
+            <span
+              data-testid="retested"
+              className="rounded-full border border-brand/40 bg-brand-soft px-2 text-xs font-semibold text-brand"
+            >
               Retested after the repair
             </span>
           )}
@@ -159,12 +164,14 @@ export function StepRow({
         )}
         {showCaution && step.testKind === 'insulation' && (
           <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
-            <strong>Caution:</strong> use the multimeter’s resistance range. Never use a high-voltage insulation tester on a cable still connected to a scoring apparatus or any electronics.
+            <strong>Caution:</strong> use the multimeter’s resistance range. Never use a high-voltage insulation tester on a cable still
+            connected to a scoring apparatus or any electronics.
           </p>
         )}
         {showCaution && step.testKind === 'piste-earth' && (
           <p className="mt-2 rounded-md border border-brass/50 bg-brass-soft px-2 py-1 text-xs">
-            <strong>Note:</strong> this checks the piste’s link to the apparatus earth only. The hall’s own earthing and mains installation are the business of a licensed electrician under local codes.
+            <strong>Note:</strong> this checks the piste’s link to the apparatus earth only. The hall’s own earthing and mains installation
+            are the business of a licensed electrician under local codes.
           </p>
         )}
         {queued && <QueuedLine queued={queued} />}
@@ -183,7 +190,11 @@ export function StepRow({
               {latest.correctionReason ? ` · corrected: ${latest.correctionReason}` : ''}
             </span>
             {canWrite && !correcting && (
-              <button type="button" className="min-h-touch px-1 text-xs font-medium text-brand underline" onClick={() => setCorrecting(true)}>
+              <button
+                type="button"
+                className="min-h-touch px-1 text-xs font-medium text-brand underline"
+                onClick={() => setCorrecting(true)}
+              >
                 Correct this reading
               </button>
             )}
@@ -220,13 +231,31 @@ export function StepRow({
               aria-invalid={preview.state === 'invalid' || !!error ? true : undefined}
               className="min-h-touch w-36 rounded-lg border-2 border-line bg-card px-3 text-lg font-semibold tabular-nums focus:border-brand aria-[invalid=true]:border-fail"
             />
-            <button type="button" tabIndex={-1} className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold" onClick={() => { setValue('OL'); own.current?.focus(); }}>
+            <button
+              type="button"
+              tabIndex={-1}
+              className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold"
+              onClick={() => {
+                setValue('OL');
+                own.current?.focus();
+              }}
+            >
               OL
             </button>
-            <button type="button" tabIndex={-1} className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold" onClick={() => append('k')}>
+            <button
+              type="button"
+              tabIndex={-1}
+              className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold"
+              onClick={() => append('k')}
+            >
               k
             </button>
-            <button type="button" tabIndex={-1} className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold" onClick={() => append('M')}>
+            <button
+              type="button"
+              tabIndex={-1}
+              className="min-h-touch min-w-touch rounded-lg border border-line bg-paper px-3 font-semibold"
+              onClick={() => append('M')}
+            >
               M
             </button>
             <Button type="submit" disabled={busy}>
@@ -242,7 +271,10 @@ export function StepRow({
               <StatusMark {...verdictLook[preview.verdict.verdict]} />
               <span>
                 <strong>{preview.display}</strong>
-                {leadNull && leadNull.valueOhm > 0 && preview.display !== 'OL' ? ` (less the ${formatOhm(leadNull.valueOhm)} lead null)` : ''} — {preview.verdict.explanation}
+                {leadNull && leadNull.valueOhm > 0 && preview.display !== 'OL'
+                  ? ` (less the ${formatOhm(leadNull.valueOhm)} lead null)`
+                  : ''}{' '}
+                — {preview.verdict.explanation}
               </span>
             </p>
           )}
@@ -273,18 +305,29 @@ export function StepRow({
             onSubmit={(e) => {
               e.preventDefault();
               if (correction.reason.trim().length < CORRECTION_REASON_MIN) {
-                return setError(`Say what was wrong in at least ${CORRECTION_REASON_MIN} characters, e.g. “typed 3.4 for 0.34”. A correction does not close a fault.`);
+                return setError(
+                  `Say what was wrong in at least ${CORRECTION_REASON_MIN} characters, e.g. “typed 3.4 for 0.34”. A correction does not close a fault.`,
+                );
               }
               void record({ supersedesId: latest.id, correctionReason: correction.reason.trim() }, correction.value);
             }}
           >
             <label className="flex flex-col text-xs font-medium">
               Corrected value
-              <input inputMode="decimal" className="min-h-touch w-32 rounded-lg border border-line bg-card px-2 text-base" value={correction.value} onChange={(e) => setCorrection((c) => ({ ...c, value: e.target.value }))} />
+              <input
+                inputMode="decimal"
+                className="min-h-touch w-32 rounded-lg border border-line bg-card px-2 text-base"
+                value={correction.value}
+                onChange={(e) => setCorrection((c) => ({ ...c, value: e.target.value }))}
+              />
             </label>
             <label className="flex min-w-48 flex-1 flex-col text-xs font-medium">
               Why (kept with the reading)
-              <input className="min-h-touch rounded-lg border border-line bg-card px-2 text-base" value={correction.reason} onChange={(e) => setCorrection((c) => ({ ...c, reason: e.target.value }))} />
+              <input
+                className="min-h-touch rounded-lg border border-line bg-card px-2 text-base"
+                value={correction.reason}
+                onChange={(e) => setCorrection((c) => ({ ...c, reason: e.target.value }))}
+              />
             </label>
             <Button type="submit" variant="secondary">
               Save correction
@@ -303,8 +346,17 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
   if (queued.status === 'problem' || queued.status === 'notice') {
     const notice = queued.status === 'notice';
     return (
-      <div data-testid="queued" data-status={queued.status} className={`mt-2 flex flex-wrap items-center gap-2 rounded-md border-2 px-2 py-1 text-sm ${notice ? 'border-brass bg-brass-soft' : 'border-fail/50 bg-fail-soft'}`}>
-        <StatusMark shape="octagon" tone={notice ? 'brass' : 'fail'} label={notice ? 'Recorded — read this' : 'Not recorded — needs you'} size="sm" />
+      <div
+        data-testid="queued"
+        data-status={queued.status}
+        className={`mt-2 flex flex-wrap items-center gap-2 rounded-md border-2 px-2 py-1 text-sm ${notice ? 'border-brass bg-brass-soft' : 'border-fail/50 bg-fail-soft'}`}
+      >
+        <StatusMark
+          shape="octagon"
+          tone={notice ? 'brass' : 'fail'}
+          label={notice ? 'Recorded — read this' : 'Not recorded — needs you'}
+          size="sm"
+        />
         <strong className="tabular-nums">{queued.display}</strong>
         <span>{queued.title}</span>
         <Link to={paths.onThisTablet} className="inline-flex min-h-touch items-center font-medium text-brand underline">
@@ -314,7 +366,11 @@ function QueuedLine({ queued }: { queued: QueuedView }) {
     );
   }
   return (
-    <div data-testid="queued" data-status={queued.status} className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-soft/50 bg-paper px-2 py-1 text-sm">
+    <div
+      data-testid="queued"
+      data-status={queued.status}
+      className="mt-2 flex flex-wrap items-center gap-2 rounded-md border border-dashed border-ink-soft/50 bg-paper px-2 py-1 text-sm"
+    >
       <StatusMark shape="hourglass" tone="idle" label={queued.status === 'sending' ? 'Sending…' : 'Waiting to send'} size="sm" />
       <strong className="tabular-nums">{queued.display}</strong>
       {queued.verdict && <StatusMark {...verdictLook[queued.verdict]} size="sm" />}

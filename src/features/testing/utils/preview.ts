@@ -3,10 +3,7 @@ import { evaluateReading, type Verdict } from '@shared/domain/limits';
 import { formatOhm } from '@shared/domain/units';
 import { judgeTypedReading, type TypedReadingContext } from '@shared/domain/typed-reading';
 
-export type Preview =
-  | { state: 'empty' }
-  | { state: 'invalid'; message: string }
-  | { state: 'judged'; display: string; verdict: Verdict };
+export type Preview = { state: 'empty' } | { state: 'invalid'; message: string } | { state: 'judged'; display: string; verdict: Verdict };
 
 export type StepContext = Omit<TypedReadingContext, 'temperatureC'>;
 
