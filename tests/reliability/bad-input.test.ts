@@ -103,6 +103,10 @@ function validBody(route: string): Record<string, unknown> | null {
     'POST /api/fault-location': { method: 'tdr', roundTripNs: 100, velocityFactor: 0.66 },
     'POST /api/venues/:id/sign-off': { password: 'wrong-password' },
     'POST /api/certificates/:number/revoke': { reason: 'Fuzz reason' },
+    'POST /api/venues/:id/incidents': { stripId: params.strips, symptom: 'Fuzz symptom', clientId: randomUUID() },
+    'POST /api/incidents/:id/swap': { positionId: params.positions, replacementAssetTag: 'FC-001' },
+    'PUT /api/venues/:id/spares': { assetTags: [] },
+    'POST /api/venues/:id/amendments': { password: 'wrong-password', incidentIds: [randomUUID()] },
   };
   return bodies[route] ?? null;
 }
