@@ -234,9 +234,13 @@ export async function enqueueIncident(r: NewQueuedIncident): Promise<QueuedIncid
   return item;
 }
 
+/** The browser's "offline" is taken at its word (./connection.ts); its "online" is only a guess. */
+const browserSaysOffline = () => typeof navigator !== 'undefined' && navigator.onLine === false;
+
 /** Sends the incidents that are due, one at a time in typing order; says why it stopped, or null. */
 async function sendIncidents(userId: string, force: boolean, touched: { stripIds: Set<string>; venueIds: Set<string> }) {
   for (const item of planIncidentSend(state.incidents, { userId, nowMs: Date.now(), force })) {
+    if (browserSaysOffline()) return 'network';
     setState({ syncing: true });
     const { answer, incident } = await sendIncident(item.venueId, item.body);
     if (answer.kind === 'network') serverDidNotAnswer();
@@ -325,6 +329,8 @@ async function pass(force: boolean) {
   let stop: OutboxState['lastStop'] = await sendIncidents(userId, force, touched);
   let first = true;
   for (;;) {
+    // The browser may have said offline while this pass was under way: nothing more is tried.
+    if (!stop && browserSaysOffline()) stop = 'network';
     if (stop) break;
     const { send } = planSend(state.items, { userId, nowMs: Date.now(), force: force && first });
     first = false;
