@@ -2,7 +2,7 @@
 // keypad (OL one key, all insulation OL one action and a confirmation), a failure linking to its
 // fault, focus on "strip complete — next strip" after the last reading, and "record again?" once.
 import type { Page } from '@playwright/test';
-import { expect, signIn, test } from './fixtures';
+import { expect, signIn, test, openVenueLink } from './fixtures';
 
 test.use({ viewport: { width: 1024, height: 768 }, hasTouch: true });
 
@@ -30,7 +30,7 @@ test('a strip recorded in the grid at 1024 × 768: one screen, ≤ 1 non-digit k
 }) => {
   await signIn(page, 'technician');
   await page.goto('/');
-  await page.getByRole('link', { name: 'Open venue' }).click();
+  await openVenueLink(page).click();
   await page.getByLabel('Go to strip number').fill('15');
   await page.keyboard.press('Enter');
   const notice = page.getByRole('alertdialog');
@@ -164,7 +164,7 @@ test('a strip recorded in the grid at 1024 × 768: one screen, ≤ 1 non-digit k
 test('a strip with a piste (five items) fits 1024 × 768, focus on the way on; the grid at 768 × 1024 and 390 × 844', async ({ page }) => {
   await signIn(page, 'technician');
   await page.goto('/');
-  await page.getByRole('link', { name: 'Open venue' }).click();
+  await openVenueLink(page).click();
   await page.getByLabel('Go to strip number').fill('3'); // tested in the demo scenario, conductive piste
   await page.keyboard.press('Enter');
   await page.getByRole('button', { name: 'I understand — start testing' }).click();

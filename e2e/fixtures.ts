@@ -21,6 +21,17 @@ export async function signIn(page: Page, role: DemoRole) {
   expect(res.status(), `sign-in as ${role}`).toBe(200);
 }
 
+/**
+ * The "Open venue" link of one venue on the home page: other specs add venues of their own (the
+ * technician of the demo is assigned to them too), so the venue is named.
+ */
+export function openVenueLink(page: Page, venue = 'Riverside Sports Hall') {
+  return page
+    .getByRole('listitem')
+    .filter({ has: page.getByRole('heading', { name: venue, exact: true }) })
+    .getByRole('link', { name: 'Open venue' });
+}
+
 /** Same-origin JSON call from the page's context (sends the session cookie and our Origin). */
 export async function apiAs<T = unknown>(page: Page, method: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE', path: string, data?: unknown) {
   const origin = new URL(test.info().project.use.baseURL!).origin;

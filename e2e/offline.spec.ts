@@ -4,7 +4,7 @@
 // lost on the way), each reading naming that null, which is sent before them. A reading whose step
 // the director removed meanwhile ends as a problem Sam can see and decide on, not as a loss.
 import type { Page } from '@playwright/test';
-import { apiAs, expect, signIn, test } from './fixtures';
+import { apiAs, expect, signIn, test, openVenueLink } from './fixtures';
 
 // navigator.onLine is the browser's guess, and after the offline reload below it is wrong on
 // purpose: with a second DevTools client on the tab (as when someone watches with DevTools open),
@@ -72,7 +72,7 @@ test('readings typed offline survive a reload, reach the server exactly once, an
 
   // Online: open the venue (its strips are put on the tablet), and let the service worker take over.
   await page.goto('/');
-  await page.getByRole('link', { name: 'Open venue' }).click();
+  await openVenueLink(page).click();
   await expect(page.getByLabel('Go to strip number')).toBeVisible();
   await expect(page).toHaveURL(/\/venues\/[^/]+$/);
   const venueId = new URL(page.url()).pathname.split('/')[2]!;

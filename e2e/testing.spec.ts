@@ -2,7 +2,7 @@
 // resistance from both ends, cuts out the damaged section, retests and clears the strip, while the
 // director's status board (a second browser context) follows without a reload.
 import type { Page } from '@playwright/test';
-import { expect, signIn, test } from './fixtures';
+import { expect, signIn, test, openVenueLink } from './fixtures';
 
 const STRIP = 'Strip 12'; // not started in the demo scenario, no conductive piste: 4 cable items × 7 steps
 
@@ -28,7 +28,7 @@ test('a strip is tested by keyboard, its fault located, cut out and retested, an
   await signIn(page, 'technician');
 
   await page.goto('/');
-  await page.getByRole('link', { name: 'Open venue' }).click();
+  await openVenueLink(page).click();
   // The click navigates in the page: read the address once it is the venue's.
   await expect(page).toHaveURL(/\/venues\/[^/]+$/);
   await board.goto(`${new URL(page.url()).pathname}/board`);

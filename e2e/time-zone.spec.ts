@@ -19,8 +19,8 @@ test('the director sets the venue time zone in its details and it is kept', asyn
   const zone = page.getByLabel('Time zone of the hall');
   await expect(zone).toHaveValue('Europe/London');
   await zone.selectOption('Europe/Paris');
-  await page.getByRole('button', { name: 'Save venue details' }).click();
-  await expect(page.getByRole('button', { name: 'Save venue details' })).toBeDisabled();
+  await page.getByRole('button', { name: 'Save venue' }).click();
+  await expect(page.getByRole('button', { name: 'Save venue' })).toBeDisabled();
   await page.screenshot({ path: test.info().outputPath('venue-time-zone.png') });
 
   await page.reload();

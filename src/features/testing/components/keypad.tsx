@@ -57,7 +57,8 @@ export function Keypad({ onKey, disabled, allInsulation }: { onKey: (key: PadKey
           All insulation OL (A)
         </button>
       )}
-      <p className="text-sm text-ink-soft">Enter records · O = OL · A = all insulation OL</p>
+      {/* One line at 14 px, so the strip keeps its one screen (Enter is the Record key itself). */}
+      <p className="text-sm whitespace-nowrap text-ink-soft">Keys: O = OL · A = all insulation OL</p>
     </div>
   );
 }
