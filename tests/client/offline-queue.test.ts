@@ -8,6 +8,7 @@ import {
   makeSeq,
   nextDueAt,
   planIncidentSend,
+  incidentRequest,
   planSend,
   retryDelayMs,
   summarize,
@@ -312,6 +313,16 @@ describe('incidents in the outbox', () => {
     const refused = incident({ status: 'problem' });
     expect(planIncidentSend([later, other, refused, first], { userId: SAM, nowMs: 1_000 }).map((i) => i.id)).toEqual([first.id]);
     expect(planIncidentSend([later, first], { userId: SAM, nowMs: 1_000, force: true }).map((i) => i.id)).toEqual([first.id, later.id]);
+  });
+
+  test('an incident is sent with the time it was typed on the tablet as openedAt, its clientId unchanged', () => {
+    const i = incident({ createdAt: '2026-11-21T07:42:10.000Z' });
+    expect(incidentRequest(i)).toEqual({
+      clientId: i.id,
+      stripId: 'strip',
+      symptom: 'Touches not showing',
+      openedAt: '2026-11-21T07:42:10.000Z',
+    });
   });
 
   test('a replay the server has already (200 with the same incident) leaves the queue, as a first send (201) does: it is kept once', () => {

@@ -18,6 +18,7 @@ import {
   makeSeq,
   nextDueAt,
   planIncidentSend,
+  incidentRequest,
   planSend,
   upgradeLegacyItems,
   type Answer,
@@ -238,7 +239,7 @@ export async function enqueueIncident(r: NewQueuedIncident): Promise<QueuedIncid
 async function sendIncidents(userId: string, force: boolean, touched: { stripIds: Set<string>; venueIds: Set<string> }) {
   for (const item of planIncidentSend(state.incidents, { userId, nowMs: Date.now(), force })) {
     setState({ syncing: true });
-    const { answer, incident } = await sendIncident(item.venueId, item.body);
+    const { answer, incident } = await sendIncident(item.venueId, incidentRequest(item));
     if (answer.kind === 'network') serverDidNotAnswer();
     else serverAnswered();
     const outcome = classifyAnswer(answer);

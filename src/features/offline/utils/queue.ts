@@ -289,6 +289,8 @@ export interface IncidentBody {
   stripId: string;
   positionId?: string | null;
   symptom: string;
+  /** When the technician tapped the symptom: the server counts the incident from then. */
+  openedAt?: string | null;
 }
 
 /** An incident typed on the tablet and not on the server yet; the same rules as a reading's. */
@@ -308,6 +310,14 @@ export interface QueuedIncident {
   attempts: number;
   nextAttemptAt: number;
   problem?: Problem;
+}
+
+/**
+ * What is sent for a queued incident: its body with the time it was typed here, so one sent
+ * much later still counts from then (and a retest typed after it counts as after it).
+ */
+export function incidentRequest(item: QueuedIncident): IncidentBody {
+  return { ...item.body, openedAt: item.createdAt };
 }
 
 /**
