@@ -15,7 +15,7 @@ import { syncLook, syncWords } from '@/features/offline/components/sync-indicato
 import { useOutbox } from '@/features/offline/hooks/use-outbox';
 import { enqueueReading, recordLeadNull } from '@/features/offline/stores/outbox';
 import { newReadingId } from '@/features/offline/utils/reading-id';
-import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
+import { problemHelp } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
 import { LabelScanner } from '@/features/labels/components/label-scanner';
@@ -85,7 +85,7 @@ export default function StripTestPage() {
         status: i.status === 'waiting' ? (outbox.syncing ? 'sending' : 'waiting') : i.status,
         display: i.preview?.display ?? i.body.value,
         verdict: i.preview?.verdict ?? null,
-        title: i.problem ? PROBLEM_HELP[i.problem.kind].title : undefined,
+        title: i.problem ? problemHelp(i.problem.kind).title : undefined,
       });
     }
     return byStep;
