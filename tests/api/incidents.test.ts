@@ -52,8 +52,12 @@ describe('an incident from opening to the amended certificate', () => {
     expect(pool.body.spares[0].stepsTotal).toBe(7);
     const lee = await t.agentFor(DEMO.annexTechnician);
     const strip = (await lee.get(`/api/strips/${pool.body.stripId}`).expect(200)).body as {
+      sparePool: boolean;
       positions: { steps: { id: string; testKind: string }[] }[];
     };
+    // The strip answer says it is the pool (the testing screen offers no incident on it).
+    expect(strip.sparePool).toBe(true);
+    expect((await lee.get(`/api/strips/${(await stripByLabel(t, annex, 'Annex 1')).id}`).expect(200)).body.sparePool).toBe(false);
     for (const step of strip.positions[0].steps) {
       await lee.post('/api/readings').send(newReading(step.id, GOOD_VALUE[step.testKind])).expect(201);
     }
@@ -62,6 +66,28 @@ describe('an incident from opening to the amended certificate', () => {
     // The pool is no strip of the venue: the board does not list it.
     const board = await marco.get(`/api/venues/${annex}/board`).expect(200);
     expect(board.body.strips.map((s: { id: string }) => s.id)).not.toContain(pool.body.stripId);
+  });
+
+  test('the director cannot edit the pool through the plan routes: 409 problem+json, the pool unchanged', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const poolId = (await marco.get(`/api/venues/${annex}/spares`).expect(200)).body.stripId as string;
+    const before = (await marco.get(`/api/strips/${poolId}`).expect(200)).body as { label: string; positions: { id: string }[] };
+    const tag = (await marco.get(`/api/venues/${annex}`)).headers.etag as string;
+    const attempts = [
+      marco.patch(`/api/strips/${poolId}`).set('If-Match', tag).send({ label: 'Pool renamed' }),
+      marco.post(`/api/strips/${poolId}/withdraw`).set('If-Match', tag).send({ reason: 'Not needed today' }),
+      marco.post(`/api/strips/${poolId}/positions`).set('If-Match', tag).send({ name: 'Extra reel', equipmentKind: 'reel' }),
+      marco.delete(`/api/positions/${before.positions[0].id}`).set('If-Match', tag),
+    ];
+    for (const res of await Promise.all(attempts)) {
+      expect(res.status, JSON.stringify(res.body)).toBe(409);
+      expect(res.headers['content-type']).toContain('application/problem+json');
+      expect(res.body.code).toBe('spare-pool');
+    }
+    const after = (await marco.get(`/api/strips/${poolId}`).expect(200)).body as typeof before;
+    expect(after.label).toBe(before.label);
+    expect(after.positions.map((p) => p.id)).toEqual(before.positions.map((p) => p.id));
+    expect((await marco.get(`/api/venues/${annex}/spares`).expect(200)).body.spares).toHaveLength(1);
   });
 
   test('the venue is signed off; an incident on Annex 2 suspends that strip only (the same clientId twice is one incident)', async () => {

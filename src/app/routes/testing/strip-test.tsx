@@ -65,7 +65,8 @@ export default function StripTestPage() {
   const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
   const data = strip.data;
   // Competition days: the strip's open incident (or one opened on this tablet, not sent yet).
-  const competing = data?.venueStatus === 'signed-off' || data?.status === 'out-of-service';
+  // The spare pool is no strip of the competition: its spares are tested, never reported on.
+  const competing = !data?.sparePool && (data?.venueStatus === 'signed-off' || data?.status === 'out-of-service');
   const incidents = useVenueIncidents(data?.venueId ?? '', { enabled: !!data && competing });
   // An open one, else one resolved and waiting for the director's amendment (the strip is still out).
   const stripIncidents = incidents.data?.incidents.filter((i) => i.stripId === stripId) ?? [];
