@@ -89,7 +89,7 @@ async function signedOffVenue(director: Page) {
   expect(signed.status, 'sign-off').toBe(201);
   const venueCertificate = signed.body.certificates.find((c) => c.kind === 'venue')!.number;
   const stripCertificate = signed.body.certificates.find((c) => c.kind === 'strip')!.number;
-  return { venueId, stripId: plan.strips[0].id, installed, spare, venueCertificate, stripCertificate };
+  return { venueId, stripId: plan.strips[0].id, poolStripId: pool.body.stripId, installed, spare, venueCertificate, stripCertificate };
 }
 
 test('an incident on a signed-off venue: opened from the board, a spare swapped in and retested, resolved, amended, verified', async ({
@@ -228,6 +228,8 @@ test('an incident and its retest typed offline reach the server exactly once, ev
   await page.screenshot({ path: test.info().outputPath('offline-incident.png'), fullPage: true });
 
   // The first answer to the incident is lost on the way back: the server has it, the tablet does not know.
+  // Anything the server stamps from here on is later than the incident was typed on the tablet.
+  const backOnline = new Date().toISOString();
   let lost = false;
   await page.route('**/api/venues/*/incidents', async (route) => {
     if (route.request().method() !== 'POST' || lost) return route.fallback();
@@ -240,13 +242,44 @@ test('an incident and its retest typed offline reach the server exactly once, ev
   await expect(page.getByTestId('sync-indicator')).toHaveAttribute('data-state', 'up-to-date');
   expect(lost).toBe(true);
 
-  const list = await apiAs<{ incidents: { stripId: string; symptom: string; clientId: string | null }[] }>(
+  const list = await apiAs<{ incidents: { stripId: string; symptom: string; clientId: string | null; openedAt: string }[] }>(
     director,
     'GET',
     `/api/venues/${v.venueId}/incidents`,
   );
-  expect(list.body.incidents.filter((i) => i.stripId === v.stripId)).toHaveLength(1);
+  const mine = list.body.incidents.filter((i) => i.stripId === v.stripId);
+  expect(mine).toHaveLength(1);
+  // It counts from when it was typed offline, not from when it reached the server.
+  expect(mine[0].openedAt < backOnline).toBe(true);
   const readings = await apiAs<{ stripLabel: string; valueText: string }[]>(director, 'GET', `/api/venues/${v.venueId}/readings`);
   expect(readings.body.filter((r) => r.valueText === '0.6')).toHaveLength(3); // continuity A, B and C, once each
   await directorContext.close();
+});
+
+test('on a signed-off venue a new reading tells the strip is out of service; the spare pool offers no incident', async ({
+  page,
+  browser,
+}) => {
+  const directorContext = await browser.newContext();
+  const director = await directorContext.newPage();
+  await signIn(director, 'director');
+  const v = await signedOffVenue(director);
+  await directorContext.close();
+
+  await signIn(page, 'technician');
+  await page.goto(`/strips/${v.stripId}/test`);
+  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  await page.getByRole('group', { name: 'Layout' }).getByRole('button', { name: 'Step list' }).click();
+  const input = page.locator('li[data-step^="continuity"]').first().locator('input[id^="reading-"]');
+  await input.fill('0.7');
+  await input.press('Enter');
+  const notice = page.locator('[data-testid="queued"][data-status="notice"]');
+  await expect(notice).toContainText('This strip is now out of service until the director amends the venue');
+  await page.screenshot({ path: test.info().outputPath('strip-suspended-notice.png'), fullPage: true });
+
+  // The pool's own strip: spares are tested there, but it is no strip of the competition.
+  // The safety notice was acknowledged for this session on the first strip.
+  await page.goto(`/strips/${v.poolStripId}/test`);
+  await expect(page.locator('input[id^="reading-"]').first()).toBeVisible();
+  await expect(page.getByRole('button', { name: /Report a problem/ })).toHaveCount(0);
 });

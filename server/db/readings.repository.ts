@@ -36,7 +36,7 @@ export function readingsRepository(db: Db | Tx) {
               equipmentKind: positions.equipmentKind,
               equipmentId: positions.equipmentId,
             },
-            strip: { id: strips.id, label: strips.label },
+            strip: { id: strips.id, label: strips.label, outOfServiceSince: strips.outOfServiceSince },
             venue: { id: venues.id, status: venues.status, profileId: venues.profileId },
             event: { orgId: events.orgId, directorId: events.directorId },
             lengthM: equipment.lengthM,

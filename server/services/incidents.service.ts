@@ -15,6 +15,7 @@ import { presentIncidents } from '../presenters/incidents';
 import { retestOf } from './incident-retest';
 import { suspendStripIfSignedOff } from './venue-lifecycle';
 import { sparePool } from './spares.service';
+import { decideTakenAt } from '../../shared/domain/reading-time';
 import type { CreateIncidentInput, SwapInput } from '../../shared/schemas/incidents';
 
 function scopeOf(deps: AppDeps) {
@@ -47,13 +48,32 @@ function detail(scope: Scope, user: AuthUser, id: string) {
   return { incident, retest, canResolve: incident.status === 'open' && retest.complete && mayTest };
 }
 
+/** The same incident sent again: same venue, strip, position and symptom (the tablet's time may differ). */
+function sameIncident(
+  seen: { venueId: string; stripId: string; positionId: string | null; symptom: string },
+  venueId: string,
+  body: CreateIncidentInput,
+) {
+  return (
+    seen.venueId === venueId &&
+    seen.stripId === body.stripId &&
+    seen.positionId === (body.positionId ?? null) &&
+    seen.symptom === body.symptom
+  );
+}
+
 function open(scope: Scope, user: AuthUser, venueId: string, body: CreateIncidentInput) {
   const { deps, access, repo } = scope;
   access.requireVenue(user, venueId, 'test');
   if (body.clientId) {
     const seen = repo.byClientId(body.clientId);
-    if (seen && seen.venueId === venueId) return { replayed: true, incident: presentIncidents(deps.db, [repo.byId(seen.id)!])[0] };
-    if (seen) throw conflict('client-id-used', 'This clientId belongs to another incident; make a new one on the tablet.');
+    if (seen && sameIncident(seen, venueId, body)) return { replayed: true, incident: presentIncidents(deps.db, [repo.byId(seen.id)!])[0] };
+    // Never a second incident under one clientId: a tablet reusing it has a bug, not a new fault.
+    if (seen)
+      throw conflict(
+        'client-id-used',
+        'This clientId was already used for another incident; make a new one on the tablet and send it again.',
+      );
   }
   const { venue } = access.requireVenue(user, venueId, 'read');
   if (venue.status === 'planning')
@@ -66,6 +86,8 @@ function open(scope: Scope, user: AuthUser, venueId: string, body: CreateInciden
   const position = body.positionId ? plan.findPosition(body.positionId) : undefined;
   if (body.positionId && (!position || position.strip.id !== strip.id)) throw bad('positionId', `That position is not on ${strip.label}.`);
   const id = newId();
+  const receivedAt = nowIso();
+  const time = decideTakenAt(body.openedAt, receivedAt);
   deps.db.transaction((tx) => {
     incidentsRepository(tx).insert({
       id,
@@ -76,12 +98,15 @@ function open(scope: Scope, user: AuthUser, venueId: string, body: CreateInciden
       symptom: body.symptom,
       clientId: body.clientId ?? null,
       openedBy: user.id,
-      openedAt: nowIso(),
+      openedAt: time.takenAt,
     });
     recordAudit(tx, user, 'incident.opened', 'incident', id, {
       stripId: strip.id,
       positionId: position?.position.id ?? null,
       symptom: body.symptom,
+      // As for readings: the tablet's time is kept even when it was not believed.
+      ...(time.source === 'tablet' && time.takenAt !== receivedAt ? { openedAt: time.takenAt, receivedAt } : {}),
+      ...('refused' in time ? { tabletOpenedAt: time.refused.claimed, tabletClock: time.refused.why } : {}),
     });
     suspendStripIfSignedOff(tx, {
       venueId,

@@ -202,14 +202,19 @@ export function syncLoopSteps(tx: Tx, venueId: string, profile: LimitProfile, at
   }
 }
 
+// The spare pool is kept by the spares page (PUT /venues/:id/spares), never edited as a strip of the plan.
+const poolRefused = () => conflict('spare-pool', 'This is the venue’s spare pool, not a strip of the plan: change it on the spares page.');
+
 export function requireStrip(db: Db, stripId: string) {
   const strip = planRepository(db).findStrip(stripId);
   if (!strip) throw notFound('That strip');
+  if (strip.sparePool) throw poolRefused();
   return strip;
 }
 
 export function requirePosition(db: Db, positionId: string) {
   const found = planRepository(db).findPosition(positionId);
   if (!found) throw notFound('That position');
+  if (found.strip.sparePool) throw poolRefused();
   return found;
 }

@@ -220,8 +220,10 @@ function create(
     const judgement = judge(db, ctx, body, leadNullOhm);
     const row = storeReading(db, user, ctx, body, hash, judgement, { id: leadNullId, ohm: leadNullOhm });
     // The venue's status was read in this transaction: only a signed-off venue's strip is suspended.
+    // Told only when this reading took the strip out: a retest on a strip already out is expected.
     const stripSuspended =
       ctx.venue.status === 'signed-off' &&
+      !ctx.strip.outOfServiceSince &&
       suspendStripIfSignedOff(db, {
         venueId: ctx.venue.id,
         stripId: ctx.strip.id,

@@ -66,6 +66,7 @@ export function stripsService(deps: AppDeps) {
       status: stripStatus({ withdrawn: !!strip.withdrawnAt, steps: allSteps, openFaults: openFaults.length }),
       zone: strip.zone,
       conductivePiste: strip.conductivePiste,
+      sparePool: strip.sparePool,
       withdrawnReason: strip.withdrawnReason,
       venueId: venue.id,
       venueName: venue.name,

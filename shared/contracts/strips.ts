@@ -11,6 +11,8 @@ export const stripDetailSchema = z.strictObject({
   status: stripStatus,
   zone: z.string().nullable(),
   conductivePiste: z.boolean(),
+  /** The venue's spare pool (never on the board or a certificate): spares are tested here, no incident opened. */
+  sparePool: z.boolean(),
   withdrawnReason: z.string().nullable(),
   venueId: z.string(),
   venueName: z.string(),

@@ -21,6 +21,11 @@ export const createIncidentSchema = z
       .max(500, 'Keep the symptom under 500 characters.'),
     /** Made on the tablet when the incident is typed: sending it again answers the same incident. */
     clientId: z.uuid({ error: 'clientId must be a UUID made on the tablet.' }).optional(),
+    /** When the technician tapped the symptom on the tablet; believed within the window readings use. */
+    openedAt: z.iso
+      .datetime({ offset: true, error: 'openedAt must be a date and time in ISO 8601, e.g. 2026-11-14T07:05:00Z' })
+      .nullable()
+      .optional(),
   })
   .strict();
 export type CreateIncidentInput = z.infer<typeof createIncidentSchema>;

@@ -107,8 +107,6 @@ export const readingDtoSchema = z.strictObject({
   takenBy: z.string(),
   takenByName: z.string().nullable(),
   faultId: z.string().nullable().optional(),
-  /** Only in the answer to POST /api/readings: this reading re-opened a signed-off venue. */
-  venueReopened: z.boolean().optional(),
   /** Only in the answer to POST /api/readings: this reading put its strip out of service (signed-off venue). */
   stripSuspended: z.boolean().optional(),
 });

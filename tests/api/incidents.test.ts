@@ -52,8 +52,12 @@ describe('an incident from opening to the amended certificate', () => {
     expect(pool.body.spares[0].stepsTotal).toBe(7);
     const lee = await t.agentFor(DEMO.annexTechnician);
     const strip = (await lee.get(`/api/strips/${pool.body.stripId}`).expect(200)).body as {
+      sparePool: boolean;
       positions: { steps: { id: string; testKind: string }[] }[];
     };
+    // The strip answer says it is the pool (the testing screen offers no incident on it).
+    expect(strip.sparePool).toBe(true);
+    expect((await lee.get(`/api/strips/${(await stripByLabel(t, annex, 'Annex 1')).id}`).expect(200)).body.sparePool).toBe(false);
     for (const step of strip.positions[0].steps) {
       await lee.post('/api/readings').send(newReading(step.id, GOOD_VALUE[step.testKind])).expect(201);
     }
@@ -62,6 +66,28 @@ describe('an incident from opening to the amended certificate', () => {
     // The pool is no strip of the venue: the board does not list it.
     const board = await marco.get(`/api/venues/${annex}/board`).expect(200);
     expect(board.body.strips.map((s: { id: string }) => s.id)).not.toContain(pool.body.stripId);
+  });
+
+  test('the director cannot edit the pool through the plan routes: 409 problem+json, the pool unchanged', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const poolId = (await marco.get(`/api/venues/${annex}/spares`).expect(200)).body.stripId as string;
+    const before = (await marco.get(`/api/strips/${poolId}`).expect(200)).body as { label: string; positions: { id: string }[] };
+    const tag = (await marco.get(`/api/venues/${annex}`)).headers.etag as string;
+    const attempts = [
+      marco.patch(`/api/strips/${poolId}`).set('If-Match', tag).send({ label: 'Pool renamed' }),
+      marco.post(`/api/strips/${poolId}/withdraw`).set('If-Match', tag).send({ reason: 'Not needed today' }),
+      marco.post(`/api/strips/${poolId}/positions`).set('If-Match', tag).send({ name: 'Extra reel', equipmentKind: 'reel' }),
+      marco.delete(`/api/positions/${before.positions[0].id}`).set('If-Match', tag),
+    ];
+    for (const res of await Promise.all(attempts)) {
+      expect(res.status, JSON.stringify(res.body)).toBe(409);
+      expect(res.headers['content-type']).toContain('application/problem+json');
+      expect(res.body.code).toBe('spare-pool');
+    }
+    const after = (await marco.get(`/api/strips/${poolId}`).expect(200)).body as typeof before;
+    expect(after.label).toBe(before.label);
+    expect(after.positions.map((p) => p.id)).toEqual(before.positions.map((p) => p.id));
+    expect((await marco.get(`/api/venues/${annex}/spares`).expect(200)).body.spares).toHaveLength(1);
   });
 
   test('the venue is signed off; an incident on Annex 2 suspends that strip only (the same clientId twice is one incident)', async () => {
@@ -275,5 +301,72 @@ describe('who may open incidents', () => {
     expect(res.status).toBe(422);
     expect(res.headers['content-type']).toContain('application/problem+json');
     expect(res.body.errors.map((e: { path: string }) => e.path)).toEqual(expect.arrayContaining(['stripId', 'symptom']));
+  });
+});
+
+describe('the tablet’s time on an incident typed offline', () => {
+  const minutesAgo = (m: number) => new Date(Date.now() - m * 60_000).toISOString();
+
+  test('a replay with an earlier openedAt keeps it; a retest taken after it, received before the incident, counts for resolve', async () => {
+    const lee = await t.agentFor(DEMO.annexTechnician);
+    const strip = await stripByLabel(t, annex, 'Annex 1');
+    const reel = strip.positions.find((p) => p.name === 'Left reel')!;
+    const openedAt = minutesAgo(10);
+    // The readings of the retest reach the server first (the tablet sends readings before incidents).
+    for (const step of reel.steps) {
+      const r = await lee.post('/api/readings').send(newReading(step.id, GOOD_VALUE[step.testKind], { takenAt: minutesAgo(5) }));
+      expect(r.status, JSON.stringify(r.body)).toBe(201);
+    }
+    const body = { stripId: strip.id, positionId: reel.id, symptom: 'Reel jammed half way', clientId: randomUUID(), openedAt };
+    const res = await lee.post(`/api/venues/${annex}/incidents`).send(body);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.openedAt).toBe(openedAt);
+    const detail = await lee.get(`/api/incidents/${res.body.id}`).expect(200);
+    const mine = (detail.body.retest.steps as RetestStep[]).filter((s) => s.why === 'after-incident');
+    expect(mine).toHaveLength(reel.steps.length);
+    expect(mine.every((s) => s.done)).toBe(true);
+    expect(detail.body.canResolve).toBe(true);
+    const resolved = await lee.post(`/api/incidents/${res.body.id}/resolve`);
+    expect(resolved.status, JSON.stringify(resolved.body)).toBe(200);
+  });
+
+  test('a tablet time outside the readings’ window is not believed: arrival time, the tablet’s kept in the audit', async () => {
+    const lee = await t.agentFor(DEMO.annexTechnician);
+    const strip = await stripByLabel(t, annex, 'Annex 1');
+    // Older than the 7 days a tablet keeps its queue (shared/domain/reading-time.ts).
+    const claimed = minutesAgo(8 * 24 * 60);
+    const before = new Date().toISOString();
+    const res = await lee
+      .post(`/api/venues/${annex}/incidents`)
+      .send({ stripId: strip.id, symptom: 'Box lights flicker', openedAt: claimed });
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body.openedAt >= before).toBe(true);
+    const audit = t.db.select().from(auditLog).where(eq(auditLog.entityId, res.body.id)).all();
+    const opened = audit.find((a) => a.action === 'incident.opened')!;
+    expect(JSON.parse(opened.detailJson)).toMatchObject({ tabletOpenedAt: claimed, tabletClock: 'too-old' });
+  });
+
+  test('the same clientId with another strip or symptom is 409 problem+json, never a second incident', async () => {
+    const lee = await t.agentFor(DEMO.annexTechnician);
+    const one = await stripByLabel(t, annex, 'Annex 1');
+    const two = await stripByLabel(t, annex, 'Annex 2');
+    const clientId = randomUUID();
+    const body = { stripId: one.id, symptom: 'Scoring box dead', clientId, openedAt: minutesAgo(3) };
+    const first = await lee.post(`/api/venues/${annex}/incidents`).send(body);
+    expect(first.status, JSON.stringify(first.body)).toBe(201);
+    const same = await lee.post(`/api/venues/${annex}/incidents`).send(body);
+    expect(same.status).toBe(200);
+    expect(same.body).toEqual(first.body);
+    for (const other of [
+      { ...body, stripId: two.id },
+      { ...body, symptom: 'Floor cable cut' },
+    ]) {
+      const res = await lee.post(`/api/venues/${annex}/incidents`).send(other);
+      expect(res.status).toBe(409);
+      expect(res.headers['content-type']).toContain('application/problem+json');
+      expect(res.body.code).toBe('client-id-used');
+      expect(res.body.detail).toMatch(/already used for another incident/);
+    }
+    expect(t.db.select().from(incidents).where(eq(incidents.clientId, clientId)).all()).toHaveLength(1);
   });
 });

@@ -332,6 +332,8 @@ describe('POST /api/readings — on a signed-off venue', () => {
     expect(res.body).not.toHaveProperty('venueReopened');
     const next = await lee.post('/api/readings').send(newReading(stepOf(strip, 'Left reel', 'continuity', 'B').step.id, '1.3'));
     expect(next.status).toBe(201);
+    // The strip was already out: nothing new to tell the tablet (no notice for every retest reading).
+    expect(next.body).not.toHaveProperty('stripSuspended');
     expect(t.db.select().from(venues).where(eq(venues.id, annex)).get()!.status).toBe('signed-off');
     expect(t.db.select().from(signOffs).where(eq(signOffs.id, signOffId)).get()!.status).toBe('active');
     const byNumber = new Map(

@@ -8,6 +8,7 @@ import {
   makeSeq,
   nextDueAt,
   planIncidentSend,
+  incidentRequest,
   planSend,
   retryDelayMs,
   summarize,
@@ -41,10 +42,10 @@ function item(over: Partial<QueuedReading> & { step?: string } = {}): QueuedRead
 }
 
 describe('classifyAnswer', () => {
-  test('when the server answers 2xx, then the reading is done, and says whether it re-opened a signed-off venue', () => {
-    expect(classifyAnswer({ kind: 'http', status: 201 })).toEqual({ kind: 'done', venueReopened: false });
-    expect(classifyAnswer({ kind: 'http', status: 200 })).toEqual({ kind: 'done', venueReopened: false });
-    expect(classifyAnswer({ kind: 'http', status: 201, venueReopened: true })).toEqual({ kind: 'done', venueReopened: true });
+  test('when the server answers 2xx, then the reading is done, and says whether it put its strip of a signed-off venue out of service', () => {
+    expect(classifyAnswer({ kind: 'http', status: 201 })).toEqual({ kind: 'done', stripSuspended: false });
+    expect(classifyAnswer({ kind: 'http', status: 200 })).toEqual({ kind: 'done', stripSuspended: false });
+    expect(classifyAnswer({ kind: 'http', status: 201, stripSuspended: true })).toEqual({ kind: 'done', stripSuspended: true });
   });
 
   test('when there is no answer, a 5xx, a 429 or a lapsed session, then it is sent again later', () => {
@@ -71,13 +72,14 @@ describe('classifyAnswer', () => {
 
 describe('applyOutcome', () => {
   test('when done with nothing to tell, then the item leaves the queue', () => {
-    expect(applyOutcome(item(), { kind: 'done', venueReopened: false }, 0)).toBeNull();
+    expect(applyOutcome(item(), { kind: 'done', stripSuspended: false }, 0)).toBeNull();
   });
 
-  test('when done on a venue signed off meanwhile, then the item stays as a notice to read', () => {
-    const next = applyOutcome(item(), { kind: 'done', venueReopened: true }, 0)!;
+  test('when done on a venue signed off meanwhile, then the item stays as a notice: its strip is out of service', () => {
+    const next = applyOutcome(item(), { kind: 'done', stripSuspended: true }, 0)!;
     expect(next.status).toBe('notice');
-    expect(next.problem?.kind).toBe('venue-reopened');
+    expect(next.problem?.kind).toBe('strip-suspended');
+    expect(next.problem?.message).toMatch(/this strip is now out of service until the director amends the venue/);
   });
 
   test('when refused, then the item stays with its value and the problem, never dropped', () => {
@@ -156,7 +158,8 @@ describe('planSend', () => {
 
 describe('answersFromBatch', () => {
   const bodies = [item(), item(), item(), item()].map((i) => i.body);
-  const reading = (id: string, venueReopened?: boolean) => ({ id, verdict: 'pass', ...(venueReopened ? { venueReopened } : {}) }) as never;
+  const reading = (id: string, stripSuspended?: boolean) =>
+    ({ id, verdict: 'pass', ...(stripSuspended ? { stripSuspended } : {}) }) as never;
   const problem = (status: number, code: string, detail: string) => ({ type: `/problems/${code}`, title: 't', status, code, detail });
 
   test('each result is read as the answer that reading would have had alone, and leads to the same outcome', () => {
@@ -170,8 +173,8 @@ describe('answersFromBatch', () => {
       ],
     });
     expect(answers.map((a) => classifyAnswer(a.answer))).toEqual([
-      { kind: 'done', venueReopened: false },
-      { kind: 'done', venueReopened: true },
+      { kind: 'done', stripSuspended: false },
+      { kind: 'done', stripSuspended: true },
       {
         kind: 'problem',
         problem: { kind: 'step-removed', status: 409, code: 'step-removed', message: 'This step was taken off the checklist' },
@@ -312,6 +315,16 @@ describe('incidents in the outbox', () => {
     const refused = incident({ status: 'problem' });
     expect(planIncidentSend([later, other, refused, first], { userId: SAM, nowMs: 1_000 }).map((i) => i.id)).toEqual([first.id]);
     expect(planIncidentSend([later, first], { userId: SAM, nowMs: 1_000, force: true }).map((i) => i.id)).toEqual([first.id, later.id]);
+  });
+
+  test('an incident is sent with the time it was typed on the tablet as openedAt, its clientId unchanged', () => {
+    const i = incident({ createdAt: '2026-11-21T07:42:10.000Z' });
+    expect(incidentRequest(i)).toEqual({
+      clientId: i.id,
+      stripId: 'strip',
+      symptom: 'Touches not showing',
+      openedAt: '2026-11-21T07:42:10.000Z',
+    });
   });
 
   test('a replay the server has already (200 with the same incident) leaves the queue, as a first send (201) does: it is kept once', () => {

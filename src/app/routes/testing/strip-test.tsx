@@ -15,7 +15,7 @@ import { syncLook, syncWords } from '@/features/offline/components/sync-indicato
 import { useOutbox } from '@/features/offline/hooks/use-outbox';
 import { enqueueReading, recordLeadNull } from '@/features/offline/stores/outbox';
 import { newReadingId } from '@/features/offline/utils/reading-id';
-import { PROBLEM_HELP } from '@/features/offline/components/queue-list';
+import { problemHelp } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
 import { LabelScanner } from '@/features/labels/components/label-scanner';
@@ -65,7 +65,8 @@ export default function StripTestPage() {
   const canWrite = me.data?.role === 'technician' || me.data?.role === 'director';
   const data = strip.data;
   // Competition days: the strip's open incident (or one opened on this tablet, not sent yet).
-  const competing = data?.venueStatus === 'signed-off' || data?.status === 'out-of-service';
+  // The spare pool is no strip of the competition: its spares are tested, never reported on.
+  const competing = !data?.sparePool && (data?.venueStatus === 'signed-off' || data?.status === 'out-of-service');
   const incidents = useVenueIncidents(data?.venueId ?? '', { enabled: !!data && competing });
   // An open one, else one resolved and waiting for the director's amendment (the strip is still out).
   const stripIncidents = incidents.data?.incidents.filter((i) => i.stripId === stripId) ?? [];
@@ -85,7 +86,7 @@ export default function StripTestPage() {
         status: i.status === 'waiting' ? (outbox.syncing ? 'sending' : 'waiting') : i.status,
         display: i.preview?.display ?? i.body.value,
         verdict: i.preview?.verdict ?? null,
-        title: i.problem ? PROBLEM_HELP[i.problem.kind].title : undefined,
+        title: i.problem ? problemHelp(i.problem.kind).title : undefined,
       });
     }
     return byStep;

@@ -3,7 +3,7 @@ import { readingsContracts } from '@shared/contracts/readings';
 import type { ReadingDto } from '@shared/schemas/readings';
 import type { Answer, ReadingBody } from '../utils/queue';
 
-/** The stored reading; venueReopened when it re-opened a signed-off venue. */
+/** The stored reading; stripSuspended when it put its strip of a signed-off venue out of service. */
 export type SentReading = ReadingDto;
 
 /**
@@ -14,7 +14,7 @@ export type SentReading = ReadingDto;
 export async function sendReading(body: ReadingBody): Promise<{ answer: Answer; reading?: SentReading }> {
   try {
     const reading = await call(readingsContracts.record, { body });
-    return { answer: { kind: 'http', status: 200, venueReopened: reading.venueReopened === true }, reading };
+    return { answer: { kind: 'http', status: 200, stripSuspended: reading.stripSuspended === true }, reading };
   } catch (err) {
     if (err instanceof ApiError) return { answer: { kind: 'http', status: err.status, code: err.code, message: err.message } };
     return { answer: { kind: 'network' } };

@@ -33,11 +33,16 @@ export const PROBLEM_HELP: Record<ProblemKind, { title: string; todo: string }> 
     title: 'The server did not accept it',
     todo: 'Check the value. If it was mistyped, set it aside and type it again on the testing screen; otherwise send it again.',
   },
-  'venue-reopened': {
-    title: 'This venue was signed off; your reading re-opened it',
-    todo: 'The reading is recorded. The venue’s sign-off and certificates are superseded: tell the technical director it needs a new sign-off.',
+  'strip-suspended': {
+    title: 'This strip is now out of service until the director amends the venue',
+    todo: 'The reading is recorded. The venue was signed off, so a new reading takes its strip out of service; the other strips stay certified. Tell the technical director.',
   },
 };
+
+/** A kind this version no longer makes (kept on a tablet from an older one) reads as a plain refusal. */
+export function problemHelp(kind: ProblemKind) {
+  return PROBLEM_HELP[kind] ?? PROBLEM_HELP.refused;
+}
 
 function ItemHead({ item }: { item: QueuedReading }) {
   const v = item.preview ? verdictLook[item.preview.verdict] : null;
@@ -87,7 +92,7 @@ function SetAsideButton({ item }: { item: QueuedReading }) {
 /** One reading that needs the technician: what happened, what to do, and the choices. */
 export function ProblemCard({ item, moveTo }: { item: QueuedReading; moveTo?: ReactNode }) {
   const kind = item.problem?.kind ?? 'refused';
-  const help = PROBLEM_HELP[kind];
+  const help = problemHelp(kind);
   const notice = item.status === 'notice';
   return (
     <li
@@ -106,7 +111,7 @@ export function ProblemCard({ item, moveTo }: { item: QueuedReading; moveTo?: Re
       </p>
       <ItemHead item={item} />
       <p className="mt-2 text-sm">{help.todo}</p>
-      {item.problem && kind !== 'venue-reopened' && <p className="mt-1 text-xs text-ink-soft">The server said: {item.problem.message}</p>}
+      {item.problem && kind !== 'strip-suspended' && <p className="mt-1 text-xs text-ink-soft">The server said: {item.problem.message}</p>}
       <div className="mt-3 flex flex-wrap items-center gap-2">
         {notice ? (
           <Button onClick={() => void acknowledge(item.id)}>Understood</Button>
@@ -213,7 +218,7 @@ export function QueueList({
                 <li key={i.id} className="flex flex-wrap items-center justify-between gap-3 px-4 py-3" data-testid="set-aside">
                   <div>
                     <ItemHead item={i} />
-                    {i.problem && <p className="mt-1 text-xs text-ink-soft">{PROBLEM_HELP[i.problem.kind].title}.</p>}
+                    {i.problem && <p className="mt-1 text-xs text-ink-soft">{problemHelp(i.problem.kind).title}.</p>}
                   </div>
                   <Button variant="secondary" onClick={() => void tryAgain(i.id)}>
                     Send it after all

@@ -18,6 +18,7 @@ import {
   makeSeq,
   nextDueAt,
   planIncidentSend,
+  incidentRequest,
   planSend,
   upgradeLegacyItems,
   type Answer,
@@ -242,7 +243,7 @@ async function sendIncidents(userId: string, force: boolean, touched: { stripIds
   for (const item of planIncidentSend(state.incidents, { userId, nowMs: Date.now(), force })) {
     if (browserSaysOffline()) return 'network';
     setState({ syncing: true });
-    const { answer, incident } = await sendIncident(item.venueId, item.body);
+    const { answer, incident } = await sendIncident(item.venueId, incidentRequest(item));
     if (answer.kind === 'network') serverDidNotAnswer();
     else serverAnswered();
     const outcome = classifyAnswer(answer);

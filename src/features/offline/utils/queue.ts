@@ -12,7 +12,7 @@ export type { LeadNullRecord };
  */
 export type QueueStatus = 'waiting' | 'problem' | 'notice' | 'set-aside';
 
-export type ProblemKind = 'step-removed' | 'not-assigned' | 'not-found' | 'refused' | 'venue-reopened';
+export type ProblemKind = 'step-removed' | 'not-assigned' | 'not-found' | 'refused' | 'strip-suspended';
 
 export interface Problem {
   kind: ProblemKind;
@@ -64,12 +64,12 @@ export interface QueuedReading {
 
 /** What came back from one send: nothing at all, or an HTTP answer. */
 export type Answer =
-  { kind: 'network' } | { kind: 'http'; status: number; code?: string; message?: string; venueReopened?: boolean; retryAfterS?: number };
+  { kind: 'network' } | { kind: 'http'; status: number; code?: string; message?: string; stripSuspended?: boolean; retryAfterS?: number };
 
 /** A reading's answer taken out of a batch, with the stored reading when it was recorded. */
 export interface BatchAnswer {
   answer: Answer;
-  reading?: ReadingDto & { venueReopened?: boolean };
+  reading?: ReadingDto;
 }
 
 /** What came back from one batch: nothing, a refusal of the whole request, or a result per reading. */
@@ -89,7 +89,7 @@ export function answersFromBatch(bodies: ReadingBody[], reply: BatchReply): Batc
     const r = reply.results[i];
     if (!r || r.id !== body.id) return { answer: { kind: 'network' } };
     if (r.status >= 200 && r.status < 300 && r.reading) {
-      return { answer: { kind: 'http', status: r.status, venueReopened: r.reading.venueReopened === true }, reading: r.reading };
+      return { answer: { kind: 'http', status: r.status, stripSuspended: r.reading.stripSuspended === true }, reading: r.reading };
     }
     return { answer: { kind: 'http', status: r.status, code: r.problem?.code, message: r.problem?.detail } };
   });
@@ -103,7 +103,7 @@ export function inBatches<T>(items: T[], size = READINGS_BATCH_MAX): T[][] {
 }
 
 export type Outcome =
-  | { kind: 'done'; venueReopened: boolean }
+  | { kind: 'done'; stripSuspended: boolean }
   | { kind: 'retry'; reason: 'network' | 'server' | 'busy' | 'signed-out'; retryAfterMs?: number }
   | { kind: 'problem'; problem: Omit<Problem, 'at'> };
 
@@ -113,7 +113,7 @@ export function classifyAnswer(a: Answer): Outcome {
   const { status } = a;
   const code = a.code ?? 'error';
   const message = a.message ?? `The server answered ${status}.`;
-  if (status >= 200 && status < 300) return { kind: 'done', venueReopened: a.venueReopened === true };
+  if (status >= 200 && status < 300) return { kind: 'done', stripSuspended: a.stripSuspended === true };
   if (status === 401) return { kind: 'retry', reason: 'signed-out' };
   if (status === 429 || status === 408 || status === 503) {
     return { kind: 'retry', reason: 'busy', retryAfterMs: a.retryAfterS !== undefined ? a.retryAfterS * 1000 : undefined };
@@ -141,16 +141,17 @@ export function applyOutcome<T extends QueuedReading | QueuedIncident>(item: T, 
   const at = new Date(nowMs).toISOString();
   switch (outcome.kind) {
     case 'done':
-      if (!outcome.venueReopened) return null;
+      if (!outcome.stripSuspended) return null;
+      // A change on a signed-off venue suspends its strip only (the venue certificate stays valid).
       return {
         ...item,
         status: 'notice',
         problem: {
-          kind: 'venue-reopened',
+          kind: 'strip-suspended',
           status: 201,
-          code: 'venue-reopened',
+          code: 'strip-suspended',
           message:
-            'This venue had been signed off meanwhile; your reading is recorded and re-opened it. Tell the technical director: the venue needs a new sign-off.',
+            'The venue was signed off; your reading is recorded and this strip is now out of service until the director amends the venue.',
           at,
         },
       };
@@ -289,6 +290,8 @@ export interface IncidentBody {
   stripId: string;
   positionId?: string | null;
   symptom: string;
+  /** When the technician tapped the symptom: the server counts the incident from then. */
+  openedAt?: string | null;
 }
 
 /** An incident typed on the tablet and not on the server yet; the same rules as a reading's. */
@@ -308,6 +311,14 @@ export interface QueuedIncident {
   attempts: number;
   nextAttemptAt: number;
   problem?: Problem;
+}
+
+/**
+ * What is sent for a queued incident: its body with the time it was typed here, so one sent
+ * much later still counts from then (and a retest typed after it counts as after it).
+ */
+export function incidentRequest(item: QueuedIncident): IncidentBody {
+  return { ...item.body, openedAt: item.createdAt };
 }
 
 /**
