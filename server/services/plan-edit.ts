@@ -205,16 +205,20 @@ export function syncLoopSteps(tx: Tx, venueId: string, profile: LimitProfile, at
 // The spare pool is kept by the spares page (PUT /venues/:id/spares), never edited as a strip of the plan.
 const poolRefused = () => conflict('spare-pool', 'This is the venue’s spare pool, not a strip of the plan: change it on the spares page.');
 
-export function requireStrip(db: Db, stripId: string) {
+// The caller's access to the venue is checked before the pool is named: another organisation's
+// strip answers 404 whatever it is.
+export function requireStrip(db: Db, user: AuthUser, stripId: string) {
   const strip = planRepository(db).findStrip(stripId);
   if (!strip) throw notFound('That strip');
+  accessService(db).requireVenue(user, strip.venueId, 'read');
   if (strip.sparePool) throw poolRefused();
   return strip;
 }
 
-export function requirePosition(db: Db, positionId: string) {
+export function requirePosition(db: Db, user: AuthUser, positionId: string) {
   const found = planRepository(db).findPosition(positionId);
   if (!found) throw notFound('That position');
+  accessService(db).requireVenue(user, found.strip.venueId, 'read');
   if (found.strip.sparePool) throw poolRefused();
   return found;
 }

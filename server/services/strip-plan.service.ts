@@ -15,7 +15,7 @@ import { EQUIPMENT_KIND_LABELS } from '../../shared/schemas/equipment';
 import type { AddPositionValues, AddStepInput, UpdateStripValues } from '../../shared/schemas/plan';
 
 function updateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: string | undefined, body: UpdateStripValues) {
-  const strip = requireStrip(deps.db, stripId);
+  const strip = requireStrip(deps.db, user, stripId);
   const { assetTags, ...input } = body;
   return editPlan(deps, user, strip.venueId, ifMatch, `strip ${strip.label} changed`, (tx, { venue }) => {
     const r = planRepository(tx);
@@ -63,7 +63,7 @@ function updateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: st
 }
 
 function withdrawStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: string | undefined, reason: string) {
-  const strip = requireStrip(deps.db, stripId);
+  const strip = requireStrip(deps.db, user, stripId);
   return editPlan(deps, user, strip.venueId, ifMatch, `strip ${strip.label} withdrawn`, (tx) => {
     if (strip.withdrawnAt) throw conflict('already-withdrawn', `${strip.label} is already withdrawn (${strip.withdrawnReason}).`);
     planRepository(tx).updateStrip(stripId, { withdrawnReason: reason, withdrawnAt: nowIso() });
@@ -72,7 +72,7 @@ function withdrawStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: 
 }
 
 function reinstateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: string | undefined) {
-  const strip = requireStrip(deps.db, stripId);
+  const strip = requireStrip(deps.db, user, stripId);
   return editPlan(deps, user, strip.venueId, ifMatch, `strip ${strip.label} reinstated`, (tx) => {
     if (!strip.withdrawnAt) throw conflict('not-withdrawn', `${strip.label} is not withdrawn.`);
     planRepository(tx).updateStrip(stripId, { withdrawnReason: null, withdrawnAt: null });
@@ -86,7 +86,7 @@ function reinstateStrip(deps: AppDeps, user: AuthUser, stripId: string, ifMatch:
 
 /** Attach a register item to a position by its asset tag, or take it off (null). */
 function attachEquipment(deps: AppDeps, user: AuthUser, positionId: string, ifMatch: string | undefined, assetTag: string | null) {
-  const { position, strip } = requirePosition(deps.db, positionId);
+  const { position, strip } = requirePosition(deps.db, user, positionId);
   return editPlan(deps, user, strip.venueId, ifMatch, `${strip.label} ${position.name} equipment`, (tx) => {
     const eq = equipmentRepository(tx);
     const before = position.equipmentId ? eq.findById(position.equipmentId) : null;
@@ -116,7 +116,7 @@ function attachEquipment(deps: AppDeps, user: AuthUser, positionId: string, ifMa
 
 /** A position added to one strip by hand: it goes last, gets its kind's steps and, with a tag, its item. */
 function addPosition(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: string | undefined, input: AddPositionValues) {
-  const strip = requireStrip(deps.db, stripId);
+  const strip = requireStrip(deps.db, user, stripId);
   return editPlan(deps, user, strip.venueId, ifMatch, `${strip.label} position ${input.name} added`, (tx, { venue }) => {
     if (strip.withdrawnAt) {
       throw conflict(
@@ -155,7 +155,7 @@ function addPosition(deps: AppDeps, user: AuthUser, stripId: string, ifMatch: st
  * readings and faults are kept, so a tested position stays and its steps are dropped instead.
  */
 function removePosition(deps: AppDeps, user: AuthUser, positionId: string, ifMatch: string | undefined) {
-  const { position, strip } = requirePosition(deps.db, positionId);
+  const { position, strip } = requirePosition(deps.db, user, positionId);
   return editPlan(deps, user, strip.venueId, ifMatch, `${strip.label} position ${position.name} removed`, (tx) => {
     const r = planRepository(tx);
     const records = r.recordsOfPosition(positionId);
@@ -189,7 +189,7 @@ function removePosition(deps: AppDeps, user: AuthUser, positionId: string, ifMat
 }
 
 function addStep(deps: AppDeps, user: AuthUser, positionId: string, ifMatch: string | undefined, input: AddStepInput) {
-  const { position, strip } = requirePosition(deps.db, positionId);
+  const { position, strip } = requirePosition(deps.db, user, positionId);
   return editPlan(deps, user, strip.venueId, ifMatch, `${strip.label} ${position.name} step added`, (tx, { venue }) => {
     const r = planRepository(tx);
     const profile = profileOf(tx, venue.profileId);

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { randomUUID } from 'node:crypto';
 import { eq } from 'drizzle-orm';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
-import { addOtherOrg, OTHER_ADMIN, OTHER_PASSWORD } from '../setup/other-org';
+import { addOtherOrg, OTHER_ADMIN, OTHER_DIRECTOR, OTHER_PASSWORD } from '../setup/other-org';
 import { pdfText } from '../setup/pdf-read';
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from './testing-helpers';
 import { auditLog, certificates, incidents, strips, venues } from '../../server/db/schema';
@@ -88,6 +88,11 @@ describe('an incident from opening to the amended certificate', () => {
     expect(after.label).toBe(before.label);
     expect(after.positions.map((p) => p.id)).toEqual(before.positions.map((p) => p.id));
     expect((await marco.get(`/api/venues/${annex}/spares`).expect(200)).body.spares).toHaveLength(1);
+    // Another organisation learns nothing of the strip, not even that it is a pool (ASVS 8.2.2).
+    const other = await t.agentFor(OTHER_DIRECTOR, OTHER_PASSWORD);
+    const foreign = await other.patch(`/api/strips/${poolId}`).set('If-Match', tag).send({ label: 'Pool renamed' });
+    expect(foreign.status, JSON.stringify(foreign.body)).toBe(404);
+    expect(foreign.headers['content-type']).toContain('application/problem+json');
   });
 
   test('the venue is signed off; an incident on Annex 2 suspends that strip only (the same clientId twice is one incident)', async () => {
