@@ -2,6 +2,7 @@
 import type { Db, Tx } from '../db/client';
 import { incidentsRepository, type IncidentListRow } from '../db/incidents.repository';
 import { certificatesRepository } from '../db/certificates.repository';
+import { minutesOutOfService } from '../../shared/domain/out-of-service';
 
 type Item = {
   id: string;
@@ -10,11 +11,6 @@ type Item = {
   description: string;
 };
 const itemRef = (e: Item | null) => (e ? { id: e.id, assetTag: e.assetTag, kind: e.kind, description: e.description } : null);
-
-/** Whole minutes from opening to resolving (to `now` while open), rounded up: a strip out for 10 s was out. */
-export function minutesBetween(from: string, to: string): number {
-  return Math.max(0, Math.ceil((Date.parse(to) - Date.parse(from)) / 60_000));
-}
 
 export function presentIncidents(db: Db | Tx, rows: IncidentListRow[], now = new Date().toISOString()) {
   const repo = incidentsRepository(db);
@@ -45,7 +41,7 @@ export function presentIncidents(db: Db | Tx, rows: IncidentListRow[], now = new
     openedByName,
     resolvedAt: i.resolvedAt,
     resolvedBy: i.resolvedBy,
-    minutesOutOfService: minutesBetween(i.openedAt, i.resolvedAt ?? now),
+    minutesOutOfService: minutesOutOfService(i.openedAt, i.resolvedAt ?? now),
     swaps: swaps
       .filter((s) => s.swap.incidentId === i.id)
       .map((s) => ({

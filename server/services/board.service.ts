@@ -7,7 +7,7 @@ import { presentFaultList } from '../presenters/faults';
 import { faultsRepository } from '../db/faults.repository';
 import type { StripStatus } from '../../shared/domain/progress';
 import { incidentsRepository } from '../db/incidents.repository';
-import { minutesBetween } from '../presenters/incidents';
+import { minutesOutOfService } from '../../shared/domain/out-of-service';
 
 type Progress = ReturnType<ReturnType<typeof venuesService>['stripProgress']>;
 
@@ -27,7 +27,7 @@ function withIncidents(deps: AppDeps, venueId: string, progress: Progress) {
     return {
       p,
       outOfServiceSince: since,
-      minutesSinceIncident: since && from ? minutesBetween(from, now) : null,
+      minutesSinceIncident: since && from ? minutesOutOfService(from, now) : null,
       openIncidents: mine.length,
     };
   });

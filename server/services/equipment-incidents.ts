@@ -4,7 +4,7 @@
 import type { Db } from '../db/client';
 import type { EquipmentRow } from '../db/equipment.repository';
 import { incidentsRepository, itemIncidentsRepository } from '../db/incidents.repository';
-import { minutesBetween } from '../presenters/incidents';
+import { minutesOutOfService } from '../../shared/domain/out-of-service';
 import { REPEATED_INCIDENTS } from '../../shared/schemas/incidents';
 
 type Role = 'in-position' | 'removed' | 'installed';
@@ -36,7 +36,7 @@ export function incidentHistory(db: Db, item: EquipmentRow, mayShow: (venueId: s
     status: i.status,
     openedAt: i.openedAt,
     resolvedAt: i.resolvedAt,
-    minutesOutOfService: minutesBetween(i.openedAt, i.resolvedAt ?? now),
+    minutesOutOfService: minutesOutOfService(i.openedAt, i.resolvedAt ?? now),
     role: roles.get(i.id) ?? ('in-position' as const),
   }));
   // Counted on the item's own trouble: the incidents it was in or taken out for, not those it was put in to mend.

@@ -1,20 +1,21 @@
 import { describe, expect, test } from 'vitest';
 import { ApiError } from '../../src/lib/api-client';
-import { minutesBetween, minutesText } from '../../src/lib/minutes';
+import { minutesText } from '../../src/lib/minutes';
+import { minutesOutOfService } from '../../shared/domain/out-of-service';
 import { missingFromError } from '../../src/features/incidents/utils/missing-steps';
 import { retestStepSchema } from '../../shared/contracts/incidents';
 
 describe('minutes out of service', () => {
   const opened = '2026-11-21T10:00:00.000Z';
   test('count whole minutes rounded up, as the incidents contract defines minutesOutOfService', () => {
-    expect(minutesBetween(opened, Date.parse('2026-11-21T10:00:20.000Z'))).toBe(1);
-    expect(minutesBetween(opened, Date.parse('2026-11-21T10:12:00.000Z'))).toBe(12);
-    expect(minutesBetween(opened, Date.parse('2026-11-21T10:12:01.000Z'))).toBe(13);
+    expect(minutesOutOfService(opened, Date.parse('2026-11-21T10:00:20.000Z'))).toBe(1);
+    expect(minutesOutOfService(opened, Date.parse('2026-11-21T10:12:00.000Z'))).toBe(12);
+    expect(minutesOutOfService(opened, Date.parse('2026-11-21T10:12:01.000Z'))).toBe(13);
   });
 
   test('a resolved incident stops counting at its resolution, and a tablet clock behind the server never gives a negative', () => {
-    expect(minutesBetween(opened, Date.parse('2026-11-21T18:00:00.000Z'), '2026-11-21T10:30:00.000Z')).toBe(30);
-    expect(minutesBetween(opened, Date.parse('2026-11-21T09:58:00.000Z'))).toBe(0);
+    expect(minutesOutOfService(opened, '2026-11-21T10:30:00.000Z')).toBe(30);
+    expect(minutesOutOfService(opened, Date.parse('2026-11-21T09:58:00.000Z'))).toBe(0);
   });
 
   test('an hour and more reads in hours and minutes', () => {

@@ -8,39 +8,14 @@ const TONES: Record<CertificateStatus, string> = {
 };
 
 /** A shape for each status, so it reads without colour: a tick, a circular arrow, a cross. */
+const SHAPES: Record<CertificateStatus, { strokeWidth: string; paths: string[]; ring?: boolean }> = {
+  valid: { strokeWidth: '3', ring: true, paths: ['M7 12.5l3.2 3.2L17 9'] },
+  superseded: { strokeWidth: '2.4', paths: ['M20 12a8 8 0 1 1-2.4-5.7', 'M20 4v5h-5'] },
+  revoked: { strokeWidth: '2.4', paths: ['M8 2h8l6 6v8l-6 6H8l-6-6V8z', 'M9 9l6 6M15 9l-6 6'] },
+};
+
 export function StatusShape({ status, className = 'size-4' }: { status: CertificateStatus; className?: string }) {
-  if (status === 'valid')
-    return (
-      <svg
-        aria-hidden
-        viewBox="0 0 24 24"
-        className={className}
-        fill="none"
-        stroke="currentColor"
-        strokeWidth="3"
-        strokeLinecap="round"
-        strokeLinejoin="round"
-      >
-        <circle cx="12" cy="12" r="10" strokeWidth="2" />
-        <path d="M7 12.5l3.2 3.2L17 9" />
-      </svg>
-    );
-  if (status === 'superseded')
-    return (
-      <svg
-        aria-hidden
-        viewBox="0 0 24 24"
-        className={className}
-        fill="none"
-        stroke="currentColor"
-        strokeWidth="2.4"
-        strokeLinecap="round"
-        strokeLinejoin="round"
-      >
-        <path d="M20 12a8 8 0 1 1-2.4-5.7" />
-        <path d="M20 4v5h-5" />
-      </svg>
-    );
+  const shape = SHAPES[status];
   return (
     <svg
       aria-hidden
@@ -48,12 +23,14 @@ export function StatusShape({ status, className = 'size-4' }: { status: Certific
       className={className}
       fill="none"
       stroke="currentColor"
-      strokeWidth="2.4"
+      strokeWidth={shape.strokeWidth}
       strokeLinecap="round"
       strokeLinejoin="round"
     >
-      <path d="M8 2h8l6 6v8l-6 6H8l-6-6V8z" />
-      <path d="M9 9l6 6M15 9l-6 6" />
+      {shape.ring && <circle cx="12" cy="12" r="10" strokeWidth="2" />}
+      {shape.paths.map((d) => (
+        <path key={d} d={d} />
+      ))}
     </svg>
   );
 }

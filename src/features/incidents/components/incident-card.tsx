@@ -6,7 +6,8 @@ import { swapSchema, type SwapInput } from '@shared/schemas/incidents';
 import { READING_SYMBOLS, STRIP_SYMBOLS } from '@shared/domain/symbols';
 import type { EquipmentKind } from '@shared/domain/limits';
 import { showServerErrors } from '@/lib/form-errors';
-import { minutesBetween, minutesText } from '@/lib/minutes';
+import { minutesOutOfService } from '@shared/domain/out-of-service';
+import { minutesText } from '@/lib/minutes';
 import { useNow } from '@/lib/use-now';
 import { useDates } from '@/lib/date-format';
 import { Button } from '@/components/ui/button';
@@ -146,7 +147,7 @@ export function IncidentCard({
   const { incident } = detail;
   const look = STRIP_SYMBOLS['out-of-service'];
   const missing = missingFromError(resolve.error);
-  const minutes = incident.status === 'open' ? minutesBetween(incident.openedAt, now) : incident.minutesOutOfService;
+  const minutes = incident.status === 'open' ? minutesOutOfService(incident.openedAt, now) : incident.minutesOutOfService;
   return (
     <Card className="mb-4 flex flex-col gap-4 border-2 border-fail/60" data-testid="incident-card" data-state={incident.status}>
       <div className="flex flex-wrap items-center gap-3">
