@@ -36,6 +36,14 @@ async function acknowledgeSafety(page: Page) {
   await expect(notice).toBeHidden();
 }
 
+/** The demo hall's plan, read as the signed-in person (its strips with their items' tags). */
+async function hallPlan(page: Page) {
+  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
+  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
+  type Plan = { strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] };
+  return (await apiAs<Plan>(page, 'GET', `/api/venues/${hall}`)).body;
+}
+
 test('a strip label from the printed sheet, shown to the camera, opens that strip’s testing screen', async ({ page }) => {
   const baseURL = test.info().project.use.baseURL!;
   await signIn(page, 'technician');
@@ -89,15 +97,7 @@ test('a strip label from the printed sheet, shown to the camera, opens that stri
 
 test('without a camera the scanner says so, and a typed item tag opens the strip the item is on', async ({ page }) => {
   await signIn(page, 'technician');
-  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
-  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  const plan = (
-    await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(
-      page,
-      'GET',
-      `/api/venues/${hall}`,
-    )
-  ).body;
+  const plan = await hallPlan(page);
   const strip9 = plan.strips.find((s) => s.label === 'Strip 9')!;
   const tag = strip9.positions.find((p) => p.equipment)!.equipment!.assetTag;
 
@@ -142,15 +142,7 @@ test('on the register a known tag opens its item and a new one is put in the for
 
 test('a label’s link opened by any camera app: the strip’s testing screen, or the strip its item is on', async ({ page }) => {
   await signIn(page, 'technician');
-  const venues = (await apiAs<{ id: string; name: string }[]>(page, 'GET', '/api/venues')).body;
-  const hall = venues.find((v) => v.name === 'Riverside Sports Hall')!.id;
-  const plan = (
-    await apiAs<{ strips: { id: string; label: string; positions: { equipment: { assetTag: string } | null }[] }[] }>(
-      page,
-      'GET',
-      `/api/venues/${hall}`,
-    )
-  ).body;
+  const plan = await hallPlan(page);
   const strip4 = plan.strips.find((s) => s.label === 'Strip 4')!;
   await page.goto(`/s/${strip4.id}`);
   await expect(page).toHaveURL(new RegExp(`/strips/${strip4.id}/test$`));
