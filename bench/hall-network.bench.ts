@@ -70,7 +70,9 @@ interface DrainSetup {
 /** 300 readings typed offline, then the network comes back: ms until the outbox is empty. */
 async function drain(browser: Browser, base: string, cookie: string, setup: DrainSetup, conditions: Conditions) {
   const { context, page, cdp } = await openPage(browser, base, cookie);
-  await page.goto(`${base}/`, { waitUntil: 'networkidle' });
+  // Waits on the sync bar, not on an idle network: the home page polls the venues' boards.
+  await page.goto(`${base}/`, { waitUntil: 'commit' });
+  await page.getByText('Online · all sent').waitFor({ timeout: 60_000 });
   await cdp.send('Network.emulateNetworkConditions', OFFLINE);
   await page.waitForFunction(() => !navigator.onLine);
   const now = Date.now();

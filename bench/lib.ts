@@ -68,6 +68,8 @@ export async function startServer(port: number) {
     },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
+  // A bench that throws must not leave its server holding the port for the next run.
+  process.once('exit', () => child.kill('SIGKILL'));
   const base = `http://localhost:${port}`;
   let exited = false;
   child.once('exit', () => (exited = true));

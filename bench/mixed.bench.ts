@@ -147,6 +147,7 @@ export async function run(): Promise<BenchResult> {
       else if (res.status !== 200) throw new Error(`analysis: ${res.status}`);
       else jobs.analysisMs.push(performance.now() - t0);
     };
+    let renames = 0;
     const signOffAndReopen = async () => {
       const t0 = performance.now();
       const res = await marco.call('POST', `/api/venues/${arena.venueId}/sign-off`, { password: PASSWORD });
@@ -157,14 +158,16 @@ export async function run(): Promise<BenchResult> {
         const certificates = res.body.certificates as unknown[];
         if (certificates.length !== STRIPS + 1) throw new Error(`sign-off issued ${certificates.length} certificates`);
       }
-      // A new reading re-opens the venue for the next round.
-      const st = arena.steps[0]!;
-      const again = await marco.call('POST', '/api/readings', {
-        id: uuidv7(),
-        stepId: st.id,
-        value: st.testKind === 'insulation' ? 'OL' : '0.45',
-      });
-      if (again.status !== 201) throw new Error(`re-open: ${again.status}`);
+      // A change to the plan re-opens the venue for the next round (a reading would only put its
+      // strip out of service).
+      const plan = await marco.call('GET', `/api/venues/${arena.venueId}`);
+      const renamed = await marco.call(
+        'PATCH',
+        `/api/venues/${arena.venueId}`,
+        { name: `Bench Arena ${++renames}` },
+        { 'If-Match': plan.etag },
+      );
+      if (renamed.status !== 200) throw new Error(`re-open: ${renamed.status} ${JSON.stringify(renamed.body)}`);
     };
 
     // Warm-up: the JIT, the worker threads (they start on first use) and both jobs once.
