@@ -62,7 +62,10 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     throw new AppError(401, 'wrong-password', 'That password is not right. Nothing was signed.');
   }
   if (row.venue.status === 'signed-off') {
-    throw conflict('already-signed-off', 'This venue is already signed off. A new reading or repair re-opens it.');
+    throw conflict(
+      'already-signed-off',
+      'This venue is already signed off. A change to its plan re-opens it; a change on one strip puts that strip out of service until its amendment.',
+    );
   }
   const exceptions = input.exceptions ?? [];
   const { snap, readiness } = requireReady(deps.db, venueId, exceptions);
