@@ -6,15 +6,6 @@ import { format, parseISO, type Locale } from 'date-fns';
 import { TZDate } from '@date-fns/tz';
 import { enGB } from 'date-fns/locale/en-GB';
 import { enUS } from 'date-fns/locale/en-US';
-import { fr } from 'date-fns/locale/fr';
-import { de } from 'date-fns/locale/de';
-import { es } from 'date-fns/locale/es';
-import { it } from 'date-fns/locale/it';
-import { nl } from 'date-fns/locale/nl';
-import { pl } from 'date-fns/locale/pl';
-import { hu } from 'date-fns/locale/hu';
-import { ru } from 'date-fns/locale/ru';
-import { uk } from 'date-fns/locale/uk';
 
 /** The time zone of a venue made before venues had one, and of a new venue nobody set one for. */
 export const DEFAULT_TIME_ZONE = 'Europe/London';
@@ -30,14 +21,38 @@ export interface DateContext {
 
 export type Instant = string | number | Date;
 
-// The locales of the fencing federations' usual languages; a few kilobytes each in the bundle.
-const LOCALES: Record<string, Locale> = { 'en-GB': enGB, 'en-US': enUS, en: enGB, fr, de, es, it, nl, pl, hu, ru, uk };
+// English is always at hand; the other languages of the fencing federations are fetched when a
+// reader needs one (loadLocale), so the testing screen does not carry ten locales it never shows.
+const LOADERS: Record<string, () => Promise<Locale>> = {
+  fr: () => import('date-fns/locale/fr').then((m) => m.fr),
+  de: () => import('date-fns/locale/de').then((m) => m.de),
+  es: () => import('date-fns/locale/es').then((m) => m.es),
+  it: () => import('date-fns/locale/it').then((m) => m.it),
+  nl: () => import('date-fns/locale/nl').then((m) => m.nl),
+  pl: () => import('date-fns/locale/pl').then((m) => m.pl),
+  hu: () => import('date-fns/locale/hu').then((m) => m.hu),
+  ru: () => import('date-fns/locale/ru').then((m) => m.ru),
+  uk: () => import('date-fns/locale/uk').then((m) => m.uk),
+};
+const LOCALES: Record<string, Locale> = { 'en-GB': enGB, 'en-US': enUS, en: enGB };
 
-/** The date-fns locale for a BCP 47 tag: the exact region, else the language, else British English. */
+const languageOf = (tag: string) => (tag.replace('_', '-').split('-')[0] ?? '').toLowerCase();
+
+/**
+ * Makes a reader's language ready for the formatters (the browser awaits it before the first
+ * screen); English and a language without a date-fns locale here resolve at once.
+ */
+export async function loadLocale(tag: string | undefined): Promise<void> {
+  const lang = tag ? languageOf(tag) : '';
+  if (LOCALES[lang] || !LOADERS[lang]) return;
+  LOCALES[lang] = await LOADERS[lang]();
+}
+
+/** The date-fns locale for a BCP 47 tag: the exact region, else the language (once loaded), else British English. */
 export function localeFor(tag: string | undefined): Locale {
   if (!tag) return enGB;
-  const [language, region] = tag.replace('_', '-').split('-');
-  const lang = (language ?? '').toLowerCase();
+  const [, region] = tag.replace('_', '-').split('-');
+  const lang = languageOf(tag);
   return LOCALES[`${lang}-${(region ?? '').toUpperCase()}`] ?? LOCALES[lang] ?? enGB;
 }
 

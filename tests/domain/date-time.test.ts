@@ -1,4 +1,4 @@
-import { describe, expect, test } from 'vitest';
+import { beforeAll, describe, expect, test } from 'vitest';
 import {
   canonicalTimeZone,
   formatCalendarRange,
@@ -7,6 +7,7 @@ import {
   formatTime,
   fromZonedInput,
   isoWithOffset,
+  loadLocale,
   toZonedInput,
   utcOffsetLabel,
 } from '../../shared/format/date-time';
@@ -49,7 +50,19 @@ describe('ISO 8601 with the venue offset (CSV)', () => {
   });
 });
 
+describe('the reader language, fetched when needed', () => {
+  test('a language not yet loaded is written in British English, and in its own once loaded', async () => {
+    const at = '2026-12-02T06:14:05Z';
+    expect(formatDateTime(at, { timeZone: 'Europe/Berlin', locale: 'de-DE' })).toBe('2 Dec 2026, 07:14');
+    await loadLocale('de-DE');
+    // "Dez." is German's short December (CLDR de, months abbreviated).
+    expect(formatDateTime(at, { timeZone: 'Europe/Berlin', locale: 'de-DE' })).toMatch(/Dez/);
+  });
+});
+
 describe('dates and times for people', () => {
+  beforeAll(() => loadLocale('fr-FR'));
+
   // CLDR's patterns: en-GB medium date "d MMM y", short time "HH:mm"; en-US "MMM d, y", "h:mm a";
   // fr "d MMM y" with abbreviated months ("déc."), "HH:mm".
   test('in the venue zone, in the reader locale', () => {

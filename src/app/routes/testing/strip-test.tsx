@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { lazy, Suspense, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { FAULT_SYMBOLS, STRIP_SYMBOLS } from '@shared/domain/symbols';
 import { Link, useNavigate, useParams, useSearchParams } from 'react-router';
 import { formatLength } from '@shared/domain/units';
@@ -30,11 +30,16 @@ import { useDates } from '@/lib/date-format';
 import type { CreateIncidentInput } from '@shared/schemas/incidents';
 import { useVenueIncidents } from '@/features/incidents/api/get-venue-incidents';
 import { useSpares } from '@/features/incidents/api/get-spares';
-import { IncidentCard } from '@/features/incidents/components/incident-card';
-import { OpenIncidentPanel } from '@/features/incidents/components/open-incident-panel';
 import { QueuedIncidentMark } from '@/features/offline/components/queued-incident-mark';
 import { enqueueIncident } from '@/features/offline/stores/outbox';
 import { Button } from '@/components/ui/button';
+
+// Off the way to the first reading (their form library is not needed to measure), and fetched as
+// soon as the strip is on screen: a tablet that then loses the network still opens them.
+const loadIncidentCard = () => import('@/features/incidents/components/incident-card');
+const loadOpenIncidentPanel = () => import('@/features/incidents/components/open-incident-panel');
+const IncidentCard = lazy(() => loadIncidentCard().then((m) => ({ default: m.IncidentCard })));
+const OpenIncidentPanel = lazy(() => loadOpenIncidentPanel().then((m) => ({ default: m.OpenIncidentPanel })));
 
 /** The testing screen: walk a strip's positions and steps with the keyboard alone. */
 export default function StripTestPage() {
@@ -68,6 +73,12 @@ export default function StripTestPage() {
   // The spare pool is no strip of the competition: its spares are tested, never reported on.
   const competing = !data?.sparePool && (data?.venueStatus === 'signed-off' || data?.status === 'out-of-service');
   const incidents = useVenueIncidents(data?.venueId ?? '', { enabled: !!data && competing });
+  useEffect(() => {
+    if (!competing) return;
+    // Failing offline is no harm: the service worker's copy is tried when the card is shown.
+    loadIncidentCard().catch(() => undefined);
+    loadOpenIncidentPanel().catch(() => undefined);
+  }, [competing]);
   // An open one, else one resolved and waiting for the director's amendment (the strip is still out).
   const stripIncidents = incidents.data?.incidents.filter((i) => i.stripId === stripId) ?? [];
   const openIncident =
@@ -250,18 +261,20 @@ export default function StripTestPage() {
     setReporting(false);
   };
   const incidentSection = openIncident ? (
-    <IncidentCard
-      key={openIncident.id}
-      incidentId={openIncident.id}
-      canWrite={canWrite}
-      positions={data.positions.map((p) => ({
-        id: p.id,
-        name: p.name,
-        equipmentKind: p.equipmentKind,
-        assetTag: p.equipment?.assetTag ?? null,
-      }))}
-      spares={spares.data?.spares ?? []}
-    />
+    <Suspense fallback={<Loading />}>
+      <IncidentCard
+        key={openIncident.id}
+        incidentId={openIncident.id}
+        canWrite={canWrite}
+        positions={data.positions.map((p) => ({
+          id: p.id,
+          name: p.name,
+          equipmentKind: p.equipmentKind,
+          assetTag: p.equipment?.assetTag ?? null,
+        }))}
+        spares={spares.data?.spares ?? []}
+      />
+    </Suspense>
   ) : queuedIncident ? (
     <div className="mb-4 flex flex-wrap items-center gap-3 rounded-card border-2 border-fail/50 bg-card p-4">
       <QueuedIncidentMark item={queuedIncident} />
@@ -272,11 +285,13 @@ export default function StripTestPage() {
     </div>
   ) : reporting ? (
     <div className="mb-4">
-      <OpenIncidentPanel
-        strip={{ id: data.id, label: data.label, positions: data.positions.map((p) => ({ id: p.id, name: p.name })) }}
-        onOpen={openOnTablet}
-        onClose={() => setReporting(false)}
-      />
+      <Suspense fallback={<Loading />}>
+        <OpenIncidentPanel
+          strip={{ id: data.id, label: data.label, positions: data.positions.map((p) => ({ id: p.id, name: p.name })) }}
+          onOpen={openOnTablet}
+          onClose={() => setReporting(false)}
+        />
+      </Suspense>
     </div>
   ) : canWrite && competing ? (
     <div className="mb-4">
