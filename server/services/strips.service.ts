@@ -63,7 +63,7 @@ export function stripsService(deps: AppDeps) {
     return {
       id: strip.id,
       label: strip.label,
-      status: stripStatus({ withdrawn: !!strip.withdrawnAt, steps: allSteps, openFaults: openFaults.length }),
+      status: stripStatus({ ...statusOf(strip), steps: allSteps, openFaults: openFaults.length }),
       zone: strip.zone,
       conductivePiste: strip.conductivePiste,
       sparePool: strip.sparePool,
@@ -97,3 +97,9 @@ export function stripsService(deps: AppDeps) {
 
   return { get };
 }
+
+/** What of a strip's own row decides its status beside its steps (out of service as on the board). */
+const statusOf = (strip: { withdrawnAt: string | null; outOfServiceSince: string | null }) => ({
+  withdrawn: !!strip.withdrawnAt,
+  outOfService: !!strip.outOfServiceSince,
+});

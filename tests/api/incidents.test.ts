@@ -124,6 +124,9 @@ describe('an incident from opening to the amended certificate', () => {
     expect(board.body.strips[0]).toMatchObject({ id: strip.id, status: 'out-of-service', openIncidents: 1 });
     expect(board.body.strips[0].minutesSinceIncident).toBeGreaterThanOrEqual(0);
     expect(board.body.counts['out-of-service']).toBe(1);
+    // The testing screen's answer for the strip says the same as the board.
+    const onTablet = await lee.get(`/api/strips/${strip.id}`).expect(200);
+    expect(onTablet.body.status).toBe('out-of-service');
     const list = await marco.get(`/api/venues/${annex}/certificates`).expect(200);
     const byNumber = new Map(list.body.certificates.map((c: { number: string }) => [c.number, c]));
     expect(byNumber.get(state.oldStrip)).toMatchObject({ status: 'valid' });
