@@ -72,7 +72,7 @@ async function drain(browser: Browser, base: string, cookie: string, setup: Drai
   const { context, page, cdp } = await openPage(browser, base, cookie);
   // Waits on the sync bar, not on an idle network: the home page polls the venues' boards.
   await page.goto(`${base}/`, { waitUntil: 'commit' });
-  await page.getByText('Online · all sent').waitFor({ timeout: 60_000 });
+  await page.locator('[data-testid="sync-indicator"][data-state="up-to-date"]').waitFor({ timeout: 60_000 });
   await cdp.send('Network.emulateNetworkConditions', OFFLINE);
   await page.waitForFunction(() => !navigator.onLine);
   const now = Date.now();

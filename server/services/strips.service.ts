@@ -10,7 +10,7 @@ import { presentReading } from '../presenters/readings';
 import { limitProfileById } from './profiles.service';
 import { presentEquipment, presentFaultList } from '../presenters/faults';
 import { notFound } from '../lib/app-error';
-import { stripStatus, stepCounts } from '../../shared/domain/progress';
+import { stepCounts, stripFlags, stripStatus } from '../../shared/domain/progress';
 import { stepInstruction } from '../../shared/domain/checklist';
 
 export function stripsService(deps: AppDeps) {
@@ -63,7 +63,7 @@ export function stripsService(deps: AppDeps) {
     return {
       id: strip.id,
       label: strip.label,
-      status: stripStatus({ ...statusOf(strip), steps: allSteps, openFaults: openFaults.length }),
+      status: stripStatus({ ...stripFlags(strip), steps: allSteps, openFaults: openFaults.length }),
       zone: strip.zone,
       conductivePiste: strip.conductivePiste,
       sparePool: strip.sparePool,
@@ -97,9 +97,3 @@ export function stripsService(deps: AppDeps) {
 
   return { get };
 }
-
-/** What of a strip's own row decides its status beside its steps (out of service as on the board). */
-const statusOf = (strip: { withdrawnAt: string | null; outOfServiceSince: string | null }) => ({
-  withdrawn: !!strip.withdrawnAt,
-  outOfService: !!strip.outOfServiceSince,
-});

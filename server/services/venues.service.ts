@@ -2,7 +2,7 @@ import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { venuesRepository } from '../db/venues.repository';
 import { accessService } from './access.service';
-import { stepCounts, stripStatus, type StepProgress, type StripStatus } from '../../shared/domain/progress';
+import { stepCounts, stripFlags, stripStatus, type StepProgress, type StripStatus } from '../../shared/domain/progress';
 
 export function venuesService(deps: AppDeps) {
   const repo = venuesRepository(deps.db);
@@ -26,7 +26,7 @@ export function venuesService(deps: AppDeps) {
       const openFaults = faultsByStrip.get(strip.id) ?? 0;
       return {
         strip,
-        status: stripStatus({ withdrawn: !!strip.withdrawnAt, steps: stepsOfStrip, openFaults, outOfService: !!strip.outOfServiceSince }),
+        status: stripStatus({ ...stripFlags(strip), steps: stepsOfStrip, openFaults }),
         counts: stepCounts(stepsOfStrip),
         openFaults,
       };

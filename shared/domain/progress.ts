@@ -7,7 +7,14 @@ export interface StepProgress {
   latestVerdict: Verdict | null;
 }
 
-export function stripStatus(s: { withdrawn: boolean; steps: StepProgress[]; openFaults: number; outOfService?: boolean }): StripStatus {
+/** A strip row's own marks that decide its status beside its steps: every answer reads them alike. */
+export const stripFlags = (strip: { withdrawnAt: string | null; outOfServiceSince: string | null }) => ({
+  withdrawn: !!strip.withdrawnAt,
+  outOfService: !!strip.outOfServiceSince,
+});
+
+// outOfService is required: an answer that leaves it out would call a suspended strip "clear".
+export function stripStatus(s: { withdrawn: boolean; steps: StepProgress[]; openFaults: number; outOfService: boolean }): StripStatus {
   if (s.withdrawn) return 'withdrawn';
   // Suspended after sign-off (an incident or a change on the strip) until the director amends it.
   if (s.outOfService) return 'out-of-service';

@@ -163,6 +163,8 @@ export function stripReadiness(strip: ReadinessStripInput, exceptionReason?: str
     withdrawn: strip.withdrawn,
     steps: active.map((s) => ({ required: true, latestVerdict: readingCounts(s) ? s.latest!.verdict : null })),
     openFaults: strip.openFaults.length,
+    // Readiness asks whether the tests hold; a suspended strip is amended by exactly this check.
+    outOfService: false,
   });
   const excepted = strip.withdrawn ? (strip.withdrawnReason ?? '') : exceptionReason;
   const state: StripReadinessState = strip.withdrawn
