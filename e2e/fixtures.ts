@@ -42,11 +42,12 @@ export async function apiAs<T = unknown>(page: Page, method: 'GET' | 'POST' | 'P
 
 /**
  * The one-time link the server printed on its console for this address (the local SMTP fake keeps
- * it out of the outbox). The test server's console is `.tmp/e2e/server.log`; with a server of your
- * own (PLAYWRIGHT_BASE_URL), point E2E_SERVER_LOG at its console output.
+ * it out of the outbox). Each half's test server writes its console to a file of its own
+ * (playwright.config.ts); with a server of your own (PLAYWRIGHT_BASE_URL), point E2E_SERVER_LOG at
+ * its console output.
  */
 export async function oneTimeLinkFor(email: string): Promise<string> {
-  const log = process.env.E2E_SERVER_LOG ?? '.tmp/e2e/server.log';
+  const log = String(test.info().project.metadata.serverLog ?? '');
   let link = '';
   await expect
     .poll(

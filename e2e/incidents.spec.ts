@@ -6,7 +6,8 @@ import { randomUUID } from 'node:crypto';
 import type { Page } from '@playwright/test';
 import { apiAs, DEMO_PASSWORD, expect, signIn, test } from './fixtures';
 
-test.use({ viewport: { width: 1024, height: 768 } });
+// The service worker in (the config blocks it): the incident form must open with the network gone.
+test.use({ viewport: { width: 1024, height: 768 }, serviceWorkers: 'allow' });
 
 interface Plan {
   venue: { id: string; version: number };

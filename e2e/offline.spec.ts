@@ -6,6 +6,9 @@
 import type { Page } from '@playwright/test';
 import { apiAs, expect, signIn, test, openVenueLink } from './fixtures';
 
+// The service worker in (the config blocks it): it is what serves the app with no network.
+test.use({ serviceWorkers: 'allow' });
+
 // navigator.onLine is the browser's guess, and after the offline reload below it is wrong on
 // purpose: with a second DevTools client on the tab (as when someone watches with DevTools open),
 // Chromium reports the reloaded page online, with no offline event, while every request fails. A
