@@ -2,6 +2,7 @@ import express, { type Request, type RequestHandler, type Response } from 'expre
 import type { ZodType } from 'zod';
 import type { AuthUser } from '../auth/types';
 import { AppError, forbidden, unauthorized } from '../lib/app-error';
+import { bodyBytes } from './body-bytes';
 import {
   bodyKindOf,
   fullPath,
@@ -134,7 +135,7 @@ export class ApiRouter {
     chain.push(...(opts.before ?? []));
     if (bodyKindOf(c) === 'text') {
       const text = c.body as TextBody;
-      chain.push(express.raw({ type: [...text.contentTypes], limit: text.maxBytes }));
+      chain.push(bodyBytes(text));
     }
     const parsedFirst = (opts.after ?? []).length > 0;
     if (parsedFirst) {

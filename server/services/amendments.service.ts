@@ -84,7 +84,7 @@ async function sign(
   const { snap, readiness } = amendedReadiness(deps.db, venueId, stripIds);
   const readings = certifiedReadings(snap, readiness);
   const ctx: SigningContext = { ...ctxBase, dismissed: dismissedFaultsOf(deps.db, venueId, new Set(stripIds)) };
-  const drafts = draftCertificates(deps.db, ctx, snap, readiness, readings)
+  const drafts = (await draftCertificates(deps.db, ctx, snap, readiness, readings))
     .filter((d) => d.payload.kind === 'strip')
     .map((d) => ({ ...d, payload: { ...d.payload, related: { venueCertificate: venueNumber, stripCertificates: [] } } }));
   const timeZone = certificatesRepository(deps.db).venueTimeZone(venueId) ?? DEFAULT_TIME_ZONE;

@@ -8,7 +8,6 @@ import { certificatesRepository } from '../db/certificates.repository';
 import { recordAudit } from '../db/audit.repository';
 import { conflict } from '../lib/app-error';
 import { newId } from '../lib/ids';
-import { readingsDigest } from '../signing/certificate-record';
 import { certificateFiles } from '../storage/certificate-files';
 import { certifiedReadings, dismissedFaultsOf, readinessOf } from './sign-off-readiness';
 import type { DismissedFault } from '../signing/certificate-record';
@@ -24,6 +23,8 @@ export interface SignOffRecord {
   exceptions: ExceptionInput[];
   readiness: VenueReadiness;
   digest: string;
+  /** The readings certified, in certificate order: the check that nothing changed meanwhile. */
+  certifiedReadingIds: string[];
   keyId: string;
   issued: IssuedCertificate[];
   /** The dismissed faults the certificates name, and the strips they were looked up on. */
@@ -47,9 +48,12 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
     await yieldToEventLoop();
     deps.db.transaction((tx) => {
       const repo = signOffRepository(tx);
-      // Nothing may have changed while we signed: same venue version, same readings.
+      // Nothing may have changed while we signed: same venue version, same readings. Readings are
+      // never changed once written (a correction is a new one), so the same ids in the same order
+      // are the same readings, and the digest signed need not be worked out again in here.
       const again = readinessOf(tx, s.venueId, s.exceptions);
-      if (!again.readiness.ready || readingsDigest(certifiedReadings(again.snap, again.readiness)) !== s.digest) {
+      const ids = certifiedReadings(again.snap, again.readiness).map((r) => r.readingId);
+      if (!again.readiness.ready || ids.length !== s.certifiedReadingIds.length || ids.some((id, i) => id !== s.certifiedReadingIds[i])) {
         throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
       }
       const dismissedAgain = dismissedFaultsOf(tx, s.venueId, s.certifiedStripIds)

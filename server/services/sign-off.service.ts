@@ -9,7 +9,7 @@ import { accessService } from './access.service';
 import { signOffRepository } from '../db/sign-off.repository';
 import { AppError, conflict } from '../lib/app-error';
 import { currentSigningKey } from '../signing/signing-keys';
-import { readingsDigest, verifyUrlFor } from '../signing/certificate-record';
+import { verifyUrlFor } from '../signing/certificate-record';
 import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessOf, requireReady } from './sign-off-readiness';
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
 import { persistSignOff, yieldToEventLoop } from './sign-off-persist';
@@ -89,13 +89,10 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     dismissed,
   };
   // Sign and render everything first; only then write, so a failure leaves nothing behind.
-  const issued = await renderCertificates(
-    deps.workers,
-    key,
-    draftCertificates(deps.db, ctx, snap, readiness, readings),
-    row.venue.timeZone,
-  );
-  const digest = readingsDigest(readings);
+  const drafts = await draftCertificates(deps.db, ctx, snap, readiness, readings);
+  const issued = await renderCertificates(deps.workers, key, drafts, row.venue.timeZone);
+  // The venue certificate's digest is of every certified reading.
+  const digest = drafts[0]!.payload.readings.digest;
   const signOffId = await persistSignOff(deps, {
     user,
     venueId,
@@ -105,6 +102,7 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     exceptions,
     readiness,
     digest,
+    certifiedReadingIds: readings.map((r) => r.readingId),
     keyId: key.kid,
     issued,
     dismissed,

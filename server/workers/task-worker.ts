@@ -3,6 +3,10 @@
 // same 4xx it would have answered on the main thread. Any other error is rethrown: a bug, a 500.
 import { AppError } from '../lib/app-error';
 import { jobs, type JobName } from './jobs';
+import { lowerThreadPriority } from './thread-priority';
+
+// Readings first: this thread takes the CPU the event loop leaves.
+lowerThreadPriority();
 
 export type WorkerOutcome =
   { ok: true; value: unknown } | { ok: false; appError: { status: number; code: string; message: string; extra: AppError['extra'] } };

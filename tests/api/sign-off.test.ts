@@ -9,7 +9,7 @@ import type superagent from 'superagent';
 import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-app';
 import { pdfText, readPdf } from '../setup/pdf-read';
 import { venueIds } from './testing-helpers';
-import { capturedMail, certificates, events, signOffs, users, venues } from '../../server/db/schema';
+import { capturedMail, certificates, events, readings, signOffs, users, venues } from '../../server/db/schema';
 import { hashPassword, TEST_SCRYPT } from '../../server/auth/password';
 import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
 import { placeOf, renderCertificatePdf } from '../../server/pdf/certificate-pdf';
@@ -174,6 +174,46 @@ describe('POST /api/venues/:id/sign-off — who may sign', () => {
       .post(`/api/venues/${annexId}/sign-off`)
       .send({ password: DEMO_PASSWORD, exceptions: [{ stripId: hallStrips[0].id, reason: 'Not used this year' }] });
     expect(res.status).toBe(422);
+  });
+});
+
+describe('POST /api/venues/:id/sign-off — while the certificates are made', () => {
+  test('when a reading of the venue arrives while its certificates are rendered, then 409 changed-meanwhile and nothing is written', async () => {
+    const marco = await t.agentFor(DEMO.director);
+    const annexStrips = (await marco.get(`/api/venues/${annexId}/strips`)).body as { id: string }[];
+    const strip = (await marco.get(`/api/strips/${annexStrips[0].id}`)).body as {
+      positions: { steps: { id: string; testKind: string }[] }[];
+    };
+    // An insulation step: over range passes, so the annex stays ready for the tests after this one.
+    const step = strip.positions.flatMap((p) => p.steps).find((st) => st.testKind === 'insulation')!;
+    const workers = t.deps.workers;
+    const run = workers.run;
+    let recorded = 0;
+    workers.run = (async (...args: Parameters<typeof run>) => {
+      if (args[0] === 'renderCertificatePdf' && recorded === 0) {
+        // The step measured again, stamped as its last reading was (so the certificates' testing
+        // period, and page 1, stay as the tests after this one expect).
+        const last = t.db.select().from(readings).where(eq(readings.stepId, step.id)).all().at(-1)!;
+        t.db
+          .insert(readings)
+          .values({ ...last, id: randomUUID(), requestHash: randomUUID() })
+          .run();
+        recorded = 1;
+      }
+      return run(...args);
+    }) as typeof run;
+    try {
+      const res = await marco.post(`/api/venues/${annexId}/sign-off`).send({ password: DEMO_PASSWORD });
+      expect(recorded).toBe(1);
+      expect(res.status, JSON.stringify(res.body)).toBe(409);
+      expect(res.body.code).toBe('changed-meanwhile');
+    } finally {
+      workers.run = run;
+    }
+    expect(t.db.select().from(signOffs).all()).toHaveLength(0);
+    expect(t.db.select().from(certificates).all()).toHaveLength(0);
+    expect(existsSync(join(t.dir, 'certificates')) ? readdirSync(join(t.dir, 'certificates')) : []).toEqual([]);
+    expect(t.db.select().from(venues).where(eq(venues.id, annexId)).get()!.status).not.toBe('signed-off');
   });
 });
 
