@@ -82,8 +82,9 @@ test('a strip label from the printed sheet, shown to the camera, opens that stri
     await acknowledgeSafety(tablet);
     await tablet.getByRole('button', { name: 'Scan a label' }).click();
     const scanner = tablet.getByRole('dialog', { name: 'Open a strip by its label' });
-    await expect(scanner).toBeVisible();
-    await tablet.screenshot({ path: 'test-results/labels-scanner.png' });
+    // The scanner is open only until the first frame is read, which may be before this test looks
+    // again on a loaded machine: what is checked is where it leads (the next spec checks the
+    // scanner itself, without a camera).
     await expect(tablet).toHaveURL(new RegExp(`/strips/${target.id}/test$`));
     await expect(tablet.getByRole('heading', { name: 'Strip 7 — testing' })).toBeVisible();
     await expect(scanner).toBeHidden();
