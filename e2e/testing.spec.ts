@@ -21,6 +21,9 @@ async function typeAndRecord(page: Page, input: ReturnType<Page['locator']>, val
 }
 
 test('a strip is tested by keyboard, its fault located, cut out and retested, and the board follows', async ({ page, browser }) => {
+  // A bound, not a wait: the longest flow of the suite (some 25 s on a quiet two-core machine, two
+  // minutes seen while a second suite and two busy loops shared it).
+  test.setTimeout(300_000);
   // The director's board, in its own context.
   const directorContext = await browser.newContext();
   const board = await directorContext.newPage();
