@@ -1,6 +1,7 @@
 // Sign-off, step three: the rendered certificates kept. The files first, then one transaction that
 // checks nothing changed while signing (same readings, same venue version) and records the
 // sign-off, its certificates and the frozen venue; any failure removes the files again.
+import { setImmediate } from 'node:timers/promises';
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { signOffRepository } from '../db/sign-off.repository';
@@ -32,8 +33,6 @@ export interface SignOffRecord {
   certifiedStripIds: Set<string>;
 }
 
-export const yieldToEventLoop = () => new Promise<void>((resolve) => setImmediate(resolve));
-
 /** Writes the PDFs and records the sign-off; answers its id. */
 export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<string> {
   const files = certificateFiles(deps.env.DATA_DIR);
@@ -45,7 +44,7 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
       await files.writeAsync(name, c.pdf);
       written.push(name);
     }
-    await yieldToEventLoop();
+    await setImmediate();
     deps.db.transaction((tx) => {
       const repo = signOffRepository(tx);
       // Nothing may have changed while we signed: same venue version, same readings. Readings are
@@ -53,7 +52,7 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
       // are the same readings, and the digest signed need not be worked out again in here.
       const again = readinessOf(tx, s.venueId, s.exceptions);
       const ids = certifiedReadings(again.snap, again.readiness).map((r) => r.readingId);
-      if (!again.readiness.ready || ids.length !== s.certifiedReadingIds.length || ids.some((id, i) => id !== s.certifiedReadingIds[i])) {
+      if (!again.readiness.ready || ids.join() !== s.certifiedReadingIds.join()) {
         throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
       }
       const dismissedAgain = dismissedFaultsOf(tx, s.venueId, s.certifiedStripIds)

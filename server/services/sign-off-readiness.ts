@@ -1,10 +1,10 @@
 // Sign-off, step one: whether the venue is ready, from what the database says now. The same
 // snapshot is taken again inside the sign-off's transaction, so nothing changed while signing.
-import { groupBy } from '../lib/group-by';
 import type { Db, Tx } from '../db/client';
 import { venuesRepository } from '../db/venues.repository';
 import { signOffRepository } from '../db/sign-off.repository';
 import { conflict, unprocessable } from '../lib/app-error';
+import { groupBy } from '../lib/group-by';
 import type { CertifiedReading, DismissedFault } from '../signing/certificate-record';
 import { faultsRepository } from '../db/faults.repository';
 import { withSpareReadings } from './spare-readings';

@@ -1,6 +1,6 @@
 // Sign-off, step two: the certificates in memory. A number for the venue and for each ready strip,
 // the payload of each, signed (Ed25519 JWS) and rendered to PDF; nothing is written yet.
-import { groupBy } from '../lib/group-by';
+import { setImmediate } from 'node:timers/promises';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import type { AuthUser } from '../auth/types';
@@ -8,6 +8,7 @@ import type { VenueCtx } from './plan-edit';
 import { certificatesRepository } from '../db/certificates.repository';
 import type { SignOffRepository } from '../db/sign-off.repository';
 import { sha256Hex } from '../lib/ids';
+import { groupBy } from '../lib/group-by';
 import { signCertificatePayload, type SigningKey } from '../signing/signing-keys';
 import {
   CERTIFICATE_FORMAT,
@@ -24,7 +25,6 @@ import {
 import { leadNullsRepository } from '../db/lead-nulls.repository';
 import { venuesRepository } from '../db/venues.repository';
 import type { Snapshot } from './sign-off-readiness';
-import { yieldToEventLoop } from './sign-off-persist';
 import { temperatureRuleText, type LimitRule } from '../../shared/domain/limits';
 import type { VenueReadiness } from '../../shared/domain/readiness';
 import { formatOhm } from '../../shared/domain/units';
@@ -224,7 +224,7 @@ export async function draftCertificates(
   const byStrip = groupBy(readings, (r) => r.stripId);
   const strips: Draft[] = [];
   for (const s of stripNumbers) {
-    if (strips.length % STRIPS_PER_TURN === 0) await yieldToEventLoop();
+    if (strips.length % STRIPS_PER_TURN === 0) await setImmediate();
     const own = byStrip.get(s.stripId) ?? [];
     strips.push({
       payload: {

@@ -2,6 +2,7 @@
 // password re-checked, certificates signed and rendered in memory (sign-off-render), then kept in
 // one transaction that freezes the venue (sign-off-persist). The organiser and the director get an
 // e-mail with the links.
+import { setImmediate } from 'node:timers/promises';
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { verifyPassword } from '../auth/password';
@@ -12,7 +13,7 @@ import { currentSigningKey } from '../signing/signing-keys';
 import { verifyUrlFor } from '../signing/certificate-record';
 import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessOf, requireReady } from './sign-off-readiness';
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
-import { persistSignOff, yieldToEventLoop } from './sign-off-persist';
+import { persistSignOff } from './sign-off-persist';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
 import { composeMail, link, p } from '../mail/compose';
 import { formatDateTimeWithOffset, SERVER_LOCALE } from '../../shared/format/date-time';
@@ -71,7 +72,7 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
   const { snap, readiness } = requireReady(deps.db, venueId, exceptions);
   // The event loop gets a turn between the long synchronous steps of a large venue, so
   // readings arriving meanwhile wait for one step, not for all of them.
-  await yieldToEventLoop();
+  await setImmediate();
 
   const readings = certifiedReadings(snap, readiness);
   const certifiedStripIds = new Set(readiness.strips.filter((s) => s.state === 'ready').map((s) => s.stripId));
@@ -92,7 +93,7 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
   const drafts = await draftCertificates(deps.db, ctx, snap, readiness, readings);
   const issued = await renderCertificates(deps.workers, key, drafts, row.venue.timeZone);
   // The venue certificate's digest is of every certified reading.
-  const digest = drafts[0]!.payload.readings.digest;
+  const digest = drafts.find((d) => d.payload.kind === 'venue')!.payload.readings.digest;
   const signOffId = await persistSignOff(deps, {
     user,
     venueId,
