@@ -179,3 +179,47 @@ test('a strip with a piste (five items) fits 1024 × 768, focus on the way on; t
   await page.setViewportSize({ width: 390, height: 844 });
   await page.screenshot({ path: 'test-results/grid-piste-390x844.png', fullPage: true });
 });
+
+/**
+ * Presses a key on the focused element and tells what has focus once React has handled it, before
+ * the browser paints again: a key that follows at once (a technician in a hurry, a slow tablet whose
+ * next frame is late) lands there.
+ */
+const focusAfterKey = (page: Page, key: string) =>
+  page.evaluate(async (k) => {
+    const target = document.activeElement!;
+    target.dispatchEvent(new KeyboardEvent('keydown', { key: k, bubbles: true, cancelable: true }));
+    await Promise.resolve();
+    await Promise.resolve();
+    const el = document.activeElement;
+    return el?.textContent?.trim() || el?.closest('[data-cell]')?.getAttribute('data-cell') || el?.tagName;
+  }, key);
+
+test('a technician in a hurry: the confirmation has focus as soon as it opens, so the next Enter lands on it', async ({ page }) => {
+  await signIn(page, 'technician');
+  await page.goto('/');
+  await openVenueLink(page).click();
+  await page.getByLabel('Go to strip number').fill('16');
+  await page.keyboard.press('Enter');
+  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  const grid = page.getByTestId('entry-grid');
+  const cell = (step: string) => grid.locator(`tr[data-position="Left floor cable"] [data-cell="${step}"]`);
+  await expect(cell('continuity A').locator('input')).toBeFocused();
+  for (const v of ['0.5', '0.5', '0.5']) {
+    await page.keyboard.type(v);
+    await page.keyboard.press('Enter');
+  }
+  await expect(cell('insulation A-B').locator('input')).toBeFocused();
+  expect(await focusAfterKey(page, 'a')).toBe('Record OL ×3');
+  await page.keyboard.press('Enter');
+  for (const pair of ['A-B', 'A-C', 'B-C']) await expect(cell(`insulation ${pair}`)).toHaveAttribute('data-verdict', 'pass');
+  await expect(cell('loop A-B').locator('input')).toBeFocused();
+
+  // Again on a measured cell: "record again?" has focus at once too.
+  await cell('continuity A').locator('input').click();
+  await page.keyboard.type('0.6');
+  expect(await focusAfterKey(page, 'Enter')).toBe('Record again');
+  await page.keyboard.press('Enter');
+  await expect(cell('continuity A')).toContainText('0.6');
+  await expect(page.getByRole('alertdialog', { name: 'Record again?' })).toBeHidden();
+});

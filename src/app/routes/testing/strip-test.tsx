@@ -18,8 +18,6 @@ import { newReadingId } from '@/features/offline/utils/reading-id';
 import { problemHelp } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
-import { LabelScanner } from '@/features/labels/components/label-scanner';
-import { stripForCode } from '@/features/labels/utils/strip-for-code';
 import { readLeadNull, safetyAcknowledged, saveLeadNull } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
@@ -38,6 +36,8 @@ import { Button } from '@/components/ui/button';
 // soon as the strip is on screen: a tablet that then loses the network still opens them.
 const loadIncidentCard = () => import('@/features/incidents/components/incident-card');
 const loadOpenIncidentPanel = () => import('@/features/incidents/components/open-incident-panel');
+// The label scanner too: fetched when a tap opens it.
+const LabelScanner = lazy(() => import('@/features/labels/components/label-scanner').then((m) => ({ default: m.LabelScanner })));
 const IncidentCard = lazy(() => loadIncidentCard().then((m) => ({ default: m.IncidentCard })));
 const OpenIncidentPanel = lazy(() => loadOpenIncidentPanel().then((m) => ({ default: m.OpenIncidentPanel })));
 
@@ -341,19 +341,23 @@ export default function StripTestPage() {
       Scan a label
     </button>
   );
+  // The service worker has the panel's chunk for a tablet offline (the camera needs https, as it does).
   const scanner = scanning && (
-    <LabelScanner
-      title="Open a strip by its label"
-      hint="Point the camera at the code on a strip’s label, or on the label of an item on it."
-      onClose={() => setScanning(false)}
-      onCode={async (code) => {
-        const found = await stripForCode(code, data.venueId);
-        if ('message' in found) return found.message;
-        setScanning(false);
-        navigate(paths.stripTest(found.stripId));
-        return undefined;
-      }}
-    />
+    <Suspense fallback={<Loading label="Opening the scanner" />}>
+      <LabelScanner
+        title="Open a strip by its label"
+        hint="Point the camera at the code on a strip’s label, or on the label of an item on it."
+        onClose={() => setScanning(false)}
+        onCode={async (code) => {
+          const { stripForCode } = await import('@/features/labels/utils/strip-for-code');
+          const found = await stripForCode(code, data.venueId);
+          if ('message' in found) return found.message;
+          setScanning(false);
+          navigate(paths.stripTest(found.stripId));
+          return undefined;
+        }}
+      />
+    </Suspense>
   );
 
   return (

@@ -96,7 +96,6 @@ export function EntryGrid({
   const justRecorded = useRef<Set<string>>(new Set());
   const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
   const doneButton = useRef<HTMLAnchorElement>(null);
-  const confirmButton = useRef<HTMLButtonElement>(null);
 
   const measured = useCallback((s: StripStep) => !!s.latest || queued.has(s.id) || justRecorded.current.has(s.id), [queued]);
   const current = cells.find((c) => c.step.id === active) ?? null;
@@ -160,7 +159,6 @@ export function EntryGrid({
     }
     if (measured(cell.step) && !confirmed) {
       setAgain({ stepId: cell.step.id, text });
-      requestAnimationFrame(() => confirmButton.current?.focus());
       return null;
     }
     return { verdict: p.verdict.verdict, display: p.display, explanation: p.verdict.explanation };
@@ -221,7 +219,6 @@ export function EntryGrid({
     if (insulationOf(positionId).length === 0) return;
     setAgain(null);
     setAllOl(positionId);
-    requestAnimationFrame(() => confirmButton.current?.focus());
   }
 
   function move(cell: Cell, dRow: number, dCol: number) {
@@ -485,8 +482,9 @@ export function EntryGrid({
             className="flex flex-col gap-2 rounded-lg border-2 border-brass bg-brass-soft p-2 text-sm"
           >
             <p>This step has a reading already. Record again?</p>
+            {/* autoFocus: focused as it is committed, not a frame later, so an Enter typed at once lands here. */}
             <div className="flex gap-3">
-              <button ref={confirmButton} type="button" className={CONFIRM} onClick={() => void recordAndMove(current, again.text, true)}>
+              <button autoFocus type="button" className={CONFIRM} onClick={() => void recordAndMove(current, again.text, true)}>
                 Record again
               </button>
               <Button
@@ -512,7 +510,7 @@ export function EntryGrid({
               Record OL (over range, open) for every insulation pair of <strong>{rows.find((p) => p.id === allOl)?.name}</strong>?
             </p>
             <div className="flex gap-3">
-              <button ref={confirmButton} type="button" className={CONFIRM} onClick={() => void recordAllOl(allOl)}>
+              <button autoFocus type="button" className={CONFIRM} onClick={() => void recordAllOl(allOl)}>
                 Record OL ×{insulationOf(allOl).filter((c) => !measured(c.step)).length || insulationOf(allOl).length}
               </button>
               <Button
