@@ -24,6 +24,8 @@ export interface SignOffRecord {
   exceptions: ExceptionInput[];
   readiness: VenueReadiness;
   digest: string;
+  /** The venue's record as the readiness was read (sign-off.repository recordFingerprint). */
+  fingerprint: string;
   /** The readings certified, in certificate order: the check that nothing changed meanwhile. */
   certifiedReadingIds: string[];
   keyId: string;
@@ -47,13 +49,17 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
     await setImmediate();
     deps.db.transaction((tx) => {
       const repo = signOffRepository(tx);
-      // Nothing may have changed while we signed: same venue version, same readings. Readings are
-      // never changed once written (a correction is a new one), so the same ids in the same order
-      // are the same readings, and the digest signed need not be worked out again in here.
-      const again = readinessOf(tx, s.venueId, s.exceptions);
-      const ids = certifiedReadings(again.snap, again.readiness).map((r) => r.readingId);
-      if (!again.readiness.ready || ids.join() !== s.certifiedReadingIds.join()) {
-        throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
+      // Nothing may have changed while we signed: same venue version, same readings. The record's
+      // fingerprint unchanged says so in one statement; a changed one (a reading on a strip not
+      // certified, say) is looked at fully: readings are never changed once written (a correction
+      // is a new one), so the same certified ids in the same order are the same readings, and the
+      // digest signed need not be worked out again in here.
+      if (repo.recordFingerprint(s.venueId) !== s.fingerprint) {
+        const again = readinessOf(tx, s.venueId, s.exceptions);
+        const ids = certifiedReadings(again.snap, again.readiness).map((r) => r.readingId);
+        if (!again.readiness.ready || ids.join() !== s.certifiedReadingIds.join()) {
+          throw conflict('changed-meanwhile', 'Readings changed while the certificates were being made. Check the venue and sign again.');
+        }
       }
       const dismissedAgain = dismissedFaultsOf(tx, s.venueId, s.certifiedStripIds)
         .map((f) => f.faultId)

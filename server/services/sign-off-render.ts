@@ -15,6 +15,7 @@ import {
   SCOPE_SENTENCE,
   newCertificateNumber,
   readingsDigest,
+  readingsDigestInTurns,
   verifyUrlFor,
   type CertificateItem,
   type CertificatePayload,
@@ -140,11 +141,11 @@ function payloadBase(
   list: CertifiedReading[],
   zoneOf: Map<string, string | null>,
   planned: Planned,
+  digest: string,
 ): PayloadBase {
   const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
   const times = list.map((r) => r.takenAt).sort();
-  const strips = [...new Set(list.map((r) => r.stripId))].map((stripId) => {
-    const own = list.filter((r) => r.stripId === stripId);
+  const strips = [...groupBy(list, (r) => r.stripId)].map(([stripId, own]) => {
     return {
       id: stripId,
       label: own[0].stripLabel,
@@ -167,7 +168,7 @@ function payloadBase(
       count: list.length,
       nearLimit: list.filter((r) => r.verdict === 'near-limit').length,
       digestAlg: 'SHA-256' as const,
-      digest: readingsDigest(list),
+      digest,
     },
     profile: {
       id: profile.id,
@@ -211,7 +212,7 @@ export async function draftCertificates(
   );
   const venue: Draft = {
     payload: {
-      ...payloadBase(db, ctx, readings, zoneOf, planned),
+      ...payloadBase(db, ctx, readings, zoneOf, planned, await readingsDigestInTurns(readings)),
       number: venueNumber,
       kind: 'venue',
       exceptions: readiness.exceptions,
@@ -228,7 +229,7 @@ export async function draftCertificates(
     const own = byStrip.get(s.stripId) ?? [];
     strips.push({
       payload: {
-        ...payloadBase(db, ctx, own, zoneOf, planned),
+        ...payloadBase(db, ctx, own, zoneOf, planned, readingsDigest(own)),
         number: s.number,
         kind: 'strip',
         exceptions: [],

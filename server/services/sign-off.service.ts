@@ -11,7 +11,7 @@ import { signOffRepository } from '../db/sign-off.repository';
 import { AppError, conflict } from '../lib/app-error';
 import { currentSigningKey } from '../signing/signing-keys';
 import { verifyUrlFor } from '../signing/certificate-record';
-import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessOf, requireReady } from './sign-off-readiness';
+import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessInTurns, requireReady } from './sign-off-readiness';
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
 import { persistSignOff } from './sign-off-persist';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
@@ -69,7 +69,9 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     );
   }
   const exceptions = input.exceptions ?? [];
-  const { snap, readiness } = requireReady(deps.db, venueId, exceptions);
+  // Taken before the snapshot, which is read in turns: what the last check compares.
+  const fingerprint = repo.recordFingerprint(venueId);
+  const { snap, readiness } = await requireReady(deps.db, venueId, exceptions);
   // The event loop gets a turn between the long synchronous steps of a large venue, so
   // readings arriving meanwhile wait for one step, not for all of them.
   await setImmediate();
@@ -103,6 +105,7 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     exceptions,
     readiness,
     digest,
+    fingerprint,
     certifiedReadingIds: readings.map((r) => r.readingId),
     keyId: key.kid,
     issued,
@@ -124,9 +127,9 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
   };
 }
 
-function readiness(deps: AppDeps, user: AuthUser, venueId: string) {
+async function readiness(deps: AppDeps, user: AuthUser, venueId: string) {
   const row = accessService(deps.db).requireVenue(user, venueId, 'read');
-  const { readiness } = readinessOf(deps.db, venueId);
+  const { readiness } = await readinessInTurns(deps.db, venueId);
   const active = row.venue.status === 'signed-off' ? signOffRepository(deps.db).activeSignOff(venueId) : undefined;
   return {
     venue: { id: row.venue.id, name: row.venue.name, status: row.venue.status },

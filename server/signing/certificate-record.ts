@@ -1,6 +1,7 @@
 // What a certificate says, as a record: the payload that is signed (RFC 8785 canonical JSON in a
 // JWS) and the certified readings whose digest it carries. The PDF is rendered from these only.
-import { randomInt } from 'node:crypto';
+import { createHash, randomInt } from 'node:crypto';
+import { setImmediate } from 'node:timers/promises';
 import { sha256Hex } from '../lib/ids';
 import { canonicalJson } from './signing-keys';
 import { makeCertificateNumber, type CertificateKind } from '../../shared/domain/certificate-number';
@@ -109,6 +110,21 @@ export interface CertificatePayload {
 /** SHA-256 over the canonical JSON of the certified readings, in their certificate order. */
 export function readingsDigest(list: CertifiedReading[]): string {
   return sha256Hex(canonicalJson(list));
+}
+
+/**
+ * The same digest, hashed a slice of readings at a time with the event loop's turn between slices:
+ * a venue's 3,400 readings are some 45 ms of canonical JSON, which readings arriving meanwhile
+ * would otherwise wait out in one piece. The bytes are the same: RFC 8785 writes an array as its
+ * members' canonical JSON between brackets, separated by commas.
+ */
+export async function readingsDigestInTurns(list: CertifiedReading[], perTurn = 250): Promise<string> {
+  const hash = createHash('sha256').update('[');
+  for (let i = 0; i < list.length; i++) {
+    if (i > 0 && i % perTurn === 0) await setImmediate();
+    hash.update(i === 0 ? canonicalJson(list[i]) : `,${canonicalJson(list[i])}`);
+  }
+  return hash.update(']').digest('hex');
 }
 
 /** A new certificate number with 40 bits from the CSPRNG (shared/domain/certificate-number.ts). */

@@ -1,5 +1,6 @@
 // The certificate signing code against the published Ed25519 / JOSE test vectors.
 import { describe, expect, test } from 'vitest';
+import { createHash } from 'node:crypto';
 import { compactVerify, importJWK } from 'jose';
 import {
   canonicalJson,
@@ -10,6 +11,7 @@ import {
   publicJwkOf,
   signCompact,
 } from '../../server/signing/signing-keys';
+import { readingsDigest, readingsDigestInTurns, type CertifiedReading } from '../../server/signing/certificate-record';
 
 const hex = (b: Uint8Array) => Buffer.from(b).toString('hex');
 
@@ -72,5 +74,31 @@ describe('canonical JSON (RFC 8785)', () => {
 
   test('numbers are written the ECMAScript way (RFC 8785 §3.2.2.3)', () => {
     expect(canonicalJson([1e21, 0.000001, 1e-7, -0])).toBe('[1e+21,0.000001,1e-7,0]');
+  });
+});
+
+describe('the readings digest hashed in slices', () => {
+  const sha256 = (text: string) => createHash('sha256').update(text, 'utf8').digest('hex');
+  const reading = (i: number) =>
+    ({
+      readingId: `r-${i}`,
+      valueOhm: i / 10,
+      valueText: `${i / 10}`,
+      overRange: i % 7 === 0,
+      position: i % 2 ? 'Piste é' : 'Reel',
+    }) as unknown as CertifiedReading;
+
+  test('gives the SHA-256 of the RFC 8785 array written out by hand', async () => {
+    const list = [reading(1), reading(2)];
+    const text =
+      '[{"overRange":false,"position":"Piste é","readingId":"r-1","valueOhm":0.1,"valueText":"0.1"},' +
+      '{"overRange":false,"position":"Reel","readingId":"r-2","valueOhm":0.2,"valueText":"0.2"}]';
+    expect(await readingsDigestInTurns(list, 1)).toBe(sha256(text));
+  });
+
+  test('gives the digest of the whole list at once, whatever the slice, and of an empty list', async () => {
+    const list = Array.from({ length: 1000 }, (_, i) => reading(i));
+    for (const perTurn of [1, 7, 250, 5000]) expect(await readingsDigestInTurns(list, perTurn)).toBe(readingsDigest(list));
+    expect(await readingsDigestInTurns([])).toBe(sha256('[]'));
   });
 });

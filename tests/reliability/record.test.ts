@@ -9,6 +9,8 @@ import { createTestApp, DEMO, DEMO_PASSWORD, type TestApp } from '../setup/test-
 import { GOOD_VALUE, newReading, stepOf, stripByLabel, venueIds } from '../api/testing-helpers';
 import { auditLog, certificates, events, faults, leadNulls, readings, strips, venues } from '../../server/db/schema';
 import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
+import { signOffRepository } from '../../server/db/sign-off.repository';
+import { snapshot, snapshotInTurns } from '../../server/services/sign-off-readiness';
 import type { CertificatePayload } from '../../server/signing/certificate-record';
 import { pdfText } from '../setup/pdf-read';
 
@@ -321,5 +323,62 @@ describe('the equipment register', () => {
 
     const sam = await t.agentFor(DEMO.technician);
     expect((await sam.get(`/api/equipment/${itemId}`)).body.readings.length).toBe(full.readings.length);
+  });
+});
+
+describe("the sign-off's last check reads the record's fingerprint", () => {
+  // Sign-off compares it inside its transaction: equal means nothing it read has changed.
+  const fingerprint = (venueId: string) => signOffRepository(t.db).recordFingerprint(venueId);
+  const continuityOf = async (venueId: string, label: string) =>
+    (await stripByLabel(t, venueId, label)).positions.flatMap((p) => p.steps).find((st) => st.testKind === 'continuity')!;
+
+  test('the snapshot read a few strips at a time is the snapshot read at once, strip by strip and in order', async () => {
+    for (const venueId of [hall, annex]) expect(await snapshotInTurns(t.db, venueId)).toEqual(snapshot(t.db, venueId));
+    // More strips than one turn reads (20): the hall's are read in two turns or more.
+    expect(signOffRepository(t.db).stripIdsOf(hall).length).toBeGreaterThan(20);
+  });
+
+  test('a reading, a correction, a withdrawn strip and a fault moving on each change it; the same record, or another venue, does not', async () => {
+    const sam = await t.agentFor(DEMO.technician);
+    const marco = await t.agentFor(DEMO.director);
+    const before = fingerprint(hall);
+    expect(fingerprint(hall)).toBe(before);
+
+    // Another venue's reading leaves this one's alone.
+    const annexStrip = t.db.select().from(strips).where(eq(strips.venueId, annex)).all()[0]!;
+    const annexStep = await continuityOf(annex, annexStrip.label);
+    expect((await marco.post('/api/readings').send(newReading(annexStep.id, '0.5'))).status).toBe(201);
+    expect(fingerprint(hall)).toBe(before);
+
+    const hallStrip = await stripByLabel(t, hall, 'Strip 14');
+    const hallStep = await continuityOf(hall, 'Strip 14');
+    const first = await sam.post('/api/readings').send(newReading(hallStep.id, '0.5'));
+    expect(first.status).toBe(201);
+    const afterReading = fingerprint(hall);
+    expect(afterReading).not.toBe(before);
+
+    const fixed = await sam
+      .post('/api/readings')
+      .send(newReading(hallStep.id, '0.45', { supersedesId: first.body.id, correctionReason: 'Typed the wrong digit on the keypad' }));
+    expect(fixed.status).toBe(201);
+    const afterCorrection = fingerprint(hall);
+    expect(afterCorrection).not.toBe(afterReading);
+
+    t.db.update(strips).set({ withdrawnAt: new Date().toISOString(), withdrawnReason: 'Probe' }).where(eq(strips.id, hallStrip.id)).run();
+    expect(fingerprint(hall)).not.toBe(afterCorrection);
+    t.db.update(strips).set({ withdrawnAt: null, withdrawnReason: null }).where(eq(strips.id, hallStrip.id)).run();
+    expect(fingerprint(hall)).toBe(afterCorrection);
+
+    const failing = await sam.post('/api/readings').send(newReading(hallStep.id, '55'));
+    expect(failing.status).toBe(201);
+    const faultId = failing.body.faultId as string;
+    const withFault = fingerprint(hall);
+    expect(withFault).not.toBe(afterCorrection);
+    t.db
+      .update(faults)
+      .set({ status: 'located', version: faultRow(faultId).version + 1 })
+      .where(eq(faults.id, faultId))
+      .run();
+    expect(fingerprint(hall)).not.toBe(withFault);
   });
 });
