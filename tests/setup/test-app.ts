@@ -10,6 +10,7 @@ import { startFakeSmtp, type OneTimeLink } from '../../server/mail/fake-smtp';
 import { createMailer } from '../../server/mail/mailer';
 import type { AppDeps, Logger } from '../../server/deps';
 import { seedDemo } from '../../server/db/seed-demo';
+import { endPhotoMetadataTool } from '../../server/storage/photo-metadata';
 import { createWorkerPool, type WorkerPoolOptions } from '../../server/workers/pool';
 import { TEMPLATE_DIR } from './global-setup';
 
@@ -87,6 +88,8 @@ export async function createTestApp(
 
   async function close() {
     await deps.workers.close();
+    // The ExifTool process the photos started (server/index.ts ends it at shutdown the same way).
+    await endPhotoMetadataTool();
     deps.mailer.close();
     await smtp.close();
     sqlite.close();
