@@ -4,6 +4,8 @@ import { RouteErrorBoundary, ErrorView } from '@/components/errors/error-view';
 import { Loading } from '@/components/ui/card';
 import { RequireAuth, RequireRole, NotAllowed } from './routes/auth/require-auth';
 import { paths } from '@/config/paths';
+import { queryClient } from '@/lib/query-client';
+import { stripQueryOptions } from '@/features/testing/api/get-strip';
 import { StripClock, VenueClock } from './venue-clock';
 
 const SignIn = lazy(() => import('./routes/auth/sign-in'));
@@ -14,7 +16,8 @@ const People = lazy(() => import('./routes/admin/people'));
 const Outbox = lazy(() => import('./routes/admin/outbox'));
 const Venue = lazy(() => import('./routes/venues/venue'));
 const VenueBoard = lazy(() => import('./routes/venues/board'));
-const StripTest = lazy(() => import('./routes/testing/strip-test'));
+const loadStripTest = () => import('./routes/testing/strip-test');
+const StripTest = lazy(loadStripTest);
 const OnThisTablet = lazy(() => import('./routes/testing/on-this-tablet'));
 const Fault = lazy(() => import('./routes/faults/fault'));
 const EquipmentRegister = lazy(() => import('./routes/equipment/register'));
@@ -71,6 +74,14 @@ export const router = createBrowserRouter([
       },
       {
         path: paths.stripTest(),
+        // Both started with the navigation, beside the sign-in check, instead of one after the
+        // other once it has answered: the screen's code and its strip (paused while offline, when
+        // the strip comes from the tablet's saved copy). Nothing is awaited: the screen shows at once.
+        loader: ({ params }) => {
+          void loadStripTest().catch(() => undefined);
+          void queryClient.prefetchQuery(stripQueryOptions(params.stripId ?? ''));
+          return null;
+        },
         element: page(
           <StripClock>
             <StripTest />
