@@ -4,7 +4,7 @@ import { apiAs, expect, test } from './fixtures';
 const ONE_ROW_PX = 64;
 
 for (const role of ['technician', 'director', 'organiser', 'admin'] as const) {
-  for (const width of [768, 1024]) {
+  for (const width of [768, 1024, 1280]) {
     test(`the header of a ${role} stays one row at ${width} px, every page reachable from its menu`, async ({ page, signIn }) => {
       await page.setViewportSize({ width, height: 900 });
       await signIn(role);
@@ -30,6 +30,25 @@ for (const role of ['technician', 'director', 'organiser', 'admin'] as const) {
       await expect(menu).toHaveAttribute('aria-expanded', 'false');
     });
   }
+}
+
+for (const role of ['technician', 'director', 'organiser', 'admin'] as const) {
+  test(`from 1536 px the header of a ${role} shows every page inline, none cut off, in one row`, async ({ page, signIn }) => {
+    await page.setViewportSize({ width: 1536, height: 900 });
+    await signIn(role);
+    await page.goto('/');
+    await expect(page.getByRole('heading', { level: 1 })).toBeVisible();
+    const header = page.getByTestId('app-header');
+    await expect(page.getByRole('button', { name: 'Menu' })).toBeHidden();
+    const nav = header.getByRole('navigation', { name: 'Main' });
+    await expect(nav.getByRole('link', { name: 'Fault locator' })).toBeVisible();
+    await expect(nav.getByRole('link', { name: 'Outbox' })).toHaveCount(role === 'admin' ? 1 : 0);
+    const { scrollWidth, clientWidth } = await nav.evaluate((n) => ({ scrollWidth: n.scrollWidth, clientWidth: n.clientWidth }));
+    expect(scrollWidth).toBeLessThanOrEqual(clientWidth);
+    await expect(header.getByRole('button', { name: 'Sign out' })).toBeVisible();
+    expect((await header.boundingBox())!.height).toBeLessThanOrEqual(ONE_ROW_PX + 1);
+    await page.screenshot({ path: `test-results/header-${role}-1536.png` });
+  });
 }
 
 test('an organiser sees no director actions on a venue or its event', async ({ page, signIn }) => {

@@ -12,8 +12,10 @@ const linkClass = ({ isActive }: { isActive: boolean }) =>
   `flex min-h-touch shrink-0 items-center rounded-md px-3 text-sm font-medium whitespace-nowrap ${isActive ? 'bg-white/15' : 'hover:bg-white/10'}`;
 
 /**
- * One header row at every tablet width: below 1280 px the pages and the sign-out sit behind a Menu
- * button (the panel lies over the page, so the header never grows); from 1280 px they are inline.
+ * One header row at every width: below 1536 px the pages and the sign-out sit behind a Menu button
+ * (the panel lies over the page, so the header never grows); from 1536 px they are inline, in a
+ * header as wide as the window (an admin's links, the sync state and the length switch need some
+ * 1 400 px side by side; in the page's 1 152 px they were cut off).
  */
 export function AppShell({
   user,
@@ -44,7 +46,7 @@ export function AppShell({
   return (
     <div className="min-h-screen">
       <header className="relative bg-brand text-white" data-testid="app-header">
-        <div className="mx-auto flex max-w-6xl flex-nowrap items-center gap-x-3 px-4 py-2">
+        <div className="mx-auto flex max-w-6xl flex-nowrap items-center gap-x-3 px-4 py-2 2xl:max-w-none">
           <NavLink to="/" className="flex min-h-touch shrink-0 items-center gap-2 text-lg font-semibold tracking-wide">
             <svg aria-hidden viewBox="0 0 32 32" className="size-7">
               <rect width="32" height="32" rx="6" fill="#f2b33d" />
@@ -52,7 +54,7 @@ export function AppShell({
             </svg>
             <span className="max-sm:sr-only">Stripwarden</span>
           </NavLink>
-          <nav aria-label="Main" className="hidden min-w-0 flex-1 gap-1 overflow-x-auto xl:flex">
+          <nav aria-label="Main" className="hidden min-w-0 flex-1 gap-1 overflow-x-auto 2xl:flex">
             {items.map((n) => (
               <NavLink key={n.to} to={n.to} end={n.to === '/'} className={linkClass}>
                 {n.label}
@@ -62,7 +64,7 @@ export function AppShell({
           <button
             ref={menuButton}
             type="button"
-            className="flex min-h-touch items-center gap-2 rounded-md border border-white/40 px-3 text-sm font-semibold hover:bg-white/10 xl:hidden"
+            className="flex min-h-touch items-center gap-2 rounded-md border border-white/40 px-3 text-sm font-semibold hover:bg-white/10 2xl:hidden"
             aria-expanded={open}
             aria-controls={menuId}
             onClick={() => setOpen(!open)}
@@ -74,8 +76,8 @@ export function AppShell({
           </button>
           <div className="ml-auto flex shrink-0 items-center gap-3 text-sm">
             {extra}
-            <span className="hidden xl:inline">{who}</span>
-            <button type="button" className="hidden min-h-touch rounded-md px-3 font-medium hover:bg-white/10 xl:block" onClick={signOut}>
+            <span className="hidden 2xl:inline">{who}</span>
+            <button type="button" className="hidden min-h-touch rounded-md px-3 font-medium hover:bg-white/10 2xl:block" onClick={signOut}>
               Sign out
             </button>
           </div>
@@ -83,7 +85,7 @@ export function AppShell({
         {open && (
           <div
             id={menuId}
-            className="absolute inset-x-0 top-full z-30 border-t border-white/20 bg-brand shadow-lg xl:hidden"
+            className="absolute inset-x-0 top-full z-30 border-t border-white/20 bg-brand shadow-lg 2xl:hidden"
             onKeyDown={(e) => {
               if (e.key === 'Escape') {
                 setOpen(false);
