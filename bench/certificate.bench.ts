@@ -20,7 +20,7 @@ const b64 = (s: string | Buffer) => Buffer.from(s).toString('base64url');
 const LEAD_NULL = { id: 'lead-1', valueOhm: 0.1 };
 
 /** A fully tested venue as the sign-off would certify it: every step of every strip, passing. */
-function venueDocument(): CertificateDocument {
+async function venueDocument(): Promise<CertificateDocument> {
   const readings: CertifiedReading[] = [];
   const strips: CertificateDocument['payload']['strips'] = [];
   const tags: string[] = [];
@@ -90,7 +90,7 @@ function venueDocument(): CertificateDocument {
     strips,
     exceptions: [],
     items: tags.sort(),
-    readings: { count: readings.length, nearLimit: 0, digestAlg: 'SHA-256', digest: readingsDigest(readings) },
+    readings: { count: readings.length, nearLimit: 0, digestAlg: 'SHA-256', digest: await readingsDigest(readings) },
     profile: {
       id: 'profile',
       name: DEFAULT_LIMIT_PROFILE.name,
@@ -148,7 +148,7 @@ function plainText(pages: number): Promise<Buffer> {
 }
 
 export async function run(): Promise<BenchResult> {
-  const input = venueDocument();
+  const input = await venueDocument();
   const cert = await bestOfAsync(3, () => renderCertificatePdf(input));
   const pages = pageCount(cert.value);
   const plain = await bestOfAsync(3, () => plainText(pages));

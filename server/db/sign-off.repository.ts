@@ -1,6 +1,7 @@
 import { and, asc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/sqlite-core';
 import type { Db, Tx } from './client';
+import { latestReadingOf } from './latest-reading';
 import { equipment, faults, limitProfiles, organisations, positions, readings, signOffs, steps, strips, users, venues } from './schema';
 
 export type SignOffRow = typeof signOffs.$inferSelect;
@@ -54,10 +55,7 @@ export function stepsWithLatestReading(db: Db | Tx, venueId: string, stripIds?: 
     .innerJoin(positions, eq(steps.positionId, positions.id))
     .innerJoin(strips, eq(positions.stripId, strips.id))
     .leftJoin(equipment, eq(positions.equipmentId, equipment.id))
-    .leftJoin(
-      readings,
-      eq(readings.id, sql`(select r.id from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`),
-    )
+    .leftJoin(readings, eq(readings.id, latestReadingOf(steps.id, 'id')))
     .leftJoin(readingEquipment, eq(readings.equipmentId, readingEquipment.id))
     .leftJoin(users, eq(readings.takenBy, users.id))
     .where(and(eq(strips.venueId, venueId), isNull(steps.removedAt), stripIds ? inArray(strips.id, stripIds) : undefined))
@@ -74,8 +72,7 @@ export function stepsWithLatestReading(db: Db | Tx, venueId: string, stripIds?: 
 export function recordFingerprint(db: Db | Tx, venueId: string): string {
   return db.get<{ f: string }>(sql`
     select
-      coalesce((select group_concat(s.id || ':' || coalesce((select r.id from readings r where r.step_id = s.id
-                  order by r.taken_at desc, r.rowid desc limit 1), ''), ',' order by s.id)
+      coalesce((select group_concat(s.id || ':' || coalesce(${latestReadingOf(sql.raw('s.id'), 'id')}, ''), ',' order by s.id)
                 from steps s join positions p on p.id = s.position_id join strips st on st.id = p.strip_id
                 where st.venue_id = ${venueId} and s.removed_at is null), '')
       || '|' || coalesce((select group_concat(st.id || ':' || coalesce(st.withdrawn_at, ''), ',' order by st.id)

@@ -1,5 +1,6 @@
 import { and, asc, desc, eq, inArray, isNull, ne, sql } from 'drizzle-orm';
 import type { Db, Tx } from './client';
+import { latestReadingOf } from './latest-reading';
 import { events, faults, positions, steps, strips, venueTechnicians, venues, equipment } from './schema';
 import { prepared } from './prepared';
 
@@ -77,10 +78,7 @@ export function venuesRepository(db: Db | Tx) {
           positionId: positions.id,
           stepId: steps.id,
           required: steps.required,
-          // Latest by time taken, ties broken by insertion order: corrections supersede.
-          verdict: sql<
-            'pass' | 'near-limit' | 'fail' | null
-          >`(select r.verdict from readings r where r.step_id = ${steps.id} order by r.taken_at desc, r.rowid desc limit 1)`,
+          verdict: sql<'pass' | 'near-limit' | 'fail' | null>`${latestReadingOf(steps.id, 'verdict')}`,
         })
         .from(steps)
         .innerJoin(positions, eq(steps.positionId, positions.id))

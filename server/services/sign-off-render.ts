@@ -15,7 +15,6 @@ import {
   SCOPE_SENTENCE,
   newCertificateNumber,
   readingsDigest,
-  readingsDigestInTurns,
   verifyUrlFor,
   type CertificateItem,
   type CertificatePayload,
@@ -135,14 +134,13 @@ function itemsOf(own: CertifiedReading[], planned: ReturnType<Planned['get']>): 
 }
 
 /** What a certificate says about its readings: strips, items, testers, the digest, the profile. */
-function payloadBase(
+async function payloadBase(
   db: Db,
   ctx: SigningContext,
   list: CertifiedReading[],
   zoneOf: Map<string, string | null>,
   planned: Planned,
-  digest: string,
-): PayloadBase {
+): Promise<PayloadBase> {
   const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
   const times = list.map((r) => r.takenAt).sort();
   const strips = [...groupBy(list, (r) => r.stripId)].map(([stripId, own]) => {
@@ -168,7 +166,7 @@ function payloadBase(
       count: list.length,
       nearLimit: list.filter((r) => r.verdict === 'near-limit').length,
       digestAlg: 'SHA-256' as const,
-      digest,
+      digest: await readingsDigest(list),
     },
     profile: {
       id: profile.id,
@@ -212,7 +210,7 @@ export async function draftCertificates(
   );
   const venue: Draft = {
     payload: {
-      ...payloadBase(db, ctx, readings, zoneOf, planned, await readingsDigestInTurns(readings)),
+      ...(await payloadBase(db, ctx, readings, zoneOf, planned)),
       number: venueNumber,
       kind: 'venue',
       exceptions: readiness.exceptions,
@@ -229,7 +227,7 @@ export async function draftCertificates(
     const own = byStrip.get(s.stripId) ?? [];
     strips.push({
       payload: {
-        ...payloadBase(db, ctx, own, zoneOf, planned, readingsDigest(own)),
+        ...(await payloadBase(db, ctx, own, zoneOf, planned)),
         number: s.number,
         kind: 'strip',
         exceptions: [],

@@ -2,7 +2,6 @@
 // JWS) and the certified readings whose digest it carries. The PDF is rendered from these only.
 import { createHash, randomInt } from 'node:crypto';
 import { setImmediate } from 'node:timers/promises';
-import { sha256Hex } from '../lib/ids';
 import { canonicalJson } from './signing-keys';
 import { makeCertificateNumber, type CertificateKind } from '../../shared/domain/certificate-number';
 
@@ -107,18 +106,14 @@ export interface CertificatePayload {
   verifyUrl: string;
 }
 
-/** SHA-256 over the canonical JSON of the certified readings, in their certificate order. */
-export function readingsDigest(list: CertifiedReading[]): string {
-  return sha256Hex(canonicalJson(list));
-}
-
 /**
- * The same digest, hashed a slice of readings at a time with the event loop's turn between slices:
- * a venue's 3,400 readings are some 45 ms of canonical JSON, which readings arriving meanwhile
- * would otherwise wait out in one piece. The bytes are the same: RFC 8785 writes an array as its
- * members' canonical JSON between brackets, separated by commas.
+ * SHA-256 over the canonical JSON of the certified readings, in their certificate order, hashed a
+ * slice at a time with the event loop's turn between slices: a venue's 3,400 readings are some
+ * 45 ms of canonical JSON, which readings arriving meanwhile would otherwise wait out in one piece.
+ * The bytes are those of the whole list: RFC 8785 writes an array as its members' canonical JSON
+ * between brackets, separated by commas.
  */
-export async function readingsDigestInTurns(list: CertifiedReading[], perTurn = 250): Promise<string> {
+export async function readingsDigest(list: CertifiedReading[], perTurn = 250): Promise<string> {
   const hash = createHash('sha256').update('[');
   for (let i = 0; i < list.length; i++) {
     if (i > 0 && i % perTurn === 0) await setImmediate();

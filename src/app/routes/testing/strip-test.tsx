@@ -18,6 +18,7 @@ import { newReadingId } from '@/features/offline/utils/reading-id';
 import { problemHelp } from '@/features/offline/components/queue-list';
 import { SafetyNotice } from '@/features/testing/components/safety-notice';
 import { LeadNull } from '@/features/testing/components/lead-null';
+import { stripForCode } from '@/features/labels/utils/strip-for-code';
 import { readLeadNull, safetyAcknowledged, saveLeadNull } from '@/features/testing/utils/session';
 import { Card, Loading, Notice, PageHeader } from '@/components/ui/card';
 import { ProgressBar, StatusMark } from '@/components/ui/status-mark';
@@ -349,7 +350,6 @@ export default function StripTestPage() {
         hint="Point the camera at the code on a strip’s label, or on the label of an item on it."
         onClose={() => setScanning(false)}
         onCode={async (code) => {
-          const { stripForCode } = await import('@/features/labels/utils/strip-for-code');
           const found = await stripForCode(code, data.venueId);
           if ('message' in found) return found.message;
           setScanning(false);
