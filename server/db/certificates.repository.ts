@@ -1,5 +1,5 @@
 // Issued certificates: written by the sign-off, listed, looked up by number or by file hash, revoked.
-import { and, asc, desc, eq } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Db, Tx } from './client';
 import { certificates, signOffs, strips, users, venues } from './schema';
 
@@ -8,9 +8,20 @@ export type CertificateRow = typeof certificates.$inferSelect;
 export function certificatesRepository(db: Db | Tx) {
   return {
     insert: (row: typeof certificates.$inferInsert) => db.insert(certificates).values(row).run(),
+    /** A sign-off's certificates in one statement: 121 inserts one by one held the event loop for 40–100 ms. */
+    insertMany: (rows: (typeof certificates.$inferInsert)[]) => (rows.length ? db.insert(certificates).values(rows).run() : undefined),
     /** The venue's clock, for showing a certificate's times. */
     venueTimeZone: (venueId: string) => db.select({ timeZone: venues.timeZone }).from(venues).where(eq(venues.id, venueId)).get()?.timeZone,
-    numberTaken: (number: string) => !!db.select({ id: certificates.id }).from(certificates).where(eq(certificates.number, number)).get(),
+    /** Which of these numbers are given out already, in one query. */
+    numbersTaken: (numbers: string[]) =>
+      new Set(
+        db
+          .select({ number: certificates.number })
+          .from(certificates)
+          .where(inArray(certificates.number, numbers))
+          .all()
+          .map((r) => r.number),
+      ),
 
     ofVenue: (venueId: string) =>
       db

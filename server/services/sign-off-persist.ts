@@ -79,8 +79,8 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
         exceptionsJson: JSON.stringify(s.readiness.exceptions),
         readingsDigest: s.digest,
       });
-      for (const c of s.issued) {
-        certificatesRepository(tx).insert({
+      certificatesRepository(tx).insertMany(
+        s.issued.map((c) => ({
           id: newId(),
           number: c.payload.number,
           signOffId,
@@ -93,8 +93,8 @@ export async function persistSignOff(deps: AppDeps, s: SignOffRecord): Promise<s
           pdfSha256: c.sha256,
           pdfPath: files.nameFor(c.payload.number),
           issuedAt: s.signedAt,
-        });
-      }
+        })),
+      );
       if (repo.markVenueSignedOff(s.venueId, s.venueVersion) !== 1) {
         throw conflict('changed-meanwhile', 'The venue changed while the certificates were being made. Check it and sign again.');
       }

@@ -1,6 +1,6 @@
 // Sign-off, step two: the certificates in memory. A number for the venue and for each ready strip,
 // the payload of each, signed (Ed25519 JWS) and rendered to PDF; nothing is written yet.
-import { setImmediate } from 'node:timers/promises';
+import { turns, type Turn } from '../lib/turns';
 import type { AppDeps } from '../deps';
 import type { Db } from '../db/client';
 import type { AuthUser } from '../auth/types';
@@ -88,23 +88,29 @@ export interface IssuedCertificate extends Draft {
   sha256: string;
 }
 
-/** A number for the venue and for each ready strip, none of them given out before. */
-function allocateNumbers(db: Db, year: number, readiness: VenueReadiness) {
-  const taken = new Set<string>();
-  const fresh = (kind: CertificateKind) => {
-    for (;;) {
-      const n = newCertificateNumber(kind, year);
-      if (!taken.has(n) && !certificatesRepository(db).numberTaken(n)) {
-        taken.add(n);
-        return n;
-      }
-    }
+/**
+ * A number for the venue and for each ready strip, none of them given out before nor repeated.
+ * 40 random bits each make a clash all but unheard of; a number that clashes is drawn again.
+ */
+export function allocateNumbers(
+  db: Db,
+  year: number,
+  readiness: Pick<VenueReadiness, 'strips'>,
+  draw: (kind: CertificateKind, year: number) => string = newCertificateNumber,
+) {
+  const ready = readiness.strips.filter((s) => s.state === 'ready');
+  const kindAt = (i: number): CertificateKind => (i === 0 ? 'venue' : 'strip');
+  let numbers = [draw('venue', year), ...ready.map(() => draw('strip', year))];
+  for (;;) {
+    const taken = certificatesRepository(db).numbersTaken(numbers);
+    const clashes = (n: string, i: number) => taken.has(n) || numbers.indexOf(n) !== i;
+    if (!numbers.some(clashes)) break;
+    numbers = numbers.map((n, i) => (clashes(n, i) ? draw(kindAt(i), year) : n));
+  }
+  return {
+    venueNumber: numbers[0]!,
+    stripNumbers: ready.map((s, i) => ({ stripId: s.stripId, label: s.label, number: numbers[i + 1]! })),
   };
-  const venueNumber = fresh('venue');
-  const stripNumbers = readiness.strips
-    .filter((s) => s.state === 'ready')
-    .map((s) => ({ stripId: s.stripId, label: s.label, number: fresh('strip') }));
-  return { venueNumber, stripNumbers };
 }
 
 type PayloadBase = Omit<CertificatePayload, 'number' | 'kind' | 'exceptions' | 'related' | 'verifyUrl'>;
@@ -140,6 +146,7 @@ async function payloadBase(
   list: CertifiedReading[],
   zoneOf: Map<string, string | null>,
   planned: Planned,
+  turn: Turn,
 ): Promise<PayloadBase> {
   const testers = new Map(list.map((r) => [r.takenById, r.takenBy]));
   const times = list.map((r) => r.takenAt).sort();
@@ -166,7 +173,7 @@ async function payloadBase(
       count: list.length,
       nearLimit: list.filter((r) => r.verdict === 'near-limit').length,
       digestAlg: 'SHA-256' as const,
-      digest: await readingsDigest(list),
+      digest: await readingsDigest(list, turn),
     },
     profile: {
       id: profile.id,
@@ -187,13 +194,10 @@ async function payloadBase(
   };
 }
 
-/** Strips drafted between two turns of the event loop: some 3 ms of work on a two-core machine. */
-const STRIPS_PER_TURN = 10;
-
 /**
- * The venue certificate (every certified reading, the exceptions) and one per ready strip. A few
- * strips at a time, with the event loop's turn between them: a 120-strip venue is some 50 ms of
- * hashing, which readings arriving meanwhile would otherwise wait out in one piece.
+ * The venue certificate (every certified reading, the exceptions) and one per ready strip, with
+ * the event loop's turn every few milliseconds (server/lib/turns.ts): a 120-strip venue is some
+ * 50 ms of hashing, which readings arriving meanwhile would otherwise wait out in one piece.
  */
 export async function draftCertificates(
   db: Db,
@@ -201,6 +205,7 @@ export async function draftCertificates(
   snap: Snapshot,
   readiness: VenueReadiness,
   readings: CertifiedReading[],
+  turn: Turn = turns(),
 ): Promise<Draft[]> {
   const { venueNumber, stripNumbers } = allocateNumbers(db, new Date(ctx.signedAt).getUTCFullYear(), readiness);
   const zoneOf = new Map(snap.stripRows.map((s) => [s.id, s.zone]));
@@ -210,7 +215,7 @@ export async function draftCertificates(
   );
   const venue: Draft = {
     payload: {
-      ...(await payloadBase(db, ctx, readings, zoneOf, planned)),
+      ...(await payloadBase(db, ctx, readings, zoneOf, planned, turn)),
       number: venueNumber,
       kind: 'venue',
       exceptions: readiness.exceptions,
@@ -223,11 +228,11 @@ export async function draftCertificates(
   const byStrip = groupBy(readings, (r) => r.stripId);
   const strips: Draft[] = [];
   for (const s of stripNumbers) {
-    if (strips.length % STRIPS_PER_TURN === 0) await setImmediate();
+    await turn();
     const own = byStrip.get(s.stripId) ?? [];
     strips.push({
       payload: {
-        ...(await payloadBase(db, ctx, own, zoneOf, planned)),
+        ...(await payloadBase(db, ctx, own, zoneOf, planned, turn)),
         number: s.number,
         kind: 'strip',
         exceptions: [],

@@ -2,7 +2,7 @@
 // password re-checked, certificates signed and rendered in memory (sign-off-render), then kept in
 // one transaction that freezes the venue (sign-off-persist). The organiser and the director get an
 // e-mail with the links.
-import { setImmediate } from 'node:timers/promises';
+import { turns } from '../lib/turns';
 import type { AppDeps } from '../deps';
 import type { AuthUser } from '../auth/types';
 import { verifyPassword } from '../auth/password';
@@ -11,7 +11,7 @@ import { signOffRepository } from '../db/sign-off.repository';
 import { AppError, conflict } from '../lib/app-error';
 import { currentSigningKey } from '../signing/signing-keys';
 import { verifyUrlFor } from '../signing/certificate-record';
-import { certifiedReadings, describedIssues, dismissedFaultsOf, readinessInTurns, requireReady } from './sign-off-readiness';
+import { certifiedReadingsInTurns, describedIssues, dismissedFaultsOf, readinessInTurns, requireReady } from './sign-off-readiness';
 import { DEFAULT_STATEMENT, draftCertificates, renderCertificates, type IssuedCertificate, type SigningContext } from './sign-off-render';
 import { persistSignOff } from './sign-off-persist';
 import type { SignOffInput } from '../../shared/schemas/sign-off';
@@ -71,12 +71,12 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
   const exceptions = input.exceptions ?? [];
   // Taken before the snapshot, which is read in turns: what the last check compares.
   const fingerprint = repo.recordFingerprint(venueId);
-  const { snap, readiness } = await requireReady(deps.db, venueId, exceptions);
-  // The event loop gets a turn between the long synchronous steps of a large venue, so
-  // readings arriving meanwhile wait for one step, not for all of them.
-  await setImmediate();
-
-  const readings = certifiedReadings(snap, readiness);
+  // The event loop gets a turn every few milliseconds of a large venue's work, so readings
+  // arriving meanwhile wait for one piece, not for all of it.
+  const turn = turns();
+  const { snap, readiness } = await requireReady(deps.db, venueId, exceptions, turn);
+  const readings = await certifiedReadingsInTurns(snap, readiness, turn);
+  await turn();
   const certifiedStripIds = new Set(readiness.strips.filter((s) => s.state === 'ready').map((s) => s.stripId));
   const dismissed = dismissedFaultsOf(deps.db, venueId, certifiedStripIds);
   const key = await currentSigningKey(deps.db, deps.env);
@@ -92,7 +92,7 @@ async function signOff(deps: AppDeps, user: AuthUser, venueId: string, input: Si
     dismissed,
   };
   // Sign and render everything first; only then write, so a failure leaves nothing behind.
-  const drafts = await draftCertificates(deps.db, ctx, snap, readiness, readings);
+  const drafts = await draftCertificates(deps.db, ctx, snap, readiness, readings, turn);
   const issued = await renderCertificates(deps.workers, key, drafts, row.venue.timeZone);
   // The venue certificate's digest is of every certified reading.
   const digest = drafts.find((d) => d.payload.kind === 'venue')!.payload.readings.digest;

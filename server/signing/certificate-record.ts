@@ -1,7 +1,7 @@
 // What a certificate says, as a record: the payload that is signed (RFC 8785 canonical JSON in a
 // JWS) and the certified readings whose digest it carries. The PDF is rendered from these only.
 import { createHash, randomInt } from 'node:crypto';
-import { setImmediate } from 'node:timers/promises';
+import { turns, type Turn } from '../lib/turns';
 import { canonicalJson } from './signing-keys';
 import { makeCertificateNumber, type CertificateKind } from '../../shared/domain/certificate-number';
 
@@ -107,17 +107,28 @@ export interface CertificatePayload {
 }
 
 /**
- * SHA-256 over the canonical JSON of the certified readings, in their certificate order, hashed a
- * slice at a time with the event loop's turn between slices: a venue's 3,400 readings are some
- * 45 ms of canonical JSON, which readings arriving meanwhile would otherwise wait out in one piece.
- * The bytes are those of the whole list: RFC 8785 writes an array as its members' canonical JSON
- * between brackets, separated by commas.
+ * Each reading's canonical JSON, kept while the reading object lives: a sign-off hashes every
+ * certified reading twice (the venue's digest and its strip's), and the text is the same.
  */
-export async function readingsDigest(list: CertifiedReading[], perTurn = 250): Promise<string> {
+const canonicalText = new WeakMap<CertifiedReading, string>();
+const canonicalOf = (r: CertifiedReading) => {
+  let text = canonicalText.get(r);
+  if (text === undefined) canonicalText.set(r, (text = canonicalJson(r)));
+  return text;
+};
+
+/**
+ * SHA-256 over the canonical JSON of the certified readings, in their certificate order, hashed a
+ * few milliseconds at a time with the event loop's turn between (server/lib/turns.ts): a venue's
+ * 3,400 readings are some 45 ms of canonical JSON, which readings arriving meanwhile would
+ * otherwise wait out in one piece. The bytes are those of the whole list: RFC 8785 writes an array
+ * as its members' canonical JSON between brackets, separated by commas.
+ */
+export async function readingsDigest(list: CertifiedReading[], turn: Turn = turns()): Promise<string> {
   const hash = createHash('sha256').update('[');
   for (let i = 0; i < list.length; i++) {
-    if (i > 0 && i % perTurn === 0) await setImmediate();
-    hash.update(i === 0 ? canonicalJson(list[i]) : `,${canonicalJson(list[i])}`);
+    await turn();
+    hash.update(i === 0 ? canonicalOf(list[i]) : `,${canonicalOf(list[i])}`);
   }
   return hash.update(']').digest('hex');
 }

@@ -13,6 +13,7 @@ import { capturedMail, certificates, events, readings, signOffs, users, venues }
 import { hashPassword, TEST_SCRYPT } from '../../server/auth/password';
 import { reopenIfSignedOff } from '../../server/services/venue-lifecycle';
 import { placeOf, renderCertificatePdf } from '../../server/pdf/certificate-pdf';
+import { allocateNumbers } from '../../server/services/sign-off-render';
 import type { CertificatePayload } from '../../server/signing/certificate-record';
 import { keyIdOf, newPrivateJwk, privateKeyFromText, publicJwkOf, writeKeyFile } from '../../server/signing/signing-keys';
 
@@ -235,6 +236,28 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
     const again = await (await t.agentFor(DEMO.director)).post(`/api/venues/${annexId}/sign-off`).send({ password: DEMO_PASSWORD });
     expect(again.status).toBe(409);
     expect(again.body.code).toBe('already-signed-off');
+  });
+
+  test('a number already given out, or drawn twice in one sign-off, is drawn again', () => {
+    const given = issued[0]!.number;
+    const draws = [given, 'SW-2026-AAAA-AAAA-S', 'SW-2026-AAAA-AAAA-S', 'SW-2026-BBBB-BBBB-V', 'SW-2026-CCCC-CCCC-S'];
+    const asked: string[] = [];
+    const strips = [
+      { stripId: 's1', label: 'Strip 1', state: 'ready' as const },
+      { stripId: 's2', label: 'Strip 2', state: 'ready' as const },
+      { stripId: 's3', label: 'Strip 3', state: 'withdrawn' as const },
+    ];
+    const out = allocateNumbers(t.db, 2026, { strips } as never, (kind) => {
+      asked.push(kind);
+      return draws.shift()!;
+    });
+    // The venue's number was taken by the first sign-off; the second strip drew the first one's.
+    expect(out.venueNumber).toBe('SW-2026-BBBB-BBBB-V');
+    expect(out.stripNumbers).toEqual([
+      { stripId: 's1', label: 'Strip 1', number: 'SW-2026-AAAA-AAAA-S' },
+      { stripId: 's2', label: 'Strip 2', number: 'SW-2026-CCCC-CCCC-S' },
+    ]);
+    expect(asked).toEqual(['venue', 'strip', 'strip', 'venue', 'strip']);
   });
 
   test('each stored file matches its recorded SHA-256 and is kept with owner-only key permissions', async () => {

@@ -12,6 +12,8 @@ import {
   signCompact,
 } from '../../server/signing/signing-keys';
 import { readingsDigest, type CertifiedReading } from '../../server/signing/certificate-record';
+import { turns } from '../../server/lib/turns';
+import { setImmediate } from 'node:timers/promises';
 
 const hex = (b: Uint8Array) => Buffer.from(b).toString('hex');
 
@@ -93,13 +95,21 @@ describe('the readings digest hashed in slices', () => {
     const text =
       '[{"overRange":false,"position":"Piste é","readingId":"r-1","valueOhm":0.1,"valueText":"0.1"},' +
       '{"overRange":false,"position":"Reel","readingId":"r-2","valueOhm":0.2,"valueText":"0.2"}]';
-    expect(await readingsDigest(list, 1)).toBe(sha256(text));
+    expect(await readingsDigest(list, turns(0))).toBe(sha256(text));
   });
 
-  test('gives the SHA-256 of the canonical JSON of the whole list at once, whatever the slice, and of an empty list', async () => {
+  test('gives the SHA-256 of the canonical JSON of the whole list at once, whatever the turns, twice over, and of an empty list', async () => {
     const list = Array.from({ length: 1000 }, (_, i) => reading(i));
     // The whole array through the RFC 8785 package in one piece (canonicalJson), hashed by node:crypto.
-    for (const perTurn of [1, 7, 250, 5000]) expect(await readingsDigest(list, perTurn)).toBe(sha256(canonicalJson(list)));
+    // A turn after every reading, after every third, after a few milliseconds, never; the second
+    // round reads the texts kept from the first.
+    let n = 0;
+    const everyThird = async () => {
+      if (++n % 3 === 0) await setImmediate();
+    };
+    for (const round of [1, 2])
+      for (const turn of [turns(0), everyThird, turns(), turns(Infinity)])
+        expect(await readingsDigest(list, turn), `round ${round}`).toBe(sha256(canonicalJson(list)));
     expect(await readingsDigest([])).toBe(sha256('[]'));
   });
 });
