@@ -3,16 +3,21 @@
 // rendered) over and over. Those jobs run on the worker pool; the readings must barely notice.
 // The rate is paced evenly (one reading every 1/RATE s, whatever the answers), as tablets send
 // them: autocannon's overallRate sends each second's quota at once at the top of the second, which
-// measures how fast a burst drains rather than what one reading waits.
-import { execFile } from 'node:child_process';
+// measures how fast a burst drains rather than what one reading waits. The large jobs are sent
+// from a process of their own at the lowest priority (bench/large-jobs.ts): in a hall they come
+// from tablets, whose CPU is not the server's.
+import { execFile, spawn } from 'node:child_process';
+import { createInterface } from 'node:readline';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 import type { PacedResult } from './paced-readings';
+import { fetchOnce, type LargeJobsReport, type LargeJobsSetup } from './large-jobs';
 import { v7 as uuidv7 } from 'uuid';
 import { signInCookie, startServer, type BenchResult } from './lib';
 
 const PORT = 4403;
 const PACED = fileURLToPath(new URL('./paced-readings.ts', import.meta.url));
+const LARGE_JOBS = fileURLToPath(new URL('./large-jobs.ts', import.meta.url));
 const execFileAsync = promisify(execFile);
 /** Each measured run, seconds; runs alone and mixed are taken in turns. */
 const RUN_SECONDS = 8;
@@ -23,37 +28,7 @@ const STRIPS = 120;
 const TRACE_SAMPLES = 2_000_000;
 const PASSWORD = 'demo-strip-2026';
 
-/** A scope export with an incident edge and a short's reflection, as a CSV. */
-function syntheticCsv(samples: number): string {
-  const dt = 0.1e-9;
-  const lines: string[] = ['time,volts'];
-  let seed = 7;
-  const noise = () => {
-    seed = (seed * 1664525 + 1013904223) % 4294967296;
-    return (seed / 4294967296 - 0.5) * 0.01;
-  };
-  for (let i = 0; i < samples; i++) {
-    const t = i * dt;
-    lines.push(`${t.toExponential(6)},${((t > 5e-6 ? 0.5 : 0) + (t > 5.09e-6 ? -0.4 : 0) + noise()).toFixed(5)}`);
-  }
-  return lines.join('\n');
-}
-
 type Json = Record<string, unknown>;
-
-/**
- * fetch, sent again once when the server had closed the idle keep-alive connection just as the
- * request went out (undici: "other side closed", nothing read): the request never reached it.
- */
-async function fetchOnce(url: string, init: RequestInit): Promise<Response> {
-  try {
-    return await fetch(url, init);
-  } catch (err) {
-    const cause = (err as { cause?: { code?: string; socket?: { bytesRead?: number } } }).cause;
-    if (cause?.code !== 'UND_ERR_SOCKET' || cause.socket?.bytesRead !== 0) throw err;
-    return fetch(url, init);
-  }
-}
 
 function client(base: string, cookie: string) {
   const headers = { Cookie: cookie, Origin: base, 'Content-Type': 'application/json' };
@@ -126,108 +101,91 @@ export async function run(): Promise<BenchResult> {
     };
 
     const arena = await readyVenue(server.base, marco);
-    const csv = syntheticCsv(TRACE_SAMPLES);
-    const jobs = { analyses: 0, signOffs: 0, analysisMs: [] as number[], signOffMs: [] as number[], refused: 0 };
-    const analyse = async () => {
-      const t0 = performance.now();
-      const res = await fetchOnce(`${server.base}/api/waveforms/analyse?velocityFactor=0.66`, {
-        method: 'POST',
-        headers: { ...sam.headers, 'Content-Type': 'text/csv' },
-        body: csv,
-      });
-      await res.arrayBuffer();
-      if (res.status === 503) jobs.refused++;
-      else if (res.status !== 200) throw new Error(`analysis: ${res.status}`);
-      else jobs.analysisMs.push(performance.now() - t0);
-    };
-    let renames = 0;
-    const signOffAndReopen = async () => {
-      const t0 = performance.now();
-      const res = await marco.call('POST', `/api/venues/${arena.venueId}/sign-off`, { password: PASSWORD });
-      if (res.status === 503) jobs.refused++;
-      else if (res.status !== 201) throw new Error(`sign-off: ${res.status} ${JSON.stringify(res.body)}`);
-      else {
-        jobs.signOffMs.push(performance.now() - t0);
-        const certificates = res.body.certificates as unknown[];
-        if (certificates.length !== STRIPS + 1) throw new Error(`sign-off issued ${certificates.length} certificates`);
+    const large = largeJobsProcess({
+      base: server.base,
+      technician: { Cookie: sam.headers.Cookie, Origin: server.base },
+      director: { Cookie: marco.headers.Cookie, Origin: server.base },
+      venueId: arena.venueId,
+      password: PASSWORD,
+      traceSamples: TRACE_SAMPLES,
+      certificates: STRIPS + 1,
+    });
+
+    try {
+      // Warm-up: the JIT, the worker threads (they start on first use) and both jobs once.
+      await readings(2);
+      await large.send('warm');
+
+      const alone: PacedResult[] = [];
+      const mixed: PacedResult[] = [];
+      for (let round = 0; round < ROUNDS; round++) {
+        alone.push(await readings(RUN_SECONDS));
+        await large.send('start');
+        mixed.push(await readings(RUN_SECONDS));
+        await large.send('stop');
       }
-      // A change to the plan re-opens the venue for the next round (a reading would only put its
-      // strip out of service).
-      const plan = await marco.call('GET', `/api/venues/${arena.venueId}`);
-      const renamed = await marco.call(
-        'PATCH',
-        `/api/venues/${arena.venueId}`,
-        { name: `Bench Arena ${++renames}` },
-        { 'If-Match': plan.etag },
-      );
-      if (renamed.status !== 200) throw new Error(`re-open: ${renamed.status} ${JSON.stringify(renamed.body)}`);
-    };
-
-    // Warm-up: the JIT, the worker threads (they start on first use) and both jobs once.
-    await readings(2);
-    await analyse();
-    await signOffAndReopen();
-    jobs.analysisMs.length = 0;
-    jobs.signOffMs.length = 0;
-
-    const alone: PacedResult[] = [];
-    const mixed: PacedResult[] = [];
-    for (let round = 0; round < ROUNDS; round++) {
-      alone.push(await readings(RUN_SECONDS));
-      let stop = false;
-      const background = Promise.all([
-        (async () => {
-          while (!stop) {
-            await analyse();
-            jobs.analyses++;
-          }
-        })(),
-        (async () => {
-          while (!stop) {
-            await signOffAndReopen();
-            jobs.signOffs++;
-          }
-        })(),
-      ]);
-      mixed.push(await readings(RUN_SECONDS));
-      stop = true;
-      await background;
+      const jobs = (await large.send('report')) as unknown as LargeJobsReport;
+      return result(alone, mixed, jobs, arena.steps.length);
+    } finally {
+      large.close();
     }
-    const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
-    const p99Alone = mean(alone.map((r) => r.p99));
-    const p99Mixed = mean(mixed.map((r) => r.p99));
-    const ratio = p99Mixed / p99Alone;
-    const failures = [...alone, ...mixed].reduce((n, r) => n + r.failures, 0);
-    return {
-      name: 'Readings while a trace is analysed and a 120-strip venue is signed off',
-      ratio,
-      ratioMeaning: 'reading p99 with the large jobs running ÷ reading p99 alone (same rate, runs taken in turns)',
-      target: '≤ 1.5',
-      pass: ratio <= 1.5 && failures === 0,
-      figures: {
-        readingsPerSecondOffered: RATE,
-        runSeconds: RUN_SECONDS,
-        rounds: ROUNDS,
-        p99AloneMs: +p99Alone.toFixed(1),
-        p99MixedMs: +p99Mixed.toFixed(1),
-        p99AloneRunsMs: alone.map((r) => r.p99.toFixed(1)).join(' / '),
-        p99MixedRunsMs: mixed.map((r) => r.p99.toFixed(1)).join(' / '),
-        p50AloneMs: +mean(alone.map((r) => r.p50)).toFixed(1),
-        p50MixedMs: +mean(mixed.map((r) => r.p50)).toFixed(1),
-        readingsSent: [...alone, ...mixed].reduce((n, r) => n + r.sent, 0),
-        readingFailures: failures,
-        traceSamples: TRACE_SAMPLES,
-        traceMiB: +(csv.length / 2 ** 20).toFixed(1),
-        analysesDone: jobs.analyses,
-        analysisMedianMs: Math.round([...jobs.analysisMs].sort((a, b) => a - b)[Math.floor(jobs.analysisMs.length / 2)] ?? NaN),
-        signOffsDone: jobs.signOffs,
-        signOffMedianMs: Math.round([...jobs.signOffMs].sort((a, b) => a - b)[Math.floor(jobs.signOffMs.length / 2)] ?? NaN),
-        certificatesPerSignOff: STRIPS + 1,
-        readingsCertified: arena.steps.length,
-        busyRefusals: jobs.refused,
-      },
-    };
   } finally {
     await server.stop();
   }
+}
+
+/** bench/large-jobs.ts as a child process, driven one command line at a time. */
+function largeJobsProcess(setup: LargeJobsSetup) {
+  const child = spawn(process.execPath, ['--import', 'tsx', LARGE_JOBS], { stdio: ['pipe', 'pipe', 'inherit'] });
+  const answers = createInterface({ input: child.stdout });
+  const waiting: ((line: string) => void)[] = [];
+  answers.on('line', (line) => waiting.shift()?.(line));
+  const send = (line: string) =>
+    new Promise<Json>((resolve, reject) => {
+      waiting.push((answer) => {
+        const parsed = JSON.parse(answer) as Json;
+        if (typeof parsed.error === 'string') reject(new Error(`large jobs: ${parsed.error}`));
+        else resolve(parsed);
+      });
+      child.stdin.write(`${line}\n`);
+    });
+  void send(JSON.stringify(setup));
+  return { send, close: () => child.kill() };
+}
+
+function result(alone: PacedResult[], mixed: PacedResult[], jobs: LargeJobsReport, readingsCertified: number): BenchResult {
+  const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
+  const p99Alone = mean(alone.map((r) => r.p99));
+  const p99Mixed = mean(mixed.map((r) => r.p99));
+  const ratio = p99Mixed / p99Alone;
+  const failures = [...alone, ...mixed].reduce((n, r) => n + r.failures, 0);
+  return {
+    name: 'Readings while a trace is analysed and a 120-strip venue is signed off',
+    ratio,
+    ratioMeaning: 'reading p99 with the large jobs running ÷ reading p99 alone (same rate, runs taken in turns)',
+    target: '≤ 1.5',
+    pass: ratio <= 1.5 && failures === 0,
+    figures: {
+      readingsPerSecondOffered: RATE,
+      runSeconds: RUN_SECONDS,
+      rounds: ROUNDS,
+      p99AloneMs: +p99Alone.toFixed(1),
+      p99MixedMs: +p99Mixed.toFixed(1),
+      p99AloneRunsMs: alone.map((r) => r.p99.toFixed(1)).join(' / '),
+      p99MixedRunsMs: mixed.map((r) => r.p99.toFixed(1)).join(' / '),
+      p50AloneMs: +mean(alone.map((r) => r.p50)).toFixed(1),
+      p50MixedMs: +mean(mixed.map((r) => r.p50)).toFixed(1),
+      readingsSent: [...alone, ...mixed].reduce((n, r) => n + r.sent, 0),
+      readingFailures: failures,
+      traceSamples: TRACE_SAMPLES,
+      traceMiB: +(jobs.traceBytes / 2 ** 20).toFixed(1),
+      analysesDone: jobs.analyses,
+      analysisMedianMs: Math.round([...jobs.analysisMs].sort((a, b) => a - b)[Math.floor(jobs.analysisMs.length / 2)] ?? NaN),
+      signOffsDone: jobs.signOffs,
+      signOffMedianMs: Math.round([...jobs.signOffMs].sort((a, b) => a - b)[Math.floor(jobs.signOffMs.length / 2)] ?? NaN),
+      certificatesPerSignOff: STRIPS + 1,
+      readingsCertified,
+      busyRefusals: jobs.refused,
+    },
+  };
 }
