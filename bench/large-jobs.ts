@@ -42,10 +42,10 @@ function lowestPriority() {
 }
 
 /** A scope export with an incident edge and a short's reflection, as a CSV. */
-export function syntheticCsv(samples: number): string {
+export function syntheticCsv(samples: number, noiseSeed = 7): string {
   const dt = 0.1e-9;
   const lines: string[] = ['time,volts'];
-  let seed = 7;
+  let seed = noiseSeed;
   const noise = () => {
     seed = (seed * 1664525 + 1013904223) % 4294967296;
     return (seed / 4294967296 - 0.5) * 0.01;

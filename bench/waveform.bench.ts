@@ -1,22 +1,7 @@
 // Waveform analysis of a 1-million-sample CSV against bare parsing of the same file into numbers.
 import { analyseWaveform, parseTraceCsv } from '../shared/domain/waveform';
 import { bestOf, type BenchResult } from './lib';
-
-function syntheticCsv(samples: number): string {
-  const dt = 0.1e-9;
-  const lines: string[] = ['time,volts'];
-  let seed = 42;
-  const noise = () => {
-    seed = (seed * 1664525 + 1013904223) % 4294967296;
-    return (seed / 4294967296 - 0.5) * 0.01;
-  };
-  for (let i = 0; i < samples; i++) {
-    const t = i * dt;
-    const v = (t > 5e-6 ? 0.5 : 0) + (t > 5.09e-6 ? -0.4 : 0) + noise();
-    lines.push(`${t.toExponential(6)},${v.toFixed(5)}`);
-  }
-  return lines.join('\n');
-}
+import { syntheticCsv } from './large-jobs';
 
 /** The least a parser must do: split lines and columns, turn text into numbers. */
 function bareParse(text: string) {
@@ -37,7 +22,7 @@ function bareParse(text: string) {
 }
 
 export async function run(): Promise<BenchResult> {
-  const csv = syntheticCsv(1_000_000);
+  const csv = syntheticCsv(1_000_000, 42);
   const bare = bestOf(5, () => bareParse(csv));
   const full = bestOf(5, () => analyseWaveform(parseTraceCsv(csv)));
   const ratio = full.ms / bare.ms;
