@@ -1,6 +1,8 @@
 // The venue certificate of a 120-strip venue with every reading, against pdfkit writing the same
-// number of pages of plain text with the same font embedded.
+// number of pages of plain text with the same font embedded (unpacked from its .woff, as the
+// certificates use it). Also one strip certificate, as a sign-off renders 120 of them.
 import PDFDocument from 'pdfkit';
+import { readFileSync } from 'node:fs';
 import { createHash, randomBytes, randomUUID } from 'node:crypto';
 import { join } from 'node:path';
 import { renderCertificatePdf, type CertificateDocument } from '../server/pdf/certificate-pdf';
@@ -10,10 +12,11 @@ import { DEFAULT_LIMIT_PROFILE } from '../shared/domain/limits';
 import { DEFAULT_POSITION_TEMPLATE, stepsForKind } from '../shared/domain/checklist';
 import { judgeTypedReading } from '../shared/domain/typed-reading';
 import { ruleLimitText } from '../server/services/sign-off-render';
+import { sfntFromWoff } from '../server/pdf/woff';
 import { bestOfAsync, type BenchResult } from './lib';
 
 const STRIPS = 120;
-const FONT = join(import.meta.dirname, '../server/pdf/fonts/ibm-plex-sans-latin-400-normal.woff');
+const FONT = sfntFromWoff(readFileSync(join(import.meta.dirname, '../server/pdf/fonts/ibm-plex-sans-latin-400-normal.woff')));
 const b64 = (s: string | Buffer) => Buffer.from(s).toString('base64url');
 
 /** The one test-lead null every reading of the benchmark venue was typed with. */
@@ -126,6 +129,24 @@ async function venueDocument(): Promise<CertificateDocument> {
   return { payload, jws, keyId: 'bench', readings };
 }
 
+/** The strip certificate of the venue's first strip, as the sign-off issues it beside the venue's. */
+function stripDocument(venue: CertificateDocument): CertificateDocument {
+  const strip = venue.payload.strips[0];
+  return {
+    ...venue,
+    readings: venue.readings.filter((r) => r.stripId === strip.id),
+    payload: {
+      ...venue.payload,
+      kind: 'strip',
+      number: 'SW-2026-BENC-STRP-S',
+      strips: [strip],
+      items: strip.items.flatMap((i) => (i.assetTag ? [i.assetTag] : [])),
+      related: { venueCertificate: venue.payload.number, stripCertificates: [] },
+      verifyUrl: 'http://localhost:3000/verify/SW-2026-BENC-STRP-S',
+    },
+  };
+}
+
 const pageCount = (pdf: Buffer) => (pdf.toString('latin1').match(/\/Type \/Page\b/g) ?? []).length;
 
 /** The limit: pdfkit alone, the same number of A4 pages of plain text in the same font. */
@@ -153,6 +174,7 @@ export async function run(): Promise<BenchResult> {
   const pages = pageCount(cert.value);
   const plain = await bestOfAsync(3, () => plainText(pages));
   const ratio = cert.ms / plain.ms;
+  const strip = await bestOfAsync(5, () => renderCertificatePdf(stripDocument(input)));
   return {
     name: `Venue certificate, ${STRIPS} strips`,
     ratio,
@@ -168,6 +190,8 @@ export async function run(): Promise<BenchResult> {
       plainTextPages: pageCount(plain.value),
       plainTextMs: +plain.ms.toFixed(1),
       plainTextKiB: Math.round(plain.value.length / 1024),
+      stripCertificateMs: +strip.ms.toFixed(1),
+      stripCertificatePages: pageCount(strip.value),
       sha256: createHash('sha256').update(cert.value).digest('hex').slice(0, 16),
     },
   };

@@ -1,9 +1,11 @@
 // A small typesetter over pdfkit: IBM Plex Sans embedded from .woff (fontkit's subsetter fails on
-// .woff2), font fallback across the Plex subsets (Ω lives in the Greek one), word wrapping,
-// and tables that break across pages with their header repeated.
+// .woff2), unpacked once per process (woff.ts), font fallback across the Plex subsets (Ω lives in
+// the Greek one), word wrapping, and tables that break across pages with their header repeated.
 import PDFDocument from 'pdfkit';
+import { readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { sfntFromWoff } from './woff';
 
 const FONT_DIR = join(dirname(fileURLToPath(import.meta.url)), 'fonts');
 export type Weight = 400 | 500 | 600 | 700;
@@ -50,6 +52,15 @@ const RANGES: Record<Subset, [number, number][]> = {
 };
 const SUBSETS: Subset[] = ['latin', 'latin-ext', 'greek'];
 const fontName = (s: Subset, w: Weight) => `plex-${s}-${w}`;
+
+const fontFiles = new Map<string, Buffer>();
+/** The font's file, unpacked from its .woff the first time a document of this process needs it. */
+function fontFile(subset: Subset, weight: Weight): Buffer {
+  const name = fontName(subset, weight);
+  let bytes = fontFiles.get(name);
+  if (!bytes) fontFiles.set(name, (bytes = sfntFromWoff(readFileSync(join(FONT_DIR, `ibm-plex-sans-${subset}-${weight}-normal.woff`)))));
+  return bytes;
+}
 
 function subsetOf(cp: number): Subset | null {
   for (const s of SUBSETS) if (RANGES[s].some(([a, b]) => cp >= a && cp <= b)) return s;
@@ -103,7 +114,7 @@ export function createDocument(info: { title: string; subject: string; keywords:
       ModDate: info.creationDate,
     },
   });
-  for (const s of SUBSETS) for (const w of WEIGHTS) doc.registerFont(fontName(s, w), join(FONT_DIR, `ibm-plex-sans-${s}-${w}-normal.woff`));
+  for (const s of SUBSETS) for (const w of WEIGHTS) doc.registerFont(fontName(s, w), fontFile(s, w));
   return doc;
 }
 
