@@ -1,8 +1,8 @@
 // A .woff font unpacked into the plain TrueType/OpenType file (sfnt) it wraps, with Node's own zlib.
 // Why: fontkit reads a .woff table by inflating it in JavaScript each time it is asked for it, and
 // asks for the whole glyph table once per glyph it draws or embeds, so a two-page strip
-// certificate spent some 200 ms inflating the same tables again and again (profiled: tiny-inflate
-// was half of all the work of a sign-off). Unpacked once per process, the tables are only read.
+// certificate spent most of its 250 ms inflating the same tables again and again (profiled:
+// tiny-inflate was half of the rendering's CPU time). Unpacked once per process, they are only read.
 // Layout from the W3C WOFF File Format 1.0 recommendation (§3 header, §4 table directory, §5 table
 // data) and the OpenType specification's table directory (searchRange, entrySelector, rangeShift).
 import { inflateSync } from 'node:zlib';

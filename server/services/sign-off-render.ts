@@ -26,7 +26,7 @@ import { leadNullsRepository } from '../db/lead-nulls.repository';
 import { venuesRepository } from '../db/venues.repository';
 import type { Snapshot } from './sign-off-readiness';
 import { temperatureRuleText, type LimitRule } from '../../shared/domain/limits';
-import type { VenueReadiness } from '../../shared/domain/readiness';
+import type { StripReadiness, VenueReadiness } from '../../shared/domain/readiness';
 import { formatOhm } from '../../shared/domain/units';
 import type { CertificateKind } from '../../shared/domain/certificate-number';
 
@@ -95,7 +95,7 @@ export interface IssuedCertificate extends Draft {
 export function allocateNumbers(
   db: Db,
   year: number,
-  readiness: Pick<VenueReadiness, 'strips'>,
+  readiness: { strips: Pick<StripReadiness, 'stripId' | 'label' | 'state'>[] },
   draw: (kind: CertificateKind, year: number) => string = newCertificateNumber,
 ) {
   const ready = readiness.strips.filter((s) => s.state === 'ready');

@@ -247,7 +247,7 @@ describe('POST /api/venues/:id/sign-off — the certificates', () => {
       { stripId: 's2', label: 'Strip 2', state: 'ready' as const },
       { stripId: 's3', label: 'Strip 3', state: 'withdrawn' as const },
     ];
-    const out = allocateNumbers(t.db, 2026, { strips } as never, (kind) => {
+    const out = allocateNumbers(t.db, 2026, { strips }, (kind) => {
       asked.push(kind);
       return draws.shift()!;
     });
