@@ -1,4 +1,4 @@
-import { lazy, Suspense, type ReactNode } from 'react';
+import { type ReactNode, Suspense } from 'react';
 import { createBrowserRouter } from 'react-router';
 import { RouteErrorBoundary, ErrorView } from '@/components/errors/error-view';
 import { Loading } from '@/components/ui/card';
@@ -6,38 +6,39 @@ import { RequireAuth, RequireRole, NotAllowed } from './routes/auth/require-auth
 import { paths } from '@/config/paths';
 import { queryClient } from '@/lib/query-client';
 import { stripQueryOptions } from '@/features/testing/api/get-strip';
+import { meQueryOptions } from '@/features/auth/api/get-me';
+import { lazyPage } from './lazy-page';
 import { StripClock, VenueClock } from './venue-clock';
 
-const SignIn = lazy(() => import('./routes/auth/sign-in'));
-const SetPassword = lazy(() => import('./routes/auth/set-password'));
-const ResetPassword = lazy(() => import('./routes/auth/reset-password'));
-const Home = lazy(() => import('./routes/home/home'));
-const People = lazy(() => import('./routes/admin/people'));
-const Outbox = lazy(() => import('./routes/admin/outbox'));
-const Venue = lazy(() => import('./routes/venues/venue'));
-const VenueBoard = lazy(() => import('./routes/venues/board'));
-const loadStripTest = () => import('./routes/testing/strip-test');
-const StripTest = lazy(loadStripTest);
-const OnThisTablet = lazy(() => import('./routes/testing/on-this-tablet'));
-const Fault = lazy(() => import('./routes/faults/fault'));
-const EquipmentRegister = lazy(() => import('./routes/equipment/register'));
-const EquipmentItem = lazy(() => import('./routes/equipment/item'));
-const EquipmentImport = lazy(() => import('./routes/equipment/import'));
-const Events = lazy(() => import('./routes/events/events'));
-const EventPage = lazy(() => import('./routes/events/event'));
-const VenuePlan = lazy(() => import('./routes/venues/plan'));
-const VenueReadings = lazy(() => import('./routes/venues/readings'));
-const VenueAudit = lazy(() => import('./routes/venues/audit'));
-const Profiles = lazy(() => import('./routes/profiles/profiles'));
-const Profile = lazy(() => import('./routes/profiles/profile'));
-const FaultLocator = lazy(() => import('./routes/tools/fault-locator'));
-const SignOff = lazy(() => import('./routes/venues/sign-off'));
-const Certificates = lazy(() => import('./routes/venues/certificates'));
-const VenueIncidents = lazy(() => import('./routes/venues/incidents'));
-const VenueSpares = lazy(() => import('./routes/venues/spares'));
-const Verify = lazy(() => import('./routes/verify/verify'));
-const ScannedTag = lazy(() => import('./routes/labels/scanned-tag'));
-const ScannedStrip = lazy(() => import('./routes/labels/scanned-strip'));
+const SignIn = lazyPage(() => import('./routes/auth/sign-in'));
+const SetPassword = lazyPage(() => import('./routes/auth/set-password'));
+const ResetPassword = lazyPage(() => import('./routes/auth/reset-password'));
+const Home = lazyPage(() => import('./routes/home/home'));
+const People = lazyPage(() => import('./routes/admin/people'));
+const Outbox = lazyPage(() => import('./routes/admin/outbox'));
+const Venue = lazyPage(() => import('./routes/venues/venue'));
+const VenueBoard = lazyPage(() => import('./routes/venues/board'));
+const StripTest = lazyPage(() => import('./routes/testing/strip-test'));
+const OnThisTablet = lazyPage(() => import('./routes/testing/on-this-tablet'));
+const Fault = lazyPage(() => import('./routes/faults/fault'));
+const EquipmentRegister = lazyPage(() => import('./routes/equipment/register'));
+const EquipmentItem = lazyPage(() => import('./routes/equipment/item'));
+const EquipmentImport = lazyPage(() => import('./routes/equipment/import'));
+const Events = lazyPage(() => import('./routes/events/events'));
+const EventPage = lazyPage(() => import('./routes/events/event'));
+const VenuePlan = lazyPage(() => import('./routes/venues/plan'));
+const VenueReadings = lazyPage(() => import('./routes/venues/readings'));
+const VenueAudit = lazyPage(() => import('./routes/venues/audit'));
+const Profiles = lazyPage(() => import('./routes/profiles/profiles'));
+const Profile = lazyPage(() => import('./routes/profiles/profile'));
+const FaultLocator = lazyPage(() => import('./routes/tools/fault-locator'));
+const SignOff = lazyPage(() => import('./routes/venues/sign-off'));
+const Certificates = lazyPage(() => import('./routes/venues/certificates'));
+const VenueIncidents = lazyPage(() => import('./routes/venues/incidents'));
+const VenueSpares = lazyPage(() => import('./routes/venues/spares'));
+const Verify = lazyPage(() => import('./routes/verify/verify'));
+const ScannedTag = lazyPage(() => import('./routes/labels/scanned-tag'));
+const ScannedStrip = lazyPage(() => import('./routes/labels/scanned-strip'));
 
 const page = (node: ReactNode) => <Suspense fallback={<Loading />}>{node}</Suspense>;
 
@@ -50,6 +51,12 @@ export const router = createBrowserRouter([
   { path: paths.verify(), element: page(<Verify />), errorElement: <RouteErrorBoundary /> },
   {
     element: <RequireAuth />,
+    // Who is signed in, asked with the navigation: the guard would otherwise ask only once the
+    // tablet's saved copy has been read back (TanStack Query holds queries until then).
+    loader: () => {
+      void queryClient.prefetchQuery(meQueryOptions());
+      return null;
+    },
     errorElement: <RouteErrorBoundary />,
     children: [
       { index: true, element: page(<Home />), errorElement: <RouteErrorBoundary /> },
@@ -78,7 +85,7 @@ export const router = createBrowserRouter([
         // other once it has answered: the screen's code and its strip (paused while offline, when
         // the strip comes from the tablet's saved copy). Nothing is awaited: the screen shows at once.
         loader: ({ params }) => {
-          void loadStripTest().catch(() => undefined);
+          void StripTest.preload().catch(() => undefined);
           void queryClient.prefetchQuery(stripQueryOptions(params.stripId ?? ''));
           return null;
         },
