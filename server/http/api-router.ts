@@ -3,6 +3,7 @@ import type { ZodType } from 'zod';
 import type { AuthUser } from '../auth/types';
 import { AppError, forbidden, unauthorized } from '../lib/app-error';
 import { bodyBytes } from './body-bytes';
+import { ReceivedBody } from '../workers/parcel';
 import {
   bodyKindOf,
   fullPath,
@@ -77,7 +78,7 @@ function parseBody(c: Contract, req: Request): unknown {
   }
   if (kind === 'text') {
     const spec = c.body as TextBody;
-    if (!Buffer.isBuffer(req.body)) {
+    if (!(req.body instanceof ReceivedBody)) {
       throw new AppError(
         415,
         'unsupported-type',

@@ -1,9 +1,10 @@
-// A text body (an uploaded trace) read straight into one buffer of its declared length, chunk by
-// chunk as it arrives. express.raw keeps the chunks and joins them at the end: for a 40 MB trace
-// that one copy held the event loop for 50–100 ms, and every reading waiting behind it with it.
-// The buffer is the whole of its own memory, so it moves to a worker thread without another copy.
+// A text body (an uploaded trace) received chunk by chunk into a ReceivedBody (server/workers/
+// parcel.ts): each chunk leaves the event loop's heap as it arrives and the worker that reads the
+// trace gets them whole. Nothing joins 40 MB in one piece here: express.raw's join held the event
+// loop for 50–100 ms, and a buffer of the whole body set off a full collection of this heap.
 import express, { type RequestHandler } from 'express';
 import { AppError } from '../lib/app-error';
+import { ReceivedBody } from '../workers/parcel';
 
 const incomplete = () =>
   new AppError(400, 'incomplete-body', 'The upload did not arrive whole (its size is not the one announced). Send it again.');
@@ -17,6 +18,9 @@ export function bodyBytes(opts: { contentTypes: readonly string[]; maxBytes: num
     const declared = req.headers['content-length'];
     const length = declared === undefined ? NaN : Number(declared);
     const coding = (req.headers['content-encoding'] ?? 'identity').toLowerCase();
+    const body = new ReceivedBody();
+    // Whatever becomes of the request, what nobody read is freed once the answer has gone.
+    res.once('close', () => body.close());
     if (
       !Number.isSafeInteger(length) ||
       length <= 0 ||
@@ -25,10 +29,16 @@ export function bodyBytes(opts: { contentTypes: readonly string[]; maxBytes: num
       req.headers['transfer-encoding'] !== undefined ||
       !req.is(types)
     ) {
-      return general(req, res, next);
+      return general(req, res, (err?: unknown) => {
+        if (err) return next(err);
+        // Another type leaves no bytes: the contract's check answers 415.
+        if (Buffer.isBuffer(req.body)) {
+          body.add(req.body);
+          req.body = body;
+        }
+        next();
+      });
     }
-    const body = Buffer.allocUnsafeSlow(length);
-    let received = 0;
     let settled = false;
     const settle = (err?: unknown) => {
       if (settled) return;
@@ -42,12 +52,11 @@ export function bodyBytes(opts: { contentTypes: readonly string[]; maxBytes: num
     };
     // Node's HTTP parser never delivers more than Content-Length; checked anyway, as the parser does.
     const onData = (chunk: Buffer) => {
-      if (received + chunk.length > length) return settle(incomplete());
-      chunk.copy(body, received);
-      received += chunk.length;
+      if (body.byteLength + chunk.length > length) return settle(incomplete());
+      body.add(chunk);
     };
     req.on('data', onData);
-    req.once('end', () => settle(received === length ? undefined : incomplete()));
+    req.once('end', () => settle(body.byteLength === length ? undefined : incomplete()));
     // The client went away: nobody reads the answer, but the chain must still end.
     req.once('aborted', () => settle(incomplete()));
     req.once('error', (err) => settle(err));

@@ -9,7 +9,7 @@ export function faultLocationRoutes(deps: AppDeps) {
   api.route(c.locate, ({ user, body }) => service.locate(user, body));
   api.route(c.analyse, async ({ user, body, query, req }) => {
     const charset = /;\s*charset="?([^";\s]+)"?/i.exec(req.get('content-type') ?? '')?.[1];
-    return service.analyse(user, Buffer.from(body.buffer, body.byteOffset, body.byteLength), charset, query);
+    return service.analyse(user, body, charset, query);
   });
   return api;
 }

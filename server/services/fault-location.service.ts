@@ -4,7 +4,9 @@ import type { WaveformQuery } from '../../shared/schemas/waveforms';
 import type { WaveformAnswer } from '../../shared/contracts/fault-location';
 import type { AuthUser } from '../auth/types';
 import { unprocessable } from '../lib/app-error';
-import { ownBytes, type WorkerPool } from '../workers/pool';
+import type { WorkerPool } from '../workers/pool';
+import { receivedBody } from '../workers/parcel';
+import type { ReceivedBytes } from '../../shared/contracts/contract';
 import type { Env } from '../config/env';
 
 /**
@@ -34,9 +36,9 @@ export function faultLocationService(workers: WorkerPool, env: Pick<Env, 'FAULT_
   }
 
   /** The trace is parsed and analysed on a worker thread (server/workers/jobs.ts): it may be 2 million samples. */
-  function analyse(user: AuthUser, body: Buffer, charset: string | undefined, query: WaveformQuery): Promise<WaveformAnswer> {
-    const bytes = ownBytes(body);
-    return workers.run('waveformAnswer', { bytes, charset, query, units: user.unitSystem }, [bytes.buffer]);
+  function analyse(user: AuthUser, body: ReceivedBytes, charset: string | undefined, query: WaveformQuery): Promise<WaveformAnswer> {
+    const parcel = receivedBody(body).take();
+    return workers.run('waveformAnswer', { parcel, charset, query, units: user.unitSystem }, [parcel.port]);
   }
 
   return { locate, analyse };

@@ -10,6 +10,7 @@ import type { WaveformQuery } from '../../shared/schemas/waveforms';
 import type { WaveformAnswer } from '../../shared/contracts/fault-location';
 import type { TraceAnalysisDto } from '../../shared/schemas/attachments';
 import { AppError, unprocessable } from '../lib/app-error';
+import { readParcel, type BytesParcel } from './parcel';
 import type { Sheet, SheetLimits } from '../lib/spreadsheet';
 import type { CertificateDocument } from '../pdf/certificate-pdf';
 import type { LabelSheetDocument } from '../pdf/label-sheet';
@@ -129,8 +130,8 @@ export function storedTraceAnalysis(
 
 /** Every job a worker runs, by name: its input and what it answers. */
 export const jobs = {
-  waveformAnswer: (a: { bytes: Uint8Array; charset: string | undefined; query: WaveformQuery; units: LengthSystem }) =>
-    waveformAnswer(decodeTrace(a.bytes, a.charset), a.query, a.units),
+  waveformAnswer: (a: { parcel: BytesParcel; charset: string | undefined; query: WaveformQuery; units: LengthSystem }) =>
+    waveformAnswer(decodeTrace(readParcel(a.parcel), a.charset), a.query, a.units),
   checkTrace: (a: { bytes: Uint8Array }) => checkTrace(a.bytes),
   storedTraceAnalysis: (a: { bytes: Uint8Array; velocityFactor: number | null; lengthM: number | null; units: LengthSystem }) =>
     storedTraceAnalysis(new TextDecoder('utf-8').decode(a.bytes), a),

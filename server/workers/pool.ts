@@ -4,6 +4,7 @@
 // waiting, a request is answered 503 with Retry-After at once rather than piling up memory.
 import { Piscina } from 'piscina';
 import { availableParallelism } from 'node:os';
+import type { MessagePort } from 'node:worker_threads';
 import { AppError } from '../lib/app-error';
 import type { JobName, Jobs } from './jobs';
 import type { WorkerOutcome } from './task-worker';
@@ -53,7 +54,7 @@ export function createWorkerPool(opts: WorkerPoolOptions) {
     async run<N extends JobName>(
       job: N,
       input: Parameters<Jobs[N]>[0],
-      transfer: ArrayBuffer[] = [],
+      transfer: (ArrayBuffer | MessagePort)[] = [],
     ): Promise<Awaited<ReturnType<Jobs[N]>>> {
       if (inFlight >= limit) {
         throw new AppError(

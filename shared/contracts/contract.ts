@@ -30,6 +30,13 @@ export interface TextBody {
   readonly maxBytes: number;
   readonly what: string;
 }
+/**
+ * A text body as a handler gets it: bytes the server holds outside the event loop's heap until a
+ * worker thread reads them (server/workers/parcel.ts).
+ */
+export interface ReceivedBytes {
+  readonly byteLength: number;
+}
 /** A JSON body is its zod schema itself. */
 export type BodySpec = z.ZodType | MultipartBody | TextBody;
 
@@ -134,7 +141,7 @@ export type BodyOut<C extends Contract> = C extends { body: infer B }
       ? z.output<F>
       : undefined
     : B extends TextBody
-      ? Uint8Array
+      ? ReceivedBytes
       : B extends z.ZodType
         ? z.output<B>
         : undefined
