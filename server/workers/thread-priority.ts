@@ -1,4 +1,5 @@
 // A worker thread's scheduling priority, lowered so it takes the CPU the event loop leaves.
+import { execFileSync } from 'node:child_process';
 import { readlinkSync } from 'node:fs';
 import { setPriority } from 'node:os';
 
@@ -10,16 +11,25 @@ export const WORKER_NICE = 19;
 
 /**
  * Lowers the calling thread's priority, not the process's: on Linux a nice value belongs to a
- * thread, named by its id (/proc/thread-self points at it). Answers the thread id, or null where
- * threads cannot be told apart (elsewhere they stay equals).
+ * thread, named by its id (/proc/thread-self points at it). The thread also goes to the idle
+ * scheduling class (sched(7), SCHED_IDLE, set with util-linux's chrt): the kernel then treats a
+ * core running only such threads as free, so a request waking the event loop runs at once there
+ * instead of waiting for a slice; nice 19 alone only shrinks the worker's share. Answers the thread
+ * id, or null where threads cannot be told apart (elsewhere they stay equals).
  */
 export function lowerThreadPriority(nice = WORKER_NICE): number | null {
+  let tid: number;
   try {
-    const tid = Number(readlinkSync('/proc/thread-self').split('/').pop());
+    tid = Number(readlinkSync('/proc/thread-self').split('/').pop());
     if (!Number.isInteger(tid) || tid <= 0) return null;
     setPriority(tid, nice);
-    return tid;
   } catch {
     return null;
   }
+  try {
+    execFileSync('chrt', ['--idle', '--pid', '0', String(tid)], { stdio: 'ignore', timeout: 5_000 });
+  } catch {
+    // Without chrt the thread stays at nice 19, which still gives way, less promptly.
+  }
+  return tid;
 }
