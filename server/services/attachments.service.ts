@@ -8,7 +8,6 @@ import { attachmentsRepository, type AttachmentRow } from '../db/attachments.rep
 import type { EquipmentRow } from '../db/equipment.repository';
 import { recordAudit } from '../db/audit.repository';
 import { attachmentStore, type AttachmentStore } from '../storage/attachment-store';
-import { ownBytes } from '../workers/pool';
 import { accessService } from './access.service';
 import { conflict, forbidden, notFound, unprocessable } from '../lib/app-error';
 import { newId, nowIso, sha256Hex } from '../lib/ids';
@@ -302,17 +301,12 @@ async function analysis(scope: Scope, user: AuthUser, id: string): Promise<Trace
   const item = owner.equipment;
   const velocityFactor = item?.velocityFactor ?? null;
   const lengthM = item?.lengthM ?? null;
-  const bytes = ownBytes(await store.readAsync(row.storedName));
-  const result = await deps.workers.run(
-    'storedTraceAnalysis',
-    {
-      bytes,
-      velocityFactor,
-      lengthM,
-      units: user.unitSystem,
-    },
-    [bytes.buffer],
-  );
+  const result = await deps.workers.run('storedTraceAnalysis', {
+    path: store.pathOf(row.storedName),
+    velocityFactor,
+    lengthM,
+    units: user.unitSystem,
+  });
   return {
     attachmentId: row.id,
     originalName: row.originalName,

@@ -3,7 +3,6 @@
 // same folder and are renamed into place, so a crash never leaves a half-written file under a real name.
 import { readdirSync, renameSync, rmSync, statSync, writeFileSync, readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { readFile } from 'node:fs/promises';
 import { randomUUID } from 'node:crypto';
 import { PRIVATE_FILE_MODE, privateDir } from './private-files';
 
@@ -37,7 +36,6 @@ export function attachmentStore(dataDir: string) {
       return name;
     },
     read: (storedName: string) => readFileSync(pathOf(storedName)),
-    readAsync: (storedName: string) => readFile(pathOf(storedName)),
     remove(storedName: string | null | undefined) {
       if (storedName) rmSync(pathOf(storedName), { force: true });
     },

@@ -11,6 +11,7 @@ import type { WaveformAnswer } from '../../shared/contracts/fault-location';
 import type { TraceAnalysisDto } from '../../shared/schemas/attachments';
 import { AppError, unprocessable } from '../lib/app-error';
 import { readParcel, type BytesParcel } from './parcel';
+import { readFileSync } from 'node:fs';
 import type { Sheet, SheetLimits } from '../lib/spreadsheet';
 import type { CertificateDocument } from '../pdf/certificate-pdf';
 import type { LabelSheetDocument } from '../pdf/label-sheet';
@@ -133,8 +134,9 @@ export const jobs = {
   waveformAnswer: (a: { parcel: BytesParcel; charset: string | undefined; query: WaveformQuery; units: LengthSystem }) =>
     waveformAnswer(decodeTrace(readParcel(a.parcel), a.charset), a.query, a.units),
   checkTrace: (a: { bytes: Uint8Array }) => checkTrace(a.bytes),
-  storedTraceAnalysis: (a: { bytes: Uint8Array; velocityFactor: number | null; lengthM: number | null; units: LengthSystem }) =>
-    storedTraceAnalysis(new TextDecoder('utf-8').decode(a.bytes), a),
+  // Read here from the attachment's file: its bytes never pass through the event loop's heap.
+  storedTraceAnalysis: (a: { path: string; velocityFactor: number | null; lengthM: number | null; units: LengthSystem }) =>
+    storedTraceAnalysis(readFileSync(a.path, 'utf8'), a),
   // The workbook reader and the PDF renderer are large: loaded by a worker when it first needs them.
   readSheet: async (a: { bytes: Uint8Array; fileName: string; limits: SheetLimits }): Promise<Sheet> => {
     const { readSheet } = await import('../lib/spreadsheet');

@@ -25,15 +25,6 @@ export const defaultWorkerPoolOptions = (): WorkerPoolOptions => ({
 
 const BUSY_RETRY_SECONDS = 5;
 
-/**
- * The bytes in an ArrayBuffer of their own, so it can be moved to a worker: a Buffer may be a view
- * into a larger shared pool (then it is copied once, which is still cheaper than cloning a string).
- */
-export function ownBytes(b: Uint8Array): Uint8Array<ArrayBuffer> {
-  if (b.byteOffset === 0 && b.byteLength === b.buffer.byteLength && b.buffer instanceof ArrayBuffer) return b as Uint8Array<ArrayBuffer>;
-  return new Uint8Array(b);
-}
-
 export function createWorkerPool(opts: WorkerPoolOptions) {
   const piscina = new Piscina({
     filename: new URL('./worker-entry.mjs', import.meta.url).href,
