@@ -285,3 +285,39 @@ test('a fault record saved meanwhile by someone else: the technician sees both v
   expect(after.body.notes).toBe('Jacket crushed near the 7 m mark.');
   await directorContext.close();
 });
+
+test('a reading the server has just confirmed is on the tablet before it leaves the queue: a reload with no network at once still shows it', async ({
+  page,
+  context,
+}) => {
+  await signIn(page, 'technician');
+  await page.goto('/');
+  await openVenueLink(page).click();
+  await expect(page.getByLabel('Go to strip number')).toBeVisible();
+  await page.evaluate(async () => {
+    await navigator.serviceWorker.ready;
+  });
+  await page.reload();
+  await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+
+  await page.getByLabel('Go to strip number').fill('22'); // not started in the demo scenario
+  await page.keyboard.press('Enter');
+  await expect(page.getByRole('heading', { name: 'Strip 22 — testing' })).toBeVisible();
+  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  const first = page.locator('li[data-step]').first();
+  await expect(first.locator('input[id^="reading-"]')).toBeFocused();
+  await page.keyboard.type('0.5');
+  await page.keyboard.press('Enter');
+  // The server's answer is in: the row shows the recorded reading, nothing of it waits in the queue.
+  await expect(first.getByTestId('latest')).toContainText('0.5');
+  await expect(first.getByTestId('queued')).toHaveCount(0);
+  await expect(indicator(page)).toHaveText('Online · all sent');
+
+  // The network goes that instant, and the tablet reloads.
+  await context.setOffline(true);
+  await page.reload();
+  await expect(page.getByRole('heading', { name: 'Strip 22 — testing' })).toBeVisible();
+  await expect(indicator(page)).toHaveAttribute('data-state', 'offline');
+  await expect(first.getByTestId('latest')).toContainText('0.5');
+  await context.setOffline(false);
+});

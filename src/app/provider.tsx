@@ -1,11 +1,11 @@
 import type { ReactNode } from 'react';
-import { onlineManager } from '@tanstack/react-query';
+import { dehydrate, onlineManager } from '@tanstack/react-query';
 import { PersistQueryClientProvider, type PersistQueryClientOptions } from '@tanstack/react-query-persist-client';
 import { queryClient } from '@/lib/query-client';
 import { setReachabilityObserver, setUnauthenticatedHandler } from '@/lib/api-client';
 import { meQueryOptions } from '@/features/auth/api/get-me';
 import { OFFLINE_MAX_AGE_MS, PERSISTED_KEY_PREFIXES, shouldPersistQuery } from '@/features/offline/utils/persist-filter';
-import { queryPersister } from '@/features/offline/utils/query-persister';
+import { queryPersister, saveQueryCopyNow } from '@/features/offline/utils/query-persister';
 import { setOutboxHandlers, startOutbox } from '@/features/offline/stores/outbox';
 import { connectionStore, serverAnswered, serverDidNotAnswer } from '@/features/offline/stores/connection';
 import { readingsRecorded, showRecordedReading } from '@/features/testing/api/show-recorded-reading';
@@ -23,11 +23,13 @@ onlineManager.setEventListener((setOnline) => {
   return connectionStore.subscribe(() => setOnline(connectionStore.getSnapshot()));
 });
 for (const key of PERSISTED_KEY_PREFIXES) queryClient.setQueryDefaults(key, { gcTime: OFFLINE_MAX_AGE_MS });
+const keptOnTablet = (q: { queryKey: readonly unknown[]; state: { status: string; data: unknown } }) =>
+  q.state.status === 'success' && shouldPersistQuery(q.queryKey, q.state.data);
 const persistOptions: Omit<PersistQueryClientOptions, 'queryClient'> = {
   persister: queryPersister,
   maxAge: OFFLINE_MAX_AGE_MS,
   buster: __APP_VERSION__,
-  dehydrateOptions: { shouldDehydrateQuery: (q) => q.state.status === 'success' && shouldPersistQuery(q.queryKey, q.state.data) },
+  dehydrateOptions: { shouldDehydrateQuery: keptOnTablet },
 };
 
 // Readings typed on the testing screen go through the tablet's outbox; its answers land in the cache.
@@ -38,6 +40,12 @@ setOutboxHandlers({
     // A retest ticks off the steps an incident waits for.
     void queryClient.invalidateQueries({ queryKey: ['incidents'] });
   },
+  saveCopy: () =>
+    saveQueryCopyNow({
+      buster: __APP_VERSION__,
+      timestamp: Date.now(),
+      clientState: dehydrate(queryClient, { shouldDehydrateQuery: keptOnTablet }),
+    }),
 });
 startOutbox();
 

@@ -52,7 +52,16 @@ export interface OutboxHandlers {
   onIncidentRecorded?: (incident: SentIncident, item: QueuedIncident) => void;
   /** A pass recorded readings on these strips and venues: refresh what shows progress. */
   onPassDone?: (touched: { stripIds: string[]; venueIds: string[] }) => void;
+  /**
+   * Writes the tablet's saved copy of what the screens show, at once. The queue lets a recorded
+   * reading or incident go only after it: the copy is otherwise written at most once a second, and
+   * a reload with no network in between showed a reading the server has as never measured.
+   */
+  saveCopy?: () => Promise<void>;
 }
+
+/** The saved copy first; a copy that cannot be written must not hold the queue up. */
+const saveCopy = () => handlers.saveCopy?.().catch(() => undefined);
 
 const db = typeof indexedDB === 'undefined' ? undefined : createStore('stripwarden-outbox', 'readings');
 // A database of its own: idb-keyval keeps one object store per database.
@@ -248,13 +257,14 @@ async function sendIncidents(userId: string, force: boolean, touched: { stripIds
     else serverAnswered();
     const outcome = classifyAnswer(answer);
     const next = applyOutcome(item, outcome, Date.now());
-    await putIncident(next, next ? undefined : item.id);
-    if (outcome.kind === 'retry') return outcome.reason;
     if (outcome.kind === 'done' && incident) {
       touched.stripIds.add(item.stripId);
       touched.venueIds.add(item.venueId);
       handlers.onIncidentRecorded?.(incident, item);
+      await saveCopy();
     }
+    await putIncident(next, next ? undefined : item.id);
+    if (outcome.kind === 'retry') return outcome.reason;
   }
   return null;
 }
@@ -292,12 +302,13 @@ async function settle(items: QueuedReading[], answers: BatchAnswer[], touched: {
     if (outcome.kind === 'done' && reading) recorded.push([reading, item]);
     if (outcome.kind === 'retry') stop ??= outcome.reason;
   });
-  await putAndRemove(keep, gone);
   for (const [reading, item] of recorded) {
     touched.stripIds.add(item.stripId);
     touched.venueIds.add(item.venueId);
     handlers.onRecorded?.(reading, item);
   }
+  if (recorded.length > 0) await saveCopy();
+  await putAndRemove(keep, gone);
   return stop;
 }
 

@@ -1,5 +1,6 @@
 import { createAsyncStoragePersister } from '@tanstack/query-async-storage-persister';
 import { del, get, set } from 'idb-keyval';
+import type { PersistedClient } from '@tanstack/react-query-persist-client';
 
 const KEY = 'stripwarden.query-cache';
 
@@ -22,3 +23,6 @@ export const queryPersister = createAsyncStoragePersister({
   },
   throttleTime: 1_000,
 });
+
+/** A snapshot written at once, in the persister's own format (it writes at most once a second). */
+export const saveQueryCopyNow = (client: PersistedClient) => set(KEY, JSON.stringify(client));
