@@ -2,6 +2,7 @@
 // reading, certificate and label sheet rendering. They run on the worker threads (task-worker.ts) so a large
 // trace or a 120-strip certificate never holds up the readings; each throws an AppError for what a
 // person must be told, which the pool carries back to the request.
+import { readFileSync } from 'node:fs';
 import { FaultLocationError, type FaultLocationAnswer } from '../../shared/domain/fault-location';
 import { decimateMinMax, PLOT_MAX_POINTS } from '../../shared/domain/decimate';
 import { analyseWaveform, parseTraceCsv, WaveformError, type WaveformAnalysis } from '../../shared/domain/waveform';
@@ -11,7 +12,6 @@ import type { WaveformAnswer } from '../../shared/contracts/fault-location';
 import type { TraceAnalysisDto } from '../../shared/schemas/attachments';
 import { AppError, unprocessable } from '../lib/app-error';
 import { readParcel, type BytesParcel } from './parcel';
-import { readFileSync } from 'node:fs';
 import type { Sheet, SheetLimits } from '../lib/spreadsheet';
 import type { CertificateDocument } from '../pdf/certificate-pdf';
 import type { LabelSheetDocument } from '../pdf/label-sheet';

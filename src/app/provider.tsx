@@ -5,7 +5,7 @@ import { queryClient } from '@/lib/query-client';
 import { setReachabilityObserver, setUnauthenticatedHandler } from '@/lib/api-client';
 import { meQueryOptions } from '@/features/auth/api/get-me';
 import { OFFLINE_MAX_AGE_MS, PERSISTED_KEY_PREFIXES, shouldPersistQuery } from '@/features/offline/utils/persist-filter';
-import { queryPersister, saveQueryCopyNow } from '@/features/offline/utils/query-persister';
+import { queryPersister, queryPersisterNow } from '@/features/offline/utils/query-persister';
 import { setOutboxHandlers, startOutbox } from '@/features/offline/stores/outbox';
 import { connectionStore, serverAnswered, serverDidNotAnswer } from '@/features/offline/stores/connection';
 import { readingsRecorded, showRecordedReading } from '@/features/testing/api/show-recorded-reading';
@@ -23,6 +23,7 @@ onlineManager.setEventListener((setOnline) => {
   return connectionStore.subscribe(() => setOnline(connectionStore.getSnapshot()));
 });
 for (const key of PERSISTED_KEY_PREFIXES) queryClient.setQueryDefaults(key, { gcTime: OFFLINE_MAX_AGE_MS });
+// Structural: the persister's packages come with a query-core of their own (STACK.md's versions).
 const keptOnTablet = (q: { queryKey: readonly unknown[]; state: { status: string; data: unknown } }) =>
   q.state.status === 'success' && shouldPersistQuery(q.queryKey, q.state.data);
 const persistOptions: Omit<PersistQueryClientOptions, 'queryClient'> = {
@@ -40,8 +41,8 @@ setOutboxHandlers({
     // A retest ticks off the steps an incident waits for.
     void queryClient.invalidateQueries({ queryKey: ['incidents'] });
   },
-  saveCopy: () =>
-    saveQueryCopyNow({
+  saveCopy: async () =>
+    queryPersisterNow.persistClient({
       buster: __APP_VERSION__,
       timestamp: Date.now(),
       clientState: dehydrate(queryClient, { shouldDehydrateQuery: keptOnTablet }),

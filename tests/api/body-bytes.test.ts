@@ -47,29 +47,22 @@ afterAll(() => new Promise((r) => server.close(r)));
 const post = (body: BodyInit, headers: Record<string, string> = { 'Content-Type': 'text/csv' }, init: RequestInit = {}) =>
   fetch(`${base}/trace`, { method: 'POST', body, headers, ...init });
 
-test('a 3 MB body with its length arrives byte for byte', async () => {
-  const bytes = randomBytes(3 * 1024 * 1024);
-  seen.length = 0;
-  const res = await post(bytes);
-  expect(res.status).toBe(200);
-  expect(Buffer.from(await res.arrayBuffer()).equals(bytes)).toBe(true);
-  expect(seen.map((s) => s.length)).toEqual([bytes.length]);
-  expect(seen[0]!.chunkBytesLeft).toBe(0);
-});
-
-test('a 24 MiB body leaves no chunk of itself in the receiving heap: each is moved out as it arrives', async () => {
-  // V8 counts the buffers a heap holds against an allowance (64 MiB) and collects the whole heap
-  // past it; a body joined into one buffer here counted twice its size (server/workers/parcel.ts).
-  const bytes = randomBytes(24 * 1024 * 1024);
-  seen.length = 0;
-  const res = await post(bytes);
-  expect(res.status).toBe(200);
-  expect(Buffer.from(await res.arrayBuffer()).equals(bytes)).toBe(true);
-  expect(seen).toHaveLength(1);
-  expect(seen[0]!.chunks).toBeGreaterThan(10);
-  // A moved chunk is left empty (a transfer detaches it); one copied would keep its bytes here.
-  expect(seen[0]!.chunkBytesLeft).toBe(0);
-});
+// V8 counts the buffers a heap holds against an allowance (64 MiB) and collects the whole heap
+// past it; a body joined into one buffer here counted twice its size (server/workers/parcel.ts).
+test.each([3, 24])(
+  'a %i MiB body with its length arrives byte for byte, each chunk moved out of the receiving heap as it arrives',
+  async (mib) => {
+    const bytes = randomBytes(mib * 1024 * 1024);
+    seen.length = 0;
+    const res = await post(bytes);
+    expect(res.status).toBe(200);
+    expect(Buffer.from(await res.arrayBuffer()).equals(bytes)).toBe(true);
+    expect(seen.map((s) => s.length)).toEqual([bytes.length]);
+    expect(seen[0]!.chunks).toBeGreaterThan(10);
+    // A moved chunk is left empty (a transfer detaches it); one copied would keep its bytes here.
+    expect(seen[0]!.chunkBytesLeft).toBe(0);
+  },
+);
 
 test('a body sent in chunks without a length still arrives whole (through express.raw)', async () => {
   const parts = [randomBytes(70_000), randomBytes(90_000)];

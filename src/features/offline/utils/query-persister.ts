@@ -1,6 +1,5 @@
 import { createAsyncStoragePersister } from '@tanstack/query-async-storage-persister';
 import { del, get, set } from 'idb-keyval';
-import type { PersistedClient } from '@tanstack/react-query-persist-client';
 
 const KEY = 'stripwarden.query-cache';
 
@@ -9,20 +8,18 @@ const KEY = 'stripwarden.query-cache';
 // screen shows (opening IndexedDB takes a few hundred milliseconds on a slow tablet).
 let early: Promise<string | undefined> | null = typeof indexedDB === 'undefined' ? null : get<string>(KEY).catch(() => undefined);
 
-/** TanStack Query's cache snapshot, in IndexedDB (idb-keyval's default store) rather than localStorage's 5 MB. */
-export const queryPersister = createAsyncStoragePersister({
-  key: KEY,
-  storage: {
-    getItem: async (key) => {
-      const first = key === KEY ? early : null;
-      early = null;
-      return ((await (first ?? get<string>(key))) as string | undefined) ?? null;
-    },
-    setItem: (key, value) => set(key, value),
-    removeItem: (key) => del(key),
+const storage = {
+  getItem: async (key: string) => {
+    const first = key === KEY ? early : null;
+    early = null;
+    return ((await (first ?? get<string>(key))) as string | undefined) ?? null;
   },
-  throttleTime: 1_000,
-});
+  setItem: (key: string, value: string) => set(key, value),
+  removeItem: (key: string) => del(key),
+};
 
-/** A snapshot written at once, in the persister's own format (it writes at most once a second). */
-export const saveQueryCopyNow = (client: PersistedClient) => set(KEY, JSON.stringify(client));
+/** TanStack Query's cache snapshot, in IndexedDB (idb-keyval's default store) rather than localStorage's 5 MB. */
+export const queryPersister = createAsyncStoragePersister({ key: KEY, storage, throttleTime: 1_000 });
+
+/** The same copy, written when asked rather than at most once a second (the outbox waits for it). */
+export const queryPersisterNow = createAsyncStoragePersister({ key: KEY, storage, throttleTime: 0 });
