@@ -319,5 +319,50 @@ test('a reading the server has just confirmed is on the tablet before it leaves 
   await expect(page.getByRole('heading', { name: 'Strip 22 — testing' })).toBeVisible();
   await expect(indicator(page)).toHaveAttribute('data-state', 'offline');
   await expect(first.getByTestId('latest')).toContainText('0.5');
+  // The saved copy agrees with itself: a measured step means the strip is under way.
+  await expect(page.getByTestId('strip-status')).toContainText('In progress');
   await context.setOffline(false);
+});
+
+test.describe('on a tablet-size screen', () => {
+  test.use({ viewport: { width: 1024, height: 768 }, hasTouch: true });
+
+  test('after an offline reload, the grid focuses the next cell to measure, not the one whose reading waits to send', async ({
+    page,
+    context,
+  }) => {
+    await signIn(page, 'technician');
+    await page.goto('/');
+    await openVenueLink(page).click();
+    await expect(page.getByLabel('Go to strip number')).toBeVisible();
+    await page.evaluate(async () => {
+      await navigator.serviceWorker.ready;
+    });
+    await page.reload();
+    await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+
+    await page.getByLabel('Go to strip number').fill('23'); // not started in the demo scenario
+    await page.keyboard.press('Enter');
+    await page.getByRole('button', { name: 'I understand — start testing' }).click();
+    const grid = page.getByTestId('entry-grid');
+    const input = (step: string) => grid.locator('tr[data-position="Left floor cable"]').locator(`[data-cell="${step}"] input`);
+    await expect(input('continuity A')).toBeFocused();
+    // The strip is on the tablet's disk before the network goes (the saved copy is written at most once a second).
+    const stripId = new URL(page.url()).pathname.split('/')[2]!;
+    await expect.poll(() => savedQueryKeys(page)).toContain(JSON.stringify(['strips', stripId]));
+
+    await context.setOffline(true);
+    await expect(indicator(page)).toHaveAttribute('data-state', 'offline');
+    await page.keyboard.type('0.5');
+    await page.keyboard.press('Enter');
+    await expect(input('continuity B')).toBeFocused();
+    await expect(indicator(page)).toHaveText('Offline · 1 reading waiting');
+
+    await page.reload();
+    await expect(grid).toBeVisible();
+    await expect(indicator(page)).toHaveAttribute('data-state', 'offline');
+    await expect(input('continuity B')).toBeFocused();
+    await context.setOffline(false);
+    await expect(indicator(page)).toHaveText('Online · all sent');
+  });
 });

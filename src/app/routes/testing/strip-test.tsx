@@ -140,14 +140,16 @@ export default function StripTestPage() {
 
   // On arrival (after the safety notice): the first step of the retest, else the first not yet measured.
   useEffect(() => {
-    if (view === 'grid' || !data || !ready || !canWrite || focusedFor.current === data.id + (retestPosition ?? '')) return;
+    // Not before the tablet's queue is read: a step waiting to send is measured, not the next one.
+    if (view === 'grid' || !data || !ready || !outbox.loaded || !canWrite || focusedFor.current === data.id + (retestPosition ?? ''))
+      return;
     focusedFor.current = data.id + (retestPosition ?? '');
     const target = retestPosition
       ? flat.find((f) => f.position.id === retestPosition)
       : (flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0]);
     // Wait a frame so the inputs are mounted.
     requestAnimationFrame(() => focusStep(target?.step.id));
-  }, [view, data, ready, canWrite, retestPosition, flat, focusStep, queued]);
+  }, [view, data, ready, outbox.loaded, canWrite, retestPosition, flat, focusStep, queued]);
 
   if ((strip.isPending && strip.fetchStatus === 'paused') || (strip.isError && !strip.data && !(strip.error instanceof ApiError))) {
     return (
@@ -410,7 +412,8 @@ export default function StripTestPage() {
             faults={data.openFaults}
             queued={queued}
             retest={retestPosition ? { positionId: retestPosition, since: retestSince } : null}
-            ready={ready}
+            // Focus waits for the tablet's queue too: after an offline reload it is read a moment later.
+            ready={ready && outbox.loaded}
             focusRequest={focusRequest}
             nextStripId={data.nextStripId}
             boardHref={paths.venueBoard(data.venueId)}
