@@ -33,18 +33,26 @@ async function visit(browser: Browser, base: string, cookie: string, path: strin
   await cdp.send('Emulation.setCPUThrottlingRate', { rate: 4 });
   const scripts: Script[] = [];
   let readyAt = Infinity;
-  page.on('response', async (res) => {
+  // Each script is timed when its response arrives, not when its body has been read back: on a
+  // busy machine that read can finish after the input is ready, and the script would not be counted.
+  const reading: Promise<void>[] = [];
+  page.on('response', (res) => {
     if (res.request().resourceType() !== 'script') return;
-    const body = await res.body().catch(() => null);
-    if (!body) return;
-    const encoded = !!res.headers()['content-encoding'];
-    scripts.push({
-      url: new URL(res.url()).pathname,
-      bytes: body.length,
-      gzip: gzipSync(body, { level: 9 }).length,
-      encoded,
-      at: Date.now(),
-    });
+    const at = Date.now();
+    reading.push(
+      res.body().then(
+        (body) => {
+          scripts.push({
+            url: new URL(res.url()).pathname,
+            bytes: body.length,
+            gzip: gzipSync(body, { level: 9 }).length,
+            encoded: !!res.headers()['content-encoding'],
+            at,
+          });
+        },
+        () => undefined,
+      ),
+    );
   });
   const t0 = Date.now();
   await page.goto(`${base}${path}`, { waitUntil: ready ? 'commit' : 'load' });
@@ -56,6 +64,7 @@ async function visit(browser: Browser, base: string, cookie: string, path: strin
     ms = await page.evaluate(() => performance.getEntriesByType('navigation')[0]?.duration ?? performance.now());
   }
   await page.waitForTimeout(50);
+  await Promise.all(reading);
   // Only what arrived by the time the input was ready: later fetches are not on the critical path.
   const before = scripts.filter((s) => s.at <= readyAt + 50);
   await context.close();
