@@ -63,6 +63,22 @@ function savedQueryKeys(page: Page): Promise<string[]> {
   );
 }
 
+/**
+ * Sam, online, opens the venue (its strips are put on the tablet) and the service worker takes the
+ * page over: it is what serves the app once the network is gone.
+ */
+async function openVenueWithServiceWorker(page: Page) {
+  await signIn(page, 'technician');
+  await page.goto('/');
+  await openVenueLink(page).click();
+  await expect(page.getByLabel('Go to strip number')).toBeVisible();
+  await page.evaluate(async () => {
+    await navigator.serviceWorker.ready;
+  });
+  await page.reload();
+  await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+}
+
 test('readings typed offline survive a reload, reach the server exactly once, and a removed step ends as a visible problem', async ({
   page,
   context,
@@ -71,19 +87,9 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   const directorContext = await browser.newContext();
   const director = await directorContext.newPage();
   await signIn(director, 'director');
-  await signIn(page, 'technician');
-
-  // Online: open the venue (its strips are put on the tablet), and let the service worker take over.
-  await page.goto('/');
-  await openVenueLink(page).click();
-  await expect(page.getByLabel('Go to strip number')).toBeVisible();
+  await openVenueWithServiceWorker(page);
   await expect(page).toHaveURL(/\/venues\/[^/]+$/);
   const venueId = new URL(page.url()).pathname.split('/')[2]!;
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-  });
-  await page.reload();
-  await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
   await expect(indicator(page)).toHaveAttribute('data-state', 'up-to-date');
   await expect(indicator(page)).toHaveText('Online · all sent');
 
@@ -290,15 +296,7 @@ test('a reading the server has just confirmed is on the tablet before it leaves 
   page,
   context,
 }) => {
-  await signIn(page, 'technician');
-  await page.goto('/');
-  await openVenueLink(page).click();
-  await expect(page.getByLabel('Go to strip number')).toBeVisible();
-  await page.evaluate(async () => {
-    await navigator.serviceWorker.ready;
-  });
-  await page.reload();
-  await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+  await openVenueWithServiceWorker(page);
 
   await page.getByLabel('Go to strip number').fill('22'); // not started in the demo scenario
   await page.keyboard.press('Enter');
@@ -331,15 +329,7 @@ test.describe('on a tablet-size screen', () => {
     page,
     context,
   }) => {
-    await signIn(page, 'technician');
-    await page.goto('/');
-    await openVenueLink(page).click();
-    await expect(page.getByLabel('Go to strip number')).toBeVisible();
-    await page.evaluate(async () => {
-      await navigator.serviceWorker.ready;
-    });
-    await page.reload();
-    await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
+    await openVenueWithServiceWorker(page);
 
     await page.getByLabel('Go to strip number').fill('23'); // not started in the demo scenario
     await page.keyboard.press('Enter');

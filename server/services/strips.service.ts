@@ -10,7 +10,7 @@ import { presentReading } from '../presenters/readings';
 import { limitProfileById } from './profiles.service';
 import { presentEquipment, presentFaultList } from '../presenters/faults';
 import { notFound } from '../lib/app-error';
-import { stepCounts, stripFlags, stripStatus } from '../../shared/domain/progress';
+import { stepCounts, stepProgressOf, stripFlags, stripStatus } from '../../shared/domain/progress';
 import { stepInstruction } from '../../shared/domain/checklist';
 
 export function stripsService(deps: AppDeps) {
@@ -53,7 +53,7 @@ export function stripsService(deps: AppDeps) {
           };
         }),
     }));
-    const allSteps = positions.flatMap((p) => p.steps.map((s) => ({ required: s.required, latestVerdict: s.latest?.verdict ?? null })));
+    const allSteps = stepProgressOf(positions);
     const counts = stepCounts(allSteps);
 
     const venueProgress = venuesService(deps).stripProgress(venue.id);

@@ -7,6 +7,10 @@ export interface StepProgress {
   latestVerdict: Verdict | null;
 }
 
+/** Each step's progress from a strip's positions, as the strip's answer carries them (its latest reading or none). */
+export const stepProgressOf = (positions: { steps: { required: boolean; latest: { verdict: Verdict } | null }[] }[]): StepProgress[] =>
+  positions.flatMap((p) => p.steps.map((s) => ({ required: s.required, latestVerdict: s.latest?.verdict ?? null })));
+
 /** A strip row's own marks that decide its status beside its steps: every answer reads them alike. */
 export const stripFlags = (strip: { withdrawnAt: string | null; outOfServiceSince: string | null }) => ({
   withdrawn: !!strip.withdrawnAt,

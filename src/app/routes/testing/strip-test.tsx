@@ -57,6 +57,9 @@ export default function StripTestPage() {
   const inputs = useRef<Map<string, HTMLInputElement>>(new Map());
   const nextStripLink = useRef<HTMLAnchorElement>(null);
   const [ready, setReady] = useState(() => safetyAcknowledged());
+  // The first focus waits for the tablet's queue too (read from IndexedDB a moment after an offline
+  // reload): until then a step whose reading waits to send looks unmeasured and would take it.
+  const focusReady = ready && outbox.loaded;
   const focusedFor = useRef<string | null>(null);
   const sync = useSyncSummary();
   const [chosenView, setChosenView] = useState<TestingView | null>(null);
@@ -140,16 +143,14 @@ export default function StripTestPage() {
 
   // On arrival (after the safety notice): the first step of the retest, else the first not yet measured.
   useEffect(() => {
-    // Not before the tablet's queue is read: a step waiting to send is measured, not the next one.
-    if (view === 'grid' || !data || !ready || !outbox.loaded || !canWrite || focusedFor.current === data.id + (retestPosition ?? ''))
-      return;
+    if (view === 'grid' || !data || !focusReady || !canWrite || focusedFor.current === data.id + (retestPosition ?? '')) return;
     focusedFor.current = data.id + (retestPosition ?? '');
     const target = retestPosition
       ? flat.find((f) => f.position.id === retestPosition)
       : (flat.find((f) => !f.step.latest && !queued.has(f.step.id)) ?? flat[0]);
     // Wait a frame so the inputs are mounted.
     requestAnimationFrame(() => focusStep(target?.step.id));
-  }, [view, data, ready, outbox.loaded, canWrite, retestPosition, flat, focusStep, queued]);
+  }, [view, data, focusReady, canWrite, retestPosition, flat, focusStep, queued]);
 
   if ((strip.isPending && strip.fetchStatus === 'paused') || (strip.isError && !strip.data && !(strip.error instanceof ApiError))) {
     return (
@@ -412,8 +413,7 @@ export default function StripTestPage() {
             faults={data.openFaults}
             queued={queued}
             retest={retestPosition ? { positionId: retestPosition, since: retestSince } : null}
-            // Focus waits for the tablet's queue too: after an offline reload it is read a moment later.
-            ready={ready && outbox.loaded}
+            ready={focusReady}
             focusRequest={focusRequest}
             nextStripId={data.nextStripId}
             boardHref={paths.venueBoard(data.venueId)}

@@ -1,6 +1,6 @@
 import type { QueryClient } from '@tanstack/react-query';
 import type { ReadingDto } from '@shared/schemas/readings';
-import { stepCounts, stripStatus } from '@shared/domain/progress';
+import { stepCounts, stepProgressOf, stripStatus } from '@shared/domain/progress';
 import { stripQueryOptions, type StripDetail } from './get-strip';
 
 // POST /api/readings itself is sent by the tablet's outbox (features/offline), which keeps the
@@ -21,7 +21,7 @@ export function withRecordedReading(old: StripDetail, reading: ReadingDto): Stri
   // landed on a signed-off venue suspends the strip (the server says so in its answer).
   const withdrawn = old.status === 'withdrawn';
   const outOfService = old.status === 'out-of-service' || !!reading.stripSuspended;
-  const steps = positions.flatMap((p) => p.steps.map((s) => ({ required: s.required, latestVerdict: s.latest?.verdict ?? null })));
+  const steps = stepProgressOf(positions);
   return {
     ...old,
     positions,
