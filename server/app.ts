@@ -3,6 +3,7 @@ import helmet from 'helmet';
 import cookieParser from 'cookie-parser';
 import compression from 'compression';
 import { existsSync } from 'node:fs';
+import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppDeps } from './deps';
@@ -10,8 +11,9 @@ import type { ApiRouter, RouteSpec } from './http/api-router';
 import { serveClient } from './http/static-files';
 import { fullPath } from '../shared/contracts/contract';
 import { authenticate, sessionCookie } from './auth/authenticate';
-import { csrfGuard } from './middleware/csrf';
-import { hostCheck } from './middleware/host-check';
+import { crossSiteRefusal, csrfGuard } from './middleware/csrf';
+import { hostCheck, knownHost } from './middleware/host-check';
+import { directRoutes } from './http/direct-routes';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { requestLog } from './middleware/request-log';
 import { authService } from './services/auth.service';
@@ -38,11 +40,14 @@ import { incidentsRoutes } from './routes/incidents.routes';
 
 const builtClient = resolve(dirname(fileURLToPath(import.meta.url)), '../dist');
 
+/** The largest JSON body the API reads, but for a batch of readings (readings.routes.ts). */
+export const API_BODY_LIMIT_BYTES = 100 * 1024;
+
 /** Answers smaller than this go as they are: compressing them costs more time than it saves. */
 export const COMPRESS_MIN_BYTES = 1024;
 
 /** Security headers: our own resources only, no framing; helmet's defaults are not used. */
-function securityHeaders(appOrigin: string) {
+export function securityHeaders(appOrigin: string) {
   return helmet({
     contentSecurityPolicy: {
       useDefaults: false,
@@ -80,8 +85,10 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   app.set('trust proxy', 'loopback');
   app.use(hostCheck(deps.env.APP_ORIGIN, deps.env.ALLOWED_HOSTS));
 
-  app.use(securityHeaders(deps.env.APP_ORIGIN));
-  if (deps.env.LOG_REQUESTS === 'on') app.use(requestLog((line) => deps.log.info(line)));
+  const headers = securityHeaders(deps.env.APP_ORIGIN);
+  app.use(headers);
+  const logLine = deps.env.LOG_REQUESTS === 'on' ? (line: string) => deps.log.info(line) : undefined;
+  if (logLine) app.use(requestLog(logLine));
   // gzip or brotli, as the browser asks, for answers from 1 KB (lists, strips, batches of readings);
   // a file the build compressed already is sent as it is (the middleware leaves encoded answers alone).
   const compress = compression({ threshold: COMPRESS_MIN_BYTES });
@@ -115,20 +122,20 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   ];
 
   const api = express.Router();
+  // No caching of API answers by browsers or proxies: they hold people's data (refusals included).
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
   // strict: false so a bare JSON value (5, "x") reaches the schema and gets its 422, not a parse error.
   // A batch of readings has a larger allowance; the general parser then leaves its parsed body alone.
   api.use('/readings/batch', express.json({ limit: READINGS_BATCH_BODY_LIMIT, strict: false }));
-  api.use(express.json({ limit: '100kb', strict: false }));
+  api.use(express.json({ limit: API_BODY_LIMIT_BYTES, strict: false }));
   api.use(cookieParser());
   // Checking a certificate file stores nothing and is public: outside tools (a script, curl) may
   // send it without our Origin header.
   api.use(csrfGuard(deps.env.APP_ORIGIN, new Set(['/verify/file'])));
   api.use(authenticate(auth, cookie.name));
-  // No caching of API answers by browsers or proxies: they hold people's data.
-  api.use((_req, res, next) => {
-    res.set('Cache-Control', 'no-store');
-    next();
-  });
   // A single reading's answer is under 1 KB and is the most frequent request: it skips the
   // middleware altogether rather than paying for its wrapping on every write.
   api.use((req, res, next) => (req.method === 'POST' && req.path === '/readings' ? next() : compress(req, res, next)));
@@ -147,6 +154,25 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   app.use(errorHandler((msg, err) => deps.log.error(msg, err)));
 
   const routes: RouteSpec[] = [...[...routers, wellKnown].flatMap((r) => r.routes.map((s) => ({ ...s, path: fullPath(s.contract) })))];
-  return Object.assign(app, { routes });
+  const listener = directRoutes(
+    {
+      routes: routers.flatMap((r) => r.hot),
+      hostAllowed: knownHost(deps.env.APP_ORIGIN, deps.env.ALLOWED_HOSTS),
+      crossSiteRefusal: (header, protocol) => crossSiteRefusal(deps.env.APP_ORIGIN, header, protocol),
+      securityHeaders: headers,
+      sessions: auth,
+      cookieName: cookie.name,
+      bodyLimitBytes: API_BODY_LIMIT_BYTES,
+      log: (msg, err) => deps.log.error(msg, err),
+      requestLog: logLine,
+    },
+    (req, res) => app(req as express.Request, res as express.Response),
+  );
+  return Object.assign((req: IncomingMessage, res: ServerResponse) => listener(req, res), {
+    routes,
+    /** Express alone, without the direct path (tests compare the two). */
+    express: app,
+    listen: (port: number, host?: string, onListening?: () => void): Server => createServer(listener).listen(port, host, onListening),
+  });
 }
 export type App = ReturnType<typeof createApp>;

@@ -34,10 +34,14 @@ export function requireAccess(access: Access): RequestHandler {
   return (req, _res, next) => {
     if (access === 'public') return next();
     if (!req.user) return next(unauthorized());
-    if (access !== 'signed-in' && !access.includes(req.user.role)) return next(forbidden());
+    if (!roleAllowed(access, req.user.role)) return next(forbidden());
     next();
   };
 }
+
+/** Whether a signed-in caller's role may call a route of this access. */
+export const roleAllowed = (access: Access, role: AuthUser['role']) =>
+  access === 'signed-in' || (access !== 'public' && access.includes(role));
 
 /** What a handler gets: the caller, and params, query and body parsed by the contract's schemas. */
 export interface RouteInput<C extends Contract> {
@@ -50,6 +54,18 @@ export interface RouteInput<C extends Contract> {
   res: Response;
 }
 export type Handler<C extends Contract> = (input: RouteInput<C>) => AnswerIn<C> | Promise<AnswerIn<C>>;
+
+/** What a hot route's handler answers: the status (one the contract declares), a Location if any, the body. */
+export interface HotAnswer<B = unknown> {
+  status: number;
+  location?: string;
+  body: B;
+}
+/** A hot route as the direct path serves it (http/direct-routes.ts): the caller and the parsed body in, the answer out. */
+export interface HotRoute {
+  contract: Contract;
+  handler: (user: AuthUser, body: never) => Promise<HotAnswer>;
+}
 
 /** Middleware of one route, in the order they run around the contract's parsing. */
 export interface RouteOptions {
@@ -128,6 +144,7 @@ export const apiRouter = (deps: { env: { CHECK_RESPONSES: 'on' | 'off' }; log: {
 export class ApiRouter {
   readonly router = express.Router();
   readonly routes: RouteSpec[] = [];
+  readonly hot: HotRoute[] = [];
   constructor(private readonly opts: RouterOptions) {}
 
   route<const C extends Contract>(c: C, handler: Handler<C>, opts: RouteOptions = {}): this {
@@ -149,6 +166,27 @@ export class ApiRouter {
     chain.push(this.finish(c, handler as Handler<Contract>, parsedFirst));
     this.routes.push({ method: c.method, path: c.path, access: c.access, contract: c });
     this.router[c.method.toLowerCase() as 'get' | 'post' | 'put' | 'patch' | 'delete'](c.path, ...chain);
+    return this;
+  }
+
+  /**
+   * The route of a hot contract (the reading write): registered with Express like any other, and
+   * also served straight from Node's HTTP server when its request is in order (http/direct-routes.ts).
+   * One handler for both, with no middleware of its own, so the two cannot answer differently.
+   */
+  hotRoute<const C extends Contract & { hot: true }>(
+    c: C,
+    handler: (user: AuthUser, body: BodyOut<C>) => Promise<HotAnswer<AnswerIn<C>>>,
+  ): this {
+    if (bodyKindOf(c) !== 'json' || c.access === 'public')
+      throw new Error(`${c.method} ${c.path}: a hot route takes a JSON body from a signed-in caller`);
+    this.route(c, async ({ user, body, res }) => {
+      const answer = await handler(user as AuthUser, body);
+      res.status(answer.status);
+      if (answer.location) res.location(answer.location);
+      return answer.body;
+    });
+    this.hot.push({ contract: c, handler: handler as HotRoute['handler'] });
     return this;
   }
 

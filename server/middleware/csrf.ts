@@ -14,26 +14,28 @@ const SAFE = new Set(['GET', 'HEAD', 'OPTIONS']);
 export function csrfGuard(appOrigin: string, readOnly: ReadonlySet<string> = new Set()): RequestHandler {
   return (req, _res, next) => {
     if (SAFE.has(req.method) || readOnly.has(req.path)) return next();
-    const site = req.get('sec-fetch-site');
-    if (site && site !== 'same-origin' && site !== 'none') {
-      return next(forbidden('This request came from another site and was refused.'));
-    }
-    const ours = (o: string) => o === appOrigin || o === `${req.protocol}://${req.get('host') ?? ''}`;
-    const origin = req.get('origin');
-    if (origin && origin !== 'null') {
-      return ours(origin) ? next() : next(forbidden('This request came from another origin and was refused.'));
-    }
-    const referer = req.get('referer');
-    if (referer) {
-      let refOrigin = '';
-      try {
-        refOrigin = new URL(referer).origin;
-      } catch {
-        /* unparsable: refused below */
-      }
-      return ours(refOrigin) ? next() : next(forbidden('This request came from another origin and was refused.'));
-    }
-    if (site === 'same-origin') return next();
-    return next(forbidden('This request has no Origin or Referer header and was refused (cross-site request protection).'));
+    const refusal = crossSiteRefusal(appOrigin, (name) => req.get(name), req.protocol);
+    return refusal ? next(forbidden(refusal)) : next();
   };
+}
+
+/** Why a state-changing request is refused as cross-site, or null if it comes from our own origin. */
+export function crossSiteRefusal(appOrigin: string, header: (name: string) => string | undefined, protocol: string): string | null {
+  const site = header('sec-fetch-site');
+  if (site && site !== 'same-origin' && site !== 'none') return 'This request came from another site and was refused.';
+  const ours = (o: string) => o === appOrigin || o === `${protocol}://${header('host') ?? ''}`;
+  const origin = header('origin');
+  if (origin && origin !== 'null') return ours(origin) ? null : 'This request came from another origin and was refused.';
+  const referer = header('referer');
+  if (referer) {
+    let refOrigin = '';
+    try {
+      refOrigin = new URL(referer).origin;
+    } catch {
+      /* unparsable: refused below */
+    }
+    return ours(refOrigin) ? null : 'This request came from another origin and was refused.';
+  }
+  if (site === 'same-origin') return null;
+  return 'This request has no Origin or Referer header and was refused (cross-site request protection).';
 }

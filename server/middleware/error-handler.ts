@@ -43,8 +43,15 @@ export function zodFieldErrors(err: ZodError): FieldError[] {
 export const notFoundApi: RequestHandler = (req, res) =>
   sendProblem(res, 404, 'no-such-route', `There is no API route ${req.method} ${req.path}.`);
 
+export interface Problem {
+  status: number;
+  code: string;
+  detail: string;
+  extra?: Record<string, unknown>;
+}
+
 /** An error as an RFC 9457 problem: status, code, a sentence, extra members; null for an unexpected error (a bug). */
-export function problemFor(err: unknown): { status: number; code: string; detail: string; extra?: Record<string, unknown> } | null {
+export function problemFor(err: unknown): Problem | null {
   if (err instanceof ZodError) {
     const errors = zodFieldErrors(err);
     const summary = errors.map((e) => `${e.path}: ${e.message}`).join('; ');
@@ -68,19 +75,26 @@ export function problemFor(err: unknown): { status: number; code: string; detail
 export const SERVER_ERROR = { status: 500, code: 'server-error', detail: 'Something went wrong on our side. It has been logged.' } as const;
 
 /** The problem+json body itself, for answers that carry several (a batch of readings). */
-export function problemBody(p: { status: number; code: string; detail: string; extra?: Record<string, unknown> }) {
+export function problemBody(p: Problem) {
   return { type: `/problems/${p.code}`, title: titleFor(p.status), status: p.status, code: p.code, detail: p.detail, ...p.extra };
+}
+
+/** The problem an error is answered with and, if it says when to come back, its Retry-After; a bug is logged. */
+export function answerForError(err: unknown, log: (msg: string, err: unknown) => void): { problem: Problem; retryAfter?: string } {
+  // A refusal that says when to come back (a full worker pool) says so in the standard header too.
+  const retryAfter =
+    err instanceof AppError && typeof err.extra.retryAfterSeconds === 'number' ? String(err.extra.retryAfterSeconds) : undefined;
+  const problem = problemFor(err);
+  if (problem) return { problem, retryAfter };
+  log('unhandled error', err);
+  return { problem: SERVER_ERROR, retryAfter };
 }
 
 export function errorHandler(log: (msg: string, err: unknown) => void): ErrorRequestHandler {
   return (err, _req, res, _next) => {
     if (res.headersSent) return;
-    // A refusal that says when to come back (a full worker pool) says so in the standard header too.
-    if (err instanceof AppError && typeof err.extra.retryAfterSeconds === 'number')
-      res.set('Retry-After', String(err.extra.retryAfterSeconds));
-    const problem = problemFor(err);
-    if (problem) return sendProblem(res, problem.status, problem.code, problem.detail, problem.extra);
-    log('unhandled error', err);
-    return sendProblem(res, SERVER_ERROR.status, SERVER_ERROR.code, SERVER_ERROR.detail);
+    const { problem, retryAfter } = answerForError(err, log);
+    if (retryAfter) res.set('Retry-After', retryAfter);
+    return sendProblem(res, problem.status, problem.code, problem.detail, problem.extra);
   };
 }

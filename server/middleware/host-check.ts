@@ -22,12 +22,7 @@ export function hostNameOf(hostHeader: string): string {
  * as "the address the request was sent to"). 421 Misdirected Request (RFC 9110 §15.5.20).
  */
 export function hostCheck(appOrigin: string, allowedHosts: readonly string[]): RequestHandler {
-  const known = new Set(['localhost', hostNameOf(new URL(appOrigin).host), ...allowedHosts.map(hostNameOf)]);
-  const ok = (value: string | undefined) => {
-    if (!value) return false;
-    const name = hostNameOf(value);
-    return isIP(name) !== 0 || known.has(name);
-  };
+  const ok = knownHost(appOrigin, allowedHosts);
   return (req, res, next) => {
     // req.hostname honours X-Forwarded-Host from a proxy on loopback ('trust proxy'); both must pass.
     const raw = req.get('host');
@@ -39,5 +34,15 @@ export function hostCheck(appOrigin: string, allowedHosts: readonly string[]): R
       'unknown-host',
       `This server does not answer for the host "${(forwarded ?? raw ?? '').slice(0, 100)}". Use its address or a name listed in ALLOWED_HOSTS.`,
     );
+  };
+}
+
+/** Whether a Host header value names a host we answer for (hostCheck; the direct reading write). */
+export function knownHost(appOrigin: string, allowedHosts: readonly string[]): (value: string | undefined) => boolean {
+  const known = new Set(['localhost', hostNameOf(new URL(appOrigin).host), ...allowedHosts.map(hostNameOf)]);
+  return (value) => {
+    if (!value) return false;
+    const name = hostNameOf(value);
+    return isIP(name) !== 0 || known.has(name);
   };
 }

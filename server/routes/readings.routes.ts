@@ -13,10 +13,9 @@ export function readingsRoutes(deps: AppDeps) {
   const api = apiRouter(deps);
   const readings = readingsService(deps);
   const leadNulls = leadNullsService(deps);
-  api.route(c.record, async ({ user, body, res }) => {
+  api.hotRoute(c.record, async (user, body) => {
     const { replayed, reading } = await readings.create(user, body);
-    res.status(replayed ? 200 : 201).location(`/api/readings/${reading.id}`);
-    return reading;
+    return { status: replayed ? 200 : 201, location: `/api/readings/${reading.id}`, body: reading };
   });
   // Each reading gets the status and body it would have had on its own; the answer is 200 once
   // the commit holding them has returned (a failed commit is the whole request's error).
