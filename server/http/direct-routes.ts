@@ -68,7 +68,11 @@ export function directRoutes(opts: DirectOptions, next: Listener): Listener {
     opts.sessions.resolve(token).then(
       (found) => {
         if (!found || !roleAllowed(route.contract.access, found.user.role)) return next(req, res);
-        serve(route, found.user, req, res, started);
+        try {
+          serve(route, found.user, req, res, started);
+        } catch (err) {
+          fail(res, err);
+        }
       },
       () => next(req, res),
     );
@@ -84,34 +88,33 @@ export function directRoutes(opts: DirectOptions, next: Listener): Listener {
     const chunks: Buffer[] = [];
     req.on('data', (c: Buffer) => chunks.push(c));
     req.on('end', () => {
-      // As express.json reads it: UTF-8 without a byte-order mark; an empty body is {} (the schema names what is missing).
-      let text = Buffer.concat(chunks).toString('utf8');
-      if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
-      let value: unknown = {};
-      if (text.length > 0) {
-        try {
-          value = JSON.parse(text);
-        } catch {
-          return fail(res, { type: 'entity.parse.failed' });
-        }
-      }
-      let body: unknown;
-      try {
-        body = (route.contract.body as ZodType).parse(value);
-      } catch (err) {
-        return fail(res, err);
-      }
-      route.handler(user, body as never).then(
-        (answer) => {
-          if (answer.location) res.setHeader('Location', answer.location);
-          send(res, answer.status, 'application/json', answer.body);
-        },
-        (err) => fail(res, err),
-      );
+      answer(route, user, Buffer.concat(chunks))
+        .then((a) => {
+          if (a.location) res.setHeader('Location', a.location);
+          send(res, a.status, 'application/json', a.body);
+        })
+        .catch((err: unknown) => fail(res, err));
     });
   }
 
+  /** The body read as express.json reads it, parsed by the contract, and the handler's answer. */
+  async function answer(route: HotRoute, user: Parameters<HotRoute['handler']>[0], bytes: Buffer) {
+    // UTF-8 without a byte-order mark; an empty body is {} (the schema then names what is missing).
+    let text = bytes.toString('utf8');
+    if (text.charCodeAt(0) === 0xfeff) text = text.slice(1);
+    let value: unknown = {};
+    if (text.length > 0) {
+      try {
+        value = JSON.parse(text);
+      } catch {
+        throw Object.assign(new SyntaxError('The request body is not valid JSON.'), { type: 'entity.parse.failed' });
+      }
+    }
+    return route.handler(user, (route.contract.body as ZodType).parse(value) as never);
+  }
+
   function fail(res: ServerResponse, err: unknown) {
+    if (res.headersSent) return void res.destroy();
     const { problem, retryAfter } = answerForError(err, opts.log);
     if (retryAfter) res.setHeader('Retry-After', retryAfter);
     send(res, problem.status, 'application/problem+json', problemBody(problem));

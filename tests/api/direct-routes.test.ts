@@ -7,7 +7,8 @@ import { once } from 'node:events';
 import supertest, { type Response } from 'supertest';
 import { createTestApp, DEMO, DEMO_PASSWORD, ORIGIN, type TestApp } from '../setup/test-app';
 import { newReading, stepOf, stripByLabel, venueIds } from './testing-helpers';
-import { directRoutes } from '../../server/http/direct-routes';
+import { directRoutes, type DirectOptions } from '../../server/http/direct-routes';
+import { readingsContracts } from '../../shared/contracts/readings';
 import { API_BODY_LIMIT_BYTES, securityHeaders } from '../../server/app';
 import { knownHost } from '../../server/middleware/host-check';
 import { crossSiteRefusal } from '../../server/middleware/csrf';
@@ -36,22 +37,22 @@ beforeAll(async () => {
   annexStepId = stepOf(await stripByLabel(t, annex, 'Annex 2'), 'Left floor cable', 'continuity', 'A').step.id;
   samCookie = await cookieOf(DEMO.technician);
   nina = await cookieOf(DEMO.organiser);
-  direct = directRoutes(
-    {
-      routes: readingsRoutes(t.deps).hot,
-      hostAllowed: knownHost(ORIGIN, []),
-      crossSiteRefusal: (header, protocol) => crossSiteRefusal(ORIGIN, header, protocol),
-      securityHeaders: securityHeaders(ORIGIN),
-      sessions: authService(t.deps),
-      cookieName: 'sw_session',
-      bodyLimitBytes: API_BODY_LIMIT_BYTES,
-      log: () => {},
-    },
-    (req, res) => {
-      handedOn.push(req.url ?? '');
-      t.app.express(req as never, res as never);
-    },
-  );
+  direct = directRoutes(directOptions(), (req, res) => {
+    handedOn.push(req.url ?? '');
+    t.app.express(req as never, res as never);
+  });
+});
+
+/** The options server/app.ts gives the direct path, for the test app. */
+const directOptions = (): DirectOptions => ({
+  routes: readingsRoutes(t.deps).hot,
+  hostAllowed: knownHost(ORIGIN, []),
+  crossSiteRefusal: (header, protocol) => crossSiteRefusal(ORIGIN, header, protocol),
+  securityHeaders: securityHeaders(ORIGIN),
+  sessions: authService(t.deps),
+  cookieName: 'sw_session',
+  bodyLimitBytes: API_BODY_LIMIT_BYTES,
+  log: () => {},
 });
 afterAll(() => t.close());
 
@@ -168,6 +169,31 @@ describe('the direct reading write', () => {
     } finally {
       server.close();
     }
+  });
+
+  test('a handler that throws (a bug) is answered 500 problem+json and logged, and the next write is served', async () => {
+    const logged: string[] = [];
+    const buggy = directRoutes(
+      {
+        ...directOptions(),
+        routes: [
+          {
+            contract: readingsContracts.record,
+            handler: (() => {
+              throw new Error('a bug in the handler');
+            }) as never,
+          },
+        ],
+        log: (msg) => logged.push(msg),
+      },
+      (req, res) => t.app.express(req as never, res as never),
+    );
+    const res = await post(buggy).send(newReading(stepId, '0.4'));
+    expect(res.status).toBe(500);
+    expect(res.headers['content-type']).toBe('application/problem+json; charset=utf-8');
+    expect(res.body).toMatchObject({ status: 500, code: 'server-error' });
+    expect(logged).toEqual(['unhandled error']);
+    expect((await post(direct).send(newReading(stepId, '0.4'))).status).toBe(201);
   });
 
   test('the application itself serves a reading write on the direct path', async () => {
