@@ -79,6 +79,14 @@ async function openVenueWithServiceWorker(page: Page) {
   await expect.poll(() => page.evaluate(() => navigator.serviceWorker.controller !== null)).toBe(true);
 }
 
+/** From the venue page: strip `label` opened by its number, its safety notice acknowledged. */
+async function startTesting(page: Page, number: string, label: string) {
+  await page.getByLabel('Go to strip number').fill(number);
+  await page.keyboard.press('Enter');
+  await expect(page.getByRole('heading', { name: `${label} — testing` })).toBeVisible();
+  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+}
+
 test('readings typed offline survive a reload, reach the server exactly once, and a removed step ends as a visible problem', async ({
   page,
   context,
@@ -93,10 +101,7 @@ test('readings typed offline survive a reload, reach the server exactly once, an
   await expect(indicator(page)).toHaveAttribute('data-state', 'up-to-date');
   await expect(indicator(page)).toHaveText('Online · all sent');
 
-  await page.getByLabel('Go to strip number').fill('20');
-  await page.keyboard.press('Enter');
-  await expect(page.getByRole('heading', { name: `${STRIP} — testing` })).toBeVisible();
-  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  await startTesting(page, '20', STRIP);
   const stripId = new URL(page.url()).pathname.split('/')[2]!;
   // The next strip was never opened, but the venue page kept it on the tablet.
   const nextStripId = (await page.getByRole('link', { name: 'Next strip →' }).getAttribute('href'))!;
@@ -298,10 +303,7 @@ test('a reading the server has just confirmed is on the tablet before it leaves 
 }) => {
   await openVenueWithServiceWorker(page);
 
-  await page.getByLabel('Go to strip number').fill('22'); // not started in the demo scenario
-  await page.keyboard.press('Enter');
-  await expect(page.getByRole('heading', { name: 'Strip 22 — testing' })).toBeVisible();
-  await page.getByRole('button', { name: 'I understand — start testing' }).click();
+  await startTesting(page, '22', 'Strip 22'); // not started in the demo scenario
   const first = page.locator('li[data-step]').first();
   await expect(first.locator('input[id^="reading-"]')).toBeFocused();
   await page.keyboard.type('0.5');
@@ -331,9 +333,7 @@ test.describe('on a tablet-size screen', () => {
   }) => {
     await openVenueWithServiceWorker(page);
 
-    await page.getByLabel('Go to strip number').fill('23'); // not started in the demo scenario
-    await page.keyboard.press('Enter');
-    await page.getByRole('button', { name: 'I understand — start testing' }).click();
+    await startTesting(page, '23', 'Strip 23'); // not started in the demo scenario
     const grid = page.getByTestId('entry-grid');
     const input = (step: string) => grid.locator('tr[data-position="Left floor cable"]').locator(`[data-cell="${step}"] input`);
     await expect(input('continuity A')).toBeFocused();

@@ -3,17 +3,18 @@ import helmet from 'helmet';
 import cookieParser from 'cookie-parser';
 import compression from 'compression';
 import { existsSync } from 'node:fs';
-import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
+import { createServer, type Server } from 'node:http';
 import { dirname, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { AppDeps } from './deps';
-import type { ApiRouter, RouteSpec } from './http/api-router';
+import type { ApiRouter, HotRoute, RouteSpec } from './http/api-router';
+import type { SessionResolver } from './auth/types';
 import { serveClient } from './http/static-files';
 import { fullPath } from '../shared/contracts/contract';
 import { authenticate, sessionCookie } from './auth/authenticate';
 import { crossSiteRefusal, csrfGuard } from './middleware/csrf';
 import { hostCheck, knownHost } from './middleware/host-check';
-import { directRoutes } from './http/direct-routes';
+import { directRoutes, type DirectOptions } from './http/direct-routes';
 import { errorHandler, notFoundApi } from './middleware/error-handler';
 import { requestLog } from './middleware/request-log';
 import { authService } from './services/auth.service';
@@ -47,7 +48,7 @@ export const API_BODY_LIMIT_BYTES = 100 * 1024;
 export const COMPRESS_MIN_BYTES = 1024;
 
 /** Security headers: our own resources only, no framing; helmet's defaults are not used. */
-export function securityHeaders(appOrigin: string) {
+function securityHeaders(appOrigin: string) {
   return helmet({
     contentSecurityPolicy: {
       useDefaults: false,
@@ -85,9 +86,8 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
   app.set('trust proxy', 'loopback');
   app.use(hostCheck(deps.env.APP_ORIGIN, deps.env.ALLOWED_HOSTS));
 
-  const headers = securityHeaders(deps.env.APP_ORIGIN);
-  app.use(headers);
-  const logLine = deps.env.LOG_REQUESTS === 'on' ? (line: string) => deps.log.info(line) : undefined;
+  app.use(securityHeaders(deps.env.APP_ORIGIN));
+  const logLine = requestLogLine(deps);
   if (logLine) app.use(requestLog(logLine));
   // gzip or brotli, as the browser asks, for answers from 1 KB (lists, strips, batches of readings);
   // a file the build compressed already is sent as it is (the middleware leaves encoded answers alone).
@@ -155,24 +155,36 @@ export function createApp(deps: AppDeps, opts: { distDir?: string } = {}) {
 
   const routes: RouteSpec[] = [...[...routers, wellKnown].flatMap((r) => r.routes.map((s) => ({ ...s, path: fullPath(s.contract) })))];
   const listener = directRoutes(
-    {
-      routes: routers.flatMap((r) => r.hot),
-      hostAllowed: knownHost(deps.env.APP_ORIGIN, deps.env.ALLOWED_HOSTS),
-      crossSiteRefusal: (header, protocol) => crossSiteRefusal(deps.env.APP_ORIGIN, header, protocol),
-      securityHeaders: headers,
-      sessions: auth,
-      cookieName: cookie.name,
-      bodyLimitBytes: API_BODY_LIMIT_BYTES,
-      log: (msg, err) => deps.log.error(msg, err),
-      requestLog: logLine,
-    },
+    directOptions(
+      deps,
+      auth,
+      routers.flatMap((r) => r.hot),
+    ),
     (req, res) => app(req as express.Request, res as express.Response),
   );
-  return Object.assign((req: IncomingMessage, res: ServerResponse) => listener(req, res), {
+  return Object.assign(listener, {
     routes,
     /** Express alone, without the direct path (tests compare the two). */
     express: app,
     listen: (port: number, host?: string, onListening?: () => void): Server => createServer(listener).listen(port, host, onListening),
   });
 }
+
+/** What the direct path checks a request against: the same host, origin, headers, session and limits as Express. */
+export function directOptions(deps: AppDeps, sessions: SessionResolver, routes: HotRoute[]): DirectOptions {
+  const origin = deps.env.APP_ORIGIN;
+  return {
+    routes,
+    hostAllowed: knownHost(origin, deps.env.ALLOWED_HOSTS),
+    crossSiteRefusal: (header, protocol) => crossSiteRefusal(origin, header, protocol),
+    securityHeaders: securityHeaders(origin),
+    sessions,
+    cookieName: sessionCookie(origin).name,
+    bodyLimitBytes: API_BODY_LIMIT_BYTES,
+    log: (msg, err) => deps.log.error(msg, err),
+    requestLog: requestLogLine(deps),
+  };
+}
+
+const requestLogLine = (deps: AppDeps) => (deps.env.LOG_REQUESTS === 'on' ? (line: string) => deps.log.info(line) : undefined);
 export type App = ReturnType<typeof createApp>;

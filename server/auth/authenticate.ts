@@ -13,8 +13,8 @@ export function sessionCookie(appOrigin: string) {
 // route's access policy decides (401 where a user is needed).
 export function authenticate(sessions: SessionResolver, cookieName: string): RequestHandler {
   return async (req, _res, next) => {
-    const token = req.cookies?.[cookieName];
-    if (typeof token === 'string' && token.length > 0 && token.length < 4096) {
+    const token = sessionToken(req.cookies, cookieName);
+    if (token) {
       const found = await sessions.resolve(token);
       if (found) {
         req.user = found.user;
@@ -23,4 +23,10 @@ export function authenticate(sessions: SessionResolver, cookieName: string): Req
     }
     next();
   };
+}
+
+/** The session cookie's token among parsed cookies, if it is one worth looking up (a string of sane length). */
+export function sessionToken(cookies: Record<string, unknown> | undefined, cookieName: string): string | undefined {
+  const token = cookies?.[cookieName];
+  return typeof token === 'string' && token.length > 0 && token.length < 4096 ? token : undefined;
 }

@@ -3,6 +3,7 @@ import type { RequestHandler } from 'express';
 import type { ZodType } from 'zod';
 import cookieParser from 'cookie-parser';
 import type { SessionResolver } from '../auth/types';
+import { sessionToken } from '../auth/authenticate';
 import { fullPath } from '../../shared/contracts/contract';
 import { answerForError, problemBody } from '../middleware/error-handler';
 import { requestLine } from '../middleware/request-log';
@@ -62,8 +63,8 @@ export function directRoutes(opts: DirectOptions, next: Listener): Listener {
     const route = byPath.get(`${req.method} ${req.url}`);
     if (!route || !inOrder(req)) return next(req, res);
     parseCookies(req as never, res as never, noop);
-    const token = (req as { cookies?: Record<string, unknown> }).cookies?.[opts.cookieName];
-    if (typeof token !== 'string' || token.length === 0 || token.length >= 4096) return next(req, res);
+    const token = sessionToken((req as { cookies?: Record<string, unknown> }).cookies, opts.cookieName);
+    if (!token) return next(req, res);
     const started = process.hrtime.bigint();
     opts.sessions.resolve(token).then(
       (found) => {

@@ -7,11 +7,9 @@ import { once } from 'node:events';
 import supertest, { type Response } from 'supertest';
 import { createTestApp, DEMO, DEMO_PASSWORD, ORIGIN, type TestApp } from '../setup/test-app';
 import { newReading, stepOf, stripByLabel, venueIds } from './testing-helpers';
-import { directRoutes, type DirectOptions } from '../../server/http/direct-routes';
+import { directRoutes } from '../../server/http/direct-routes';
 import { readingsContracts } from '../../shared/contracts/readings';
-import { API_BODY_LIMIT_BYTES, securityHeaders } from '../../server/app';
-import { knownHost } from '../../server/middleware/host-check';
-import { crossSiteRefusal } from '../../server/middleware/csrf';
+import { API_BODY_LIMIT_BYTES, directOptions } from '../../server/app';
 import { readingsRoutes } from '../../server/routes/readings.routes';
 import { authService } from '../../server/services/auth.service';
 
@@ -37,24 +35,15 @@ beforeAll(async () => {
   annexStepId = stepOf(await stripByLabel(t, annex, 'Annex 2'), 'Left floor cable', 'continuity', 'A').step.id;
   samCookie = await cookieOf(DEMO.technician);
   nina = await cookieOf(DEMO.organiser);
-  direct = directRoutes(directOptions(), (req, res) => {
+  direct = directRoutes(directOptionsOfTestApp(), (req, res) => {
     handedOn.push(req.url ?? '');
     t.app.express(req as never, res as never);
   });
 });
-
-/** The options server/app.ts gives the direct path, for the test app. */
-const directOptions = (): DirectOptions => ({
-  routes: readingsRoutes(t.deps).hot,
-  hostAllowed: knownHost(ORIGIN, []),
-  crossSiteRefusal: (header, protocol) => crossSiteRefusal(ORIGIN, header, protocol),
-  securityHeaders: securityHeaders(ORIGIN),
-  sessions: authService(t.deps),
-  cookieName: 'sw_session',
-  bodyLimitBytes: API_BODY_LIMIT_BYTES,
-  log: () => {},
-});
 afterAll(() => t.close());
+
+/** The options server/app.ts gives the direct path, for the test app's deps. */
+const directOptionsOfTestApp = () => directOptions(t.deps, authService(t.deps), readingsRoutes(t.deps).hot);
 
 /** What must be the same on both paths: status, headers but the per-request ones, body. */
 function comparable(res: Response) {
@@ -175,7 +164,7 @@ describe('the direct reading write', () => {
     const logged: string[] = [];
     const buggy = directRoutes(
       {
-        ...directOptions(),
+        ...directOptionsOfTestApp(),
         routes: [
           {
             contract: readingsContracts.record,
